@@ -1,0 +1,52 @@
+// Bundles every entry point with esbuild. `--watch` rebuilds on change,
+// `--production` minifies (used for packaging and the size budget).
+import * as esbuild from 'esbuild';
+import { existsSync } from 'node:fs';
+
+const watch = process.argv.includes('--watch');
+const production = process.argv.includes('--production');
+
+/** Node-side bundles: CLI, language server, extension client. */
+const nodeEntries = [
+  { in: 'src/cli/index.ts', out: 'dist/cli' },
+  { in: 'src/server/index.ts', out: 'dist/server' },
+  { in: 'src/client/extension.ts', out: 'dist/extension' },
+].filter((e) => existsSync(e.in));
+
+/** Browser-side bundles for the webview. */
+const webEntries = [{ in: 'media/src/view.ts', out: 'dist/media/view' }].filter((e) => existsSync(e.in));
+
+const common = { bundle: true, minify: production, sourcemap: !production, logLevel: 'warning', legalComments: 'linked' };
+
+const contexts = [];
+for (const e of nodeEntries) {
+  contexts.push(await esbuild.context({
+    ...common,
+    entryPoints: [{ in: e.in, out: e.out }],
+    outdir: '.',
+    platform: 'node',
+    target: 'node20',
+    format: 'cjs',
+    external: ['vscode'],
+    banner: e.banner ? { js: e.banner } : undefined,
+  }));
+}
+for (const e of webEntries) {
+  contexts.push(await esbuild.context({
+    ...common,
+    entryPoints: [{ in: e.in, out: e.out }],
+    outdir: '.',
+    platform: 'browser',
+    target: 'es2022',
+    format: 'iife',
+  }));
+}
+
+if (watch) {
+  await Promise.all(contexts.map((c) => c.watch()));
+  console.log('esbuild: watching');
+} else {
+  await Promise.all(contexts.map((c) => c.rebuild()));
+  await Promise.all(contexts.map((c) => c.dispose()));
+  console.log(`esbuild: built ${contexts.length} bundle(s)${production ? ' (minified)' : ''}`);
+}

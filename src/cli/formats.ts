@@ -1,0 +1,66 @@
+/** The three output formats of `boltzmark report`: a table for people, JSON (the contract) and CSV. */
+import { betaText, enhancementText, fractionText, temperatureText, type ReportEntry, type BlockReport, DEFAULT_DISPLAY } from '../core';
+
+/** A block with its report entry, for the formatters. */
+export interface Row {
+  readonly entry: ReportEntry;
+  readonly block: BlockReport;
+}
+
+/** Human table: file:line, id, status, T, β, P, P_th, ε; then each problem on its own line. */
+export function formatTable(rows: readonly Row[]): string {
+  if (rows.length === 0) return 'No levels blocks found.\n';
+  const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε'];
+  const body = rows.map(({ entry: e, block: b }) => {
+    const r = b.results;
+    return [
+      `${e.file}:${e.line}`,
+      e.id ?? '—',
+      e.status,
+      r ? temperatureText(r).replace(/^T = /, '') : '—',
+      r ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
+      r?.polarization ? fractionText(r.polarization) : '—',
+      r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',
+      r ? enhancementText(r.enhancement) : '—',
+    ];
+  });
+  const width = (s: string): number => [...s].length;
+  const widths = head.map((h, i) => Math.max(width(h), ...body.map((r) => width(r[i]))));
+  const line = (cells: string[]): string => cells.map((c, i) => c + ' '.repeat(widths[i] - width(c))).join('  ').trimEnd();
+  const out = [line(head), line(widths.map((w) => '-'.repeat(w)))];
+  rows.forEach(({ entry }, i) => {
+    out.push(line(body[i]));
+    for (const d of entry.diagnostics) out.push(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
+  });
+  return out.join('\n') + '\n';
+}
+
+/** The JSON array of the contract, two-space indented. */
+export function formatJson(rows: readonly Row[]): string {
+  return JSON.stringify(rows.map((r) => r.entry), null, 2) + '\n';
+}
+
+const CSV_HEAD = ['file', 'line', 'id', 'status', 'beta', 'beta_uncertainty', 'temperature', 'temperature_uncertainty', 'polarization', 'polarization_uncertainty', 'thermal_polarization', 'enhancement', 'entropy', 'errors', 'warnings'];
+
+function csvCell(v: string | number | null): string {
+  if (v === null) return '';
+  const s = String(v);
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** CSV (RFC 4180) with full-precision numbers and empty cells for unknowns. */
+export function formatCsv(rows: readonly Row[]): string {
+  const lines = [CSV_HEAD.join(',')];
+  for (const { entry: e } of rows) {
+    lines.push([
+      e.file, e.line, e.id, e.status,
+      e.beta?.value ?? null, e.beta?.uncertainty ?? null,
+      e.temperature?.value ?? null, e.temperature?.uncertainty ?? null,
+      e.polarization?.value ?? null, e.polarization?.uncertainty ?? null,
+      e.thermalPolarization, e.enhancement, e.entropy,
+      e.diagnostics.filter((d) => d.severity === 'error').length,
+      e.diagnostics.filter((d) => d.severity === 'warning').length,
+    ].map(csvCell).join(','));
+  }
+  return lines.join('\r\n') + '\r\n';
+}

@@ -1,0 +1,9 @@
+#!/usr/bin/env node
+/** Entry point of the `boltzmark` command. */
+import { main } from './main';
+
+process.exitCode = main(process.argv.slice(2), {
+  out: (s) => process.stdout.write(s),
+  err: (s) => process.stderr.write(s),
+  cwd: process.cwd(),
+});

@@ -1,0 +1,101 @@
+/**
+ * From a block's physical input to its results: β with its standard
+ * uncertainty (first-order propagation, GUM §5.1.2), T = 1/β, polarization,
+ * thermal polarization at the lattice temperature, enhancement, Gibbs
+ * entropy, the Boltzmann fit for three or more levels, and the status word.
+ */
+import type { BlockInput } from '../block/input';
+import { betaFromSpinPolarization } from '../physics/brillouin';
+import { invertedPairs } from '../physics/fit';
+import { gibbsEntropy, meanEnergy, thermalDistribution } from '../physics/entropy';
+import { betaFromTwoLevelPolarization } from '../physics/twoLevel';
+import type { Measured, Problem } from '../types';
+import { fitManyLevels, measureTwoLevels, type BetaFinding } from './beta';
+import { polarizationOf, thermalPolarizationOf } from './polarization';
+import type { BlockResults } from './results';
+import { statusOf } from './status';
+
+/** Settings that change results. */
+export interface AnalysisOptions {
+  /** β within this many standard uncertainties of zero counts as saturated (default 2). */
+  readonly saturationSigma: number;
+}
+
+/** The contract's default settings. */
+export const DEFAULT_ANALYSIS_OPTIONS: AnalysisOptions = { saturationSigma: 2 };
+
+/** Analyses a block that read without errors. Never throws. */
+export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_ANALYSIS_OPTIONS): BlockResults {
+  const problems: Problem[] = [];
+  const finding = findBeta(input, problems);
+  const energies = input.levels.map((l) => l.energy);
+  const g = input.levels.map((l) => l.g);
+  const fractions = finding.fractions ?? impliedFractions(energies, g, finding);
+  const beta = finding.beta;
+  const temperature = temperatureOf(beta, finding.limit);
+  const polarization = finding.polarization ?? polarizationOf(input, fractions);
+  const thermalPolarization = thermalPolarizationOf(input);
+  const enhancement = polarization && thermalPolarization ? polarization.value / thermalPolarization : null;
+  return {
+    status: statusOf(beta, finding, options.saturationSigma),
+    beta,
+    limit: finding.limit,
+    temperature,
+    polarization,
+    thermalPolarization,
+    enhancement: enhancement !== null && Number.isFinite(enhancement) ? enhancement : null,
+    entropy: fractions ? gibbsEntropy(fractions, g) : null,
+    fit: finding.fit,
+    invertedPairs: fractions ? invertedPairs(energies, fractions, g) : [],
+    fractions,
+    meanEnergy: fractions ? meanEnergy(fractions, energies) : null,
+    problems: [...problems, ...finding.problems],
+  };
+}
+
+function findBeta(input: BlockInput, problems: Problem[]): BetaFinding {
+  if (input.polarization) return fromPolarization(input, problems);
+  const measured = input.levels.filter((l) => l.population !== null);
+  if (measured.length === 2 && input.levels.length === 2) return measureTwoLevels(input);
+  return fitManyLevels(input);
+}
+
+/** β from a directly given polarization (spin form). */
+function fromPolarization(input: BlockInput, problems: Problem[]): BetaFinding {
+  const spin = input.spin!;
+  const p = input.polarization!;
+  const base: BetaFinding = { beta: null, limit: null, fit: null, fractions: null, polarization: { value: p.value, uncertainty: p.uncertainty }, problems: [] };
+  if (Math.abs(p.value) === 1) {
+    problems.push({ severity: 'info', code: 'temperature-zero', message: `|P| = 1: every spin is in one level, so T → 0${p.value > 0 ? '⁺' : '⁻'} (β → ${p.value > 0 ? '+' : '−'}∞).`, span: p.span });
+    return { ...base, limit: p.value > 0 ? 'zero-positive' : 'zero-negative' };
+  }
+  const I = spin.species.spin;
+  let beta: Measured | null;
+  if (I === 0.5) {
+    beta = betaFromTwoLevelPolarization(p.value, 1, 1, spin.spacing, p.uncertainty, spin.uSpacing);
+  } else {
+    const b = betaFromSpinPolarization(I, p.value, spin.spacing, p.uncertainty);
+    // Add the spacing's share, ∂β/∂ΔE = −β/ΔE, in quadrature (GUM §5.1.2).
+    const us = spin.uSpacing !== null && b ? Math.abs(b.value / spin.spacing) * spin.uSpacing : null;
+    beta = b && us !== null ? { value: b.value, uncertainty: Math.hypot(b.uncertainty ?? 0, us) } : b;
+  }
+  return { ...base, beta };
+}
+
+/** Fractions implied by β when only a polarization was measured. */
+function impliedFractions(energies: number[], g: number[], f: BetaFinding): number[] | null {
+  if (f.beta) return thermalDistribution(energies, g, f.beta.value);
+  if (f.limit === 'zero-positive') return energies.map((_, i) => (i === 0 ? 1 : 0));
+  if (f.limit === 'zero-negative') return energies.map((_, i) => (i === energies.length - 1 ? 1 : 0));
+  return null;
+}
+
+/** T = 1/β with u(T) = u(β)/β² (first order); null at β = 0; 0 in the T → 0 limits. */
+function temperatureOf(beta: Measured | null, limit: BetaFinding['limit']): Measured | null {
+  if (limit) return { value: 0, uncertainty: null };
+  if (!beta || beta.value === 0) return null;
+  const value = 1 / beta.value;
+  if (!Number.isFinite(value)) return null;
+  const u = beta.uncertainty === null ? null : beta.uncertainty / (beta.value * beta.value);
+  return { value, uncertainty: u !== null && Number.isFinite(u) ? u : null };
+}

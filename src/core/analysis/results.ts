@@ -1,0 +1,41 @@
+/** The physical results of one block, as the contract names them, plus what editors show. */
+import type { Measured, Problem, Status } from '../types';
+
+/** Summary of the Boltzmann fit of a block with three or more levels. */
+export interface FitSummary {
+  readonly chi2: number;
+  readonly dof: number;
+  /** True when the fit used the populations' uncertainties as weights. */
+  readonly weighted: boolean;
+  /** True when the levels are consistent with one temperature (see docs/format.md#status). */
+  readonly consistent: boolean;
+  /** Residuals of ln(n/g) per level (null for a level left out of the fit). */
+  readonly residuals: readonly (number | null)[];
+  /** The 1 % critical value of χ² used, or null when the residual rule applied. */
+  readonly critical: number | null;
+}
+
+/** Results of a block that read without errors. */
+export interface BlockResults {
+  readonly status: Exclude<Status, 'invalid'>;
+  /** Inverse temperature in K⁻¹, or null when it is ±∞ (see `limit`). */
+  readonly beta: Measured | null;
+  /** Set when all population sits in the lowest (`zero-positive`) or highest (`zero-negative`) level. */
+  readonly limit: 'zero-positive' | 'zero-negative' | null;
+  /** 1/β in K; null when β = 0; value 0 in a `limit`. */
+  readonly temperature: Measured | null;
+  readonly polarization: Measured | null;
+  readonly thermalPolarization: number | null;
+  readonly enhancement: number | null;
+  /** Gibbs entropy S/(Nk) of the measured (or implied) distribution. */
+  readonly entropy: number | null;
+  readonly fit: FitSummary | null;
+  /** Pairs of level indices (lowest first) with more population per degeneracy in the upper one. */
+  readonly invertedPairs: readonly { readonly lower: number; readonly upper: number }[];
+  /** Normalised population of each level (measured, or implied by β when a polarization was given). */
+  readonly fractions: readonly number[] | null;
+  /** Mean energy per system in kelvin, from `fractions`. */
+  readonly meanEnergy: number | null;
+  /** Warnings and notes found by the analysis (body-relative spans). */
+  readonly problems: readonly Problem[];
+}

@@ -1,0 +1,86 @@
+/**
+ * Form 1 of the contract: explicit levels, a list of
+ * `{ label, energy, g, population, uncertainty }` items in any order.
+ */
+import { unknownKey } from './unknownKey';
+import type { BlockInput, LevelInput } from './input';
+import { readPopulation, withSiblingUncertainty } from './populations';
+import { LEVEL_KEY_NAMES } from './schema';
+import { nonEmpty, readInteger, readList, readQuantity, readText, report, type ReadContext } from './values';
+import { entries, isMap, spanOf, type Entry } from './yamlTree';
+
+type FormRead = Omit<BlockInput, 'lattice' | 'count'>;
+
+/** Reads the `levels` list; levels come back sorted by energy, lowest first. */
+export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): FormRead | null {
+  const e = byKey.get('levels')!;
+  if (byKey.has('populations')) {
+    report(ctx, 'error', 'populations-misplaced', 'With explicit `levels`, give each level its own `population:` instead of a `populations` list.', byKey.get('populations')!.keySpan);
+  }
+  const items = readList(ctx, e.value, 'levels', e.valueSpan);
+  if (!items) return null;
+  if (items.length < 2) {
+    report(ctx, 'error', 'levels-too-few', `levels: at least two levels are needed; ${items.length} given.`, nonEmpty(e.valueSpan));
+    return null;
+  }
+  const unit = firstEnergyUnit(ctx, items) ?? 'cm-1';
+  const levels: LevelInput[] = [];
+  let ok = true;
+  items.forEach((item, i) => {
+    const level = readLevel(ctx, item, i, unit);
+    if (level) levels.push(level);
+    else ok = false;
+  });
+  if (!ok) return null;
+  const sorted = [...levels].sort((a, b) => a.energy - b.energy);
+  if (sorted[0].energy === sorted[sorted.length - 1].energy) {
+    report(ctx, 'error', 'energy-equal', 'levels: all levels have the same energy, so no temperature can be defined.', nonEmpty(e.valueSpan));
+    return null;
+  }
+  if (sorted.every((l) => l.population === 0)) {
+    report(ctx, 'error', 'populations-zero', 'levels: all populations are zero, so nothing can be computed.', nonEmpty(e.valueSpan));
+    return null;
+  }
+  return { form: 'levels', levels: sorted, energyUnit: unit, spin: null, polarization: null, ratio: null, uGap: null };
+}
+
+/** The unit of the first level energy written with one, offered by the "add a unit" fix. */
+function firstEnergyUnit(ctx: ReadContext, items: unknown[]): string | null {
+  for (const item of items) {
+    const energy = entries(ctx.doc, item).find((x) => x.key === 'energy');
+    const t = energy ? readText(ctx, energy.value) : null;
+    const m = t ? /^\s*[-+]?[\d.]+(?:[eE][-+]?\d+)?\s*(?:(?:±|\+-)\s*[\d.]+(?:[eE][-+]?\d+)?\s*)?([^\s\d].*?)\s*$/.exec(t.text) : null;
+    if (m) return m[1];
+  }
+  return null;
+}
+
+function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): LevelInput | null {
+  const span = spanOf(item);
+  const subject = `levels[${i}]`;
+  if (!isMap(item)) {
+    report(ctx, 'error', 'level-not-mapping', `${subject}: each level is a mapping such as \`{ energy: 120 cm-1, g: 3, population: 0.25 }\`.`, nonEmpty(span ?? { start: 0, end: 0 }));
+    return null;
+  }
+  const byKey = new Map(entries(ctx.doc, item).map((x) => [x.key, x] as const));
+  for (const x of byKey.values()) if (!LEVEL_KEY_NAMES.has(x.key)) unknownKey(ctx, x, LEVEL_KEY_NAMES);
+  const ee = byKey.get('energy');
+  const pe = byKey.get('population');
+  if (!ee) report(ctx, 'error', 'energy-missing', `${subject}: \`energy\` is required.`, nonEmpty(span!));
+  if (!pe) report(ctx, 'error', 'population-missing', `${subject}: \`population\` is required.`, nonEmpty(span!));
+  const energy = ee ? readQuantity(ctx, ee.value, 'energy', `${subject}.energy`, { suggestUnit: unit }) : null;
+  const g = byKey.get('g') ? readInteger(ctx, byKey.get('g')!.value, `${subject}.g`, 'degeneracy-invalid', 1) : null;
+  const p0 = pe ? readPopulation(ctx, pe.value, `${subject}.population`) : null;
+  const p = p0 ? withSiblingUncertainty(ctx, p0, byKey.get('uncertainty'), `${subject}.population`) : null;
+  const label = byKey.get('label') ? readText(ctx, byKey.get('label')!.value) : null;
+  if (!energy || !p || (byKey.get('g') && !g)) return null;
+  return {
+    label: label?.text ?? null,
+    energy: energy.value,
+    g: g ? g.value : 1,
+    population: p.value,
+    uPopulation: p.uncertainty,
+    span: span!,
+    populationSpan: p.span,
+  };
+}

@@ -1,0 +1,150 @@
+/**
+ * Reads a block body with the `yaml` package and gives the rest of the core a
+ * small, position-keeping view of it. Offsets are body-relative (the block
+ * layer maps them to the note). Parsing never throws; YAML's own errors and
+ * our bounds come back as problems.
+ */
+import { Document, isAlias, isMap, isPair, isScalar, isSeq, Node, parseDocument } from 'yaml';
+import type { Problem, Span } from '../types';
+
+/** How many nodes aliases may add when expanded, in all, per block. */
+export const ALIAS_EXPANSION_LIMIT = 10_000;
+
+/** A parsed body: the document (or null when unusable) and the problems found. */
+export interface YamlBody {
+  readonly doc: Document.Parsed | null;
+  readonly problems: Problem[];
+}
+
+const YAML_CODES: Record<string, string> = {
+  DUPLICATE_KEY: 'yaml-duplicate-key',
+  BAD_ALIAS: 'yaml-alias',
+  TAB_AS_INDENT: 'yaml-tab-indent',
+};
+
+/** Parses one block body as YAML 1.2 with unique keys required. */
+export function parseBody(body: string): YamlBody {
+  const problems: Problem[] = [];
+  let doc: Document.Parsed;
+  try {
+    doc = parseDocument(body, { uniqueKeys: true, prettyErrors: false, keepSourceTokens: false, strict: true });
+  } catch (err) {
+    // The parser is robust, but a bug or a stack overflow on pathological nesting must not take the note down.
+    problems.push({ severity: 'error', code: 'yaml-syntax', message: `The block could not be read as YAML (${(err as Error).message}).`, span: { start: 0, end: body.length } });
+    return { doc: null, problems };
+  }
+  for (const e of doc.errors) {
+    const [start, end] = e.pos;
+    problems.push({
+      severity: 'error',
+      code: YAML_CODES[e.code] ?? 'yaml-syntax',
+      message: `YAML: ${e.message}`,
+      span: { start, end: Math.max(end, start + 1) },
+    });
+  }
+  for (const w of doc.warnings) {
+    const [start, end] = w.pos;
+    problems.push({ severity: 'warning', code: 'yaml-warning', message: `YAML: ${w.message}`, span: { start, end: Math.max(end, start + 1) } });
+  }
+  const expanded = aliasExpansion(doc);
+  if (expanded.added > ALIAS_EXPANSION_LIMIT) {
+    problems.push({
+      severity: 'error',
+      code: 'alias-expansion',
+      message: `Aliases in this block would expand to more than ${ALIAS_EXPANSION_LIMIT.toLocaleString('en-US')} extra nodes; the block is not read. Write the values out or use fewer nested aliases.`,
+      span: expanded.firstAlias ?? { start: 0, end: body.length },
+    });
+    return { doc: null, problems };
+  }
+  return { doc, problems };
+}
+
+/**
+ * Counts how many nodes alias references would add if expanded, without
+ * expanding anything: one post-order pass with each node's expanded size
+ * memoised, so an "alias bomb" is measured in linear time. Iterative, so
+ * deeply nested input cannot overflow the stack.
+ */
+function aliasExpansion(doc: Document.Parsed): { added: number; firstAlias: Span | null } {
+  const size = new Map<unknown, number>();
+  let added = 0;
+  let firstAlias: Span | null = null;
+  const root = doc.contents;
+  if (!root) return { added, firstAlias };
+  const stack: { node: unknown; done: boolean }[] = [{ node: root, done: false }];
+  while (stack.length > 0) {
+    const top = stack.pop()!;
+    const node = top.node;
+    if (isAlias(node)) {
+      const target = node.resolve(doc);
+      const s = target ? (size.get(target) ?? 1) : 1;
+      added += s;
+      if (!firstAlias && node.range) firstAlias = { start: node.range[0], end: node.range[1] };
+      size.set(node, s);
+      if (added > ALIAS_EXPANSION_LIMIT) break;
+      continue;
+    }
+    const kids = children(node);
+    if (!top.done && kids.length > 0) {
+      stack.push({ node, done: true });
+      // Reversed, so children are finished in document order: an anchor is sized before its aliases.
+      for (let i = kids.length - 1; i >= 0; i--) stack.push({ node: kids[i], done: false });
+      continue;
+    }
+    let s = 1;
+    for (const k of kids) s += size.get(k) ?? 1;
+    size.set(node, s);
+  }
+  return { added, firstAlias };
+}
+
+function children(node: unknown): unknown[] {
+  if (isMap(node) || isSeq(node)) {
+    const out: unknown[] = [];
+    for (const item of node.items as unknown[]) {
+      if (isPair(item)) {
+        if (item.key != null && typeof item.key === 'object') out.push(item.key);
+        if (item.value != null) out.push(item.value);
+      } else if (item != null) out.push(item);
+    }
+    return out;
+  }
+  return [];
+}
+
+/** Follows an alias to its anchored node; other nodes are returned as they are. */
+export function deref(doc: Document.Parsed, node: unknown): unknown {
+  return isAlias(node) ? node.resolve(doc) : node;
+}
+
+/** The span a node covers (value part, without trailing comments), or null. */
+export function spanOf(node: unknown): Span | null {
+  const r = (node as Node | null)?.range;
+  return r ? { start: r[0], end: Math.max(r[1], r[0]) } : null;
+}
+
+/** A mapping entry with the spans of its key and value. */
+export interface Entry {
+  readonly key: string;
+  readonly keySpan: Span;
+  readonly value: unknown;
+  readonly valueSpan: Span;
+}
+
+/** Entries of a YAML mapping node; non-scalar keys are skipped (the caller reports them). */
+export function entries(doc: Document.Parsed, node: unknown): Entry[] {
+  const map = deref(doc, node);
+  if (!isMap(map)) return [];
+  const out: Entry[] = [];
+  for (const pair of map.items) {
+    const k = pair.key;
+    if (!isScalar(k) || k.range == null) continue;
+    const keySpan = spanOf(k)!;
+    const value = deref(doc, pair.value);
+    const valueSpan = spanOf(pair.value) ?? { start: keySpan.end, end: keySpan.end };
+    out.push({ key: String(k.value), keySpan, value, valueSpan });
+  }
+  return out;
+}
+
+export { isMap, isScalar, isSeq };

@@ -1,0 +1,18 @@
+/**
+ * The whole public API of the core. The language server, the CLI, the
+ * curve view and the tests are hosts of what is exported here; nothing
+ * below imports `vscode`, the LSP packages or Node built-ins.
+ */
+export { Analyzer, DEFAULT_ANALYZER_OPTIONS, type AnalyzerOptions, type BlockReport, type DocumentReport } from './document';
+export type { BlockResults, FitSummary } from './analysis/results';
+export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
+export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
+export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
+export { LineIndex, type LineCol } from './text/lineIndex';
+export { reportEntry, type ReportEntry, type ReportDiagnostic } from './report';
+export { DEFAULT_DISPLAY, STATUS_WORDS, betaText, enhancementText, fractionText, shortSummary, temperatureText, type DisplayOptions } from './summary';
+export * from './format';
+export * from './constants';
+export { lookupSpecies, speciesSymbols, larmorFrequencyHz, zeemanSpacingKelvin, type SpinSpecies } from './isotopes';
+export { parseQuantity, convert, unitsFor, type Dimension, type Quantity } from './units';
+export { STATUSES, type Measured, type Problem, type Replacement, type Severity, type Span, type Status } from './types';

@@ -1,0 +1,162 @@
+/**
+ * Finds fenced code blocks by the CommonMark rules (spec 0.31, §4.5): a fence
+ * is three or more backticks or tildes indented by at most three spaces; a
+ * backtick fence's info string holds no backtick; the block closes at a fence
+ * of the same character, at least as long, indented at most three spaces and
+ * followed only by spaces or tabs; an unclosed block runs to the end of the
+ * document. Content lines lose up to as many leading spaces as the opening
+ * fence was indented. Container blocks (lists, block quotes) are not parsed:
+ * blocks are recognised at the left margin only, which is where notes keep them.
+ */
+
+/** One body line: where it starts in the note and how many indent spaces were removed. */
+export interface BodyLine {
+  /** Offset of the line's first character in the note (before stripping). */
+  readonly docStart: number;
+  /** Offset of the line's first kept character in the body text. */
+  readonly bodyStart: number;
+  /** Spaces removed at the start of the line. */
+  readonly stripped: number;
+}
+
+/** A fenced code block of any language, with exact offsets into the note. */
+export interface FencedBlock {
+  /** The whole info string, trimmed. */
+  readonly info: string;
+  /** Its first word (the language), e.g. `levels`. */
+  readonly language: string;
+  /** 0-based line of the opening fence. */
+  readonly openLine: number;
+  /** 0-based line of the closing fence, or null when the block runs to the end. */
+  readonly closeLine: number | null;
+  /** Offsets of the opening fence line (start, end without the line break). */
+  readonly openStart: number;
+  readonly openEnd: number;
+  /** Offset just after the closing fence line's last character (or the text's end). */
+  readonly blockEnd: number;
+  /** The content as CommonMark defines it (indentation stripped), lines joined by their own breaks. */
+  readonly body: string;
+  /** Per body line mapping back to the note; empty for an empty body. */
+  readonly lines: readonly BodyLine[];
+  /** 0-based line of the first body line. */
+  readonly bodyLine: number;
+}
+
+interface Fence {
+  readonly char: number;
+  readonly length: number;
+  readonly indent: number;
+  readonly info: string;
+}
+
+const BACKTICK = 96;
+const TILDE = 126;
+const SPACE = 32;
+
+function openingFence(text: string, start: number, end: number): Fence | null {
+  let i = start;
+  while (i < end && i - start < 4 && text.charCodeAt(i) === SPACE) i++;
+  const indent = i - start;
+  if (indent > 3) return null;
+  const ch = text.charCodeAt(i);
+  if (ch !== BACKTICK && ch !== TILDE) return null;
+  let j = i;
+  while (j < end && text.charCodeAt(j) === ch) j++;
+  const length = j - i;
+  if (length < 3) return null;
+  const info = text.slice(j, end).trim();
+  if (ch === BACKTICK && info.includes('`')) return null;
+  return { char: ch, length, indent, info };
+}
+
+function isClosingFence(text: string, start: number, end: number, open: Fence): boolean {
+  let i = start;
+  while (i < end && i - start < 4 && text.charCodeAt(i) === SPACE) i++;
+  if (i - start > 3) return false;
+  let j = i;
+  while (j < end && text.charCodeAt(j) === open.char) j++;
+  if (j - i < open.length) return false;
+  for (; j < end; j++) {
+    const c = text.charCodeAt(j);
+    if (c !== SPACE && c !== 9) return false;
+  }
+  return true;
+}
+
+/** Scans the note line by line; O(length of the note). */
+export function findFencedBlocks(text: string): FencedBlock[] {
+  const blocks: FencedBlock[] = [];
+  let pos = 0;
+  let line = 0;
+  let open: { fence: Fence; openStart: number; openEnd: number; openLine: number; lines: BodyLine[]; parts: string[]; bodyLen: number } | null = null;
+
+  // Next \r at or after pos, cached so the scan stays linear on long notes.
+  let nextCr = -2;
+  while (pos <= text.length) {
+    if (nextCr !== -1 && nextCr < pos) nextCr = text.indexOf('\r', pos);
+    const nl = text.indexOf('\n', pos);
+
+    const end = nl === -1 ? text.length : nl;
+    let next = nl === -1 ? text.length + 1 : nl + 1;
+    let contentEnd = end;
+    if (contentEnd > pos && text.charCodeAt(contentEnd - 1) === 13) contentEnd--;
+    // A lone \r also ends a line in CommonMark.
+    if (nextCr !== -1 && nextCr < contentEnd) { contentEnd = nextCr; next = nextCr + 1; }
+
+    if (open === null) {
+      const fence = openingFence(text, pos, contentEnd);
+      if (fence) open = { fence, openStart: pos, openEnd: contentEnd, openLine: line, lines: [], parts: [], bodyLen: 0 };
+    } else if (isClosingFence(text, pos, contentEnd, open.fence)) {
+      blocks.push(finish(open, line, contentEnd));
+      open = null;
+    } else {
+      let strip = 0;
+      while (strip < open.fence.indent && text.charCodeAt(pos + strip) === SPACE) strip++;
+      const lineText = text.slice(pos + strip, Math.min(next, text.length));
+      open.lines.push({ docStart: pos, bodyStart: open.bodyLen, stripped: strip });
+      open.parts.push(lineText);
+      open.bodyLen += lineText.length;
+    }
+    pos = next;
+    line++;
+  }
+  if (open) blocks.push(finish(open, null, text.length));
+  return blocks;
+}
+
+function finish(
+  open: { fence: Fence; openStart: number; openEnd: number; openLine: number; lines: BodyLine[]; parts: string[] },
+  closeLine: number | null,
+  blockEnd: number,
+): FencedBlock {
+  return {
+    info: open.fence.info,
+    language: open.fence.info.split(/\s+/, 1)[0] ?? '',
+    openLine: open.openLine,
+    closeLine,
+    openStart: open.openStart,
+    openEnd: open.openEnd,
+    blockEnd,
+    body: open.parts.join(''),
+    lines: open.lines,
+    bodyLine: open.openLine + 1,
+  };
+}
+
+/**
+ * Maps an offset in a block's body text back to an offset in the note.
+ * Binary search over the body lines; exact also for indented fences.
+ */
+export function bodyToDocument(block: FencedBlock, bodyOffset: number): number {
+  const lines = block.lines;
+  if (lines.length === 0) return block.openEnd;
+  let lo = 0;
+  let hi = lines.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (lines[mid].bodyStart <= bodyOffset) lo = mid;
+    else hi = mid - 1;
+  }
+  const l = lines[lo];
+  return l.docStart + l.stripped + (bodyOffset - l.bodyStart);
+}

@@ -1,0 +1,264 @@
+/**
+ * Quantity strings of the notebook format: `"<number> [± <number>] [<unit>]"`.
+ *
+ * {@link parseQuantity} reads the syntax only; {@link convert} checks the unit
+ * against the dimension the key asks for and converts to the canonical unit.
+ * Units are case-sensitive as SI writes them (`MT` is not `mT`). Accepted
+ * beyond the unit table of the block format: the Greek letter μ (U+03BC) wherever the micro
+ * sign µ (U+00B5) or `u` is, `^` forms (`cm^-3`, `m^2`, `m^-1`) for every
+ * power unit, and `/m` for `m-1`. Neither function throws: both return a value
+ * or a problem. Energies convert to kelvin (E/k) with the exact SI 2019 constants.
+ */
+import type { Replacement, Span } from './types';
+import { KELVIN_PER_EV, KELVIN_PER_HERTZ, KELVIN_PER_JOULE, KELVIN_PER_WAVENUMBER, photonEnergyKelvinFromWavelength } from './constants';
+import { closest } from './suggest';
+
+/** What a key measures; decides which units are valid. `wavelengthEnergy` is an energy that may also be a photon wavelength. */
+export type Dimension =
+  | 'energy' | 'wavelengthEnergy' | 'field' | 'temperature' | 'time'
+  | 'angle' | 'density' | 'crossSection' | 'length' | 'attenuation';
+
+/** A problem in a quantity string; spans are offsets `[start, end)` within that string. */
+export interface QuantityProblem {
+  /** `number-invalid`, `uncertainty-negative`, `unit-missing`, `unit-case`, `unit-unknown` or `unit-dimension`. */
+  readonly code: string;
+  readonly message: string;
+  readonly span: Span;
+  /** A fix the user may choose, e.g. the intended unit. */
+  readonly replacement?: Replacement;
+}
+
+/** A quantity as written (value and uncertainty not converted). */
+export interface Quantity {
+  readonly value: number;
+  /** Standard uncertainty (1 σ) in the same unit, ≥ 0, or null. */
+  readonly uncertainty: number | null;
+  readonly unit: string | null;
+  readonly valueSpan: Span;
+  readonly uncertaintySpan: Span | null;
+  readonly unitSpan: Span | null;
+}
+
+/** How one unit converts: canonical = value × scale + offset, or, for a wavelength, hc/(λ k) with λ = value × scale in m. */
+interface Rule { readonly scale: number; readonly offset?: number; readonly wavelength?: boolean }
+
+const ENERGY: Record<string, Rule> = {
+  J: { scale: KELVIN_PER_JOULE }, eV: { scale: KELVIN_PER_EV }, meV: { scale: 1e-3 * KELVIN_PER_EV },
+  'µeV': { scale: 1e-6 * KELVIN_PER_EV }, 'cm-1': { scale: KELVIN_PER_WAVENUMBER },
+  Hz: { scale: KELVIN_PER_HERTZ }, kHz: { scale: 1e3 * KELVIN_PER_HERTZ }, MHz: { scale: 1e6 * KELVIN_PER_HERTZ },
+  GHz: { scale: 1e9 * KELVIN_PER_HERTZ }, THz: { scale: 1e12 * KELVIN_PER_HERTZ }, K: { scale: 1 },
+};
+
+/** Canonical spellings per dimension, in completion order, with their conversion to the canonical unit. */
+const TABLE: Record<Dimension, Record<string, Rule>> = {
+  energy: ENERGY,
+  wavelengthEnergy: { ...ENERGY, nm: { scale: 1e-9, wavelength: true }, 'µm': { scale: 1e-6, wavelength: true } },
+  field: { T: { scale: 1 }, mT: { scale: 1e-3 }, G: { scale: 1e-4 } },
+  temperature: { K: { scale: 1 }, mK: { scale: 1e-3 }, 'µK': { scale: 1e-6 }, nK: { scale: 1e-9 }, '°C': { scale: 1, offset: 273.15 } },
+  time: { s: { scale: 1 }, ms: { scale: 1e-3 }, min: { scale: 60 }, h: { scale: 3600 } },
+  angle: { deg: { scale: Math.PI / 180 }, rad: { scale: 1 } },
+  density: { 'cm-3': { scale: 1 }, 'm-3': { scale: 1e-6 } },
+  crossSection: { cm2: { scale: 1 }, m2: { scale: 1e4 } },
+  length: { m: { scale: 100 }, cm: { scale: 1 }, mm: { scale: 0.1 } },
+  attenuation: { 'cm-1': { scale: 1 }, 'm-1': { scale: 0.01 } },
+};
+
+/** Other accepted spellings of a canonical unit (valid in every dimension that has the canonical one). */
+const ALIASES: Record<string, string> = {
+  ueV: 'µeV', 'μeV': 'µeV', 'cm^-1': 'cm-1', '/cm': 'cm-1', um: 'µm', 'μm': 'µm', uK: 'µK', 'μK': 'µK',
+  degC: '°C', 'cm^-3': 'cm-3', 'm^-3': 'm-3', 'cm^2': 'cm2', 'm^2': 'm2', 'm^-1': 'm-1', '/m': 'm-1',
+};
+
+const DIMENSION_NAMES: Record<Dimension, string> = {
+  energy: 'an energy', wavelengthEnergy: 'an energy (or photon wavelength)', field: 'a magnetic field',
+  temperature: 'a temperature', time: 'a time', angle: 'an angle', density: 'a number density',
+  crossSection: 'a cross-section', length: 'a length', attenuation: 'an attenuation coefficient',
+};
+
+/** Canonical units of a dimension, for completions (aliases such as `ueV` or `/cm` are accepted but not listed). */
+export function unitsFor(dim: Dimension): string[] {
+  return Object.keys(TABLE[dim]);
+}
+
+/** The units of a dimension as a comma-separated list for messages, e.g. `T, mT, G`. */
+export function formatUnitList(dim: Dimension): string {
+  return unitsFor(dim).join(', ');
+}
+
+const DECIMAL = /[+\-\u2212]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+\-\u2212]?\d+)?/y;
+const NOT_A_NUMBER = /[+\-\u2212]?(?:nan|inf(?:inity)?)\b/iy;
+const PLUS_MINUS = /±|\+\/-|\+-/y;
+
+type Scanned = { value: number; span: Span; negative: boolean } | { problem: QuantityProblem };
+
+function problem(code: string, message: string, span: Span, replacement?: Replacement): { problem: QuantityProblem } {
+  return { problem: replacement ? { code, message, span, replacement } : { code, message, span } };
+}
+
+function skipSpace(text: string, i: number): number {
+  while (i < text.length && /\s/.test(text[i])) i++;
+  return i;
+}
+
+/** Reads a JS-style decimal at `start`; rejects NaN, Infinity, overflow and decimal commas. */
+function scanNumber(text: string, start: number): Scanned {
+  NOT_A_NUMBER.lastIndex = start;
+  const bad = NOT_A_NUMBER.exec(text);
+  if (bad) return problem('number-invalid', `\`${bad[0]}\` is not a finite number.`, { start, end: start + bad[0].length });
+  DECIMAL.lastIndex = start;
+  const m = DECIMAL.exec(text);
+  if (!m) {
+    const end = Math.max(start + 1, text.slice(start).search(/\s|$/) + start);
+    return problem('number-invalid', 'Expected a number such as `7.05` or `2.0e16`.', { start, end: Math.min(end, text.length) });
+  }
+  const span = { start, end: start + m[0].length };
+  const comma = /^,\d+/.exec(text.slice(span.end));
+  if (comma && !m[0].includes('.')) {
+    const whole = { start, end: span.end + comma[0].length };
+    return problem('number-invalid', 'Use a decimal point, not a comma.', whole,
+      { title: 'Use a decimal point', span: whole, newText: text.slice(whole.start, whole.end).replace(',', '.') });
+  }
+  const value = Number(m[0].replace('\u2212', '-').replace(/([eE])\u2212/, '$1-'));
+  if (!Number.isFinite(value)) return problem('number-invalid', `\`${m[0]}\` is out of the range of double precision.`, span);
+  return { value, span, negative: /^[-\u2212]/.test(m[0]) };
+}
+
+/**
+ * Parses `"7.05 T"`, `"0.312 ± 0.010"`, `"0.312 +- 0.010"`, `"7.05 ± 0.01 T"`
+ * or a bare number (syntax only: the unit is not checked). Numbers are JS-style
+ * decimals (`2.0e16`, `-3.5E-4`, `.5`; the minus sign U+2212 is also read);
+ * `NaN`, `Infinity` and values overflowing double precision are `number-invalid`,
+ * a negative uncertainty is `uncertainty-negative`. Spans are offsets in `text`.
+ */
+export function parseQuantity(text: string): { quantity: Quantity } | { problem: QuantityProblem } {
+  const value = scanNumber(text, skipSpace(text, 0));
+  if ('problem' in value) return value;
+  let i = skipSpace(text, value.span.end);
+  let uncertainty: number | null = null;
+  let uncertaintySpan: Span | null = null;
+  PLUS_MINUS.lastIndex = i;
+  const pm = PLUS_MINUS.exec(text);
+  if (pm) {
+    const u = scanNumber(text, skipSpace(text, i + pm[0].length));
+    if ('problem' in u) return u;
+    if (u.negative && u.value !== 0) {
+      const fixed = text.slice(u.span.start + 1, u.span.end);
+      return problem('uncertainty-negative', 'A standard uncertainty cannot be negative.', u.span,
+        { title: `Change uncertainty to ${fixed}`, span: u.span, newText: fixed });
+    }
+    [uncertainty, uncertaintySpan] = [Math.abs(u.value), u.span];
+    i = skipSpace(text, u.span.end);
+  }
+  const end = text.trimEnd().length;
+  if (i >= end) return { quantity: { value: value.value, uncertainty, unit: null, valueSpan: value.span, uncertaintySpan, unitSpan: null } };
+  const rest = text.slice(i, end);
+  if (/^(?:±|\+-|\+\/-)/.test(rest) || (/^[+\-\u2212.\d]/.test(rest) && !/^1\s*\//.test(rest))) {
+    return problem('number-invalid', `Unexpected \`${rest}\` after the number.`, { start: i, end });
+  }
+  return { quantity: { value: value.value, uncertainty, unit: rest, valueSpan: value.span, uncertaintySpan, unitSpan: { start: i, end } } };
+}
+
+/** The unit every dimension converts to: energies as E/k in K, fields in T, populations per cm³, and so on. */
+export const CANONICAL_UNITS: Readonly<Record<Dimension, string>> = {
+  energy: 'K', wavelengthEnergy: 'K', field: 'T', temperature: 'K', time: 's', angle: 'rad',
+  density: 'cm-3', crossSection: 'cm2', length: 'cm', attenuation: 'cm-1',
+};
+
+const DIMENSIONS = Object.keys(TABLE) as Dimension[];
+
+/** The canonical spelling of `unit` in `dim` (following aliases), or null. */
+function resolve(unit: string, dim: Dimension): string | null {
+  const canonical = unit in TABLE[dim] ? unit : ALIASES[unit];
+  return canonical !== undefined && canonical in TABLE[dim] ? canonical : null;
+}
+
+/** Every accepted spelling in `dim`, canonical ones first. */
+function spellings(dim: Dimension): string[] {
+  return [...unitsFor(dim), ...Object.keys(ALIASES).filter((a) => resolve(a, dim) !== null)];
+}
+
+function resolveIgnoringCase(unit: string, dim: Dimension): string | null {
+  const hit = spellings(dim).find((s) => s.toLowerCase() === unit.toLowerCase());
+  return hit === undefined ? null : resolve(hit, dim);
+}
+
+/** Spelled-out names, lower-cased, that stand for a unit. */
+const WORDS: Record<string, string> = {
+  sec: 's', secs: 's', second: 's', seconds: 's', msec: 'ms', mins: 'min', minute: 'min', minutes: 'min',
+  hr: 'h', hrs: 'h', hour: 'h', hours: 'h', degree: 'deg', degrees: 'deg', radian: 'rad', radians: 'rad',
+  tesla: 'T', millitesla: 'mT', gauss: 'G', kelvin: 'K', millikelvin: 'mK', microkelvin: 'µK', nanokelvin: 'nK',
+  celsius: '°C', degreesc: '°C', joule: 'J', joules: 'J', electronvolt: 'eV', electronvolts: 'eV', hertz: 'Hz',
+  wavenumber: 'cm-1', wavenumbers: 'cm-1', nanometre: 'nm', nanometer: 'nm', micron: 'µm', microns: 'µm',
+  metre: 'm', meter: 'm', centimetre: 'cm', centimeter: 'cm', millimetre: 'mm', millimeter: 'mm',
+};
+
+/** Rewrites `1/cm`, `cm⁻¹`, `cm**-1`, `/cm3`, `℃`, `deg C`, `seconds` … into an accepted spelling where one is meant. */
+function normaliseUnit(unit: string): string {
+  const n = unit.replace(/\s+/g, '').replace(/\u207B|\u2212/g, '-').replace(/\u00B9/g, '1').replace(/\u00B2/g, '2')
+    .replace(/\u00B3/g, '3').replace(/\*\*|[()^]/g, '').replace(/\u2103/g, '°C').replace(/\u00BA/g, '°').replace(/^1\//, '/');
+  const inverse = /^\/(c?m)([23]?)$/.exec(n);
+  if (inverse) return `${inverse[1]}-${inverse[2] || '1'}`;
+  return WORDS[n.toLowerCase()] ?? n;
+}
+
+function unitProblem(quantity: Quantity, unit: string, dim: Dimension): { problem: QuantityProblem } {
+  const span = quantity.unitSpan ?? quantity.valueSpan;
+  const fix = (code: string, message: string, to: string) =>
+    problem(code, message, span, { title: `Change unit to ${to}`, span, newText: to });
+  const needed = `${DIMENSION_NAMES[dim]} (${formatUnitList(dim)})`;
+  const cased = resolveIgnoringCase(unit, dim);
+  if (cased !== null) return fix('unit-case', `Units are case-sensitive: \`${unit}\` is not \`${cased}\`.`, cased);
+  const normal = normaliseUnit(unit);
+  const meant = resolve(normal, dim) ?? resolveIgnoringCase(normal, dim);
+  if (meant !== null) return fix('unit-unknown', `Unknown unit \`${unit}\`; did you mean \`${meant}\`?`, meant);
+  const others = DIMENSIONS.filter((d) => d !== 'wavelengthEnergy' && (resolve(unit, d) ?? resolve(normal, d)) !== null);
+  if (others.length === 0 && resolve(normal, 'wavelengthEnergy') !== null) others.push('wavelengthEnergy');
+  if (others.length > 0) {
+    const what = others.map((d) => (d === 'wavelengthEnergy' ? 'a photon wavelength' : DIMENSION_NAMES[d])).join(' or ');
+    const hint = dim === 'energy' && others[0] === 'wavelengthEnergy' ? ' A wavelength is accepted only for a transition energy such as `gap`.' : '';
+    return problem('unit-dimension', `\`${unit}\` measures ${what}; ${needed} is needed here.${hint}`, span);
+  }
+  const limit = unit.length <= 1 ? 0 : unit.length <= 3 ? 1 : 2;
+  const near = closest(unit, spellings(dim), limit, { ignoreCase: true });
+  if (near !== null) return fix('unit-unknown', `Unknown unit \`${unit}\`; did you mean \`${resolve(near, dim)}\`?`, resolve(near, dim) ?? near);
+  return problem('unit-unknown', `Unknown unit \`${unit}\`: ${needed} is needed here.`, span);
+}
+
+/** Options of {@link convert}. */
+export interface ConvertOptions {
+  /** Unit assumed for a bare number (when the key documents one); without it a bare number is `unit-missing`. */
+  readonly defaultUnit?: string;
+}
+
+/**
+ * Converts a parsed quantity to the canonical unit of `dim` ({@link CANONICAL_UNITS}):
+ * energies to kelvin as E/k (h, k, e, c exact, SI 2019), photon wavelengths by
+ * E = hc/(λk) with first-order uncertainty u_E = E u_λ/λ, °C by adding 273.15.
+ * Range checks (a positive temperature, a positive gap) are left to the caller,
+ * except that a wavelength must be positive and results must stay finite.
+ */
+export function convert(quantity: Quantity, dim: Dimension, options: ConvertOptions = {}):
+  { value: number; uncertainty: number | null } | { problem: QuantityProblem } {
+  const unit = quantity.unit ?? options.defaultUnit ?? null;
+  if (unit === null) {
+    return problem('unit-missing', `A unit is needed: ${DIMENSION_NAMES[dim]} (${formatUnitList(dim)}).`, quantity.valueSpan);
+  }
+  const canonical = resolve(unit, dim);
+  if (canonical === null) return unitProblem(quantity, unit, dim);
+  const rule = TABLE[dim][canonical];
+  const { value: x, uncertainty: u } = quantity;
+  let value: number;
+  let uncertainty: number | null;
+  if (rule.wavelength) {
+    if (!(x > 0)) return problem('number-invalid', 'A photon wavelength must be positive.', quantity.valueSpan);
+    value = photonEnergyKelvinFromWavelength(x * rule.scale);
+    uncertainty = u === null ? null : (value * u) / x;
+  } else {
+    value = x * rule.scale + (rule.offset ?? 0);
+    uncertainty = u === null ? null : u * rule.scale;
+  }
+  if (!Number.isFinite(value) || (uncertainty !== null && !Number.isFinite(uncertainty))) {
+    return problem('number-invalid', `The value is out of range after conversion to ${CANONICAL_UNITS[dim]}.`, quantity.valueSpan);
+  }
+  return { value, uncertainty };
+}

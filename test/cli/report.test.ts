@@ -1,0 +1,109 @@
+import { strict as assert } from 'node:assert';
+import { mkdtempSync, writeFileSync, mkdirSync, chmodSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { main } from '../../src/cli/main';
+
+function run(args: string[], cwd = process.cwd()): { code: number; out: string; err: string } {
+  let out = '';
+  let err = '';
+  const code = main(args, { out: (s) => (out += s), err: (s) => (err += s), cwd });
+  return { code, out, err };
+}
+
+const CONTRACT_FIELDS = ['file', 'line', 'id', 'status', 'beta', 'temperature', 'polarization', 'thermalPolarization', 'enhancement', 'entropy', 'diagnostics'];
+
+describe('boltzmark report', () => {
+  it('prints the JSON array of the contract for the demo notebook, field by field', () => {
+    const { code, out } = run(['report', 'demo', '--format', 'json']);
+    assert.equal(code, 1, 'the demo has one block with deliberate errors');
+    const entries = JSON.parse(out) as Record<string, unknown>[];
+    assert.ok(entries.length >= 9);
+    for (const e of entries) {
+      for (const f of CONTRACT_FIELDS) assert.ok(f in e, `field ${f} present`);
+      assert.ok(['normal', 'saturated', 'inverted', 'non-thermal', 'invalid'].includes(e.status as string));
+      for (const f of ['beta', 'temperature', 'polarization']) {
+        const m = e[f] as { value: number; uncertainty: number | null } | null;
+        if (m !== null) {
+          assert.equal(typeof m.value, 'number');
+          assert.ok(m.uncertainty === null || typeof m.uncertainty === 'number');
+        }
+      }
+      for (const d of e.diagnostics as Record<string, unknown>[]) {
+        assert.ok(['error', 'warning', 'info'].includes(d.severity as string));
+        assert.match(d.code as string, /^[a-z]+(-[a-z]+)*$/);
+        assert.equal(typeof d.line, 'number');
+      }
+    }
+    // Files in name order, blocks in line order.
+    const keys = entries.map((e) => `${e.file}:${String(e.line).padStart(5, '0')}`);
+    assert.deepEqual(keys, [...keys].sort());
+    const run1 = entries.find((e) => e.id === 'cell-B run 1')!;
+    assert.equal(run1.file, 'demo/polarizer-log.md');
+    assert.equal(run1.status, 'normal');
+    assert.equal(Math.round((run1.beta as { value: number }).value * 100) / 100, 178.17);
+    const statuses = new Set(entries.map((e) => e.status));
+    for (const s of ['normal', 'saturated', 'inverted', 'non-thermal', 'invalid']) assert.ok(statuses.has(s), `demo covers ${s}`);
+  });
+
+  it('prints a table with the block locations and the problems of the broken block', () => {
+    const { out } = run(['report', 'demo/polarizer-log.md']);
+    assert.match(out, /^where\s+id\s+status\s+T\s+β/m);
+    assert.match(out, /demo\/polarizer-log\.md:26\s+cell-B run 1\s+normal\s+5\.61 ± 0\.19 mK/);
+    assert.match(out, /demo\/polarizer-log\.md:86:13: error unit-case/);
+  });
+
+  it('prints CSV with a header and one row per block', () => {
+    const { out } = run(['report', 'demo', '-f', 'csv']);
+    const rows = out.trim().split('\r\n');
+    assert.equal(rows[0].split(',')[0], 'file');
+    assert.equal(rows.length - 1, (JSON.parse(run(['report', 'demo', '-f', 'json']).out) as unknown[]).length);
+    assert.ok(rows.some((r) => r.startsWith('demo/pumped-cell.md,') && r.includes('"cell P-4, pump on"')));
+  });
+
+  it('exits 0 when no block has an error, and reports a broken block next to good ones', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'bm-'));
+    writeFileSync(join(dir, 'ok.md'), '```levels\ngap: 1 K\nratio: 0.5\n```\n');
+    assert.equal(run(['report', dir]).code, 0);
+    writeFileSync(join(dir, 'z.md'), '```levels\ngap: [\n```\n```levels\ngap: 2 K\nratio: 0.5\n```\n');
+    const r = run(['report', dir, '-f', 'json']);
+    assert.equal(r.code, 1);
+    const entries = JSON.parse(r.out) as { status: string }[];
+    assert.deepEqual(entries.map((e) => e.status), ['normal', 'invalid', 'normal']);
+  });
+
+  it('exits 2 with one line on stderr for an unknown option, an unknown format or a missing path', () => {
+    for (const args of [['report', 'demo', '--bogus'], ['report', 'demo', '-f', 'xml'], ['report', 'no/such/place']]) {
+      const r = run(args);
+      assert.equal(r.code, 2, args.join(' '));
+      assert.equal(r.out, '');
+      assert.equal(r.err.trim().split('\n').length, 1, r.err);
+      assert.match(r.err, /^boltzmark: /);
+    }
+  });
+
+  it('exits 2 for an unreadable file', function () {
+    if (process.getuid?.() === 0) {
+      // root reads everything; a folder in place of a file still cannot be read as text.
+      const dir = mkdtempSync(join(tmpdir(), 'bm-'));
+      mkdirSync(join(dir, 'x.md'));
+      const r = run(['report', join(dir, 'x.md', '..', 'x.md')]);
+      assert.equal(r.code, 0, 'a folder named x.md is walked, not read');
+      return;
+    }
+    const dir = mkdtempSync(join(tmpdir(), 'bm-'));
+    const f = join(dir, 'secret.md');
+    writeFileSync(f, '```levels\ngap: 1 K\nratio: 0.5\n```\n');
+    chmodSync(f, 0o000);
+    assert.equal(run(['report', f]).code, 2);
+  });
+
+  it('runs as the bundled command with the exit status of the contract', () => {
+    const r = spawnSync(process.execPath, ['dist/cli.js', 'report', 'demo', '--format', 'json'], { encoding: 'utf8' });
+    assert.equal(r.status, 1);
+    assert.ok(Array.isArray(JSON.parse(r.stdout)));
+    const bad = spawnSync(process.execPath, ['dist/cli.js', 'report', '--nope'], { encoding: 'utf8' });
+    assert.equal(bad.status, 2);
+  });
+});

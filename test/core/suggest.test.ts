@@ -1,0 +1,76 @@
+import { strict as assert } from 'node:assert';
+import { closest, editDistance } from '../../src/core/suggest';
+
+describe('editDistance', () => {
+  it('is zero for equal strings and the length of the other string when one is empty', () => {
+    assert.equal(editDistance('', ''), 0);
+    assert.equal(editDistance('mT', 'mT'), 0);
+    assert.equal(editDistance('', 'GHz'), 3);
+    assert.equal(editDistance('GHz', ''), 3);
+  });
+
+  it('gives 3 for kitten and sitting, the classic Levenshtein example', () => {
+    // Textbook example of the Levenshtein distance (from memory).
+    assert.equal(editDistance('kitten', 'sitting'), 3);
+  });
+
+  it('counts a swap of two adjacent characters as one edit', () => {
+    // Damerau's transposition; common practice, no source.
+    assert.equal(editDistance('ab', 'ba'), 1);
+    assert.equal(editDistance('13C', '31C'), 1);
+    assert.equal(editDistance('MHz', 'MzH'), 1);
+  });
+
+  it('never edits a substring twice, so ca to abc costs 3 and not 2', () => {
+    // Known difference between the optimal-string-alignment and the unrestricted
+    // Damerau-Levenshtein distance (from memory).
+    assert.equal(editDistance('ca', 'abc'), 3);
+  });
+
+  it('counts code points, so the micro sign is one character', () => {
+    assert.equal(editDistance('µK', 'uK'), 1);
+    assert.equal(editDistance('°C', 'C'), 1);
+  });
+
+  it('is case-sensitive', () => {
+    assert.equal(editDistance('MT', 'mT'), 1);
+  });
+
+  it('stops at the bound and then returns bound plus one', () => {
+    assert.equal(editDistance('kitten', 'sitting', 1), 2);
+    assert.equal(editDistance('kitten', 'sitting', 3), 3);
+    assert.equal(editDistance('a', 'abcdef', 2), 3);
+    assert.equal(editDistance('abc', 'abd', 0), 1);
+  });
+
+  it('is symmetric', () => {
+    const words = ['electron', 'elektron', 'C13', '13C', 'cm^-1', 'cm-1', ''];
+    for (const a of words) for (const b of words) assert.equal(editDistance(a, b), editDistance(b, a), `${a} / ${b}`);
+  });
+});
+
+describe('closest', () => {
+  it('returns the nearest candidate within the limit', () => {
+    assert.equal(closest('elektron', ['1H', 'electron', '13C'], 2), 'electron');
+    assert.equal(closest('lattise', ['lattice', 'count', 'note'], 2), 'lattice');
+  });
+
+  it('returns null when no candidate is within the limit', () => {
+    assert.equal(closest('furlongs', ['m', 'cm', 'mm'], 2), null);
+    assert.equal(closest('abc', [], 5), null);
+  });
+
+  it('prefers the candidate listed first when two are equally near', () => {
+    assert.equal(closest('xT', ['mT', 'nT'], 1), 'mT');
+    assert.equal(closest('xT', ['nT', 'mT'], 1), 'nT');
+  });
+
+  it('prefers a nearer candidate listed later over a farther one listed first', () => {
+    assert.equal(closest('popluation', ['polarization', 'population'], 3), 'population');
+  });
+
+  it('can compare without case and still returns the candidate as written', () => {
+    assert.equal(closest('mhz', ['kHz', 'MHz'], 0, { ignoreCase: true }), 'MHz');
+    assert.equal(closest('mhz', ['kHz', 'MHz'], 0), null);
+  });
+});
