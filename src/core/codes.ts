@@ -62,6 +62,7 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'level-not-mapping': { severity: 'error', summary: 'A level item is not a mapping.' },
   'energy-missing': { severity: 'error', summary: 'A level without `energy`.' },
   'population-missing': { severity: 'error', summary: 'A level without `population`.' },
+  'levels-descending': { severity: 'info', summary: 'Levels listed from the top down; a fix lists them lowest first.' },
   'energy-equal': { severity: 'error', summary: 'All levels at one energy: no temperature is defined.' },
   // Populations
   'population-negative': { severity: 'error', summary: 'A negative population.' },

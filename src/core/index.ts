@@ -16,3 +16,8 @@ export * from './constants';
 export { lookupSpecies, speciesSymbols, larmorFrequencyHz, zeemanSpacingKelvin, type SpinSpecies } from './isotopes';
 export { parseQuantity, convert, unitsFor, type Dimension, type Quantity } from './units';
 export { STATUSES, type Measured, type Problem, type Replacement, type Severity, type Span, type Status } from './types';
+export { schemeCurve, betaAtEnergy, thermalStateAtEnergy, type CurvePoint } from './physics/curves';
+export { finiteNCurve, lnBinomial, type FiniteNPoint } from './physics/finiteN';
+export { gibbsEntropy, thermalDistribution, meanEnergy, relativeEntropy } from './physics/entropy';
+export { betaFromPopulations } from './physics/twoLevel';
+export { CODES, codeDocAnchor, type CodeDoc } from './codes';

@@ -96,6 +96,11 @@ const ELEMENT_NAMES: Readonly<Record<string, string>> = {
   fluorine: 'F', sodium: 'Na', silicon: 'Si', phosphorus: 'P', xenon: 'Xe',
 };
 
+/** The element symbol for a lower-cased name or symbol: `carbon` → `C`, `xe` → `Xe`. */
+function elementSymbol(lower: string): string {
+  return Object.hasOwn(ELEMENT_NAMES, lower) ? ELEMENT_NAMES[lower] : lower.charAt(0).toUpperCase() + lower.slice(1);
+}
+
 /** Puts `C13`, `13c`, `13 C`, `c-13`, `carbon-13` into the `13C` form, or returns null. */
 function normaliseSymbol(text: string): string | null {
   const compact = text.replace(/[\s_\-–]+/g, '').replace(/^\^/, '');
@@ -103,7 +108,7 @@ function normaliseSymbol(text: string): string | null {
   if (!match) return null;
   const [mass, letters] = /^\d/.test(match[1]) ? [match[1], match[2]] : [match[2], match[1]];
   const lower = letters.toLowerCase();
-  const element = ELEMENT_NAMES[lower] ?? lower.charAt(0).toUpperCase() + lower.slice(1);
+  const element = elementSymbol(lower);
   return `${Number(mass)}${element}`;
 }
 
@@ -121,8 +126,7 @@ export function lookupSpecies(text: string): { species: SpinSpecies } | { sugges
   if (exact) return { species: exact };
   const trimmed = text.trim();
   if (TABLE.has(trimmed)) return { suggestion: trimmed };
-  const alias = ALIASES[trimmed.toLowerCase()];
-  if (alias) return { suggestion: alias };
+  if (Object.hasOwn(ALIASES, trimmed.toLowerCase())) return { suggestion: ALIASES[trimmed.toLowerCase()] };
   const normal = normaliseSymbol(trimmed);
   if (normal !== null && TABLE.has(normal)) return { suggestion: normal };
   const symbols = speciesSymbols();
@@ -136,7 +140,7 @@ export function lookupSpecies(text: string): { species: SpinSpecies } | { sugges
   }
   // An element without a mass number (`Xe`, `carbon`): its first isotope in the table.
   const bare = trimmed.toLowerCase();
-  const element = ELEMENT_NAMES[bare] ?? bare.charAt(0).toUpperCase() + bare.slice(1);
+  const element = elementSymbol(bare);
   const first = symbols.find((s) => s.replace(/^\d+/, '') === element);
   if (first !== undefined) return { suggestion: first };
   const limit = trimmed.length <= 3 ? 1 : 2;

@@ -168,8 +168,8 @@ const DIMENSIONS = Object.keys(TABLE) as Dimension[];
 
 /** The canonical spelling of `unit` in `dim` (following aliases), or null. */
 function resolve(unit: string, dim: Dimension): string | null {
-  const canonical = unit in TABLE[dim] ? unit : ALIASES[unit];
-  return canonical !== undefined && canonical in TABLE[dim] ? canonical : null;
+  const canonical = Object.hasOwn(TABLE[dim], unit) ? unit : Object.hasOwn(ALIASES, unit) ? ALIASES[unit] : null;
+  return canonical !== null && Object.hasOwn(TABLE[dim], canonical) ? canonical : null;
 }
 
 /** Every accepted spelling in `dim`, canonical ones first. */
@@ -198,7 +198,7 @@ function normaliseUnit(unit: string): string {
     .replace(/\u00B3/g, '3').replace(/\*\*|[()^]/g, '').replace(/\u2103/g, '°C').replace(/\u00BA/g, '°').replace(/^1\//, '/');
   const inverse = /^\/(c?m)([23]?)$/.exec(n);
   if (inverse) return `${inverse[1]}-${inverse[2] || '1'}`;
-  return WORDS[n.toLowerCase()] ?? n;
+  return Object.hasOwn(WORDS, n.toLowerCase()) ? WORDS[n.toLowerCase()] : n;
 }
 
 function unitProblem(quantity: Quantity, unit: string, dim: Dimension): { problem: QuantityProblem } {

@@ -142,6 +142,6 @@ describe('lookupSpecies', () => {
   });
 
   it('suggests nothing for text that resembles no species', () => {
-    for (const text of ['foo', '', 'Uranium', '235U', 'neutrino']) assert.deepEqual(lookupSpecies(text), { suggestion: null }, text);
+    for (const text of ['foo', '', 'Uranium', '235U', 'neutrino', 'constructor', 'toString', '__proto__']) assert.deepEqual(lookupSpecies(text), { suggestion: null }, text);
   });
 });

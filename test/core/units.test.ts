@@ -283,6 +283,12 @@ describe('convert', () => {
     assert.equal(problemOf('1e308 J', 'energy').code, 'number-invalid');
   });
 
+  it('treats names of JavaScript object properties as unknown units', () => {
+    for (const unit of ['toString', 'constructor', '__proto__', 'hasOwnProperty']) {
+      assert.equal(problemOf(`3 ${unit}`, 'field').code, 'unit-unknown', unit);
+    }
+  });
+
   it('reports an invalid default unit instead of throwing', () => {
     assert.equal(problemOf('3', 'field', 'eV').code, 'unit-dimension');
   });

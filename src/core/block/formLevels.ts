@@ -3,6 +3,7 @@
  * `{ label, energy, g, population, uncertainty }` items in any order.
  */
 import { unknownKey } from './unknownKey';
+import type { Span } from '../types';
 import type { BlockInput, LevelInput } from './input';
 import { readPopulation, withSiblingUncertainty } from './populations';
 import { LEVEL_KEY_NAMES } from './schema';
@@ -32,6 +33,7 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
     else ok = false;
   });
   if (!ok) return null;
+  descendingNote(ctx, e, items, levels);
   const sorted = [...levels].sort((a, b) => a.energy - b.energy);
   if (sorted[0].energy === sorted[sorted.length - 1].energy) {
     report(ctx, 'error', 'energy-equal', 'levels: all levels have the same energy, so no temperature can be defined.', nonEmpty(e.valueSpan));
@@ -83,4 +85,25 @@ function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): Le
     span: span!,
     populationSpan: p.span,
   };
+}
+
+/**
+ * Levels written from the top down are read correctly (they are sorted), but
+ * a note reads better lowest first, as the format's other lists are; offer to
+ * reverse them. The fix keeps every item's text and the separators between
+ * items, so comments and layout survive.
+ */
+function descendingNote(ctx: ReadContext, e: Entry, items: unknown[], levels: LevelInput[]): void {
+  if (levels.length < 2 || levels.length !== items.length) return;
+  for (let i = 1; i < levels.length; i++) if (!(levels[i].energy < levels[i - 1].energy)) return;
+  const spans = items.map((it) => spanOf(it));
+  if (spans.some((x) => x === null)) return;
+  const s = spans as Span[];
+  const texts = s.map((x) => ctx.body.slice(x.start, x.end));
+  const seps = s.slice(1).map((x, i) => ctx.body.slice(s[i].end, x.start));
+  let newText = texts[texts.length - 1];
+  for (let i = 0; i < seps.length; i++) newText += seps[i] + texts[texts.length - 2 - i];
+  report(ctx, 'info', 'levels-descending', 'The levels are listed from the highest energy down; they are read correctly, but lowest first matches the populations lists of the other forms.', e.keySpan, [
+    { title: 'List the levels lowest energy first', span: { start: s[0].start, end: s[s.length - 1].end }, newText },
+  ]);
 }

@@ -61,17 +61,20 @@ function isSpin(j: number): boolean {
  * Method: with a = (2J+1)/2J and b = 1/2J, coth t = L(t) + 1/t turns the defining
  * formula into B_J(x) = a·L(a x) − b·L(b x) (L the Langevin function), in which the
  * 1/x poles cancel exactly; L is evaluated by a continued fraction for small
- * arguments and by coth for large ones, and for |x| ≥ 4J (both coth arguments ≥ 2)
- * B_J = 1 + 2a/expm1(2a|x|) − 2b/expm1(2b|x|) (times the sign of x) keeps 1 − B_J exact. This keeps full relative precision at small
- * x (B_J(x) ≈ (J+1)x/3J), saturates to ±1 for large |x|, and is odd in x.
+ * arguments and by coth for large ones. For |x| ≥ 4J (both coth arguments ≥ 2)
+ * B_J = ±[1 + 2a/expm1(2a|x|) − 2b/expm1(2b|x|)], which keeps 1 − |B_J| accurate.
+ * The result has full relative precision at small x (B_J(x) ≈ (J+1)x/3J),
+ * saturates to exactly ±1 for large |x|, and is odd in x.
  *
  * Domain: J > 0 (any real; the spin case is J = 1/2, 1, 3/2, …), x any number
- * including ±∞. Returns null for NaN x or J not finite and > 0.
+ * including ±∞. Returns null for NaN x, J not finite and > 0, or J so small that
+ * 1/2J overflows.
  */
 export function brillouin(j: number, x: number): number | null {
   if (!Number.isFinite(j) || j <= 0 || Number.isNaN(x)) return null;
-  const a = (2 * j + 1) / (2 * j);
-  const b = 1 / (2 * j);
+  const b = 0.5 / j;
+  const a = 1 + b; // (2J+1)/2J without overflowing 2J
+  if (!Number.isFinite(b)) return null;
   if (!Number.isFinite(x)) return x > 0 ? 1 : -1;
   const t = Math.abs(x);
   if (b * t < 2) return a * langevin(a * x) - b * langevin(b * x) + 0;
@@ -83,8 +86,8 @@ export function brillouin(j: number, x: number): number | null {
 
 /** dB_J/dx = a²L′(a x) − b²L′(b x), same a, b as {@link brillouin}; finite for all x. */
 function brillouinDerivative(j: number, x: number): number {
-  const a = (2 * j + 1) / (2 * j);
-  const b = 1 / (2 * j);
+  const b = 0.5 / j;
+  const a = 1 + b;
   return a * a * langevinDerivative(a * x) - b * b * langevinDerivative(b * x);
 }
 

@@ -12,7 +12,7 @@
  * Units: energies E/k in K, β in K⁻¹, S in k per system. Nothing here throws.
  */
 
-/** A level scheme checked and shifted so that exponents never overflow. */
+/** A checked level scheme in typed arrays (ln g precomputed) for the O(levels) loops. */
 interface Scheme {
   readonly e: Float64Array;
   readonly lnG: Float64Array;
@@ -43,7 +43,8 @@ function prepare(energiesK: readonly number[], g: readonly number[] | null | und
     min = Math.min(min, ei);
     max = Math.max(max, ei);
   }
-  return max > min && Number.isFinite(max - min) ? { e, lnG, min, max } : null;
+  const span = max - min;
+  return span > 0 && Number.isFinite(span) && Number.isFinite(1 / span) ? { e, lnG, min, max } : null;
 }
 
 /**
@@ -77,6 +78,9 @@ export interface CurvePoint {
   readonly entropy: number;
 }
 
+/** Upper bound on the number of points of one curve, so that a setting cannot ask for unbounded work. */
+export const MAX_CURVE_POINTS = 100000;
+
 /** Relative distance from the ground or top energy at which the curve stops. */
 const END_TOLERANCE = 1e-6;
 
@@ -86,7 +90,7 @@ function endBeta(s: Scheme, sign: 1 | -1): number {
   let b = 1 / span;
   for (let i = 0; i < 1100; i++) {
     const m = moments(s, sign * b).energy;
-    if ((sign > 0 ? m - s.min : s.max - m) <= END_TOLERANCE * span) break;
+    if ((sign > 0 ? m - s.min : s.max - m) <= END_TOLERANCE * span || !Number.isFinite(2 * b)) break;
     b *= 2;
   }
   return b;
@@ -144,7 +148,8 @@ class Queue {
  * Cost O(points × levels + points log points).
  *
  * Domain: ≥ 2 levels with finite energies and a non-zero span, g (null = all 1)
- * finite and > 0; `points` ≥ 3 (default 400). Returns null otherwise.
+ * finite and > 0; `points` between 3 and {@link MAX_CURVE_POINTS} (default 400, clamped).
+ * Returns null otherwise.
  */
 export function schemeCurve(
   energiesK: readonly number[],
@@ -154,7 +159,7 @@ export function schemeCurve(
   const s = prepare(energiesK, g);
   if (s === null) return null;
   const requested = opts?.points;
-  const points = requested !== undefined && Number.isFinite(requested) ? Math.max(3, Math.floor(requested)) : 400;
+  const points = requested !== undefined && Number.isFinite(requested) ? Math.min(MAX_CURVE_POINTS, Math.max(3, Math.floor(requested))) : 400;
   const span = s.max - s.min;
   const logHi = Math.log1p(endBeta(s, 1) * span);
   const logLo = Math.log1p(endBeta(s, -1) * span);
@@ -193,8 +198,9 @@ export function schemeCurve(
     queue.push({ key: chord(lo, mid), lo, hi: mid });
     queue.push({ key: chord(mid, hi), lo: mid, hi });
   }
-  // Decreasing β is increasing energy.
-  return [...byT.values()].sort((a, b) => b.beta - a.beta);
+  // Decreasing β is increasing energy. Schemes at the edge of the double range may still overflow: no curve then.
+  const curve = [...byT.values()].sort((a, b) => b.beta - a.beta);
+  return curve.every((p) => Number.isFinite(p.beta) && Number.isFinite(p.energy) && Number.isFinite(p.entropy)) ? curve : null;
 }
 
 /**
@@ -219,7 +225,7 @@ function solveBeta(s: Scheme, energyK: number): number {
   const sign = energyK < mid ? 1 : -1; // below the β = 0 energy, β > 0
   let lo = 0;
   let hi = 1 / (s.max - s.min);
-  for (let i = 0; i < 2100 && sign * (moments(s, sign * hi).energy - energyK) > 0; i++) {
+  for (let i = 0; i < 2100 && Number.isFinite(2 * hi) && sign * (moments(s, sign * hi).energy - energyK) > 0; i++) {
     lo = hi;
     hi *= 2;
   }

@@ -88,7 +88,7 @@ export function thermalDistribution(
   for (const e of energiesK) if (beta >= 0 ? e < ref : e > ref) ref = e;
   const logWeights = energiesK.map((e, i) => {
     const lg = Math.log(g ? g[i]! : 1);
-    if (e === ref) return lg;
+    if (e === ref || beta === 0) return lg; // β = 0: weights g alone, even if E − E_ref overflows
     // Infinite β: every level but the reference one gets weight 0.
     return Number.isFinite(beta) ? lg - beta * (e - ref) : -Infinity;
   });

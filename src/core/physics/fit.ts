@@ -4,7 +4,7 @@
  *
  * Sources: weighted linear least squares as in P. R. Bevington, D. K. Robinson,
  * Data Reduction and Error Analysis for the Physical Sciences, 3rd ed., McGraw-Hill
- * 2003, ch. 6; the Boltzmann-plot method as reviewed by J. A. Aguilera, C. Aragón,
+ * 2003, ch. 6 (chapter cited from memory); the Boltzmann-plot method as reviewed by J. A. Aguilera, C. Aragón,
  * Spectrochim. Acta B 63, 893–916 (2008); uncertainty propagation GUM (JCGM 100:2008)
  * §5.1.2. The χ² quantile comes from @stdlib/stats-base-dists-chisquare-quantile.
  *
@@ -42,7 +42,8 @@ export interface LineFit {
  * Sums are taken about the weighted mean of x for numerical stability.
  *
  * Domain: at least 2 points, equal lengths, finite x and y, every σ finite and
- * > 0. Returns null otherwise, and when all x are equal (to rounding).
+ * > 0. Returns null otherwise, when all x are equal (to rounding), and when the
+ * sums overflow.
  */
 export function weightedLineFit(x: readonly number[], y: readonly number[], sigma: readonly number[] | null): LineFit | null {
   const n = x.length;
@@ -77,6 +78,8 @@ export function weightedLineFit(x: readonly number[], y: readonly number[], sigm
   const intercept = ym - slope * xm;
   const residuals = x.map((xi, i) => y[i]! - (intercept + slope * xi));
   const chi2 = residuals.reduce((acc, r, i) => acc + w[i]! * r * r, 0);
+  // Overflow in the sums (values near the double range) makes the fit meaningless: no result.
+  if (!Number.isFinite(slope) || !Number.isFinite(intercept) || !Number.isFinite(chi2)) return null;
   const dof = n - 2;
   // (XᵀWX)⁻¹ about the mean: var(b) = 1/Sxx, var(a) = 1/Sw + x̄²/Sxx, cov(a, b) = −x̄/Sxx.
   const factor = sigma !== null ? 1 : dof > 0 ? chi2 / dof : NaN;

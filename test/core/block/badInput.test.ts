@@ -170,3 +170,19 @@ describe('bad input in a block', () => {
     assert.ok(report.blocks.every((b) => b.status === 'normal'));
   });
 });
+
+describe('tidy-ups offered as fixes', () => {
+  it('offers to list levels written from the top down lowest first, keeping each item as written', () => {
+    const body = 'levels:\n  - { label: B, energy: 410 cm-1, g: 5, population: 0.05 }  # top\n  - { label: A, energy: 120 cm-1, g: 3, population: 0.25 }\n  - { label: ground, energy: 0 cm-1, population: 0.70 }';
+    const p = problem(body, 'levels-descending');
+    assert.equal(p.severity, 'info');
+    assert.equal(p.at, 'levels');
+    assert.equal(
+      applyFirstFix(body, 'levels-descending'),
+      'levels:\n  - { label: ground, energy: 0 cm-1, population: 0.70 }  # top\n  - { label: A, energy: 120 cm-1, g: 3, population: 0.25 }\n  - { label: B, energy: 410 cm-1, g: 5, population: 0.05 }',
+    );
+    // Reading is unaffected: the same results either way.
+    const fixed = block(applyFirstFix(body, 'levels-descending')).report.results!;
+    assert.equal(block(body).report.results!.beta!.value, fixed.beta!.value);
+  });
+});

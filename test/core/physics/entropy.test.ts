@@ -100,8 +100,11 @@ describe('Gibbs entropy', () => {
   });
 
   it('returns null for invalid inputs and never NaN', () => {
-    for (const [p, g] of [[[], null], [[0, 0], null], [[1, -1], null], [[1, NaN], null], [[1, Infinity], null], [[1, 1], [1]], [[1, 1], [1, 0]], [[1, 1], [1, NaN]]] as const) {
-      assert.equal(gibbsEntropy(p as number[], g as number[] | null), null, `p = ${p}, g = ${g}`);
+    const cases: Array<[number[], number[] | null]> = [
+      [[], null], [[0, 0], null], [[1, -1], null], [[1, NaN], null], [[1, Infinity], null], [[1, 1], [1]], [[1, 1], [1, 0]], [[1, 1], [1, NaN]],
+    ];
+    for (const [p, g] of cases) {
+      assert.equal(gibbsEntropy(p, g), null, `p = ${p}, g = ${g}`);
     }
   });
 });

@@ -78,10 +78,11 @@ describe('two-level inverse temperature from populations', () => {
   });
 
   it('returns null for an empty level, a non-positive gap and non-finite numbers, and never throws', () => {
-    for (const args of [
+    const cases: Array<[number, number, number, number, number]> = [
       [0, 1, 1, 1, 1], [1, 0, 1, 1, 1], [-0, 1, 1, 1, 1], [1, 1, 1, 1, 0], [1, 1, 1, 1, -2], [1, 1, 0, 1, 1],
       [NaN, 1, 1, 1, 1], [1, Infinity, 1, 1, 1], [1, 1, 1, 1, Infinity], [1, 1, 1, -Infinity, 1], [-1, 1, 1, 1, 1],
-    ] as const) {
+    ];
+    for (const args of cases) {
       assert.equal(betaFromPopulations(...args), null, `inputs ${args.join(', ')}`);
     }
     // Extreme but valid ratios stay finite.
@@ -147,7 +148,10 @@ describe('two-level inverse temperature from polarization', () => {
   });
 
   it('returns null for |P| ≥ 1, non-finite P, and invalid gaps or degeneracies', () => {
-    for (const args of [[1, 1, 1, 1], [-1, 1, 1, 1], [1.2, 1, 1, 1], [NaN, 1, 1, 1], [Infinity, 1, 1, 1], [0.1, 1, 1, 0], [0.1, 0, 1, 1], [0.1, 1, 1, NaN]] as const) {
+    const cases: Array<[number, number, number, number]> = [
+      [1, 1, 1, 1], [-1, 1, 1, 1], [1.2, 1, 1, 1], [NaN, 1, 1, 1], [Infinity, 1, 1, 1], [0.1, 1, 1, 0], [0.1, 0, 1, 1], [0.1, 1, 1, NaN],
+    ];
+    for (const args of cases) {
       assert.equal(betaFromTwoLevelPolarization(...args), null, `inputs ${args.join(', ')}`);
     }
     assert.ok(Object.is(betaFromTwoLevelPolarization(-0, 1, 1, 1)!.value, 0), 'P = −0 gives β = +0');
