@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { mkdtempSync, writeFileSync, mkdirSync, chmodSync } from 'node:fs';
+import { mkdtempSync, writeFileSync, mkdirSync, chmodSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
@@ -105,5 +105,18 @@ describe('boltzmark report', () => {
     assert.ok(Array.isArray(JSON.parse(r.stdout)));
     const bad = spawnSync(process.execPath, ['dist/cli.js', 'report', '--nope'], { encoding: 'utf8' });
     assert.equal(bad.status, 2);
+  });
+});
+
+describe('README', () => {
+  it('shows the report row that the CLI really prints for its example block', () => {
+    const readme = readFileSync('README.md', 'utf8');
+    const body = /```levels\n([\s\S]*?)```/.exec(readme)![1];
+    const dir = mkdtempSync(join(tmpdir(), 'bm-'));
+    writeFileSync(join(dir, 'run7.md'), `# Run 7\n\n\`\`\`levels\n${body}\`\`\`\n`);
+    const { out } = run(['report', join(dir, 'run7.md')]);
+    const printed = out.split('\n')[2].replace(/^\S+/, '').trim().replace(/\s+/g, ' ');
+    const shown = /^run7\.md:3\s+(.*)$/m.exec(readme)![1].trim().replace(/\s+/g, ' ');
+    assert.equal(shown, printed);
   });
 });
