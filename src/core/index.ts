@@ -21,3 +21,6 @@ export { finiteNCurve, lnBinomial, type FiniteNPoint } from './physics/finiteN';
 export { gibbsEntropy, thermalDistribution, meanEnergy, relativeEntropy } from './physics/entropy';
 export { betaFromPopulations } from './physics/twoLevel';
 export { CODES, codeDocAnchor, type CodeDoc } from './codes';
+export { pairTemperature, type PairLevel, type PairTemperature } from './physics/pairs';
+export { RESIDUAL_TOLERANCE } from './physics/fit';
+export { CANONICAL_UNITS } from './units';

@@ -73,6 +73,7 @@ export function shortSummary(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLA
   else parts.push(noU(t));
   if (r.polarization) parts.push(`P = ${noU(fractionText(r.polarization.value, short))}`);
   if (r.enhancement !== null) parts.push(`ε = ${enhancementText(r.enhancement, short)}`);
-  if (r.status !== 'normal') parts.push(r.status);
+  // The temperature text already says "saturated"; other statuses are added once.
+  if (r.status !== 'normal' && !parts[0].includes(r.status)) parts.push(r.status);
   return parts.join(' · ');
 }

@@ -1,0 +1,96 @@
+/**
+ * Inlay hints: the block's short results at the end of its opening fence
+ * line (`T = 5.61 mK · P = 31.2 % · ε = 241`), and after each level its
+ * population per degeneracy and the pair temperature with the level below.
+ * Plain text, no colours; the tooltip carries the longer form.
+ */
+import { MarkupKind, type InlayHint, type Position, type Range } from 'vscode-languageserver';
+import { formatNumber, shortSummary, type BlockReport, type DisplayOptions } from '../../core';
+import type { Settings } from '../settings';
+import { displayOptions, type NoteState } from '../state';
+import { pairTemperature, type PairLevel } from '../../core';
+import { pairTemperatureText } from './hover';
+import { blockResultsMarkdown, firstError } from './markdown';
+
+/** The hints whose position lies in the range; none when hints are switched off. */
+export function inlayHints(state: NoteState, range: Range, settings: Settings): InlayHint[] {
+  if (!settings.inlayHints) return [];
+  const o = displayOptions(settings);
+  const hints: InlayHint[] = [];
+  for (const b of state.report.blocks) {
+    const first = state.lines.positionAt(b.block.openStart).line;
+    const last = state.lines.positionAt(b.block.blockEnd).line;
+    if (last < range.start.line || first > range.end.line) continue;
+    hints.push(blockHint(state, b, o), ...levelHints(state, b, o));
+  }
+  return hints.filter((h) => inRange(h.position, range));
+}
+
+function inRange(p: Position, r: Range): boolean {
+  const before = (a: Position, b: Position): boolean => a.line < b.line || (a.line === b.line && a.character <= b.character);
+  return before(r.start, p) && before(p, r.end);
+}
+
+/**
+ * The block's hint, at the end of the opening fence line: that line holds
+ * only the fence, so the hint never crowds the YAML and stays put while the
+ * body is edited.
+ */
+function blockHint(state: NoteState, b: BlockReport, o: DisplayOptions): InlayHint {
+  const position = state.lines.positionAt(b.block.openEnd);
+  if (!b.results) {
+    const e = firstError(b);
+    return { position, label: e ? `invalid: ${e.code}` : 'invalid', paddingLeft: true, ...(e ? { tooltip: e.message } : {}) };
+  }
+  return {
+    position,
+    label: shortSummary(b.results, o),
+    paddingLeft: true,
+    tooltip: { kind: MarkupKind.Markdown, value: blockResultsMarkdown(state, b, o, true) },
+  };
+}
+
+/**
+ * One hint per measured level: after the line of an explicit level item, or
+ * right after a value of a `populations` list. Levels that share one span (a
+ * transition given by its `ratio`) get none: the hint could not say which is which.
+ */
+function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayHint[] {
+  const input = b.input;
+  const fractions = b.results?.fractions;
+  if (!input || !fractions) return [];
+  const short: DisplayOptions = { ...o, digits: Math.min(o.digits, 3) };
+  const levels = input.levels;
+  const spans = levels.map((l) => (l.span ? b.toNote(l.span) : null));
+  const starts = spans.map((s) => s?.start);
+  const out: InlayHint[] = [];
+  levels.forEach((level, i) => {
+    const span = spans[i];
+    if (!span || starts.indexOf(span.start) !== starts.lastIndexOf(span.start)) return;
+    const pair = (k: number): PairLevel => ({ energy: levels[k].energy, g: levels[k].g, population: fractions[k] });
+    const name = (k: number): string => levels[k].label ?? `level ${k + 1}`;
+    let label = `n/g = ${formatNumber(fractions[i] / level.g, short.digits)}`;
+    let tooltip = `${name(i)}: population per degeneracy n/g = ${formatNumber(fractions[i] / level.g, o.digits)} (populations normalised to 1).`;
+    // With two levels the pair temperature is the block's own T, already in the block hint.
+    if (i > 0 && levels.length > 2) {
+      const t = pairTemperature(pair(i - 1), pair(i));
+      label += ` · T_pair = ${pairTemperatureText(t, short)}`;
+      tooltip += ` Excitation temperature with the level below (${name(i - 1)}): ${pairTemperatureText(t, o)}.`;
+    }
+    out.push({ position: levelHintPosition(state, input.form === 'levels', span, spans), label, paddingLeft: true, tooltip });
+  });
+  return out;
+}
+
+/**
+ * Where a level's hint goes: the end of the last line of an explicit level
+ * item (unless another item continues on that line), else right after the value.
+ */
+function levelHintPosition(state: NoteState, wholeLine: boolean, span: { start: number; end: number }, all: readonly ({ start: number } | null)[]): Position {
+  const end = state.lines.positionAt(span.end);
+  if (!wholeLine) return end;
+  const line = state.lines.positionAt(Math.max(span.start, span.end - 1)).line;
+  const lineEnd = state.lines.lineEnd(line);
+  const crowded = all.some((s) => s !== null && s.start >= span.end && s.start < lineEnd);
+  return crowded ? end : state.lines.positionAt(lineEnd);
+}

@@ -1,0 +1,103 @@
+/**
+ * Markdown building shared by hovers, inlay-hint tooltips and "Copy results":
+ * escaping of user text, small tables, and the results table of a block.
+ * The numbers come from the core's display functions, so every surface shows
+ * the same strings as the `boltzmark report` table.
+ */
+import {
+  betaText,
+  enhancementText,
+  formatNumber,
+  fractionText,
+  STATUS_WORDS,
+  temperatureText,
+  type BlockReport,
+  type DisplayOptions,
+  type Span,
+} from '../../core';
+import type { NoteState } from '../state';
+
+/**
+ * Escapes text the user wrote (ids, labels, values) so that Markdown and HTML
+ * show it literally: `<`, `>` and `&` become entity references (never read as
+ * HTML), other ASCII punctuation that CommonMark could read as syntax gets a
+ * backslash (`|` cannot end a table cell, `*` starts no emphasis), and line
+ * breaks become spaces so the text stays on its line.
+ */
+export function escapeMarkdown(text: string): string {
+  const entities: Readonly<Record<string, string>> = { '<': '&lt;', '>': '&gt;', '&': '&amp;' };
+  return text
+    .replace(/\r\n|\r|\n/g, ' ')
+    .replace(/[\\`*_{}[\]()<>#+\-.!|~&]/g, (c) => entities[c] ?? `\\${c}`);
+}
+
+/** A two-column Markdown table; cells are Markdown already (escape user text before). */
+export function markdownTable(header: readonly [string, string], rows: readonly (readonly [string, string])[]): string {
+  const line = (cells: readonly string[]): string => `| ${cells.join(' | ')} |`;
+  return [line(header), '| :-- | :-- |', ...rows.map(line)].join('\n');
+}
+
+/** The note text of a span, without the quotes a YAML scalar may carry. */
+export function writtenText(state: NoteState, span: Span): string {
+  const raw = state.text.slice(span.start, span.end).trim();
+  return /^(["']).*\1$/s.test(raw) ? raw.slice(1, -1) : raw;
+}
+
+/** How a block is named: its id (escaped), or its place in the note. */
+export function blockName(b: BlockReport): string {
+  return b.meta.id !== null ? escapeMarkdown(b.meta.id) : `levels block at line ${b.block.openLine + 1}`;
+}
+
+/** A core display string without its leading symbol: `T = 5.61 mK` → `5.61 mK`, `T → 0⁺` → `→ 0⁺`. */
+function valuePart(text: string, symbol: string): string {
+  if (text.startsWith(`${symbol} = `)) return text.slice(symbol.length + 3);
+  return text.startsWith(`${symbol} `) ? text.slice(symbol.length + 1) : text;
+}
+
+/** The label of P in tables: for spins above 1/2 the vector polarization. */
+function polarizationLabel(b: BlockReport): string {
+  const spin = b.input?.spin?.species.spin ?? 0.5;
+  return spin > 0.5 ? 'P = ⟨I\\_z⟩/I' : 'P';
+}
+
+/**
+ * The rows of a valid block's results, in the order of the settings (β first
+ * when asked): T, β, P, P_th at the lattice temperature as written, ε, S/(Nk).
+ * Unknown quantities are left out rather than shown as dashes.
+ */
+export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions): [string, string][] {
+  const r = b.results;
+  if (!r) return [];
+  const t: [string, string] = ['T', valuePart(temperatureText(r, o), 'T')];
+  const beta: [string, string] = ['β', valuePart(betaText(r, o), 'β')];
+  const rows: [string, string][] = o.temperature === 'beta-first' ? [beta, t] : [t, beta];
+  if (r.polarization) rows.push([polarizationLabel(b), fractionText(r.polarization, o)]);
+  const lattice = b.input?.lattice;
+  if (r.thermalPolarization !== null && lattice) {
+    // Three digits, as the report table prints P_th: it is a derived reference value.
+    const where = escapeMarkdown(writtenText(state, b.toNote(lattice.span)));
+    rows.push([`P\\_th at ${where}`, fractionText(r.thermalPolarization, { ...o, digits: Math.min(o.digits, 3) })]);
+  }
+  if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o)]);
+  if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
+  return rows;
+}
+
+/** The first error of a block, if any. */
+export function firstError(b: BlockReport): BlockReport['problems'][number] | undefined {
+  return b.problems.find((p) => p.severity === 'error');
+}
+
+/**
+ * The compact results of a block: a title line (name and status) and the
+ * results table, or for an invalid block its first error. Used by the hover
+ * (with `explain`, the status in words) and by "Copy results".
+ */
+export function blockResultsMarkdown(state: NoteState, b: BlockReport, o: DisplayOptions, explain = false): string {
+  const title = `**${blockName(b)}** — ${explain ? STATUS_WORDS[b.status] : b.status}`;
+  if (!b.results) {
+    const e = firstError(b);
+    return e ? `${title}\n\nError \`${e.code}\`: ${escapeMarkdown(e.message)}` : title;
+  }
+  return `${title}\n\n${markdownTable(['result', 'value'], resultRows(state, b, o))}`;
+}

@@ -1,0 +1,57 @@
+/**
+ * The outline: each block as a symbol named by its id, with its status and
+ * short results as detail, and for explicit levels one child per level.
+ */
+import { SymbolKind, type DocumentSymbol } from 'vscode-languageserver';
+import { formatNumber, formatTemperature, shortSummary, type BlockReport } from '../../core';
+import { toRange, type NoteState } from '../state';
+import { firstError } from './markdown';
+
+/** One symbol per block, in note order. */
+export function documentSymbols(state: NoteState): DocumentSymbol[] {
+  return state.report.blocks.map((b) => {
+    const range = toRange(state.lines, { start: b.block.openStart, end: b.block.blockEnd });
+    const selection = b.meta.idSpan ? toRange(state.lines, b.toNote(b.meta.idSpan)) : toRange(state.lines, { start: b.block.openStart, end: b.block.openEnd });
+    return {
+      name: b.meta.id ?? `levels block at line ${b.block.openLine + 1}`,
+      detail: detail(b),
+      // LSP has no kind for a status; every block is an Object and the status goes in the detail.
+      kind: SymbolKind.Object,
+      range,
+      selectionRange: selection,
+      children: levelSymbols(state, b),
+    };
+  });
+}
+
+/** `normal · T = 5.61 mK · P = 31.2 % · ε = 241`, or `invalid · unit-case`. */
+function detail(b: BlockReport): string {
+  if (!b.results) {
+    const e = firstError(b);
+    return e ? `invalid · ${e.code}` : 'invalid';
+  }
+  // shortSummary ends with the status word unless normal; the detail leads with it instead.
+  const summary = shortSummary(b.results).replace(new RegExp(` · ${b.status}$`), '');
+  return `${b.status} · ${summary}`;
+}
+
+/** The levels of an explicit scheme, in the order they are written. */
+function levelSymbols(state: NoteState, b: BlockReport): DocumentSymbol[] {
+  if (b.input?.form !== 'levels') return [];
+  const fractions = b.results?.fractions ?? null;
+  return b.input.levels
+    .map((l, i) => ({ l, i }))
+    .filter(({ l }) => l.span !== null)
+    .sort((x, y) => x.l.span!.start - y.l.span!.start)
+    .map(({ l, i }) => {
+      const range = toRange(state.lines, b.toNote(l.span!));
+      const share = fractions ? ` · n/g = ${formatNumber(fractions[i] / l.g, 3)}` : '';
+      return {
+        name: l.label ?? `level ${i + 1}`,
+        detail: `E/k = ${formatTemperature(l.energy, null, { digits: 4 })} · g = ${l.g}${share}`,
+        kind: SymbolKind.EnumMember,
+        range,
+        selectionRange: range,
+      };
+    });
+}

@@ -1,0 +1,10 @@
+#!/usr/bin/env node
+/**
+ * Entry point of the language server: `boltzmark-lsp --stdio` for any
+ * editor, or started by the VS Code client over IPC. The transport comes
+ * from the command line (`--stdio`, `--node-ipc`, `--socket=<port>`).
+ */
+import { createConnection, ProposedFeatures } from 'vscode-languageserver/node';
+import { startServer } from './server';
+
+startServer(createConnection(ProposedFeatures.all));

@@ -1,0 +1,27 @@
+/**
+ * Boltzmark's own requests and notifications on top of LSP, all named
+ * `boltzmark/…`, grouped by direction. docs/architecture.md lists them.
+ */
+import { RequestType } from 'vscode-languageserver-protocol';
+
+// ---- client → server ----
+
+/** Parameters naming one block: the note and the 0-based line of its opening fence (or any line inside it). */
+export interface BlockParams {
+  readonly uri: string;
+  readonly line: number;
+}
+
+/** The block's results as a Markdown table (for "Copy results" and the preview fallback); null when no block is there. */
+export const ResultsMarkdownRequest = new RequestType<BlockParams, string | null, void>('boltzmark/resultsMarkdown');
+
+/** How the last analysis of a note went: blocks read afresh and reused from the cache. */
+export interface AnalysisStats {
+  readonly version: number;
+  readonly blocks: number;
+  readonly analysed: number;
+  readonly reused: number;
+}
+
+/** Statistics of the latest analysis of a note (used by tests and benchmarks); null for an unknown note. */
+export const AnalysisStatsRequest = new RequestType<{ readonly uri: string }, AnalysisStats | null, void>('boltzmark/analysisStats');

@@ -1,0 +1,132 @@
+import { strict as assert } from 'node:assert';
+import type { CompletionItem, TextEdit } from 'vscode-languageserver';
+import { completion } from '../../../src/server/features/completion';
+import { DEFAULT_SETTINGS } from '../../../src/server/settings';
+import { note, withCursor } from '../helpers';
+
+/** The items at the cursor marker. */
+function itemsAt(marked: string): CompletionItem[] {
+  const { state, position } = withCursor(marked);
+  return completion(state, position, DEFAULT_SETTINGS);
+}
+
+/** Compares the labels of the items at the cursor, in sort order. */
+function check(marked: string, expected: readonly string[]): void {
+  const items = itemsAt(marked).sort((a, b) => (a.sortText ?? a.label).localeCompare(b.sortText ?? b.label));
+  assert.deepEqual(items.map((i) => i.label), expected);
+}
+
+/** The text an item inserts. */
+function inserted(item: CompletionItem | undefined): string {
+  assert.ok(item, 'the item exists');
+  return (item.textEdit as TextEdit | undefined)?.newText ?? item.insertText ?? item.label;
+}
+
+const SPIN_KEYS = ['field', 'frequency', 'g-factor', 'populations', 'polarization', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date'];
+
+describe('completion', () => {
+  describe('of keys', () => {
+    it('offers every key in an empty block', () => {
+      check(note('$0'), ['id', 'levels', 'system', 'field', 'frequency', 'g-factor', 'populations', 'polarization', 'gap', 'g', 'ratio', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
+    });
+
+    it('never proposes a key already in the mapping, nor one of another form', () => {
+      check(note('id: a', 'system: 13C', '$0'), SPIN_KEYS);
+      check(note('id: a', 'system: 13C', 'fi$0'), SPIN_KEYS);
+      check(note('system: 13C', '$0', 'field: 9.4 T', 'polarization: 0.3'), ['id', 'frequency', 'g-factor', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
+      check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), ['id', 'lattice', 'count', 'note', 'sample', 'date']);
+    });
+
+    it('documents each key with its summary and inserts `key: `', () => {
+      const field = itemsAt(note('system: 13C', '$0')).find((i) => i.label === 'field');
+      assert.equal(inserted(field), 'field: ');
+      assert.equal(field!.kind, 10, 'Property');
+      assert.deepEqual(field!.documentation, { kind: 'markdown', value: 'Magnetic field: gives the Zeeman splitting from the isotope table’s γ (`T`, `mT`, `G`).\n\n`field: 9.4 T`' });
+    });
+
+    it('offers the keys of a level inside a flow item, without those it has', () => {
+      check(note('levels:', '  - { label: A, $0'), ['energy', 'g', 'population', 'uncertainty']);
+      check(note('levels:', '  - { label: A, energy: 1 K, $0, population: 3 }'), ['g', 'uncertainty']);
+      check(note('levels:', '  - {$0'), ['label', 'energy', 'g', 'population', 'uncertainty']);
+    });
+
+    it('offers the keys of a level in a block-style item, without those it has', () => {
+      check(note('levels:', '  - $0'), ['label', 'energy', 'g', 'population', 'uncertainty']);
+      check(note('levels:', '  - label: A', '    $0', '    population: 0.3', '  - label: B'), ['energy', 'g', 'uncertainty']);
+    });
+
+    it('offers nothing in the middle of a value or on a fence line', () => {
+      check(note('id: cell$0'), []);
+      check(note('id: a').replace('```levels', '```lev$0els'), []);
+    });
+  });
+
+  describe('of isotopes', () => {
+    it('lists the table after `system:`, by mass number, the electron last', () => {
+      check(note('system: $0'), ['1H', '2H', '3He', '7Li', '13C', '15N', '17O', '19F', '23Na', '29Si', '31P', '129Xe', 'electron']);
+    });
+
+    it('gives spin and signed γ/2π as detail', () => {
+      // IUPAC 2001 (Harris et al., Pure Appl. Chem. 73, 1795 (2001)): γ(13C) = 6.728 284 × 10⁷ rad s⁻¹ T⁻¹,
+      // so γ/2π = 10.7084 MHz/T; γ(15N) = −2.712 618 04 × 10⁷, γ/2π = −4.317 27 MHz/T; 23Na has I = 3/2.
+      const items = itemsAt(note('system: 1$0'));
+      const detail = (label: string): string | undefined => items.find((i) => i.label === label)?.detail;
+      assert.equal(detail('13C'), 'I = 1/2 · γ/2π = +10.7084 MHz/T');
+      assert.equal(detail('15N'), 'I = 1/2 · γ/2π = −4.31727 MHz/T');
+      assert.equal(detail('23Na'), 'I = 3/2 · γ/2π = +11.2695 MHz/T');
+      // CODATA 2022: |γ_e|/2π = 28 024.951 MHz/T, negative with g_e.
+      assert.equal(detail('electron'), 'I = 1/2 · γ/2π = −28.0250 GHz/T');
+      assert.deepEqual((items[0].textEdit as TextEdit).range, { start: { line: 3, character: 8 }, end: { line: 3, character: 9 } }, 'replaces the typed `1`');
+    });
+  });
+
+  describe('of units', () => {
+    it('offers the field units after a field value', () => {
+      check(note('system: 13C', 'field: 9.4 $0'), ['T', 'mT', 'G']);
+    });
+
+    it('replaces a partly typed unit', () => {
+      const mt = itemsAt(note('system: 13C', 'field: 9.4 M$0')).find((i) => i.label === 'mT');
+      assert.deepEqual(mt!.textEdit, { range: { start: { line: 4, character: 11 }, end: { line: 4, character: 12 } }, newText: 'mT' });
+      assert.equal(mt!.detail, '1 mT = 0.001 T');
+    });
+
+    it('adds the separating space right after a number', () => {
+      const k = itemsAt(note('gap: 10 K', 'ratio: 2', 'lattice: 1.$0')).find((i) => i.label === 'K');
+      assert.equal(inserted(k), ' K');
+      check(note('gap: 10 K', 'ratio: 2', 'lattice: 1.$0'), ['K', 'mK', 'µK', 'nK', '°C']);
+    });
+
+    it('offers energy units in a level item, wavelengths for a gap, hertz first for a frequency', () => {
+      check(note('levels:', '  - { label: A, energy: 120 $0'), ['J', 'eV', 'meV', 'µeV', 'cm-1', 'Hz', 'kHz', 'MHz', 'GHz', 'THz', 'K']);
+      check(note('gap: 1064 $0'), ['J', 'eV', 'meV', 'µeV', 'cm-1', 'Hz', 'kHz', 'MHz', 'GHz', 'THz', 'K', 'nm', 'µm']);
+      check(note('system: 1H', 'frequency: 400 $0'), ['Hz', 'kHz', 'MHz', 'GHz', 'THz', 'J', 'eV', 'meV', 'µeV', 'cm-1', 'K']);
+    });
+
+    it('offers density units after a population, in a flow list or a block list', () => {
+      check(note('gap: 10 K', 'populations: [2.0e16 $0]'), ['cm-3', 'm-3']);
+      check(note('gap: 10 K', 'populations:', '  - 2.0e16 $0'), ['cm-3', 'm-3']);
+    });
+
+    it('offers no unit after a plain number such as a polarization', () => {
+      check(note('system: 13C', 'polarization: 0.3 $0'), []);
+    });
+  });
+
+  describe('outside blocks', () => {
+    it('offers new-block snippets at a line start', () => {
+      check('# Run 7\n\n$0\n', ['levels block', 'levels block (transition)', 'levels block (explicit levels)']);
+      check('# Run 7\n\nSome text $0\n', []);
+    });
+
+    it('inserts a fenced spin template with tab stops, replacing a typed fence', () => {
+      const [spin] = itemsAt('# Run 7\n\n```$0\n');
+      assert.equal(spin.insertTextFormat, 2, 'Snippet');
+      assert.equal(spin.kind, 15, 'Snippet');
+      assert.deepEqual(spin.textEdit, {
+        range: { start: { line: 2, character: 0 }, end: { line: 2, character: 3 } },
+        newText: '```levels\nid: ${1:run}\nsystem: ${2:13C}\nfield: ${3:9.4 T}\nlattice: ${4:1.4 K}\npolarization: ${5:0.3}\n```',
+      });
+    });
+  });
+});

@@ -1,0 +1,233 @@
+import { strict as assert } from 'node:assert';
+import { hover } from '../../../src/server/features/hover';
+import { pairTemperature } from '../../../src/core';
+import { DEFAULT_SETTINGS, type Settings } from '../../../src/server/settings';
+import { CONTRACT, note, settings, withCursor } from '../helpers';
+
+/** What a hover should show: its range as [line, character, line, character] and lines it must (not) contain. */
+interface Expected {
+  readonly range: readonly [number, number, number, number];
+  readonly includes?: readonly string[];
+  readonly excludes?: readonly string[];
+}
+
+/** Hovers at the cursor marker and compares the range and the Markdown. */
+function check(marked: string, expected: Expected | null, s: Settings = DEFAULT_SETTINGS): string {
+  const { state, position } = withCursor(marked, s);
+  const h = hover(state, position, s);
+  if (expected === null) {
+    assert.equal(h, null);
+    return '';
+  }
+  assert.ok(h, 'a hover was expected');
+  const value = (h.contents as { kind: string; value: string }).value;
+  assert.equal((h.contents as { kind: string }).kind, 'markdown');
+  const [sl, sc, el, ec] = expected.range;
+  assert.deepEqual(h.range, { start: { line: sl, character: sc }, end: { line: el, character: ec } });
+  for (const text of expected.includes ?? []) assert.ok(value.includes(text), `missing ${JSON.stringify(text)} in:\n${value}`);
+  for (const text of expected.excludes ?? []) assert.ok(!value.includes(text), `unexpected ${JSON.stringify(text)} in:\n${value}`);
+  return value;
+}
+
+const contract = (cursorLine: number, column: number): string => {
+  const body = [...CONTRACT];
+  body[cursorLine] = body[cursorLine].slice(0, column) + '$0' + body[cursorLine].slice(column);
+  return note(...body);
+};
+
+describe('hover', () => {
+  describe('on a block', () => {
+    it('shows the results of the format example with the numbers the report prints, over the whole block', () => {
+      const value = check(contract(4, 3), { range: [2, 0, 8, 3] });
+      assert.equal(value, [
+        '**cell\\-B run 7** — normal: positive spin temperature, more population below',
+        '',
+        '| result | value |',
+        '| :-- | :-- |',
+        '| T | 5.61 ± 0.19 mK |',
+        '| β | 178.2 ± 6.1 K⁻¹ |',
+        '| P | 31.2 ± 1.0 % |',
+        '| P\\_th at 1\\.4 K | 0.129 % |',
+        '| ε = P/P\\_th | 241 |',
+        '| S/(Nk) | 0.6437 |',
+        '',
+        'P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; P > 0 at positive spin temperature, whatever the sign of γ.',
+      ].join('\n'));
+    });
+
+    it('answers on the fence lines as well as on the body', () => {
+      check(note('id: fenced$0', 'gap: 10 K', 'ratio: 0.5'), { range: [2, 0, 6, 3], includes: ['**fenced**'] });
+      check(note('gap: 10 K', 'ratio: 0.5').replace('```levels', '``$0`levels'), { range: [2, 0, 5, 3], includes: ['levels block at line 3'] });
+      check(note('gap: 10 K', 'ratio: 0.5').replace(/```\n$/, '`$0``\n'), { range: [2, 0, 5, 3], includes: ['T | 14.43 K'] });
+    });
+
+    it('gives nothing outside the blocks', () => {
+      check(`# Lab$0 note\n\n${note('gap: 10 K', 'ratio: 0.5')}`, null);
+    });
+
+    it('puts β before T when the display setting leads with β', () => {
+      const value = check(contract(0, 1), { range: [2, 0, 8, 3] }, settings({ temperature: 'beta-first' }));
+      assert.ok(value.indexOf('| β | 178.2 ± 6.1 K⁻¹ |') < value.indexOf('| T | 5.61 ± 0.19 mK |'), value);
+    });
+
+    it('shows temperatures in kelvin when the setting asks for it', () => {
+      check(contract(0, 1), { range: [2, 0, 8, 3], includes: ['| T | 0.00561 ± 0.00019 K |'] }, settings({ temperature: 'kelvin' }));
+    });
+
+    it('says inverted, with a negative temperature, for a population inversion', () => {
+      // n_u/n_l = 2 over a 10 K gap: T = −10 K / ln 2 = −14.427 K; u(T) = T² u(β) = 0.42 K for u(ratio) = 0.04;
+      // P = (1 − 2)/(1 + 2) = −1/3 with u(P) = 2 u(r)/(1 + r)² = 0.0089.
+      check(note('gap: 10 K', 'ratio: 2.0 ± 0.04$0'), {
+        range: [2, 0, 5, 3],
+        includes: ['— inverted: population inversion, negative spin temperature', '| T | −14.43 ± 0.42 K |', '| P | −33.33 ± 0.89 % |'],
+      });
+    });
+
+    it('says T → ±∞ for equal populations (saturation)', () => {
+      check(note('system: 1H', 'field: 9.4 T', 'populations: [0.5, 0.5]$0'), {
+        range: [2, 0, 6, 3],
+        includes: ['saturated: β is zero', '| T | → ±∞ (saturated) |', '| β | 0 K⁻¹ |', 'Add `lattice:` to get P\\_th and ε.'],
+      });
+    });
+
+    it('writes the T → 0⁺ limit when the upper level is empty', () => {
+      check(note('gap: 10 K', 'populations: [1, 0]$0'), { range: [2, 0, 5, 3], includes: ['| T | → 0⁺ |', '| β | → +∞ |', '| S/(Nk) | 0 |'] });
+    });
+
+    it('escapes an id written as HTML, so that it shows as text', () => {
+      const value = check(note('id: <img src=x onerror=alert(1)>$0', 'gap: 10 K', 'ratio: 0.5'), {
+        range: [2, 0, 6, 3],
+        includes: ['**&lt;img src=x onerror=alert\\(1\\)&gt;**'],
+      });
+      assert.ok(!value.includes('<'), value);
+    });
+
+    it('escapes Markdown in an id, so that it cannot break out of bold or a table', () => {
+      check(note('id: "*run* | [x](y) `z`$0"', 'gap: 10 K', 'ratio: 0.5'), { range: [2, 0, 6, 3], includes: ['**\\*run\\* \\| \\[x\\]\\(y\\) \\`z\\`**'] });
+    });
+
+    it('shows invalid and the first error of a block with errors', () => {
+      check(note('id: hurried', 'system: 1H', 'field: 9.4 MT', 'polarization: 0.001$0'), {
+        range: [2, 0, 7, 3],
+        includes: ['**hurried** — invalid: the block has an error', 'Error `unit-case`: field: Units are case\\-sensitive: \\`MT\\` is not \\`mT\\`\\.'],
+        excludes: ['| T |'],
+      });
+    });
+
+    it('calls P the vector polarization ⟨I_z⟩/I for a spin above 1/2', () => {
+      check(note('id: na', 'system: 23Na', 'field: 9.4 T', '$0populations: [0.4, 0.3, 0.2, 0.1]'), {
+        range: [2, 0, 7, 3],
+        includes: ['| P = ⟨I\\_z⟩/I | 33.33 % |', 'P is the vector polarization ⟨I\\_z⟩/I under one spin temperature'],
+      });
+    });
+
+    it('gives the weighted fit’s χ²/dof and verdict for three levels with uncertainties', () => {
+      check(note('id: w', 'levels:', '  - { label: a, energy: 0 K, population: 0.60 ± 0.01 }', '  - { label: b, energy: 10 K, population: 0.25 ± 0.01 }', '  - { label: c, energy: 20 K, population: 0.15 ± 0.01 }', '$0'), {
+        range: [2, 0, 9, 3],
+        includes: ['non-thermal', 'Boltzmann fit weighted by u(n)/n: χ²/dof = 12.0/1; 1 % critical value 6.63: not consistent with one temperature.'],
+        excludes: ['| P |'],
+      });
+    });
+
+    it('gives the residual rule and names the inverted pairs by label without uncertainties', () => {
+      check(note('id: mixed', 'levels:', '  - { label: ground, energy: 0 cm-1, population: 0.5 }', '  - { label: A, energy: 100 cm-1, population: 0.2 }', '  - { label: B, energy: 200 cm-1, population: 0.3 }', '$0'), {
+        range: [2, 0, 9, 3],
+        includes: ['(residual rule): largest \\|Δ ln(n/g)\\| = 0.441, limit ln 1.05 = 0.0488: not consistent', 'Inverted pairs (more population per degeneracy above): A ↔ B.'],
+      });
+    });
+  });
+
+  describe('on a level', () => {
+    const levels = (cursorItem: number, column: number): string => {
+      const items = ['  - { label: ground, energy: 0 cm-1,   g: 1, population: 0.70 }', '  - { label: A,      energy: 120 cm-1, g: 3, population: 0.25, uncertainty: 0.01 }', '  - { label: B,      energy: 410 cm-1, g: 5, population: 0.05 }'];
+      items[cursorItem] = items[cursorItem].slice(0, column) + '$0' + items[cursorItem].slice(column);
+      return note('id: three', 'levels:', ...items);
+    };
+
+    it('shows its energy, degeneracy, population, n/g and the pair temperatures with both neighbours', () => {
+      // 120 cm⁻¹ = 172.653 K (c₂ = 1.438 777 K cm, exact); T(ground, A) = 172.653 K / ln(0.70 / (0.25/3)) = 81.125 K;
+      // T(A, B) = (589.899 − 172.653) K / ln((0.25/3) / (0.05/5)) = 196.79 K (computed by hand with the exact constants).
+      check(levels(1, 8), {
+        range: [6, 4, 6, 82],
+        includes: [
+          '**A** · level 2 of 3 from the bottom · three',
+          '| E | 120.0 cm⁻¹ = 172.7 K |',
+          '| g | 3 |',
+          '| population | 0.250 ± 0.010 (fraction 0.2500) |',
+          '| n/g | 0.08333 |',
+          '| T with ground (below) | 81.13 K |',
+          '| T with B (above) | 196.8 K |',
+          'Pair temperature T = (E\\_u − E\\_l)/ln[(n\\_l/g\\_l)/(n\\_u/g\\_u)]',
+        ],
+      });
+    });
+
+    it('has no neighbour below for the lowest level', () => {
+      check(levels(0, 12), { range: [5, 4, 5, 63], includes: ['| T with A (above) | 81.13 K |'], excludes: ['(below)'] });
+    });
+
+    it('shows a value of a populations list as its Zeeman level', () => {
+      // 1H at 9.4 T: ν = 42.577 478 MHz/T × 9.4 T = 400.228 MHz (IUPAC 2001 γ), hν/k = 19.208 mK;
+      // T = 19.208 mK / ln(0.6/0.4) = 47.37 mK.
+      check(note('system: 1H', 'field: 9.4 T', 'populations: [0.6, 0.$04]'), {
+        range: [5, 19, 5, 22],
+        includes: ['**m = −1/2** · level 2 of 2', '| E | 400.2 MHz = 19.21 mK |', '| T with m = \\+1/2 (below) | 47.37 mK |'],
+      });
+    });
+
+    it('falls back to the block when a ratio stands for both levels', () => {
+      check(note('gap: 10 K', 'ratio: 2.$00'), { range: [2, 0, 5, 3], includes: ['inverted'] });
+    });
+  });
+
+  describe('on a quantity', () => {
+    it('converts a transition energy to K, cm⁻¹, GHz and eV', () => {
+      // H I hyperfine line, ν = 1 420 405 751.768 Hz (Hellwig et al., IEEE Trans. Instrum. Meas. IM-19, 200 (1970)):
+      // hν/k = 68.1687 mK, ν/c = 0.047 380 cm⁻¹, hν = 5.8743 µeV (exact SI constants).
+      check(note('gap: 1420.40$05751768 MHz', 'g: [1, 3]', 'ratio: 2.99'), {
+        range: [3, 5, 3, 23],
+        includes: ['**gap** 1420\\.405751768 MHz — Energy of the single transition', '| E/k | 68.17 mK |', '| E/hc | 0.04738 cm⁻¹ |', '| E/h | 1.420 GHz |', '| E | 5.874 × 10⁻⁶ eV |'],
+      });
+    });
+
+    it('gives a field as the Larmor frequency and Zeeman spacing of the block’s isotope', () => {
+      // 13C: γ/2π = 10.7084 MHz/T (IUPAC 2001, Harris et al., Pure Appl. Chem. 73, 1795); 7.05 T → 75.494 MHz, hν/k = 3.6231 mK.
+      check(contract(2, 8), { range: [5, 7, 5, 13], includes: ['| B | 7.050 T |', '| Larmor frequency of 13C | 75.49 MHz |', '| Zeeman spacing hν/k | 3.623 mK |'] });
+    });
+
+    it('still converts a field when another key of the block has an error', () => {
+      check(note('system: 13C', 'field: 7.0$05 T', 'polarization: 2'), { range: [4, 7, 4, 13], includes: ['| Larmor frequency of 13C | 75.49 MHz |'] });
+    });
+
+    it('gives the thermal energy kT of the lattice temperature', () => {
+      // kT at 1.4 K: 0.973 05 cm⁻¹, 29.171 GHz, 120.64 µeV (exact SI constants).
+      check(contract(3, 10), { range: [6, 9, 6, 14], includes: ['| kT/k | 1.400 K |', '| kT/hc | 0.9730 cm⁻¹ |', '| kT/h | 29.17 GHz |', '| kT | 0.0001206 eV |'] });
+    });
+
+    it('converts a level energy written inside a flow item', () => {
+      check(note('levels:', '  - { label: x, energy: 0 cm-1, population: 0.7 }', '  - { label: y, energy: "12$00 cm-1", population: 0.3 }'), {
+        range: [5, 24, 5, 34],
+        includes: ['**energy** 120 cm\\-1', '| E/k | 172.7 K |', '| E/hc | 120.0 cm⁻¹ |'],
+      });
+    });
+  });
+
+  describe('pair temperature', () => {
+    it('follows Boltzmann’s relation and its limits', () => {
+      // n_u/n_l = (g_u/g_l) e^(−ΔE/T): with ΔE = 10 K, g = 1 : 3 and n = 1 : 1, T = 10 K / ln 3 = 9.1024 K.
+      const t = pairTemperature({ energy: 0, g: 1, population: 1 }, { energy: 10, g: 3, population: 1 });
+      assert.equal(t.kind, 'value');
+      assert.ok(t.kind === 'value' && Math.abs(t.kelvin - 10 / Math.log(3)) < 1e-12);
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 2 }, { energy: 5, g: 2, population: 4 }), { kind: 'infinite' });
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 1 }, { energy: 5, g: 1, population: 0 }), { kind: 'zero', sign: 1 });
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 0 }, { energy: 5, g: 1, population: 1 }), { kind: 'zero', sign: -1 });
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 0 }, { energy: 5, g: 1, population: 0 }), { kind: 'undefined' });
+      assert.deepEqual(pairTemperature({ energy: 5, g: 1, population: 1 }, { energy: 5, g: 1, population: 2 }), { kind: 'undefined' });
+    });
+
+    it('is negative for an inverted pair', () => {
+      const t = pairTemperature({ energy: 0, g: 1, population: 1 }, { energy: 10, g: 1, population: 2 });
+      assert.ok(t.kind === 'value' && Math.abs(t.kelvin + 10 / Math.log(2)) < 1e-12, JSON.stringify(t));
+    });
+  });
+});
