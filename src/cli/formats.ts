@@ -1,5 +1,5 @@
 /** The three output formats of `boltzmark report`: a table for people, JSON (the contract) and CSV. */
-import { betaText, enhancementText, fractionText, temperatureText, type ReportEntry, type BlockReport, DEFAULT_DISPLAY } from '../core';
+import { measurementShort, betaText, enhancementText, fractionText, temperatureText, type ReportEntry, type BlockReport, DEFAULT_DISPLAY } from '../core';
 
 /** A block with its report entry, for the formatters. */
 export interface Row {
@@ -10,18 +10,19 @@ export interface Row {
 /** Human table: file:line, id, status, T, β, P, P_th, ε; then each problem on its own line. */
 export function formatTable(rows: readonly Row[]): string {
   if (rows.length === 0) return 'No levels blocks found.\n';
-  const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε'];
+  const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
   const body = rows.map(({ entry: e, block: b }) => {
     const r = b.results;
     return [
       `${e.file}:${e.line}`,
       e.id ?? '—',
       e.status,
-      r ? temperatureText(r).replace(/^T = /, '') : '—',
-      r ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
+      r && (r.beta || r.limit) ? temperatureText(r).replace(/^T = /, '') : '—',
+      r && (r.beta || r.limit) ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
       r?.polarization ? fractionText(r.polarization) : '—',
       r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',
       r ? enhancementText(r.enhancement) : '—',
+      r ? measurementShort(r) ?? '' : '',
     ];
   });
   const width = (s: string): number => [...s].length;

@@ -24,3 +24,8 @@ export { CODES, codeDocAnchor, type CodeDoc } from './codes';
 export { pairTemperature, type PairLevel, type PairTemperature } from './physics/pairs';
 export { RESIDUAL_TOLERANCE } from './physics/fit';
 export { CANONICAL_UNITS } from './units';
+export { measurementRows, measurementShort, type Row } from './measurementSummary';
+export type { SeriesFit } from './physics/relaxation';
+export type { GainResult, SignalResult } from './analysis/results';
+export type { SeriesInput, SignalInput, LinesInput, LineInput, GainInput } from './block/input';
+export { LINE_KEYS, SIGNAL_KEYS, SERIES_KEYS } from './block/schema';

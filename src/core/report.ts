@@ -1,7 +1,9 @@
 /**
  * The machine contract of `boltzmark report --format json`: one object per
  * block with the contract's fields, unknown quantities `null` (never missing),
- * lines 1-based. Extra fields (`form`, `fit`, `invertedPairs`) extend it.
+ * lines 1-based. The v1.1 fields (`timeConstant`, `gainCoefficient`,
+ * `singlePassGain`, `aboveThreshold`) follow the contract's measurement inputs;
+ * `form`, `fit` and `invertedPairs` are Boltzmark's own extensions.
  */
 import type { BlockReport } from './document';
 import type { LineIndex } from './text/lineIndex';
@@ -31,6 +33,12 @@ export interface ReportEntry {
   readonly enhancement: number | null;
   readonly entropy: number | null;
   readonly diagnostics: readonly ReportDiagnostic[];
+  /** T₁ or τ of a time series, s (v1.1). */
+  readonly timeConstant: Measured | null;
+  /** Small-signal gain coefficient g₀, cm⁻¹ (v1.1). */
+  readonly gainCoefficient: number | null;
+  readonly singlePassGain: number | null;
+  readonly aboveThreshold: boolean | null;
   readonly form: string | null;
   readonly fit: { readonly chi2: number; readonly dof: number; readonly consistent: boolean } | null;
   readonly invertedPairs: readonly [number, number][];
@@ -58,6 +66,10 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex): Rep
       const pos = lines.positionAt(p.span.start);
       return { severity: p.severity, code: p.code, message: p.message, line: pos.line + 1, column: pos.character + 1 };
     }),
+    timeConstant: r?.series ? measured(r.series.timeConstant) : null,
+    gainCoefficient: finite(r?.gain?.coefficient),
+    singlePassGain: finite(r?.gain?.singlePass),
+    aboveThreshold: r?.gain?.aboveThreshold ?? null,
     form: b.input?.form ?? null,
     fit: r?.fit ? { chi2: r.fit.chi2, dof: r.fit.dof, consistent: r.fit.consistent } : null,
     invertedPairs: r ? r.invertedPairs.map((p) => [p.lower, p.upper] as [number, number]) : [],

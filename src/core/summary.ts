@@ -6,6 +6,7 @@
  */
 import type { BlockResults } from './analysis/results';
 import { formatFraction, formatInverseTemperature, formatNumber, formatTemperature } from './format';
+import { measurementShort } from './measurementSummary';
 import type { Measured, Status } from './types';
 
 /** How numbers are shown; mirrors the editor settings. */
@@ -34,6 +35,7 @@ export const STATUS_WORDS: Readonly<Record<Status, string>> = {
 export function temperatureText(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLAY): string {
   if (r.limit === 'zero-positive') return 'T → 0⁺';
   if (r.limit === 'zero-negative') return 'T → 0⁻';
+  if (!r.beta) return 'T not determined (no populations measured)';
   if (r.status === 'saturated' || !r.temperature) return 'T → ±∞ (saturated)';
   const t = r.temperature;
   return `T = ${formatTemperature(t.value, t.uncertainty, { digits: o.digits, mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto' })}`;
@@ -66,6 +68,8 @@ export function enhancementText(e: number | null, o: DisplayOptions = DEFAULT_DI
 export function shortSummary(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLAY): string {
   const short: DisplayOptions = { ...o, digits: Math.min(o.digits, 3) };
   const parts: string[] = [];
+  const extra = measurementShort(r);
+  if (!r.beta && !r.limit && extra) return r.status === 'normal' ? extra : `${extra} · ${r.status}`;
   const t = temperatureText(r, short);
   const b = betaText(r, short);
   const noU = (s: string): string => s.replace(/ ± [^ ]+/, '');
@@ -74,6 +78,7 @@ export function shortSummary(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLA
   if (r.polarization) parts.push(`P = ${noU(fractionText(r.polarization.value, short))}`);
   if (r.enhancement !== null) parts.push(`ε = ${enhancementText(r.enhancement, short)}`);
   // The temperature text already says "saturated"; other statuses are added once.
+  if (extra) parts.push(extra);
   if (r.status !== 'normal' && !parts[0].includes(r.status)) parts.push(r.status);
   return parts.join(' · ');
 }

@@ -16,7 +16,7 @@ import { closest } from './suggest';
 /** What a key measures; decides which units are valid. `wavelengthEnergy` is an energy that may also be a photon wavelength. */
 export type Dimension =
   | 'energy' | 'wavelengthEnergy' | 'field' | 'temperature' | 'time'
-  | 'angle' | 'density' | 'crossSection' | 'length' | 'attenuation';
+  | 'angle' | 'density' | 'crossSection' | 'length' | 'attenuation' | 'rate';
 
 /** A problem in a quantity string; spans are offsets `[start, end)` within that string. */
 export interface QuantityProblem {
@@ -59,20 +59,23 @@ const TABLE: Record<Dimension, Record<string, Rule>> = {
   angle: { deg: { scale: Math.PI / 180 }, rad: { scale: 1 } },
   density: { 'cm-3': { scale: 1 }, 'm-3': { scale: 1e-6 } },
   crossSection: { cm2: { scale: 1 }, m2: { scale: 1e4 } },
-  length: { m: { scale: 100 }, cm: { scale: 1 }, mm: { scale: 0.1 } },
+  length: { m: { scale: 100 }, cm: { scale: 1 }, mm: { scale: 0.1 }, 'µm': { scale: 1e-4 }, nm: { scale: 1e-7 } },
   attenuation: { 'cm-1': { scale: 1 }, 'm-1': { scale: 0.01 } },
+  rate: { 's-1': { scale: 1 } },
 };
 
 /** Other accepted spellings of a canonical unit (valid in every dimension that has the canonical one). */
 const ALIASES: Record<string, string> = {
   ueV: 'µeV', 'μeV': 'µeV', 'cm^-1': 'cm-1', '/cm': 'cm-1', um: 'µm', 'μm': 'µm', uK: 'µK', 'μK': 'µK',
   degC: '°C', 'cm^-3': 'cm-3', 'm^-3': 'm-3', 'cm^2': 'cm2', 'm^2': 'm2', 'm^-1': 'm-1', '/m': 'm-1',
+  's^-1': 's-1', '/s': 's-1',
 };
 
 const DIMENSION_NAMES: Record<Dimension, string> = {
   energy: 'an energy', wavelengthEnergy: 'an energy (or photon wavelength)', field: 'a magnetic field',
   temperature: 'a temperature', time: 'a time', angle: 'an angle', density: 'a number density',
   crossSection: 'a cross-section', length: 'a length', attenuation: 'an attenuation coefficient',
+  rate: 'a rate (transition probability)',
 };
 
 /** Canonical units of a dimension, for completions (aliases such as `ueV` or `/cm` are accepted but not listed). */
@@ -161,7 +164,7 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
 /** The unit every dimension converts to: energies as E/k in K, fields in T, populations per cm³, and so on. */
 export const CANONICAL_UNITS: Readonly<Record<Dimension, string>> = {
   energy: 'K', wavelengthEnergy: 'K', field: 'T', temperature: 'K', time: 's', angle: 'rad',
-  density: 'cm-3', crossSection: 'cm2', length: 'cm', attenuation: 'cm-1',
+  density: 'cm-3', crossSection: 'cm2', length: 'cm', attenuation: 'cm-1', rate: 's-1',
 };
 
 const DIMENSIONS = Object.keys(TABLE) as Dimension[];
@@ -215,7 +218,8 @@ function unitProblem(quantity: Quantity, unit: string, dim: Dimension): { proble
   if (others.length === 0 && resolve(normal, 'wavelengthEnergy') !== null) others.push('wavelengthEnergy');
   if (others.length > 0) {
     const what = others.map((d) => (d === 'wavelengthEnergy' ? 'a photon wavelength' : DIMENSION_NAMES[d])).join(' or ');
-    const hint = dim === 'energy' && others[0] === 'wavelengthEnergy' ? ' A wavelength is accepted only for a transition energy such as `gap`.' : '';
+    const wavelength = dim === 'energy' && resolve(normal, 'wavelengthEnergy') !== null;
+    const hint = wavelength ? ' A wavelength is accepted only for a transition energy such as `gap`.' : '';
     return problem('unit-dimension', `\`${unit}\` measures ${what}; ${needed} is needed here.${hint}`, span);
   }
   const limit = unit.length <= 1 ? 0 : unit.length <= 3 ? 1 : 2;

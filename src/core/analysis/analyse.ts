@@ -13,6 +13,8 @@ import type { Measured, Problem } from '../types';
 import { fitManyLevels, measureTwoLevels, type BetaFinding } from './beta';
 import { polarizationOf, thermalPolarizationOf } from './polarization';
 import type { BlockResults } from './results';
+import { lineOutliers, measureGain, measureSeries, measureSignal } from './measurements';
+import type { SeriesFit } from '../physics/relaxation';
 import { statusOf } from './status';
 
 /** Settings that change results. */
@@ -27,17 +29,27 @@ export const DEFAULT_ANALYSIS_OPTIONS: AnalysisOptions = { saturationSigma: 2 };
 /** Analyses a block that read without errors. Never throws. */
 export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_ANALYSIS_OPTIONS): BlockResults {
   const problems: Problem[] = [];
-  const finding = findBeta(input, problems);
+  const series = measureSeries(input, problems);
+  const signal = measureSignal(input, series, problems);
+  // A referenced signal becomes the block's polarization; from there on it is a spin block like any other.
+  const effective: BlockInput = signal ? { ...input, polarization: signal.polarization } : input;
+  const finding = hasMeasurement(effective) ? findBeta(effective, problems) : NOTHING_MEASURED;
   const energies = input.levels.map((l) => l.energy);
   const g = input.levels.map((l) => l.g);
-  const fractions = finding.fractions ?? impliedFractions(energies, g, finding);
+  // Emission lines sample only the upper levels: their "fractions" are not a distribution.
+  const fractions = input.lines ? null : finding.fractions ?? impliedFractions(energies, g, finding);
   const beta = finding.beta;
   const temperature = temperatureOf(beta, finding.limit);
-  const polarization = finding.polarization ?? polarizationOf(input, fractions);
+  const polarization = input.lines ? null : finding.polarization ?? polarizationOf(effective, fractions);
   const thermalPolarization = thermalPolarizationOf(input);
   const enhancement = polarization && thermalPolarization ? polarization.value / thermalPolarization : null;
+  const outliers = lineOutliers(input, finding.fit, problems);
   return {
-    status: statusOf(beta, finding, options.saturationSigma),
+    status: finding === NOTHING_MEASURED ? seriesStatus(series) : statusOf(beta, finding, options.saturationSigma),
+    series,
+    signal: signal?.result ?? null,
+    gain: measureGain(input),
+    outliers,
     beta,
     limit: finding.limit,
     temperature,
@@ -51,6 +63,23 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     meanEnergy: fractions ? meanEnergy(fractions, energies) : null,
     problems: [...problems, ...finding.problems],
   };
+}
+
+/** What a block without populations or polarization (a bare series) finds. */
+const NOTHING_MEASURED: BetaFinding = { beta: null, limit: null, fit: null, fractions: null, polarization: null, problems: [] };
+
+function hasMeasurement(input: BlockInput): boolean {
+  return input.polarization !== null || input.levels.some((l) => l.population !== null);
+}
+
+/**
+ * A bare series has no temperature; its sign still tells the story: a signal
+ * in emission (negative amplitude, phased against a thermal spectrum) comes
+ * from inverted populations.
+ */
+function seriesStatus(series: SeriesFit | null): BlockResults['status'] {
+  const a = series?.amplitude.value ?? 0;
+  return a > 0 ? 'normal' : a < 0 ? 'inverted' : 'saturated';
 }
 
 function findBeta(input: BlockInput, problems: Problem[]): BetaFinding {

@@ -1,4 +1,5 @@
 /** The physical results of one block, as the contract names them, plus what editors show. */
+import type { SeriesFit } from '../physics/relaxation';
 import type { Measured, Problem, Status } from '../types';
 
 /** Summary of the Boltzmann fit of a block with three or more levels. */
@@ -13,6 +14,30 @@ export interface FitSummary {
   readonly residuals: readonly (number | null)[];
   /** The 1 % critical value of χ² used, or null when the residual rule applied. */
   readonly critical: number | null;
+}
+
+/** How a signal was turned into a polarization, for audit. */
+export interface SignalResult {
+  /** Thermal polarization of the reference at `lattice`. */
+  readonly pThermal: number;
+  /** (NS_th G_th sin θ_th n_th)/(NS_hp G_hp sin θ_hp n_hp). */
+  readonly factor: number;
+  /** S_hp / S_th. */
+  readonly ratio: number;
+  readonly hyperpolarized: number;
+  /** True when the hyperpolarized signal is the fitted amplitude of the series. */
+  readonly fromSeries: boolean;
+}
+
+/** Gain of an optical transition. */
+export interface GainResult {
+  /** Small-signal gain coefficient g₀, cm⁻¹. */
+  readonly coefficient: number;
+  /** exp(g₀ L), or null without a length. */
+  readonly singlePass: number | null;
+  /** Threshold gain coefficient, cm⁻¹, or null without length and mirrors. */
+  readonly threshold: number | null;
+  readonly aboveThreshold: boolean | null;
 }
 
 /** Results of a block that read without errors. */
@@ -36,6 +61,12 @@ export interface BlockResults {
   readonly fractions: readonly number[] | null;
   /** Mean energy per system in kelvin, from `fractions`. */
   readonly meanEnergy: number | null;
+  /** The fitted time series, when the block has one. */
+  readonly series: SeriesFit | null;
+  readonly signal: SignalResult | null;
+  readonly gain: GainResult | null;
+  /** Indices (levels order) of emission lines flagged as outliers. */
+  readonly outliers: readonly number[];
   /** Warnings and notes found by the analysis (body-relative spans). */
   readonly problems: readonly Problem[];
 }

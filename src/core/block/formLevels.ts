@@ -4,13 +4,12 @@
  */
 import { unknownKey } from './unknownKey';
 import type { Span } from '../types';
-import type { BlockInput, LevelInput } from './input';
+import type { FormRead, LevelInput } from './input';
 import { readPopulation, withSiblingUncertainty } from './populations';
 import { LEVEL_KEY_NAMES } from './schema';
 import { nonEmpty, readInteger, readList, readQuantity, readText, report, type ReadContext } from './values';
 import { entries, isMap, spanOf, type Entry } from './yamlTree';
 
-type FormRead = Omit<BlockInput, 'lattice' | 'count'>;
 
 /** Reads the `levels` list; levels come back sorted by energy, lowest first. */
 export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): FormRead | null {

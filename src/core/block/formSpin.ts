@@ -5,7 +5,8 @@
  */
 import { KELVIN_PER_HERTZ } from '../constants';
 import { electronWithGFactor, lookupSpecies, zeemanSpacingKelvin, type SpinSpecies } from '../isotopes';
-import type { BlockInput, LevelInput, SpinInput } from './input';
+import type { FormRead, LevelInput, SignalInput, SpinInput } from './input';
+import { readSignal } from './signal';
 import { bothGiven, measurementMissing, readPopulation, readPopulationList, withSiblingUncertainty } from './populations';
 import { readList, readNumber, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
 import type { Entry } from './yamlTree';
@@ -13,7 +14,6 @@ import type { Entry } from './yamlTree';
 /** Field and frequency may disagree by this fraction before a warning (the contract's 1 %). */
 export const FIELD_FREQUENCY_TOLERANCE = 0.01;
 
-type FormRead = Omit<BlockInput, 'lattice' | 'count'>;
 
 /** Reads `system`, `field`/`frequency` and `populations`/`polarization`. */
 export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): FormRead | null {
@@ -36,7 +36,7 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
       populationSpan: pop ? pop.span : null,
     });
   }
-  return { form: 'spin', levels, energyUnit: 'MHz', spin, polarization: measured.polarization, ratio: null, uGap: spin.uSpacing };
+  return { form: 'spin', levels, energyUnit: 'MHz', spin, polarization: measured.polarization, ratio: null, uGap: spin.uSpacing, signal: measured.signal };
 }
 
 /** Magnetic quantum number of the k-th level from the bottom, as a fraction. */
@@ -120,15 +120,32 @@ function positive(ctx: ReadContext, v: ReadValue | null, subject: string, code: 
   return v;
 }
 
-function readSpinMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, species: SpinSpecies | null): { populations: ReadValue[] | null; polarization: ReadValue | null } | null {
+interface SpinMeasurement {
+  readonly populations: ReadValue[] | null;
+  readonly polarization: ReadValue | null;
+  readonly signal: SignalInput | null;
+}
+
+function readSpinMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, species: SpinSpecies | null): SpinMeasurement | null {
   const pe = byKey.get('populations');
   const pol = byKey.get('polarization');
+  const sig = byKey.get('signal');
   if (pe && pol) {
     bothGiven(ctx, 'populations', pol, 'populations-and-polarization');
     return null;
   }
+  if (sig && (pe || pol)) {
+    bothGiven(ctx, pe ? 'populations' : 'polarization', sig, 'measurement-conflict');
+    return null;
+  }
+  if (sig) {
+    const signal = readSignal(ctx, sig, byKey.has('series'));
+    return signal ? { populations: null, polarization: null, signal } : null;
+  }
   if (!pe && !pol) {
-    measurementMissing(ctx, '`populations:` (in order of increasing energy) or `polarization:`', byKey.get('system')!.keySpan);
+    // A bare time series needs no population measurement: it gives a time constant.
+    if (byKey.has('series')) return { populations: null, polarization: null, signal: null };
+    measurementMissing(ctx, '`populations:` (in order of increasing energy), `polarization:` or `signal:`', byKey.get('system')!.keySpan);
     return null;
   }
   if (pe && !species) {
@@ -141,7 +158,7 @@ function readSpinMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
     const n = Math.round(2 * species.spin + 1);
     const spinText = Number.isInteger(species.spin) ? `${species.spin}` : `${Math.round(2 * species.spin)}/2`;
     const list = readPopulationList(ctx, pe, n, `${species.symbol} (spin ${spinText})`);
-    return list ? { populations: list, polarization: null } : null;
+    return list ? { populations: list, polarization: null, signal: null } : null;
   }
   const p0 = readNumber(ctx, pol!.value, 'polarization');
   const p = p0 ? withSiblingUncertainty(ctx, p0, byKey.get('uncertainty'), 'polarization') : null;
@@ -150,5 +167,5 @@ function readSpinMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
     report(ctx, 'error', 'polarization-range', `polarization: |P| cannot exceed 1 (got ${p.value}); give a fraction, not a percentage.`, p.span);
     return null;
   }
-  return { populations: null, polarization: p };
+  return { populations: null, polarization: p, signal: null };
 }

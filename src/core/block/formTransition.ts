@@ -3,12 +3,12 @@
  * `g: [lower, upper]` and `populations: [lower, upper]` or `ratio`
  * (n_upper / n_lower).
  */
-import type { BlockInput, LevelInput } from './input';
+import { GAIN_KEYS, readGain } from './gain';
+import type { FormRead, LevelInput } from './input';
 import { bothGiven, measurementMissing, readPopulationList, withSiblingUncertainty } from './populations';
 import { nonEmpty, readInteger, readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import type { Entry } from './yamlTree';
 
-type FormRead = Omit<BlockInput, 'lattice' | 'count'>;
 
 /** Reads `gap`, `g` and `populations`/`ratio`. */
 export function readTransitionForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): FormRead | null {
@@ -19,7 +19,10 @@ export function readTransitionForm(ctx: ReadContext, byKey: ReadonlyMap<string, 
   }
   const g = readDegeneracies(ctx, byKey.get('g'));
   const measured = readTransitionMeasurement(ctx, byKey, ge);
-  if (!gap || !(gap.value > 0) || !g || !measured) return null;
+  const densities = !!measured?.populations && !measured.ratio && measured.populations.every((p) => p.unit !== null);
+  const gain = measured ? readGain(ctx, byKey, densities, byKey.get('populations')) : null;
+  const gainFailed = GAIN_KEYS.some((k) => byKey.has(k)) && !gain;
+  if (!gap || !(gap.value > 0) || !g || !measured || gainFailed) return null;
   const [lower, upper] = measured.populations ?? [null, null];
   const level = (energy: number, gi: number, p: ReadValue | null, label: string): LevelInput => ({
     label,
@@ -38,6 +41,8 @@ export function readTransitionForm(ctx: ReadContext, byKey: ReadonlyMap<string, 
     polarization: null,
     ratio: measured.ratio,
     uGap: gap.uncertainty,
+    densities,
+    gain,
   };
 }
 

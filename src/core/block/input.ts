@@ -34,6 +34,68 @@ export interface SpinInput {
   readonly frequency: number;
 }
 
+/** A signal compared with a thermal reference (hyperpolarization practice). */
+export interface SignalInput {
+  /** Hyperpolarized signal, or null when a time series supplies it (its fitted amplitude). */
+  readonly hyperpolarized: number | null;
+  readonly uHyperpolarized: number | null;
+  readonly thermal: number;
+  readonly uThermal: number | null;
+  /** `[hyperpolarized, thermal]` pairs; flips in radians. */
+  readonly scans: readonly [number, number];
+  readonly flip: readonly [number, number];
+  readonly gain: readonly [number, number];
+  readonly amount: readonly [number, number];
+  readonly span: Span;
+}
+
+/** A time series of signals. */
+export interface SeriesInput {
+  readonly model: 'decay' | 'buildup';
+  /** Times in s, increasing. */
+  readonly times: readonly number[];
+  readonly signals: readonly number[];
+  /** Per-point standard uncertainties, or null. */
+  readonly uSignals: readonly number[] | null;
+  /** Readout flip angle in rad (decays), or null. */
+  readonly flip: number | null;
+  readonly span: Span;
+  /** Spans of each signal value, for per-point notes. */
+  readonly signalSpans: readonly Span[];
+}
+
+/** One emission line. */
+export interface LineInput {
+  readonly label: string | null;
+  /** Wavelength in nm, or null (photon-counting detectors do not need it). */
+  readonly wavelength: number | null;
+  /** Upper-level energy E/k in K. */
+  readonly upper: number;
+  readonly g: number;
+  /** Transition probability in s⁻¹. */
+  readonly A: number;
+  readonly intensity: number;
+  readonly uIntensity: number | null;
+  readonly span: Span;
+}
+
+/** Emission lines of one species. */
+export interface LinesInput {
+  readonly detector: 'energy' | 'photon';
+  readonly lines: readonly LineInput[];
+}
+
+/** Gain of an optical transition, from absolute populations. */
+export interface GainInput {
+  /** σ in cm². */
+  readonly crossSection: number;
+  /** Medium length in cm, or null. */
+  readonly length: number | null;
+  readonly mirrors: readonly [number, number] | null;
+  /** Distributed loss α in cm⁻¹ (0 when not given). */
+  readonly loss: number;
+}
+
 /** Everything the analysis needs from a block that read without errors. */
 export interface BlockInput {
   readonly form: BlockForm;
@@ -50,6 +112,12 @@ export interface BlockInput {
   readonly uGap: number | null;
   readonly lattice: ReadValue | null;
   readonly count: number | null;
+  /** True when every population was given as a number density (cm⁻³). */
+  readonly densities: boolean;
+  readonly signal: SignalInput | null;
+  readonly series: SeriesInput | null;
+  readonly lines: LinesInput | null;
+  readonly gain: GainInput | null;
 }
 
 /** The block's label and the spans of its keys, kept even when the block has errors. */
@@ -59,3 +127,7 @@ export interface BlockMeta {
   /** Key name → spans of the key and its value, for hovers and completions. */
   readonly keys: ReadonlyMap<string, { key: Span; value: Span }>;
 }
+
+/** What one form's reader returns; the block reader adds the keys common to all forms. */
+export type FormRead = Omit<BlockInput, 'lattice' | 'count' | 'series' | 'signal' | 'lines' | 'gain' | 'densities'> &
+  Partial<Pick<BlockInput, 'signal' | 'lines' | 'gain' | 'densities'>>;

@@ -7,8 +7,10 @@ import type { Problem, Span } from '../types';
 import { readSpinForm } from './formSpin';
 import { readLevelsForm } from './formLevels';
 import { readTransitionForm } from './formTransition';
-import type { BlockInput, BlockMeta } from './input';
-import { BLOCK_KEY_NAMES, type BlockForm } from './schema';
+import type { BlockInput, BlockMeta, FormRead } from './input';
+import { BLOCK_KEY_NAMES, BLOCK_KEYS, type BlockForm } from './schema';
+import { readLinesForm } from './formLines';
+import { readSeries } from './series';
 import { unknownKey } from './unknownKey';
 import { nonEmpty, readInteger, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
 import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
@@ -20,7 +22,7 @@ export interface Interpretation {
   readonly problems: Problem[];
 }
 
-const FORM_KEYS: readonly [string, BlockForm][] = [['levels', 'levels'], ['system', 'spin'], ['gap', 'transition']];
+const FORM_KEYS: readonly [string, BlockForm][] = [['levels', 'levels'], ['system', 'spin'], ['gap', 'transition'], ['lines', 'lines']];
 
 /** Reads one block body (the text between the fences). Never throws. */
 export function interpretBody(body: string): Interpretation {
@@ -55,19 +57,24 @@ export function interpretBody(body: string): Interpretation {
 
   const forms = FORM_KEYS.filter(([k]) => byKey.has(k)).sort((a, b) => byKey.get(a[0])!.keySpan.start - byKey.get(b[0])!.keySpan.start);
   let input: BlockInput | null = null;
-  if (forms.length === 0) {
-    report(ctx, 'error', 'form-missing', 'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition).', firstLine);
+  if (forms.length === 0 && !byKey.has('series')) {
+    report(ctx, 'error', 'form-missing', 'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition); or give emission `lines:` or a time `series:`.', firstLine);
   } else if (forms.length > 1) {
     const [first, second] = forms;
     report(ctx, 'error', 'form-conflict', `Use one way of describing the levels: \`${first[0]}\` and \`${second[0]}\` cannot be combined.`, byKey.get(second[0])!.keySpan);
   } else {
+    const form: BlockForm = forms.length === 1 ? forms[0][1] : 'series';
+    misplacedKeys(ctx, byKey, form);
     const lattice = readLattice(ctx, byKey.get('lattice'));
     const count = readCount(ctx, byKey.get('count'));
-    const errorsBefore = countErrors(problems);
-    const form = forms[0][1];
-    const common = { lattice, count: count?.value ?? null };
-    const read = form === 'levels' ? readLevelsForm(ctx, byKey) : form === 'spin' ? readSpinForm(ctx, byKey) : readTransitionForm(ctx, byKey);
-    if (read && countErrors(problems) === errorsBefore && countErrors(problems) === 0) input = { ...read, ...common };
+    const series = byKey.has('series') ? readSeries(ctx, byKey.get('series')!) : null;
+    const read = readForm(ctx, byKey, form);
+    if (read?.signal && !lattice) {
+      report(ctx, 'error', 'signal-lattice-missing', 'signal: give `lattice:`, the temperature of the thermal reference, so its polarization is known.', byKey.get('signal')!.keySpan);
+    }
+    if (read && countErrors(problems) === 0) {
+      input = { signal: null, lines: null, gain: null, densities: false, ...read, series, lattice, count: count?.value ?? null };
+    }
   }
   if (countErrors(problems) > 0) input = null;
   return { meta, input, problems };
@@ -93,3 +100,34 @@ function readCount(ctx: ReadContext, e: Entry | undefined): ReadValue | null {
   if (!e) return null;
   return readInteger(ctx, e.value, 'count', 'count-invalid', 1);
 }
+
+const SERIES_ONLY: FormRead = { form: 'series', levels: [], energyUnit: null, spin: null, polarization: null, ratio: null, uGap: null };
+
+function readForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: BlockForm): FormRead | null {
+  switch (form) {
+    case 'levels': return readLevelsForm(ctx, byKey);
+    case 'spin': return readSpinForm(ctx, byKey);
+    case 'transition': return readTransitionForm(ctx, byKey);
+    case 'lines': return readLinesForm(ctx, byKey);
+    default: return SERIES_ONLY;
+  }
+}
+
+/** Warns about keys of another form (`detector` in a spin block, `signal` with explicit levels…); they are ignored. */
+function misplacedKeys(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: BlockForm): void {
+  for (const doc of BLOCK_KEYS) {
+    const e = byKey.get(doc.key);
+    if (!e || doc.form === 'any' || doc.form === form) continue;
+    // `populations` and `g` belong to both the spin and transition readers; FORM_KEYS themselves are reported as conflicts.
+    if (FORM_KEYS.some(([k]) => k === doc.key)) continue;
+    report(ctx, 'warning', 'key-not-for-form', `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form]}; it is ignored in ${FORM_NAMES[form]}.`, e.keySpan);
+  }
+}
+
+const FORM_NAMES: Record<BlockForm, string> = {
+  levels: 'a block of explicit levels',
+  spin: 'a spin block (`system:`)',
+  transition: 'a single-transition block (`gap:`)',
+  lines: 'an emission-lines block',
+  series: 'a bare time series',
+};

@@ -4,8 +4,11 @@
  * completions and hovers in the editor, and docs/format.md.
  */
 
-/** The three ways a block can describe its level scheme. */
-export type BlockForm = 'levels' | 'spin' | 'transition';
+/**
+ * How a block describes what was measured: the three level schemes of the
+ * format, emission `lines` (a Boltzmann plot), or a bare time `series`.
+ */
+export type BlockForm = 'levels' | 'spin' | 'transition' | 'lines' | 'series';
 
 /** One documented key. */
 export interface KeyDoc {
@@ -30,6 +33,14 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
   { key: 'gap', form: 'transition', summary: 'Energy of the single transition (energy, frequency, wavenumber or wavelength).', example: '1420.405751768 MHz' },
   { key: 'g', form: 'transition', summary: 'Degeneracies `[lower, upper]`; default `[1, 1]`.', example: '[1, 3]' },
   { key: 'ratio', form: 'transition', summary: 'Population ratio n_upper / n_lower instead of populations.', example: '2.9979' },
+  { key: 'signal', form: 'spin', summary: 'Signal against a thermal reference: `hyperpolarized`, `thermal`, and optional `scans`, `flip`, `gain`, `amount`, `noise` (each `{ hyperpolarized, thermal }`).', example: '' },
+  { key: 'series', form: 'any', summary: 'A time series: `model` (`decay` or `buildup`), `time` and `signal` lists, and `flip` (readout flip angle) for decays.', example: '' },
+  { key: 'lines', form: 'lines', summary: 'Emission lines of one species for a Boltzmann plot: `{ wavelength, upper, g, A, intensity }` items.', example: '' },
+  { key: 'detector', form: 'lines', summary: 'How line intensities were measured: `energy` (energy-calibrated, default) or `photon` (photon counting).', example: 'energy' },
+  { key: 'cross-section', form: 'transition', summary: 'Stimulated-emission cross-section σ of the transition (with absolute populations): gives the gain.', example: '2.8e-19 cm2' },
+  { key: 'length', form: 'transition', summary: 'Length of the gain medium: gives the single-pass gain and the threshold.', example: '10 cm' },
+  { key: 'mirrors', form: 'transition', summary: 'Mirror reflectivities `[R1, R2]` of the resonator, for the threshold check.', example: '[0.995, 0.95]' },
+  { key: 'loss', form: 'transition', summary: 'Distributed loss α of the medium (default 0).', example: '0.01 cm-1' },
   { key: 'lattice', form: 'any', summary: 'Bath (lattice) temperature: gives the thermal-equilibrium polarization and the enhancement.', example: '1.4 K' },
   { key: 'count', form: 'any', summary: 'Number of independent systems N; curves then show the exact finite-N entropy.', example: '1000' },
   { key: 'uncertainty', form: 'any', summary: 'Standard uncertainty of the block’s `polarization` or `ratio` (instead of `±`).', example: '0.01' },
@@ -46,6 +57,23 @@ export const LEVEL_KEYS: readonly KeyDoc[] = [
   { key: 'population', form: 'levels', summary: 'Population (≥ 0) on any scale shared by the block; `±` allowed.', example: '0.25' },
   { key: 'uncertainty', form: 'levels', summary: 'Standard uncertainty of this level’s population.', example: '0.01' },
 ];
+
+/** Keys of one emission line. */
+export const LINE_KEYS: readonly KeyDoc[] = [
+  { key: 'wavelength', form: 'lines', summary: 'Wavelength of the line (needed for energy-calibrated intensities).', example: '696.54 nm' },
+  { key: 'upper', form: 'lines', summary: 'Energy of the upper level of the line.', example: '13.328 eV' },
+  { key: 'g', form: 'lines', summary: 'Degeneracy of the upper level.', example: '3' },
+  { key: 'A', form: 'lines', summary: 'Transition probability (Einstein A) in s⁻¹.', example: '6.39e6' },
+  { key: 'intensity', form: 'lines', summary: 'Measured line intensity (any common scale); `±` allowed.', example: '1520 ± 40' },
+  { key: 'uncertainty', form: 'lines', summary: 'Standard uncertainty of the intensity.', example: '40' },
+  { key: 'species', form: 'lines', summary: 'Species of the line (all lines of a block must share it).', example: 'Ar I' },
+  { key: 'label', form: 'lines', summary: 'Name of the line.', example: 'Ar I 696.5' },
+];
+
+/** Keys of `signal:` (thermal reference). */
+export const SIGNAL_KEYS: readonly string[] = ['hyperpolarized', 'thermal', 'scans', 'flip', 'gain', 'amount', 'noise'];
+/** Keys of `series:`. */
+export const SERIES_KEYS: readonly string[] = ['model', 'time', 'signal', 'flip', 'noise'];
 
 /** Names of the top-level keys, for lookups. */
 export const BLOCK_KEY_NAMES: ReadonlySet<string> = new Set(BLOCK_KEYS.map((k) => k.key));

@@ -13,6 +13,7 @@ import {
   convert,
   formatNumber,
   LEVEL_KEYS,
+  LINE_KEYS,
   lookupSpecies,
   parseQuantity,
   speciesSymbols,
@@ -137,9 +138,9 @@ function back(position: Position, length: number): Range {
 
 // ---- keys ----
 
-const FORM_KEYS: Readonly<Record<string, BlockForm>> = { levels: 'levels', system: 'spin', gap: 'transition' };
-/** Keys that exclude each other (docs/format.md: populations-and-polarization, populations-and-ratio). */
-const EXCLUSIVE: readonly (readonly [string, string])[] = [['populations', 'polarization'], ['populations', 'ratio']];
+const FORM_KEYS: Readonly<Record<string, BlockForm>> = { levels: 'levels', system: 'spin', gap: 'transition', lines: 'lines' };
+/** Keys that exclude each other (docs/format.md: populations-and-polarization, populations-and-ratio, measurement-conflict). */
+const EXCLUSIVE: readonly (readonly [string, string])[] = [['populations', 'polarization'], ['populations', 'ratio'], ['signal', 'populations'], ['signal', 'polarization']];
 
 /** Whether a top-level key fits a block that already has `present`: new, of the block's form, not excluded. */
 function fits(doc: KeyDoc, present: ReadonlySet<string>): boolean {
@@ -170,10 +171,12 @@ function keyItems(body: Body, position: Position, lineText: string, before: stri
   const top = topIndent(body);
   const brace = openBrace(before);
   const flow = brace >= 0 ? /[{,]\s*([\w-]*)$/.exec(before) : null;
+  const itemKeys = (region: string | null): readonly KeyDoc[] | null => (region === 'levels' ? LEVEL_KEYS : region === 'lines' ? LINE_KEYS : null);
   if (flow) {
-    if (regionKey(body, top) !== 'levels') return null;
+    const docs = itemKeys(regionKey(body, top));
+    if (!docs) return null;
     const present = flowKeys(lineText, brace);
-    return LEVEL_KEYS.map((d, i) => ({ d, i })).filter(({ d }) => !present.has(d.key)).map(({ d, i }) => keyItem(d, i, back(position, flow[1].length)));
+    return docs.map((d, i) => ({ d, i })).filter(({ d }) => !present.has(d.key)).map(({ d, i }) => keyItem(d, i, back(position, flow[1].length)));
   }
   const atStart = /^\s*(-\s+)?([\w-]*)$/.exec(before);
   if (!atStart || !/^\s*(?:-\s+)?[\w-]*\s*$/.test(lineText)) return null;
@@ -183,9 +186,10 @@ function keyItems(body: Body, position: Position, lineText: string, before: stri
     const present = topKeys(body, top);
     return BLOCK_KEYS.map((d, i) => ({ d, i })).filter(({ d }) => fits(d, present)).map(({ d, i }) => keyItem(d, i, range));
   }
-  if (indent <= top || regionKey(body, top) !== 'levels') return null;
+  const docs = indent > top ? itemKeys(regionKey(body, top)) : null;
+  if (!docs) return null;
   const present = blockItemKeys(body);
-  return LEVEL_KEYS.map((d, i) => ({ d, i })).filter(({ d }) => !present.has(d.key)).map(({ d, i }) => keyItem(d, i, range));
+  return docs.map((d, i) => ({ d, i })).filter(({ d }) => !present.has(d.key)).map(({ d, i }) => keyItem(d, i, range));
 }
 
 // ---- isotopes ----

@@ -5,6 +5,7 @@
  * the same strings as the `boltzmark report` table.
  */
 import {
+  measurementRows,
   betaText,
   enhancementText,
   formatNumber,
@@ -70,7 +71,8 @@ export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions):
   if (!r) return [];
   const t: [string, string] = ['T', valuePart(temperatureText(r, o), 'T')];
   const beta: [string, string] = ['β', valuePart(betaText(r, o), 'β')];
-  const rows: [string, string][] = o.temperature === 'beta-first' ? [beta, t] : [t, beta];
+  // A bare time series has no temperature; its rows are the fit's.
+  const rows: [string, string][] = !r.beta && !r.limit && r.series ? [] : o.temperature === 'beta-first' ? [beta, t] : [t, beta];
   if (r.polarization) rows.push([polarizationLabel(b), fractionText(r.polarization, o)]);
   const lattice = b.input?.lattice;
   if (r.thermalPolarization !== null && lattice) {
@@ -80,6 +82,7 @@ export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions):
   }
   if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
+  for (const [label, value] of measurementRows(b.input, r, o)) rows.push([escapeMarkdown(label), escapeMarkdown(value)]);
   return rows;
 }
 

@@ -22,19 +22,20 @@ function inserted(item: CompletionItem | undefined): string {
   return (item.textEdit as TextEdit | undefined)?.newText ?? item.insertText ?? item.label;
 }
 
-const SPIN_KEYS = ['field', 'frequency', 'g-factor', 'populations', 'polarization', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date'];
+const SPIN_KEYS = ['field', 'frequency', 'g-factor', 'populations', 'polarization', 'signal', 'series', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date'];
 
 describe('completion', () => {
   describe('of keys', () => {
     it('offers every key in an empty block', () => {
-      check(note('$0'), ['id', 'levels', 'system', 'field', 'frequency', 'g-factor', 'populations', 'polarization', 'gap', 'g', 'ratio', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
+      check(note('$0'), ['id', 'levels', 'system', 'field', 'frequency', 'g-factor', 'populations', 'polarization', 'gap', 'g', 'ratio', 'signal', 'series', 'lines', 'detector', 'cross-section', 'length', 'mirrors', 'loss', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
     });
 
     it('never proposes a key already in the mapping, nor one of another form', () => {
       check(note('id: a', 'system: 13C', '$0'), SPIN_KEYS);
       check(note('id: a', 'system: 13C', 'fi$0'), SPIN_KEYS);
-      check(note('system: 13C', '$0', 'field: 9.4 T', 'polarization: 0.3'), ['id', 'frequency', 'g-factor', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
-      check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), ['id', 'lattice', 'count', 'note', 'sample', 'date']);
+      check(note('system: 13C', '$0', 'field: 9.4 T', 'polarization: 0.3'), ['id', 'frequency', 'g-factor', 'series', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
+      check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), ['id', 'series', 'lattice', 'count', 'note', 'sample', 'date']);
+      check(note('lines:', '  - { upper: 13 eV, $0'), ['wavelength', 'g', 'A', 'intensity', 'uncertainty', 'species', 'label']);
     });
 
     it('documents each key with its summary and inserts `key: `', () => {

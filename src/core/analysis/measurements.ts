@@ -1,0 +1,91 @@
+/**
+ * The measurement inputs beyond populations: a time series (fitted), a
+ * signal against a thermal reference (turned into a polarization), emission
+ * lines (outliers of the Boltzmann plot) and the gain of an optical
+ * transition.
+ */
+import type { BlockInput } from '../block/input';
+import type { ReadValue } from '../block/values';
+import { thermalSpinPolarization } from '../physics/brillouin';
+import { gainCoefficient, singlePassGain, thresholdGain } from '../physics/gain';
+import { fitBuildup, fitDecay, type SeriesFit } from '../physics/relaxation';
+import { acquisitionFactor, referencedPolarization } from '../physics/thermalReference';
+import type { Problem } from '../types';
+import type { FitSummary, GainResult, SignalResult } from './results';
+
+/** A line more than this many standard deviations off the Boltzmann line is flagged. */
+export const LINE_OUTLIER_SIGMA = 3;
+
+/** Fits the block's time series, with warnings for a short series or a fit that did not converge. */
+export function measureSeries(input: BlockInput, problems: Problem[]): SeriesFit | null {
+  const s = input.series;
+  if (!s) return null;
+  const fit = s.model === 'decay' ? fitDecay(s.times, s.signals, s.flip, s.uSignals) : fitBuildup(s.times, s.signals, s.uSignals);
+  if (!fit || !fit.converged) {
+    problems.push({ severity: 'warning', code: 'series-no-convergence', message: `series: the ${s.model} fit did not converge; check that the data follow the model (and the sign and units of the times).`, span: s.span });
+    return fit && Number.isFinite(fit.timeConstant.value) && fit.timeConstant.value > 0 ? fit : null;
+  }
+  if (fit.dof === 0) {
+    problems.push({ severity: 'warning', code: 'series-too-short', message: `series: ${s.times.length} points fix the ${s.model} model's ${s.times.length} parameters exactly; add points to get standard uncertainties.`, span: s.span });
+  }
+  return fit;
+}
+
+/** Polarization from the signal and its thermal reference (the series amplitude stands in for a missing hyperpolarized signal). */
+export function measureSignal(input: BlockInput, series: SeriesFit | null, problems: Problem[]): { result: SignalResult; polarization: ReadValue } | null {
+  const sig = input.signal;
+  const spin = input.spin;
+  const T = input.lattice?.value;
+  if (!sig || !spin || T === undefined) return null;
+  const pThermal = thermalSpinPolarization(spin.species.spin, spin.spacing, T);
+  let hp = sig.hyperpolarized;
+  let uHp = sig.uHyperpolarized;
+  if (hp === null && series) {
+    // A decay starts at S₀; a build-up ends at its plateau S∞ + S₀.
+    const off = series.offset;
+    hp = series.amplitude.value + (off ? off.value : 0);
+    const ua = series.amplitude.uncertainty;
+    uHp = ua === null ? null : off?.uncertainty != null ? Math.hypot(ua, off.uncertainty) : ua;
+  }
+  if (pThermal === null || hp === null) return null;
+  const factor = acquisitionFactor(
+    { scans: sig.scans[0], gain: sig.gain[0], flip: sig.flip[0], amount: sig.amount[0] },
+    { scans: sig.scans[1], gain: sig.gain[1], flip: sig.flip[1], amount: sig.amount[1] },
+  );
+  const p = referencedPolarization(pThermal, hp, uHp, sig.thermal, sig.uThermal, factor);
+  if (!(Math.abs(p.value) < 1)) {
+    problems.push({ severity: 'error', code: 'signal-polarization-range', message: `signal: the referenced polarization comes out as ${p.value.toPrecision(3)}, beyond ±1; check scans, gains, flip angles and the lattice temperature.`, span: sig.span });
+    return null;
+  }
+  return {
+    result: { pThermal, factor, ratio: hp / sig.thermal, hyperpolarized: hp, fromSeries: sig.hyperpolarized === null },
+    polarization: { value: p.value, uncertainty: p.uncertainty, span: sig.span, unit: null },
+  };
+}
+
+/** Gain, single-pass gain and threshold of a transition given with absolute populations. */
+export function measureGain(input: BlockInput): GainResult | null {
+  const gi = input.gain;
+  if (!gi || input.levels.length !== 2) return null;
+  const [lo, up] = input.levels;
+  const g0 = gainCoefficient(gi.crossSection, lo.population!, up.population!, lo.g, up.g);
+  const single = gi.length !== null ? singlePassGain(g0, gi.length) : null;
+  const threshold = gi.length !== null && gi.mirrors ? thresholdGain(gi.loss, gi.mirrors[0], gi.mirrors[1], gi.length) : null;
+  return { coefficient: g0, singlePass: single !== null && Number.isFinite(single) ? single : null, threshold, aboveThreshold: threshold === null ? null : g0 > threshold };
+}
+
+/** Warns on each emission line more than {@link LINE_OUTLIER_SIGMA} standard deviations off the fitted line. */
+export function lineOutliers(input: BlockInput, fit: FitSummary | null, problems: Problem[]): number[] {
+  if (!input.lines || !fit) return [];
+  const levels = input.levels;
+  const scatter = !fit.weighted && fit.dof > 0 ? Math.sqrt(fit.chi2 / fit.dof) : null;
+  const out: number[] = [];
+  levels.forEach((l, i) => {
+    const r = fit.residuals[i];
+    const sigma = fit.weighted && l.uPopulation !== null && l.population ? l.uPopulation / l.population : scatter;
+    if (r === null || !sigma || !(Math.abs(r) > LINE_OUTLIER_SIGMA * sigma)) return;
+    out.push(i);
+    problems.push({ severity: 'warning', code: 'line-outlier', message: `This line lies ${(Math.abs(r) / sigma).toFixed(1)} σ off the Boltzmann line (more than ${LINE_OUTLIER_SIGMA} σ): self-absorption, a blend, or a wrong A or g?`, span: l.span! });
+  });
+  return out;
+}
