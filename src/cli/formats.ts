@@ -1,4 +1,4 @@
-/** The three output formats of `boltzmark report`: a table for people, JSON (the contract) and CSV. */
+/** The output formats of `boltzmark report`: a table for people, JSON (the contract), CSV and Markdown. */
 import { measurementShort, betaText, enhancementText, fractionText, temperatureText, type ReportEntry, type BlockReport, DEFAULT_DISPLAY } from '../core';
 
 /** A block with its report entry, for the formatters. */
@@ -11,20 +11,7 @@ export interface Row {
 export function formatTable(rows: readonly Row[]): string {
   if (rows.length === 0) return 'No levels blocks found.\n';
   const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
-  const body = rows.map(({ entry: e, block: b }) => {
-    const r = b.results;
-    return [
-      `${e.file}:${e.line}`,
-      e.id ?? '—',
-      e.status,
-      r && (r.beta || r.limit) ? temperatureText(r).replace(/^T = /, '') : '—',
-      r && (r.beta || r.limit) ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
-      r?.polarization ? fractionText(r.polarization) : '—',
-      r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',
-      r ? enhancementText(r.enhancement) : '—',
-      r ? measurementShort(r) ?? '' : '',
-    ];
-  });
+  const body = tableCells(rows);
   const width = (s: string): number => [...s].length;
   const widths = head.map((h, i) => Math.max(width(h), ...body.map((r) => width(r[i]))));
   const line = (cells: string[]): string => cells.map((c, i) => c + ' '.repeat(widths[i] - width(c))).join('  ').trimEnd();
@@ -64,4 +51,37 @@ export function formatCsv(rows: readonly Row[]): string {
     ].map(csvCell).join(','));
   }
   return lines.join('\r\n') + '\r\n';
+}
+
+/** Escapes text for a Markdown table cell (pipes, backslashes, HTML, line breaks). */
+function mdCell(s: string): string {
+  return s.replace(/\\/g, '\\\\').replace(/\|/g, '\\|').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/[\r\n]+/g, ' ');
+}
+
+/** A Markdown results table, to paste into a summary note. */
+export function formatMarkdown(rows: readonly Row[]): string {
+  if (rows.length === 0) return '_No levels blocks found._\n';
+  const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
+  const cells = tableCells(rows);
+  const out = [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`];
+  for (const c of cells) out.push(`| \`${mdCell(c[0])}\` | ${c.slice(1).map(mdCell).join(' | ')} |`);
+  return out.join('\n') + '\n';
+}
+
+/** The cells of one row per block: where, id, status, T, β, P, P_th, ε, and the other results. */
+function tableCells(rows: readonly Row[]): string[][] {
+  return rows.map(({ entry: e, block: b }) => {
+    const r = b.results;
+    return [
+      `${e.file}:${e.line}`,
+      e.id ?? '—',
+      e.status,
+      r && (r.beta || r.limit) ? temperatureText(r).replace(/^T = /, '') : '—',
+      r && (r.beta || r.limit) ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
+      r?.polarization ? fractionText(r.polarization) : '—',
+      r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',
+      r ? enhancementText(r.enhancement) : '—',
+      r ? measurementShort(r) ?? '' : '',
+    ];
+  });
 }

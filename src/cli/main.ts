@@ -1,12 +1,12 @@
 /**
- * `boltzmark report <files|folders…>`: reports every `levels` block of the
- * notes. Exit status: 0 when no block has an error, 1 when one has, 2 for a
+ * `boltzmark report <files|folders…>` reports every `levels` block of the
+ * notes; `boltzmark check` prints their diagnostics for CI. Exit status: 0 when no block has an error, 1 when one has, 2 for a
  * usage error (unknown option, unreadable path), as the contract says.
  */
-import { Command, CommanderError, Option } from 'commander';
-import { Analyzer, LineIndex, reportEntry } from '../core';
+import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
+import { Analyzer, LineIndex, reportEntry, STATUSES, type Status } from '../core';
 import { collectFiles, readNote, UsageError } from './files';
-import { formatCsv, formatJson, formatTable, type Row } from './formats';
+import { formatCsv, formatJson, formatMarkdown, formatTable, type Row } from './formats';
 
 /** Where the CLI writes; the tests pass their own. */
 export interface Io {
@@ -15,8 +15,8 @@ export interface Io {
   readonly cwd: string;
 }
 
-/** Runs the report over the given paths and returns the exit status. */
-export function report(paths: readonly string[], format: string, io: Io): number {
+/** Every block of the notes under the given paths, in file then line order. */
+function analyseAll(paths: readonly string[], io: Io): Row[] {
   const analyzer = new Analyzer();
   const rows: Row[] = [];
   for (const file of collectFiles(paths, io.cwd)) {
@@ -24,8 +24,49 @@ export function report(paths: readonly string[], format: string, io: Io): number
     const lines = new LineIndex(note.text);
     for (const block of analyzer.analyzeText(note.text).blocks) rows.push({ block, entry: reportEntry(note.name, block, lines) });
   }
-  io.out(format === 'json' ? formatJson(rows) : format === 'csv' ? formatCsv(rows) : formatTable(rows));
-  return rows.some((r) => r.entry.diagnostics.some((d) => d.severity === 'error')) ? 1 : 0;
+  return rows;
+}
+
+const hasError = (rows: readonly Row[]): boolean => rows.some((r) => r.entry.diagnostics.some((d) => d.severity === 'error'));
+
+/**
+ * Runs the report over the given paths and returns the exit status. A status
+ * filter narrows what is printed; the exit status still reflects every block.
+ */
+export function report(paths: readonly string[], format: string, io: Io, statuses: readonly Status[] | null = null): number {
+  const rows = analyseAll(paths, io);
+  const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
+  const formatter = { json: formatJson, csv: formatCsv, markdown: formatMarkdown, table: formatTable }[format] ?? formatTable;
+  io.out(formatter(shown));
+  return hasError(rows) ? 1 : 0;
+}
+
+/**
+ * `boltzmark check`: every diagnostic as `file:line:col: severity code message`,
+ * the form compilers print, so editors and CI annotate them; exit 1 on errors.
+ */
+export function check(paths: readonly string[], io: Io): number {
+  const rows = analyseAll(paths, io);
+  let errors = 0;
+  let warnings = 0;
+  for (const { entry } of rows) {
+    for (const d of entry.diagnostics) {
+      if (d.severity === 'error') errors++;
+      if (d.severity === 'warning') warnings++;
+      io.out(`${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code} ${d.message}\n`);
+    }
+  }
+  io.err(`boltzmark: ${rows.length} block(s) checked, ${errors} error(s), ${warnings} warning(s)\n`);
+  return errors > 0 ? 1 : 0;
+}
+
+/** Parses `--status inverted,non-thermal`; throws a usage error for an unknown word. */
+function parseStatuses(value: string): Status[] {
+  const words = value.split(',').map((w) => w.trim()).filter((w) => w !== '');
+  for (const w of words) {
+    if (!(STATUSES as readonly string[]).includes(w)) throw new InvalidArgumentError(`unknown status '${w}' (use ${STATUSES.join(', ')})`);
+  }
+  return words as Status[];
 }
 
 /** Parses the arguments (without `node` and the script) and runs; returns the exit status. */
@@ -40,9 +81,17 @@ export function main(argv: readonly string[], io: Io): number {
     .command('report')
     .description('report every levels block of the given notes (folders are searched for *.md)')
     .argument('<paths...>', 'Markdown files or folders')
-    .addOption(new Option('-f, --format <format>', 'output format').choices(['table', 'json', 'csv']).default('table'))
-    .action((paths: string[], opts: { format: string }) => {
-      status = report(paths, opts.format, io);
+    .addOption(new Option('-f, --format <format>', 'output format').choices(['table', 'json', 'csv', 'markdown']).default('table'))
+    .addOption(new Option('-s, --status <list>', 'only blocks with these statuses, comma-separated (normal, saturated, inverted, non-thermal, invalid)').argParser(parseStatuses))
+    .action((paths: string[], opts: { format: string; status?: Status[] }) => {
+      status = report(paths, opts.format, io, opts.status ?? null);
+    });
+  program
+    .command('check')
+    .description('print every diagnostic as file:line:col: severity code message; exit 1 when any is an error')
+    .argument('<paths...>', 'Markdown files or folders')
+    .action((paths: string[]) => {
+      status = check(paths, io);
     });
   try {
     program.parse([...argv], { from: 'user' });

@@ -5,12 +5,23 @@
  */
 import * as vscode from 'vscode';
 import { LanguageClient, TransportKind, type LanguageClientOptions, type ServerOptions } from 'vscode-languageclient/node';
+import type MarkdownIt from 'markdown-it';
+import { DEFAULT_DISPLAY, type DisplayOptions } from '../core';
+import { fromSection } from '../server/settings';
 import { registerCommands } from './commands';
+import { levelsPreview } from './preview';
+import { registerRunLog } from './runLogView';
 
 let client: LanguageClient | undefined;
 
-/** Activates on the first Markdown document (or one of the commands). */
-export async function activate(context: vscode.ExtensionContext): Promise<void> {
+/** What the extension gives VS Code's Markdown preview. */
+export interface BoltzmarkApi {
+  extendMarkdownIt(md: MarkdownIt): MarkdownIt;
+}
+
+/** Activates on the first Markdown document (or one of the commands or views). */
+export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
+  const api: BoltzmarkApi = { extendMarkdownIt: (md) => levelsPreview(md, { infoStrings: previewInfoStrings, display: previewDisplay }) };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
   context.subscriptions.push(log);
   try {
@@ -27,6 +38,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     };
     client = new LanguageClient('boltzmark', 'Boltzmark', serverOptions, clientOptions);
     registerCommands(context, () => client, log);
+    registerRunLog(context, log);
     await client.start();
     log.info('Boltzmark language server started');
   } catch (err) {
@@ -34,6 +46,19 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     log.error(message);
     void vscode.window.showErrorMessage(message, 'Show log').then((pick) => pick && log.show());
   }
+  return api;
+}
+
+/** The extra info strings from the settings, read when the preview renders. */
+function previewInfoStrings(): readonly string[] {
+  return vscode.workspace.getConfiguration('boltzmark').get<string[]>('blocks.extraInfoStrings', []);
+}
+
+/** Display options from the settings, as the server reads them. */
+function previewDisplay(): DisplayOptions {
+  const c = vscode.workspace.getConfiguration('boltzmark');
+  const s = fromSection({ display: { significantDigits: c.get('display.significantDigits'), temperature: c.get('display.temperature'), polarization: c.get('display.polarization') } });
+  return { ...DEFAULT_DISPLAY, digits: s.significantDigits, temperature: s.temperature, percent: s.polarization === 'percent' };
 }
 
 /** Stops the language server. */

@@ -95,7 +95,7 @@ export class Analyzer {
       return { meta: interp.meta, input: interp.input, results, problems };
     } catch (err) {
       const problem: Problem = { severity: 'error', code: 'internal-error', message: `Boltzmark failed on this block: ${(err as Error).message}. Please report it.`, span: { start: 0, end: Math.max(1, body.length) } };
-      return { meta: { id: null, idSpan: null, keys: new Map() }, input: null, results: null, problems: [problem] };
+      return { meta: { id: null, idSpan: null, keys: new Map(), date: null }, input: null, results: null, problems: [problem] };
     }
   }
 

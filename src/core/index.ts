@@ -29,3 +29,6 @@ export type { SeriesFit } from './physics/relaxation';
 export type { GainResult, SignalResult } from './analysis/results';
 export type { SeriesInput, SignalInput, LinesInput, LineInput, GainInput } from './block/input';
 export { LINE_KEYS, SIGNAL_KEYS, SERIES_KEYS } from './block/schema';
+export { resultsHtml, type PreviewBlock } from './preview/resultsHtml';
+export { sparklineSvg, escapeText, escapeAttr, type SparkPoint } from './preview/sparkline';
+export { RunLog, runLogCsv, type RunEntry, type RunGroup } from './runLog';

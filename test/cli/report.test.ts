@@ -120,3 +120,56 @@ describe('README', () => {
     assert.equal(shown, printed);
   });
 });
+
+describe('boltzmark report: Markdown output and status filter', () => {
+  it('prints a Markdown table whose cells escape note text', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'bm-'));
+    writeFileSync(join(dir, 'x.md'), '```levels\nid: "a|b <img src=x onerror=alert(1)>"\ngap: 10 K\nratio: 0.50 ± 0.01\n```\n');
+    const { out, code } = run(['report', dir, '--format', 'markdown']);
+    assert.equal(code, 0);
+    const lines = out.trim().split('\n');
+    assert.match(lines[0], /^\| where \| id \| status \| T \|/);
+    assert.match(lines[1], /^\| --- \|/);
+    assert.ok(lines[2].includes('a\\|b &lt;img src=x onerror=alert(1)&gt;'), lines[2]);
+    // The GUM-rounded values of ../shared/domain.md §11: T = 14.43 ± 0.42 K.
+    assert.ok(lines[2].includes('14.43 ± 0.42 K'));
+    assert.equal(lines[2].split(/(?<!\\)\|/).length, 11, 'nine cells');
+  });
+
+  it('keeps only the blocks with the requested statuses, while the exit status still covers all', () => {
+    const { out, code } = run(['report', 'demo', '-f', 'json', '--status', 'inverted,non-thermal']);
+    const entries = JSON.parse(out) as { status: string }[];
+    assert.ok(entries.length >= 2);
+    assert.ok(entries.every((e) => e.status === 'inverted' || e.status === 'non-thermal'));
+    assert.equal(code, 1, 'the demo still has a block with errors');
+  });
+
+  it('refuses an unknown status word with exit 2', () => {
+    const r = run(['report', 'demo', '--status', 'hot']);
+    assert.equal(r.code, 2);
+    assert.match(r.err, /unknown status 'hot'/);
+  });
+});
+
+describe('boltzmark check', () => {
+  it('prints compiler-style lines for the demo and exits 1 on its errors', () => {
+    const r = run(['check', 'demo']);
+    assert.equal(r.code, 1);
+    const lines = r.out.trim().split('\n');
+    for (const l of lines) assert.match(l, /^[^:]+:\d+:\d+: (error|warning|info) [a-z-]+ .+$/);
+    assert.ok(lines.includes('demo/polarizer-log.md:86:13: error unit-case field: Units are case-sensitive: `MT` is not `mT`.'), lines.join('\n'));
+    assert.match(r.err, /error\(s\)/);
+  });
+
+  it('exits 0 with no output lines on a clean notebook', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'bm-'));
+    writeFileSync(join(dir, 'ok.md'), '```levels\ngap: 1 K\nratio: 0.5\n```\n');
+    const r = run(['check', dir]);
+    assert.equal(r.code, 0);
+    assert.equal(r.out, '');
+  });
+
+  it('exits 2 for a missing path', () => {
+    assert.equal(run(['check', 'no/such']).code, 2);
+  });
+});

@@ -126,6 +126,8 @@ export interface BlockMeta {
   readonly idSpan: Span | null;
   /** Key name → spans of the key and its value, for hovers and completions. */
   readonly keys: ReadonlyMap<string, { key: Span; value: Span }>;
+  /** The block's `date` as written (free text), or null. */
+  readonly date: string | null;
 }
 
 /** What one form's reader returns; the block reader adds the keys common to all forms. */

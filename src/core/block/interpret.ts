@@ -27,7 +27,7 @@ const FORM_KEYS: readonly [string, BlockForm][] = [['levels', 'levels'], ['syste
 /** Reads one block body (the text between the fences). Never throws. */
 export function interpretBody(body: string): Interpretation {
   const problems: Problem[] = [];
-  const emptyMeta: BlockMeta = { id: null, idSpan: null, keys: new Map() };
+  const emptyMeta: BlockMeta = { id: null, idSpan: null, keys: new Map(), date: null };
   const firstLine: Span = { start: 0, end: Math.max(1, body.search(/\r|\n|$/)) };
   if (body.trim() === '') {
     problems.push({ severity: 'error', code: 'block-empty', message: 'The block is empty: describe the levels with `levels:`, `system:` + `field:`, or `gap:`.', span: firstLine });
@@ -53,7 +53,9 @@ export function interpretBody(body: string): Interpretation {
   }
   const idEntry = byKey.get('id');
   const idText = idEntry ? readText(ctx, idEntry.value) : null;
-  const meta: BlockMeta = { id: idText && idText.text !== '' ? idText.text : null, idSpan: idText?.span ?? null, keys };
+  const dateEntry = byKey.get('date');
+  const dateText = dateEntry ? readText(ctx, dateEntry.value) : null;
+  const meta: BlockMeta = { id: idText && idText.text !== '' ? idText.text : null, idSpan: idText?.span ?? null, keys, date: dateText && dateText.text !== '' ? dateText.text : null };
 
   const forms = FORM_KEYS.filter(([k]) => byKey.has(k)).sort((a, b) => byKey.get(a[0])!.keySpan.start - byKey.get(b[0])!.keySpan.start);
   let input: BlockInput | null = null;

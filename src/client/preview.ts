@@ -1,0 +1,32 @@
+/**
+ * The Markdown preview plugin: after each `levels` fence, the block's results
+ * as a table and an S(E) sparkline (HTML and SVG made by the core; no script,
+ * so the preview's security settings and HTML export keep them).
+ */
+import type MarkdownIt from 'markdown-it';
+import { Analyzer, resultsHtml, type DisplayOptions } from '../core';
+
+/** Options: which fences are ours and how numbers are shown. */
+export interface PreviewOptions {
+  readonly infoStrings: () => readonly string[];
+  readonly display: () => DisplayOptions;
+}
+
+/** Extends a markdown-it instance (VS Code's preview one, or any other). */
+export function levelsPreview(md: MarkdownIt, options: PreviewOptions): MarkdownIt {
+  const analyzer = new Analyzer();
+  const fence = md.renderer.rules.fence ?? ((tokens, idx, opts, _env, self) => self.renderToken(tokens, idx, opts));
+  md.renderer.rules.fence = (tokens, idx, opts, env, self) => {
+    const html = fence(tokens, idx, opts, env, self);
+    const token = tokens[idx];
+    const language = token.info.trim().split(/\s+/, 1)[0] ?? '';
+    if (language !== 'levels' && !options.infoStrings().includes(language)) return html;
+    try {
+      return html + resultsHtml(analyzer.analyseBody(token.content), options.display());
+    } catch {
+      // The preview must render even if analysis fails; the editor shows the problem.
+      return html;
+    }
+  };
+  return md;
+}

@@ -1,0 +1,76 @@
+import { strict as assert } from 'node:assert';
+import { readFileSync } from 'node:fs';
+import MarkdownIt from 'markdown-it';
+import { levelsPreview } from '../../src/client/preview';
+import { DEFAULT_DISPLAY } from '../../src/core';
+
+function render(markdown: string): string {
+  const md = levelsPreview(new MarkdownIt({ html: false }), { infoStrings: () => [], display: () => DEFAULT_DISPLAY });
+  return md.render(markdown);
+}
+
+/** Checks that every SVG fragment is well-formed XML: tags balanced and properly nested, attributes quoted. */
+function assertWellFormedSvg(html: string): number {
+  const svgs = html.match(/<svg[\s\S]*?<\/svg>/g) ?? [];
+  for (const svg of svgs) {
+    const stack: string[] = [];
+    for (const m of svg.matchAll(/<(\/?)([a-zA-Z][\w:-]*)((?:\s+[\w:-]+="[^"<]*")*)\s*(\/?)>/g)) {
+      const [, close, name, , self] = m;
+      if (self) continue;
+      if (close) assert.equal(stack.pop(), name, `closing </${name}>`);
+      else stack.push(name);
+    }
+    assert.deepEqual(stack, [], 'all SVG elements closed');
+    // Nothing but tags and text: no stray '<' left unmatched by the tag pattern.
+    assert.equal(svg.replace(/<(\/?)([a-zA-Z][\w:-]*)((?:\s+[\w:-]+="[^"<]*")*)\s*(\/?)>/g, '').includes('<'), false);
+  }
+  return svgs.length;
+}
+
+describe('Markdown preview of levels blocks', () => {
+  it('follows each block of the demo notebook with a results table and an S(E) sparkline', () => {
+    const html = render(readFileSync('demo/polarizer-log.md', 'utf8'));
+    const tables = html.match(/<table class="boltzmark-table">/g) ?? [];
+    assert.equal(tables.length, 5, 'five valid blocks with results');
+    // The contract's example values, GUM-rounded as in the hover and the report.
+    assert.match(html, /<strong>cell-B run 1<\/strong>/);
+    assert.match(html, /<th scope="row">T<\/th><td>5\.61 ± 0\.19 mK<\/td>/);
+    assert.match(html, /<th scope="row">β<\/th><td>178\.2 ± 6\.1 K⁻¹<\/td>/);
+    assert.match(html, /<th scope="row">ε<\/th><td>241<\/td>/);
+    assert.match(html, /boltzmark-status-inverted/);
+    // The broken block shows its first error instead of numbers.
+    assert.match(html, /<p class="boltzmark-error"><code>[a-z-]+<\/code>/);
+    assert.ok(assertWellFormedSvg(html) >= 5);
+    // No script of any kind reaches the preview.
+    assert.equal(/<script|on\w+=/i.test(html.replace(/<pre[\s\S]*?<\/pre>/g, '')), false);
+  });
+
+  it('keeps the block source itself in the preview', () => {
+    const html = render('```levels\nid: x\ngap: 10 K\nratio: 0.5\n```\n');
+    assert.match(html, /<pre><code class="language-levels">id: x\ngap: 10 K\nratio: 0.5\n<\/code><\/pre>/);
+    assert.match(html, /14\.43 K/);
+  });
+
+  it('shows a hostile id as text, in the table title and in the SVG label', () => {
+    const html = render('```levels\nid: "<img src=x onerror=alert(1)>"\ngap: 10 K\nratio: 0.5\n```\n');
+    assert.equal(html.includes('<img'), false);
+    assert.match(html, /<strong>&lt;img src=x onerror=alert\(1\)&gt;<\/strong>/);
+    assertWellFormedSvg(html);
+  });
+
+  it('leaves other fences alone', () => {
+    const html = render('```yaml\ngap: 10 K\n```\n');
+    assert.equal(html.includes('boltzmark'), false);
+  });
+
+  it('puts the measured dot on the curve for a thermal two-level block, at the right height', () => {
+    // p_upper = 1/(1 + e^x) at x = ε/kT = 1 gives S/(Nk) = 0.5822031089, the curve's value there
+    // (../shared/domain.md §7; canonical two-state system, Schroeder 2000).
+    const html = render(`\`\`\`levels\ngap: 1 K\nratio: ${Math.exp(-1)}\n\`\`\`\n`);
+    const circle = /<circle cx="([\d.]+)" cy="([\d.]+)"/.exec(html)!;
+    const cy = Number(circle[2]);
+    // H = 48, PAD = 4, maximum S = ln 2 at the top of the plot.
+    const expected = 48 - 4 - (0.5822031089 / Math.LN2) * 40;
+    assert.ok(Math.abs(cy - expected) < 0.15, `cy ${cy} vs ${expected}`);
+  });
+});
