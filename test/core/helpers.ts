@@ -35,9 +35,13 @@ export function applyFirstFix(body: string, code: string): string {
   return fixed.slice(fixed.indexOf('```levels\n') + 10, fixed.lastIndexOf('\n```'));
 }
 
-/** Relative closeness check that prints both numbers and the relative Δ on failure. */
+/**
+ * Relative closeness check that prints both numbers and Δ on failure; for an
+ * expected 0 the tolerance is absolute.
+ */
 export function close(actual: number | null | undefined, expected: number, rel: number, what = 'value'): void {
-  assert.ok(actual !== null && actual !== undefined && Number.isFinite(actual), `${what}: got ${actual}`);
-  const d = Math.abs(actual - expected) / Math.abs(expected);
-  assert.ok(d <= rel, `${what}: got ${actual}, expected ${expected} (relative Δ ${d.toExponential(2)} > ${rel})`);
+  assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${what}: got ${actual}`);
+  const delta = Math.abs(actual - expected);
+  const allowed = expected === 0 ? rel : rel * Math.abs(expected);
+  assert.ok(delta <= allowed, `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`);
 }

@@ -6,14 +6,7 @@ import {
   spinPolarizationFromPopulations,
   thermalSpinPolarization,
 } from '../../../src/core/physics/brillouin';
-
-/** Relative comparison that prints the difference on failure. */
-function close(actual: number | null | undefined, expected: number, rel: number, what: string): void {
-  assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${what}: got ${actual}`);
-  const delta = Math.abs(actual - expected);
-  const allowed = expected === 0 ? rel : rel * Math.abs(expected);
-  assert.ok(delta <= allowed, `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`);
-}
+import { close } from '../helpers';
 
 /**
  * Independent computation: ⟨m⟩/I over m = −I … I with weights e^(m y), by direct

@@ -1,14 +1,7 @@
 import assert from 'node:assert/strict';
 import { MAX_CURVE_POINTS, betaAtEnergy, schemeCurve, thermalStateAtEnergy, type CurvePoint } from '../../../src/core/physics/curves';
 import { gibbsEntropy, meanEnergy, relativeEntropy, thermalDistribution } from '../../../src/core/physics/entropy';
-
-/** Relative comparison that prints the difference on failure. */
-function close(actual: number | null | undefined, expected: number, rel: number, what: string): void {
-  assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${what}: got ${actual}`);
-  const delta = Math.abs(actual - expected);
-  const allowed = expected === 0 ? rel : rel * Math.abs(expected);
-  assert.ok(delta <= allowed, `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`);
-}
+import { close } from '../helpers';
 
 /** Binary entropy H(p) = −p ln p − (1 − p) ln(1 − p) in nats (domain.md §7, large-N two-state entropy). */
 const binaryEntropy = (p: number): number => -p * Math.log(p) - (1 - p) * Math.log1p(-p);

@@ -1,13 +1,6 @@
 import assert from 'node:assert/strict';
 import { gibbsEntropy, meanEnergy, relativeEntropy, thermalDistribution } from '../../../src/core/physics/entropy';
-
-/** Relative comparison that prints the difference on failure. */
-function close(actual: number | null | undefined, expected: number, rel: number, what: string): void {
-  assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${what}: got ${actual}`);
-  const delta = Math.abs(actual - expected);
-  const allowed = expected === 0 ? rel : rel * Math.abs(expected);
-  assert.ok(delta <= allowed, `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`);
-}
+import { close } from '../helpers';
 
 /** Canonical two-level entropy in closed form, S/(Nk) = ln(1 + e^(−x)) + x/(1 + e^x) (domain.md §7; Schroeder ch. 3 and 6). */
 const twoLevelEntropy = (x: number): number => Math.log1p(Math.exp(-x)) + x / (1 + Math.exp(x));

@@ -1,13 +1,6 @@
 import assert from 'node:assert/strict';
 import { MAX_FINITE_N_POINTS, finiteNCurve, lnBinomial } from '../../../src/core/physics/finiteN';
-
-/** Relative comparison that prints the difference on failure. */
-function close(actual: number | null | undefined, expected: number, rel: number, what: string): void {
-  assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${what}: got ${actual}`);
-  const delta = Math.abs(actual - expected);
-  const allowed = expected === 0 ? rel : rel * Math.abs(expected);
-  assert.ok(delta <= allowed, `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`);
-}
+import { close } from '../helpers';
 
 /** Exact C(n, k) with BigInt (independent of log-gamma): multiply and divide step by step, each division exact. */
 function exactBinomial(n: number, k: number): bigint {

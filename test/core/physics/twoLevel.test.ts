@@ -5,14 +5,7 @@ import {
   polarizationFromPopulations,
   populationsFromBeta,
 } from '../../../src/core/physics/twoLevel';
-
-/** Relative comparison that prints the difference on failure. */
-function close(actual: number | null | undefined, expected: number, rel: number, what: string): void {
-  assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${what}: got ${actual}`);
-  const delta = Math.abs(actual - expected);
-  const allowed = expected === 0 ? rel : rel * Math.abs(expected);
-  assert.ok(delta <= allowed, `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`);
-}
+import { close } from '../helpers';
 
 /** Rounds to the given number of decimals, as a report would print it. */
 const round = (x: number, decimals: number): number => Math.round(x * 10 ** decimals) / 10 ** decimals;
