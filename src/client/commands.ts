@@ -1,11 +1,12 @@
 /**
- * Commands of the extension. "Show energy–entropy curve" opens the block's
- * results as a Markdown preview until the curve view arrives; "Copy results"
- * puts the same table on the clipboard.
+ * Commands of the extension. "Show energy–entropy curve" opens the curve
+ * view beside the note (from the code lens, the palette or the editor title
+ * bar); "Copy results" puts the block's results table on the clipboard.
  */
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
 import { ResultsMarkdownRequest } from '../server/protocol';
+import { CurveView } from './curveView';
 
 /** Resolves the note and line a command acts on: its arguments, or the active editor's cursor. */
 function target(uri?: string, line?: number): { uri: string; line: number } | null {
@@ -26,11 +27,13 @@ async function results(getClient: () => LanguageClient | undefined, uri?: string
 export function registerCommands(context: vscode.ExtensionContext, getClient: () => LanguageClient | undefined, log: vscode.LogOutputChannel): void {
   const noBlock = (): void => void vscode.window.showInformationMessage('Place the cursor in a `levels` block first.');
   context.subscriptions.push(
-    vscode.commands.registerCommand('boltzmark.showCurve', async (uri?: string, line?: number) => {
-      const md = await results(getClient, uri, line);
-      if (md === null) return noBlock();
-      const doc = await vscode.workspace.openTextDocument({ language: 'markdown', content: md });
-      await vscode.commands.executeCommand('markdown.showPreviewToSide', doc.uri);
+    vscode.commands.registerCommand('boltzmark.showCurve', (uri?: string | vscode.Uri, line?: number) => {
+      // From the editor title bar VS Code passes the note's Uri; the code lens passes (uri, line).
+      const editor = vscode.window.activeTextEditor;
+      const fromTitle = uri instanceof vscode.Uri && editor?.document.uri.toString() === uri.toString();
+      const t = fromTitle ? target() : target(typeof uri === 'string' ? uri : undefined, line);
+      if (!t) return noBlock();
+      CurveView.show({ extensionUri: context.extensionUri, client: getClient, log }, t);
     }),
     vscode.commands.registerCommand('boltzmark.copyResults', async (uri?: string, line?: number) => {
       const md = await results(getClient, uri, line);

@@ -9,6 +9,8 @@ import type MarkdownIt from 'markdown-it';
 import { DEFAULT_DISPLAY, type DisplayOptions } from '../core';
 import { fromSection } from '../server/settings';
 import { registerCommands } from './commands';
+import { followCursor } from './curveFollow';
+import { registerCurveSerializer } from './curveSerializer';
 import { levelsPreview } from './preview';
 import { registerRunLog } from './runLogView';
 
@@ -38,6 +40,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<Boltzm
     };
     client = new LanguageClient('boltzmark', 'Boltzmark', serverOptions, clientOptions);
     registerCommands(context, () => client, log);
+    context.subscriptions.push(followCursor(), registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }));
     registerRunLog(context, log);
     await client.start();
     log.info('Boltzmark language server started');

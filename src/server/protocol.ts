@@ -3,6 +3,7 @@
  * `boltzmark/…`, grouped by direction. docs/architecture.md lists them.
  */
 import { RequestType } from 'vscode-languageserver-protocol';
+import type { ViewPayload } from '../core';
 
 // ---- client → server ----
 
@@ -25,3 +26,9 @@ export interface AnalysisStats {
 
 /** Statistics of the latest analysis of a note (used by tests and benchmarks); null for an unknown note. */
 export const AnalysisStatsRequest = new RequestType<{ readonly uri: string }, AnalysisStats | null, void>('boltzmark/analysisStats');
+
+/**
+ * The curve view's data for the block at (or enclosing) a line: its curves,
+ * measured point and markers, or its first error; null when no block is there.
+ */
+export const CurveDataRequest = new RequestType<BlockParams, ViewPayload | null, void>('boltzmark/curveData');

@@ -18,12 +18,13 @@ import { Debouncer, noteDiagnostics } from './diagnostics';
 import { codeActions } from './features/codeActions';
 import { codeLenses, resultsMarkdown } from './features/codeLens';
 import { completion } from './features/completion';
+import { curvePayload } from './features/curve';
 import { foldingRanges } from './features/folding';
 import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
 import { documentSymbols } from './features/symbols';
 import { Notes } from './notes';
-import { AnalysisStatsRequest, ResultsMarkdownRequest } from './protocol';
+import { AnalysisStatsRequest, CurveDataRequest, ResultsMarkdownRequest } from './protocol';
 import { DEFAULT_SETTINGS, fromSection } from './settings';
 import { blockAt, type NoteState } from './state';
 
@@ -124,6 +125,7 @@ export function startServer(connection: Connection): void {
     }),
   );
   connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
+  connection.onRequest(CurveDataRequest, (p, token) => serve(p.uri, token, null, (s) => curvePayload(s, p.line, notes.current)));
 
   documents.listen(connection);
   connection.listen();

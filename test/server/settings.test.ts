@@ -32,10 +32,10 @@ describe('settings', () => {
     assert.deepEqual(s.extraInfoStrings, ['populations']);
   });
 
-  it('declares its commands with localised titles and activates only on Markdown', () => {
+  it('declares its commands with localised titles and activates only on Markdown and a restored curve view', () => {
     const m = JSON.parse(readFileSync('package.json', 'utf8')) as { activationEvents: string[]; contributes: { commands: { title: string; command: string }[] }; capabilities: { untrustedWorkspaces: { supported: boolean } } };
     const nls = JSON.parse(readFileSync('package.nls.json', 'utf8')) as Record<string, string>;
-    assert.deepEqual(m.activationEvents, ['onLanguage:markdown']);
+    assert.deepEqual(m.activationEvents, ['onLanguage:markdown', 'onWebviewPanel:boltzmark.curveView']);
     assert.equal(m.capabilities.untrustedWorkspaces.supported, true);
     for (const c of m.contributes.commands) assert.ok(nls[c.title.replace(/%/g, '')], `title of ${c.command}`);
   });

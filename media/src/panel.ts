@@ -1,0 +1,90 @@
+/**
+ * The text parts of the page: the block's id and status, the facts, the
+ * notes, the first error of an invalid block, and the list of pinned runs.
+ * Every string from a note is set with `textContent`, never parsed as HTML.
+ */
+import type { PinnedRun } from '../../src/core/view/messages';
+import type { CurvePayload, ProblemPayload } from '../../src/core/view/payload';
+
+function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, className?: string): HTMLElementTagNameMap[K] {
+  const e = document.createElement(tag);
+  if (text !== undefined) e.textContent = text;
+  if (className) e.className = className;
+  return e;
+}
+
+function byId<T extends HTMLElement>(id: string): T {
+  const e = document.getElementById(id);
+  if (!e) throw new Error(`the page lacks #${id}`);
+  return e as T;
+}
+
+/** What the page shows: a chart, a problem, or nothing yet. */
+export type PanelState = 'chart' | 'problem' | 'empty';
+
+/** The page's text regions, found once by id. */
+export class Panel {
+  private readonly title = byId('block-title');
+  private readonly status = byId('block-status');
+  private readonly charts = byId('charts');
+  private readonly problem = byId('problem');
+  private readonly facts = byId('facts');
+  private readonly notes = byId('notes');
+  private readonly pins = byId('pin-list');
+  private readonly pinsSection = byId('pins');
+
+  private show(state: PanelState): void {
+    document.body.dataset.state = state;
+    this.charts.hidden = state !== 'chart';
+    this.problem.hidden = state === 'chart';
+  }
+
+  /** A drawable block: its id, status, facts and notes (the charts are drawn by the caller). */
+  showCurve(p: CurvePayload): void {
+    this.show('chart');
+    this.title.textContent = p.id;
+    this.status.textContent = p.status;
+    this.status.dataset.status = p.status;
+    this.facts.replaceChildren(...p.facts.flatMap((f) => [el('dt', f.label), el('dd', f.text)]));
+    this.notes.replaceChildren(...p.notes.map((n) => el('li', n)));
+  }
+
+  /** A block with an error: its first diagnostic instead of a stale chart. */
+  showProblem(p: ProblemPayload): void {
+    this.show('problem');
+    this.title.textContent = p.id ?? 'block without id';
+    this.status.textContent = p.code === null ? 'nothing to draw' : 'invalid';
+    this.status.dataset.status = p.code === null ? 'empty' : 'invalid';
+    const code = p.code === null ? [] : [el('code', p.code, 'code')];
+    this.problem.replaceChildren(el('span', p.message, 'message'), ...code);
+    this.facts.replaceChildren();
+    this.notes.replaceChildren();
+  }
+
+  /** No block yet. */
+  showEmpty(): void {
+    this.show('empty');
+    this.title.textContent = 'Energy–entropy curve';
+    this.status.textContent = '';
+    delete this.status.dataset.status;
+    this.problem.replaceChildren(el('span', 'Place the cursor in a `levels` block of a note to draw its curve.', 'message'));
+    this.facts.replaceChildren();
+    this.notes.replaceChildren();
+  }
+
+  /** The pinned runs, each with an unpin button; `unpin` receives the run's key. */
+  showPins(pins: readonly PinnedRun[], unpin: (key: string) => void): void {
+    this.pinsSection.hidden = pins.length === 0;
+    this.pins.replaceChildren(
+      ...pins.map((r) => {
+        const li = el('li');
+        li.dataset.key = r.key;
+        const button = el('vscode-button', 'Unpin') as HTMLElement;
+        button.setAttribute('secondary', '');
+        button.addEventListener('click', () => unpin(r.key));
+        li.append(el('span', r.payload.id, 'pin-id'), el('span', ` — ${r.payload.status}`, 'pin-status'), button);
+        return li;
+      }),
+    );
+  }
+}

@@ -1,0 +1,183 @@
+/**
+ * Small chart.js plugins of the curve view (no plugin packages): the shaded
+ * population-inversion region right of β = 0 with its label, the saturation
+ * line, error bars around the measured points, and the entropy-deficit gap.
+ * Each reads its data from the chart's `options.plugins.<id>`.
+ */
+import type { Chart, ChartType, Plugin } from 'chart.js';
+import type { DeficitGap, ErrorBar } from './model';
+
+/** Options of the inversion plugin. */
+export interface InversionOptions {
+  /** Energy of β = 0 on the x axis. */
+  readonly saturationX: number;
+  readonly shade: string;
+  readonly line: string;
+  readonly text: string;
+  /** Opacity of the shading. */
+  readonly alpha: number;
+  /** Also draw the horizontal β = 0 line (the β chart). */
+  readonly zeroLine: boolean;
+  /** CSS font of the labels. */
+  readonly font: string;
+}
+
+/** Options of the error-bar plugin. */
+export interface ErrorBarOptions {
+  readonly bars: readonly ErrorBar[];
+  readonly width: number;
+}
+
+/** Options of the deficit plugin. */
+export interface DeficitOptions {
+  readonly gap: DeficitGap | null;
+  readonly font: string;
+}
+
+declare module 'chart.js' {
+  interface PluginOptionsByType<TType extends ChartType> {
+    inversion?: InversionOptions;
+    errorBars?: ErrorBarOptions;
+    deficit?: DeficitOptions;
+    background?: BackgroundOptions;
+  }
+}
+
+function scales(chart: Chart): { x: Chart['scales'][string]; y: Chart['scales'][string] } {
+  return { x: chart.scales.x!, y: chart.scales.y! };
+}
+
+/** Shades x > saturationX, marks β = 0 and labels both; drawn under the datasets. */
+export const inversionPlugin: Plugin = {
+  id: 'inversion',
+  beforeDatasetsDraw(chart, _args, options) {
+    const o = options as unknown as InversionOptions;
+    if (typeof o.saturationX !== 'number') return;
+    const { ctx, chartArea: a } = chart;
+    const { x, y } = scales(chart);
+    const px = Math.max(a.left, Math.min(a.right, x.getPixelForValue(o.saturationX)));
+    ctx.save();
+    ctx.globalAlpha = o.alpha;
+    ctx.fillStyle = o.shade;
+    ctx.fillRect(px, a.top, a.right - px, a.bottom - a.top);
+    ctx.globalAlpha = 1;
+    ctx.fillStyle = o.text;
+    ctx.font = o.font;
+    ctx.textBaseline = 'top';
+    ctx.textAlign = 'right';
+    if (a.right - px > 40) ctx.fillText('population inversion (β < 0)', a.right - 6, a.top + 4);
+    ctx.strokeStyle = o.line;
+    ctx.lineWidth = 1.5;
+    ctx.setLineDash([5, 4]);
+    ctx.beginPath();
+    ctx.moveTo(px, a.top);
+    ctx.lineTo(px, a.bottom);
+    ctx.stroke();
+    ctx.setLineDash([]);
+    ctx.textAlign = 'right';
+    ctx.textBaseline = 'bottom';
+    ctx.fillText('saturation', px - 4, a.bottom - 4);
+    if (o.zeroLine) {
+      const py = y.getPixelForValue(0);
+      if (py >= a.top && py <= a.bottom) {
+        ctx.beginPath();
+        ctx.moveTo(a.left, py);
+        ctx.lineTo(a.right, py);
+        ctx.stroke();
+        ctx.textAlign = 'left';
+        ctx.fillText('β = 0', a.left + 4, py - 3);
+      }
+    }
+    ctx.restore();
+  },
+};
+
+/** Draws ±u error bars with end caps around points; drawn over the datasets. */
+export const errorBarsPlugin: Plugin = {
+  id: 'errorBars',
+  afterDatasetsDraw(chart, _args, options) {
+    const o = options as unknown as ErrorBarOptions;
+    if (!Array.isArray(o.bars)) return;
+    const { ctx, chartArea: a } = chart;
+    const { x, y } = scales(chart);
+    ctx.save();
+    ctx.beginPath();
+    ctx.rect(a.left, a.top, a.right - a.left, a.bottom - a.top);
+    ctx.clip();
+    ctx.lineWidth = o.width;
+    const cap = 4;
+    for (const bar of o.bars) {
+      ctx.strokeStyle = bar.color;
+      const px = x.getPixelForValue(bar.x);
+      const py = y.getPixelForValue(bar.y);
+      ctx.beginPath();
+      if (bar.dx !== null && bar.dx > 0) {
+        const l = x.getPixelForValue(bar.x - bar.dx);
+        const r = x.getPixelForValue(bar.x + bar.dx);
+        ctx.moveTo(l, py), ctx.lineTo(r, py);
+        ctx.moveTo(l, py - cap), ctx.lineTo(l, py + cap);
+        ctx.moveTo(r, py - cap), ctx.lineTo(r, py + cap);
+      }
+      if (bar.dy !== null && bar.dy > 0) {
+        const t = y.getPixelForValue(bar.y + bar.dy);
+        const b = y.getPixelForValue(bar.y - bar.dy);
+        ctx.moveTo(px, t), ctx.lineTo(px, b);
+        ctx.moveTo(px - cap, t), ctx.lineTo(px + cap, t);
+        ctx.moveTo(px - cap, b), ctx.lineTo(px + cap, b);
+      }
+      ctx.stroke();
+    }
+    ctx.restore();
+  },
+};
+
+/** Draws the dashed gap from the measured point up to the thermal curve, with the deficit's value. */
+export const deficitPlugin: Plugin = {
+  id: 'deficit',
+  afterDatasetsDraw(chart, _args, options) {
+    const o = options as unknown as DeficitOptions;
+    const gap = o.gap;
+    if (!gap) return;
+    const { ctx, chartArea: a } = chart;
+    const { x, y } = scales(chart);
+    const px = x.getPixelForValue(gap.x);
+    const from = y.getPixelForValue(gap.from);
+    const to = y.getPixelForValue(gap.to);
+    ctx.save();
+    ctx.strokeStyle = gap.color;
+    ctx.fillStyle = gap.color;
+    ctx.lineWidth = 1.5;
+    ctx.setLineDash([3, 3]);
+    ctx.beginPath();
+    ctx.moveTo(px, from);
+    ctx.lineTo(px, to);
+    ctx.stroke();
+    ctx.setLineDash([]);
+    ctx.font = o.font;
+    const leftSide = px > (a.left + a.right) / 2;
+    ctx.textAlign = leftSide ? 'right' : 'left';
+    ctx.textBaseline = 'middle';
+    ctx.fillText(gap.text, px + (leftSide ? -8 : 8), (from + to) / 2);
+    ctx.restore();
+  },
+};
+
+/** Options of the background plugin. */
+export interface BackgroundOptions {
+  readonly color: string;
+}
+
+/** Paints the whole canvas in the theme's editor background first, so the chart (and its PNG) is opaque. */
+export const backgroundPlugin: Plugin = {
+  id: 'background',
+  beforeDraw(chart, _args, options) {
+    const o = options as unknown as BackgroundOptions;
+    if (typeof o.color !== 'string') return;
+    const { ctx, width, height } = chart;
+    ctx.save();
+    ctx.globalCompositeOperation = 'destination-over';
+    ctx.fillStyle = o.color;
+    ctx.fillRect(0, 0, width, height);
+    ctx.restore();
+  },
+};

@@ -1,0 +1,37 @@
+/**
+ * The curve view's exports: the charts as PNG, the curves and points as CSV,
+ * and a Markdown image link to a saved PNG on the clipboard. Files are
+ * written only where the user picks in a save dialog (by default beside the
+ * note); the note itself is never changed.
+ */
+import * as vscode from 'vscode';
+import { curveCsv, type CurvePayload, type EnergyAxisUnit } from '../core';
+import { fileStem, imageLink, pngBytes } from './exportNames';
+
+async function saveAs(note: vscode.Uri, name: string, filters: Record<string, string[]>): Promise<vscode.Uri | undefined> {
+  const defaultUri = vscode.Uri.joinPath(note, '..', name);
+  return vscode.window.showSaveDialog({ defaultUri, filters, saveLabel: 'Save' });
+}
+
+/** Asks where to save the PNG and writes it; returns where, or undefined when cancelled. */
+export async function savePng(p: CurvePayload, dataUrl: string): Promise<vscode.Uri | undefined> {
+  const uri = await saveAs(vscode.Uri.parse(p.uri), `${fileStem(p.id)}-curve.png`, { 'PNG image': ['png'] });
+  if (uri) await vscode.workspace.fs.writeFile(uri, pngBytes(dataUrl));
+  return uri;
+}
+
+/** Asks where to save the CSV of the shown and pinned runs and writes it. */
+export async function saveCsv(p: CurvePayload, pinned: readonly CurvePayload[], unit: EnergyAxisUnit): Promise<vscode.Uri | undefined> {
+  const uri = await saveAs(vscode.Uri.parse(p.uri), `${fileStem(p.id)}-curve.csv`, { CSV: ['csv'] });
+  if (uri) await vscode.workspace.fs.writeFile(uri, Buffer.from(curveCsv([p, ...pinned], unit === 'block' ? p.unit : null), 'utf8'));
+  return uri;
+}
+
+/** Saves the PNG, then copies `![id](relative/path.png)` to the clipboard. */
+export async function copyImageLink(p: CurvePayload, dataUrl: string): Promise<string | undefined> {
+  const uri = await savePng(p, dataUrl);
+  if (!uri) return undefined;
+  const link = imageLink(vscode.Uri.parse(p.uri), uri, p.id);
+  await vscode.env.clipboard.writeText(link);
+  return link;
+}

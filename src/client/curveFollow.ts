@@ -1,0 +1,33 @@
+/**
+ * Keeps the curve view on the block under the cursor: selection changes in a
+ * Markdown editor and edits of the shown note ask the view for the block at
+ * the cursor, debounced so that typing and arrowing do not flood the server.
+ */
+import * as vscode from 'vscode';
+import { CurveView } from './curveView';
+
+/** Pause after the last cursor move or keystroke before the view asks again. */
+export const FOLLOW_DELAY_MS = 150;
+
+/** Registers the listeners; they do nothing while no view is open. */
+export function followCursor(): vscode.Disposable {
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const later = (editor: vscode.TextEditor): void => {
+    clearTimeout(timer);
+    timer = setTimeout(() => {
+      const view = CurveView.active;
+      if (view && !editor.document.isClosed) view.follow({ uri: editor.document.uri.toString(), line: editor.selection.active.line });
+    }, FOLLOW_DELAY_MS);
+  };
+  const subscriptions = [
+    vscode.window.onDidChangeTextEditorSelection((e) => {
+      if (CurveView.active && e.textEditor.document.languageId === 'markdown') later(e.textEditor);
+    }),
+    vscode.workspace.onDidChangeTextDocument((e) => {
+      const view = CurveView.active;
+      const editor = vscode.window.activeTextEditor;
+      if (view && editor && editor.document === e.document && view.shownUri === e.document.uri.toString()) later(editor);
+    }),
+  ];
+  return { dispose: () => (clearTimeout(timer), subscriptions.forEach((s) => s.dispose())) };
+}

@@ -1,0 +1,91 @@
+/**
+ * The curve view's HTML: a static page shell with a strict Content Security
+ * Policy and a fresh nonce per render. Nothing from a note is written into
+ * it: the block data arrive only by postMessage and are shown with
+ * `textContent`. No vscode import, so tests can build the same page.
+ */
+import { randomBytes } from 'node:crypto';
+
+/** What the page needs from its host. */
+export interface ViewHtmlOptions {
+  /** The webview's resource origin for the CSP (`webview.cspSource`). */
+  readonly cspSource: string;
+  /** URL of the bundled script (`dist/media/view.js`) as the webview sees it. */
+  readonly scriptUri: string;
+  /** URL of `media/view.css`. */
+  readonly styleUri: string;
+  /** A fresh nonce, from {@link newNonce}. */
+  readonly nonce: string;
+}
+
+/** 128 random bits from the operating system's CSPRNG, base64-encoded: a nonce for one render. */
+export function newNonce(): string {
+  return randomBytes(16).toString('base64');
+}
+
+/** Escapes text for an HTML attribute value or text node. */
+export function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+/** The Content-Security-Policy of the page: nothing but our own script, styles, images and fonts. */
+export function contentSecurityPolicy(cspSource: string, nonce: string): string {
+  return [
+    "default-src 'none'",
+    `img-src ${cspSource} data:`,
+    `style-src ${cspSource} 'nonce-${nonce}'`,
+    `script-src 'nonce-${nonce}'`,
+    `font-src ${cspSource}`,
+    "form-action 'none'",
+    "base-uri 'none'",
+  ].join('; ');
+}
+
+/** The page. Every interpolated value is escaped; controls get their listeners from the script. */
+export function viewHtml(o: ViewHtmlOptions): string {
+  const e = escapeHtml;
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta http-equiv="Content-Security-Policy" content="${e(contentSecurityPolicy(o.cspSource, o.nonce))}">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<link rel="stylesheet" href="${e(o.styleUri)}" nonce="${e(o.nonce)}">
+<title>Energy–entropy curve</title>
+</head>
+<body data-drawn="0" data-state="empty">
+<header>
+  <h1 id="block-title">Energy–entropy curve</h1>
+  <span id="block-status" role="status"></span>
+  <div class="controls">
+    <label for="unit-select">Energy in</label>
+    <vscode-single-select id="unit-select" aria-label="Energy unit">
+      <vscode-option value="block">the block’s unit</vscode-option>
+      <vscode-option value="K">kelvin (E/k)</vscode-option>
+    </vscode-single-select>
+    <vscode-button id="pin-button" title="Keep this run on the chart while the cursor moves on">Pin run</vscode-button>
+    <vscode-button id="export-png" secondary title="Save both charts as a PNG image">Save PNG</vscode-button>
+    <vscode-button id="export-csv" secondary title="Save the curves and points as CSV">Save CSV</vscode-button>
+    <vscode-button id="copy-link" secondary title="Save a PNG beside the note and copy a Markdown image link to it">Copy image link</vscode-button>
+  </div>
+</header>
+<div id="problem" role="alert" hidden></div>
+<main>
+  <section id="charts" hidden>
+    <div class="chart"><canvas id="entropy-chart" role="img" aria-label="Entropy against energy"></canvas></div>
+    <div class="chart"><canvas id="beta-chart" role="img" aria-label="Inverse temperature against energy"></canvas></div>
+  </section>
+  <aside>
+    <dl id="facts"></dl>
+    <ul id="notes"></ul>
+    <section id="pins" hidden>
+      <h2>Pinned runs</h2>
+      <ul id="pin-list"></ul>
+    </section>
+  </aside>
+</main>
+<script nonce="${e(o.nonce)}" src="${e(o.scriptUri)}"></script>
+</body>
+</html>
+`;
+}

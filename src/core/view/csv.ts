@@ -1,0 +1,60 @@
+/**
+ * CSV export of the curve view: the large-N curve, the finite-N staircase,
+ * the measured point and the thermal marker of every run shown, one row per
+ * point (RFC 4180, CRLF line ends, full-precision numbers, empty cells for
+ * unknowns). Energies in K and, when asked, also in a display unit.
+ */
+import { formatPlainNumber } from '../format';
+import type { CurvePayload, DisplayUnit } from './payload';
+
+type Cell = string | number | null;
+
+const HEAD = ['run', 'series', 'm', 'energy_K', 'entropy_per_Nk', 'beta_per_K', 'u_energy_K', 'u_entropy', 'u_beta_per_K', 'entropy_deficit', 'relative_entropy'];
+
+/**
+ * One cell: numbers in plain ASCII; text quoted when it holds a quote, comma or
+ * line break, and prefixed with `'` when a spreadsheet would read it as a formula
+ * (a note's id is untrusted text).
+ */
+function cell(v: Cell): string {
+  if (v === null) return '';
+  if (typeof v === 'number') return formatPlainNumber(v);
+  const s = /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** The rows of one run, with `energy_K` in the fourth column. */
+function runRows(p: CurvePayload): Cell[][] {
+  const rows: Cell[][] = [];
+  const c = p.curve;
+  for (let i = 0; i < c.energy.length; i++) rows.push([p.id, 'large-N', null, c.energy[i]!, c.entropy[i]!, c.beta[i]!, null, null, null, null, null]);
+  const f = p.finiteN;
+  if (f) {
+    for (let i = 0; i < f.energy.length; i++) {
+      rows.push([p.id, `finite-N (N=${f.n})`, f.m[i]!, f.energy[i]!, f.entropy[i]!, f.beta[i]!, null, null, null, null, null]);
+    }
+  }
+  const m = p.measured;
+  if (m) rows.push([p.id, 'measured', null, m.energy, m.entropy, m.beta, m.uEnergy, m.uEntropy, m.uBeta, m.deficit, m.relativeEntropy]);
+  const t = p.thermal;
+  if (t) rows.push([p.id, `thermal at lattice ${formatPlainNumber(t.temperature)} K`, null, t.energy, t.entropy, t.beta, null, null, null, null, null]);
+  return rows;
+}
+
+/**
+ * The CSV text of the given runs (the block shown first, then the pinned ones).
+ * With a display unit other than K, a column `energy_<unit>` follows `energy_K`.
+ */
+export function curveCsv(runs: readonly CurvePayload[], unit: DisplayUnit | null = null): string {
+  const extra = unit !== null && unit.kelvinPerUnit !== 1;
+  const head = extra ? [...HEAD.slice(0, 4), `energy_${unit.name}`, ...HEAD.slice(4)] : HEAD;
+  const lines = [head.map(cell).join(',')];
+  for (const p of runs) {
+    for (const row of runRows(p)) {
+      const e = row[3] as number;
+      const full = extra ? [...row.slice(0, 4), e / unit.kelvinPerUnit, ...row.slice(4)] : row;
+      lines.push(full.map(cell).join(','));
+    }
+  }
+  return lines.join('\r\n') + '\r\n';
+}
