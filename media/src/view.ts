@@ -19,6 +19,7 @@ import { wireControls } from './controls';
 import { composePng } from './exportImage';
 import { connectHost } from './host';
 import { viewModel } from './model';
+import { MeasurementChart } from './measurementChart';
 import { Panel } from './panel';
 import { onThemeChange, readPalette } from './theme';
 
@@ -31,6 +32,11 @@ let seen = -1;
 let drawn = 0;
 
 const panel = new Panel();
+const measurement = new MeasurementChart(
+  document.getElementById('measurement') as HTMLElement,
+  document.getElementById('measurement-title') as HTMLElement,
+  document.getElementById('measurement-chart') as HTMLCanvasElement,
+);
 const charts = new CurveCharts(
   document.getElementById('entropy-chart') as HTMLCanvasElement,
   document.getElementById('beta-chart') as HTMLCanvasElement,
@@ -40,10 +46,19 @@ function draw(): void {
   const current = last?.current ?? null;
   panel.showPins(last?.pinned ?? [], (key) => host.post({ type: 'unpin', key }));
   controls.setDrawable(current?.kind === 'curve');
-  if (current === null) return panel.showEmpty();
-  if (current.kind === 'problem') return panel.showProblem(current);
-  panel.showCurve(current);
   const palette = readPalette();
+  // Drawn after its section is shown, so chart.js measures a laid-out canvas.
+  const plot = current?.plot ?? null;
+  if (current === null) {
+    measurement.draw(null, palette);
+    return panel.showEmpty();
+  }
+  if (current.kind === 'problem') {
+    panel.showProblem(current);
+    return measurement.draw(plot, palette);
+  }
+  panel.showCurve(current);
+  measurement.draw(plot, palette);
   charts.draw(viewModel(current, last?.pinned ?? [], unit, palette), palette);
   for (const c of charts.canvases()) c.setAttribute('aria-label', `${c.id === 'beta-chart' ? 'Inverse temperature' : 'Entropy'} against energy for ${current.id}`);
   document.body.dataset.drawn = String(++drawn);

@@ -75,6 +75,10 @@ export function viewHtml(o: ViewHtmlOptions): string {
     <div class="chart"><canvas id="entropy-chart" role="img" aria-label="Entropy against energy"></canvas></div>
     <div class="chart"><canvas id="beta-chart" role="img" aria-label="Inverse temperature against energy"></canvas></div>
   </section>
+  <section id="measurement" hidden>
+    <h2 id="measurement-title">Measurement</h2>
+    <div class="chart small"><canvas id="measurement-chart" role="img" aria-label="The measurement and its fit"></canvas></div>
+  </section>
   <aside>
     <dl id="facts"></dl>
     <ul id="notes"></ul>

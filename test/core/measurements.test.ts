@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { Analyzer } from '../../src/core';
+import { Analyzer, curveData } from '../../src/core';
 import { fitDecay } from '../../src/core/physics/relaxation';
 import { block, close, problem } from './helpers';
 import { nelderMead } from 'fmin';
@@ -197,5 +197,31 @@ describe('bad measurement input', () => {
 
   it('warns when a series only just fixes its parameters', () => {
     assert.equal(problem(series('[0 s, 10 s]', '[1, 0.5]'), 'series-too-short').severity, 'warning');
+  });
+});
+
+describe('the measurement plot of the curve view', () => {
+  it('draws the Balmer Boltzmann plot with slope −1/(kT) per eV: −1.1604518 eV⁻¹ at 10 000 K', async () => {
+    // 1 eV = 11 604.518 K (e/k, exact since the 2019 SI; CODATA 2022), so −β in eV⁻¹ is −11604.518/T.
+    const rel = [1, 0.21276108, 0.078459387, 0.03791632];
+    const { report } = block(linesBlock(BALMER, rel));
+    const p = curveData(report, { uri: 'file:///x.md', version: 1 });
+    assert.equal(p.kind, 'problem');
+    const plot = p.plot!;
+    assert.equal(plot.kind, 'boltzmann');
+    assert.equal(plot.points.length, 4);
+    const slope = (plot.fit.y[1] - plot.fit.y[0]) / (plot.fit.x[1] - plot.fit.x[0]);
+    close(slope, -1.1604518, 1e-6, 'slope per eV');
+    // The published intensities carry 8 digits, so the points sit on the line to about 1e-8.
+    for (const r of plot.residuals) assert.ok(Math.abs(r.y) < 1e-6, `residual ${r.y}`);
+  });
+
+  it('gives a series its data, fit and residuals, which add back up to the data', () => {
+    const { report } = block('series:\n  model: buildup\n  time: [0 s, 10 s, 20 s, 40 s, 80 s, 160 s]\n  signal: [0.01, 0.2, 0.36, 0.58, 0.8, 0.93]');
+    const p = curveData(report, { uri: 'file:///x.md', version: 1 });
+    const plot = p.plot!;
+    assert.equal(plot.kind, 'series');
+    const fitted = report.results!.series!.fitted;
+    plot.points.forEach((q, i) => close(fitted[i] + plot.residuals[i].y, q.y, 1e-12, `point ${i}`));
   });
 });

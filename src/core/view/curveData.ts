@@ -12,6 +12,7 @@ import { DEFAULT_DISPLAY, type DisplayOptions } from '../summary';
 import { displayUnitFor } from './displayUnit';
 import { blockFacts } from './facts';
 import { measuredPoint } from './measuredPoint';
+import { measurementPlot } from './measurementPlot';
 import type { CurveColumns, FiniteNColumns, ProblemPayload, ThermalMarker, ViewPayload } from './payload';
 
 /** The note a block belongs to. */
@@ -76,6 +77,7 @@ function problemPayload(report: BlockReport, source: NoteSource): ProblemPayload
     id: report.meta.id,
     code: first ? first.code : null,
     message: first ? first.message : 'This block has no results to draw.',
+    plot: null,
   };
 }
 
@@ -88,13 +90,21 @@ export function curveData(report: BlockReport, source: NoteSource, options: Curv
   const { input, results } = report;
   if (report.status === 'invalid' || !input || !results) return problemPayload(report, source);
   const line = report.block.openLine;
+  const plot = measurementPlot(input, results);
+  if (input.lines) {
+    // The lines sample only the upper levels of the species: they are no distribution over a level scheme.
+    const message = 'Emission lines sample the upper levels only, so there is no S(E) curve of a level scheme; the Boltzmann plot shows the fit.';
+    return { kind: 'problem', ...source, line, id: report.meta.id, code: null, message, plot };
+  }
   const energies = input.levels.map((l) => l.energy);
   const g = input.levels.map((l) => l.g);
   const curve = schemeCurve(energies, g, { points: options.points });
   const saturationEnergy = meanEnergy(g, energies);
   if (!curve || saturationEnergy === null) {
-    const message = 'This block has no level scheme with two or more levels, so there is no S(E) curve to draw.';
-    return { kind: 'problem', ...source, line, id: report.meta.id, code: null, message };
+    const message = plot
+      ? 'A time series alone has no level scheme, so there is no S(E) curve; the fit and its residuals are drawn.'
+      : 'This block has no level scheme with two or more levels, so there is no S(E) curve to draw.';
+    return { kind: 'problem', ...source, line, id: report.meta.id, code: null, message, plot };
   }
   const notes: string[] = [];
   let finiteN: FiniteNColumns | null = null;
@@ -122,5 +132,6 @@ export function curveData(report: BlockReport, source: NoteSource, options: Curv
     thermal,
     facts: blockFacts(results, measured, thermal, input.count, options.display),
     notes,
+    plot,
   };
 }

@@ -70,6 +70,34 @@ export interface Fact {
   readonly text: string;
 }
 
+/** One measured point of a measurement plot. */
+export interface PlotPoint {
+  readonly x: number;
+  readonly y: number;
+  /** Standard uncertainty of y, or null. */
+  readonly u: number | null;
+  /** True for a point the analysis flags (an emission line more than 3 σ off the fit). */
+  readonly flagged: boolean;
+  readonly label: string | null;
+}
+
+/**
+ * What was measured, drawn as it was fitted: the Boltzmann plot of emission
+ * lines (ln(Iλ/gA) or ln(I/gA) against the upper-level energy, with the fitted
+ * line of slope −β), or a time series with its fitted model and residuals.
+ */
+export interface MeasurementPlot {
+  readonly kind: 'boltzmann' | 'series';
+  readonly title: string;
+  readonly xTitle: string;
+  readonly yTitle: string;
+  readonly points: readonly PlotPoint[];
+  /** The fitted model, sampled densely, ordered by x. */
+  readonly fit: { readonly x: readonly number[]; readonly y: readonly number[] };
+  /** Residual (measured − fitted) at each point's x. */
+  readonly residuals: readonly { readonly x: number; readonly y: number }[];
+}
+
 /** Where a payload comes from: the note, its version and the block's opening-fence line. */
 export interface PayloadSource {
   readonly uri: string;
@@ -100,6 +128,8 @@ export interface CurvePayload extends PayloadSource {
   readonly facts: readonly Fact[];
   /** Sentences about what is not drawn and why. */
   readonly notes: readonly string[];
+  /** The measurement behind the point (a series fit), or null. */
+  readonly plot: MeasurementPlot | null;
 }
 
 /** What the view shows instead of a chart: the block's first error, or why nothing can be drawn. */
@@ -109,6 +139,8 @@ export interface ProblemPayload extends PayloadSource {
   /** The diagnostic's stable code, or null when the block has no error but nothing to draw. */
   readonly code: string | null;
   readonly message: string;
+  /** A measurement to draw although there is no S(E) curve (emission lines, a bare series), or null. */
+  readonly plot: MeasurementPlot | null;
 }
 
 /** One block's view data. */

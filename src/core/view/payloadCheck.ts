@@ -2,7 +2,7 @@
  * Validators of the view payloads (see payload.ts), used on arrival in the
  * webview and when the extension restores a panel from saved state.
  */
-import type { CurveColumns, CurvePayload, DisplayUnit, Fact, FiniteNColumns, MeasuredPoint, ProblemPayload, ThermalMarker, ViewPayload } from './payload';
+import type { CurveColumns, CurvePayload, DisplayUnit, Fact, FiniteNColumns, MeasuredPoint, MeasurementPlot, PlotPoint, ProblemPayload, ThermalMarker, ViewPayload } from './payload';
 import { isArrayOf, isCount, isFiniteNumber, isNumberArray, isNumberOrNull, isOneOf, isRecord, isText } from './validate';
 
 const STATUSES = ['normal', 'saturated', 'inverted', 'non-thermal'] as const;
@@ -45,20 +45,39 @@ function isScheme(x: unknown): boolean {
   return isRecord(x) && isNumberArray(x.energies) && isNumberArray(x.g) && x.energies.length === x.g.length;
 }
 
+function isPoint(x: unknown): x is PlotPoint {
+  return isRecord(x) && isFiniteNumber(x.x) && isFiniteNumber(x.y) && isNumberOrNull(x.u) && typeof x.flagged === 'boolean' && (x.label === null || isText(x.label, 200));
+}
+
+function isXY(x: unknown): x is { x: number; y: number } {
+  return isRecord(x) && isFiniteNumber(x.x) && isFiniteNumber(x.y);
+}
+
+/** True when `x` is a well-formed {@link MeasurementPlot}, null, or absent (a state saved before plots existed). */
+export function isPlot(x: unknown): x is MeasurementPlot | null | undefined {
+  if (x === null || x === undefined) return true;
+  if (!isRecord(x) || !isOneOf(x.kind, ['boltzmann', 'series'] as const)) return false;
+  const fit = x.fit;
+  return (
+    isText(x.title, 200) && isText(x.xTitle, 200) && isText(x.yTitle, 200) && isArrayOf(x.points, isPoint, 100_000) &&
+    isRecord(fit) && isNumberArray(fit.x) && isNumberArray(fit.y) && fit.x.length === fit.y.length && isArrayOf(x.residuals, isXY, 100_000)
+  );
+}
+
 /** True when `x` is a well-formed {@link CurvePayload}. */
 export function isCurvePayload(x: unknown): x is CurvePayload {
   if (!isRecord(x) || x.kind !== 'curve' || !isSource(x)) return false;
   return (
     isText(x.id) && isOneOf(x.status, STATUSES) && isUnit(x.unit) && isScheme(x.scheme) &&
     isFiniteNumber(x.saturationEnergy) && isFiniteNumber(x.maxEntropy) && isColumns(x.curve) && isFiniteN(x.finiteN) &&
-    isMeasured(x.measured) && isThermal(x.thermal) && isArrayOf(x.facts, isFact, 100) && isArrayOf(x.notes, (n): n is string => isText(n), 100)
+    isMeasured(x.measured) && isThermal(x.thermal) && isArrayOf(x.facts, isFact, 100) && isArrayOf(x.notes, (n): n is string => isText(n), 100) && isPlot(x.plot)
   );
 }
 
 /** True when `x` is a well-formed {@link ProblemPayload}. */
 export function isProblemPayload(x: unknown): x is ProblemPayload {
   if (!isRecord(x) || x.kind !== 'problem' || !isSource(x)) return false;
-  return (x.id === null || isText(x.id)) && (x.code === null || isText(x.code, 200)) && isText(x.message);
+  return (x.id === null || isText(x.id)) && (x.code === null || isText(x.code, 200)) && isText(x.message) && isPlot(x.plot);
 }
 
 /** True when `x` is a well-formed {@link ViewPayload}. */

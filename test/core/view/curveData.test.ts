@@ -117,7 +117,7 @@ describe('curve view payload', () => {
     const p = curveData(report, SOURCE);
     assert.equal(p.kind, 'problem');
     const first = report.problems.find((x) => x.severity === 'error')!;
-    assert.deepEqual(p, { kind: 'problem', ...SOURCE, line: 2, id: 'hurried', code: 'unit-case', message: first.message });
+    assert.deepEqual(p, { kind: 'problem', ...SOURCE, line: 2, id: 'hurried', code: 'unit-case', message: first.message, plot: null });
   });
 
   it('uses kelvin on the axis for a gap written as a wavelength, and a stand-in id naming the line', () => {

@@ -1,0 +1,81 @@
+/**
+ * The measurement chart below the curves: the Boltzmann plot of an
+ * emission-lines block (points, flagged lines, the fitted line) or a time
+ * series with its fitted model, and the residuals on a right-hand axis.
+ */
+import { Chart, type ChartDataset } from 'chart.js';
+import type { MeasurementPlot } from '../../src/core/view/payload';
+import { shortNumber } from './numbers';
+import type { Palette } from './theme';
+
+type Scatter = Chart<'scatter'>;
+
+function range(values: readonly number[]): { min: number; max: number } {
+  let min = Math.min(...values);
+  let max = Math.max(...values);
+  if (!(max > min)) {
+    min -= 1;
+    max += 1;
+  }
+  const pad = (max - min) * 0.08;
+  return { min: min - pad, max: max + pad };
+}
+
+/** Owns the chart.js instance of the measurement plot. */
+export class MeasurementChart {
+  private chart: Scatter | null = null;
+  private drawn = 0;
+
+  constructor(
+    private readonly section: HTMLElement,
+    private readonly title: HTMLElement,
+    private readonly canvas: HTMLCanvasElement,
+  ) {}
+
+  /** Shows and draws the plot, or hides the section when there is none. */
+  draw(plot: MeasurementPlot | null | undefined, p: Palette): void {
+    this.section.hidden = !plot;
+    if (!plot) return;
+    this.title.textContent = plot.title;
+    const ys = [...plot.points.map((q) => q.y), ...plot.fit.y];
+    const xs = [...plot.points.map((q) => q.x), ...plot.fit.x];
+    const datasets: ChartDataset<'scatter'>[] = [
+      { label: 'measured', data: plot.points.filter((q) => !q.flagged).map((q) => ({ x: q.x, y: q.y })), borderColor: p.measured, backgroundColor: p.measured, pointRadius: 4, pointStyle: 'circle', showLine: false, yAxisID: 'y' },
+      { label: 'flagged (> 3 σ off)', data: plot.points.filter((q) => q.flagged).map((q) => ({ x: q.x, y: q.y })), borderColor: p.saturation, backgroundColor: p.saturation, pointRadius: 6, pointStyle: 'crossRot', borderWidth: 2, showLine: false, yAxisID: 'y' },
+      { label: 'fit', data: plot.fit.x.map((x, i) => ({ x, y: plot.fit.y[i] })), borderColor: p.curve, backgroundColor: p.curve, pointRadius: 0, showLine: true, borderWidth: 2, yAxisID: 'y' },
+      { label: 'residual', data: plot.residuals.map((r) => ({ x: r.x, y: r.y })), borderColor: p.muted, backgroundColor: p.muted, pointRadius: 3, pointStyle: 'triangle', showLine: false, yAxisID: 'y2' },
+    ];
+    const x = range(xs);
+    const y = range(ys);
+    const rmax = Math.max(1e-300, ...plot.residuals.map((r) => Math.abs(r.y))) * 1.2;
+    const axis = (title: string, min: number, max: number, position: 'left' | 'right' | 'bottom', grid: boolean) => ({
+      type: 'linear' as const,
+      position,
+      min,
+      max,
+      title: { display: true, text: title, color: p.foreground },
+      grid: { display: grid, color: p.grid, lineWidth: 0.5 },
+      ticks: { color: p.muted, callback: (v: number | string) => shortNumber(Number(v)), maxTicksLimit: 7 },
+    });
+    const options = {
+      animation: false as const,
+      responsive: true,
+      maintainAspectRatio: false,
+      parsing: false as const,
+      scales: { x: axis(plot.xTitle, x.min, x.max, 'bottom', true), y: axis(plot.yTitle, y.min, y.max, 'left', true), y2: axis('residual', -rmax, rmax, 'right', false) },
+      plugins: { legend: { display: true, labels: { color: p.foreground, usePointStyle: true, boxWidth: 8, boxHeight: 8, filter: (i: { datasetIndex?: number }) => (i.datasetIndex === 1 ? plot.points.some((q) => q.flagged) : true) } }, background: { color: p.background } },
+    };
+    if (!this.chart) this.chart = new Chart(this.canvas, { type: 'scatter', data: { datasets }, options: options as never }) as unknown as Scatter;
+    else {
+      this.chart.data.datasets = datasets;
+      this.chart.options = options as never;
+      this.chart.update('none');
+    }
+    const a = this.chart.chartArea;
+    this.canvas.dataset.area = [a.left, a.top, a.right, a.bottom].join(',');
+    this.canvas.dataset.x = [x.min, x.max].join(',');
+    this.canvas.dataset.y = [y.min, y.max].join(',');
+    this.canvas.dataset.kind = plot.kind;
+    this.section.dataset.drawn = String(++this.drawn);
+  }
+}
