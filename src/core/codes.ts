@@ -112,6 +112,8 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'lattice-not-positive': { severity: 'error', summary: 'The lattice temperature must be above 0 K.' },
   'count-invalid': { severity: 'error', summary: '`count` must be a whole number ≥ 1.' },
   'internal-error': { severity: 'error', summary: 'A fault in Boltzmark itself; please report it.' },
+  // The whole note
+  'note-bounded': { severity: 'warning', summary: 'The note is larger than the editor reads as you type; later blocks get no results there.' },
 };
 
 /** The section of docs/format.md that explains a code. */

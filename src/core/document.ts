@@ -7,8 +7,23 @@ import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from './analy
 import type { BlockResults } from './analysis/results';
 import type { BlockInput, BlockMeta } from './block/input';
 import { interpretBody } from './block/interpret';
-import { bodyToDocument, findFencedBlocks, type FencedBlock } from './text/fences';
+import { bodyToDocument, scanFencedBlocks, type FencedBlock } from './text/fences';
 import type { Problem, Span, Status } from './types';
+
+/**
+ * How much of one note an analysis reads. A host that must stay responsive
+ * (the language server) bounds it; reading stops before the first `levels`
+ * block that would pass a bound, and the report says where and why.
+ */
+export interface AnalyzerLimits {
+  /** Most `levels` blocks read per note. */
+  readonly maxBlocks: number;
+  /** Most characters of `levels` block bodies read per note, all blocks together. */
+  readonly maxBodyChars: number;
+}
+
+/** No bound: every block is read (the command line reports whole notebooks). */
+export const UNBOUNDED: AnalyzerLimits = { maxBlocks: Infinity, maxBodyChars: Infinity };
 
 /** Options of an {@link Analyzer}. */
 export interface AnalyzerOptions extends AnalysisOptions {
@@ -16,10 +31,20 @@ export interface AnalyzerOptions extends AnalysisOptions {
   readonly infoStrings: readonly string[];
   /** Most blocks kept in the cache. */
   readonly cacheSize: number;
+  /** How much of a note is read; unbounded by default. */
+  readonly limits: AnalyzerLimits;
 }
 
 /** The contract's defaults. */
-export const DEFAULT_ANALYZER_OPTIONS: AnalyzerOptions = { ...DEFAULT_ANALYSIS_OPTIONS, infoStrings: [], cacheSize: 20_000 };
+export const DEFAULT_ANALYZER_OPTIONS: AnalyzerOptions = { ...DEFAULT_ANALYSIS_OPTIONS, infoStrings: [], cacheSize: 20_000, limits: UNBOUNDED };
+
+/** Where a bounded analysis stopped: the first block not read, and the bound it would have passed. */
+export interface Bounded {
+  /** Note offset and 0-based line of the opening fence of the first block not read. */
+  readonly offset: number;
+  readonly line: number;
+  readonly reason: 'blocks' | 'size';
+}
 
 /** Everything known about one block; spans are offsets into the note. */
 export interface BlockReport {
@@ -39,9 +64,15 @@ export interface DocumentReport {
   readonly blocks: readonly BlockReport[];
   /** How many blocks were read afresh and how many came from the cache. */
   readonly stats: { readonly analysed: number; readonly reused: number };
+  /** Set when the analysis stopped at a bound (see {@link AnalyzerLimits}); the blocks from there on are not in `blocks`. */
+  readonly bounded: Bounded | null;
+  /** Problems of the note as a whole (note offsets), such as `note-bounded`. */
+  readonly problems: readonly Problem[];
 }
 
 interface Cached {
+  /** The body read, as stored in the cache. */
+  readonly body: string;
   readonly meta: BlockMeta;
   readonly input: BlockInput | null;
   readonly results: BlockResults | null;
@@ -63,27 +94,39 @@ export class Analyzer {
     return block.language === 'levels' || this.options.infoStrings.includes(block.language) || this.options.infoStrings.includes(block.info);
   }
 
-  /** Finds, reads and analyses every `levels` block of a note. Never throws. */
+  /** Finds, reads and analyses every `levels` block of a note, within the limits. Never throws. */
   analyzeText(text: string): DocumentReport {
     const blocks: BlockReport[] = [];
+    const { maxBlocks, maxBodyChars } = this.options.limits;
     let analysed = 0;
     let reused = 0;
-    for (const block of findFencedBlocks(text)) {
+    let bodyChars = 0;
+    let bounded: Bounded | null = null;
+    for (const block of scanFencedBlocks(text)) {
       if (!this.isLevelsFence(block)) continue;
+      bodyChars += block.body.length;
+      if (blocks.length >= maxBlocks || bodyChars > maxBodyChars) {
+        bounded = { offset: block.openStart, line: block.openLine, reason: blocks.length >= maxBlocks ? 'blocks' : 'size' };
+        break;
+      }
       let entry = this.cache.get(block.body);
       if (entry) {
         reused++;
-        // Refresh its place so the cache evicts the least recently used first.
-        this.cache.delete(block.body);
+        // Refresh its place so the cache evicts the least recently used first (under the key it was stored with).
+        this.cache.delete(entry.body);
+        this.cache.set(entry.body, entry);
       } else {
         analysed++;
-        entry = this.analyseBody(block.body);
+        // The body is a stretch of this version of the note; the cache keeps a copy of its own.
+        const body = ownCopy(block.body);
+        entry = this.analyseBody(body);
+        this.cache.set(body, entry);
       }
-      this.cache.set(block.body, entry);
       blocks.push(report(block, entry));
     }
     while (this.cache.size > this.options.cacheSize) this.cache.delete(this.cache.keys().next().value as string);
-    return { blocks, stats: { analysed, reused } };
+    const problems = bounded ? [boundedProblem(text, bounded, this.options.limits)] : [];
+    return { blocks, stats: { analysed, reused }, bounded, problems };
   }
 
   /** Reads and analyses one block body; never throws (an internal failure becomes a problem). */
@@ -92,10 +135,10 @@ export class Analyzer {
       const interp = interpretBody(body);
       const results = interp.input ? analyse(interp.input, this.options) : null;
       const problems = [...interp.problems, ...(results?.problems ?? [])].sort((a, b) => a.span.start - b.span.start);
-      return { meta: interp.meta, input: interp.input, results, problems };
+      return { body, meta: interp.meta, input: interp.input, results, problems };
     } catch (err) {
       const problem: Problem = { severity: 'error', code: 'internal-error', message: `Boltzmark failed on this block: ${(err as Error).message}. Please report it.`, span: { start: 0, end: Math.max(1, body.length) } };
-      return { meta: { id: null, idSpan: null, keys: new Map(), date: null }, input: null, results: null, problems: [problem] };
+      return { body, meta: { id: null, idSpan: null, keys: new Map(), date: null }, input: null, results: null, problems: [problem] };
     }
   }
 
@@ -105,10 +148,23 @@ export class Analyzer {
   }
 }
 
+/**
+ * A copy of a string that shares no memory with the string it came from.
+ * JavaScript engines keep a substring as a view into its parent (V8 does for
+ * 13 characters and more), so a cached block body sliced from the note would
+ * keep that whole version of the note alive for as long as it stays cached.
+ */
+function ownCopy(s: string): string {
+  return JSON.parse(JSON.stringify(s)) as string;
+}
+
 function report(block: FencedBlock, c: Cached): BlockReport {
+  // Body offsets are clamped to the body first, so every span lands inside the block.
+  const last = block.body.length;
   const toNote = (s: Span): Span => {
-    const start = bodyToDocument(block, s.start);
-    const end = Math.max(start, bodyToDocument(block, s.end));
+    const from = Math.max(0, Math.min(s.start, last));
+    const start = bodyToDocument(block, from);
+    const end = Math.max(start, bodyToDocument(block, Math.max(from, Math.min(s.end, last))));
     return { start, end };
   };
   const problems: Problem[] = c.problems.map((p) => ({
@@ -127,4 +183,19 @@ function report(block: FencedBlock, c: Cached): BlockReport {
   const hasError = problems.some((p) => p.severity === 'error');
   const status: Status = hasError || !c.results ? 'invalid' : c.results.status;
   return { block, meta: c.meta, input: c.input, results: hasError ? null : c.results, status, problems, toNote };
+}
+
+/** The note-level warning of a bounded analysis, on the note's first line. */
+function boundedProblem(text: string, b: Bounded, limits: AnalyzerLimits): Problem {
+  const why =
+    b.reason === 'blocks'
+      ? `it has more than ${limits.maxBlocks.toLocaleString('en-US')} \`levels\` blocks`
+      : `its \`levels\` blocks hold more than ${limits.maxBodyChars.toLocaleString('en-US')} characters`;
+  const firstLine = text.search(/\r|\n|$/);
+  return {
+    severity: 'warning',
+    code: 'note-bounded',
+    message: `This note is read only up to line ${b.line + 1}: ${why}, more than the editor reads as you type. Blocks from line ${b.line + 1} on get no results here; \`boltzmark report\` reads the whole note, and splitting the notebook keeps every block live.`,
+    span: { start: 0, end: firstLine },
+  };
 }

@@ -3,7 +3,7 @@
  * curve view and the tests are hosts of what is exported here; nothing
  * below imports `vscode`, the LSP packages or Node built-ins.
  */
-export { Analyzer, DEFAULT_ANALYZER_OPTIONS, type AnalyzerOptions, type BlockReport, type DocumentReport } from './document';
+export { Analyzer, DEFAULT_ANALYZER_OPTIONS, UNBOUNDED, type AnalyzerLimits, type AnalyzerOptions, type BlockReport, type Bounded, type DocumentReport } from './document';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
@@ -24,14 +24,6 @@ export { CODES, codeDocAnchor, type CodeDoc } from './codes';
 export { pairTemperature, type PairLevel, type PairTemperature } from './physics/pairs';
 export { RESIDUAL_TOLERANCE } from './physics/fit';
 export { CANONICAL_UNITS } from './units';
-export { measurementRows, measurementShort, type Row } from './measurementSummary';
-export type { SeriesFit } from './physics/relaxation';
-export type { GainResult, SignalResult } from './analysis/results';
-export type { SeriesInput, SignalInput, LinesInput, LineInput, GainInput } from './block/input';
-export { LINE_KEYS, SIGNAL_KEYS, SERIES_KEYS } from './block/schema';
-export { resultsHtml, type PreviewBlock } from './preview/resultsHtml';
-export { sparklineSvg, escapeText, escapeAttr, type SparkPoint } from './preview/sparkline';
-export { RunLog, runLogCsv, type RunEntry, type RunGroup } from './runLog';
 export { curveData, DEFAULT_CURVE_DATA_OPTIONS, type CurveDataOptions, type NoteSource } from './view/curveData';
 export type { CurveColumns, CurvePayload, DisplayUnit, Fact, FiniteNColumns, MeasuredPoint, MeasurementPlot, PayloadSource, PlotPoint, ProblemPayload, ThermalMarker, ViewPayload } from './view/payload';
 export { measurementPlot } from './view/measurementPlot';
@@ -40,3 +32,11 @@ export { measuredPoint } from './view/measuredPoint';
 export { isCurvePayload, isProblemPayload, isViewPayload } from './view/payloadCheck';
 export { ENERGY_AXIS_UNITS, isHostToView, isRenderMessage, isViewState, isViewToHost, MAX_DATA_URL, type CopyImageLinkMessage, type EnergyAxisUnit, type ExportCsvMessage, type ExportPngMessage, type HostToView, type PinMessage, type PinnedRun, type ReadyMessage, type RenderMessage, type UnpinMessage, type ViewState, type ViewToHost } from './view/messages';
 export { curveCsv } from './view/csv';
+export { measurementRows, measurementShort, type Row } from './measurementSummary';
+export type { SeriesFit } from './physics/relaxation';
+export type { GainResult, SignalResult } from './analysis/results';
+export type { SeriesInput, SignalInput, LinesInput, LineInput, GainInput } from './block/input';
+export { LINE_KEYS, SIGNAL_KEYS, SERIES_KEYS } from './block/schema';
+export { resultsHtml, type PreviewBlock } from './preview/resultsHtml';
+export { sparklineSvg, escapeText, escapeAttr, type SparkPoint } from './preview/sparkline';
+export { RunLog, runLogCsv, type RunEntry, type RunGroup } from './runLog';

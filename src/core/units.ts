@@ -98,8 +98,10 @@ function problem(code: string, message: string, span: Span, replacement?: Replac
   return { problem: replacement ? { code, message, span, replacement } : { code, message, span } };
 }
 
+const SPACE = /\s/;
+
 function skipSpace(text: string, i: number): number {
-  while (i < text.length && /\s/.test(text[i])) i++;
+  while (i < text.length && SPACE.test(text[i])) i++;
   return i;
 }
 
@@ -115,15 +117,17 @@ function scanNumber(text: string, start: number): Scanned {
     return problem('number-invalid', 'Expected a number such as `7.05` or `2.0e16`.', { start, end: Math.min(end, text.length) });
   }
   const span = { start, end: start + m[0].length };
-  const comma = /^,\d+/.exec(text.slice(span.end));
+  const comma = text.charCodeAt(span.end) === 44 /* , */ ? /^,\d+/.exec(text.slice(span.end)) : null;
   if (comma && !m[0].includes('.')) {
     const whole = { start, end: span.end + comma[0].length };
     return problem('number-invalid', 'Use a decimal point, not a comma.', whole,
       { title: 'Use a decimal point', span: whole, newText: text.slice(whole.start, whole.end).replace(',', '.') });
   }
-  const value = Number(m[0].replace('\u2212', '-').replace(/([eE])\u2212/, '$1-'));
+  // The Unicode minus is rare; only then is the text rewritten for Number().
+  const value = Number(m[0].includes('\u2212') ? m[0].replace('\u2212', '-').replace(/([eE])\u2212/, '$1-') : m[0]);
   if (!Number.isFinite(value)) return problem('number-invalid', `\`${m[0]}\` is out of the range of double precision.`, span);
-  return { value, span, negative: /^[-\u2212]/.test(m[0]) };
+  const sign = m[0].charCodeAt(0);
+  return { value, span, negative: sign === 45 /* - */ || sign === 0x2212 };
 }
 
 /**

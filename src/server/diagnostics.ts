@@ -8,9 +8,9 @@ import type { Diagnostic } from 'vscode-languageserver';
 import { problemToDiagnostic } from './features/codeActions';
 import type { NoteState } from './state';
 
-/** All diagnostics of a note, in block and position order. */
+/** All diagnostics of a note: the note's own (such as `note-bounded`) first, then block by block in position order. */
 export function noteDiagnostics(state: NoteState): Diagnostic[] {
-  const out: Diagnostic[] = [];
+  const out: Diagnostic[] = state.report.problems.map((p) => problemToDiagnostic(state, p));
   for (const b of state.report.blocks) for (const p of b.problems) out.push(problemToDiagnostic(state, p));
   return out;
 }

@@ -4,14 +4,23 @@
  * re-read only the blocks it touched).
  */
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import { Analyzer, LineIndex } from '../core';
+import { Analyzer, LineIndex, type AnalyzerLimits } from '../core';
 import type { AnalysisStats } from './protocol';
 import type { Settings } from './settings';
 import type { NoteState } from './state';
 
+/**
+ * How much of a note the server reads (docs/format.md#note-bounded): about
+ * 2.5 times the 2,000-run notebook of the benchmarks, whose full analysis
+ * takes a fraction of a second, so the first analysis of any note stays
+ * under a couple of seconds and an edit stays instant. Past the bound the
+ * note gets one `note-bounded` warning on its first line.
+ */
+export const SERVER_LIMITS: AnalyzerLimits = { maxBlocks: 5_000, maxBodyChars: 2_000_000 };
+
 /** Builds analyzer options from the settings. */
 function analyzerFor(s: Settings): Analyzer {
-  return new Analyzer({ saturationSigma: s.saturationSigma, infoStrings: s.extraInfoStrings });
+  return new Analyzer({ saturationSigma: s.saturationSigma, infoStrings: s.extraInfoStrings, limits: SERVER_LIMITS });
 }
 
 /** Cache of note analyses, keyed by URI and version. */

@@ -2,7 +2,7 @@
  * Boltzmark's own requests and notifications on top of LSP, all named
  * `boltzmark/…`, grouped by direction. docs/architecture.md lists them.
  */
-import { RequestType } from 'vscode-languageserver-protocol';
+import { RequestType, RequestType0 } from 'vscode-languageserver-protocol';
 import type { ViewPayload } from '../core';
 
 // ---- client → server ----
@@ -26,6 +26,16 @@ export interface AnalysisStats {
 
 /** Statistics of the latest analysis of a note (used by tests and benchmarks); null for an unknown note. */
 export const AnalysisStatsRequest = new RequestType<{ readonly uri: string }, AnalysisStats | null, void>('boltzmark/analysisStats');
+
+/** The server's memory, bytes; `collected` tells whether a full garbage collection ran first (only when started with `--expose-gc`). */
+export interface MemoryStats {
+  readonly heapUsed: number;
+  readonly rss: number;
+  readonly collected: boolean;
+}
+
+/** The server's memory use (used by the tests, e.g. after a burst of edits). */
+export const MemoryRequest = new RequestType0<MemoryStats, void>('boltzmark/memory');
 
 /**
  * The curve view's data for the block at (or enclosing) a line: its curves,

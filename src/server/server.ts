@@ -24,7 +24,8 @@ import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
 import { documentSymbols } from './features/symbols';
 import { Notes } from './notes';
-import { AnalysisStatsRequest, CurveDataRequest, ResultsMarkdownRequest } from './protocol';
+import { memoryStats } from './memory';
+import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from './protocol';
 import { DEFAULT_SETTINGS, fromSection } from './settings';
 import { blockAt, type NoteState } from './state';
 
@@ -125,6 +126,7 @@ export function startServer(connection: Connection): void {
     }),
   );
   connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
+  connection.onRequest(MemoryRequest, memoryStats);
   connection.onRequest(CurveDataRequest, (p, token) => serve(p.uri, token, null, (s) => curvePayload(s, p.line, notes.current)));
 
   documents.listen(connection);

@@ -24,12 +24,14 @@ export interface LspSession {
 export interface StartOptions {
   readonly pull?: boolean;
   readonly settings?: unknown;
+  /** Node options for the server process, e.g. `--expose-gc`. */
+  readonly execArgv?: readonly string[];
 }
 
 /** Spawns `node dist/server.js --stdio` and initializes it. */
 export async function startLsp(opts: StartOptions = {}): Promise<LspSession> {
   if (!existsSync('dist/server.js')) throw new Error('dist/server.js is missing: run `npm run build` first (npm test does)');
-  const proc = spawn(process.execPath, ['dist/server.js', '--stdio'], { stdio: ['pipe', 'pipe', 'pipe'] });
+  const proc = spawn(process.execPath, [...(opts.execArgv ?? []), 'dist/server.js', '--stdio'], { stdio: ['pipe', 'pipe', 'pipe'] });
   let stderr = '';
   proc.stderr!.on('data', (b: Buffer) => (stderr += b.toString()));
   const exited = new Promise<never>((_, reject) => proc.once('exit', (code) => reject(new Error(`the server exited with code ${code} before answering: ${stderr.slice(-2000)}`))));

@@ -12,7 +12,7 @@ import { BLOCK_KEY_NAMES, BLOCK_KEYS, type BlockForm } from './schema';
 import { readLinesForm } from './formLines';
 import { readSeries } from './series';
 import { unknownKey } from './unknownKey';
-import { nonEmpty, readInteger, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
+import { insideBody, nonEmpty, readInteger, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
 import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
 
 /** What reading a block gave: its label and key spans, its input (null on errors) and its problems. */
@@ -20,6 +20,32 @@ export interface Interpretation {
   readonly meta: BlockMeta;
   readonly input: BlockInput | null;
   readonly problems: Problem[];
+}
+
+/** Each schema key name, to keep that string rather than the parser's copy. */
+const KEY_NAMES: ReadonlyMap<string, string> = new Map([...BLOCK_KEY_NAMES].map((k) => [k, k]));
+
+/** Where a key and its value were written; one object with the four offsets, the spans made on request. */
+class KeySpans {
+  private readonly keyStart: number;
+  private readonly keyEnd: number;
+  private readonly valueStart: number;
+  private readonly valueEnd: number;
+
+  constructor(key: Span, value: Span) {
+    this.keyStart = key.start;
+    this.keyEnd = key.end;
+    this.valueStart = value.start;
+    this.valueEnd = value.end;
+  }
+
+  get key(): Span {
+    return { start: this.keyStart, end: this.keyEnd };
+  }
+
+  get value(): Span {
+    return { start: this.valueStart, end: this.valueEnd };
+  }
 }
 
 const FORM_KEYS: readonly [string, BlockForm][] = [['levels', 'levels'], ['system', 'spin'], ['gap', 'transition'], ['lines', 'lines']];
@@ -39,16 +65,17 @@ export function interpretBody(body: string): Interpretation {
   if (!doc) return { meta: emptyMeta, input: null, problems };
   if (!isMap(doc.contents)) {
     const span = spanOf(doc.contents) ?? firstLine;
-    problems.push({ severity: 'error', code: 'body-not-mapping', message: 'The block must be a YAML mapping of `key: value` lines.', span: nonEmpty(span) });
+    problems.push({ severity: 'error', code: 'body-not-mapping', message: 'The block must be a YAML mapping of `key: value` lines.', span: insideBody(nonEmpty(span), body) });
     return { meta: emptyMeta, input: null, problems };
   }
   const ctx: ReadContext = { doc, body, problems };
   const all = entries(doc, doc.contents);
   const byKey = new Map<string, Entry>();
-  const keys = new Map<string, { key: Span; value: Span }>();
+  const keys = new Map<string, KeySpans>();
   for (const e of all) {
     byKey.set(e.key, e);
-    keys.set(e.key, { key: e.keySpan, value: e.valueSpan });
+    // Kept for as long as the block is cached: the schema's own key string and one small object per key.
+    keys.set(KEY_NAMES.get(e.key) ?? e.key, new KeySpans(e.keySpan, e.valueSpan));
     if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   }
   const idEntry = byKey.get('id');
@@ -75,7 +102,22 @@ export function interpretBody(body: string): Interpretation {
       report(ctx, 'error', 'signal-lattice-missing', 'signal: give `lattice:`, the temperature of the thermal reference, so its polarization is known.', byKey.get('signal')!.keySpan);
     }
     if (read && countErrors(problems) === 0) {
-      input = { signal: null, lines: null, gain: null, densities: false, ...read, series, lattice, count: count?.value ?? null };
+      input = {
+        form: read.form,
+        levels: read.levels,
+        energyUnit: read.energyUnit,
+        spin: read.spin,
+        polarization: read.polarization,
+        ratio: read.ratio,
+        uGap: read.uGap,
+        lattice,
+        count: count?.value ?? null,
+        densities: read.densities ?? false,
+        signal: read.signal ?? null,
+        series,
+        lines: read.lines ?? null,
+        gain: read.gain ?? null,
+      };
     }
   }
   if (countErrors(problems) > 0) input = null;

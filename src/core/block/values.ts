@@ -26,7 +26,14 @@ export interface ReadValue {
 
 /** Adds a problem to the context. */
 export function report(ctx: ReadContext, severity: Severity, code: string, message: string, span: Span, fixes?: Replacement[]): void {
-  ctx.problems.push(fixes && fixes.length > 0 ? { severity, code, message, span, fixes } : { severity, code, message, span });
+  const at = insideBody(span, ctx.body);
+  ctx.problems.push(fixes && fixes.length > 0 ? { severity, code, message, span: at, fixes } : { severity, code, message, span: at });
+}
+
+/** The span clamped to the body (a one-character span widened past the body's end becomes empty there). */
+export function insideBody(span: Span, body: string): Span {
+  const start = Math.max(0, Math.min(span.start, body.length));
+  return { start, end: Math.max(start, Math.min(span.end, body.length)) };
 }
 
 /**

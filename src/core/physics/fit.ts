@@ -109,6 +109,23 @@ export const RESIDUAL_TOLERANCE = Math.log(1.05);
 /** Significance level of the χ² consistency test (docs/format.md, status rules). */
 export const CHI2_SIGNIFICANCE = 0.01;
 
+/** Critical values already computed, by degrees of freedom (a notebook uses a handful of level counts). */
+const CHI2_CRITICAL = new Map<number, number>();
+
+/**
+ * The χ² quantile at 1 − {@link CHI2_SIGNIFICANCE} for `dof` degrees of freedom,
+ * from @stdlib/stats-base-dists-chisquare-quantile; remembered per dof (at most
+ * a thousand of them), because the quantile inverts the incomplete gamma
+ * function and costs more than the fit it judges.
+ */
+function chi2Critical(dof: number): number {
+  const known = CHI2_CRITICAL.get(dof);
+  if (known !== undefined) return known;
+  const q = chisquareQuantile(1 - CHI2_SIGNIFICANCE, dof);
+  if (CHI2_CRITICAL.size < 1000) CHI2_CRITICAL.set(dof, q);
+  return q;
+}
+
 /** Result of {@link boltzmannFit}. */
 export interface BoltzmannFit {
   /** Inverse temperature β = −slope, K⁻¹. */
@@ -175,7 +192,7 @@ export function boltzmannFit(
   const weighted = sigmas.length > 0 && sigmas.every((s) => Number.isFinite(s) && s > 0);
   const line = weightedLineFit(x, y, weighted ? sigmas : null);
   if (line === null) return null;
-  const chi2Limit = weighted && line.dof >= 1 ? chisquareQuantile(1 - CHI2_SIGNIFICANCE, line.dof) : null;
+  const chi2Limit = weighted && line.dof >= 1 ? chi2Critical(line.dof) : null;
   const consistent = weighted
     ? chi2Limit === null || !(line.chi2 > chi2Limit)
     : line.residuals.every((r) => Math.abs(r) <= RESIDUAL_TOLERANCE);

@@ -35,7 +35,11 @@ export interface SeriesFit {
   readonly converged: boolean;
 }
 
+/** Most Levenberg–Marquardt iterations per fit, over all rounds. */
 const MAX_ITERATIONS = 500;
+
+/** Iterations per round: the package has no relative stopping rule, so the fit runs in rounds and stops when one changes nothing. */
+const ROUND = 5;
 
 type Model = (p: readonly number[], i: number) => number;
 
@@ -106,16 +110,19 @@ function solve(x: number[], y: number[], f: Model, jac: (p: readonly number[], i
       improvementThreshold: 1e-12,
     });
   let result;
-  let converged: boolean;
+  let converged = false;
   try {
-    result = run(initial, MAX_ITERATIONS);
-    // The package stops on an absolute error threshold or its iteration limit, which noisy data
-    // always reach; convergence is judged instead by restarting at the solution: a converged fit
-    // neither moves its parameters nor lowers its residual sum in a few more steps.
-    const again = run(result.parameterValues, 20);
-    const moved = again.parameterValues.some((q, j) => Math.abs(q - result!.parameterValues[j]) > 1e-6 * Math.max(1e-12, Math.abs(q)));
-    converged = !moved && again.parameterError >= result.parameterError * (1 - 1e-9);
-    if (again.parameterError < result.parameterError) result = again;
+    // The package stops only on an absolute error threshold or its iteration limit, which noisy data
+    // always reach. So it runs in short rounds, each restarted at the best point so far, and the fit
+    // has converged when a round neither moves the parameters nor lowers the residual sum: the
+    // same test as one long run followed by a check, without spending the whole budget every time.
+    result = run(initial, ROUND);
+    for (let used = ROUND; used < MAX_ITERATIONS + ROUND && !converged; used += ROUND) {
+      const again = run(result.parameterValues, ROUND);
+      const moved = again.parameterValues.some((q, j) => Math.abs(q - result!.parameterValues[j]) > 1e-6 * Math.max(1e-12, Math.abs(q)));
+      converged = !moved && again.parameterError >= result.parameterError * (1 - 1e-9);
+      if (again.parameterError < result.parameterError) result = again;
+    }
   } catch {
     return null;
   }

@@ -7,9 +7,16 @@
  * document. Content lines lose up to as many leading spaces as the opening
  * fence was indented. Container blocks (lists, block quotes) are not parsed:
  * blocks are recognised at the left margin only, which is where notes keep them.
+ * A byte-order mark at the start of the note is skipped.
  */
 
-/** One body line: where it starts in the note and how many indent spaces were removed. */
+/**
+ * Where a run of body lines starts: its offset in the note and in the body,
+ * and how many indent spaces were removed from its first line. Consecutive
+ * lines whose body offsets map to the note by the same shift share one entry
+ * (every line of a fence at the left margin does), so a block keeps one entry
+ * unless its fence is indented.
+ */
 export interface BodyLine {
   /** Offset of the line's first character in the note (before stripping). */
   readonly docStart: number;
@@ -36,7 +43,7 @@ export interface FencedBlock {
   readonly blockEnd: number;
   /** The content as CommonMark defines it (indentation stripped), lines joined by their own breaks. */
   readonly body: string;
-  /** Per body line mapping back to the note; empty for an empty body. */
+  /** Mapping of body offsets back to the note, one entry per run of equally shifted lines; empty for an empty body. */
   readonly lines: readonly BodyLine[];
   /** 0-based line of the first body line. */
   readonly bodyLine: number;
@@ -85,10 +92,18 @@ function isClosingFence(text: string, start: number, end: number, open: Fence): 
 
 /** Scans the note line by line; O(length of the note). */
 export function findFencedBlocks(text: string): FencedBlock[] {
-  const blocks: FencedBlock[] = [];
-  let pos = 0;
+  return [...scanFencedBlocks(text)];
+}
+
+/**
+ * The blocks of {@link findFencedBlocks}, one at a time, so a caller that
+ * stops early (a bounded analysis of a huge note) scans only up to there.
+ */
+export function* scanFencedBlocks(text: string): Generator<FencedBlock, void, undefined> {
+  // A byte-order mark is not part of the first line's content (a fence may follow it).
+  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let line = 0;
-  let open: { fence: Fence; openStart: number; openEnd: number; openLine: number; lines: BodyLine[]; parts: string[]; bodyLen: number } | null = null;
+  let open: Open | null = null;
 
   // Next \r at or after pos, cached so the scan stays linear on long notes.
   let nextCr = -2;
@@ -105,30 +120,42 @@ export function findFencedBlocks(text: string): FencedBlock[] {
 
     if (open === null) {
       const fence = openingFence(text, pos, contentEnd);
-      if (fence) open = { fence, openStart: pos, openEnd: contentEnd, openLine: line, lines: [], parts: [], bodyLen: 0 };
+      if (fence) open = { fence, openStart: pos, openEnd: contentEnd, openLine: line, lines: [], parts: fence.indent > 0 ? [] : null, bodyFrom: next, bodyLen: 0 };
     } else if (isClosingFence(text, pos, contentEnd, open.fence)) {
-      blocks.push(finish(open, line, contentEnd));
+      yield finish(text, open, line, pos, contentEnd);
       open = null;
     } else {
       let strip = 0;
       while (strip < open.fence.indent && text.charCodeAt(pos + strip) === SPACE) strip++;
-      const lineText = text.slice(pos + strip, Math.min(next, text.length));
-      open.lines.push({ docStart: pos, bodyStart: open.bodyLen, stripped: strip });
-      open.parts.push(lineText);
-      open.bodyLen += lineText.length;
+      const lineEnd = Math.min(next, text.length);
+      const last = open.lines[open.lines.length - 1];
+      if (!last || last.docStart + last.stripped - last.bodyStart !== pos + strip - open.bodyLen) {
+        open.lines.push({ docStart: pos, bodyStart: open.bodyLen, stripped: strip });
+      }
+      open.parts?.push(text.slice(pos + strip, lineEnd));
+      open.bodyLen += lineEnd - pos - strip;
     }
     pos = next;
     line++;
   }
-  if (open) blocks.push(finish(open, null, text.length));
-  return blocks;
+  if (open) yield finish(text, open, null, text.length, text.length);
 }
 
-function finish(
-  open: { fence: Fence; openStart: number; openEnd: number; openLine: number; lines: BodyLine[]; parts: string[] },
-  closeLine: number | null,
-  blockEnd: number,
-): FencedBlock {
+/** A block being read. */
+interface Open {
+  readonly fence: Fence;
+  readonly openStart: number;
+  readonly openEnd: number;
+  readonly openLine: number;
+  readonly lines: BodyLine[];
+  /** The stripped body lines of an indented fence; null at the left margin, whose body is one stretch of the note. */
+  readonly parts: string[] | null;
+  /** Note offset of the first body line. */
+  readonly bodyFrom: number;
+  bodyLen: number;
+}
+
+function finish(text: string, open: Open, closeLine: number | null, bodyTo: number, blockEnd: number): FencedBlock {
   return {
     info: open.fence.info,
     language: open.fence.info.split(/\s+/, 1)[0] ?? '',
@@ -137,7 +164,7 @@ function finish(
     openStart: open.openStart,
     openEnd: open.openEnd,
     blockEnd,
-    body: open.parts.join(''),
+    body: open.parts ? open.parts.join('') : text.slice(Math.min(open.bodyFrom, bodyTo), bodyTo),
     lines: open.lines,
     bodyLine: open.openLine + 1,
   };

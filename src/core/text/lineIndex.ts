@@ -59,7 +59,8 @@ export class LineIndex {
       if (this.starts[mid] <= o) lo = mid;
       else hi = mid - 1;
     }
-    return { line: lo, character: o - this.starts[lo] };
+    // An offset between the \r and the \n of a line break is the end of its line.
+    return { line: lo, character: Math.min(o, this.lineEnd(lo)) - this.starts[lo] };
   }
 
   /** Offset of a position; a character past the line's end clamps to the end. */

@@ -1,0 +1,112 @@
+/**
+ * The core's speed on a large note, as ratios measured side by side:
+ *
+ * - full analysis (find, parse, read and analyse every block, with a fresh
+ *   Analyzer so nothing is cached) against the YAML floor: `parseDocument`
+ *   of the `yaml` package, with the options the block reader passes, over
+ *   the same block bodies and nothing else;
+ * - an incremental edit (one character changed inside one block, then the
+ *   whole note analysed again by a warm Analyzer) against the full analysis.
+ *
+ * Each repetition times both sides back to back (alternating which goes
+ * first) after a full garbage collection; the ratio reported is the median
+ * of the per-repetition ratios, which a busy machine disturbs least.
+ */
+import { parseDocument } from 'yaml';
+import { Analyzer, findFencedBlocks } from '../src/core';
+import { YAML_OPTIONS } from '../src/core/block/yamlTree';
+import { generateNote } from './note';
+import { collect, median, timeOnce } from './stats';
+
+/** What {@link measureCore} reports. */
+export interface CoreFigures {
+  readonly blocks: number;
+  readonly lines: number;
+  readonly megabytes: number;
+  readonly repetitions: number;
+  readonly floorMs: number;
+  readonly fullMs: number;
+  /** Median over repetitions of full / floor. */
+  readonly fullRatio: number;
+  readonly incrementalMs: number;
+  /** Median over repetitions of incremental / full. */
+  readonly incrementalRatio: number;
+}
+
+/** The note of the benchmarks: 2,000 blocks, about 40,000 lines. */
+export function benchNote(): string {
+  return generateNote({ blocks: 2000 });
+}
+
+/**
+ * The note with one character of block `index` changed: the last digit of its
+ * `id` line becomes `digit`. A fresh (block, digit) pair gives a body the
+ * analyzer has never seen, so exactly that block is read again.
+ */
+export function editNote(note: string, index: number, digit: string): string {
+  const marker = `id: run ${index + 1}\n`;
+  const at = note.indexOf(marker);
+  if (at < 0) throw new Error(`block ${index} not found`);
+  const pos = at + marker.length - 2;
+  return note.slice(0, pos) + digit + note.slice(pos + 1);
+}
+
+/** Runs the measurements; `repetitions` pairs of each. */
+export function measureCore(repetitions: number): CoreFigures {
+  const note = benchNote();
+  const bodies = findFencedBlocks(note).filter((b) => b.language === 'levels').map((b) => b.body);
+  const floor = (): void => {
+    for (const body of bodies) parseDocument(body, YAML_OPTIONS);
+  };
+  const full = (): void => {
+    new Analyzer().analyzeText(note);
+  };
+  // Warm-up: the JIT compiles both paths before anything is timed.
+  for (let i = 0; i < 3; i++) {
+    floor();
+    full();
+  }
+  const floorMs: number[] = [];
+  const fullMs: number[] = [];
+  const ratios: number[] = [];
+  for (let i = 0; i < repetitions; i++) {
+    const pair: number[] = [];
+    for (const side of i % 2 === 0 ? [floor, full] : [full, floor]) {
+      collect();
+      pair[side === floor ? 0 : 1] = timeOnce(side);
+    }
+    floorMs.push(pair[0]!);
+    fullMs.push(pair[1]!);
+    ratios.push(pair[1]! / pair[0]!);
+  }
+
+  const warm = new Analyzer();
+  warm.analyzeText(note);
+  const incMs: number[] = [];
+  const incRatios: number[] = [];
+  for (let i = 0; i < repetitions; i++) {
+    // A different block each time (the previous one returns to its cached text).
+    const edited = editNote(note, (i * 97 + 13) % 2000, 'x');
+    collect();
+    const fullTime = timeOnce(full);
+    collect();
+    let analysed = -1;
+    const incTime = timeOnce(() => {
+      analysed = warm.analyzeText(edited).stats.analysed;
+    });
+    if (analysed !== 1) throw new Error(`an edit of one block re-read ${analysed} blocks`);
+    incMs.push(incTime);
+    incRatios.push(incTime / fullTime);
+  }
+  return {
+    blocks: bodies.length,
+    lines: note.split('\n').length,
+    megabytes: note.length / 1e6,
+    repetitions,
+    floorMs: median(floorMs),
+    fullMs: median(fullMs),
+    fullRatio: median(ratios),
+    incrementalMs: median(incMs),
+    incrementalRatio: median(incRatios),
+  };
+}

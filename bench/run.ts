@@ -1,0 +1,131 @@
+/**
+ * `npm run bench`: every benchmark of issue 8, printed as one table with its
+ * target and whether it holds, and written to bench/results.json. Speed is
+ * measured here, never asserted in tests. Run after `npm run build` (the
+ * script does it) with `--expose-gc`, so timed sections start from a
+ * collected heap. `--repetitions N` changes the number of repetitions.
+ *
+ * Exit status 1 when a figure misses its target.
+ */
+import { cpus } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { dirname } from 'node:path';
+import { measureCore } from './core';
+import { measureCurves } from './curves';
+import { measureLsp } from './lsp';
+import { canCollect } from './stats';
+import { measureActivation, measureSizes, tempBundles } from './startup';
+
+/** One line of the table. */
+interface Figure {
+  readonly figure: string;
+  readonly value: string;
+  readonly target: string;
+  /** null: for information, no target. */
+  readonly holds: boolean | null;
+  /** The numbers behind `value`, for results.json. */
+  readonly data: Record<string, number | null>;
+}
+
+const f = (x: number, digits = 1): string => x.toFixed(digits);
+
+function argument(name: string, fallback: number): number {
+  const i = process.argv.indexOf(name);
+  const v = i >= 0 ? Number(process.argv[i + 1]) : NaN;
+  return Number.isInteger(v) && v > 0 ? v : fallback;
+}
+
+/** Nielsen's limit for a response that feels instantaneous (J. Nielsen, Usability Engineering, 1993, §5.5). */
+const INSTANT_MS = 100;
+
+async function main(): Promise<number> {
+  if (!canCollect) console.warn('bench: run with node --expose-gc (npm run bench does) so each timed section starts from a collected heap');
+  const reps = argument('--repetitions', 21);
+  const figures: Figure[] = [];
+  const log = (s: string): void => void process.stderr.write(`bench: ${s}\n`);
+
+  log('core: full analysis and incremental edit …');
+  const core = measureCore(reps);
+  figures.push({
+    figure: `Full analysis ÷ YAML floor (${core.blocks} blocks, ${core.lines} lines)`,
+    value: `${f(core.fullRatio, 2)} (${f(core.fullMs)} ms ÷ ${f(core.floorMs)} ms)`,
+    target: '≤ 1.3',
+    holds: core.fullRatio <= 1.3,
+    data: { ratio: core.fullRatio, fullMs: core.fullMs, floorMs: core.floorMs },
+  });
+  figures.push({
+    figure: 'Incremental edit ÷ full analysis (one character in one block)',
+    value: `${f(core.incrementalRatio, 4)} (${f(core.incrementalMs, 2)} ms)`,
+    target: '≤ 0.01',
+    holds: core.incrementalRatio <= 0.01,
+    data: { ratio: core.incrementalRatio, incrementalMs: core.incrementalMs },
+  });
+
+  log('language server over stdio …');
+  const lsp = await measureLsp(5, Math.max(20, 2 * reps));
+  const latency = (name: string, l: { p50: number; p95: number }): Figure => ({
+    figure: `${name} after an edit, p50 / p95`,
+    value: `${f(l.p50, 2)} / ${f(l.p95, 2)} ms (${f(l.p50 / lsp.noop.p50)}× / ${f(l.p95 / lsp.noop.p95)}× no-op)`,
+    target: `p95 ≤ ${INSTANT_MS} ms`,
+    holds: l.p95 <= INSTANT_MS,
+    data: { p50: l.p50, p95: l.p95, p50Ratio: l.p50 / lsp.noop.p50, p95Ratio: l.p95 / lsp.noop.p95 },
+  });
+  figures.push(latency('Hover', lsp.hover), latency('Inlay hints (60 lines)', lsp.inlayHints));
+  figures.push({ figure: 'No-op request after an edit, p50 / p95', value: `${f(lsp.noop.p50, 2)} / ${f(lsp.noop.p95, 2)} ms`, target: '—', holds: null, data: { ...lsp.noop } });
+  figures.push({ figure: 'First hover after opening the note (full analysis)', value: `${f(lsp.openMs)} ms`, target: '—', holds: null, data: { ms: lsp.openMs } });
+  figures.push({ figure: 'Server spawn → initialize answered', value: `${f(lsp.startMs)} ms`, target: '—', holds: null, data: { ms: lsp.startMs } });
+
+  log('curves …');
+  const curves = measureCurves(reps);
+  figures.push({ figure: `S(E) and β(E), ${curves.schemePoints} points, 64 levels`, value: `${f(curves.schemeMs, 2)} ms`, target: `≤ ${INSTANT_MS} ms`, holds: curves.schemeMs <= INSTANT_MS, data: { ms: curves.schemeMs } });
+  figures.push({ figure: `Exact finite-N curve, N = 10⁶ (${curves.finiteNPoints} points)`, value: `${f(curves.finiteNMs, 2)} ms`, target: `≤ ${INSTANT_MS} ms`, holds: curves.finiteNMs <= INSTANT_MS, data: { ms: curves.finiteNMs } });
+
+  log('bundles and activation …');
+  const tmp = tempBundles();
+  try {
+    const sizes = await measureSizes(tmp.dir);
+    const activation = await measureActivation(tmp.dir, 5);
+    figures.push({ figure: 'Activation: require() → server fork (stand-in vscode)', value: `${f(activation)} ms`, target: '—', holds: null, data: { ms: activation } });
+    for (const s of sizes) {
+      figures.push({
+        figure: `Bundle size, ${s.name} (${s.entry}, minified)`,
+        value: s.kb === null ? 'not built (entry point missing)' : `${f(s.kb)} KB`,
+        target: s.limitKb === null ? '—' : `≤ ${s.limitKb} KB`,
+        holds: s.limitKb === null ? null : s.kb !== null && s.kb <= s.limitKb,
+        data: { kb: s.kb, limitKb: s.limitKb },
+      });
+    }
+  } finally {
+    tmp.dispose();
+  }
+
+  print(figures);
+  const results = {
+    date: new Date().toISOString(),
+    node: process.version,
+    cpus: `${cpus().length} × ${cpus()[0]?.model ?? 'unknown'}`,
+    repetitions: reps,
+    figures: figures.map(({ figure, value, target, holds, data }) => ({ figure, value, target, holds, ...data })),
+  };
+  const out = 'bench/results.json';
+  mkdirSync(dirname(out), { recursive: true });
+  writeFileSync(out, `${JSON.stringify(results, null, 2)}\n`);
+  log(`written to ${out}`);
+  return figures.some((x) => x.holds === false) ? 1 : 0;
+}
+
+/** The table, in Markdown so it can be pasted into the README as it is. */
+function print(figures: readonly Figure[]): void {
+  const rows = [['figure', 'value', 'target', 'holds'], ...figures.map((x) => [x.figure, x.value, x.target, x.holds === null ? 'info' : x.holds ? 'yes' : 'NO'])];
+  const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
+  const line = (r: string[]): string => `| ${r.map((cell, c) => cell.padEnd(widths[c]!)).join(' | ')} |`;
+  console.log([line(rows[0]!), `| ${widths.map((w) => '-'.repeat(w)).join(' | ')} |`, ...rows.slice(1).map(line)].join('\n'));
+}
+
+main().then(
+  (code) => process.exit(code),
+  (err) => {
+    console.error(err);
+    process.exit(2);
+  },
+);

@@ -1,0 +1,138 @@
+/**
+ * Start-up and size:
+ *
+ * - bundle sizes: every entry point built minified with the options of
+ *   `scripts/build.mjs --production`, into a temporary folder (dist/ is left
+ *   alone), counting the JavaScript file only (legal comments are linked,
+ *   in a file of their own); KB = 1,024 bytes;
+ * - extension activation: there is no VS Code here, so what is measured is
+ *   the time from `require()` of the minified extension bundle (with a
+ *   stand-in `vscode` module that answers every call with another stand-in)
+ *   through `activate()` to the moment the language client forks the server
+ *   process, the last step of activation before the server's own start-up
+ *   (which bench/lsp.ts measures separately). The fork is stopped there.
+ */
+import * as esbuild from 'esbuild';
+import childProcess from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import Module from 'node:module';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { median, now } from './stats';
+
+/** One bundle: its size and its limit (KB), or null when its entry point does not exist yet. */
+export interface BundleSize {
+  readonly name: 'client' | 'server' | 'webview' | 'cli';
+  readonly entry: string;
+  readonly kb: number | null;
+  readonly limitKb: number | null;
+}
+
+/** The limits of the issue, KB minified. */
+const LIMITS: Record<BundleSize['name'], number | null> = { client: 300, server: 600, webview: 450, cli: null };
+
+const ENTRIES: readonly { name: BundleSize['name']; entry: string; out: string; browser: boolean }[] = [
+  { name: 'client', entry: 'src/client/extension.ts', out: 'extension', browser: false },
+  { name: 'server', entry: 'src/server/index.ts', out: 'server', browser: false },
+  { name: 'webview', entry: 'media/src/view.ts', out: 'media/view', browser: true },
+  { name: 'cli', entry: 'src/cli/index.ts', out: 'cli', browser: false },
+];
+
+/** Builds every bundle minified into `outdir`; returns their sizes. */
+export async function measureSizes(outdir: string): Promise<BundleSize[]> {
+  const sizes: BundleSize[] = [];
+  for (const e of ENTRIES) {
+    if (!existsSync(e.entry)) {
+      sizes.push({ name: e.name, entry: e.entry, kb: null, limitKb: LIMITS[e.name] });
+      continue;
+    }
+    const common = { bundle: true, minify: true, sourcemap: false, logLevel: 'warning' as const, legalComments: 'linked' as const, write: false };
+    const result = await esbuild.build({
+      ...common,
+      entryPoints: [{ in: e.entry, out: e.out }],
+      outdir,
+      ...(e.browser ? { platform: 'browser' as const, target: 'es2022', format: 'iife' as const } : { platform: 'node' as const, target: 'node20', format: 'cjs' as const, external: ['vscode'] }),
+    });
+    const js = result.outputFiles!.find((f) => f.path.endsWith('.js'))!;
+    mkdirSync(dirname(js.path), { recursive: true });
+    writeFileSync(js.path, js.contents);
+    sizes.push({ name: e.name, entry: e.entry, kb: js.contents.length / 1024, limitKb: LIMITS[e.name] });
+  }
+  return sizes;
+}
+
+/** A stand-in for any part of the `vscode` API: callable, constructible, every property another stand-in. */
+function standIn(name: string, known: Record<string, unknown> = {}): unknown {
+  const cache = new Map<PropertyKey, unknown>(Object.entries(known));
+  const target = function standInFunction(): void {};
+  return new Proxy(target, {
+    get(_t, p) {
+      if (p === 'then') return undefined; // not a promise
+      if (p === Symbol.iterator) return function* empty(): Generator<never> {};
+      if (p === Symbol.toPrimitive) return () => name;
+      if (!cache.has(p)) cache.set(p, standIn(`${name}.${String(p)}`));
+      return cache.get(p);
+    },
+    apply: () => standIn(`${name}()`),
+    construct: () => standIn(`new ${name}`) as object,
+  });
+}
+
+/**
+ * The stand-in `vscode` module: a plain object (bundles copy its own keys)
+ * with every top-level name the API declares (read from @types/vscode), each
+ * a stand-in, and the oldest supported version.
+ */
+function vscodeModule(): Record<string, unknown> {
+  const types = readFileSync(require.resolve('@types/vscode/index.d.ts'), 'utf8');
+  const names = new Set([...types.matchAll(/^\texport (?:namespace|class|enum|const|let|function) (\w+)/gm)].map((m) => m[1]!));
+  const api: Record<string, unknown> = {};
+  for (const name of names) api[name] = standIn(`vscode.${name}`);
+  api.version = '1.100.0';
+  return api;
+}
+
+/** Activation of the minified extension in `outdir`, `repetitions` times in fresh module caches; median ms. */
+export async function measureActivation(outdir: string, repetitions: number): Promise<number> {
+  const file = resolve(outdir, 'extension.js');
+  const vscode = vscodeModule();
+  const mod = Module as unknown as { _load: (request: string, parent: unknown, isMain: boolean) => unknown };
+  const load = mod._load;
+  const fork = childProcess.fork;
+  const stop = new Error('bench: activation reached the server fork');
+  let forkedAt = -1;
+  mod._load = function (request, parent, isMain) {
+    return request === 'vscode' ? vscode : load.call(this, request, parent, isMain);
+  };
+  childProcess.fork = (() => {
+    forkedAt = now();
+    throw stop;
+  }) as typeof childProcess.fork;
+  const times: number[] = [];
+  try {
+    for (let i = 0; i < repetitions; i++) {
+      delete require.cache[file];
+      forkedAt = -1;
+      const start = now();
+      const ext = require(file) as { activate(ctx: unknown): Promise<unknown> };
+      const context = standIn('context', {
+        subscriptions: [],
+        extensionPath: resolve('.'),
+        asAbsolutePath: (p: string) => resolve(p),
+      });
+      await ext.activate(context).catch(() => undefined);
+      if (forkedAt < 0) throw new Error('activate() returned without starting the language server');
+      times.push(forkedAt - start);
+    }
+  } finally {
+    mod._load = load;
+    childProcess.fork = fork;
+  }
+  return median(times);
+}
+
+/** A fresh temporary folder for the minified bundles, and its removal. */
+export function tempBundles(): { dir: string; dispose(): void } {
+  const dir = mkdtempSync(join(tmpdir(), 'boltzmark-bench-'));
+  return { dir, dispose: () => rmSync(dir, { recursive: true, force: true }) };
+}

@@ -1,0 +1,85 @@
+// `npm start`: the demo notebook in a real VS Code, in the browser.
+//
+// Builds, packs the .vsix (scripts/package.mjs), makes sure the browser-hosted
+// VS Code is installed (scripts/editor-host.sh), installs the .vsix into a
+// fresh extensions folder the way a user would, and serves demo/ on a free
+// 127.0.0.1 port until Ctrl-C. Open the printed URL in a browser.
+//
+//   npm start                      serve demo/
+//   npm start -- --port 8080       a fixed port
+//   npm start -- path/to/notes     another folder of notes
+//
+// Edits made in the browser are saved to the served folder (demo/ by default)
+// when you save, as in any editor.
+import { spawnSync } from 'node:child_process';
+import { existsSync, readFileSync, statSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { join, resolve } from 'node:path';
+
+const require = createRequire(import.meta.url);
+const host = require('./editorHost.cjs');
+
+function parseArgs(argv) {
+  const out = { port: 0, folder: join(host.ROOT, 'demo') };
+  for (let i = 0; i < argv.length; i++) {
+    if (argv[i] === '--port') out.port = Number(argv[++i]);
+    else if (argv[i] === '-h' || argv[i] === '--help') {
+      console.log('usage: npm start [-- [--port N] [FOLDER]]   (FOLDER defaults to demo/)');
+      process.exit(0);
+    } else out.folder = resolve(argv[i]);
+  }
+  if (!Number.isInteger(out.port) || out.port < 0 || out.port > 65535) throw new Error(`--port wants a port number, not ${out.port}`);
+  if (!existsSync(out.folder) || !statSync(out.folder).isDirectory()) throw new Error(`${out.folder} is not a folder`);
+  return out;
+}
+
+function step(title, command, args) {
+  console.log(`== ${title}`);
+  const r = spawnSync(command, args, { cwd: host.ROOT, stdio: 'inherit' });
+  if (r.status !== 0) throw new Error(`${title} failed (exit ${r.status ?? r.signal})`);
+}
+
+async function main() {
+  const args = parseArgs(process.argv.slice(2));
+  step('build', process.execPath, ['scripts/build.mjs']);
+  const vsix = join(host.ROOT, 'out', 'start', 'boltzmark.vsix');
+  step('package', process.execPath, ['scripts/package.mjs', '--out', vsix]);
+  console.log('== editor host');
+  host.ensureHost();
+
+  const run = host.makeRun('boltzmark-start-');
+  let server = null;
+  let stopping = false;
+  const stop = async (code) => {
+    if (stopping) return;
+    stopping = true;
+    console.log('\n== stopping');
+    await server?.stop();
+    run.remove();
+    process.exit(code);
+  };
+  process.on('SIGINT', () => void stop(0));
+  process.on('SIGTERM', () => void stop(0));
+  try {
+    host.writeUserSettings(run, { 'workbench.startupEditor': 'readme' });
+    const installed = host.installVsix(run, vsix);
+    console.log(`== installed ${installed.split('/').pop()}`);
+    server = await host.startServer(run, { workspace: args.folder, port: args.port });
+    server.child.on('exit', (code, signal) => {
+      if (stopping) return;
+      console.error(`the editor host stopped (${code ?? signal}); its log: ${join(run.dir, 'server.log')}`);
+      void stop(1);
+    });
+    console.log(`\nBoltzmark demo in VS Code: ${server.open}\n(serving ${args.folder}; Ctrl-C stops)\n`);
+  } catch (err) {
+    console.error(String(err instanceof Error ? err.message : err));
+    const log = join(run.dir, 'server.log');
+    if (existsSync(log)) console.error(`---- server log ----\n${readFileSync(log, 'utf8').split('\n').slice(-30).join('\n')}`);
+    await stop(1);
+  }
+}
+
+main().catch((err) => {
+  console.error(String(err instanceof Error ? err.message : err));
+  process.exit(1);
+});

@@ -1,0 +1,14 @@
+/**
+ * The server's memory use, for the tests and benchmarks
+ * (`boltzmark/memory`): heap and resident set after a full garbage
+ * collection when the process was started with `--expose-gc`, as is.
+ */
+import type { MemoryStats } from './protocol';
+
+/** Current memory use, collected first when the collector is exposed. */
+export function memoryStats(): MemoryStats {
+  const gc = (globalThis as { gc?: () => void }).gc;
+  gc?.();
+  const m = process.memoryUsage();
+  return { heapUsed: m.heapUsed, rss: m.rss, collected: typeof gc === 'function' };
+}

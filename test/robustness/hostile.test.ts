@@ -1,0 +1,175 @@
+import { strict as assert } from 'node:assert';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { generateNote } from '../../bench/note';
+import { Analyzer, LineIndex, type BlockReport, type DocumentReport } from '../../src/core';
+import { SERVER_LIMITS } from '../../src/server/notes';
+import { AnalysisStatsRequest } from '../../src/server/protocol';
+import { startLsp } from '../protocol/lspClient';
+
+// Hostile input, one test each: nothing may throw, hang or take the editor
+// down, whatever a note contains. "Returns" means within the mocha timeout;
+// no test measures speed (that is for `npm run bench`).
+
+function analyse(text: string, analyzer = new Analyzer()): DocumentReport {
+  return analyzer.analyzeText(text);
+}
+
+function only(text: string): BlockReport {
+  const r = analyse(text);
+  assert.equal(r.blocks.length, 1, `${r.blocks.length} blocks`);
+  return r.blocks[0]!;
+}
+
+const codes = (b: BlockReport): string[] => b.problems.map((p) => p.code);
+const fenced = (body: string): string => `# note\n\n\`\`\`levels\n${body}\n\`\`\`\n`;
+const GOOD = ['id: cell-B run 7', 'system: 13C', 'field: 7.05 T', 'lattice: 1.4 K', 'polarization: 0.312 ± 0.010'];
+
+describe('robustness: hostile input', function () {
+  this.timeout(120000);
+
+  it('refuses a YAML alias bomb without expanding it', () => {
+    const letters = 'abcdefghijklmnopqrstu';
+    const lines = ['a: &a [x, x, x, x, x, x, x, x, x]'];
+    for (let i = 1; i < letters.length; i++) lines.push(`${letters[i]}: &${letters[i]} [${Array(9).fill(`*${letters[i - 1]}`).join(', ')}]`);
+    // Expanded, the last list would hold 9^21 ≈ 10^20 nodes.
+    const b = only(fenced(lines.join('\n')));
+    assert.equal(b.status, 'invalid');
+    assert.deepEqual(codes(b), ['alias-expansion']);
+  });
+
+  for (const [name, body] of [
+    ['flow sequences nested 10,000 deep', `levels: ${'['.repeat(10000)}${']'.repeat(10000)}`],
+    ['flow mappings nested 10,000 deep', `levels: ${'{a: '.repeat(10000)}1${'}'.repeat(10000)}`],
+    ['block mappings nested 10,000 deep', Array.from({ length: 10000 }, (_, i) => `${' '.repeat(i)}a:`).join('\n') + ' 1'],
+    ['a flow sequence opened 10,000 times and never closed', `levels: ${'['.repeat(10000)}`],
+  ] as const) {
+    it(`reads ${name} as an invalid block with a YAML error`, () => {
+      const b = only(fenced(body));
+      assert.equal(b.status, 'invalid');
+      assert.ok(b.problems.some((p) => p.severity === 'error'), codes(b).join(', '));
+    });
+  }
+
+  it('analyses a block of 100,000 levels completely when unbounded (the command line), back to the β it was made at', () => {
+    const beta = 1 / 5000;
+    const lines = ['id: huge', 'levels:'];
+    for (let i = 0; i < 100_000; i++) lines.push(`  - { energy: ${i} K, population: ${Math.exp(-beta * i)} }`);
+    const b = only(fenced(lines.join('\n')));
+    assert.equal(b.status, 'normal', codes(b).join(', '));
+    assert.equal(b.input?.levels.length, 100_000);
+    assert.ok(Math.abs(b.results!.beta!.value - beta) < 1e-9 * beta, String(b.results?.beta?.value));
+  });
+
+  it('does not read a block of 100,000 levels as the server does, and says why on the first line', () => {
+    const lines = ['levels:'];
+    for (let i = 0; i < 100_000; i++) lines.push(`  - { energy: ${i} K, population: 1 }`);
+    const text = fenced(lines.join('\n'));
+    const r = analyse(text, new Analyzer({ limits: SERVER_LIMITS }));
+    assert.equal(r.blocks.length, 0);
+    assert.deepEqual(r.bounded, { offset: text.indexOf('```'), line: 2, reason: 'size' });
+    assert.equal(r.problems.length, 1);
+    assert.equal(r.problems[0]!.code, 'note-bounded');
+    assert.deepEqual(r.problems[0]!.span, { start: 0, end: '# note'.length });
+    assert.match(r.problems[0]!.message, /line 3/);
+  });
+
+  it('reads binary garbage as a note without throwing', () => {
+    let seed = 12345;
+    const byte = (): number => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) >> 16) & 0xff;
+    const bytes = Buffer.from(Array.from({ length: 200_000 }, byte));
+    for (const text of [bytes.toString('latin1'), bytes.toString('utf8'), `\`\`\`levels\n${bytes.toString('latin1')}\n\`\`\`\n`, `\`\`\`levels\n${'\u0000'.repeat(1000)}\n\`\`\`\n`]) {
+      const r = analyse(text);
+      for (const b of r.blocks) for (const p of b.problems) assert.ok(p.span.start >= 0 && p.span.end <= text.length);
+    }
+  });
+
+  it('gives the same results and exact positions with CRLF, lone CR and mixed line endings', () => {
+    const lf = fenced([...GOOD, 'sample: x\nfrequency: 75.5 MHz', 'note: 9.4 MT'].join('\n'));
+    const bad = fenced(['system: 13C', 'field: 7.05 MT', 'polarisation: 0.3'].join('\n'));
+    for (const eol of ['\r\n', '\r', 'mixed'] as const) {
+      const convert = (t: string): string => (eol === 'mixed' ? t.split('\n').map((l, i, all) => l + (i === all.length - 1 ? '' : ['\r\n', '\n', '\r'][i % 3])).join('') : t.replace(/\n/g, eol));
+      for (const original of [lf, bad]) {
+        const want = only(original);
+        const text = convert(original);
+        const got = only(text);
+        assert.equal(got.status, want.status, `${JSON.stringify(eol)}: ${codes(got).join(', ')}`);
+        assert.equal(got.results?.beta?.value, want.results?.beta?.value);
+        assert.deepEqual(codes(got), codes(want));
+        // Every problem points at the same text, at the same line and column.
+        const [a, b] = [new LineIndex(original), new LineIndex(text)];
+        got.problems.forEach((p, i) => {
+          const q = want.problems[i]!;
+          assert.equal(text.slice(p.span.start, p.span.end).replace(/\r\n?/g, '\n'), original.slice(q.span.start, q.span.end), p.code);
+          assert.deepEqual(b.positionAt(p.span.start), a.positionAt(q.span.start), p.code);
+        });
+      }
+    }
+  });
+
+  it('reads a block right after a byte-order mark, with offsets that count the mark', () => {
+    const text = `\uFEFF\`\`\`levels\n${GOOD.join('\n')}\n\`\`\`\n`;
+    const b = only(text);
+    assert.equal(b.status, 'normal');
+    assert.equal(b.block.openStart, 1);
+    assert.equal(text.slice(b.toNote(b.meta.idSpan!).start, b.toNote(b.meta.idSpan!).end), 'cell-B run 7');
+  });
+
+  it('reports tabs used as YAML indentation, and reads tabs inside values and around a fence without throwing', () => {
+    const tabbed = only(fenced('levels:\n\t- { energy: 0 K, population: 0.7 }\n\t- { energy: 1 K, population: 0.3 }'));
+    assert.equal(tabbed.status, 'invalid');
+    assert.ok(codes(tabbed).some((c) => c.startsWith('yaml-')), codes(tabbed).join(', '));
+    const inValues = only(fenced('gap:\t1 K\npopulations: [0.7,\t0.3]'));
+    assert.equal(inValues.status, 'normal', codes(inValues).join(', '));
+    // A tab before the fence indents it by four columns: indented code, not a fence (CommonMark §4.4).
+    assert.equal(analyse('\t```levels\ngap: 1 K\n\t```\n').blocks.length, 0);
+  });
+
+  it('reports a note of bytes that are not UTF-8 from the command line, without failing', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'boltzmark-hostile-'));
+    try {
+      // Latin-1: 0xB1 is ±, 0xB5 is µ; read as UTF-8 they become U+FFFD.
+      const file = join(dir, 'latin1.md');
+      writeFileSync(file, Buffer.concat([Buffer.from('```levels\ngap: 1 K\npopulations: [0.7 '), Buffer.from([0xb1]), Buffer.from(' 0.01, 0.3]\nlattice: 5 '), Buffer.from([0xb5]), Buffer.from('K\n```\n')]));
+      const r = spawnSync(process.execPath, ['dist/cli.js', 'check', file], { encoding: 'utf8' });
+      assert.equal(r.status, 1, r.stderr);
+      assert.match(r.stdout, /latin1\.md:3:\d+: error/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('keeps the language server responsive on a 50 MB note: it reads up to its bound and says so', async () => {
+    const text = generateNote({ blocks: 100_000 });
+    assert.ok(text.length > 50e6, `${(text.length / 1e6).toFixed(1)} MB`);
+    const uri = 'file:///notes/fifty.md';
+    const s = await startLsp({ pull: true });
+    try {
+      await s.conn.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'markdown', version: 1, text } });
+      const d = (await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri } })) as { items: { code: string; range: { start: { line: number } }; message: string }[] };
+      const bounded = d.items.filter((x) => x.code === 'note-bounded');
+      assert.equal(bounded.length, 1);
+      assert.equal(bounded[0]!.range.start.line, 0);
+      const stats = await s.conn.sendRequest(AnalysisStatsRequest, { uri });
+      assert.equal(stats?.blocks, SERVER_LIMITS.maxBlocks);
+      // The message names the line of the first block not read: the 5,001st.
+      const lines = new LineIndex(text);
+      let at = -1;
+      for (let i = 0; i <= SERVER_LIMITS.maxBlocks; i++) at = text.indexOf('```levels', at + 1);
+      const firstUnread = lines.positionAt(at).line;
+      assert.match(bounded[0]!.message, new RegExp(`line ${firstUnread + 1}\\b`));
+      const hover = (line: number): Promise<unknown> => s.conn.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line, character: 1 } });
+      const lastRead = lines.positionAt(text.lastIndexOf('```levels', at - 1)).line;
+      assert.ok(await hover(lastRead + 1), 'the last block read has a hover');
+      assert.equal(await hover(firstUnread + 1), null, 'a block past the bound has none');
+      // An edit is taken and answered.
+      await s.conn.sendNotification('textDocument/didChange', { textDocument: { uri, version: 2 }, contentChanges: [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, text: 'x' }] });
+      assert.ok(await hover(lastRead + 1));
+      assert.equal((await s.conn.sendRequest(AnalysisStatsRequest, { uri }))?.version, 2);
+    } finally {
+      await s.close();
+    }
+  });
+});
