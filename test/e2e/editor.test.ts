@@ -12,6 +12,7 @@ import {
   focusEditor,
   frameWith,
   goToLine,
+  hintPlacement,
   hoverText,
   clickLensAbove,
   line,
@@ -77,12 +78,9 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     const fence = line(page, 'T = 5.61 mK · P = 31.2 % · ε = 241');
     await fence.waitFor({ timeout: 90000 });
     assert.ok(clean(await fence.innerText()).startsWith('```levels'), 'the results hint is on the opening fence line');
-    const hint = fence.locator('span:not(:has(span))', { hasText: 'T = 5.61 mK' }).first();
-    const hintBox = await hint.boundingBox();
-    const fenceBox = await fence.locator('span:not(:has(span))', { hasText: 'levels' }).first().boundingBox();
-    assert.ok(hintBox && fenceBox, 'the hint and the fence text are on screen');
-    assert.ok(hintBox.x >= fenceBox.x + fenceBox.width - 1, `the hint (x=${hintBox.x}) starts after the fence text (ends at ${fenceBox.x + fenceBox.width})`);
-    assert.ok(Math.abs(hintBox.y - fenceBox.y) < fenceBox.height, 'the hint is on the fence line');
+    const { hint, text } = await hintPlacement(fence, 'T = 5.61 mK', 'levels');
+    assert.ok(hint.x >= text.x + text.width - 1, `the hint (x=${hint.x}) starts after the fence text (ends at ${text.x + text.width})`);
+    assert.ok(Math.abs(hint.y - text.y) < text.height, `the hint (y=${hint.y}) is on the fence line (y=${text.y})`);
     // Hints are decorations: the note's text is still "```levels" alone on that line.
     assert.equal(clean(TEXT.split('\n')[FENCE_CELL_B - 1]), '```levels');
     await shot(page, '02-inlay-hints');

@@ -361,3 +361,20 @@ export async function waitAnimations(page: Page): Promise<void> {
     document.getAnimations().every((a: DomNode) => a.playState !== 'running' || a.effect?.getTiming().iterations === Infinity),
   );
 }
+
+/**
+ * Where, within one view line, the inlay hint starting with `hint` and the
+ * document text `text` are drawn: both measured in one look at the page, so
+ * a re-render between two measurements cannot mix two layouts.
+ */
+export async function hintPlacement(viewLine: Locator, hint: string, text: string): Promise<{ hint: Box; text: Box }> {
+  return viewLine.evaluate((el: DomNode, [h, t]: readonly [string, string]) => {
+    const leaves = Array.from<DomNode>(el.querySelectorAll('span')).filter((s) => s.querySelector('span') === null);
+    const hintEl = leaves.find((s) => String(s.textContent).replace(/\u00a0/g, ' ').startsWith(h));
+    const textEl = leaves.find((s) => String(s.textContent).includes(t));
+    if (!hintEl || !textEl) throw new Error(`line without ${hintEl ? t : h}: ${String(el.textContent)}`);
+    const a = hintEl.getBoundingClientRect();
+    const b = textEl.getBoundingClientRect();
+    return { hint: { x: a.x, y: a.y, width: a.width, height: a.height }, text: { x: b.x, y: b.y, width: b.width, height: b.height } };
+  }, [hint, text] as const);
+}
