@@ -2,8 +2,7 @@
  * `npm run bench`: every benchmark of issue 8, printed as one table with its
  * target and whether it holds, and written to bench/results.json. Speed is
  * measured here, never asserted in tests. Run after `npm run build` (the
- * script does it) with `--expose-gc`, so timed sections start from a
- * collected heap. `--repetitions N` changes the number of repetitions.
+ * script does it); `--repetitions N` changes the number of repetitions.
  *
  * Exit status 1 when a figure misses its target.
  */
@@ -13,7 +12,6 @@ import { dirname } from 'node:path';
 import { measureCore } from './core';
 import { measureCurves } from './curves';
 import { measureLsp } from './lsp';
-import { canCollect } from './stats';
 import { measureActivation, measureSizes, tempBundles } from './startup';
 
 /** One line of the table. */
@@ -39,7 +37,6 @@ function argument(name: string, fallback: number): number {
 const INSTANT_MS = 100;
 
 async function main(): Promise<number> {
-  if (!canCollect) console.warn('bench: run with node --expose-gc (npm run bench does) so each timed section starts from a collected heap');
   const reps = argument('--repetitions', 21);
   const figures: Figure[] = [];
   const log = (s: string): void => void process.stderr.write(`bench: ${s}\n`);

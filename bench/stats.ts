@@ -1,8 +1,4 @@
-/**
- * Timing helpers of the benchmarks: medians and percentiles of repeated
- * runs, and a collector run between timed sections so that one section's
- * garbage is not billed to the next.
- */
+/** Timing helpers of the benchmarks: medians and percentiles of repeated runs. */
 
 /** The q-quantile (0 ≤ q ≤ 1) of the values, by the nearest-rank method. */
 export function quantile(values: readonly number[], q: number): number {
@@ -27,19 +23,4 @@ export function timeOnce(fn: () => void): number {
   const start = now();
   fn();
   return now() - start;
-}
-
-const gc = (globalThis as { gc?: () => void }).gc;
-
-/** True when the process was started with `--expose-gc` (as `npm run bench` starts it). */
-export const canCollect = typeof gc === 'function';
-
-/** A full garbage collection, when exposed; otherwise nothing. */
-export function collect(): void {
-  gc?.();
-}
-
-/** Resolves after the given milliseconds (lets a child process settle). */
-export function sleep(ms: number): Promise<void> {
-  return new Promise((resolve) => setTimeout(resolve, ms));
 }

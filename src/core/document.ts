@@ -73,6 +73,8 @@ export interface DocumentReport {
 interface Cached {
   /** The body read, as stored in the cache. */
   readonly body: string;
+  /** The analysis that last used it (for evicting the least recently used). */
+  used: number;
   readonly meta: BlockMeta;
   readonly input: BlockInput | null;
   readonly results: BlockResults | null;
@@ -83,6 +85,8 @@ interface Cached {
 /** Reads and analyses notes, caching per block body. One per host is enough. */
 export class Analyzer {
   private readonly cache = new Map<string, Cached>();
+  /** Counts analyses, to date each cache entry's last use. */
+  private generation = 0;
   readonly options: AnalyzerOptions;
 
   constructor(options: Partial<AnalyzerOptions> = {}) {
@@ -102,6 +106,7 @@ export class Analyzer {
     let reused = 0;
     let bodyChars = 0;
     let bounded: Bounded | null = null;
+    const generation = ++this.generation;
     for (const block of scanFencedBlocks(text)) {
       if (!this.isLevelsFence(block)) continue;
       bodyChars += block.body.length;
@@ -112,9 +117,6 @@ export class Analyzer {
       let entry = this.cache.get(block.body);
       if (entry) {
         reused++;
-        // Refresh its place so the cache evicts the least recently used first (under the key it was stored with).
-        this.cache.delete(entry.body);
-        this.cache.set(entry.body, entry);
       } else {
         analysed++;
         // The body is a stretch of this version of the note; the cache keeps a copy of its own.
@@ -122,11 +124,19 @@ export class Analyzer {
         entry = this.analyseBody(body);
         this.cache.set(body, entry);
       }
+      entry.used = generation;
       blocks.push(report(block, entry));
     }
-    while (this.cache.size > this.options.cacheSize) this.cache.delete(this.cache.keys().next().value as string);
+    if (this.cache.size > this.options.cacheSize) this.evict();
     const problems = bounded ? [boundedProblem(text, bounded, this.options.limits)] : [];
     return { blocks, stats: { analysed, reused }, bounded, problems };
+  }
+
+  /** Drops the least recently used entries, down to nine tenths of the cache size, so that eviction stays rare. */
+  private evict(): void {
+    const keep = Math.floor(0.9 * this.options.cacheSize);
+    const byAge = [...this.cache.values()].sort((a, b) => a.used - b.used);
+    for (let i = 0; i < byAge.length - keep; i++) this.cache.delete(byAge[i]!.body);
   }
 
   /** Reads and analyses one block body; never throws (an internal failure becomes a problem). */
@@ -135,10 +145,10 @@ export class Analyzer {
       const interp = interpretBody(body);
       const results = interp.input ? analyse(interp.input, this.options) : null;
       const problems = [...interp.problems, ...(results?.problems ?? [])].sort((a, b) => a.span.start - b.span.start);
-      return { body, meta: interp.meta, input: interp.input, results, problems };
+      return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems };
     } catch (err) {
       const problem: Problem = { severity: 'error', code: 'internal-error', message: `Boltzmark failed on this block: ${(err as Error).message}. Please report it.`, span: { start: 0, end: Math.max(1, body.length) } };
-      return { body, meta: { id: null, idSpan: null, keys: new Map(), date: null }, input: null, results: null, problems: [problem] };
+      return { body, used: this.generation, meta: { id: null, idSpan: null, keys: new Map(), date: null }, input: null, results: null, problems: [problem] };
     }
   }
 
@@ -167,7 +177,7 @@ function report(block: FencedBlock, c: Cached): BlockReport {
     const end = Math.max(start, bodyToDocument(block, Math.max(from, Math.min(s.end, last))));
     return { start, end };
   };
-  const problems: Problem[] = c.problems.map((p) => ({
+  const problems: Problem[] = c.problems.length === 0 ? [] : c.problems.map((p) => ({
     ...p,
     span: toNote(p.span),
     ...(p.fixes ? { fixes: p.fixes.map((f) => ({ ...f, span: toNote(f.span) })) } : {}),

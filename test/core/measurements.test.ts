@@ -135,6 +135,19 @@ describe('time series', () => {
     assert.ok(ours.timeConstant.uncertainty! > 0 && ours.timeConstant.uncertainty! < 0.1 * T1);
   });
 
+  it('weights each point by 1/σ² when the points carry uncertainties, as an independent χ² minimisation does', () => {
+    // Weighted least squares minimises χ² = Σ((S_i − f_i)/σ_i)² (Bevington & Robinson, ch. 6, from memory).
+    // Unequal σ and deterministic scatter, so the weighting decides where the minimum lies.
+    const s = times.map((t, i) => 1.5 * Math.exp(-t / T1) + 0.03 * Math.sin(2.3 * i + 0.5));
+    const sigma = times.map((_, i) => 0.005 * (1 + i * i));
+    const ours = fitDecay(times, s, null, sigma)!;
+    const chi2 = ([a, k]: number[]) => s.reduce((acc, v, i) => acc + ((v - a * Math.exp(-times[i] / k)) / sigma[i]) ** 2, 0);
+    const theirs = nelderMead(chi2, [1, 10], { maxIterations: 20000, minErrorDelta: 1e-16, minTolerance: 1e-12 });
+    close(ours.timeConstant.value, theirs.x[1], 1e-5, 'T₁ (weighted LM vs Nelder–Mead on χ²)');
+    close(ours.amplitude.value, theirs.x[0], 1e-5, 'S₀');
+    close(ours.chi2, theirs.fx, 1e-6, 'χ² at the minimum');
+  });
+
   it('fits a build-up S∞(1 − e^(−t/τ)) + S₀', () => {
     const t = [0, 30, 60, 120, 240, 480, 960, 1920];
     const s = t.map((v) => 0.9 * (1 - Math.exp(-v / 400)) + 0.02);

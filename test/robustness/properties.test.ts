@@ -60,6 +60,27 @@ describe('robustness: properties of the readers and the analysis', function () {
     );
   });
 
+  it('indexes lines as CommonMark and LSP count them: \\n, \\r\\n and a lone \\r each end one', () => {
+    const text = fc.array(fc.constantFrom('a', 'xyz', '\n', '\r', '\r\n', '\u2028', ''), { maxLength: 40 }).map((parts) => parts.join(''));
+    fc.assert(
+      fc.property(text, (t) => {
+        // Reference: walk the characters one by one.
+        const starts = [0];
+        for (let i = 0; i < t.length; i++) {
+          if (t[i] === '\r' && t[i + 1] === '\n') i++;
+          if (t[i] === '\r' || t[i] === '\n') starts.push(i + 1);
+        }
+        const lines = new LineIndex(t);
+        assert.equal(lines.lineCount, starts.length);
+        for (let line = 0; line < starts.length; line++) {
+          assert.equal(lines.lineStart(line), starts[line]);
+          assert.deepEqual(lines.positionAt(starts[line]!), { line, character: 0 });
+        }
+      }),
+      runs(2000),
+    );
+  });
+
   it('reads any YAML body without throwing: problems inside the body with registered codes, input only without errors', () => {
     fc.assert(
       fc.property(yamlBody, (body) => {

@@ -55,7 +55,7 @@ export function interpretBody(body: string): Interpretation {
   const problems: Problem[] = [];
   const emptyMeta: BlockMeta = { id: null, idSpan: null, keys: new Map(), date: null };
   const firstLine: Span = { start: 0, end: Math.max(1, body.search(/\r|\n|$/)) };
-  if (body.trim() === '') {
+  if (!/\S/.test(body)) {
     problems.push({ severity: 'error', code: 'block-empty', message: 'The block is empty: describe the levels with `levels:`, `system:` + `field:`, or `gap:`.', span: firstLine });
     return { meta: emptyMeta, input: null, problems };
   }
@@ -160,8 +160,9 @@ function readForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: Blo
 /** Warns about keys of another form (`detector` in a spin block, `signal` with explicit levels…); they are ignored. */
 function misplacedKeys(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: BlockForm): void {
   for (const doc of BLOCK_KEYS) {
+    if (doc.form === 'any' || doc.form === form) continue;
     const e = byKey.get(doc.key);
-    if (!e || doc.form === 'any' || doc.form === form) continue;
+    if (!e) continue;
     // `populations` and `g` belong to both the spin and transition readers; FORM_KEYS themselves are reported as conflicts.
     if (FORM_KEYS.some(([k]) => k === doc.key)) continue;
     report(ctx, 'warning', 'key-not-for-form', `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form]}; it is ignored in ${FORM_NAMES[form]}.`, e.keySpan);

@@ -98,10 +98,17 @@ interface Solved {
 function solve(x: number[], y: number[], f: Model, jac: (p: readonly number[], i: number) => number[], initial: number[], sigma: number[] | null): Solved | null {
   if (!initial.every(Number.isFinite)) return null;
   const index = x.map((_, i) => i);
+  // Weighted least squares is run as plain least squares of y/σ against f/σ. The package's own
+  // `weights` are left at 1: in its 4.x releases the error sum weights a point by w² while the
+  // step's normal equations weight it by 1/w², so no choice of w gives the 1/σ² of both. The σ are
+  // taken relative to the smallest (the minimum does not move), so that the package's absolute
+  // damping meets a problem of the same scale as an unweighted one.
+  const least = sigma ? Math.min(...sigma) : 1;
+  const w = (i: number): number => (sigma ? sigma[i] / least : 1);
+  const scaled = y.map((v, i) => v / w(i));
   const run = (start: number[], iterations: number) =>
-    levenbergMarquardt({ x: index, y }, (q: number[]) => (i: number) => f(q, i), {
+    levenbergMarquardt({ x: index, y: scaled }, (q: number[]) => (i: number) => f(q, i) / w(i), {
       initialValues: start,
-      weights: sigma ? sigma.map((u) => 1 / (u * u)) : 1,
       damping: 1e-3,
       gradientDifference: 1e-6,
       centralDifference: true,

@@ -43,7 +43,13 @@ export interface FencedBlock {
   readonly blockEnd: number;
   /** The content as CommonMark defines it (indentation stripped), lines joined by their own breaks. */
   readonly body: string;
-  /** Mapping of body offsets back to the note, one entry per run of equally shifted lines; empty for an empty body. */
+  /** Note offset of the first body line (where the body starts when the fence is at the left margin). */
+  readonly bodyStart: number;
+  /**
+   * Mapping of body offsets back to the note for an indented fence, one entry per run of
+   * equally shifted lines. Empty at the left margin, where the body is one stretch of the note
+   * from `bodyStart`, and for an empty body.
+   */
   readonly lines: readonly BodyLine[];
   /** 0-based line of the first body line. */
   readonly bodyLine: number;
@@ -71,7 +77,8 @@ function openingFence(text: string, start: number, end: number): Fence | null {
   while (j < end && text.charCodeAt(j) === ch) j++;
   const length = j - i;
   if (length < 3) return null;
-  const info = text.slice(j, end).trim();
+  // The usual info string is kept as the constant, not as a new slice of the note.
+  const info = end - j === 6 && text.startsWith('levels', j) ? 'levels' : text.slice(j, end).trim();
   if (ch === BACKTICK && info.includes('`')) return null;
   return { char: ch, length, indent, info };
 }
@@ -128,11 +135,13 @@ export function* scanFencedBlocks(text: string): Generator<FencedBlock, void, un
       let strip = 0;
       while (strip < open.fence.indent && text.charCodeAt(pos + strip) === SPACE) strip++;
       const lineEnd = Math.min(next, text.length);
-      const last = open.lines[open.lines.length - 1];
-      if (!last || last.docStart + last.stripped - last.bodyStart !== pos + strip - open.bodyLen) {
-        open.lines.push({ docStart: pos, bodyStart: open.bodyLen, stripped: strip });
+      if (open.parts) {
+        const last = open.lines[open.lines.length - 1];
+        if (!last || last.docStart + last.stripped - last.bodyStart !== pos + strip - open.bodyLen) {
+          open.lines.push({ docStart: pos, bodyStart: open.bodyLen, stripped: strip });
+        }
+        open.parts.push(text.slice(pos + strip, lineEnd));
       }
-      open.parts?.push(text.slice(pos + strip, lineEnd));
       open.bodyLen += lineEnd - pos - strip;
     }
     pos = next;
@@ -156,15 +165,17 @@ interface Open {
 }
 
 function finish(text: string, open: Open, closeLine: number | null, bodyTo: number, blockEnd: number): FencedBlock {
+  const info = open.fence.info;
   return {
-    info: open.fence.info,
-    language: open.fence.info.split(/\s+/, 1)[0] ?? '',
+    info,
+    language: info === 'levels' ? info : (info.split(/\s+/, 1)[0] ?? ''),
     openLine: open.openLine,
     closeLine,
     openStart: open.openStart,
     openEnd: open.openEnd,
     blockEnd,
     body: open.parts ? open.parts.join('') : text.slice(Math.min(open.bodyFrom, bodyTo), bodyTo),
+    bodyStart: open.bodyFrom,
     lines: open.lines,
     bodyLine: open.openLine + 1,
   };
@@ -175,8 +186,9 @@ function finish(text: string, open: Open, closeLine: number | null, bodyTo: numb
  * Binary search over the body lines; exact also for indented fences.
  */
 export function bodyToDocument(block: FencedBlock, bodyOffset: number): number {
+  if (block.body.length === 0) return block.openEnd;
   const lines = block.lines;
-  if (lines.length === 0) return block.openEnd;
+  if (lines.length === 0) return block.bodyStart + bodyOffset;
   let lo = 0;
   let hi = lines.length - 1;
   while (lo < hi) {

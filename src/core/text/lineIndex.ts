@@ -16,14 +16,20 @@ export class LineIndex {
 
   constructor(readonly text: string) {
     const starts = [0];
-    for (let i = 0; i < text.length; i++) {
-      const c = text.charCodeAt(i);
-      if (c === 13 /* \r */) {
-        if (text.charCodeAt(i + 1) === 10) i++;
-        starts.push(i + 1);
-      } else if (c === 10 /* \n */) {
-        starts.push(i + 1);
+    // Jumps from break to break with indexOf (native search) rather than visiting every character;
+    // the next \r is remembered, so a note without any costs one search for it.
+    let nextLf = text.indexOf('\n');
+    let nextCr = text.indexOf('\r');
+    while (nextLf !== -1 || nextCr !== -1) {
+      let end: number;
+      if (nextCr !== -1 && (nextLf === -1 || nextCr < nextLf)) {
+        end = text.charCodeAt(nextCr + 1) === 10 ? nextCr + 2 : nextCr + 1; // \r\n or a lone \r
+      } else {
+        end = nextLf + 1;
       }
+      starts.push(end);
+      if (nextLf !== -1 && nextLf < end) nextLf = text.indexOf('\n', end);
+      if (nextCr !== -1 && nextCr < end) nextCr = text.indexOf('\r', end);
     }
     this.starts = starts;
   }
