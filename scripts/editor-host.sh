@@ -61,9 +61,8 @@ if [ "$MODE" = check ]; then
 fi
 if [ "$MODE" = install ] && ready; then echo "editor-host: ready ($HOST)"; exit 0; fi
 
-mkdir -p "$HOST"
 LOGS=$HOST/logs
-mkdir -p "$LOGS"
+mkdir -p "$LOGS" 2>/dev/null || { echo "editor-host: cannot create the folder $HOST" >&2; exit 1; }
 # One installer at a time (npm start and the e2e suite may both call this).
 exec 9>"$HOST/.lock"
 flock 9

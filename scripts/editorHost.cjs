@@ -29,13 +29,19 @@ function entryScript() {
 
 /**
  * Installs the host when it is missing (a fraction of a second when it is
- * there). Throws with the installer's own message when it cannot.
+ * there); the installer's progress and errors go to this process's output.
+ * Throws when it cannot install.
  */
 function ensureHost({ echo = true } = {}) {
-  const r = spawnSync('bash', [path.join(ROOT, 'scripts', 'editor-host.sh')], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
-  if (echo && r.stdout) process.stdout.write(r.stdout);
+  const script = path.join(ROOT, 'scripts', 'editor-host.sh');
+  const check = spawnSync('bash', [script, '--check'], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
+  if (check.status === 0) {
+    if (echo) process.stdout.write(check.stdout);
+    return;
+  }
+  const r = spawnSync('bash', [script], { stdio: ['ignore', 'inherit', 'inherit'] });
   if (r.status !== 0) {
-    throw new Error(`the editor host could not be installed (scripts/editor-host.sh exited ${r.status ?? r.signal}):\n${r.stderr || r.stdout}`);
+    throw new Error(`the editor host could not be installed: scripts/editor-host.sh exited ${r.status ?? r.signal} (its message is above; logs in ${path.join(hostDir(), 'logs')})`);
   }
 }
 
