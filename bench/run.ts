@@ -87,7 +87,7 @@ async function main(): Promise<number> {
       figures.push({
         figure: `Bundle size, ${s.name} (${s.entry}, minified)`,
         value: s.kb === null ? 'not built (entry point missing)' : `${f(s.kb)} KB`,
-        target: s.limitKb === null ? '—' : `≤ ${s.limitKb} KB`,
+        target: s.limitKb === null ? '—' : s.limitNote ? `≤ ${s.limitNote} (${f(s.limitKb)} KB)` : `≤ ${s.limitKb} KB`,
         holds: s.limitKb === null ? null : s.kb !== null && s.kb <= s.limitKb,
         data: { kb: s.kb, limitKb: s.limitKb },
       });

@@ -6,12 +6,13 @@
 import * as vscode from 'vscode';
 import { LanguageClient, TransportKind, type LanguageClientOptions, type ServerOptions } from 'vscode-languageclient/node';
 import type MarkdownIt from 'markdown-it';
-import { DEFAULT_DISPLAY, type DisplayOptions } from '../core';
+import type { DisplayOptions } from '../core';
+import { DEFAULT_DISPLAY } from '../core/summary';
 import { fromSection } from '../server/settings';
 import { registerCommands } from './commands';
 import { followCursor } from './curveFollow';
 import { registerCurveSerializer } from './curveSerializer';
-import { levelsPreview } from './preview';
+import { notebook } from './lazy';
 import { registerRunLog } from './runLogView';
 
 let client: LanguageClient | undefined;
@@ -23,7 +24,7 @@ export interface BoltzmarkApi {
 
 /** Activates on the first Markdown document (or one of the commands or views). */
 export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
-  const api: BoltzmarkApi = { extendMarkdownIt: (md) => levelsPreview(md, { infoStrings: previewInfoStrings, display: previewDisplay }) };
+  const api: BoltzmarkApi = { extendMarkdownIt: (md) => notebook().levelsPreview(md, { infoStrings: previewInfoStrings, display: previewDisplay }) };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
   context.subscriptions.push(log);
   try {

@@ -6,7 +6,9 @@
  * note (debounced), and unsaved edits of open notes are followed the same way.
  */
 import * as vscode from 'vscode';
-import { RunLog, runLogCsv, STATUSES, type RunEntry, type RunGroup, type Status } from '../core';
+import type { RunEntry, RunGroup, RunLog } from '../core';
+import { STATUSES, type Status } from '../core/types';
+import { notebook } from './lazy';
 
 const MAX_FILES = 2000;
 const MAX_BYTES = 5 * 1024 * 1024;
@@ -16,11 +18,17 @@ type Node = { kind: 'group'; group: RunGroup } | { kind: 'run'; entry: RunEntry 
 
 /** Tree data for the run log. */
 class RunLogTree implements vscode.TreeDataProvider<Node> {
-  readonly log = new RunLog();
+  private model: RunLog | undefined;
   by: 'file' | 'date' = 'file';
   statuses: Status[] | null = null;
   private readonly changed = new vscode.EventEmitter<void>();
   readonly onDidChangeTreeData = this.changed.event;
+
+  /** The run log's model, created (and the note reader loaded) when the view first needs it. */
+  get log(): RunLog {
+    this.model ??= new (notebook().RunLog)();
+    return this.model;
+  }
 
   refresh(): void {
     this.changed.fire();
@@ -124,7 +132,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
       await start();
       const target = await vscode.window.showSaveDialog({ filters: { CSV: ['csv'] }, defaultUri: vscode.workspace.workspaceFolders?.[0] ? vscode.Uri.joinPath(vscode.workspace.workspaceFolders[0].uri, 'levels-runs.csv') : undefined });
       if (!target) return;
-      await vscode.workspace.fs.writeFile(target, new TextEncoder().encode(runLogCsv(tree.log.entries(tree.statuses))));
+      await vscode.workspace.fs.writeFile(target, new TextEncoder().encode(notebook().runLogCsv(tree.log.entries(tree.statuses))));
       void vscode.window.showInformationMessage(`Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`);
     }),
   );
