@@ -1,12 +1,13 @@
 /**
  * Theme variables the curve-view tests give the page, as VS Code would set
- * them on <html>. Values as in VS Code's "Light Modern" and "Dark Modern"
- * themes (from memory); the tests read their expected colours from here.
+ * them on <html>. Values as in VS Code's "Light Modern", "Dark Modern",
+ * "Dark High Contrast" and "Light High Contrast" themes (from memory); the
+ * tests read their expected colours from here.
  */
 
 /** A theme: the body class VS Code sets and the CSS variables. */
 export interface TestTheme {
-  readonly name: 'light' | 'dark';
+  readonly name: 'light' | 'dark' | 'high-contrast' | 'high-contrast-light';
   readonly bodyClass: string;
   readonly vars: Readonly<Record<string, string>>;
 }
@@ -94,6 +95,76 @@ export const DARK: TestTheme = {
   },
 };
 
+/** Dark High Contrast–like colours: black ground, white text, cyan borders (from memory). */
+export const HIGH_CONTRAST: TestTheme = {
+  name: 'high-contrast',
+  bodyClass: 'vscode-high-contrast',
+  vars: {
+    ...common,
+    '--vscode-foreground': '#ffffff',
+    '--vscode-editor-foreground': '#ffffff',
+    '--vscode-editor-background': '#000000',
+    '--vscode-descriptionForeground': '#ffffff',
+    '--vscode-contrastBorder': '#6fc3df',
+    '--vscode-panel-border': '#6fc3df',
+    '--vscode-focusBorder': '#f38518',
+    '--vscode-errorForeground': '#f48771',
+    '--vscode-charts-blue': '#3794ff',
+    '--vscode-charts-red': '#f48771',
+    '--vscode-charts-green': '#89d185',
+    '--vscode-charts-orange': '#ff8c00',
+    '--vscode-charts-purple': '#b180d7',
+    '--vscode-charts-yellow': '#ffd700',
+    '--vscode-button-background': '#000000',
+    '--vscode-button-foreground': '#ffffff',
+    '--vscode-button-border': '#6fc3df',
+    '--vscode-button-secondaryBackground': '#000000',
+    '--vscode-button-secondaryForeground': '#ffffff',
+    '--vscode-settings-dropdownBackground': '#000000',
+    '--vscode-settings-dropdownBorder': '#6fc3df',
+    '--vscode-settings-dropdownForeground': '#ffffff',
+    '--vscode-settings-dropdownListBorder': '#6fc3df',
+    '--vscode-textPreformat-foreground': '#ffffff',
+    '--vscode-inputValidation-errorBackground': '#000000',
+    '--vscode-inputValidation-errorBorder': '#f48771',
+  },
+};
+
+/** Light High Contrast–like colours: white ground, near-black text, dark blue borders (from memory). */
+export const HIGH_CONTRAST_LIGHT: TestTheme = {
+  name: 'high-contrast-light',
+  bodyClass: 'vscode-high-contrast-light',
+  vars: {
+    ...common,
+    '--vscode-foreground': '#292929',
+    '--vscode-editor-foreground': '#292929',
+    '--vscode-editor-background': '#ffffff',
+    '--vscode-descriptionForeground': '#292929',
+    '--vscode-contrastBorder': '#0f4a85',
+    '--vscode-panel-border': '#0f4a85',
+    '--vscode-focusBorder': '#006bbd',
+    '--vscode-errorForeground': '#b5200d',
+    '--vscode-charts-blue': '#0f4a85',
+    '--vscode-charts-red': '#b5200d',
+    '--vscode-charts-green': '#374e06',
+    '--vscode-charts-orange': '#b85600',
+    '--vscode-charts-purple': '#5d1d8a',
+    '--vscode-charts-yellow': '#895503',
+    '--vscode-button-background': '#0f4a85',
+    '--vscode-button-foreground': '#ffffff',
+    '--vscode-button-border': '#0f4a85',
+    '--vscode-button-secondaryBackground': '#ffffff',
+    '--vscode-button-secondaryForeground': '#292929',
+    '--vscode-settings-dropdownBackground': '#ffffff',
+    '--vscode-settings-dropdownBorder': '#0f4a85',
+    '--vscode-settings-dropdownForeground': '#292929',
+    '--vscode-settings-dropdownListBorder': '#0f4a85',
+    '--vscode-textPreformat-foreground': '#292929',
+    '--vscode-inputValidation-errorBackground': '#ffffff',
+    '--vscode-inputValidation-errorBorder': '#b5200d',
+  },
+};
+
 /** An sRGB colour as [r, g, b] from `#rrggbb`. */
 export function rgb(hex: string): [number, number, number] {
   const n = Number.parseInt(hex.slice(1), 16);
@@ -105,4 +176,19 @@ export function blend(top: string, bottom: string, alpha: number): [number, numb
   const t = rgb(top);
   const b = rgb(bottom);
   return [0, 1, 2].map((i) => Math.round(alpha * t[i]! + (1 - alpha) * b[i]!)) as [number, number, number];
+}
+
+/** WCAG 2.x relative luminance of an sRGB colour (https://www.w3.org/TR/WCAG21/#dfn-relative-luminance). */
+export function luminance([r, g, b]: readonly [number, number, number]): number {
+  const lin = (c: number): number => {
+    const s = c / 255;
+    return s <= 0.04045 ? s / 12.92 : ((s + 0.055) / 1.055) ** 2.4;
+  };
+  return 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(b);
+}
+
+/** WCAG 2.x contrast ratio of two colours, from 1 to 21 (https://www.w3.org/TR/WCAG21/#dfn-contrast-ratio). */
+export function contrastRatio(a: readonly [number, number, number], b: readonly [number, number, number]): number {
+  const [hi, lo] = [luminance(a), luminance(b)].sort((x, y) => y - x) as [number, number];
+  return (hi + 0.05) / (lo + 0.05);
 }
