@@ -4,8 +4,7 @@
  * dS/dE = β still holds on screen), axis ranges, error bars, the deficit gap
  * and the inversion region. Pure: no DOM, no chart.js.
  */
-import type { CurvePayload, DisplayUnit } from '../../src/core/view/payload';
-import type { EnergyAxisUnit, PinnedRun } from '../../src/core/view/messages';
+import type { CurvePayload, DisplayUnit, EnergyAxisUnit, PinnedRun } from '../../src/core/light';
 import { shortNumber, shortTemperature } from './numbers';
 import type { Palette } from './theme';
 

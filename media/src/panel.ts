@@ -3,8 +3,7 @@
  * notes, the first error of an invalid block, and the list of pinned runs.
  * Every string from a note is set with `textContent`, never parsed as HTML.
  */
-import type { PinnedRun } from '../../src/core/view/messages';
-import type { CurvePayload, ProblemPayload } from '../../src/core/view/payload';
+import type { CurvePayload, PinnedRun, ProblemPayload } from '../../src/core/light';
 
 function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, className?: string): HTMLElementTagNameMap[K] {
   const e = document.createElement(tag);

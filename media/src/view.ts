@@ -8,12 +8,11 @@
  * `body[data-state]` is `chart`, `problem` or `empty`, and each canvas
  * (`#entropy-chart`, `#beta-chart`) carries its plot area and axis ranges.
  *
- * The page imports the core's message and payload modules directly
- * (src/core/view/messages.ts, payload.ts) rather than src/core/index.ts: they
- * depend on nothing else, so the bundle stays free of the YAML reader and the
- * analysis it never runs.
+ * The page imports the core through src/core/light.ts rather than
+ * src/core/index.ts: that part depends on no package, so the bundle stays
+ * free of the YAML reader and the analysis it never runs.
  */
-import type { EnergyAxisUnit, RenderMessage } from '../../src/core/view/messages';
+import type { EnergyAxisUnit, RenderMessage } from '../../src/core/light';
 import { CurveCharts } from './charts';
 import { wireControls } from './controls';
 import { composePng } from './exportImage';

@@ -8,8 +8,7 @@
  */
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
-import type { CurvePayload, ViewPayload } from '../core';
-import { isViewState, isViewToHost, type PinnedRun, type ViewToHost } from '../core/view/messages';
+import { isViewState, isViewToHost, type CurvePayload, type PinnedRun, type ViewPayload, type ViewToHost } from '../core/light';
 import { CurveDataRequest } from '../server/protocol';
 import { copyImageLink, saveCsv, savePng } from './curveExport';
 import { newNonce, viewHtml } from './viewHtml';

@@ -6,8 +6,7 @@
 import * as vscode from 'vscode';
 import { LanguageClient, TransportKind, type LanguageClientOptions, type ServerOptions } from 'vscode-languageclient/node';
 import type MarkdownIt from 'markdown-it';
-import type { DisplayOptions } from '../core';
-import { DEFAULT_DISPLAY } from '../core/summary';
+import { DEFAULT_DISPLAY, type DisplayOptions } from '../core/light';
 import { fromSection } from '../server/settings';
 import { registerCommands } from './commands';
 import { followCursor } from './curveFollow';

@@ -7,7 +7,7 @@
  */
 import * as vscode from 'vscode';
 import type { RunEntry, RunGroup, RunLog } from '../core';
-import { STATUSES, type Status } from '../core/types';
+import { STATUSES, type Status } from '../core/light';
 import { notebook } from './lazy';
 
 const MAX_FILES = 2000;

@@ -1,0 +1,16 @@
+/**
+ * The part of the core's public API that pulls in no package at all: the
+ * curve view's messages and payload types with their validators, the status
+ * words and the display defaults. Hosts whose bundle size matters import
+ * from here: the extension's activation bundle (which must not carry the
+ * YAML reader and the fits) and the curve view's page. Everything else
+ * imports from `index.ts`, which re-exports all of this too.
+ *
+ * `npm run lint` checks that nothing reachable from this file imports a
+ * package, so the promise above cannot quietly break.
+ */
+export { STATUSES, type Status } from './types';
+export { DEFAULT_DISPLAY, type DisplayOptions } from './summary';
+export { ENERGY_AXIS_UNITS, isHostToView, isRenderMessage, isViewState, isViewToHost, MAX_DATA_URL, type CopyImageLinkMessage, type EnergyAxisUnit, type ExportCsvMessage, type ExportPngMessage, type HostToView, type PinMessage, type PinnedRun, type ReadyMessage, type RenderMessage, type UnpinMessage, type ViewState, type ViewToHost } from './view/messages';
+export { isCurvePayload, isProblemPayload, isViewPayload } from './view/payloadCheck';
+export type { CurveColumns, CurvePayload, DisplayUnit, Fact, FiniteNColumns, MeasuredPoint, MeasurementPlot, PayloadSource, PlotPoint, ProblemPayload, ThermalMarker, ViewPayload } from './view/payload';
