@@ -3,6 +3,8 @@ import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
+import { curveExportSteps } from './curveExports.steps';
+import { runLogSteps } from './runLog.steps';
 import { noteBytes, shot, startSession, type Session } from './session';
 import {
   activeTabDirty,
@@ -202,6 +204,9 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     await shot(page, '12-curve-view-follows');
   });
 
+  // The view now shows the ⁷Li block: pin it, move on to cell-B, export, unpin (curveExports.steps.ts).
+  curveExportSteps(() => s, { note: NOTE, text: TEXT, pinned: 'Li inversion W-3', shown: { id: 'cell-B run 1', line: FENCE_CELL_B + 1 } });
+
   it('shows each block’s results table in the Markdown preview', async () => {
     await focusEditor(page);
     await runCommand(page, 'Markdown: Open Preview to the Side');
@@ -219,9 +224,17 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     await shot(page, '13-markdown-preview');
   });
 
-  it('leaves the note’s bytes on disk unchanged and sends nothing beyond 127.0.0.1', () => {
-    const { original, now } = noteBytes(s, NOTE);
-    assert.ok(original.equals(now), 'the demo note on disk was changed by the session');
+  // The run log in the Explorer, over every demo note (runLog.steps.ts).
+  runLogSteps(() => s);
+
+  it('leaves the notes’ bytes on disk unchanged and sends nothing beyond 127.0.0.1', () => {
+    const notes = readdirSync(join(host.ROOT, 'demo'));
+    assert.ok(notes.includes(NOTE));
+    for (const name of notes) {
+      const { original, now } = noteBytes(s, name);
+      assert.ok(original.equals(now), `the demo note ${name} on disk was changed by the session`);
+    }
+    assert.deepEqual(readdirSync(s.workspace).filter((f) => f.endsWith('.md')).sort(), notes.filter((f) => f.endsWith('.md')).sort(), 'no note was added or left behind');
     assert.deepEqual(s.external, [], 'requests beyond 127.0.0.1');
   });
 });

@@ -107,6 +107,18 @@ export function noteBytes(session: Session, name: string): { original: Buffer; n
   return { original: readFileSync(join(host.ROOT, 'demo', name)), now: readFileSync(join(session.workspace, name)) };
 }
 
+/**
+ * A folder inside the served workspace for what the steps save through the
+ * editor's dialogs (exports, CSV files): inside, so the dialog can reach it;
+ * apart from the notes, so no note is touched. The session's copy of demo/
+ * and this folder go when the session closes.
+ */
+export function scratchFolder(session: Session): string {
+  const dir = join(session.workspace, 'e2e-output');
+  mkdirSync(dir, { recursive: true });
+  return dir;
+}
+
 /** Saves a screenshot of the whole page under test-output/e2e/. */
 export async function shot(page: Page, name: string): Promise<string> {
   mkdirSync(OUTPUT, { recursive: true });
