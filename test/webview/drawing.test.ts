@@ -1,8 +1,6 @@
 import { strict as assert } from 'node:assert';
-import type { Server } from 'node:http';
-import type { Browser } from 'playwright-core';
 import type { CurvePayload } from '../../src/core';
-import { launch, openView, startServer, type ViewPage } from './harness';
+import { openView, usePageServer, type ViewPage } from './harness';
 import { curveOf, FINITE_N, MULTI_LEVEL, render, TWO_LEVEL, TWO_LEVEL_INVERTED } from './payloads';
 import { geometry, near, pixelsAround, toPixel, type ChartGeometry } from './pixels';
 import { blend, LIGHT, rgb } from './themes';
@@ -10,9 +8,7 @@ import { blend, LIGHT, rgb } from './themes';
 // The curve view's page in headless Chromium: what it draws, checked in its pixels.
 describe('curve view drawing (headless Chromium)', function () {
   this.timeout(60000);
-  let browser: Browser;
-  let server: Server;
-  let origin: string;
+  const pages = usePageServer();
   let view: ViewPage;
   let draws = 0;
 
@@ -33,13 +29,7 @@ describe('curve view drawing (headless Chromium)', function () {
   }
 
   before(async () => {
-    ({ server, origin } = await startServer());
-    browser = await launch();
-    view = await openView(browser, origin, LIGHT);
-  });
-  after(async () => {
-    await browser?.close();
-    server?.close();
+    view = await openView(pages.browser, pages.origin, LIGHT);
   });
 
   it('draws a two-level scheme with the curve colour along S(E) and β(E), and not away from them', async () => {

@@ -103,3 +103,34 @@ export async function openView(browser: Browser, origin: string, theme: TestThem
     posted: () => page.evaluate(() => window.__test.posted),
   };
 }
+
+/** What a suite gets from {@link usePageServer}, filled in by the `before` hook it registers. */
+export interface PageServer {
+  browser: Browser;
+  origin: string;
+  /** The nonces of every page load so far. */
+  nonces: string[];
+}
+
+/**
+ * Starts the page server and Chromium before the calling suite's tests and
+ * stops both after them. Call it first in the `describe`, so its `before`
+ * runs before the suite's own.
+ */
+export function usePageServer(): PageServer {
+  const pages = {} as PageServer;
+  let server: Server | undefined;
+  before(async () => {
+    const started = await startServer();
+    server = started.server;
+    pages.origin = started.origin;
+    pages.nonces = started.nonces;
+    pages.browser = await launch();
+  });
+  after(async () => {
+    await pages.browser?.close();
+    server?.close();
+  });
+  return pages;
+}
+

@@ -1,8 +1,6 @@
 import { strict as assert } from 'node:assert';
 import { mkdirSync } from 'node:fs';
-import type { Server } from 'node:http';
-import type { Browser } from 'playwright-core';
-import { launch, openView, startServer } from './harness';
+import { openView, usePageServer } from './harness';
 import { curveOf, render, TWO_LEVEL } from './payloads';
 import { geometry, near, pixelsAround, toPixel, type Pixel } from './pixels';
 import { blend, contrastRatio, HIGH_CONTRAST, HIGH_CONTRAST_LIGHT, rgb } from './themes';
@@ -20,23 +18,15 @@ function nearest(px: readonly Pixel[], want: readonly [number, number, number], 
 // (SC 1.4.3), https://www.w3.org/TR/WCAG21/.
 describe('curve view in high-contrast themes (headless Chromium)', function () {
   this.timeout(60000);
-  let browser: Browser;
-  let server: Server;
-  let origin: string;
+  const pages = usePageServer();
 
   before(async () => {
     mkdirSync(OUT, { recursive: true });
-    ({ server, origin } = await startServer());
-    browser = await launch();
-  });
-  after(async () => {
-    await browser?.close();
-    server?.close();
   });
 
   for (const theme of [HIGH_CONTRAST, HIGH_CONTRAST_LIGHT]) {
     it(`draws in the ${theme.name} theme's colours, with the inversion shade stronger and every mark in contrast`, async () => {
-      const view = await openView(browser, origin, theme);
+      const view = await openView(pages.browser, pages.origin, theme);
       const p = curveOf(TWO_LEVEL);
       await view.post(render(p));
       await view.drawn(1);

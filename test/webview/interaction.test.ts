@@ -1,8 +1,6 @@
 import { strict as assert } from 'node:assert';
-import type { Server } from 'node:http';
-import type { Browser } from 'playwright-core';
 import { isViewToHost, type CurvePayload } from '../../src/core';
-import { launch, openView, startServer, type ViewPage } from './harness';
+import { openView, usePageServer, type ViewPage } from './harness';
 import { curveOf, MULTI_LEVEL, payloadOf, render, SERIES, TWO_LEVEL } from './payloads';
 import { geometry, near, pixelsAround, toPixel } from './pixels';
 import { DARK, LIGHT, rgb } from './themes';
@@ -17,9 +15,7 @@ declare const Event: new (type: string) => unknown;
 
 describe('curve view messages and controls (headless Chromium)', function () {
   this.timeout(60000);
-  let browser: Browser;
-  let server: Server;
-  let origin: string;
+  const pages = usePageServer();
   let view: ViewPage;
   let draws = 0;
 
@@ -36,13 +32,7 @@ describe('curve view messages and controls (headless Chromium)', function () {
   }
 
   before(async () => {
-    ({ server, origin } = await startServer());
-    browser = await launch();
-    view = await openView(browser, origin, LIGHT);
-  });
-  after(async () => {
-    await browser?.close();
-    server?.close();
+    view = await openView(pages.browser, pages.origin, LIGHT);
   });
 
   it('says it is ready once loaded, before any render', async () => {

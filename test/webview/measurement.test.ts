@@ -1,7 +1,5 @@
 import { strict as assert } from 'node:assert';
-import type { Server } from 'node:http';
-import type { Browser } from 'playwright-core';
-import { launch, openView, startServer, type ViewPage } from './harness';
+import { openView, usePageServer, type ViewPage } from './harness';
 import { payloadOf, render } from './payloads';
 import { geometry, near, pixelsAround, toPixel, type ChartGeometry } from './pixels';
 
@@ -23,9 +21,7 @@ const SERIES = 'series:\n  model: decay\n  time: [0 s, 6 s, 12 s, 18 s, 24 s, 30
 // The measurement chart under the curves: the Boltzmann plot of emission lines, a series with its fit.
 describe('curve view measurement plot (headless Chromium)', function () {
   this.timeout(60000);
-  let browser: Browser;
-  let server: Server;
-  let origin: string;
+  const pages = usePageServer();
   let view: ViewPage;
 
   async function geometryOf(): Promise<ChartGeometry & { kind: string }> {
@@ -39,13 +35,7 @@ describe('curve view measurement plot (headless Chromium)', function () {
   }
 
   before(async () => {
-    ({ server, origin } = await startServer());
-    browser = await launch();
-    view = await openView(browser, origin, LIGHT);
-  });
-  after(async () => {
-    await browser?.close();
-    server?.close();
+    view = await openView(pages.browser, pages.origin, LIGHT);
   });
 
   it('draws the Boltzmann plot of an emission-lines block, with its points in the measured colour', async () => {

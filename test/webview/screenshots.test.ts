@@ -1,8 +1,6 @@
 import { strict as assert } from 'node:assert';
 import { mkdirSync, statSync } from 'node:fs';
-import type { Server } from 'node:http';
-import type { Browser } from 'playwright-core';
-import { launch, openView, startServer } from './harness';
+import { openView, usePageServer } from './harness';
 import { curveOf, FINITE_N, MULTI_LEVEL, render, SERIES } from './payloads';
 import { DARK, LIGHT } from './themes';
 
@@ -12,23 +10,15 @@ const OUT = 'test-output/webview';
 // (test-output/ is not committed; docs/images holds chosen copies).
 describe('curve view screenshots (headless Chromium)', function () {
   this.timeout(60000);
-  let browser: Browser;
-  let server: Server;
-  let origin: string;
+  const pages = usePageServer();
 
   before(async () => {
     mkdirSync(OUT, { recursive: true });
-    ({ server, origin } = await startServer());
-    browser = await launch();
-  });
-  after(async () => {
-    await browser?.close();
-    server?.close();
   });
 
   for (const theme of [LIGHT, DARK]) {
     it(`saves the ${theme.name} theme: a run series with pins, a non-thermal scheme and a finite-N staircase`, async () => {
-      const view = await openView(browser, origin, theme);
+      const view = await openView(pages.browser, pages.origin, theme);
       const [first, ...rest] = SERIES.map((b, i) => curveOf(b, `week-11-${i}`));
       const pins = rest.map((payload, i) => ({ key: `pin-${i}`, payload }));
       const shots: [string, ReturnType<typeof render>][] = [

@@ -1,7 +1,5 @@
 import { strict as assert } from 'node:assert';
-import type { Server } from 'node:http';
-import type { Browser } from 'playwright-core';
-import { launch, openView, startServer, type ViewPage } from './harness';
+import { openView, usePageServer, type ViewPage } from './harness';
 import { curveOf, payloadOf, render, TWO_LEVEL, XSS_ID } from './payloads';
 import { LIGHT } from './themes';
 
@@ -18,27 +16,18 @@ declare const document: {
 
 describe('curve view security (headless Chromium)', function () {
   this.timeout(60000);
-  let browser: Browser;
-  let server: Server;
-  let origin: string;
-  let nonces: string[];
+  const pages = usePageServer();
   let view: ViewPage;
   const requests: string[] = [];
   let dialogs = 0;
 
   before(async () => {
-    ({ server, origin, nonces } = await startServer());
-    browser = await launch();
-    view = await openView(browser, origin, LIGHT);
+    view = await openView(pages.browser, pages.origin, LIGHT);
     view.page.on('request', (r) => requests.push(r.url()));
     view.page.on('dialog', (d) => {
       dialogs++;
       void d.dismiss();
     });
-  });
-  after(async () => {
-    await browser?.close();
-    server?.close();
   });
 
   it('shows a block id made of markup as text, in the title and in the pin list', async () => {
@@ -72,13 +61,13 @@ describe('curve view security (headless Chromium)', function () {
     await view.post(render(curveOf(TWO_LEVEL)));
     await view.drawn(2);
     assert.deepEqual(await view.page.evaluate(() => window.__test.violations), []);
-    assert.ok(requests.every((u) => u.startsWith(`${origin}/`)), requests.join('\n'));
+    assert.ok(requests.every((u) => u.startsWith(`${pages.origin}/`)), requests.join('\n'));
   });
 
   it('blocks an injected inline script and reports the violation', async () => {
     const csp = await view.page.evaluate(() => document.querySelector('meta[http-equiv="Content-Security-Policy"]')!.getAttribute('content'));
     assert.match(csp!, /default-src 'none'/);
-    assert.match(csp!, new RegExp(`script-src 'nonce-${nonces.at(-1)!.replace(/[+/=]/g, '\\$&')}'`));
+    assert.match(csp!, new RegExp(`script-src 'nonce-${pages.nonces.at(-1)!.replace(/[+/=]/g, '\\$&')}'`));
     assert.doesNotMatch(csp!, /unsafe-inline|unsafe-eval/);
     await view.page.evaluate(() => {
       const s = document.createElement('script');
@@ -93,11 +82,11 @@ describe('curve view security (headless Chromium)', function () {
   });
 
   it('gives every page load a fresh nonce', async () => {
-    const before = nonces.length;
+    const before = pages.nonces.length;
     await view.page.reload();
     await view.page.waitForFunction(() => document.querySelector('meta[http-equiv="Content-Security-Policy"]') !== null);
-    assert.equal(nonces.length, before + 1);
-    assert.equal(new Set(nonces).size, nonces.length, 'no nonce repeats');
-    assert.match(nonces.at(-1)!, /^[A-Za-z0-9+/]{22}==$/, '128 bits, base64');
+    assert.equal(pages.nonces.length, before + 1);
+    assert.equal(new Set(pages.nonces).size, pages.nonces.length, 'no nonce repeats');
+    assert.match(pages.nonces.at(-1)!, /^[A-Za-z0-9+/]{22}==$/, '128 bits, base64');
   });
 });
