@@ -94,7 +94,11 @@ function spacerAxis(m: ChartModel): ScaleOptionsByType<'linear'> {
   return { type: 'linear', position: 'right', min: m.y.min, max: m.y.max, afterFit: fixedWidth, grid: { display: false }, border: { display: false }, ticks: { display: false }, title: { display: false } } as unknown as ScaleOptionsByType<'linear'>;
 }
 
-/** Writes the plot area and axis ranges on the canvas, so tests and exports can map values to pixels. */
+/**
+ * Writes the plot area and axis ranges on the canvas, so tests and exports
+ * can map values to pixels, and the legend's labels (one per line), so tests
+ * can read what the legend lists.
+ */
 function describe(chart: Scatter): void {
   const c = chart.canvas;
   const a = chart.chartArea;
@@ -103,6 +107,7 @@ function describe(chart: Scatter): void {
   c.dataset.area = [a.left, a.top, a.right, a.bottom].join(',');
   c.dataset.x = [x.min, x.max].join(',');
   c.dataset.y = [y.min, y.max].join(',');
+  c.dataset.legend = chart.data.datasets.map((d) => d.label ?? '').filter((l) => l !== '').join('\n');
 }
 
 /** Owns the two chart.js instances. */

@@ -4,7 +4,7 @@
  * dS/dE = β still holds on screen), axis ranges, error bars, the deficit gap
  * and the inversion region. Pure: no DOM, no chart.js.
  */
-import type { CurvePayload, DisplayUnit, EnergyAxisUnit, PinnedRun } from '../../src/core/light';
+import { pinsBesides, type CurvePayload, type DisplayUnit, type EnergyAxisUnit, type PinnedRun } from '../../src/core/light';
 import { shortNumber, shortTemperature } from './numbers';
 import type { Palette } from './theme';
 
@@ -98,7 +98,8 @@ export function niceCeil(x: number): number {
 }
 
 /** Builds both chart models for the shown block and the pinned runs. */
-export function viewModel(base: CurvePayload, pins: readonly PinnedRun[], choice: EnergyAxisUnit, palette: Palette): ViewModel {
+export function viewModel(base: CurvePayload, pinned: readonly PinnedRun[], choice: EnergyAxisUnit, palette: Palette): ViewModel {
+  const pins = pinsBesides(base, pinned);
   const unit = unitOf(base, choice);
   const k = unit.kelvinPerUnit;
   const e: Series[] = [];
@@ -115,7 +116,8 @@ export function viewModel(base: CurvePayload, pins: readonly PinnedRun[], choice
   }
   const runs: { p: CurvePayload; role: 'measured' | 'pin'; color: string; shape: Series['pointStyle'] }[] = [
     { p: base, role: 'measured', color: palette.measured, shape: 'circle' },
-    ...pins.map((r, i) => ({ p: r.payload, role: 'pin' as const, color: palette.pins[i % palette.pins.length]!, shape: PIN_SHAPES[i % PIN_SHAPES.length]! })),
+    // Each pin keeps the colour and shape of its place in the pin list, also while one of them is the shown run.
+    ...pinned.flatMap((r, i) => (pins.includes(r) ? [{ p: r.payload, role: 'pin' as const, color: palette.pins[i % palette.pins.length]!, shape: PIN_SHAPES[i % PIN_SHAPES.length]! }] : [])),
   ];
   for (const { p, role, color, shape } of runs) {
     if (role === 'pin' && !sameScheme(p, base)) {

@@ -8,7 +8,7 @@
  */
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
-import { isViewState, isViewToHost, type CurvePayload, type PinnedRun, type ViewPayload, type ViewToHost } from '../core/light';
+import { isViewState, isViewToHost, pinsBesides, type CurvePayload, type PinnedRun, type ViewPayload, type ViewToHost } from '../core/light';
 import { CurveDataRequest } from '../server/protocol';
 import { copyImageLink, saveCsv, savePng } from './curveExport';
 import { newNonce, viewHtml } from './viewHtml';
@@ -168,7 +168,7 @@ export class CurveView implements vscode.Disposable {
         if (shown) await savePng(shown, m.dataUrl);
         return;
       case 'exportCsv':
-        if (shown) await saveCsv(shown, this.pins.map((p) => p.payload), m.unit);
+        if (shown) await saveCsv(shown, pinsBesides(shown, this.pins).map((p) => p.payload), m.unit);
         return;
       case 'copyImageLink':
         if (shown && (await copyImageLink(shown, m.dataUrl))) void vscode.window.setStatusBarMessage('Boltzmark: image link copied', 3000);

@@ -6,9 +6,8 @@
 import * as vscode from 'vscode';
 import { LanguageClient, TransportKind, type LanguageClientOptions, type ServerOptions } from 'vscode-languageclient/node';
 import type MarkdownIt from 'markdown-it';
-import { DEFAULT_DISPLAY, type DisplayOptions } from '../core/light';
-import { fromSection } from '../server/settings';
 import { registerCommands } from './commands';
+import { displayOptions } from './display';
 import { followCursor } from './curveFollow';
 import { registerCurveSerializer } from './curveSerializer';
 import { notebook } from './lazy';
@@ -23,7 +22,7 @@ export interface BoltzmarkApi {
 
 /** Activates on the first Markdown document (or one of the commands or views). */
 export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
-  const api: BoltzmarkApi = { extendMarkdownIt: (md) => notebook().levelsPreview(md, { infoStrings: previewInfoStrings, display: previewDisplay }) };
+  const api: BoltzmarkApi = { extendMarkdownIt: (md) => notebook().levelsPreview(md, { infoStrings: previewInfoStrings, display: () => displayOptions() }) };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
   context.subscriptions.push(log);
   try {
@@ -55,13 +54,6 @@ export async function activate(context: vscode.ExtensionContext): Promise<Boltzm
 /** The extra info strings from the settings, read when the preview renders. */
 function previewInfoStrings(): readonly string[] {
   return vscode.workspace.getConfiguration('boltzmark').get<string[]>('blocks.extraInfoStrings', []);
-}
-
-/** Display options from the settings, as the server reads them. */
-function previewDisplay(): DisplayOptions {
-  const c = vscode.workspace.getConfiguration('boltzmark');
-  const s = fromSection({ display: { significantDigits: c.get('display.significantDigits'), temperature: c.get('display.temperature'), polarization: c.get('display.polarization') } });
-  return { ...DEFAULT_DISPLAY, digits: s.significantDigits, temperature: s.temperature, percent: s.polarization === 'percent' };
 }
 
 /** Stops the language server. */

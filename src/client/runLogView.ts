@@ -7,7 +7,8 @@
  */
 import * as vscode from 'vscode';
 import type { RunEntry, RunGroup, RunLog } from '../core';
-import { STATUSES, type Status } from '../core/light';
+import { measuredTemperatureText, STATUSES, type Status } from '../core/light';
+import { displayOptions } from './display';
 import { notebook } from './lazy';
 
 const MAX_FILES = 2000;
@@ -48,7 +49,7 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
     }
     const e = node.entry;
     const item = new vscode.TreeItem(e.id ?? `block at line ${e.line + 1}`, vscode.TreeItemCollapsibleState.None);
-    const t = e.temperature ? `T = ${e.temperature.value.toPrecision(3)} K` : '';
+    const t = e.temperature ? measuredTemperatureText(e.temperature, displayOptions(vscode.Uri.parse(e.uri))) : '';
     item.description = [e.status, t, this.by === 'date' ? e.name : e.date ?? ''].filter((x) => x !== '').join(' · ');
     item.tooltip = `${e.name}:${e.line + 1}\n${e.status}${t ? `\n${t}` : ''}`;
     item.iconPath = new vscode.ThemeIcon(STATUS_ICONS[e.status]);
@@ -68,7 +69,8 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
   const timers = new Map<string, ReturnType<typeof setTimeout>>();
   let started = false;
 
-  const name = (uri: vscode.Uri): string => vscode.workspace.asRelativePath(uri, true);
+  // The folder's name leads the path only in a workspace of several folders (VS Code's default).
+  const name = (uri: vscode.Uri): string => vscode.workspace.asRelativePath(uri);
   const readOne = async (uri: vscode.Uri): Promise<void> => {
     const open = vscode.workspace.textDocuments.find((d) => d.uri.toString() === uri.toString());
     try {
@@ -114,6 +116,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
   context.subscriptions.push(
     view,
     view.onDidChangeVisibility((e) => e.visible && void start()),
+    vscode.workspace.onDidChangeConfiguration((e) => e.affectsConfiguration('boltzmark.display') && tree.refresh()),
     vscode.commands.registerCommand('boltzmark.runLog.filter', async () => {
       const picks = await vscode.window.showQuickPick(
         STATUSES.map((s) => ({ label: s, picked: !tree.statuses || tree.statuses.includes(s) })),

@@ -10,7 +10,7 @@ export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/sch
 export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { reportEntry, type ReportEntry, type ReportDiagnostic } from './report';
-export { DEFAULT_DISPLAY, STATUS_WORDS, betaText, enhancementText, fractionText, shortSummary, temperatureText, type DisplayOptions } from './summary';
+export { DEFAULT_DISPLAY, STATUS_WORDS, betaText, enhancementText, fractionText, measuredTemperatureText, shortSummary, temperatureText, type DisplayOptions } from './summary';
 export * from './format';
 export * from './constants';
 export { lookupSpecies, speciesSymbols, larmorFrequencyHz, zeemanSpacingKelvin, type SpinSpecies } from './isotopes';
@@ -30,7 +30,7 @@ export { measurementPlot } from './view/measurementPlot';
 export { displayUnitFor, KELVIN_UNIT } from './view/displayUnit';
 export { measuredPoint } from './view/measuredPoint';
 export { isCurvePayload, isProblemPayload, isViewPayload } from './view/payloadCheck';
-export { ENERGY_AXIS_UNITS, isHostToView, isRenderMessage, isViewState, isViewToHost, MAX_DATA_URL, type CopyImageLinkMessage, type EnergyAxisUnit, type ExportCsvMessage, type ExportPngMessage, type HostToView, type PinMessage, type PinnedRun, type ReadyMessage, type RenderMessage, type UnpinMessage, type ViewState, type ViewToHost } from './view/messages';
+export { ENERGY_AXIS_UNITS, isHostToView, isRenderMessage, isViewState, isViewToHost, MAX_DATA_URL, pinsBesides, type CopyImageLinkMessage, type EnergyAxisUnit, type ExportCsvMessage, type ExportPngMessage, type HostToView, type PinMessage, type PinnedRun, type ReadyMessage, type RenderMessage, type UnpinMessage, type ViewState, type ViewToHost } from './view/messages';
 export { curveCsv } from './view/csv';
 export { measurementRows, measurementShort, type Row } from './measurementSummary';
 export type { SeriesFit } from './physics/relaxation';

@@ -37,7 +37,11 @@ export function temperatureText(r: BlockResults, o: DisplayOptions = DEFAULT_DIS
   if (r.limit === 'zero-negative') return 'T → 0⁻';
   if (!r.beta) return 'T not determined (no populations measured)';
   if (r.status === 'saturated' || !r.temperature) return 'T → ±∞ (saturated)';
-  const t = r.temperature;
+  return measuredTemperatureText(r.temperature, o);
+}
+
+/** A finite temperature as shown, `T = 5.61 ± 0.19 mK`: GUM rounding, the unit prefix as the options say. */
+export function measuredTemperatureText(t: Measured, o: DisplayOptions = DEFAULT_DISPLAY): string {
   return `T = ${formatTemperature(t.value, t.uncertainty, { digits: o.digits, mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto' })}`;
 }
 

@@ -6,10 +6,10 @@
  */
 import { strict as assert } from 'node:assert';
 import { readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { basename, join } from 'node:path';
+import { join } from 'node:path';
 import type { Locator } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
-import { RunLog, STATUSES, type RunEntry, type Status } from '../../src/core';
+import { measuredTemperatureText, RunLog, STATUSES, type RunEntry, type Status } from '../../src/core';
 import { notification, pickMany, saveDialog } from './dialogs';
 import { csvRecords, parseCsv, waitForFile } from './files';
 import { scratchFolder, shot, type Session } from './session';
@@ -38,10 +38,10 @@ function fencedIds(text: string): string[] {
   return ids;
 }
 
-/** The core's run log of notes named as the view names them: the workspace folder's name, a slash, the file. */
-function coreLog(folder: string, texts: ReadonlyMap<string, string>): RunLog {
+/** The core's run log of notes named as the view names them in a one-folder workspace: the path inside the folder. */
+function coreLog(texts: ReadonlyMap<string, string>): RunLog {
   const log = new RunLog();
-  for (const [file, text] of texts) log.update(file, `${folder}/${file}`, text);
+  for (const [file, text] of texts) log.update(file, file, text);
   return log;
 }
 
@@ -50,7 +50,7 @@ function expectedRows(log: RunLog, statuses: readonly Status[] | null = null): T
   const run = (e: RunEntry): TreeRow => ({
     level: 2,
     label: e.id ?? `block at line ${e.line + 1}`,
-    description: [e.status, e.temperature ? `T = ${e.temperature.value.toPrecision(3)} K` : '', e.date ?? ''].filter((x) => x !== '').join(' · '),
+    description: [e.status, e.temperature ? measuredTemperatureText(e.temperature) : '', e.date ?? ''].filter((x) => x !== '').join(' · '),
   });
   return log.groups('file', statuses).flatMap((g) => [{ level: 1, label: g.label, description: `${g.entries.length} run${g.entries.length === 1 ? '' : 's'}` }, ...g.entries.map(run)]);
 }
@@ -58,8 +58,7 @@ function expectedRows(log: RunLog, statuses: readonly Status[] | null = null): T
 /** Registers the steps; `session` gives the suite's session once its `before` ran. */
 export function runLogSteps(session: () => Session): void {
   let section: Locator;
-  const folder = (): string => basename(session().workspace);
-  const all = (): RunLog => coreLog(folder(), TEXTS);
+  const all = (): RunLog => coreLog(TEXTS);
 
   it(`lists every block of every demo note in the Explorer’s "${VIEW}", grouped by note, with status and T`, async () => {
     const { page } = session();
@@ -69,15 +68,17 @@ export function runLogSteps(session: () => Session): void {
     assert.deepEqual(rows, want);
     // The same blocks as the notes' text says, note by note, in order.
     const groups = rows.filter((r) => r.level === 1).map((r) => r.label);
-    assert.deepEqual(groups, NOTES.filter((f) => fencedIds(TEXTS.get(f)!).length > 0).map((f) => `${folder()}/${f}`));
+    assert.deepEqual(groups, NOTES.filter((f) => fencedIds(TEXTS.get(f)!).length > 0));
     const byNote = new Map<string, string[]>();
     let group = '';
     for (const r of rows) {
       if (r.level === 1) byNote.set((group = r.label), []);
       else byNote.get(group)?.push(r.label);
     }
-    for (const f of NOTES) assert.deepEqual(byNote.get(`${folder()}/${f}`) ?? [], fencedIds(TEXTS.get(f)!), `the runs listed under ${f}`);
-    assert.ok(rows.some((r) => / · T = -?[\d.e+-]+ K/.test(r.description)), 'runs with a temperature show it');
+    for (const f of NOTES) assert.deepEqual(byNote.get(f) ?? [], fencedIds(TEXTS.get(f)!), `the runs listed under ${f}`);
+    // Temperatures as the hovers show them: GUM rounding with an uncertainty, an SI prefix, a true minus sign.
+    assert.ok(rows.some((r) => / · T = [\d.]+ ± [\d.]+ mK/.test(r.description)), 'runs with a temperature show it with its uncertainty');
+    assert.ok(rows.some((r) => / · T = −[\d.]+/.test(r.description)), 'an inverted run shows a negative temperature');
     await shot(page, '20-run-log');
   });
 
@@ -98,10 +99,10 @@ export function runLogSteps(session: () => Session): void {
   it('opens the note at the block when a run is clicked', async () => {
     const { page } = session();
     // A run in a note that is not open yet, the lowest in its note, so the editor must open and scroll.
-    const entries = all().entries(['inverted']).filter((e) => !e.name.endsWith('/polarizer-log.md'));
+    const entries = all().entries(['inverted']).filter((e) => e.name !== 'polarizer-log.md');
     assert.ok(entries.length > 0, 'an inverted run outside the note the earlier steps opened');
     const target = entries.reduce((a, b) => (b.line > a.line ? b : a));
-    const file = target.name.slice(folder().length + 1);
+    const file = target.name;
     // The note opens in the active editor group: make it the first one (the curve view and preview are beside it).
     await runCommand(page, 'View: Focus First Editor Group');
     await treeRow(section, target.id!, 2).click();
@@ -150,8 +151,8 @@ export function runLogSteps(session: () => Session): void {
     const file = join(session().workspace, ADDED);
     writeFileSync(file, text);
     try {
-      const added = expectedRows(coreLog(folder(), new Map([...TEXTS, [ADDED, text]])));
-      assert.equal(added[0]!.label, `${folder()}/${ADDED}`, 'the new note sorts first');
+      const added = expectedRows(coreLog(new Map([...TEXTS, [ADDED, text]])));
+      assert.equal(added[0]!.label, ADDED, 'the new note sorts first');
       // Sorted first, its row appears at the top, where the list is scrolled.
       await treeRow(section, added[0]!.label, 1).waitFor();
       assert.deepEqual(await waitTreeRows(page, section, added), added);
@@ -160,7 +161,7 @@ export function runLogSteps(session: () => Session): void {
       // Gone even when the step fails, so the last step still judges the demo notes alone.
       rmSync(file, { force: true });
     }
-    await treeRow(section, `${folder()}/${ADDED}`, 1).waitFor({ state: 'detached' });
+    await treeRow(section, ADDED, 1).waitFor({ state: 'detached' });
     const rows = await waitTreeRows(page, section, expectedRows(all()));
     assert.deepEqual(rows, expectedRows(all()), 'the deleted note’s run is gone');
     assert.ok(await treeRow(section, 'e2e added run', 2).count() === 0);

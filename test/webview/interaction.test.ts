@@ -9,7 +9,8 @@ import { DARK, LIGHT, rgb } from './themes';
 declare const window: { __test: { applyTheme(t: unknown): void; posted: unknown[] } };
 declare const document: {
   body: { dataset: Record<string, string | undefined> };
-  getElementById(id: string): ({ textContent: string | null; hidden: boolean; value: string; dispatchEvent(e: unknown): void; hasAttribute(a: string): boolean }) | null;
+  getElementById(id: string): ({ textContent: string | null; hidden: boolean; value: string; dataset: Record<string, string | undefined>; dispatchEvent(e: unknown): void; hasAttribute(a: string): boolean }) | null;
+  querySelectorAll(selector: string): { length: number };
 };
 declare const Event: new (type: string) => unknown;
 
@@ -60,6 +61,18 @@ describe('curve view messages and controls (headless Chromium)', function () {
     assert.ok(isViewToHost(link));
     await view.page.click('#pin-list vscode-button');
     assert.deepEqual(await nthPosted(6), { type: 'unpin', key: 'pin-7' });
+  });
+
+  it('lists a pin of the shown run once in the legend and keeps it in the pin list, and lists other pins beside it', async () => {
+    const [first, second] = SERIES.map((b, i) => curveOf(b, `series-${i}`));
+    const legend = async (): Promise<string[]> => ((await view.page.evaluate(() => document.getElementById('entropy-chart')!.dataset.legend)) ?? '').split('\n');
+    const pinItems = () => view.page.evaluate(() => document.querySelectorAll('#pin-list li').length);
+    await show(first!, [{ key: 'pin-1', payload: first! }]);
+    assert.equal((await legend()).filter((l) => l === first!.id).length, 1, `legend: ${JSON.stringify(await legend())}`);
+    assert.equal(await pinItems(), 1, 'the pin can still be unpinned');
+    await show(second!, [{ key: 'pin-1', payload: first! }]);
+    const both = await legend();
+    assert.ok(both.includes(first!.id) && both.includes(second!.id), `legend: ${JSON.stringify(both)}`);
   });
 
   it('switches the energy axis to kelvin and back, and exports in the unit shown', async () => {

@@ -32,6 +32,16 @@ export interface RenderMessage {
 export type HostToView = RenderMessage;
 
 /** View → host: the page has loaded and listens. */
+/**
+ * The pinned runs that are not the run shown: a pin taken of the shown block
+ * at the same version is the same measurement, so it is drawn and exported
+ * once, as the shown run (it stays in the pin list, to be unpinned).
+ */
+export function pinsBesides(shown: CurvePayload | null, pins: readonly PinnedRun[]): PinnedRun[] {
+  if (!shown) return [...pins];
+  return pins.filter((r) => !(r.payload.uri === shown.uri && r.payload.line === shown.line && r.payload.version === shown.version));
+}
+
 export interface ReadyMessage { readonly type: 'ready' }
 /** View → host: pin the block shown now. */
 export interface PinMessage { readonly type: 'pin' }

@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { curveData, isHostToView, isViewPayload, isViewState, isViewToHost, type CurvePayload, type RenderMessage } from '../../../src/core';
+import { curveData, isHostToView, isViewPayload, isViewState, isViewToHost, pinsBesides, type CurvePayload, type RenderMessage } from '../../../src/core';
 import { block } from '../helpers';
 
 const payload = curveData(block('id: run 1\ngap: 10 K\npopulations: [0.7 ± 0.01, 0.3 ± 0.01]\nlattice: 10 K\ncount: 20').report, { uri: 'file:///n.md', version: 1 }) as CurvePayload;
@@ -67,5 +67,15 @@ describe('curve view messages', () => {
     assert.ok(isViewState({ unit: 'K', last: null }));
     assert.equal(isViewState({ unit: 'kelvin', last: null }), false);
     assert.equal(isViewState({ unit: 'K', last: { type: 'render' } }), false);
+  });
+
+  it('count a pin of the shown block at the same version as the shown run, and keep every other pin', () => {
+    const same = { key: 'same', payload };
+    const edited = { key: 'edited', payload: { ...payload, version: 2 } };
+    const otherBlock = { key: 'other', payload: { ...payload, line: payload.line + 20 } };
+    const otherNote = { key: 'note', payload: { ...payload, uri: 'file:///m.md' } };
+    const pins = [same, edited, otherBlock, otherNote];
+    assert.deepEqual(pinsBesides(payload, pins).map((r) => r.key), ['edited', 'other', 'note']);
+    assert.deepEqual(pinsBesides(null, pins).map((r) => r.key), ['same', 'edited', 'other', 'note']);
   });
 });
