@@ -7,6 +7,7 @@ import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from './analy
 import type { BlockResults } from './analysis/results';
 import type { BlockInput, BlockMeta } from './block/input';
 import { interpretBody } from './block/interpret';
+import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory } from './noteMemory';
 import { bodyToDocument, scanFencedBlocks, type FencedBlock } from './text/fences';
 import type { Problem, Span, Status } from './types';
 
@@ -56,7 +57,7 @@ export interface BlockReport {
   /** Every problem of the block, sorted by position, with note offsets. */
   readonly problems: readonly Problem[];
   /** Maps a body-relative span (as in `meta` and `results`) to note offsets. */
-  readonly toNote: (span: Span) => Span;
+  toNote(span: Span): Span;
 }
 
 /** The analysis of one note. */
@@ -82,9 +83,21 @@ interface Cached {
   readonly problems: readonly Problem[];
 }
 
-/** Reads and analyses notes, caching per block body. One per host is enough. */
+/** A fence as remembered between analyses. */
+type Fence = FenceRecord<BlockReport, Cached>;
+
+/** How many notes an Analyzer remembers for re-reading them where they changed (a host edits a few at a time). */
+const NOTES_REMEMBERED = 4;
+
+/**
+ * Reads and analyses notes, caching per block body, and remembering the
+ * last few notes so that a new version of one is scanned only where it
+ * changed (see noteMemory.ts). One per host is enough.
+ */
 export class Analyzer {
   private readonly cache = new Map<string, Cached>();
+  /** The notes analysed last, most recent first. */
+  private notes: NoteMemory<BlockReport, Cached>[] = [];
   /** Counts analyses, to date each cache entry's last use. */
   private generation = 0;
   readonly options: AnalyzerOptions;
@@ -98,45 +111,93 @@ export class Analyzer {
     return block.language === 'levels' || this.options.infoStrings.includes(block.language) || this.options.infoStrings.includes(block.info);
   }
 
-  /** Finds, reads and analyses every `levels` block of a note, within the limits. Never throws. */
+  /**
+   * Finds, reads and analyses every `levels` block of a note, within the
+   * limits. Never throws. The result is the same as a fresh Analyzer's; only
+   * the work differs: unchanged blocks come from the cache, and a note
+   * analysed recently is scanned again only from its last fence before the
+   * change to its first fence after it.
+   */
   analyzeText(text: string): DocumentReport {
-    const blocks: BlockReport[] = [];
     const { maxBlocks, maxBodyChars } = this.options.limits;
+    const generation = ++this.generation;
+    const reuse = planReuse(this.notes, text);
+    const fences: Fence[] = [];
+    const blocks: BlockReport[] = [];
     let analysed = 0;
-    let reused = 0;
     let bodyChars = 0;
     let bounded: Bounded | null = null;
-    const generation = ++this.generation;
-    for (const block of scanFencedBlocks(text)) {
-      if (!this.isLevelsFence(block)) continue;
-      bodyChars += block.body.length;
-      if (blocks.length >= maxBlocks || bodyChars > maxBodyChars) {
-        bounded = { offset: block.openStart, line: block.openLine, reason: blocks.length >= maxBlocks ? 'blocks' : 'size' };
-        break;
+    // Takes one fence into the analysis; false when a bound stops it there (our blocks only).
+    const admit = (f: Fence): boolean => {
+      if (f.report !== null) {
+        bodyChars += f.report.block.body.length;
+        if (blocks.length >= maxBlocks || bodyChars > maxBodyChars) {
+          bounded = { offset: f.openStart, line: f.openLine, reason: blocks.length >= maxBlocks ? 'blocks' : 'size' };
+          return false;
+        }
+        blocks.push(f.report);
       }
-      let entry = this.cache.get(block.body);
-      if (entry) {
-        reused++;
-      } else {
-        analysed++;
-        // The body is a stretch of this version of the note; the cache keeps a copy of its own.
+      fences.push(f);
+      return true;
+    };
+    let open = true;
+    for (let i = 0; open && reuse && i < reuse.keep; i++) open = admit(reuse.memory.fences[i]!);
+    if (open && !reuse?.same) {
+      for (const block of scanFencedBlocks(text, reuse?.from ?? 0, reuse?.line ?? 0)) {
+        const resume = reuse ? resumeAt(reuse, block) : -1;
+        if (resume >= 0) {
+          // From here on the old scan holds, moved by the edit: the rest of the note is not scanned.
+          const old = reuse!.memory.fences;
+          const lines = block.openLine - old[resume]!.openLine;
+          for (let i = resume; open && i < old.length; i++) open = admit(moved(old[i]!, reuse!.delta, lines));
+          break;
+        }
+        if (!this.isLevelsFence(block)) {
+          fences.push({ openStart: block.openStart, openLine: block.openLine, report: null, entry: null });
+          continue;
+        }
+        // The bound is checked on the body's length before the block is read.
+        if (blocks.length >= maxBlocks || bodyChars + block.body.length > maxBodyChars) {
+          bodyChars += block.body.length;
+          bounded = { offset: block.openStart, line: block.openLine, reason: blocks.length >= maxBlocks ? 'blocks' : 'size' };
+          open = false;
+          break;
+        }
+        // The body is a stretch of this version of the note; the cache keeps a copy of its own. The copy is
+        // made before the lookup, so that its hash, computed once by the lookup, serves the insertion too.
         const body = ownCopy(block.body);
-        entry = this.analyseBody(body);
-        this.cache.set(body, entry);
+        let entry = this.cache.get(body);
+        if (!entry) {
+          analysed++;
+          entry = this.analyseBody(body);
+          this.cache.set(body, entry);
+        }
+        open = admit({ openStart: block.openStart, openLine: block.openLine, report: report(block, entry), entry });
       }
-      entry.used = generation;
-      blocks.push(report(block, entry));
     }
+    for (const f of fences) if (f.entry) f.entry.used = generation;
+    this.remember({ text, fences, complete: bounded === null }, reuse?.memory ?? null);
     if (this.cache.size > this.options.cacheSize) this.evict();
     const problems = bounded ? [boundedProblem(text, bounded, this.options.limits)] : [];
-    return { blocks, stats: { analysed, reused }, bounded, problems };
+    return { blocks, stats: { analysed, reused: blocks.length - analysed }, bounded, problems };
   }
 
-  /** Drops the least recently used entries, down to nine tenths of the cache size, so that eviction stays rare. */
+  /** Keeps the note just analysed in place of the version it was read from (or of the oldest note). */
+  private remember(note: NoteMemory<BlockReport, Cached>, from: NoteMemory<BlockReport, Cached> | null): void {
+    const others = this.notes.filter((n) => n !== from);
+    this.notes = [note, ...others].slice(0, NOTES_REMEMBERED);
+  }
+
+  /**
+   * Drops the least recently used entries, down to nine tenths of the cache
+   * size, so that eviction stays rare. The remembered notes go too: their
+   * blocks may be among those dropped, and must then be read again.
+   */
   private evict(): void {
     const keep = Math.floor(0.9 * this.options.cacheSize);
     const byAge = [...this.cache.values()].sort((a, b) => a.used - b.used);
     for (let i = 0; i < byAge.length - keep; i++) this.cache.delete(byAge[i]!.body);
+    this.notes = [];
   }
 
   /** Reads and analyses one block body; never throws (an internal failure becomes a problem). */
@@ -152,9 +213,10 @@ export class Analyzer {
     }
   }
 
-  /** Forgets every cached block (after a settings change). */
+  /** Forgets every cached block and remembered note (after a settings change). */
   clear(): void {
     this.cache.clear();
+    this.notes = [];
   }
 }
 
@@ -163,24 +225,45 @@ export class Analyzer {
  * JavaScript engines keep a substring as a view into its parent (V8 does for
  * 13 characters and more), so a cached block body sliced from the note would
  * keep that whole version of the note alive for as long as it stays cached.
+ * Slicing a concatenation makes the engine lay the concatenation out flat
+ * first, in new memory, and the slice then views that copy: one copy of the
+ * body, far cheaper than a round trip through JSON.
  */
 function ownCopy(s: string): string {
-  return JSON.parse(JSON.stringify(s)) as string;
+  return (s + ' ').slice(0, -1);
 }
 
-function report(block: FencedBlock, c: Cached): BlockReport {
-  // Body offsets are clamped to the body first, so every span lands inside the block.
-  const last = block.body.length;
-  const toNote = (s: Span): Span => {
-    const from = Math.max(0, Math.min(s.start, last));
-    const start = bodyToDocument(block, from);
-    const end = Math.max(start, bodyToDocument(block, Math.max(from, Math.min(s.end, last))));
-    return { start, end };
+/** A remembered fence moved by an edit before it; our block's report is made again for its new place. */
+function moved(f: Fence, delta: number, lines: number): Fence {
+  if (delta === 0 && lines === 0) return f;
+  const r = f.report;
+  return { openStart: f.openStart + delta, openLine: f.openLine + lines, report: r && report(movedBlock(r.block, delta, lines), f.entry!), entry: f.entry };
+}
+
+/**
+ * The report of one block at its place in the note. The block is kept with
+ * the cache's copy of its body (and of its info string), so that a report
+ * carried over to later versions of the note holds on to none of this one.
+ */
+function report(found: FencedBlock, c: Cached): BlockReport {
+  const levels = found.info === 'levels';
+  const block: FencedBlock = {
+    info: levels ? found.info : ownCopy(found.info),
+    language: levels ? found.language : ownCopy(found.language),
+    openLine: found.openLine,
+    closeLine: found.closeLine,
+    openStart: found.openStart,
+    openEnd: found.openEnd,
+    blockEnd: found.blockEnd,
+    body: c.body,
+    bodyStart: found.bodyStart,
+    lines: found.lines,
+    bodyLine: found.bodyLine,
   };
   const problems: Problem[] = c.problems.length === 0 ? [] : c.problems.map((p) => ({
     ...p,
-    span: toNote(p.span),
-    ...(p.fixes ? { fixes: p.fixes.map((f) => ({ ...f, span: toNote(f.span) })) } : {}),
+    span: spanToNote(block, p.span),
+    ...(p.fixes ? { fixes: p.fixes.map((f) => ({ ...f, span: spanToNote(block, f.span) })) } : {}),
   }));
   if (block.closeLine === null) {
     problems.unshift({
@@ -192,7 +275,21 @@ function report(block: FencedBlock, c: Cached): BlockReport {
   }
   const hasError = problems.some((p) => p.severity === 'error');
   const status: Status = hasError || !c.results ? 'invalid' : c.results.status;
-  return { block, meta: c.meta, input: c.input, results: hasError ? null : c.results, status, problems, toNote };
+  return { block, meta: c.meta, input: c.input, results: hasError ? null : c.results, status, problems, toNote: reportToNote };
+}
+
+/** `toNote` of every report, one function for all (a copy of a report keeps it, and it reads the copy's block). */
+function reportToNote(this: BlockReport, span: Span): Span {
+  return spanToNote(this.block, span);
+}
+
+/** A body-relative span as note offsets; clamped to the body first, so every span lands inside the block. */
+function spanToNote(block: FencedBlock, s: Span): Span {
+  const last = block.body.length;
+  const from = Math.max(0, Math.min(s.start, last));
+  const start = bodyToDocument(block, from);
+  const end = Math.max(start, bodyToDocument(block, Math.max(from, Math.min(s.end, last))));
+  return { start, end };
 }
 
 /** The note-level warning of a bounded analysis, on the note's first line. */

@@ -105,11 +105,13 @@ export function findFencedBlocks(text: string): FencedBlock[] {
 /**
  * The blocks of {@link findFencedBlocks}, one at a time, so a caller that
  * stops early (a bounded analysis of a huge note) scans only up to there.
+ * A caller that knows the scan is outside any block at the start of line
+ * `line`, at offset `from` (where an earlier scan of the same text up to
+ * there found a fence opening), may start there instead of at the top.
  */
-export function* scanFencedBlocks(text: string): Generator<FencedBlock, void, undefined> {
+export function* scanFencedBlocks(text: string, from = 0, line = 0): Generator<FencedBlock, void, undefined> {
   // A byte-order mark is not part of the first line's content (a fence may follow it).
-  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
-  let line = 0;
+  let pos = from === 0 && text.charCodeAt(0) === 0xfeff ? 1 : from;
   let open: Open | null = null;
 
   // Next \r at or after pos, cached so the scan stays linear on long notes.

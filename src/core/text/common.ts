@@ -1,0 +1,33 @@
+/**
+ * How much two versions of a note share at their start and at their end, so
+ * that an edit is re-read from where it begins to where the old text resumes.
+ * Whole chunks are compared with string equality, which the engine does
+ * natively (a memory comparison), and only the last, differing chunk
+ * character by character: a 1 MB note costs a fraction of a millisecond
+ * instead of a million JavaScript-level comparisons.
+ */
+
+/** Characters compared at once; big enough that the per-chunk cost vanishes, small enough to waste little past the change. */
+const CHUNK = 4096;
+
+/** Length of the longest common prefix of `a` and `b`. */
+export function commonPrefix(a: string, b: string): number {
+  const n = Math.min(a.length, b.length);
+  let i = 0;
+  while (i + CHUNK <= n && a.slice(i, i + CHUNK) === b.slice(i, i + CHUNK)) i += CHUNK;
+  while (i < n && a.charCodeAt(i) === b.charCodeAt(i)) i++;
+  return i;
+}
+
+/**
+ * Length of the longest common suffix of `a` and `b` that leaves the first
+ * `prefix` characters of both alone, so that prefix and suffix never overlap
+ * (with `aaa` → `aaaa` the change is one inserted character, not a negative one).
+ */
+export function commonSuffix(a: string, b: string, prefix: number): number {
+  const n = Math.min(a.length, b.length) - prefix;
+  let i = 0;
+  while (i + CHUNK <= n && a.slice(a.length - i - CHUNK, a.length - i) === b.slice(b.length - i - CHUNK, b.length - i)) i += CHUNK;
+  while (i < n && a.charCodeAt(a.length - 1 - i) === b.charCodeAt(b.length - 1 - i)) i++;
+  return i;
+}
