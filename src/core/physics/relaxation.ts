@@ -17,6 +17,7 @@
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { inverse, Matrix } from 'ml-matrix';
 import type { Measured } from '../types';
+import { weightedLineFit } from './fit';
 
 /** Result of a series fit, in the input's units (times in s). */
 export interface SeriesFit {
@@ -38,8 +39,20 @@ export interface SeriesFit {
 /** Most Levenberg–Marquardt iterations per fit, over all rounds. */
 const MAX_ITERATIONS = 500;
 
-/** Iterations per round: the package has no relative stopping rule, so the fit runs in rounds and stops when one changes nothing. */
-const ROUND = 5;
+/**
+ * Iterations per round: the package has no relative stopping rule, so the fit runs in rounds
+ * and a test after each decides whether it has converged. From the log-linear start of a decay
+ * two or three iterations reach the minimum.
+ */
+const ROUND = 2;
+
+/**
+ * Largest Gauss–Newton step, relative to each parameter, of a converged fit. The package
+ * steers by a finite-difference Jacobian, whose fixed point lies a few parts in 10⁹ from
+ * the exact minimum on scattered data; 10⁻⁷ is well above that and far below any
+ * uncertainty a lab series can have.
+ */
+const STEP_TOLERANCE = 1e-7;
 
 type Model = (p: readonly number[], i: number) => number;
 
@@ -56,16 +69,43 @@ export function fitDecay(t: readonly number[], s: readonly number[], flip: numbe
     const e = Math.exp(-x[i] / k) * corr[i];
     return [e, (a * e * x[i]) / (k * k)];
   };
-  // Start from a log-linear estimate of the flip-corrected first and last points.
-  const y0 = y[0] / corr[0];
-  const yn = y[y.length - 1] / corr[corr.length - 1];
-  const ratio = yn / y0;
-  const k0 = ratio > 0 && ratio < 1 ? (x[x.length - 1] - x[0]) / -Math.log(ratio) : 1;
-  const fit = solve(x, y, f, jac, [y0 * Math.exp(x[0] / k0), k0], sigma ? sigma.map((u) => u / sMax) : null);
+  const start = logLinearStart(x, y, corr, sigma ? sigma.map((u) => u / sMax) : null);
+  const fit = solve(x, y, f, jac, start, sigma ? sigma.map((u) => u / sMax) : null);
   if (!fit) return null;
   const [a, k] = fit.p;
   const [ua, uk] = fit.u;
   return finish('decay', fit, { value: k * tMax, u: uk * tMax }, { value: a * sMax, u: ua * sMax }, null, s, (i) => f(fit.p, i) * sMax, sigma);
+}
+
+/**
+ * Where the decay fit starts: the weighted straight line through ln(S_n / cos^(n−1) θ)
+ * against t, slope −1/T₁ and intercept ln S₀, with weights (S_n/σ_n)² (σ of ln S is
+ * σ/S to first order, GUM §5.1.2), which is the least-squares answer itself for
+ * data without scatter and close to it otherwise, so the optimiser has little left
+ * to do. Points of the other sign than the first, or zero, are left out of the
+ * line; without two usable points, or when the line does not fall, the first and
+ * last points give the start instead.
+ */
+function logLinearStart(x: readonly number[], y: readonly number[], corr: readonly number[], sigma: readonly number[] | null): number[] {
+  const sign = y[0]! < 0 ? -1 : 1;
+  const xs: number[] = [];
+  const zs: number[] = [];
+  const us: number[] = [];
+  for (let i = 0; i < x.length; i++) {
+    const v = (sign * y[i]!) / corr[i]!;
+    if (!(v > 0)) continue;
+    xs.push(x[i]!);
+    zs.push(Math.log(v));
+    // σ of ln(S/c) is σ/|S|; unweighted data get σ ∝ 1/|S|, the same first-order weighting.
+    us.push((sigma ? sigma[i]! : 1) / Math.abs(y[i]!));
+  }
+  const line = xs.length >= 2 ? weightedLineFit(xs, zs, us) : null;
+  if (line && line.slope < 0 && Number.isFinite(line.intercept)) return [sign * Math.exp(line.intercept), -1 / line.slope];
+  const y0 = y[0]! / corr[0]!;
+  const yn = y[y.length - 1]! / corr[corr.length - 1]!;
+  const ratio = yn / y0;
+  const k0 = ratio > 0 && ratio < 1 ? (x[x.length - 1]! - x[0]!) / -Math.log(ratio) : 1;
+  return [y0 * Math.exp(x[0]! / k0), k0];
 }
 
 /** Fits a build-up S(t) = S∞(1 − e^(−t/τ)) + S₀. */
@@ -113,42 +153,80 @@ function solve(x: number[], y: number[], f: Model, jac: (p: readonly number[], i
       gradientDifference: 1e-6,
       centralDifference: true,
       maxIterations: iterations,
-      errorTolerance: 1e-14,
+      errorTolerance: 0,
       improvementThreshold: 1e-12,
     });
-  let result;
+  let p = initial;
+  let at: Curvature | null = null;
   let converged = false;
   try {
     // The package stops only on an absolute error threshold or its iteration limit, which noisy data
-    // always reach. So it runs in short rounds, each restarted at the best point so far, and the fit
-    // has converged when a round neither moves the parameters nor lowers the residual sum: the
-    // same test as one long run followed by a check, without spending the whole budget every time.
-    result = run(initial, ROUND);
-    for (let used = ROUND; used < MAX_ITERATIONS + ROUND && !converged; used += ROUND) {
-      const again = run(result.parameterValues, ROUND);
-      const moved = again.parameterValues.some((q, j) => Math.abs(q - result!.parameterValues[j]) > 1e-6 * Math.max(1e-12, Math.abs(q)));
-      converged = !moved && again.parameterError >= result.parameterError * (1 - 1e-9);
-      if (again.parameterError < result.parameterError) result = again;
+    // always reach. So it runs in short rounds, each from the best point of the last, and after each
+    // round the point is tested: the fit has converged when the Gauss–Newton step there,
+    // (JᵀWJ)⁻¹ JᵀW r with the analytic Jacobian, would move no parameter by more than STEP_TOLERANCE
+    // of its value (the usual relative step test; Dennis & Schnabel, Numerical Methods for
+    // Unconstrained Optimization, SIAM 1996, §7.2, from memory). The same JᵀWJ gives the covariance.
+    for (let used = 0; used < MAX_ITERATIONS && !converged; used += ROUND) {
+      const next = run(p, ROUND).parameterValues;
+      if (!next.every(Number.isFinite)) return null;
+      p = next;
+      at = curvature(p, x.length, (i) => y[i]! - f(p, i), (i) => jac(p, i), sigma);
+      converged = at !== null && at.step.every((d, j) => Math.abs(d) <= STEP_TOLERANCE * Math.abs(p[j]!));
     }
   } catch {
     return null;
   }
-  const p = result.parameterValues;
-  if (!p.every(Number.isFinite)) return null;
+  if (!at) return { p, u: p.map(() => NaN), converged: false };
   const dof = x.length - p.length;
   // Covariance (JᵀWJ)⁻¹, scaled by the reduced χ² when the data carry no uncertainties.
-  const J = new Matrix(index.map((i) => jac(p, i).map((d) => d / (sigma ? sigma[i] : 1))));
-  let cov: Matrix;
-  try {
-    cov = inverse(J.transpose().mmul(J));
-  } catch {
-    return { p, u: p.map(() => NaN), converged: false };
-  }
-  let chi2 = 0;
-  for (const i of index) chi2 += ((y[i] - f(p, i)) / (sigma ? sigma[i] : 1)) ** 2;
-  const scale = sigma ? 1 : dof > 0 ? chi2 / dof : NaN;
-  const u = p.map((_, j) => Math.sqrt(cov.get(j, j) * scale));
+  const scale = sigma ? 1 : dof > 0 ? at.chi2 / dof : NaN;
+  const u = p.map((_, j) => Math.sqrt(at!.covariance.get(j, j) * scale));
   return { p, u, converged };
+}
+
+/** What {@link curvature} finds at a point of the parameter space. */
+interface Curvature {
+  /** (JᵀWJ)⁻¹. */
+  readonly covariance: Matrix;
+  /** The Gauss–Newton step (JᵀWJ)⁻¹ JᵀW r. */
+  readonly step: number[];
+  /** Σ (r_i/σ_i)². */
+  readonly chi2: number;
+}
+
+/**
+ * JᵀWJ, its inverse and the Gauss–Newton step at one point, W = diag(1/σ²) (1 when
+ * unweighted), from the residuals r and the model's analytic derivatives. Null when
+ * JᵀWJ is singular (a parameter the data do not determine).
+ */
+function curvature(p: readonly number[], n: number, residual: (i: number) => number, derivatives: (i: number) => number[], sigma: readonly number[] | null): Curvature | null {
+  const m = p.length;
+  const jtj = Matrix.zeros(m, m);
+  const jtr = new Array<number>(m).fill(0);
+  let chi2 = 0;
+  for (let i = 0; i < n; i++) {
+    const w = sigma ? 1 / (sigma[i]! * sigma[i]!) : 1;
+    const d = derivatives(i);
+    const r = residual(i);
+    chi2 += w * r * r;
+    for (let j = 0; j < m; j++) {
+      jtr[j]! += w * d[j]! * r;
+      for (let l = 0; l < m; l++) jtj.set(j, l, jtj.get(j, l) + w * d[j]! * d[l]!);
+    }
+  }
+  let covariance: Matrix;
+  try {
+    covariance = inverse(jtj);
+  } catch {
+    return null;
+  }
+  const step = p.map((_, j) => {
+    let s = 0;
+    for (let l = 0; l < m; l++) s += covariance.get(j, l) * jtr[l]!;
+    return s;
+  });
+  if (!step.every(Number.isFinite)) return null;
+  return { covariance, step, chi2 };
 }
 
 function finish(
