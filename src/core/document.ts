@@ -205,7 +205,8 @@ export class Analyzer {
     try {
       const interp = interpretBody(body);
       const results = interp.input ? analyse(interp.input, this.options) : null;
-      const problems = [...interp.problems, ...(results?.problems ?? [])].sort((a, b) => a.span.start - b.span.start);
+      const all = [...interp.problems, ...(results?.problems ?? [])];
+      const problems = all.length > 1 ? all.sort((a, b) => a.span.start - b.span.start) : all.length === 1 ? all : NO_PROBLEMS;
       return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems };
     } catch (err) {
       const problem: Problem = { severity: 'error', code: 'internal-error', message: `Boltzmark failed on this block: ${(err as Error).message}. Please report it.`, span: { start: 0, end: Math.max(1, body.length) } };
@@ -260,23 +261,28 @@ function report(found: FencedBlock, c: Cached): BlockReport {
     lines: found.lines,
     bodyLine: found.bodyLine,
   };
-  const problems: Problem[] = c.problems.length === 0 ? [] : c.problems.map((p) => ({
+  const mapped = c.problems.map((p) => ({
     ...p,
     span: spanToNote(block, p.span),
     ...(p.fixes ? { fixes: p.fixes.map((f) => ({ ...f, span: spanToNote(block, f.span) })) } : {}),
   }));
-  if (block.closeLine === null) {
-    problems.unshift({
-      severity: 'warning',
-      code: 'fence-unclosed',
-      message: 'This block has no closing fence, so it runs to the end of the note.',
-      span: { start: block.openStart, end: block.openEnd },
-    });
-  }
+  const unclosed: Problem | null = block.closeLine !== null ? null : {
+    severity: 'warning',
+    code: 'fence-unclosed',
+    message: 'This block has no closing fence, so it runs to the end of the note.',
+    span: { start: block.openStart, end: block.openEnd },
+  };
+  const problems: readonly Problem[] = unclosed ? [unclosed, ...mapped] : mapped.length > 0 ? mapped : NO_PROBLEMS;
   const hasError = problems.some((p) => p.severity === 'error');
   const status: Status = hasError || !c.results ? 'invalid' : c.results.status;
   return { block, meta: c.meta, input: c.input, results: hasError ? null : c.results, status, problems, toNote: reportToNote };
 }
+
+/**
+ * The problem list of every block without problems (most blocks): one frozen
+ * empty list instead of one per block and per version of the report.
+ */
+const NO_PROBLEMS: readonly Problem[] = Object.freeze([]);
 
 /** `toNote` of every report, one function for all (a copy of a report keeps it, and it reads the copy's block). */
 function reportToNote(this: BlockReport, span: Span): Span {

@@ -88,7 +88,6 @@ export function formatUnitList(dim: Dimension): string {
   return unitsFor(dim).join(', ');
 }
 
-const DECIMAL = /[+\-\u2212]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+\-\u2212]?\d+)?/y;
 const NOT_A_NUMBER = /[+\-\u2212]?(?:nan|inf(?:inity)?)\b/iy;
 const PLUS_MINUS = /±|\+\/-|\+-/y;
 
@@ -100,33 +99,81 @@ function problem(code: string, message: string, span: Span, replacement?: Replac
 
 const SPACE = /\s/;
 
+/** True for a character `\s` matches; ASCII is decided by its code, the rest by the pattern. */
+function isSpace(c: number, ch: string): boolean {
+  return c < 128 ? c === 32 || (c >= 9 && c <= 13) : SPACE.test(ch);
+}
+
 function skipSpace(text: string, i: number): number {
-  while (i < text.length && SPACE.test(text[i])) i++;
+  while (i < text.length && isSpace(text.charCodeAt(i), text[i]!)) i++;
+  return i;
+}
+
+/** Characters a `nan` or `inf` spelling can start with (an optional sign, then n or i in any case). */
+function mayStartNotANumber(c: number): boolean {
+  return c === 43 || c === 45 || c === 0x2212 || c === 78 || c === 110 || c === 73 || c === 105;
+}
+
+function isDigit(c: number): boolean {
+  return c >= 48 && c <= 57;
+}
+
+/**
+ * End of the decimal written at `start`, or -1 when there is none: what the
+ * sticky pattern `[+−-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+−-]?\d+)?` would match
+ * there (minus signs ASCII or U+2212), found by stepping over the characters,
+ * which costs less than a regular expression on every number of every block.
+ */
+function endOfDecimal(text: string, start: number): number {
+  let i = start;
+  const sign = text.charCodeAt(i);
+  if (sign === 43 || sign === 45 || sign === 0x2212) i++;
+  const whole = i;
+  while (isDigit(text.charCodeAt(i))) i++;
+  if (text.charCodeAt(i) === 46 /* . */) {
+    let j = i + 1;
+    while (isDigit(text.charCodeAt(j))) j++;
+    // `1.` and `.5` are numbers, a point alone is not.
+    if (i === whole && j === i + 1) return -1;
+    i = j;
+  } else if (i === whole) {
+    return -1;
+  }
+  const e = text.charCodeAt(i);
+  if (e === 101 || e === 69) {
+    let k = i + 1;
+    const s = text.charCodeAt(k);
+    if (s === 43 || s === 45 || s === 0x2212) k++;
+    const digits = k;
+    while (isDigit(text.charCodeAt(k))) k++;
+    // An `e` not followed by digits is not part of the number (it starts the unit, as in `1 eV`… or `1eV`).
+    if (k > digits) i = k;
+  }
   return i;
 }
 
 /** Reads a JS-style decimal at `start`; rejects NaN, Infinity, overflow and decimal commas. */
 function scanNumber(text: string, start: number): Scanned {
   NOT_A_NUMBER.lastIndex = start;
-  const bad = NOT_A_NUMBER.exec(text);
+  const bad = mayStartNotANumber(text.charCodeAt(start)) ? NOT_A_NUMBER.exec(text) : null;
   if (bad) return problem('number-invalid', `\`${bad[0]}\` is not a finite number.`, { start, end: start + bad[0].length });
-  DECIMAL.lastIndex = start;
-  const m = DECIMAL.exec(text);
-  if (!m) {
+  const decimalEnd = endOfDecimal(text, start);
+  if (decimalEnd < 0) {
     const end = Math.max(start + 1, text.slice(start).search(/\s|$/) + start);
     return problem('number-invalid', 'Expected a number such as `7.05` or `2.0e16`.', { start, end: Math.min(end, text.length) });
   }
-  const span = { start, end: start + m[0].length };
+  const written = text.slice(start, decimalEnd);
+  const span = { start, end: decimalEnd };
   const comma = text.charCodeAt(span.end) === 44 /* , */ ? /^,\d+/.exec(text.slice(span.end)) : null;
-  if (comma && !m[0].includes('.')) {
+  if (comma && !written.includes('.')) {
     const whole = { start, end: span.end + comma[0].length };
     return problem('number-invalid', 'Use a decimal point, not a comma.', whole,
       { title: 'Use a decimal point', span: whole, newText: text.slice(whole.start, whole.end).replace(',', '.') });
   }
   // The Unicode minus is rare; only then is the text rewritten for Number().
-  const value = Number(m[0].includes('\u2212') ? m[0].replace('\u2212', '-').replace(/([eE])\u2212/, '$1-') : m[0]);
-  if (!Number.isFinite(value)) return problem('number-invalid', `\`${m[0]}\` is out of the range of double precision.`, span);
-  const sign = m[0].charCodeAt(0);
+  const value = Number(written.includes('\u2212') ? written.replace('\u2212', '-').replace(/([eE])\u2212/, '$1-') : written);
+  if (!Number.isFinite(value)) return problem('number-invalid', `\`${written}\` is out of the range of double precision.`, span);
+  const sign = written.charCodeAt(0);
   return { value, span, negative: sign === 45 /* - */ || sign === 0x2212 };
 }
 
@@ -144,7 +191,8 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
   let uncertainty: number | null = null;
   let uncertaintySpan: Span | null = null;
   PLUS_MINUS.lastIndex = i;
-  const pm = PLUS_MINUS.exec(text);
+  const c = text.charCodeAt(i);
+  const pm = c === 0xb1 || c === 43 ? PLUS_MINUS.exec(text) : null;
   if (pm) {
     const u = scanNumber(text, skipSpace(text, i + pm[0].length));
     if ('problem' in u) return u;
@@ -159,10 +207,22 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
   const end = text.trimEnd().length;
   if (i >= end) return { quantity: { value: value.value, uncertainty, unit: null, valueSpan: value.span, uncertaintySpan, unitSpan: null } };
   const rest = text.slice(i, end);
-  if (/^(?:±|\+-|\+\/-)/.test(rest) || (/^[+\-\u2212.\d]/.test(rest) && !/^1\s*\//.test(rest))) {
+  if (looksNumeric(rest)) {
     return problem('number-invalid', `Unexpected \`${rest}\` after the number.`, { start: i, end });
   }
   return { quantity: { value: value.value, uncertainty, unit: rest, valueSpan: value.span, uncertaintySpan, unitSpan: { start: i, end } } };
+}
+
+/**
+ * True when what follows the number starts like another number or a second
+ * `±` (not a unit): a sign, a digit or a point, except `1/…` (as in `1/cm`).
+ * The first character decides in all but that one case, which the pattern checks.
+ */
+function looksNumeric(rest: string): boolean {
+  const c = rest.charCodeAt(0);
+  if (c === 0xb1 || (c === 43 && (rest.startsWith('+-') || rest.startsWith('+/-')))) return true;
+  const numeric = c === 43 || c === 45 || c === 0x2212 || c === 46 || (c >= 48 && c <= 57);
+  return numeric && !(c === 49 && /^1\s*\//.test(rest));
 }
 
 /** The unit every dimension converts to: energies as E/k in K, fields in T, populations per cm³, and so on. */
@@ -175,8 +235,17 @@ const DIMENSIONS = Object.keys(TABLE) as Dimension[];
 
 /** The canonical spelling of `unit` in `dim` (following aliases), or null. */
 function resolve(unit: string, dim: Dimension): string | null {
-  const canonical = Object.hasOwn(TABLE[dim], unit) ? unit : Object.hasOwn(ALIASES, unit) ? ALIASES[unit] : null;
-  return canonical !== null && Object.hasOwn(TABLE[dim], canonical) ? canonical : null;
+  return RESOLVED[dim].get(unit) ?? null;
+}
+
+/** Per dimension, every accepted spelling with its canonical one: the canonical units, then the aliases of those. */
+const RESOLVED = {} as Record<Dimension, ReadonlyMap<string, string>>;
+for (const dim of DIMENSIONS) {
+  const spelled = new Map<string, string>(Object.keys(TABLE[dim]).map((u) => [u, u]));
+  for (const [alias, canonical] of Object.entries(ALIASES)) {
+    if (!spelled.has(alias) && Object.hasOwn(TABLE[dim], canonical)) spelled.set(alias, canonical);
+  }
+  RESOLVED[dim] = spelled;
 }
 
 /** Every accepted spelling in `dim`, canonical ones first. */

@@ -44,12 +44,14 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   const thermalPolarization = thermalPolarizationOf(input);
   const enhancement = polarization && thermalPolarization ? polarization.value / thermalPolarization : null;
   const outliers = lineOutliers(input, finding.fit, problems);
+  const pairs = fractions ? invertedPairs(energies, fractions, g) : NONE;
+  const all = finding.problems.length === 0 ? problems : [...problems, ...finding.problems];
   return {
     status: finding === NOTHING_MEASURED ? seriesStatus(series) : statusOf(beta, finding, options.saturationSigma),
     series,
     signal: signal?.result ?? null,
     gain: measureGain(input),
-    outliers,
+    outliers: outliers.length === 0 ? NONE : outliers,
     beta,
     limit: finding.limit,
     temperature,
@@ -58,12 +60,19 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     enhancement: enhancement !== null && Number.isFinite(enhancement) ? enhancement : null,
     entropy: fractions ? gibbsEntropy(fractions, g) : null,
     fit: finding.fit,
-    invertedPairs: fractions ? invertedPairs(energies, fractions, g) : [],
+    invertedPairs: pairs.length === 0 ? NONE : pairs,
     fractions,
     meanEnergy: fractions ? meanEnergy(fractions, energies) : null,
-    problems: [...problems, ...finding.problems],
+    problems: all.length === 0 ? NONE : all,
   };
 }
+
+/**
+ * The empty list every result without outliers, inverted pairs or problems
+ * shares: results stay cached for every block of every note, and most of
+ * these lists are empty. Frozen, as nothing may add to a shared list.
+ */
+const NONE: readonly never[] = Object.freeze([]);
 
 /** What a block without populations or polarization (a bare series) finds. */
 const NOTHING_MEASURED: BetaFinding = { beta: null, limit: null, fit: null, fractions: null, polarization: null, problems: [] };

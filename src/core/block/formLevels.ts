@@ -33,7 +33,8 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
   });
   if (!ok) return null;
   descendingNote(ctx, e, items, levels);
-  const sorted = [...levels].sort((a, b) => a.energy - b.energy);
+  // Levels written lowest first (the usual order) need no sort; the sort is stable, so it would change nothing.
+  const sorted = ascendingEnergies(levels) ? levels : [...levels].sort((a, b) => a.energy - b.energy);
   if (sorted[0].energy === sorted[sorted.length - 1].energy) {
     report(ctx, 'error', 'energy-equal', 'levels: all levels have the same energy, so no temperature can be defined.', nonEmpty(e.valueSpan));
     return null;
@@ -43,6 +44,11 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
     return null;
   }
   return { form: 'levels', levels: sorted, energyUnit: unit, spin: null, polarization: null, ratio: null, uGap: null };
+}
+
+function ascendingEnergies(levels: readonly LevelInput[]): boolean {
+  for (let i = 1; i < levels.length; i++) if (!(levels[i - 1]!.energy <= levels[i]!.energy)) return false;
+  return true;
 }
 
 /** The unit of the first level energy written with one, offered by the "add a unit" fix. */

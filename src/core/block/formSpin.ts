@@ -23,11 +23,12 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
   const measured = readSpinMeasurement(ctx, byKey, species);
   if (!species || !spin || !measured) return null;
   const n = Math.round(2 * species.spin + 1);
+  const labels = levelLabels(species, n);
   const levels: LevelInput[] = [];
   for (let k = 0; k < n; k++) {
     const pop = measured.populations?.[k] ?? null;
     levels.push({
-      label: `m = ${mLabel(species, k)}`,
+      label: labels[k]!,
       energy: k * spin.spacing,
       g: 1,
       population: pop ? pop.value : null,
@@ -37,6 +38,20 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
     });
   }
   return { form: 'spin', levels, energyUnit: 'MHz', spin, polarization: measured.polarization, ratio: null, uGap: spin.uSpacing, signal: measured.signal };
+}
+
+/** Labels already made, by spin and sign of γ (a notebook uses a handful of species). */
+const LABELS = new Map<number, readonly string[]>();
+
+/** `m = …` of each of the n levels from the bottom, made once per spin and sign of γ. */
+function levelLabels(species: SpinSpecies, n: number): readonly string[] {
+  const key = 4 * species.spin + (species.gamma >= 0 ? 1 : 0);
+  let labels = LABELS.get(key);
+  if (!labels) {
+    labels = Array.from({ length: n }, (_, k) => `m = ${mLabel(species, k)}`);
+    if (LABELS.size < 100) LABELS.set(key, labels);
+  }
+  return labels;
 }
 
 /** Magnetic quantum number of the k-th level from the bottom, as a fraction. */

@@ -8,9 +8,10 @@ import { readSpinForm } from './formSpin';
 import { readLevelsForm } from './formLevels';
 import { readTransitionForm } from './formTransition';
 import type { BlockInput, BlockMeta, FormRead } from './input';
-import { BLOCK_KEY_NAMES, BLOCK_KEYS, type BlockForm } from './schema';
+import { BLOCK_KEY_NAMES, BLOCK_KEYS, type BlockForm, type KeyDoc } from './schema';
 import { readLinesForm } from './formLines';
 import { readSeries } from './series';
+import { KeySpans } from './keySpans';
 import { unknownKey } from './unknownKey';
 import { insideBody, nonEmpty, readInteger, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
 import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
@@ -25,38 +26,14 @@ export interface Interpretation {
 /** Each schema key name, to keep that string rather than the parser's copy. */
 const KEY_NAMES: ReadonlyMap<string, string> = new Map([...BLOCK_KEY_NAMES].map((k) => [k, k]));
 
-/** Where a key and its value were written; one object with the four offsets, the spans made on request. */
-class KeySpans {
-  private readonly keyStart: number;
-  private readonly keyEnd: number;
-  private readonly valueStart: number;
-  private readonly valueEnd: number;
-
-  constructor(key: Span, value: Span) {
-    this.keyStart = key.start;
-    this.keyEnd = key.end;
-    this.valueStart = value.start;
-    this.valueEnd = value.end;
-  }
-
-  get key(): Span {
-    return { start: this.keyStart, end: this.keyEnd };
-  }
-
-  get value(): Span {
-    return { start: this.valueStart, end: this.valueEnd };
-  }
-}
-
 const FORM_KEYS: readonly [string, BlockForm][] = [['levels', 'levels'], ['system', 'spin'], ['gap', 'transition'], ['lines', 'lines']];
 
 /** Reads one block body (the text between the fences). Never throws. */
 export function interpretBody(body: string): Interpretation {
   const problems: Problem[] = [];
   const emptyMeta: BlockMeta = { id: null, idSpan: null, keys: new Map(), date: null };
-  const firstLine: Span = { start: 0, end: Math.max(1, body.search(/\r|\n|$/)) };
   if (!/\S/.test(body)) {
-    problems.push({ severity: 'error', code: 'block-empty', message: 'The block is empty: describe the levels with `levels:`, `system:` + `field:`, or `gap:`.', span: firstLine });
+    problems.push({ severity: 'error', code: 'block-empty', message: 'The block is empty: describe the levels with `levels:`, `system:` + `field:`, or `gap:`.', span: firstLine(body) });
     return { meta: emptyMeta, input: null, problems };
   }
   const parsed = parseBody(body);
@@ -64,18 +41,18 @@ export function interpretBody(body: string): Interpretation {
   const doc = parsed.doc;
   if (!doc) return { meta: emptyMeta, input: null, problems };
   if (!isMap(doc.contents)) {
-    const span = spanOf(doc.contents) ?? firstLine;
+    const span = spanOf(doc.contents) ?? firstLine(body);
     problems.push({ severity: 'error', code: 'body-not-mapping', message: 'The block must be a YAML mapping of `key: value` lines.', span: insideBody(nonEmpty(span), body) });
     return { meta: emptyMeta, input: null, problems };
   }
   const ctx: ReadContext = { doc, body, problems };
   const all = entries(doc, doc.contents);
   const byKey = new Map<string, Entry>();
-  const keys = new Map<string, KeySpans>();
+  const keys = new KeySpans();
   for (const e of all) {
     byKey.set(e.key, e);
-    // Kept for as long as the block is cached: the schema's own key string and one small object per key.
-    keys.set(KEY_NAMES.get(e.key) ?? e.key, new KeySpans(e.keySpan, e.valueSpan));
+    // Kept for as long as the block is cached: the schema's own key string and four offsets per key.
+    keys.add(KEY_NAMES.get(e.key) ?? e.key, e.keySpan, e.valueSpan);
     if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   }
   const idEntry = byKey.get('id');
@@ -84,10 +61,12 @@ export function interpretBody(body: string): Interpretation {
   const dateText = dateEntry ? readText(ctx, dateEntry.value) : null;
   const meta: BlockMeta = { id: idText && idText.text !== '' ? idText.text : null, idSpan: idText?.span ?? null, keys, date: dateText && dateText.text !== '' ? dateText.text : null };
 
-  const forms = FORM_KEYS.filter(([k]) => byKey.has(k)).sort((a, b) => byKey.get(a[0])!.keySpan.start - byKey.get(b[0])!.keySpan.start);
+  const forms: [string, BlockForm][] = [];
+  for (const f of FORM_KEYS) if (byKey.has(f[0])) forms.push(f);
+  if (forms.length > 1) forms.sort((a, b) => byKey.get(a[0])!.keySpan.start - byKey.get(b[0])!.keySpan.start);
   let input: BlockInput | null = null;
   if (forms.length === 0 && !byKey.has('series')) {
-    report(ctx, 'error', 'form-missing', 'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition); or give emission `lines:` or a time `series:`.', firstLine);
+    report(ctx, 'error', 'form-missing', 'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition); or give emission `lines:` or a time `series:`.', firstLine(body));
   } else if (forms.length > 1) {
     const [first, second] = forms;
     report(ctx, 'error', 'form-conflict', `Use one way of describing the levels: \`${first[0]}\` and \`${second[0]}\` cannot be combined.`, byKey.get(second[0])!.keySpan);
@@ -122,6 +101,11 @@ export function interpretBody(body: string): Interpretation {
   }
   if (countErrors(problems) > 0) input = null;
   return { meta, input, problems };
+}
+
+/** The body's first line, where problems of the block as a whole point (at least one character). */
+function firstLine(body: string): Span {
+  return { start: 0, end: Math.max(1, body.search(/\r|\n|$/)) };
 }
 
 function countErrors(problems: readonly Problem[]): number {
@@ -159,14 +143,28 @@ function readForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: Blo
 
 /** Warns about keys of another form (`detector` in a spin block, `signal` with explicit levels…); they are ignored. */
 function misplacedKeys(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: BlockForm): void {
-  for (const doc of BLOCK_KEYS) {
-    if (doc.form === 'any' || doc.form === form) continue;
+  for (const doc of FOREIGN_KEYS[form]) {
     const e = byKey.get(doc.key);
-    if (!e) continue;
-    // `populations` and `g` belong to both the spin and transition readers; FORM_KEYS themselves are reported as conflicts.
-    if (FORM_KEYS.some(([k]) => k === doc.key)) continue;
-    report(ctx, 'warning', 'key-not-for-form', `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form]}; it is ignored in ${FORM_NAMES[form]}.`, e.keySpan);
+    if (e) report(ctx, 'warning', 'key-not-for-form', `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form as BlockForm]}; it is ignored in ${FORM_NAMES[form]}.`, e.keySpan);
   }
+}
+
+/**
+ * Per form, the keys that belong to another form, in schema order, worked out
+ * once instead of for every block. The form keys themselves (`levels`,
+ * `system`, `gap`, `lines`) are left out: two of them together are reported
+ * as a conflict instead.
+ */
+const FOREIGN_KEYS: Record<BlockForm, readonly KeyDoc[]> = {
+  levels: foreignKeys('levels'),
+  spin: foreignKeys('spin'),
+  transition: foreignKeys('transition'),
+  lines: foreignKeys('lines'),
+  series: foreignKeys('series'),
+};
+
+function foreignKeys(form: BlockForm): KeyDoc[] {
+  return BLOCK_KEYS.filter((doc) => doc.form !== 'any' && doc.form !== form && !FORM_KEYS.some(([k]) => k === doc.key));
 }
 
 const FORM_NAMES: Record<BlockForm, string> = {

@@ -7,11 +7,15 @@ import type { Span } from '../types';
 import { readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import { deref, isScalar, type Entry } from './yamlTree';
 
+const LETTER = /[a-zA-Zµ]/;
+
 /** Reads one population; reports negative values. */
 export function readPopulation(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
   const n = deref(ctx.doc, node);
   const text = isScalar(n) && typeof n.value === 'string' ? n.value : '';
-  const v = /[a-zA-Zµ]/.test(text.replace(/e[+-]?\d/gi, '')) ? readQuantity(ctx, n, 'density', subject) : readNumber(ctx, n, subject);
+  // A letter other than an exponent's `e` means a unit; text without any letter needs no closer look.
+  const unit = LETTER.test(text) && LETTER.test(text.replace(/e[+-]?\d/gi, ''));
+  const v = unit ? readQuantity(ctx, n, 'density', subject) : readNumber(ctx, n, subject);
   if (v && v.value < 0) {
     report(ctx, 'error', 'population-negative', `${subject}: a population cannot be negative.`, v.span);
     return null;
