@@ -33,8 +33,9 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
   });
   if (!ok) return null;
   descendingNote(ctx, e, items, levels);
-  // Levels written lowest first (the usual order) need no sort; the sort is stable, so it would change nothing.
-  const sorted = ascendingEnergies(levels) ? levels : [...levels].sort((a, b) => a.energy - b.energy);
+  // Levels written lowest first (the usual order) need no sort (it is stable, so it would change nothing), only
+  // a copy at the final length: the list grown by push keeps spare room, and this one stays cached with the block.
+  const sorted = ascendingEnergies(levels) ? levels.slice() : [...levels].sort((a, b) => a.energy - b.energy);
   if (sorted[0].energy === sorted[sorted.length - 1].energy) {
     report(ctx, 'error', 'energy-equal', 'levels: all levels have the same energy, so no temperature can be defined.', nonEmpty(e.valueSpan));
     return null;

@@ -24,10 +24,11 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
   if (!species || !spin || !measured) return null;
   const n = Math.round(2 * species.spin + 1);
   const labels = levelLabels(species, n);
-  const levels: LevelInput[] = [];
+  // Made at its final length: a list grown by push keeps spare room, and this one stays cached with the block.
+  const levels = new Array<LevelInput>(n);
   for (let k = 0; k < n; k++) {
     const pop = measured.populations?.[k] ?? null;
-    levels.push({
+    levels[k] = {
       label: labels[k]!,
       energy: k * spin.spacing,
       g: 1,
@@ -35,7 +36,7 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
       uPopulation: pop ? pop.uncertainty : null,
       span: pop ? pop.span : null,
       populationSpan: pop ? pop.span : null,
-    });
+    };
   }
   return { form: 'spin', levels, energyUnit: 'MHz', spin, polarization: measured.polarization, ratio: null, uGap: spin.uSpacing, signal: measured.signal };
 }

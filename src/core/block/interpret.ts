@@ -26,6 +26,10 @@ export interface Interpretation {
 /** Each schema key name, to keep that string rather than the parser's copy. */
 const KEY_NAMES: ReadonlyMap<string, string> = new Map([...BLOCK_KEY_NAMES].map((k) => [k, k]));
 
+function keepName(key: string): string {
+  return KEY_NAMES.get(key) ?? key;
+}
+
 const FORM_KEYS: readonly [string, BlockForm][] = [['levels', 'levels'], ['system', 'spin'], ['gap', 'transition'], ['lines', 'lines']];
 
 /** Reads one block body (the text between the fences). Never throws. */
@@ -48,11 +52,10 @@ export function interpretBody(body: string): Interpretation {
   const ctx: ReadContext = { doc, body, problems };
   const all = entries(doc, doc.contents);
   const byKey = new Map<string, Entry>();
-  const keys = new KeySpans();
+  // Kept for as long as the block is cached; the spans are found again when first asked for.
+  const keys = new KeySpans(body, keepName);
   for (const e of all) {
     byKey.set(e.key, e);
-    // Kept for as long as the block is cached: the schema's own key string and four offsets per key.
-    keys.add(KEY_NAMES.get(e.key) ?? e.key, e.keySpan, e.valueSpan);
     if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   }
   const idEntry = byKey.get('id');

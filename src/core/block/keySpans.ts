@@ -1,12 +1,14 @@
 /**
  * Where each key of a block and its value were written, as hosts look them up
- * (hovers on a key, the species of `system:`). It stays in the cache for as
- * long as the block does, for every block of every note, so it is kept
- * compact: the key names in one array and their four offsets each in another,
- * instead of a Map of small span objects. A block has a handful of keys, so a
- * linear search finds one as fast as a hash would; the spans are made on request.
+ * (hovers on a key, the species of `system:`). Every cached block of every note
+ * has one, and a host asks for the keys of few of them, so they are found on
+ * the first request, by reading the body again, and then kept compact: the key
+ * names and their four offsets each in one array of its final length, instead
+ * of a Map of small span objects. A block has a handful of keys, so a linear
+ * search finds one as fast as a hash would; the spans are made on request.
  */
 import type { Span } from '../types';
+import { entries, parseBody } from './yamlTree';
 
 /** The spans of one key: the key itself and its value. */
 export interface KeyAt {
@@ -16,58 +18,115 @@ export interface KeyAt {
 
 /** Key name → spans, in the order the keys were written; a later duplicate replaces the earlier one's spans, as `Map.set` does. */
 export class KeySpans implements ReadonlyMap<string, KeyAt> {
-  private readonly names: string[] = [];
-  /** Key start, key end, value start and value end of each name, in turn. */
-  private readonly offsets: number[] = [];
+  /** The body until the keys are first asked for, then null. */
+  private body: string | null;
+  private readonly keep: (name: string) => string;
+  /**
+   * Name, key start, key end, value start and value end of each key, in turn, in one
+   * array made at its final length (a growing array keeps spare room, and this one is
+   * kept for as long as its block); empty until first asked for.
+   */
+  private found: (string | number)[] = NONE;
 
-  /** Records a key (the reader's only writer). */
-  add(name: string, key: Span, value: Span): void {
-    let i = this.names.indexOf(name);
-    if (i < 0) {
-      i = this.names.length;
-      this.names.push(name);
+  /** The keys of a block body (offsets into it); `keep` gives the string to keep for a name (the schema's own, not the parser's copy). */
+  constructor(body: string, keep: (name: string) => string = (name) => name) {
+    this.body = body;
+    this.keep = keep;
+  }
+
+  /** The keys' records, read from the body on the first call. */
+  private get data(): (string | number)[] {
+    if (this.body !== null) {
+      const { doc } = parseBody(this.body);
+      this.body = null;
+      this.found = doc ? record(entries(doc, doc.contents), this.keep) : NONE;
     }
-    this.offsets[4 * i] = key.start;
-    this.offsets[4 * i + 1] = key.end;
-    this.offsets[4 * i + 2] = value.start;
-    this.offsets[4 * i + 3] = value.end;
+    return this.found;
   }
 
   get size(): number {
-    return this.names.length;
+    return this.data.length / STRIDE;
   }
 
   has(name: string): boolean {
-    return this.names.includes(name);
+    return this.find(name) >= 0;
   }
 
   get(name: string): KeyAt | undefined {
-    const i = this.names.indexOf(name);
+    const i = this.find(name);
     return i < 0 ? undefined : this.at(i);
   }
 
   forEach(callback: (value: KeyAt, key: string, map: ReadonlyMap<string, KeyAt>) => void, thisArg?: unknown): void {
-    this.names.forEach((name, i) => callback.call(thisArg, this.at(i), name, this));
+    for (let i = 0; i < this.data.length; i += STRIDE) callback.call(thisArg, this.at(i), this.data[i] as string, this);
   }
 
   *entries(): MapIterator<[string, KeyAt]> {
-    for (let i = 0; i < this.names.length; i++) yield [this.names[i]!, this.at(i)];
+    for (let i = 0; i < this.data.length; i += STRIDE) yield [this.data[i] as string, this.at(i)];
   }
 
   *keys(): MapIterator<string> {
-    yield* this.names;
+    for (let i = 0; i < this.data.length; i += STRIDE) yield this.data[i] as string;
   }
 
   *values(): MapIterator<KeyAt> {
-    for (let i = 0; i < this.names.length; i++) yield this.at(i);
+    for (let i = 0; i < this.data.length; i += STRIDE) yield this.at(i);
   }
 
   [Symbol.iterator](): MapIterator<[string, KeyAt]> {
     return this.entries();
   }
 
-  private at(i: number): KeyAt {
-    const o = this.offsets;
-    return { key: { start: o[4 * i]!, end: o[4 * i + 1]! }, value: { start: o[4 * i + 2]!, end: o[4 * i + 3]! } };
+  /** Index in `data` of the name's record, or -1. */
+  private find(name: string): number {
+    for (let i = 0; i < this.data.length; i += STRIDE) if (this.data[i] === name) return i;
+    return -1;
   }
+
+  private at(i: number): KeyAt {
+    const d = this.data as number[];
+    return { key: { start: d[i + 1]!, end: d[i + 2]! }, value: { start: d[i + 3]!, end: d[i + 4]! } };
+  }
+}
+
+/** Entries per key in the data array. */
+const STRIDE = 5;
+
+const NONE: (string | number)[] = [];
+
+/** The mapping entries a body was read into, as `KeySpans` keeps them. */
+interface WrittenKey {
+  readonly key: string;
+  readonly keySpan: Span;
+  readonly valueSpan: Span;
+}
+
+function record(written: readonly WrittenKey[], keep: (name: string) => string): (string | number)[] {
+  let n = 0;
+  for (let i = 0; i < written.length; i++) if (indexOf(written, written[i]!.key, i) === i) n++;
+  const data = new Array<string | number>(STRIDE * n);
+  let at = 0;
+  for (let i = 0; i < written.length; i++) {
+    const w = written[i]!;
+    // The spans are those of the last key of the name; the place in the order is that of the first.
+    if (indexOf(written, w.key, i) !== i) continue;
+    const l = written[lastIndexOf(written, w.key)]!;
+    data[at] = keep(w.key);
+    data[at + 1] = l.keySpan.start;
+    data[at + 2] = l.keySpan.end;
+    data[at + 3] = l.valueSpan.start;
+    data[at + 4] = l.valueSpan.end;
+    at += STRIDE;
+  }
+  return data;
+}
+
+function indexOf(written: readonly WrittenKey[], name: string, before: number): number {
+  for (let i = 0; i <= before; i++) if (written[i]!.key === name) return i;
+  return -1;
+}
+
+function lastIndexOf(written: readonly WrittenKey[], name: string): number {
+  for (let i = written.length - 1; i >= 0; i--) if (written[i]!.key === name) return i;
+  return -1;
 }
