@@ -17,7 +17,7 @@
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { inverse, Matrix } from 'ml-matrix';
 import type { Measured } from '../types';
-import { weightedLineFit } from './fit';
+import { weightedLineFit } from './lineFit';
 
 /** Result of a series fit, in the input's units (times in s). */
 export interface SeriesFit {
