@@ -153,6 +153,8 @@ function solve(x: number[], y: number[], f: Model, jac: (p: readonly number[], i
       gradientDifference: 1e-6,
       centralDifference: true,
       maxIterations: iterations,
+      // 0: every lower residual sum counts as the best point (a positive tolerance would hold the
+      // package a few digits short of the minimum), and only an exact fit stops a round early.
       errorTolerance: 0,
       improvementThreshold: 1e-12,
     });
