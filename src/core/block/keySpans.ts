@@ -102,31 +102,18 @@ interface WrittenKey {
 }
 
 function record(written: readonly WrittenKey[], keep: (name: string) => string): (string | number)[] {
-  let n = 0;
-  for (let i = 0; i < written.length; i++) if (indexOf(written, written[i]!.key, i) === i) n++;
-  const data = new Array<string | number>(STRIDE * n);
+  // A Map keeps each name at its first place and the spans of its last entry, as the reader's own map does.
+  const last = new Map<string, WrittenKey>();
+  for (const w of written) last.set(w.key, w);
+  const data = new Array<string | number>(STRIDE * last.size);
   let at = 0;
-  for (let i = 0; i < written.length; i++) {
-    const w = written[i]!;
-    // The spans are those of the last key of the name; the place in the order is that of the first.
-    if (indexOf(written, w.key, i) !== i) continue;
-    const l = written[lastIndexOf(written, w.key)]!;
-    data[at] = keep(w.key);
-    data[at + 1] = l.keySpan.start;
-    data[at + 2] = l.keySpan.end;
-    data[at + 3] = l.valueSpan.start;
-    data[at + 4] = l.valueSpan.end;
+  for (const [name, w] of last) {
+    data[at] = keep(name);
+    data[at + 1] = w.keySpan.start;
+    data[at + 2] = w.keySpan.end;
+    data[at + 3] = w.valueSpan.start;
+    data[at + 4] = w.valueSpan.end;
     at += STRIDE;
   }
   return data;
-}
-
-function indexOf(written: readonly WrittenKey[], name: string, before: number): number {
-  for (let i = 0; i <= before; i++) if (written[i]!.key === name) return i;
-  return -1;
-}
-
-function lastIndexOf(written: readonly WrittenKey[], name: string): number {
-  for (let i = written.length - 1; i >= 0; i--) if (written[i]!.key === name) return i;
-  return -1;
 }

@@ -69,8 +69,8 @@ export function fitDecay(t: readonly number[], s: readonly number[], flip: numbe
     const e = Math.exp(-x[i] / k) * corr[i];
     return [e, (a * e * x[i]) / (k * k)];
   };
-  const start = logLinearStart(x, y, corr, sigma ? sigma.map((u) => u / sMax) : null);
-  const fit = solve(x, y, f, jac, start, sigma ? sigma.map((u) => u / sMax) : null);
+  const scaledSigma = sigma ? sigma.map((u) => u / sMax) : null;
+  const fit = solve(x, y, f, jac, logLinearStart(x, y, corr, scaledSigma), scaledSigma);
   if (!fit) return null;
   const [a, k] = fit.p;
   const [ua, uk] = fit.u;
@@ -173,7 +173,9 @@ function solve(x: number[], y: number[], f: Model, jac: (p: readonly number[], i
       if (!next.every(Number.isFinite)) return null;
       p = next;
       at = curvature(p, x.length, (i) => y[i]! - f(p, i), (i) => jac(p, i), sigma);
-      converged = at !== null && at.step.every((d, j) => Math.abs(d) <= STEP_TOLERANCE * Math.abs(p[j]!));
+      // A singular JᵀWJ leaves a parameter undetermined; more rounds would not change that.
+      if (!at) break;
+      converged = at.step.every((d, j) => Math.abs(d) <= STEP_TOLERANCE * Math.abs(p[j]!));
     }
   } catch {
     return null;
