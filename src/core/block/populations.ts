@@ -12,8 +12,9 @@ const LETTER = /[a-zA-Zµ]/;
 /** Reads one population; reports negative values. */
 export function readPopulation(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
   const n = deref(ctx.doc, node);
-  const text = isScalar(n) && typeof n.value === 'string' ? n.value : '';
-  // A letter other than an exponent's `e` means a unit; text without any letter needs no closer look.
+  // A letter other than an exponent's `e` means a unit; text without any letter needs no closer look
+  // (nor typing: a number's text has no letter but an exponent's, and the typed value is only read for text).
+  const text = isScalar(n) && LETTER.test(n.source) && typeof n.value === 'string' ? n.value : '';
   const unit = LETTER.test(text) && LETTER.test(text.replace(/e[+-]?\d/gi, ''));
   const v = unit ? readQuantity(ctx, n, 'density', subject) : readNumber(ctx, n, subject);
   if (v && v.value < 0) {

@@ -3,14 +3,13 @@
  * lists, each with its body-relative span. Problems are collected in the
  * reader's list; nothing throws.
  */
-import type { Document } from 'yaml';
-import { isScalar, isSeq, spanOf, deref } from './yamlTree';
+import { isNullScalar, isScalar, isSeq, spanOf, deref, type YamlTree } from './yamlTree';
 import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../units';
 import type { Problem, Replacement, Severity, Span } from '../types';
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
-  readonly doc: Document.Parsed;
+  readonly doc: YamlTree;
   readonly body: string;
   readonly problems: Problem[];
 }
@@ -79,7 +78,7 @@ export interface QuantityOptions {
 export function readQuantity(ctx: ReadContext, node: unknown, dim: Dimension, subject: string, opts: QuantityOptions = {}): ReadValue | null {
   const n = deref(ctx.doc, node);
   const src = scalarSource(ctx, n);
-  if (!src || src.text.trim() === '' || (isScalar(n) && n.value === null)) {
+  if (!src || src.text.trim() === '' || isNullScalar(n)) {
     const span = spanOf(n) ?? { start: 0, end: 0 };
     report(ctx, 'error', 'value-missing', `${subject}: a value is needed here, such as ${example(dim)}.`, nonEmpty(span));
     return null;
@@ -133,7 +132,7 @@ function nonEmpty(span: Span): Span {
 export function readNumber(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
   const n = deref(ctx.doc, node);
   const src = scalarSource(ctx, n);
-  if (!src || src.text.trim() === '' || (isScalar(n) && n.value === null)) {
+  if (!src || src.text.trim() === '' || isNullScalar(n)) {
     report(ctx, 'error', 'value-missing', `${subject}: a number is needed here.`, nonEmpty(spanOf(n) ?? { start: 0, end: 0 }));
     return null;
   }

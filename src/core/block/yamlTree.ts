@@ -1,18 +1,29 @@
 /**
  * Reads a block body with the `yaml` package and gives the rest of the core a
- * small, position-keeping view of it. Offsets are body-relative (the block
- * layer maps them to the note). Parsing never throws; YAML's own errors and
- * our bounds come back as problems.
+ * small, position-keeping view of it (`tree.ts`). Offsets are body-relative
+ * (the block layer maps them to the note). Parsing never throws; YAML's own
+ * errors and our bounds come back as problems.
  */
-import { Document, isAlias, isMap, isPair, isScalar, isSeq, Node, parseDocument } from 'yaml';
+import { Document, isAlias as isYamlAlias, isMap as isYamlMap, isPair, isScalar as isYamlScalar, isSeq as isYamlSeq, parseDocument, type YAMLMap, type YAMLSeq } from 'yaml';
 import type { Problem, Span } from '../types';
+import { plainTree } from './cstTree';
+import type { TreeAlias, TreeMap, TreeNode, TreeScalar, TreeSeq } from './tree';
+import { YAML_OPTIONS } from './yamlOptions';
+
+export { YAML_OPTIONS };
+export type { TreeMap, TreeNode, TreeScalar, TreeSeq };
 
 /** How many nodes aliases may add when expanded, in all, per block. */
 export const ALIAS_EXPANSION_LIMIT = 10_000;
 
-/** A parsed body: the document (or null when unusable) and the problems found. */
+/** What the block readers walk: the body's root node. */
+export interface YamlTree {
+  readonly contents: TreeNode | null;
+}
+
+/** A parsed body: its tree (or null when unusable) and the problems found. */
 export interface YamlBody {
-  readonly doc: Document.Parsed | null;
+  readonly doc: YamlTree | null;
   readonly problems: Problem[];
 }
 
@@ -22,16 +33,20 @@ const YAML_CODES: Record<string, string> = {
   TAB_AS_INDENT: 'yaml-tab-indent',
 };
 
-/** The options every block body is parsed with (the benchmarks parse with the same ones). */
-export const YAML_OPTIONS = { uniqueKeys: true, prettyErrors: false, keepSourceTokens: false, strict: true } as const;
-
-/** Parses one block body as YAML 1.2 with unique keys required. */
+/**
+ * Parses one block body as YAML 1.2 with unique keys required. A plain body
+ * (see `cstTree.ts`) is built from the parser's syntax tree alone; any other
+ * goes through the package's full `parseDocument`, which reports its problems.
+ */
 export function parseBody(body: string): YamlBody {
   const problems: Problem[] = [];
   let doc: Document.Parsed;
+  // YAML 1.2 counts a lone \r as a line break (§5.4) but the parser does not; \n in its place keeps every offset.
+  const text = body.includes('\r') ? body.replace(/\r(?!\n)/g, '\n') : body;
   try {
-    // YAML 1.2 counts a lone \r as a line break (§5.4) but the parser does not; \n in its place keeps every offset.
-    doc = parseDocument(body.includes('\r') ? body.replace(/\r(?!\n)/g, '\n') : body, YAML_OPTIONS);
+    const plain = plainTree(text);
+    if (plain) return { doc: { contents: plain }, problems };
+    doc = parseDocument(text, YAML_OPTIONS);
   } catch (err) {
     // The parser is robust, but a bug or a stack overflow on pathological nesting must not take the note down.
     problems.push({ severity: 'error', code: 'yaml-syntax', message: `The block could not be read as YAML (${(err as Error).message}).`, span: { start: 0, end: body.length } });
@@ -54,7 +69,7 @@ export function parseBody(body: string): YamlBody {
     });
     return { doc: null, problems };
   }
-  return { doc, problems };
+  return { doc: { contents: treeOfDocument(doc) }, problems };
 }
 
 const NO_ALIASES = { added: 0, firstAlias: null } as const;
@@ -85,7 +100,7 @@ function aliasExpansion(doc: Document.Parsed): { added: number; firstAlias: Span
   while (stack.length > 0) {
     const top = stack.pop()!;
     const node = top.node;
-    if (isAlias(node)) {
+    if (isYamlAlias(node)) {
       const target = node.resolve(doc);
       const s = target ? (size.get(target) ?? 1) : 1;
       added += s;
@@ -109,7 +124,7 @@ function aliasExpansion(doc: Document.Parsed): { added: number; firstAlias: Span
 }
 
 function children(node: unknown): unknown[] {
-  if (isMap(node) || isSeq(node)) {
+  if (isYamlMap(node) || isYamlSeq(node)) {
     const out: unknown[] = [];
     for (const item of node.items as unknown[]) {
       if (isPair(item)) {
@@ -122,14 +137,57 @@ function children(node: unknown): unknown[] {
   return [];
 }
 
+/**
+ * The package's document as our tree (exported for the tests that compare it
+ * with the plain-body shortcut's): each node made once (an alias points at
+ * its anchor's node, so aliases cost nothing more), iteratively, so that deeply
+ * nested input cannot overflow the stack.
+ */
+export function treeOfDocument(doc: Document.Parsed): TreeNode | null {
+  const made = new Map<unknown, TreeNode>();
+  const pending: [YAMLMap | YAMLSeq, TreeMap | TreeSeq][] = [];
+  const make = (n: unknown): TreeNode | null => {
+    if (n == null) return null;
+    const seen = made.get(n);
+    if (seen) return seen;
+    let t: TreeNode | null = null;
+    if (isYamlAlias(n)) {
+      const target = n.resolve(doc);
+      t = { kind: 'alias', target: target ? make(target) : null, range: n.range ?? null };
+    } else if (isYamlScalar(n)) {
+      t = { kind: 'scalar', value: n.value, source: typeof n.source === 'string' ? n.source : String(n.value), type: n.type ?? null, range: n.range ?? null, isNull: n.value === null };
+    } else if (isYamlMap(n)) {
+      t = { kind: 'map', items: [], range: n.range ?? null, flow: n.flow === true };
+      pending.push([n, t]);
+    } else if (isYamlSeq(n)) {
+      t = { kind: 'seq', items: [], range: n.range ?? null, flow: n.flow === true };
+      pending.push([n, t]);
+    }
+    if (t) made.set(n, t);
+    return t;
+  };
+  const root = make(doc.contents);
+  while (pending.length > 0) {
+    const [from, to] = pending.pop()!;
+    if (to.kind === 'map') {
+      for (const item of from.items as unknown[]) {
+        if (isPair(item)) to.items.push({ key: make(item.key), value: make(item.value) });
+      }
+    } else {
+      for (const item of from.items as unknown[]) to.items.push(make(item));
+    }
+  }
+  return root;
+}
+
 /** Follows an alias to its anchored node; other nodes are returned as they are. */
-export function deref(doc: Document.Parsed, node: unknown): unknown {
-  return isAlias(node) ? node.resolve(doc) : node;
+export function deref(_tree: YamlTree, node: unknown): unknown {
+  return isAlias(node) ? node.target : node;
 }
 
 /** The span a node covers (value part, without trailing comments), or null. */
 export function spanOf(node: unknown): Span | null {
-  const r = (node as Node | null)?.range;
+  const r = (node as TreeNode | null | undefined)?.range;
   return r ? { start: r[0], end: Math.max(r[1], r[0]) } : null;
 }
 
@@ -142,7 +200,7 @@ export interface Entry {
 }
 
 /** Entries of a YAML mapping node; non-scalar keys are skipped (the caller reports them). */
-export function entries(doc: Document.Parsed, node: unknown): Entry[] {
+export function entries(doc: YamlTree, node: unknown): Entry[] {
   const map = deref(doc, node);
   if (!isMap(map)) return [];
   const out: Entry[] = [];
@@ -157,4 +215,23 @@ export function entries(doc: Document.Parsed, node: unknown): Entry[] {
   return out;
 }
 
-export { isMap, isScalar, isSeq };
+export function isMap(node: unknown): node is TreeMap {
+  return (node as TreeNode | null | undefined)?.kind === 'map';
+}
+
+export function isSeq(node: unknown): node is TreeSeq {
+  return (node as TreeNode | null | undefined)?.kind === 'seq';
+}
+
+export function isScalar(node: unknown): node is TreeScalar {
+  return (node as TreeNode | null | undefined)?.kind === 'scalar';
+}
+
+function isAlias(node: unknown): node is TreeAlias {
+  return (node as TreeNode | null | undefined)?.kind === 'alias';
+}
+
+/** True for a scalar whose value is YAML's null (`~`, `null`, nothing at all). */
+export function isNullScalar(node: unknown): boolean {
+  return isScalar(node) && node.isNull;
+}
