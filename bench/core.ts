@@ -5,6 +5,10 @@
  *   Analyzer so nothing is cached) against the YAML floor: `parseDocument`
  *   of the `yaml` package, with the options the block reader passes, over
  *   the same block bodies and nothing else;
+ * - for information, full analysis against the package's parser alone (its
+ *   `Parser`, the syntax tree without the composer), which is all of the
+ *   package that plain bodies go through (src/core/block/cstTree.ts): what
+ *   the reading and the physics cost on top of the least YAML work there is;
  * - an incremental edit (one character changed inside one block, then the
  *   whole note analysed again by a warm Analyzer) against the full analysis:
  *   the median of 4 × `repetitions` edits over the median full analysis.
@@ -16,7 +20,7 @@
  * lives in). The ratio reported is the median of the per-repetition ratios,
  * which a busy machine disturbs least.
  */
-import { parseDocument } from 'yaml';
+import { parseDocument, Parser } from 'yaml';
 import { Analyzer, findFencedBlocks } from '../src/core';
 import { YAML_OPTIONS } from '../src/core/block/yamlTree';
 import { generateNote } from './note';
@@ -32,6 +36,10 @@ export interface CoreFigures {
   readonly fullMs: number;
   /** Median over repetitions of full / floor. */
   readonly fullRatio: number;
+  /** The package's parser alone over the same bodies. */
+  readonly parserMs: number;
+  /** Median over repetitions of full / parser alone. */
+  readonly parserRatio: number;
   readonly incrementalMs: number;
   /** Median incremental time over the median full time (both measured here). */
   readonly incrementalRatio: number;
@@ -65,21 +73,36 @@ export function measureCore(repetitions: number): CoreFigures {
   const full = (): void => {
     new Analyzer().analyzeText(note);
   };
+  let tokens = 0;
+  const parser = (): void => {
+    for (const body of bodies) for (const _ of new Parser().parse(body)) tokens++;
+  };
   // Warm-up: the JIT compiles both paths before anything is timed.
   for (let i = 0; i < 3; i++) {
     floor();
     full();
+    parser();
   }
   const floorMs: number[] = [];
   const fullMs: number[] = [];
+  const parserMs: number[] = [];
   const ratios: number[] = [];
+  const parserRatios: number[] = [];
   for (let i = 0; i < repetitions; i++) {
-    const pair: number[] = [];
-    for (const side of i % 2 === 0 ? [floor, full] : [full, floor]) pair[side === floor ? 0 : 1] = timeOnce(side);
-    floorMs.push(pair[0]!);
-    fullMs.push(pair[1]!);
-    ratios.push(pair[1]! / pair[0]!);
+    const times = new Map<() => void, number>();
+    // The order turns each repetition, so that no side always runs first (or after the same one).
+    const sides = [floor, full, parser];
+    for (let k = 0; k < 3; k++) {
+      const side = sides[(i + k) % 3]!;
+      times.set(side, timeOnce(side));
+    }
+    floorMs.push(times.get(floor)!);
+    fullMs.push(times.get(full)!);
+    parserMs.push(times.get(parser)!);
+    ratios.push(times.get(full)! / times.get(floor)!);
+    parserRatios.push(times.get(full)! / times.get(parser)!);
   }
+  if (tokens === 0) throw new Error('the parser gave no tokens');
 
   // The edit loop runs on its own, on a warm analyzer, so no full analysis leaves garbage for it to collect.
   const warm = new Analyzer();
@@ -105,6 +128,8 @@ export function measureCore(repetitions: number): CoreFigures {
     floorMs: median(floorMs),
     fullMs: median(fullMs),
     fullRatio: median(ratios),
+    parserMs: median(parserMs),
+    parserRatio: median(parserRatios),
     incrementalMs: median(incMs),
     incrementalRatio: median(incMs) / median(fullMs),
   };
