@@ -55,7 +55,7 @@ function ascendingEnergies(levels: readonly LevelInput[]): boolean {
 /** The unit of the first level energy written with one, offered by the "add a unit" fix. */
 function firstEnergyUnit(ctx: ReadContext, items: unknown[]): string | null {
   for (const item of items) {
-    const energy = entries(ctx.doc, item).find((x) => x.key === 'energy');
+    const energy = entries(item).find((x) => x.key === 'energy');
     const t = energy ? readText(ctx, energy.value) : null;
     const m = t ? /^\s*[-+]?[\d.]+(?:[eE][-+]?\d+)?\s*(?:(?:±|\+-)\s*[\d.]+(?:[eE][-+]?\d+)?\s*)?([^\s\d].*?)\s*$/.exec(t.text) : null;
     if (m) return m[1];
@@ -70,7 +70,7 @@ function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): Le
     report(ctx, 'error', 'level-not-mapping', `${subject}: each level is a mapping such as \`{ energy: 120 cm-1, g: 3, population: 0.25 }\`.`, nonEmpty(span ?? { start: 0, end: 0 }));
     return null;
   }
-  const byKey = new Map(entries(ctx.doc, item).map((x) => [x.key, x] as const));
+  const byKey = new Map(entries(item).map((x) => [x.key, x] as const));
   for (const x of byKey.values()) if (!LEVEL_KEY_NAMES.has(x.key)) unknownKey(ctx, x, LEVEL_KEY_NAMES);
   const ee = byKey.get('energy');
   const pe = byKey.get('population');

@@ -68,7 +68,7 @@ function readLine(ctx: ReadContext, item: unknown, i: number, detector: 'energy'
     report(ctx, 'error', 'line-not-mapping', `${subject}: each line is a mapping such as \`{ wavelength: 696.54 nm, upper: 13.328 eV, g: 3, A: 6.39e6, intensity: 1520 }\`.`, span);
     return null;
   }
-  const byKey = new Map(entries(ctx.doc, item).map((x) => [x.key, x] as const));
+  const byKey = new Map(entries(item).map((x) => [x.key, x] as const));
   for (const x of byKey.values()) if (!KEYS.has(x.key)) unknownKey(ctx, x, KEYS);
   const need = (key: string, why: string): Entry | undefined => {
     const x = byKey.get(key);

@@ -49,8 +49,8 @@ export function interpretBody(body: string): Interpretation {
     problems.push({ severity: 'error', code: 'body-not-mapping', message: 'The block must be a YAML mapping of `key: value` lines.', span: insideBody(nonEmpty(span), body) });
     return { meta: emptyMeta, input: null, problems };
   }
-  const ctx: ReadContext = { doc, body, problems };
-  const all = entries(doc, doc.contents);
+  const ctx: ReadContext = { body, problems };
+  const all = entries(doc.contents);
   const byKey = new Map<string, Entry>();
   // Kept for as long as the block is cached; the spans are found again when first asked for.
   const keys = new KeySpans(body, keepName);

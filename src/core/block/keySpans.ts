@@ -39,7 +39,7 @@ export class KeySpans implements ReadonlyMap<string, KeyAt> {
     if (this.body !== null) {
       const { doc } = parseBody(this.body);
       this.body = null;
-      this.found = doc ? record(entries(doc, doc.contents), this.keep) : NONE;
+      this.found = doc ? record(entries(doc.contents), this.keep) : NONE;
     }
     return this.found;
   }

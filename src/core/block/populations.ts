@@ -11,7 +11,7 @@ const LETTER = /[a-zA-Zµ]/;
 
 /** Reads one population; reports negative values. */
 export function readPopulation(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
-  const n = deref(ctx.doc, node);
+  const n = deref(node);
   // A letter other than an exponent's `e` means a unit; text without any letter needs no closer look
   // (nor typing: a number's text has no letter but an exponent's, and the typed value is only read for text).
   const text = isScalar(n) && LETTER.test(n.source) && typeof n.value === 'string' ? n.value : '';

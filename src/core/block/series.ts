@@ -18,7 +18,7 @@ export function readSeries(ctx: ReadContext, e: Entry): SeriesInput | null {
     report(ctx, 'error', 'series-not-mapping', 'series: give `model`, `time` and `signal` as a mapping.', e.keySpan);
     return null;
   }
-  const byKey = new Map(entries(ctx.doc, e.value).map((x) => [x.key, x] as const));
+  const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
   for (const x of byKey.values()) if (!SERIES_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(SERIES_KEYS));
   const model = readModel(ctx, byKey.get('model'), e);
   const te = byKey.get('time');

@@ -21,7 +21,7 @@ export function readSignal(ctx: ReadContext, e: Entry, fromSeries: boolean): Sig
     report(ctx, 'error', 'signal-not-mapping', 'signal: give `hyperpolarized:` and `thermal:` (and optionally `scans`, `flip`, `gain`, `amount`, `noise`) as a mapping.', e.keySpan);
     return null;
   }
-  const byKey = new Map(entries(ctx.doc, e.value).map((x) => [x.key, x] as const));
+  const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
   for (const x of byKey.values()) if (!SIGNAL_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(SIGNAL_KEYS));
   const noise = readPair(ctx, byKey.get('noise'), 'noise', (node, s) => readNumber(ctx, node, s), null, (v) => v >= 0, 'noise must be ≥ 0');
   const hpEntry = byKey.get('hyperpolarized');
@@ -85,7 +85,7 @@ function readPair(
     report(ctx, 'error', 'signal-not-mapping', `signal.${name}: give \`{ hyperpolarized: …, thermal: … }\`.`, spanOf(e.value) ?? e.keySpan);
     return null;
   }
-  const byKey = new Map(entries(ctx.doc, e.value).map((x) => [x.key, x] as const));
+  const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
   for (const x of byKey.values()) if (!(SIDES as readonly string[]).includes(x.key)) unknownKey(ctx, x, new Set(SIDES));
   const out: number[] = [];
   for (const side of SIDES) {

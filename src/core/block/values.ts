@@ -3,13 +3,12 @@
  * lists, each with its body-relative span. Problems are collected in the
  * reader's list; nothing throws.
  */
-import { isNullScalar, isScalar, isSeq, spanOf, deref, type YamlTree } from './yamlTree';
+import { isNullScalar, isScalar, isSeq, spanOf, deref } from './yamlTree';
 import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../units';
 import type { Problem, Replacement, Severity, Span } from '../types';
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
-  readonly doc: YamlTree;
   readonly body: string;
   readonly problems: Problem[];
 }
@@ -76,7 +75,7 @@ export interface QuantityOptions {
 
 /** Reads `"<number> [± u] <unit>"` (or a bare number) into canonical units; reports and returns null on a problem. */
 export function readQuantity(ctx: ReadContext, node: unknown, dim: Dimension, subject: string, opts: QuantityOptions = {}): ReadValue | null {
-  const n = deref(ctx.doc, node);
+  const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src || src.text.trim() === '' || isNullScalar(n)) {
     const span = spanOf(n) ?? { start: 0, end: 0 };
@@ -130,7 +129,7 @@ function nonEmpty(span: Span): Span {
  * populations, polarization, ratios and the like.
  */
 export function readNumber(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
-  const n = deref(ctx.doc, node);
+  const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src || src.text.trim() === '' || isNullScalar(n)) {
     report(ctx, 'error', 'value-missing', `${subject}: a number is needed here.`, nonEmpty(spanOf(n) ?? { start: 0, end: 0 }));
@@ -163,7 +162,7 @@ export function readInteger(ctx: ReadContext, node: unknown, subject: string, co
 
 /** Reads a scalar as text (numbers are kept as written). */
 export function readText(ctx: ReadContext, node: unknown): { text: string; span: Span } | null {
-  const n = deref(ctx.doc, node);
+  const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src) return null;
   return { text: isScalar(n) && n.value !== null ? String(n.value) : '', span: src.span };
@@ -171,12 +170,12 @@ export function readText(ctx: ReadContext, node: unknown): { text: string; span:
 
 /** The items of a YAML sequence, or null (with a problem) when the node is not one. */
 export function readList(ctx: ReadContext, node: unknown, subject: string, span: Span): unknown[] | null {
-  const n = deref(ctx.doc, node);
+  const n = deref(node);
   if (!isSeq(n)) {
     report(ctx, 'error', 'list-expected', `${subject} must be a list, e.g. \`[0.7, 0.3]\`.`, nonEmpty(spanOf(n) ?? span));
     return null;
   }
-  return n.items.map((i) => deref(ctx.doc, i));
+  return n.items.map((i) => deref(i));
 }
 
 export { nonEmpty };

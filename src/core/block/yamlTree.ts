@@ -181,7 +181,7 @@ export function treeOfDocument(doc: Document.Parsed): TreeNode | null {
 }
 
 /** Follows an alias to its anchored node; other nodes are returned as they are. */
-export function deref(_tree: YamlTree, node: unknown): unknown {
+export function deref(node: unknown): unknown {
   return isAlias(node) ? node.target : node;
 }
 
@@ -200,15 +200,15 @@ export interface Entry {
 }
 
 /** Entries of a YAML mapping node; non-scalar keys are skipped (the caller reports them). */
-export function entries(doc: YamlTree, node: unknown): Entry[] {
-  const map = deref(doc, node);
+export function entries(node: unknown): Entry[] {
+  const map = deref(node);
   if (!isMap(map)) return [];
   const out: Entry[] = [];
   for (const pair of map.items) {
     const k = pair.key;
     if (!isScalar(k) || k.range == null) continue;
     const keySpan = spanOf(k)!;
-    const value = deref(doc, pair.value);
+    const value = deref(pair.value);
     const valueSpan = spanOf(pair.value) ?? { start: keySpan.end, end: keySpan.end };
     out.push({ key: String(k.value), keySpan, value, valueSpan });
   }
