@@ -71,9 +71,20 @@ export function plainTree(body: string): TreeMap | null {
 
 type Node = TreeScalar | TreeMap | TreeSeq;
 
+/** Spaces without a tab (a tab is where the composer's indentation rules start). */
+function space(t: CST.SourceToken): boolean {
+  return t.type === 'space' && !t.source.includes('\t');
+}
+
 /** Spaces without a tab, or a line break. */
 function blank(t: CST.SourceToken): boolean {
-  return t.type === 'newline' || (t.type === 'space' && !t.source.includes('\t'));
+  return t.type === 'newline' || space(t);
+}
+
+/** Adds a mapping entry; a key equal to an earlier one (by resolved value, as the composer compares keys) is refused. */
+function addPair(pairs: { key: TreeScalar; value: TreeNode }[], key: TreeScalar, value: TreeNode): void {
+  for (const p of pairs) if (p.key.value === key.value) refuse();
+  pairs.push({ key, value });
 }
 
 /**
@@ -89,7 +100,7 @@ function separators(tokens: readonly CST.SourceToken[], from: number, to: number
     if (t.type === 'newline') {
       newline = true;
       spaced = true;
-    } else if (t.type === 'space' && !t.source.includes('\t')) spaced = true;
+    } else if (space(t)) spaced = true;
     else if (t.type !== 'comment' || !spaced) refuse();
   }
   return newline;
@@ -97,7 +108,7 @@ function separators(tokens: readonly CST.SourceToken[], from: number, to: number
 
 function blockMap(bm: CST.BlockMap, depth: number): TreeMap {
   if (depth > MAX_DEPTH) refuse();
-  const items: { key: TreeNode; value: TreeNode }[] = [];
+  const items: { key: TreeScalar; value: TreeNode }[] = [];
   let offset = bm.offset;
   for (const item of bm.items) {
     if (item.explicitKey || !item.key || !item.sep) refuse();
@@ -105,12 +116,10 @@ function blockMap(bm: CST.BlockMap, depth: number): TreeMap {
     const key = item.key;
     if (key.type !== 'scalar' || key.indent !== bm.indent) refuse();
     const keyNode = scalar(key, true);
-    // Keys are compared as the composer compares them: by resolved value.
-    for (const p of items) if ((p.key as TreeScalar).value === keyNode.value) refuse();
     // `:` then spaces and line breaks; a line break before the `:` would make a multi-line key.
     const sep = item.sep;
     let at = 0;
-    while (at < sep.length && sep[at]!.type === 'space' && !sep[at]!.source.includes('\t')) at++;
+    while (at < sep.length && space(sep[at]!)) at++;
     // The composer (strict) wants the `:` of an implicit key at most 1024 characters after the key's start.
     if (sep[at]?.type !== 'map-value-ind' || sep[at]!.offset - key.offset > 1000) refuse();
     const newline = separators(sep, at + 1, sep.length, false);
@@ -126,7 +135,7 @@ function blockMap(bm: CST.BlockMap, depth: number): TreeMap {
     else if (isFlowScalar(value)) valueNode = scalar(value, false);
     else refuse();
     offset = valueNode.range![2];
-    items.push({ key: keyNode, value: valueNode });
+    addPair(items, keyNode, valueNode);
   }
   return { kind: 'map', items, range: [bm.offset, offset, offset], flow: false };
 }
@@ -140,10 +149,7 @@ function blockSeq(bs: CST.BlockSequence, depth: number): TreeSeq {
     const dash = item.start.findIndex((t) => t.type === 'seq-item-ind');
     if (dash < 0) refuse();
     separators(item.start, 0, dash, true);
-    for (let i = dash + 1; i < item.start.length; i++) {
-      const t = item.start[i]!;
-      if (t.type !== 'space' || t.source.includes('\t')) refuse();
-    }
+    for (let i = dash + 1; i < item.start.length; i++) if (!space(item.start[i]!)) refuse();
     const value = item.value;
     if (!value) refuse();
     let node: Node;
@@ -161,7 +167,7 @@ function flow(fc: CST.FlowCollection, depth: number): TreeMap | TreeSeq {
   if (depth > MAX_DEPTH) refuse();
   const isMap = fc.start.source === '{';
   if (!isMap && fc.start.source !== '[') refuse();
-  const pairs: { key: TreeNode; value: TreeNode }[] = [];
+  const pairs: { key: TreeScalar; value: TreeNode }[] = [];
   const values: TreeNode[] = [];
   for (let i = 0; i < fc.items.length; i++) {
     const item = fc.items[i]!;
@@ -179,16 +185,15 @@ function flow(fc: CST.FlowCollection, depth: number): TreeMap | TreeSeq {
       const sep = item.sep;
       if (!key || !sep || key.type !== 'scalar') refuse();
       const keyNode = scalar(key, true);
-      for (const p of pairs) if ((p.key as TreeScalar).value === keyNode.value) refuse();
       let found = false;
       for (const t of sep) {
         if (t.type === 'map-value-ind') {
           if (found) refuse();
           found = true;
-        } else if (t.type !== 'space' || t.source.includes('\t')) refuse();
+        } else if (!space(t)) refuse();
       }
       if (!found) refuse();
-      pairs.push({ key: keyNode, value: flowValue(value, depth) });
+      addPair(pairs, keyNode, flowValue(value, depth));
     } else {
       if (item.key || item.sep) refuse();
       values.push(flowValue(value, depth));
@@ -196,10 +201,12 @@ function flow(fc: CST.FlowCollection, depth: number): TreeMap | TreeSeq {
   }
   const [close, ...rest] = fc.end;
   if (close?.source !== (isMap ? '}' : ']')) refuse();
-  for (const t of rest) if (!blank(t)) refuse();
   const closed = close.offset + close.source.length;
   let end = closed;
-  for (const t of rest) end += t.source.length;
+  for (const t of rest) {
+    if (!blank(t)) refuse();
+    end += t.source.length;
+  }
   const range: TreeRange = [fc.offset, closed, end];
   return isMap ? { kind: 'map', items: pairs, range, flow: true } : { kind: 'seq', items: values, range, flow: true };
 }
@@ -228,7 +235,7 @@ function scalar(token: CST.FlowScalar, atKey: boolean): TreeScalar {
   // (a key must end on its line, and a comment there would end the line before the `:`).
   if (token.end) {
     if (atKey) {
-      for (const t of token.end) if (t.type !== 'space' || t.source.includes('\t')) refuse();
+      for (const t of token.end) if (!space(t)) refuse();
     } else separators(token.end, 0, token.end.length, false);
   }
   let failed = false;

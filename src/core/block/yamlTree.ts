@@ -11,7 +11,6 @@ import type { TreeAlias, TreeMap, TreeNode, TreeScalar, TreeSeq } from './tree';
 import { YAML_OPTIONS } from './yamlOptions';
 
 export { YAML_OPTIONS };
-export type { TreeMap, TreeNode, TreeScalar, TreeSeq };
 
 /** How many nodes aliases may add when expanded, in all, per block. */
 export const ALIAS_EXPANSION_LIMIT = 10_000;
