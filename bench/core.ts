@@ -7,7 +7,7 @@
  *   the same block bodies and nothing else;
  * - for information, full analysis against the package's parser alone (its
  *   `Parser`, the syntax tree without the composer), which is all of the
- *   package that plain bodies go through (src/core/block/cstTree.ts): what
+ *   package that plain bodies go through (src/core/block/plainBody.ts): what
  *   the reading and the physics cost on top of the least YAML work there is;
  * - an incremental edit (one character changed inside one block, then the
  *   whole note analysed again by a warm Analyzer) against the full analysis:

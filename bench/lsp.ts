@@ -11,7 +11,7 @@
  * analysis and the feature add to the round trip.
  */
 import { Analyzer, LineIndex } from '../src/core';
-import { AnalysisStatsRequest } from '../src/server/protocol';
+import { AnalysisStatsRequest } from '../src/shared/protocol';
 import { startLsp, type LspSession } from '../test/protocol/lspClient';
 import { benchNote } from './core';
 import { median, now, quantile } from './stats';

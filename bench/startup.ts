@@ -18,12 +18,12 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync
 import Module from 'node:module';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
-import { lazyNotebook } from '../scripts/lazyNotebook.cjs';
+import { lazyNoteReader } from '../scripts/lazyNoteReader.cjs';
 import { median, now } from './stats';
 
 /** One bundle: its size and its limit (KB), or null when its entry point does not exist yet. */
 export interface BundleSize {
-  readonly name: 'client' | 'notebook' | 'server' | 'webview' | 'cli' | 'language client alone';
+  readonly name: 'client' | 'note reader' | 'server' | 'webview' | 'cli' | 'language client alone';
   readonly entry: string;
   readonly kb: number | null;
   readonly limitKb: number | null;
@@ -39,7 +39,7 @@ export interface BundleSize {
  * it pulls in stay under a tenth of that floor. A fixed 300 KB cannot hold:
  * the library alone minifies to about 430 KB.
  */
-const LIMITS: Record<BundleSize['name'], number | null> = { client: null, notebook: 450, server: 600, webview: 450, cli: null, 'language client alone': null };
+const LIMITS: Record<BundleSize['name'], number | null> = { client: null, 'note reader': 450, server: 600, webview: 450, cli: null, 'language client alone': null };
 const CLIENT_OVER_FLOOR = 1.1;
 
 /** The floor: the language client and nothing else. */
@@ -47,14 +47,14 @@ const FLOOR_SOURCE = "import { LanguageClient } from 'vscode-languageclient/node
 
 const ENTRIES: readonly { name: BundleSize['name']; entry: string; out: string; browser: boolean }[] = [
   { name: 'client', entry: 'src/client/extension.ts', out: 'extension', browser: false },
-  { name: 'notebook', entry: 'src/client/notebook.ts', out: 'notebook', browser: false },
+  { name: 'note reader', entry: 'src/client/noteReader.ts', out: 'noteReader', browser: false },
   { name: 'server', entry: 'src/server/index.ts', out: 'server', browser: false },
   { name: 'webview', entry: 'media/src/view.ts', out: 'media/view', browser: true },
   { name: 'cli', entry: 'src/cli/index.ts', out: 'cli', browser: false },
 ];
 
 const COMMON = { bundle: true, minify: true, sourcemap: false, logLevel: 'warning' as const, legalComments: 'linked' as const, write: false as const };
-const NODE = { platform: 'node' as const, target: 'node20', format: 'cjs' as const, external: ['vscode'], plugins: [lazyNotebook] };
+const NODE = { platform: 'node' as const, target: 'node20', format: 'cjs' as const, external: ['vscode'], plugins: [lazyNoteReader] };
 
 /** Writes the JavaScript output of a build; returns its size in KB. */
 function writeJs(result: esbuild.BuildResult): number {

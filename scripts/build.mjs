@@ -2,23 +2,23 @@
 // `--production` minifies (used for packaging and the size budget).
 import * as esbuild from 'esbuild';
 import { existsSync } from 'node:fs';
-import lazy from './lazyNotebook.cjs';
+import lazy from './lazyNoteReader.cjs';
 
-const { lazyNotebook } = lazy;
+const { lazyNoteReader } = lazy;
 
 const watch = process.argv.includes('--watch');
 const production = process.argv.includes('--production');
 
 /**
  * Node-side bundles: CLI, language server, the extension client, and the
- * client's note reader (`dist/notebook.js`), which the client loads only
+ * client's note reader (`dist/noteReader.js`), which the client loads only
  * when the preview, the run log or a CSV export first needs it.
  */
 const nodeEntries = [
   { in: 'src/cli/index.ts', out: 'dist/cli' },
   { in: 'src/server/index.ts', out: 'dist/server' },
-  { in: 'src/client/extension.ts', out: 'dist/extension', plugins: [lazyNotebook] },
-  { in: 'src/client/notebook.ts', out: 'dist/notebook' },
+  { in: 'src/client/extension.ts', out: 'dist/extension', plugins: [lazyNoteReader] },
+  { in: 'src/client/noteReader.ts', out: 'dist/noteReader' },
 ].filter((e) => existsSync(e.in));
 
 /** Browser-side bundles for the webview. */

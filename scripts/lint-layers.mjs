@@ -1,7 +1,7 @@
 // Enforces the layer invariants of docs/architecture.md by reading imports:
 // src/core imports neither vscode, the LSP packages nor Node built-ins;
 // src/server never imports vscode; src/cli never imports vscode or the LSP packages;
-// nothing reachable from src/core/light.ts imports a package.
+// nothing reachable from src/core/packageFree.ts imports a package.
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { builtinModules } from 'node:module';
@@ -34,10 +34,10 @@ for (const { dir, forbid } of rules) {
     }
   }
 }
-// src/core/light.ts promises a core without packages (the activation bundle and the
+// src/core/packageFree.ts promises a core without packages (the activation bundle and the
 // webview rely on it): follow its relative imports and refuse any bare one.
 const seen = new Set();
-const queue = ['src/core/light.ts'];
+const queue = ['src/core/packageFree.ts'];
 while (queue.length) {
   const f = queue.pop();
   if (seen.has(f)) continue;
@@ -47,7 +47,7 @@ while (queue.length) {
     const mod = m[1] ?? m[2] ?? m[3] ?? m[4];
     // Type-only imports are erased before bundling: they bring no code along.
     if (!mod || /^\s*(import|export)\s+type\s/.test(m[0])) continue;
-    if (!mod.startsWith('.')) { console.error(`${f}: imports '${mod}', but it is reachable from src/core/light.ts, which must import no package`); bad++; continue; }
+    if (!mod.startsWith('.')) { console.error(`${f}: imports '${mod}', but it is reachable from src/core/packageFree.ts, which must import no package`); bad++; continue; }
     const base = join(dirname(f), mod);
     const next = [`${base}.ts`, join(base, 'index.ts')].find((c) => existsSync(c));
     if (next) queue.push(next);

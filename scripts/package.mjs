@@ -23,7 +23,7 @@ const stage = join(root, 'out', 'vsix');
 /** What the staging copy needs: the packaged files plus what the build reads. */
 const STAGED = ['package.json', 'package.nls.json', 'README.md', 'LICENSE', 'CHANGELOG.md', '.vscodeignore', 'tsconfig.json', 'src', 'media', 'syntaxes', 'docs', 'scripts/build.mjs', 'scripts/lazyNotebook.cjs'];
 /** Files a user's install cannot do without. */
-const REQUIRED = ['package.json', 'package.nls.json', 'README.md', 'LICENSE', 'CHANGELOG.md', 'dist/extension.js', 'dist/notebook.js', 'dist/server.js', 'docs/format.md', 'media/icon.png'];
+const REQUIRED = ['package.json', 'package.nls.json', 'README.md', 'LICENSE', 'CHANGELOG.md', 'dist/extension.js', 'dist/noteReader.js', 'dist/server.js', 'docs/format.md', 'media/icon.png'];
 /** Nothing of the development tree goes in. */
 const FORBIDDEN = [/tsconfig\.json$/, /^src\//, /^test\//, /^scripts\//, /^bench\//, /^demo\//, /node_modules\//, /\.map$/, /\.ts$/, /^\.editor-host\//, /^dist\/cli\.js$/];
 

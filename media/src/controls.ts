@@ -7,7 +7,7 @@
 import '@vscode-elements/elements/dist/vscode-button/index.js';
 import '@vscode-elements/elements/dist/vscode-option/index.js';
 import '@vscode-elements/elements/dist/vscode-single-select/index.js';
-import { ENERGY_AXIS_UNITS, type EnergyAxisUnit } from '../../src/core/light';
+import { ENERGY_AXIS_UNITS, type EnergyAxisUnit } from '../../src/core/packageFree';
 
 /** What the controls ask for. */
 export interface ControlActions {

@@ -4,7 +4,7 @@
  * series with its fitted model, and the residuals on a right-hand axis.
  */
 import { Chart, type ChartDataset } from 'chart.js';
-import type { MeasurementPlot } from '../../src/core/light';
+import type { MeasurementPlot } from '../../src/core/packageFree';
 import { shortNumber } from './numbers';
 import type { Palette } from './theme';
 

@@ -4,7 +4,7 @@
  * dS/dE = β still holds on screen), axis ranges, error bars, the deficit gap
  * and the inversion region. Pure: no DOM, no chart.js.
  */
-import { pinsBesides, type CurvePayload, type DisplayUnit, type EnergyAxisUnit, type PinnedRun } from '../../src/core/light';
+import { pinsBesides, type CurvePayload, type DisplayUnit, type EnergyAxisUnit, type PinnedRun } from '../../src/core/packageFree';
 import { shortNumber, shortTemperature } from './numbers';
 import type { Palette } from './theme';
 

@@ -3,7 +3,7 @@
  * notes, the first error of an invalid block, and the list of pinned runs.
  * Every string from a note is set with `textContent`, never parsed as HTML.
  */
-import type { CurvePayload, PinnedRun, ProblemPayload } from '../../src/core/light';
+import type { CurvePayload, PinnedRun, ProblemPayload } from '../../src/core/packageFree';
 
 function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, className?: string): HTMLElementTagNameMap[K] {
   const e = document.createElement(tag);

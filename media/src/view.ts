@@ -8,11 +8,11 @@
  * `body[data-state]` is `chart`, `problem` or `empty`, and each canvas
  * (`#entropy-chart`, `#beta-chart`) carries its plot area and axis ranges.
  *
- * The page imports the core through src/core/light.ts rather than
+ * The page imports the core through src/core/packageFree.ts rather than
  * src/core/index.ts: that part depends on no package, so the bundle stays
  * free of the YAML reader and the analysis it never runs.
  */
-import type { EnergyAxisUnit, RenderMessage } from '../../src/core/light';
+import type { EnergyAxisUnit, RenderMessage } from '../../src/core/packageFree';
 import { CurveCharts } from './charts';
 import { wireControls } from './controls';
 import { composePng } from './exportImage';

@@ -5,7 +5,7 @@
  */
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
-import { ResultsMarkdownRequest } from '../server/protocol';
+import { ResultsMarkdownRequest } from '../shared/protocol';
 import { CurveView } from './curveView';
 
 /** Resolves the note and line a command acts on: its arguments, or the active editor's cursor. */

@@ -6,7 +6,7 @@
  */
 import * as vscode from 'vscode';
 import type { CurvePayload, EnergyAxisUnit } from '../core';
-import { notebook } from './lazy';
+import { noteReader } from './loadNoteReader';
 import { fileStem, imageLink, pngBytes } from './exportNames';
 
 async function saveAs(note: vscode.Uri, name: string, filters: Record<string, string[]>): Promise<vscode.Uri | undefined> {
@@ -24,7 +24,7 @@ export async function savePng(p: CurvePayload, dataUrl: string): Promise<vscode.
 /** Asks where to save the CSV of the shown and pinned runs and writes it. */
 export async function saveCsv(p: CurvePayload, pinned: readonly CurvePayload[], unit: EnergyAxisUnit): Promise<vscode.Uri | undefined> {
   const uri = await saveAs(vscode.Uri.parse(p.uri), `${fileStem(p.id)}-curve.csv`, { CSV: ['csv'] });
-  if (uri) await vscode.workspace.fs.writeFile(uri, Buffer.from(notebook().curveCsv([p, ...pinned], unit === 'block' ? p.unit : null), 'utf8'));
+  if (uri) await vscode.workspace.fs.writeFile(uri, Buffer.from(noteReader().curveCsv([p, ...pinned], unit === 'block' ? p.unit : null), 'utf8'));
   return uri;
 }
 

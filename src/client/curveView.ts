@@ -8,8 +8,8 @@
  */
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
-import { isViewState, isViewToHost, pinsBesides, type CurvePayload, type PinnedRun, type ViewPayload, type ViewToHost } from '../core/light';
-import { CurveDataRequest } from '../server/protocol';
+import { isViewState, isViewToHost, pinsBesides, type CurvePayload, type PinnedRun, type ViewPayload, type ViewToHost } from '../core/packageFree';
+import { CurveDataRequest } from '../shared/protocol';
 import { copyImageLink, saveCsv, savePng } from './curveExport';
 import { newNonce, viewHtml } from './viewHtml';
 

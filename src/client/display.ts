@@ -4,8 +4,8 @@
  * reads them, so every place shows the same strings.
  */
 import * as vscode from 'vscode';
-import { DEFAULT_DISPLAY, type DisplayOptions } from '../core/light';
-import { fromSection } from '../server/settings';
+import { DEFAULT_DISPLAY, type DisplayOptions } from '../core/packageFree';
+import { fromSection } from '../shared/settings';
 
 /** The display options from the settings (of the resource's folder, when one is given). */
 export function displayOptions(scope?: vscode.Uri): DisplayOptions {

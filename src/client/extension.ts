@@ -10,7 +10,7 @@ import { registerCommands } from './commands';
 import { displayOptions } from './display';
 import { followCursor } from './curveFollow';
 import { registerCurveSerializer } from './curveSerializer';
-import { notebook } from './lazy';
+import { noteReader } from './loadNoteReader';
 import { registerRunLog } from './runLogView';
 
 let client: LanguageClient | undefined;
@@ -22,7 +22,7 @@ export interface BoltzmarkApi {
 
 /** Activates on the first Markdown document (or one of the commands or views). */
 export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
-  const api: BoltzmarkApi = { extendMarkdownIt: (md) => notebook().levelsPreview(md, { infoStrings: previewInfoStrings, display: () => displayOptions() }) };
+  const api: BoltzmarkApi = { extendMarkdownIt: (md) => noteReader().levelsPreview(md, { infoStrings: previewInfoStrings, display: () => displayOptions() }) };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
   context.subscriptions.push(log);
   try {

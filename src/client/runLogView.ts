@@ -7,9 +7,9 @@
  */
 import * as vscode from 'vscode';
 import type { RunEntry, RunGroup, RunLog } from '../core';
-import { measuredTemperatureText, STATUSES, type Status } from '../core/light';
+import { measuredTemperatureText, STATUSES, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
-import { notebook } from './lazy';
+import { noteReader } from './loadNoteReader';
 
 const MAX_FILES = 2000;
 const MAX_BYTES = 5 * 1024 * 1024;
@@ -27,7 +27,7 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
 
   /** The run log's model, created (and the note reader loaded) when the view first needs it. */
   get log(): RunLog {
-    this.model ??= new (notebook().RunLog)();
+    this.model ??= new (noteReader().RunLog)();
     return this.model;
   }
 
@@ -135,7 +135,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
       await start();
       const target = await vscode.window.showSaveDialog({ filters: { CSV: ['csv'] }, defaultUri: vscode.workspace.workspaceFolders?.[0] ? vscode.Uri.joinPath(vscode.workspace.workspaceFolders[0].uri, 'levels-runs.csv') : undefined });
       if (!target) return;
-      await vscode.workspace.fs.writeFile(target, new TextEncoder().encode(notebook().runLogCsv(tree.log.entries(tree.statuses))));
+      await vscode.workspace.fs.writeFile(target, new TextEncoder().encode(noteReader().runLogCsv(tree.log.entries(tree.statuses))));
       void vscode.window.showInformationMessage(`Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`);
     }),
   );

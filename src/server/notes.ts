@@ -5,8 +5,8 @@
  */
 import type { TextDocument } from 'vscode-languageserver-textdocument';
 import { Analyzer, LineIndex, type AnalyzerLimits } from '../core';
-import type { AnalysisStats } from './protocol';
-import type { Settings } from './settings';
+import type { AnalysisStats } from '../shared/protocol';
+import type { Settings } from '../shared/settings';
 import type { NoteState } from './state';
 
 /**

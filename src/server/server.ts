@@ -24,9 +24,9 @@ import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
 import { documentSymbols } from './features/symbols';
 import { Notes } from './notes';
-import { memoryStats } from './memory';
-import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from './protocol';
-import { DEFAULT_SETTINGS, fromSection } from './settings';
+import { memoryStats } from './heapStats';
+import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from '../shared/protocol';
+import { DEFAULT_SETTINGS, fromSection } from '../shared/settings';
 import { blockAt, type NoteState } from './state';
 
 /** Pause after the last keystroke before pushed diagnostics are sent. */

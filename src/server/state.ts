@@ -5,7 +5,7 @@
  */
 import type { Position, Range } from 'vscode-languageserver';
 import { DEFAULT_DISPLAY, LineIndex, type BlockReport, type DisplayOptions, type DocumentReport, type Span } from '../core';
-import type { Settings } from './settings';
+import type { Settings } from '../shared/settings';
 
 /** An analysed version of a note. */
 export interface NoteState {

@@ -2,7 +2,7 @@ import { strict as assert } from 'node:assert';
 import { generateNote } from '../../bench/note';
 import { Analyzer, LineIndex } from '../../src/core';
 import { SERVER_LIMITS } from '../../src/server/notes';
-import { AnalysisStatsRequest, MemoryRequest } from '../../src/server/protocol';
+import { AnalysisStatsRequest, MemoryRequest } from '../../src/shared/protocol';
 import { startLsp, type LspSession } from './lspClient';
 
 // A burst of 1,000 didChange notifications, as fast as the pipe takes them,

@@ -1,6 +1,6 @@
 import { strict as assert } from 'node:assert';
 import { isViewPayload, type CurvePayload, type ProblemPayload } from '../../src/core';
-import { CurveDataRequest } from '../../src/server/protocol';
+import { CurveDataRequest } from '../../src/shared/protocol';
 import { startLsp, type LspSession } from './lspClient';
 
 // The curve view's request against the bundled server over stdio.

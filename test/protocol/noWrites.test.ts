@@ -4,7 +4,7 @@ import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { CurveDataRequest, ResultsMarkdownRequest } from '../../src/server/protocol';
+import { CurveDataRequest, ResultsMarkdownRequest } from '../../src/shared/protocol';
 import { startLsp, type LspSession } from './lspClient';
 
 // Nothing writes to a note without a user's chosen edit (docs/architecture.md,

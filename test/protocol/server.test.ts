@@ -1,6 +1,6 @@
 import { strict as assert } from 'node:assert';
 import { startLsp, type LspSession } from './lspClient';
-import { AnalysisStatsRequest, ResultsMarkdownRequest } from '../../src/server/protocol';
+import { AnalysisStatsRequest, ResultsMarkdownRequest } from '../../src/shared/protocol';
 
 // These tests spawn the bundled server (dist/server.js, built by `npm test`)
 // over stdio and speak LSP to it with vscode-jsonrpc, as another editor would.

@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { generateNote } from '../../bench/note';
 import { Analyzer, LineIndex, type BlockReport, type DocumentReport } from '../../src/core';
 import { SERVER_LIMITS } from '../../src/server/notes';
-import { AnalysisStatsRequest } from '../../src/server/protocol';
+import { AnalysisStatsRequest } from '../../src/shared/protocol';
 import { startLsp } from '../protocol/lspClient';
 
 // Hostile input, one test each: nothing may throw, hang or take the editor

@@ -5,7 +5,7 @@ import { markdownNote } from './arbitraries';
 import { runs } from './seed';
 
 // An Analyzer that has seen earlier versions of a note scans a new version only
-// where it changed (src/core/noteMemory.ts). Whatever the edit, its report must
+// where it changed (src/core/rescanPlan.ts). Whatever the edit, its report must
 // be the one a fresh Analyzer gives for the same text: these properties edit
 // random notes at random places with the characters that matter to fences and
 // line breaks, and compare the two after every edit.

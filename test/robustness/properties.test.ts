@@ -10,7 +10,7 @@ import { foldingRanges } from '../../src/server/features/folding';
 import { hover } from '../../src/server/features/hover';
 import { inlayHints } from '../../src/server/features/inlayHints';
 import { documentSymbols } from '../../src/server/features/symbols';
-import { DEFAULT_SETTINGS } from '../../src/server/settings';
+import { DEFAULT_SETTINGS } from '../../src/shared/settings';
 import { noteState } from '../server/helpers';
 import { markdownNote, numericNote, quantityText, yamlBody } from './arbitraries';
 import { runs } from './seed';

@@ -4,7 +4,7 @@
  */
 import { strict as assert } from 'node:assert';
 import { Analyzer, LineIndex } from '../../src/core';
-import { DEFAULT_SETTINGS, type Settings } from '../../src/server/settings';
+import { DEFAULT_SETTINGS, type Settings } from '../../src/shared/settings';
 import type { NoteState } from '../../src/server/state';
 
 /** The URI every test note has. */

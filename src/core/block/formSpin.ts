@@ -3,8 +3,8 @@
  * 2I + 1 equally spaced levels, |γ|ħB apart (or hν apart for a given Larmor
  * frequency ν, which already includes the sample's shielding).
  */
-import { KELVIN_PER_HERTZ } from '../constants';
-import { electronWithGFactor, lookupSpecies, zeemanSpacingKelvin, type SpinSpecies } from '../isotopes';
+import { KELVIN_PER_HERTZ } from '../quantities/constants';
+import { electronWithGFactor, lookupSpecies, zeemanSpacingKelvin, type SpinSpecies } from '../quantities/isotopes';
 import type { FormRead, LevelInput, SignalInput, SpinInput } from './input';
 import { readSignal } from './signal';
 import { bothGiven, measurementMissing, readPopulation, readPopulationList, withSiblingUncertainty } from './populations';

@@ -3,7 +3,7 @@
  * (energies in kelvin, sorted lowest first) and what was measured. Spans are
  * body-relative so the hosts can point at what the user wrote.
  */
-import type { SpinSpecies } from '../isotopes';
+import type { SpinSpecies } from '../quantities/isotopes';
 import type { Span } from '../types';
 import type { BlockForm } from './schema';
 import type { ReadValue } from './values';

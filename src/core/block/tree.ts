@@ -2,7 +2,7 @@
  * The tree the block readers walk: a small, position-keeping view of a block
  * body's YAML. It is made either from the `yaml` package's document (any
  * body; see `yamlTree.ts`) or straight from the package's syntax tree (plain
- * bodies; see `cstTree.ts`), and both give the same tree for the same body.
+ * bodies; see `plainBody.ts`), and both give the same tree for the same body.
  * Offsets are body-relative: start, end of the value, end of the node with
  * what follows it on its line, as the package's ranges are.
  */

@@ -1,5 +1,5 @@
 /** The "unknown key" warning shared by the block and the level items. */
-import { closest } from '../suggest';
+import { closest } from '../text/suggest';
 import { report, type ReadContext } from './values';
 import type { Entry } from './yamlTree';
 

@@ -4,7 +4,7 @@
  * reader's list; nothing throws.
  */
 import { isNullScalar, isScalar, isSeq, spanOf, deref } from './yamlTree';
-import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../units';
+import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../quantities/units';
 import type { Problem, Replacement, Severity, Span } from '../types';
 
 /** What a block reader carries while it walks the YAML. */

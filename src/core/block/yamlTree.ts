@@ -6,7 +6,7 @@
  */
 import { Document, isAlias as isYamlAlias, isMap as isYamlMap, isPair, isScalar as isYamlScalar, isSeq as isYamlSeq, parseDocument, type YAMLMap, type YAMLSeq } from 'yaml';
 import type { Problem, Span } from '../types';
-import { plainTree } from './cstTree';
+import { plainTree } from './plainBody';
 import type { TreeAlias, TreeMap, TreeNode, TreeScalar, TreeSeq } from './tree';
 import { YAML_OPTIONS } from './yamlOptions';
 
@@ -34,7 +34,7 @@ const YAML_CODES: Record<string, string> = {
 
 /**
  * Parses one block body as YAML 1.2 with unique keys required. A plain body
- * (see `cstTree.ts`) is built from the parser's syntax tree alone; any other
+ * (see `plainBody.ts`) is built from the parser's syntax tree alone; any other
  * goes through the package's full `parseDocument`, which reports its problems.
  */
 export function parseBody(body: string): YamlBody {

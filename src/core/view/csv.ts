@@ -4,7 +4,7 @@
  * point (RFC 4180, CRLF line ends, full-precision numbers, empty cells for
  * unknowns). Energies in K and, when asked, also in a display unit.
  */
-import { formatPlainNumber } from '../format';
+import { formatPlainNumber } from '../present/numbers';
 import type { CurvePayload, DisplayUnit } from './payload';
 
 type Cell = string | number | null;

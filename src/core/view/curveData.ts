@@ -4,11 +4,11 @@
  * given, the measured point, the thermal state at the lattice temperature and
  * the formatted facts; or, for a block with errors, its first diagnostic.
  */
-import type { BlockReport } from '../document';
+import type { BlockReport } from '../analyzer/analyzer';
 import { finiteNCurve } from '../physics/finiteN';
 import { gibbsEntropy, meanEnergy, thermalDistribution } from '../physics/entropy';
 import { schemeCurve } from '../physics/curves';
-import { DEFAULT_DISPLAY, type DisplayOptions } from '../summary';
+import { DEFAULT_DISPLAY, type DisplayOptions } from '../present/summary';
 import { displayUnitFor } from './displayUnit';
 import { blockFacts } from './facts';
 import { measuredPoint } from './measuredPoint';

@@ -3,7 +3,7 @@
  * curve view: the conversion factor comes from the core's unit table
  * (exact SI 2019 constants), so the axis and the note agree to the last digit.
  */
-import { convert, parseQuantity } from '../units';
+import { convert, parseQuantity } from '../quantities/units';
 import type { DisplayUnit } from './payload';
 
 /** Kelvin, the core's own energy unit (E/k). */

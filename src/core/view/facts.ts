@@ -3,8 +3,8 @@
  * strings (GUM rounding, SI prefixes) as the hovers and the report table.
  */
 import type { BlockResults } from '../analysis/results';
-import { formatMeasured, formatNumber, formatTemperature } from '../format';
-import { betaText, fractionText, STATUS_WORDS, temperatureText, type DisplayOptions } from '../summary';
+import { formatMeasured, formatNumber, formatTemperature } from '../present/numbers';
+import { betaText, fractionText, STATUS_WORDS, temperatureText, type DisplayOptions } from '../present/summary';
 import type { Fact, MeasuredPoint, ThermalMarker } from './payload';
 
 /** Entropy in k per system with its uncertainty when known. */

@@ -5,7 +5,7 @@
  */
 import type { BlockResults } from '../analysis/results';
 import type { BlockInput } from '../block/input';
-import { KELVIN_PER_EV } from '../constants';
+import { KELVIN_PER_EV } from '../quantities/constants';
 import type { MeasurementPlot, PlotPoint } from './payload';
 
 const FIT_SAMPLES = 200;

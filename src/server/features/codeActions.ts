@@ -6,7 +6,7 @@
 import { CodeActionKind, DiagnosticSeverity, type CodeAction, type Diagnostic, type Range } from 'vscode-languageserver';
 import type { BlockReport, Problem, Severity, Span } from '../../core';
 import { codeLink } from '../docsLink';
-import type { Settings } from '../settings';
+import type { Settings } from '../../shared/settings';
 import { toOffset, toRange, type NoteState } from '../state';
 
 /** Where each diagnostic code is explained: docs/format.md, whose section anchors are the codes. */

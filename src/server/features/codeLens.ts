@@ -5,7 +5,7 @@
  */
 import type { CodeLens } from 'vscode-languageserver';
 import type { BlockReport } from '../../core';
-import type { Settings } from '../settings';
+import type { Settings } from '../../shared/settings';
 import { displayOptions, toRange, type NoteState } from '../state';
 import { blockResultsMarkdown } from './markdown';
 

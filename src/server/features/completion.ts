@@ -22,7 +22,7 @@ import {
   type Dimension,
   type KeyDoc,
 } from '../../core';
-import type { Settings } from '../settings';
+import type { Settings } from '../../shared/settings';
 import { blockAt, toOffset, type NoteState } from '../state';
 
 /** The completions at a position. */

@@ -3,7 +3,7 @@
  * its payload (curves, measured point, markers, or its first error).
  */
 import { curveData, DEFAULT_CURVE_DATA_OPTIONS, type BlockReport, type ViewPayload } from '../../core';
-import type { Settings } from '../settings';
+import type { Settings } from '../../shared/settings';
 import { blockAt, displayOptions, type NoteState } from '../state';
 
 /**

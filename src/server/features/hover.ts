@@ -30,7 +30,7 @@ import {
   type Span,
   type SpinSpecies,
 } from '../../core';
-import type { Settings } from '../settings';
+import type { Settings } from '../../shared/settings';
 import { blockAt, displayOptions, toOffset, toRange, type NoteState } from '../state';
 import { blockName, blockResultsMarkdown, escapeMarkdown, markdownTable, writtenText } from './markdown';
 

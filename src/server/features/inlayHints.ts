@@ -6,7 +6,7 @@
  */
 import { MarkupKind, type InlayHint, type Position, type Range } from 'vscode-languageserver';
 import { formatNumber, shortSummary, type BlockReport, type DisplayOptions } from '../../core';
-import type { Settings } from '../settings';
+import type { Settings } from '../../shared/settings';
 import { displayOptions, type NoteState } from '../state';
 import { pairTemperature, type PairLevel } from '../../core';
 import { pairTemperatureText } from './hover';

@@ -2,7 +2,7 @@ import { strict as assert } from 'node:assert';
 import type { CodeAction, TextEdit } from 'vscode-languageserver';
 import { codeActions, problemToDiagnostic } from '../../../src/server/features/codeActions';
 import { FORMAT_DOC_URL } from '../../../src/server/docsLink';
-import { DEFAULT_SETTINGS } from '../../../src/server/settings';
+import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
 import type { NoteState } from '../../../src/server/state';
 import { everything, note, noteState, URI, withCursor } from '../helpers';
 

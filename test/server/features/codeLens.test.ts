@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import { codeLenses, resultsMarkdown } from '../../../src/server/features/codeLens';
 import { hover } from '../../../src/server/features/hover';
-import { DEFAULT_SETTINGS } from '../../../src/server/settings';
+import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
 import { CONTRACT, note, noteState, settings, URI } from '../helpers';
 
 /** Compares the lenses of a note as [line, title, command, arguments]. */

@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import type { CompletionItem, TextEdit } from 'vscode-languageserver';
 import { completion } from '../../../src/server/features/completion';
-import { DEFAULT_SETTINGS } from '../../../src/server/settings';
+import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
 import { note, withCursor } from '../helpers';
 
 /** The items at the cursor marker. */

@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import { hover } from '../../../src/server/features/hover';
 import { pairTemperature } from '../../../src/core';
-import { DEFAULT_SETTINGS, type Settings } from '../../../src/server/settings';
+import { DEFAULT_SETTINGS, type Settings } from '../../../src/shared/settings';
 import { CONTRACT, note, settings, withCursor } from '../helpers';
 
 /** What a hover should show: its range as [line, character, line, character] and lines it must (not) contain. */

@@ -1,6 +1,6 @@
 import { strict as assert } from 'node:assert';
 import { inlayHints } from '../../../src/server/features/inlayHints';
-import { DEFAULT_SETTINGS, type Settings } from '../../../src/server/settings';
+import { DEFAULT_SETTINGS, type Settings } from '../../../src/shared/settings';
 import { CONTRACT, everything, note, noteState, settings } from '../helpers';
 
 type Range = { start: { line: number; character: number }; end: { line: number; character: number } };

@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { closest, editDistance } from '../../src/core/suggest';
+import { closest, editDistance } from '../../../src/core/text/suggest';
 
 describe('editDistance', () => {
   it('is zero for equal strings and the length of the other string when one is empty', () => {

@@ -1,6 +1,6 @@
 /**
  * The note-reading half of the extension, bundled on its own
- * (`dist/notebook.js`) and loaded only when first needed: the Markdown
+ * (`dist/noteReader.js`) and loaded only when first needed: the Markdown
  * preview plugin, the run log's model and the curve view's CSV. All three
  * analyse notes with the core (YAML reader, fits, formatting), which is most
  * of the core's weight; keeping them out of `dist/extension.js` keeps the

@@ -8,8 +8,8 @@
  * the two scans see the same characters in the same state, and every block is
  * the old one moved by the change in length (and in line count).
  */
-import type { FencedBlock } from './text/fences';
-import { commonPrefix, commonSuffix } from './text/common';
+import type { FencedBlock } from '../text/fences';
+import { commonPrefix, commonSuffix } from '../text/common';
 
 /** One fence found by a scan: where it opens and, for our blocks, what was made of it. */
 export interface FenceRecord<R, E> {

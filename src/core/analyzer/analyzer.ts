@@ -3,13 +3,13 @@
  * body text, so after an edit only the blocks whose text changed are read
  * again; positions are mapped to the note on every call (cheap).
  */
-import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from './analysis/analyse';
-import type { BlockResults } from './analysis/results';
-import type { BlockInput, BlockMeta } from './block/input';
-import { interpretBody } from './block/interpret';
-import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory } from './noteMemory';
-import { bodyToDocument, scanFencedBlocks, type FencedBlock } from './text/fences';
-import type { Problem, Span, Status } from './types';
+import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from '../analysis/analyse';
+import type { BlockResults } from '../analysis/results';
+import type { BlockInput, BlockMeta } from '../block/input';
+import { interpretBody } from '../block/interpret';
+import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory } from './rescanPlan';
+import { bodyToDocument, scanFencedBlocks, type FencedBlock } from '../text/fences';
+import type { Problem, Span, Status } from '../types';
 
 /**
  * How much of one note an analysis reads. A host that must stay responsive
@@ -92,7 +92,7 @@ const NOTES_REMEMBERED = 4;
 /**
  * Reads and analyses notes, caching per block body, and remembering the
  * last few notes so that a new version of one is scanned only where it
- * changed (see noteMemory.ts). One per host is enough.
+ * changed (see rescanPlan.ts). One per host is enough.
  */
 export class Analyzer {
   private readonly cache = new Map<string, Cached>();

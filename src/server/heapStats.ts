@@ -3,7 +3,7 @@
  * (`boltzmark/memory`): heap and resident set after a full garbage
  * collection when the process was started with `--expose-gc`, as is.
  */
-import type { MemoryStats } from './protocol';
+import type { MemoryStats } from '../shared/protocol';
 
 /** Current memory use, collected first when the collector is exposed. */
 export function memoryStats(): MemoryStats {

@@ -3,10 +3,10 @@
  * emission lines, gain), shared by hovers, "Copy results" and the preview so
  * every host shows the same audited numbers.
  */
-import type { BlockResults } from './analysis/results';
-import type { BlockInput } from './block/input';
-import { formatMeasured, formatNumber } from './format';
-import type { DisplayOptions } from './summary';
+import type { BlockResults } from '../analysis/results';
+import type { BlockInput } from '../block/input';
+import { formatMeasured, formatNumber } from './numbers';
+import type { DisplayOptions } from './displayOptions';
 
 /** A label and its value, as display text. */
 export type Row = readonly [string, string];

@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import {
   formatFraction, formatInverseTemperature, formatMeasured, formatNumber, formatPlainNumber, formatTemperature,
-} from '../../src/core/format';
+} from '../../../src/core/present/numbers';
 
 const NON_FINITE = [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY];
 /** Characters a display string may contain: printable ASCII plus ±, −, µ, ⁻, superscript digits, × and the dash. */

@@ -9,9 +9,9 @@
  * power unit, and `/m` for `m-1`. Neither function throws: both return a value
  * or a problem. Energies convert to kelvin (E/k) with the exact SI 2019 constants.
  */
-import type { Replacement, Span } from './types';
+import type { Replacement, Span } from '../types';
 import { KELVIN_PER_EV, KELVIN_PER_HERTZ, KELVIN_PER_JOULE, KELVIN_PER_WAVENUMBER, photonEnergyKelvinFromWavelength } from './constants';
-import { closest } from './suggest';
+import { closest } from '../text/suggest';
 
 /** What a key measures; decides which units are valid. `wavelengthEnergy` is an energy that may also be a photon wavelength. */
 export type Dimension =

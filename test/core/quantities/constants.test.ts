@@ -3,7 +3,7 @@ import {
   AVOGADRO, BOHR_MAGNETON, BOLTZMANN, CODATA_EDITION, ELECTRON_G_FACTOR, ELECTRON_GYROMAGNETIC_RATIO,
   ELEMENTARY_CHARGE, HBAR, KELVIN_PER_EV, KELVIN_PER_HERTZ, KELVIN_PER_JOULE, KELVIN_PER_WAVENUMBER,
   NUCLEAR_MAGNETON, PLANCK, PROTON_GYROMAGNETIC_RATIO, SPEED_OF_LIGHT, photonEnergyKelvinFromWavelength,
-} from '../../src/core/constants';
+} from '../../../src/core/quantities/constants';
 
 /** Fails with the relative difference when |actual − expected| > rel·|expected|. */
 function assertClose(actual: number, expected: number, rel: number, what: string): void {

@@ -2,7 +2,7 @@ import { strict as assert } from 'node:assert';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { FORMAT_DOC_URL, codeLink } from '../../src/server/docsLink';
-import { DEFAULT_SETTINGS, fromSection, SETTING_DEFS } from '../../src/server/settings';
+import { DEFAULT_SETTINGS, fromSection, SETTING_DEFS } from '../../src/shared/settings';
 
 describe('settings', () => {
   const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configuration: { properties: Record<string, Record<string, unknown>> } } };

@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { Analyzer, RunLog, runLogCsv } from '../../src/core';
+import { Analyzer, RunLog, runLogCsv } from '../../../src/core';
 
 const block = (id: string, body: string, date?: string): string => `\`\`\`levels\nid: ${id}\n${date ? `date: ${date}\n` : ''}${body}\n\`\`\`\n`;
 

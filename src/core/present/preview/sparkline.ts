@@ -4,7 +4,7 @@
  * attributes, so it survives the Markdown preview's security settings and an
  * HTML export. Colours follow the surrounding text (`currentColor`).
  */
-import { schemeCurve } from '../physics/curves';
+import { schemeCurve } from '../../physics/curves';
 
 /** Where the measured state sits: mean energy per system (K) and entropy S/(Nk). */
 export interface SparkPoint {

@@ -1,8 +1,8 @@
 import { strict as assert } from 'node:assert';
-import { ELECTRON_G_FACTOR, ELECTRON_GYROMAGNETIC_RATIO, KELVIN_PER_HERTZ } from '../../src/core/constants';
+import { ELECTRON_G_FACTOR, ELECTRON_GYROMAGNETIC_RATIO, KELVIN_PER_HERTZ } from '../../../src/core/quantities/constants';
 import {
   ELECTRON, SpinSpecies, electronWithGFactor, larmorFrequencyHz, lookupSpecies, speciesSymbols, zeemanSpacingKelvin,
-} from '../../src/core/isotopes';
+} from '../../../src/core/quantities/isotopes';
 
 function assertClose(actual: number, expected: number, rel: number, what: string): void {
   const delta = Math.abs(actual - expected) / Math.abs(expected);

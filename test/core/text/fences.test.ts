@@ -1,6 +1,6 @@
 import { strict as assert } from 'node:assert';
-import { bodyToDocument, findFencedBlocks } from '../../src/core/text/fences';
-import { LineIndex } from '../../src/core/text/lineIndex';
+import { bodyToDocument, findFencedBlocks } from '../../../src/core/text/fences';
+import { LineIndex } from '../../../src/core/text/lineIndex';
 
 // The fence rules checked here are those of the CommonMark spec 0.31.2, §4.5
 // "Fenced code blocks" (https://spec.commonmark.org/0.31.2/#fenced-code-blocks).

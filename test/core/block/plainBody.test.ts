@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { parseDocument } from 'yaml';
 import { findFencedBlocks } from '../../../src/core';
-import { plainTree } from '../../../src/core/block/cstTree';
+import { plainTree } from '../../../src/core/block/plainBody';
 import type { TreeNode } from '../../../src/core/block/tree';
 import { parseBody, treeOfDocument, YAML_OPTIONS } from '../../../src/core/block/yamlTree';
 import { generateNote } from '../../../bench/note';

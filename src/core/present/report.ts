@@ -5,9 +5,9 @@
  * `singlePassGain`, `aboveThreshold`) follow the contract's measurement inputs;
  * `form`, `fit` and `invertedPairs` are Boltzmark's own extensions.
  */
-import type { BlockReport } from './document';
-import type { LineIndex } from './text/lineIndex';
-import type { Measured, Severity, Status } from './types';
+import type { BlockReport } from '../analyzer/analyzer';
+import type { LineIndex } from '../text/lineIndex';
+import type { Measured, Severity, Status } from '../types';
 
 /** One diagnostic as the report prints it. */
 export interface ReportDiagnostic {

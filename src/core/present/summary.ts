@@ -4,23 +4,13 @@
  * GUM rounding (two significant digits of the uncertainty), SI prefixes for
  * temperatures, β in K⁻¹.
  */
-import type { BlockResults } from './analysis/results';
-import { formatFraction, formatInverseTemperature, formatNumber, formatTemperature } from './format';
+import type { BlockResults } from '../analysis/results';
+import { formatFraction, formatInverseTemperature, formatNumber, formatTemperature } from './numbers';
 import { measurementShort } from './measurementSummary';
-import type { Measured, Status } from './types';
+import type { Measured, Status } from '../types';
+import { DEFAULT_DISPLAY, type DisplayOptions } from './displayOptions';
 
-/** How numbers are shown; mirrors the editor settings. */
-export interface DisplayOptions {
-  /** Significant digits of values without an uncertainty. */
-  readonly digits: number;
-  /** `auto`: SI prefix; `kelvin`: always K; `beta-first`: lead with β. */
-  readonly temperature: 'auto' | 'kelvin' | 'beta-first';
-  /** Polarization as a percentage (true) or a fraction. */
-  readonly percent: boolean;
-}
-
-/** The defaults of the settings. */
-export const DEFAULT_DISPLAY: DisplayOptions = { digits: 4, temperature: 'auto', percent: true };
+export { DEFAULT_DISPLAY, type DisplayOptions } from './displayOptions';
 
 /** What each status word means, for hovers and reports. */
 export const STATUS_WORDS: Readonly<Record<Status, string>> = {

@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { Analyzer, type DocumentReport } from '../../src/core';
+import { Analyzer, type DocumentReport } from '../../../src/core';
 
 // The Analyzer's per-block cache and its bounds (docs/format.md#note-bounded).
 const block = (i: number): string => `\`\`\`levels\nid: run ${i}\ngap: 1 K\npopulations: [0.7, 0.3]\n\`\`\`\n`;

@@ -1,17 +1,17 @@
 /**
- * Loads `./notebook` on first use. In the bundle, `scripts/build.mjs` keeps
- * this `require` as it is (the module is the separate `dist/notebook.js`
+ * Loads `./noteReader` on first use. In the bundle, `scripts/build.mjs` keeps
+ * this `require` as it is (the module is the separate `dist/noteReader.js`
  * beside `dist/extension.js`); unbundled (tests, tsx) it resolves to the
  * TypeScript source.
  */
-import type * as Notebook from './notebook';
+import type * as NoteReader from './noteReader';
 
-let loaded: typeof Notebook | undefined;
+let loaded: typeof NoteReader | undefined;
 
 /** The note-reading module, loaded the first time it is asked for. */
-export function notebook(): typeof Notebook {
+export function noteReader(): typeof NoteReader {
   // A plain require so it happens synchronously: the preview's markdown-it hook cannot wait.
   // eslint-disable-next-line @typescript-eslint/no-require-imports
-  loaded ??= require('./notebook') as typeof Notebook;
+  loaded ??= require('./noteReader') as typeof NoteReader;
   return loaded;
 }

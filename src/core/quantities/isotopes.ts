@@ -14,7 +14,7 @@ import {
   ELECTRON_GYROMAGNETIC_RATIO,
   HBAR,
 } from './constants';
-import { closest } from './suggest';
+import { closest } from '../text/suggest';
 
 /** A particle with a spin in a magnetic field. */
 export interface SpinSpecies {

@@ -3,12 +3,12 @@
  * with the same GUM formatting and status words as the hover, and the S(E)
  * sparkline. Every string from the note is escaped.
  */
-import type { BlockResults } from '../analysis/results';
-import type { BlockInput, BlockMeta } from '../block/input';
+import type { BlockResults } from '../../analysis/results';
+import type { BlockInput, BlockMeta } from '../../block/input';
 import { measurementRows } from '../measurementSummary';
 import { betaText, DEFAULT_DISPLAY, enhancementText, fractionText, STATUS_WORDS, temperatureText, type DisplayOptions } from '../summary';
-import type { Problem, Status } from '../types';
-import { formatNumber } from '../format';
+import type { Problem, Status } from '../../types';
+import { formatNumber } from '../numbers';
 import { escapeText, sparklineSvg } from './sparkline';
 
 /** What the preview needs of an analysed block. */

@@ -4,8 +4,8 @@
  * cache re-analyses only the blocks that changed). Pure data; the editor's
  * tree view and the CSV export are hosts of it.
  */
-import { Analyzer } from './document';
-import type { Measured, Status } from './types';
+import { Analyzer } from '../analyzer/analyzer';
+import type { Measured, Status } from '../types';
 
 /** One run: a block of a note. */
 export interface RunEntry {

@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { Dimension, Quantity, QuantityProblem, convert, formatUnitList, parseQuantity, unitsFor } from '../../src/core/units';
+import { Dimension, Quantity, QuantityProblem, convert, formatUnitList, parseQuantity, unitsFor } from '../../../src/core/quantities/units';
 
 function assertClose(actual: number, expected: number, rel: number, what: string): void {
   const delta = expected === 0 ? Math.abs(actual) : Math.abs(actual - expected) / Math.abs(expected);
