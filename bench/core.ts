@@ -66,7 +66,9 @@ export function editNote(note: string, index: number, digit: string): string {
 /** Runs the measurements; `repetitions` pairs of each. */
 export function measureCore(repetitions: number): CoreFigures {
   const note = benchNote();
-  const bodies = findFencedBlocks(note).filter((b) => b.language === 'levels').map((b) => b.body);
+  const bodies = findFencedBlocks(note)
+    .filter((b) => b.language === 'levels')
+    .map((b) => b.body);
   const floor = (): void => {
     for (const body of bodies) parseDocument(body, YAML_OPTIONS);
   };
@@ -115,9 +117,11 @@ export function measureCore(repetitions: number): CoreFigures {
     // receiving the edit (the server's document pays it too), not re-analysing, so it is paid here.
     void edited.indexOf('\u0000');
     let analysed = -1;
-    incMs.push(timeOnce(() => {
-      analysed = warm.analyzeText(edited).stats.analysed;
-    }));
+    incMs.push(
+      timeOnce(() => {
+        analysed = warm.analyzeText(edited).stats.analysed;
+      }),
+    );
     if (analysed !== 1) throw new Error(`an edit of one block re-read ${analysed} blocks`);
   }
   return {

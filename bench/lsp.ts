@@ -57,8 +57,15 @@ export async function measureLsp(starts: number, samples: number): Promise<LspFi
   const s: LspSession = await startLsp({ pull: true });
   try {
     let version = 1;
-    await s.conn.sendNotification('textDocument/didOpen', { textDocument: { uri: URI, languageId: 'markdown', version, text: note } });
-    const openMs = await timed(() => s.conn.sendRequest('textDocument/hover', { textDocument: { uri: URI }, position: { line: blocks[0]!.block.bodyLine, character: 1 } }));
+    await s.conn.sendNotification('textDocument/didOpen', {
+      textDocument: { uri: URI, languageId: 'markdown', version, text: note },
+    });
+    const openMs = await timed(() =>
+      s.conn.sendRequest('textDocument/hover', {
+        textDocument: { uri: URI },
+        position: { line: blocks[0]!.block.bodyLine, character: 1 },
+      }),
+    );
 
     let next = 0;
     /** Changes one character of a fresh block; returns the block's id line. */
@@ -70,7 +77,12 @@ export async function measureLsp(starts: number, samples: number): Promise<LspFi
       version++;
       await s.conn.sendNotification('textDocument/didChange', {
         textDocument: { uri: URI, version },
-        contentChanges: [{ range: { start: { line: idLine, character }, end: { line: idLine, character: character + 1 } }, text: String(version % 10) }],
+        contentChanges: [
+          {
+            range: { start: { line: idLine, character }, end: { line: idLine, character: character + 1 } },
+            text: String(version % 10),
+          },
+        ],
       });
       return idLine;
     };
@@ -79,16 +91,29 @@ export async function measureLsp(starts: number, samples: number): Promise<LspFi
     const noop: number[] = [];
     for (let i = 0; i < samples; i++) {
       let line = await edit();
-      hover.push(await timed(() => s.conn.sendRequest('textDocument/hover', { textDocument: { uri: URI }, position: { line, character: 1 } })));
+      hover.push(
+        await timed(() =>
+          s.conn.sendRequest('textDocument/hover', { textDocument: { uri: URI }, position: { line, character: 1 } }),
+        ),
+      );
       line = await edit();
       // The visible part of the note around the edit: one screen of 60 lines.
       const range = { start: { line: Math.max(0, line - 30), character: 0 }, end: { line: line + 30, character: 0 } };
-      hints.push(await timed(() => s.conn.sendRequest('textDocument/inlayHint', { textDocument: { uri: URI }, range })));
+      hints.push(
+        await timed(() => s.conn.sendRequest('textDocument/inlayHint', { textDocument: { uri: URI }, range })),
+      );
       await edit();
       noop.push(await timed(() => s.conn.sendRequest(AnalysisStatsRequest, { uri: URI })));
     }
     const summary = (xs: number[]): Latency => ({ p50: quantile(xs, 0.5), p95: quantile(xs, 0.95) });
-    return { startMs: median(startMs), openMs, hover: summary(hover), inlayHints: summary(hints), noop: summary(noop), samples };
+    return {
+      startMs: median(startMs),
+      openMs,
+      hover: summary(hover),
+      inlayHints: summary(hints),
+      noop: summary(noop),
+      samples,
+    };
   } finally {
     await s.close();
   }

@@ -75,21 +75,57 @@ async function main(): Promise<number> {
     data: { p50: l.p50, p95: l.p95, p50Ratio: l.p50 / lsp.noop.p50, p95Ratio: l.p95 / lsp.noop.p95 },
   });
   figures.push(latency('Hover', lsp.hover), latency('Inlay hints (60 lines)', lsp.inlayHints));
-  figures.push({ figure: 'No-op request after an edit, p50 / p95', value: `${f(lsp.noop.p50, 2)} / ${f(lsp.noop.p95, 2)} ms`, target: '—', holds: null, data: { ...lsp.noop } });
-  figures.push({ figure: 'First hover after opening the note (full analysis)', value: `${f(lsp.openMs)} ms`, target: '—', holds: null, data: { ms: lsp.openMs } });
-  figures.push({ figure: 'Server spawn → initialize answered', value: `${f(lsp.startMs)} ms`, target: '—', holds: null, data: { ms: lsp.startMs } });
+  figures.push({
+    figure: 'No-op request after an edit, p50 / p95',
+    value: `${f(lsp.noop.p50, 2)} / ${f(lsp.noop.p95, 2)} ms`,
+    target: '—',
+    holds: null,
+    data: { ...lsp.noop },
+  });
+  figures.push({
+    figure: 'First hover after opening the note (full analysis)',
+    value: `${f(lsp.openMs)} ms`,
+    target: '—',
+    holds: null,
+    data: { ms: lsp.openMs },
+  });
+  figures.push({
+    figure: 'Server spawn → initialize answered',
+    value: `${f(lsp.startMs)} ms`,
+    target: '—',
+    holds: null,
+    data: { ms: lsp.startMs },
+  });
 
   log('curves …');
   const curves = measureCurves(reps);
-  figures.push({ figure: `S(E) and β(E), ${curves.schemePoints} points, 64 levels`, value: `${f(curves.schemeMs, 2)} ms`, target: `≤ ${INSTANT_MS} ms`, holds: curves.schemeMs <= INSTANT_MS, data: { ms: curves.schemeMs } });
-  figures.push({ figure: `Exact finite-N curve, N = 10⁶ (${curves.finiteNPoints} points)`, value: `${f(curves.finiteNMs, 2)} ms`, target: `≤ ${INSTANT_MS} ms`, holds: curves.finiteNMs <= INSTANT_MS, data: { ms: curves.finiteNMs } });
+  figures.push({
+    figure: `S(E) and β(E), ${curves.schemePoints} points, 64 levels`,
+    value: `${f(curves.schemeMs, 2)} ms`,
+    target: `≤ ${INSTANT_MS} ms`,
+    holds: curves.schemeMs <= INSTANT_MS,
+    data: { ms: curves.schemeMs },
+  });
+  figures.push({
+    figure: `Exact finite-N curve, N = 10⁶ (${curves.finiteNPoints} points)`,
+    value: `${f(curves.finiteNMs, 2)} ms`,
+    target: `≤ ${INSTANT_MS} ms`,
+    holds: curves.finiteNMs <= INSTANT_MS,
+    data: { ms: curves.finiteNMs },
+  });
 
   log('bundles and activation …');
   const tmp = tempBundles();
   try {
     const sizes = await measureSizes(tmp.dir);
     const activation = await measureActivation(tmp.dir, 5);
-    figures.push({ figure: 'Activation: require() → server fork (stand-in vscode)', value: `${f(activation)} ms`, target: '—', holds: null, data: { ms: activation } });
+    figures.push({
+      figure: 'Activation: require() → server fork (stand-in vscode)',
+      value: `${f(activation)} ms`,
+      target: '—',
+      holds: null,
+      data: { ms: activation },
+    });
     for (const s of sizes) {
       figures.push({
         figure: `Bundle size, ${s.name} (${s.entry}, minified)`,
@@ -120,10 +156,15 @@ async function main(): Promise<number> {
 
 /** The table, in Markdown so it can be pasted into the README as it is. */
 function print(figures: readonly Figure[]): void {
-  const rows = [['figure', 'value', 'target', 'holds'], ...figures.map((x) => [x.figure, x.value, x.target, x.holds === null ? 'info' : x.holds ? 'yes' : 'NO'])];
+  const rows = [
+    ['figure', 'value', 'target', 'holds'],
+    ...figures.map((x) => [x.figure, x.value, x.target, x.holds === null ? 'info' : x.holds ? 'yes' : 'NO']),
+  ];
   const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
   const line = (r: string[]): string => `| ${r.map((cell, c) => cell.padEnd(widths[c]!)).join(' | ')} |`;
-  console.log([line(rows[0]!), `| ${widths.map((w) => '-'.repeat(w)).join(' | ')} |`, ...rows.slice(1).map(line)].join('\n'));
+  console.log(
+    [line(rows[0]!), `| ${widths.map((w) => '-'.repeat(w)).join(' | ')} |`, ...rows.slice(1).map(line)].join('\n'),
+  );
 }
 
 main().then(

@@ -39,11 +39,19 @@ export interface BundleSize {
  * it pulls in stay under a tenth of that floor. A fixed 300 KB cannot hold:
  * the library alone minifies to about 430 KB.
  */
-const LIMITS: Record<BundleSize['name'], number | null> = { client: null, 'note reader': 450, server: 600, webview: 450, cli: null, 'language client alone': null };
+const LIMITS: Record<BundleSize['name'], number | null> = {
+  client: null,
+  'note reader': 450,
+  server: 600,
+  webview: 450,
+  cli: null,
+  'language client alone': null,
+};
 const CLIENT_OVER_FLOOR = 1.1;
 
 /** The floor: the language client and nothing else. */
-const FLOOR_SOURCE = "import { LanguageClient } from 'vscode-languageclient/node';\nexport const floor = LanguageClient;\n";
+const FLOOR_SOURCE =
+  "import { LanguageClient } from 'vscode-languageclient/node';\nexport const floor = LanguageClient;\n";
 
 const ENTRIES: readonly { name: BundleSize['name']; entry: string; out: string; browser: boolean }[] = [
   { name: 'client', entry: 'src/client/extension.ts', out: 'extension', browser: false },
@@ -53,8 +61,21 @@ const ENTRIES: readonly { name: BundleSize['name']; entry: string; out: string; 
   { name: 'cli', entry: 'src/cli/index.ts', out: 'cli', browser: false },
 ];
 
-const COMMON = { bundle: true, minify: true, sourcemap: false, logLevel: 'warning' as const, legalComments: 'linked' as const, write: false as const };
-const NODE = { platform: 'node' as const, target: 'node20', format: 'cjs' as const, external: ['vscode'], plugins: [lazyNoteReader] };
+const COMMON = {
+  bundle: true,
+  minify: true,
+  sourcemap: false,
+  logLevel: 'warning' as const,
+  legalComments: 'linked' as const,
+  write: false as const,
+};
+const NODE = {
+  platform: 'node' as const,
+  target: 'node20',
+  format: 'cjs' as const,
+  external: ['vscode'],
+  plugins: [lazyNoteReader],
+};
 
 /** Writes the JavaScript output of a build; returns its size in KB. */
 function writeJs(result: esbuild.BuildResult): number {
@@ -67,7 +88,14 @@ function writeJs(result: esbuild.BuildResult): number {
 /** Builds every bundle minified into `outdir` (as `scripts/build.mjs --production` does); returns their sizes. */
 export async function measureSizes(outdir: string): Promise<BundleSize[]> {
   const sizes: BundleSize[] = [];
-  const floorKb = writeJs(await esbuild.build({ ...COMMON, ...NODE, stdin: { contents: FLOOR_SOURCE, resolveDir: resolve('.'), loader: 'ts' }, outfile: join(outdir, 'floor', 'languageClient.js') }));
+  const floorKb = writeJs(
+    await esbuild.build({
+      ...COMMON,
+      ...NODE,
+      stdin: { contents: FLOOR_SOURCE, resolveDir: resolve('.'), loader: 'ts' },
+      outfile: join(outdir, 'floor', 'languageClient.js'),
+    }),
+  );
   for (const e of ENTRIES) {
     const limitKb = e.name === 'client' ? CLIENT_OVER_FLOOR * floorKb : LIMITS[e.name];
     const limitNote = e.name === 'client' ? `${CLIENT_OVER_FLOOR} × language client alone` : undefined;
@@ -111,7 +139,9 @@ function standIn(name: string, known: Record<string, unknown> = {}): unknown {
  */
 function vscodeModule(): Record<string, unknown> {
   const types = readFileSync(require.resolve('@types/vscode/index.d.ts'), 'utf8');
-  const names = new Set([...types.matchAll(/^\texport (?:namespace|class|enum|const|let|function) (\w+)/gm)].map((m) => m[1]!));
+  const names = new Set(
+    [...types.matchAll(/^\texport (?:namespace|class|enum|const|let|function) (\w+)/gm)].map((m) => m[1]!),
+  );
   const api: Record<string, unknown> = {};
   for (const name of names) api[name] = standIn(`vscode.${name}`);
   api.version = '1.100.0';

@@ -24,31 +24,41 @@ const nodeEntries = [
 /** Browser-side bundles for the webview. */
 const webEntries = [{ in: 'media/src/view.ts', out: 'dist/media/view' }].filter((e) => existsSync(e.in));
 
-const common = { bundle: true, minify: production, sourcemap: !production, logLevel: 'warning', legalComments: 'linked' };
+const common = {
+  bundle: true,
+  minify: production,
+  sourcemap: !production,
+  logLevel: 'warning',
+  legalComments: 'linked',
+};
 
 const contexts = [];
 for (const e of nodeEntries) {
-  contexts.push(await esbuild.context({
-    ...common,
-    entryPoints: [{ in: e.in, out: e.out }],
-    outdir: '.',
-    platform: 'node',
-    target: 'node20',
-    format: 'cjs',
-    external: ['vscode'],
-    banner: e.banner ? { js: e.banner } : undefined,
-    plugins: e.plugins ?? [],
-  }));
+  contexts.push(
+    await esbuild.context({
+      ...common,
+      entryPoints: [{ in: e.in, out: e.out }],
+      outdir: '.',
+      platform: 'node',
+      target: 'node20',
+      format: 'cjs',
+      external: ['vscode'],
+      banner: e.banner ? { js: e.banner } : undefined,
+      plugins: e.plugins ?? [],
+    }),
+  );
 }
 for (const e of webEntries) {
-  contexts.push(await esbuild.context({
-    ...common,
-    entryPoints: [{ in: e.in, out: e.out }],
-    outdir: '.',
-    platform: 'browser',
-    target: 'es2022',
-    format: 'iife',
-  }));
+  contexts.push(
+    await esbuild.context({
+      ...common,
+      entryPoints: [{ in: e.in, out: e.out }],
+      outdir: '.',
+      platform: 'browser',
+      target: 'es2022',
+      format: 'iife',
+    }),
+  );
 }
 
 if (watch) {

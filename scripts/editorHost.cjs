@@ -20,7 +20,9 @@ const ROOT = path.resolve(__dirname, '..');
 
 /** The folder scripts/editor-host.sh installs into. */
 function hostDir() {
-  return process.env.BOLTZMARK_EDITOR_HOST ? path.resolve(process.env.BOLTZMARK_EDITOR_HOST) : path.join(ROOT, '.editor-host');
+  return process.env.BOLTZMARK_EDITOR_HOST
+    ? path.resolve(process.env.BOLTZMARK_EDITOR_HOST)
+    : path.join(ROOT, '.editor-host');
 }
 
 function entryScript() {
@@ -41,7 +43,9 @@ function ensureHost({ echo = true } = {}) {
   }
   const r = spawnSync('bash', [script], { stdio: ['ignore', 'inherit', 'inherit'] });
   if (r.status !== 0) {
-    throw new Error(`the editor host could not be installed: scripts/editor-host.sh exited ${r.status ?? r.signal} (its message is above; logs in ${path.join(hostDir(), 'logs')})`);
+    throw new Error(
+      `the editor host could not be installed: scripts/editor-host.sh exited ${r.status ?? r.signal} (its message is above; logs in ${path.join(hostDir(), 'logs')})`,
+    );
   }
 }
 
@@ -106,10 +110,16 @@ function writeUserSettings(run, extra = {}) {
 /** The server's common arguments: state in the run folder, no auth, nothing phoned home. */
 function serverArgs(run) {
   return [
-    '--config', path.join(run.dir, 'config.yaml'), // else ~/.config/code-server/config.yaml
-    '--extensions-dir', run.extensions,
-    '--user-data-dir', run.userData,
-    '--disable-telemetry', '--disable-update-check', '--disable-workspace-trust', '--disable-getting-started-override',
+    '--config',
+    path.join(run.dir, 'config.yaml'), // else ~/.config/code-server/config.yaml
+    '--extensions-dir',
+    run.extensions,
+    '--user-data-dir',
+    run.userData,
+    '--disable-telemetry',
+    '--disable-update-check',
+    '--disable-workspace-trust',
+    '--disable-getting-started-override',
   ];
 }
 
@@ -119,14 +129,20 @@ function serverArgs(run) {
  */
 function installVsix(run, vsix) {
   const r = spawnSync(process.execPath, [entryScript(), ...serverArgs(run), '--force', '--install-extension', vsix], {
-    env: run.env, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], timeout: 120000,
+    env: run.env,
+    encoding: 'utf8',
+    stdio: ['ignore', 'pipe', 'pipe'],
+    timeout: 120000,
   });
   const out = `${r.stdout ?? ''}${r.stderr ?? ''}`;
   if (r.status !== 0 || !/successfully installed/i.test(out)) {
     throw new Error(`installing ${vsix} into the editor host failed (exit ${r.status ?? r.signal}):\n${out}`);
   }
-  const installed = fs.readdirSync(run.extensions).filter((d) => fs.statSync(path.join(run.extensions, d)).isDirectory());
-  if (installed.length !== 1) throw new Error(`expected one installed extension in ${run.extensions}, found: ${installed.join(', ') || 'none'}`);
+  const installed = fs
+    .readdirSync(run.extensions)
+    .filter((d) => fs.statSync(path.join(run.extensions, d)).isDirectory());
+  if (installed.length !== 1)
+    throw new Error(`expected one installed extension in ${run.extensions}, found: ${installed.join(', ') || 'none'}`);
   return path.join(run.extensions, installed[0]);
 }
 
@@ -164,22 +180,41 @@ async function startServer(run, { workspace, port, logFile, extraArgs = [] }) {
   if (!fs.existsSync(entry)) throw new Error(`no editor host at ${hostDir()} (run scripts/editor-host.sh)`);
   const chosen = port || (await freePort());
   const log = fs.openSync(logFile || path.join(run.dir, 'server.log'), 'w');
-  const child = spawn(process.execPath, [entry, ...serverArgs(run), '--auth', 'none', '--bind-addr', `127.0.0.1:${chosen}`, ...extraArgs, workspace], {
-    env: run.env, stdio: ['ignore', log, log], detached: true,
-  });
+  const child = spawn(
+    process.execPath,
+    [entry, ...serverArgs(run), '--auth', 'none', '--bind-addr', `127.0.0.1:${chosen}`, ...extraArgs, workspace],
+    {
+      env: run.env,
+      stdio: ['ignore', log, log],
+      detached: true,
+    },
+  );
   fs.closeSync(log);
   let exited = null;
-  child.on('exit', (code, signal) => { exited = code ?? signal; });
-  const stop = () => new Promise((resolve) => {
-    if (exited !== null) return resolve();
-    child.once('exit', () => resolve());
-    try { process.kill(-child.pid, 'SIGTERM'); } catch { return resolve(); }
+  child.on('exit', (code, signal) => {
+    exited = code ?? signal;
   });
+  const stop = () =>
+    new Promise((resolve) => {
+      if (exited !== null) return resolve();
+      child.once('exit', () => resolve());
+      try {
+        process.kill(-child.pid, 'SIGTERM');
+      } catch {
+        return resolve();
+      }
+    });
   const deadline = Date.now() + 60000;
   for (;;) {
-    if (exited !== null) throw new Error(`the editor host exited at startup (${exited}); see ${logFile || path.join(run.dir, 'server.log')}`);
+    if (exited !== null)
+      throw new Error(
+        `the editor host exited at startup (${exited}); see ${logFile || path.join(run.dir, 'server.log')}`,
+      );
     if (await healthz(chosen)) break;
-    if (Date.now() > deadline) { await stop(); throw new Error('the editor host did not answer /healthz within 60 s'); }
+    if (Date.now() > deadline) {
+      await stop();
+      throw new Error('the editor host did not answer /healthz within 60 s');
+    }
     // Poll the socket again after a short pause; the server has no readiness event to wait on.
     await new Promise((r) => setTimeout(r, 150));
   }
@@ -194,10 +229,27 @@ async function startServer(run, { workspace, port, logFile, extraArgs = [] }) {
  * workbench reachable, without it Chromium maps the literal too).
  */
 const CHROMIUM_ARGS = [
-  '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
-  '--disable-component-update', '--disable-sync', '--disable-dev-shm-usage',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--disable-dev-shm-usage',
   '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE localhost , EXCLUDE 127.0.0.1',
 ];
 const CHROMIUM = process.env.CHROMIUM || '/usr/bin/chromium';
 
-module.exports = { ROOT, hostDir, ensureHost, makeRun, writeUserSettings, installVsix, freePort, startServer, CHROMIUM, CHROMIUM_ARGS };
+module.exports = {
+  ROOT,
+  hostDir,
+  ensureHost,
+  makeRun,
+  writeUserSettings,
+  installVsix,
+  freePort,
+  startServer,
+  CHROMIUM,
+  CHROMIUM_ARGS,
+};

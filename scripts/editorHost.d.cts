@@ -29,6 +29,9 @@ export function makeRun(prefix?: string): Run;
 export function writeUserSettings(run: Run, extra?: Record<string, unknown>): void;
 export function installVsix(run: Run, vsix: string): string;
 export function freePort(): Promise<number>;
-export function startServer(run: Run, options: { workspace: string; port?: number; logFile?: string; extraArgs?: string[] }): Promise<Server>;
+export function startServer(
+  run: Run,
+  options: { workspace: string; port?: number; logFile?: string; extraArgs?: string[] },
+): Promise<Server>;
 export const CHROMIUM: string;
 export const CHROMIUM_ARGS: readonly string[];

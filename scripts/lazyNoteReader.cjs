@@ -7,7 +7,9 @@
 const lazyNoteReader = {
   name: 'lazy-note-reader',
   setup(build) {
-    build.onResolve({ filter: /^\.\/noteReader$/ }, (args) => (/[\\/]src[\\/]client[\\/]/.test(args.importer) ? { path: './noteReader.js', external: true } : undefined));
+    build.onResolve({ filter: /^\.\/noteReader$/ }, (args) =>
+      /[\\/]src[\\/]client[\\/]/.test(args.importer) ? { path: './noteReader.js', external: true } : undefined,
+    );
   },
 };
 

@@ -8,14 +8,27 @@ import { builtinModules } from 'node:module';
 
 const builtins = new Set(builtinModules.flatMap((m) => [m, `node:${m}`]));
 const rules = [
-  { dir: 'src/core', forbid: (m) => m === 'vscode' || m.startsWith('vscode-languageserver') || m.startsWith('vscode-languageclient') || m.startsWith('vscode-jsonrpc') || builtins.has(m) || builtins.has(m.split('/')[0]) },
+  {
+    dir: 'src/core',
+    forbid: (m) =>
+      m === 'vscode' ||
+      m.startsWith('vscode-languageserver') ||
+      m.startsWith('vscode-languageclient') ||
+      m.startsWith('vscode-jsonrpc') ||
+      builtins.has(m) ||
+      builtins.has(m.split('/')[0]),
+  },
   { dir: 'src/server', forbid: (m) => m === 'vscode' || m.startsWith('vscode-languageclient') },
   { dir: 'src/cli', forbid: (m) => m === 'vscode' || m.startsWith('vscode-language') },
 ];
 
 function* files(dir) {
   let entries = [];
-  try { entries = readdirSync(dir); } catch { return; }
+  try {
+    entries = readdirSync(dir);
+  } catch {
+    return;
+  }
   for (const e of entries) {
     const p = join(dir, e);
     if (statSync(p).isDirectory()) yield* files(p);
@@ -23,14 +36,18 @@ function* files(dir) {
   }
 }
 
-const importRe = /(?:^|\n)\s*(?:import|export)\s[^'"]*?from\s*['"]([^'"]+)['"]|require\(\s*['"]([^'"]+)['"]\s*\)|import\(\s*['"]([^'"]+)['"]\s*\)|(?:^|\n)\s*import\s+['"]([^'"]+)['"]/g;
+const importRe =
+  /(?:^|\n)\s*(?:import|export)\s[^'"]*?from\s*['"]([^'"]+)['"]|require\(\s*['"]([^'"]+)['"]\s*\)|import\(\s*['"]([^'"]+)['"]\s*\)|(?:^|\n)\s*import\s+['"]([^'"]+)['"]/g;
 let bad = 0;
 for (const { dir, forbid } of rules) {
   for (const f of files(dir)) {
     const text = readFileSync(f, 'utf8');
     for (const m of text.matchAll(importRe)) {
       const mod = m[1] ?? m[2] ?? m[3] ?? m[4];
-      if (mod && forbid(mod)) { console.error(`${f}: imports '${mod}', which ${dir} must not`); bad++; }
+      if (mod && forbid(mod)) {
+        console.error(`${f}: imports '${mod}', which ${dir} must not`);
+        bad++;
+      }
     }
   }
 }
@@ -47,12 +64,21 @@ while (queue.length) {
     const mod = m[1] ?? m[2] ?? m[3] ?? m[4];
     // Type-only imports are erased before bundling: they bring no code along.
     if (!mod || /^\s*(import|export)\s+type\s/.test(m[0])) continue;
-    if (!mod.startsWith('.')) { console.error(`${f}: imports '${mod}', but it is reachable from src/core/packageFree.ts, which must import no package`); bad++; continue; }
+    if (!mod.startsWith('.')) {
+      console.error(
+        `${f}: imports '${mod}', but it is reachable from src/core/packageFree.ts, which must import no package`,
+      );
+      bad++;
+      continue;
+    }
     const base = join(dirname(f), mod);
     const next = [`${base}.ts`, join(base, 'index.ts')].find((c) => existsSync(c));
     if (next) queue.push(next);
   }
 }
 
-if (bad) { console.error(`layer check: ${bad} forbidden import(s)`); process.exit(1); }
+if (bad) {
+  console.error(`layer check: ${bad} forbidden import(s)`);
+  process.exit(1);
+}
 console.log('layer check: ok');

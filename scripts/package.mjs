@@ -17,15 +17,53 @@ import { fileURLToPath } from 'node:url';
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
 const outIndex = process.argv.indexOf('--out');
-const vsix = outIndex > 0 ? resolve(process.argv[outIndex + 1]) : join(root, `${manifest.name}-${manifest.version}.vsix`);
+const vsix =
+  outIndex > 0 ? resolve(process.argv[outIndex + 1]) : join(root, `${manifest.name}-${manifest.version}.vsix`);
 const stage = join(root, 'out', 'vsix');
 
 /** What the staging copy needs: the packaged files plus what the build reads. */
-const STAGED = ['package.json', 'package.nls.json', 'README.md', 'LICENSE', 'CHANGELOG.md', '.vscodeignore', 'tsconfig.json', 'src', 'media', 'syntaxes', 'docs', 'scripts/build.mjs', 'scripts/lazyNotebook.cjs'];
+const STAGED = [
+  'package.json',
+  'package.nls.json',
+  'README.md',
+  'LICENSE',
+  'CHANGELOG.md',
+  '.vscodeignore',
+  'tsconfig.json',
+  'src',
+  'media',
+  'syntaxes',
+  'docs',
+  'scripts/build.mjs',
+  'scripts/lazyNotebook.cjs',
+];
 /** Files a user's install cannot do without. */
-const REQUIRED = ['package.json', 'package.nls.json', 'README.md', 'LICENSE', 'CHANGELOG.md', 'dist/extension.js', 'dist/noteReader.js', 'dist/server.js', 'docs/format.md', 'media/icon.png'];
+const REQUIRED = [
+  'package.json',
+  'package.nls.json',
+  'README.md',
+  'LICENSE',
+  'CHANGELOG.md',
+  'dist/extension.js',
+  'dist/noteReader.js',
+  'dist/server.js',
+  'docs/format.md',
+  'media/icon.png',
+];
 /** Nothing of the development tree goes in. */
-const FORBIDDEN = [/tsconfig\.json$/, /^src\//, /^test\//, /^scripts\//, /^bench\//, /^demo\//, /node_modules\//, /\.map$/, /\.ts$/, /^\.editor-host\//, /^dist\/cli\.js$/];
+const FORBIDDEN = [
+  /tsconfig\.json$/,
+  /^src\//,
+  /^test\//,
+  /^scripts\//,
+  /^bench\//,
+  /^demo\//,
+  /node_modules\//,
+  /\.map$/,
+  /\.ts$/,
+  /^\.editor-host\//,
+  /^dist\/cli\.js$/,
+];
 
 function run(what, command, args) {
   const r = spawnSync(command, args, { cwd: stage, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
@@ -50,16 +88,29 @@ const vsce = join(dirname(createRequire(import.meta.url).resolve('@vscode/vsce/p
 // README's relative links stay relative (they resolve inside the installed
 // extension, where docs/format.md and the images are shipped).
 const common = ['--no-dependencies'];
-const files = run('vsce ls', process.execPath, [vsce, 'ls', ...common]).split('\n').map((l) => l.trim()).filter(Boolean);
+const files = run('vsce ls', process.execPath, [vsce, 'ls', ...common])
+  .split('\n')
+  .map((l) => l.trim())
+  .filter(Boolean);
 const missing = REQUIRED.filter((f) => !files.includes(f));
 const stray = files.filter((f) => FORBIDDEN.some((re) => re.test(f)));
 if (missing.length || stray.length) {
-  throw new Error(`package: the listing is wrong${missing.length ? `; missing: ${missing.join(', ')}` : ''}${stray.length ? `; must not ship: ${stray.join(', ')}` : ''}`);
+  throw new Error(
+    `package: the listing is wrong${missing.length ? `; missing: ${missing.join(', ')}` : ''}${stray.length ? `; must not ship: ${stray.join(', ')}` : ''}`,
+  );
 }
 
 mkdirSync(dirname(vsix), { recursive: true });
 rmSync(vsix, { force: true });
-run('vsce package', process.execPath, [vsce, 'package', ...common, '--no-rewrite-relative-links', '--allow-missing-repository', '--out', vsix]);
+run('vsce package', process.execPath, [
+  vsce,
+  'package',
+  ...common,
+  '--no-rewrite-relative-links',
+  '--allow-missing-repository',
+  '--out',
+  vsix,
+]);
 const kb = (statSync(vsix).size / 1024).toFixed(0);
 console.log(`package: ${files.length} files, ${kb} KiB`);
 for (const f of files) console.log(`  ${f}`);

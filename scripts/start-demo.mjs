@@ -28,7 +28,8 @@ function parseArgs(argv) {
       process.exit(0);
     } else out.folder = resolve(argv[i]);
   }
-  if (!Number.isInteger(out.port) || out.port < 0 || out.port > 65535) throw new Error(`--port wants a port number, not ${out.port}`);
+  if (!Number.isInteger(out.port) || out.port < 0 || out.port > 65535)
+    throw new Error(`--port wants a port number, not ${out.port}`);
   if (!existsSync(out.folder) || !statSync(out.folder).isDirectory()) throw new Error(`${out.folder} is not a folder`);
   return out;
 }
@@ -74,7 +75,8 @@ async function main() {
   } catch (err) {
     console.error(String(err instanceof Error ? err.message : err));
     const log = join(run.dir, 'server.log');
-    if (existsSync(log)) console.error(`---- server log ----\n${readFileSync(log, 'utf8').split('\n').slice(-30).join('\n')}`);
+    if (existsSync(log))
+      console.error(`---- server log ----\n${readFileSync(log, 'utf8').split('\n').slice(-30).join('\n')}`);
     await stop(1);
   }
 }

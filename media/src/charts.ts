@@ -4,13 +4,34 @@
  * share the x range and fixed axis widths so their plot areas line up.
  * chart.js is tree-shaken: only the pieces registered here are bundled.
  */
-import { Chart, Legend, LinearScale, LineElement, PointElement, ScatterController, Tooltip, type ChartDataset, type ScaleOptionsByType } from 'chart.js';
+import {
+  Chart,
+  Legend,
+  LinearScale,
+  LineElement,
+  PointElement,
+  ScatterController,
+  Tooltip,
+  type ChartDataset,
+  type ScaleOptionsByType,
+} from 'chart.js';
 import type { ChartModel, Series, ViewModel } from './model';
 import { shortNumber, shortTemperature } from './numbers';
 import { backgroundPlugin, deficitPlugin, errorBarsPlugin, inversionPlugin } from './plugins';
 import type { Palette } from './theme';
 
-Chart.register(ScatterController, LineElement, PointElement, LinearScale, Legend, Tooltip, backgroundPlugin, inversionPlugin, errorBarsPlugin, deficitPlugin);
+Chart.register(
+  ScatterController,
+  LineElement,
+  PointElement,
+  LinearScale,
+  Legend,
+  Tooltip,
+  backgroundPlugin,
+  inversionPlugin,
+  errorBarsPlugin,
+  deficitPlugin,
+);
 
 /** Width in CSS pixels given to every y axis, so the two plot areas share their left and right edges. */
 const AXIS_WIDTH = 92;
@@ -41,7 +62,13 @@ function fixedWidth(scale: { width: number }): void {
   scale.width = AXIS_WIDTH;
 }
 
-function axis(title: string, min: number, max: number, p: Palette, position: 'left' | 'bottom'): ScaleOptionsByType<'linear'> {
+function axis(
+  title: string,
+  min: number,
+  max: number,
+  p: Palette,
+  position: 'left' | 'bottom',
+): ScaleOptionsByType<'linear'> {
   return {
     type: 'linear',
     position,
@@ -50,7 +77,12 @@ function axis(title: string, min: number, max: number, p: Palette, position: 'le
     title: { display: true, text: title, color: p.foreground },
     grid: { color: p.grid, lineWidth: 0.5 },
     border: { color: p.muted },
-    ticks: { color: p.muted, callback: (v: number | string) => shortNumber(Number(v)), maxTicksLimit: 9, includeBounds: position === 'left' },
+    ticks: {
+      color: p.muted,
+      callback: (v: number | string) => shortNumber(Number(v)),
+      maxTicksLimit: 9,
+      includeBounds: position === 'left',
+    },
     ...(position === 'left' ? { afterFit: fixedWidth } : {}),
   } as unknown as ScaleOptionsByType<'linear'>;
 }
@@ -64,11 +96,38 @@ function options(m: ChartModel, p: Palette, legend: boolean, right: ScaleOptions
     maintainAspectRatio: false,
     parsing: false as const,
     normalized: true,
-    scales: { x: axis(m.x.title, m.x.min, m.x.max, p, 'bottom'), y: axis(m.y.title, m.y.min, m.y.max, p, 'left'), y2: right },
+    scales: {
+      x: axis(m.x.title, m.x.min, m.x.max, p, 'bottom'),
+      y: axis(m.y.title, m.y.min, m.y.max, p, 'left'),
+      y2: right,
+    },
     plugins: {
-      legend: { display: legend, position: 'top' as const, labels: { color: p.foreground, usePointStyle: true, boxWidth: 10, boxHeight: 10, filter: (item: { text: string }) => item.text !== '' } },
-      tooltip: { callbacks: { label: (c: { dataset: { label?: string }; parsed: { x: number | null; y: number | null } }) => `${c.dataset.label || 'curve'}: (${shortNumber(c.parsed.x ?? NaN, 4)}, ${shortNumber(c.parsed.y ?? NaN, 4)})` } },
-      inversion: { saturationX: m.saturationX, shade: p.inversion, line: p.saturation, text: p.foreground, alpha: p.highContrast ? 0.28 : 0.16, zeroLine, font },
+      legend: {
+        display: legend,
+        position: 'top' as const,
+        labels: {
+          color: p.foreground,
+          usePointStyle: true,
+          boxWidth: 10,
+          boxHeight: 10,
+          filter: (item: { text: string }) => item.text !== '',
+        },
+      },
+      tooltip: {
+        callbacks: {
+          label: (c: { dataset: { label?: string }; parsed: { x: number | null; y: number | null } }) =>
+            `${c.dataset.label || 'curve'}: (${shortNumber(c.parsed.x ?? NaN, 4)}, ${shortNumber(c.parsed.y ?? NaN, 4)})`,
+        },
+      },
+      inversion: {
+        saturationX: m.saturationX,
+        shade: p.inversion,
+        line: p.saturation,
+        text: p.foreground,
+        alpha: p.highContrast ? 0.28 : 0.16,
+        zeroLine,
+        font,
+      },
       errorBars: { bars: m.errorBars, width: p.highContrast ? 2 : 1.5 },
       deficit: { gap: m.deficit, font },
       background: { color: p.background },
@@ -85,13 +144,27 @@ function temperatureAxis(m: ChartModel, kelvinPerUnit: number, p: Palette): Scal
     position: 'right',
     afterFit: fixedWidth,
     grid: { display: false },
-    ticks: { ...a.ticks, callback: (v: number | string) => (Math.abs(Number(v)) <= step ? '±∞' : shortTemperature(kelvinPerUnit / Number(v))) },
+    ticks: {
+      ...a.ticks,
+      callback: (v: number | string) =>
+        Math.abs(Number(v)) <= step ? '±∞' : shortTemperature(kelvinPerUnit / Number(v)),
+    },
   } as unknown as ScaleOptionsByType<'linear'>;
 }
 
 /** An empty right axis of the same width, so the entropy chart's plot area matches the β chart's. */
 function spacerAxis(m: ChartModel): ScaleOptionsByType<'linear'> {
-  return { type: 'linear', position: 'right', min: m.y.min, max: m.y.max, afterFit: fixedWidth, grid: { display: false }, border: { display: false }, ticks: { display: false }, title: { display: false } } as unknown as ScaleOptionsByType<'linear'>;
+  return {
+    type: 'linear',
+    position: 'right',
+    min: m.y.min,
+    max: m.y.max,
+    afterFit: fixedWidth,
+    grid: { display: false },
+    border: { display: false },
+    ticks: { display: false },
+    title: { display: false },
+  } as unknown as ScaleOptionsByType<'linear'>;
 }
 
 /**
@@ -107,7 +180,10 @@ function describe(chart: Scatter): void {
   c.dataset.area = [a.left, a.top, a.right, a.bottom].join(',');
   c.dataset.x = [x.min, x.max].join(',');
   c.dataset.y = [y.min, y.max].join(',');
-  c.dataset.legend = chart.data.datasets.map((d) => d.label ?? '').filter((l) => l !== '').join('\n');
+  c.dataset.legend = chart.data.datasets
+    .map((d) => d.label ?? '')
+    .filter((l) => l !== '')
+    .join('\n');
 }
 
 /** Owns the two chart.js instances. */
@@ -125,15 +201,34 @@ export class CurveCharts {
     Chart.defaults.color = p.foreground;
     Chart.defaults.font.family = p.fontFamily;
     Chart.defaults.font.size = p.fontSize;
-    this.entropy = this.render(this.entropy, this.entropyCanvas, model.entropy, options(model.entropy, p, true, spacerAxis(model.entropy), false), p);
-    this.beta = this.render(this.beta, this.betaCanvas, model.beta, options(model.beta, p, false, temperatureAxis(model.beta, model.kelvinPerUnit, p), true), p);
+    this.entropy = this.render(
+      this.entropy,
+      this.entropyCanvas,
+      model.entropy,
+      options(model.entropy, p, true, spacerAxis(model.entropy), false),
+      p,
+    );
+    this.beta = this.render(
+      this.beta,
+      this.betaCanvas,
+      model.beta,
+      options(model.beta, p, false, temperatureAxis(model.beta, model.kelvinPerUnit, p), true),
+      p,
+    );
     describe(this.entropy);
     describe(this.beta);
   }
 
-  private render(chart: Scatter | null, canvas: HTMLCanvasElement, m: ChartModel, o: ReturnType<typeof options>, p: Palette): Scatter {
+  private render(
+    chart: Scatter | null,
+    canvas: HTMLCanvasElement,
+    m: ChartModel,
+    o: ReturnType<typeof options>,
+    p: Palette,
+  ): Scatter {
     const datasets = m.series.map((s) => dataset(s, p));
-    if (!chart) return new Chart(canvas, { type: 'scatter', data: { datasets }, options: o as never }) as unknown as Scatter;
+    if (!chart)
+      return new Chart(canvas, { type: 'scatter', data: { datasets }, options: o as never }) as unknown as Scatter;
     chart.data.datasets = datasets;
     chart.options = o as never;
     chart.update('none');

@@ -23,7 +23,10 @@ function on(id: string, event: string, fn: () => void): void {
 }
 
 /** Wires the controls to the actions and sets the unit switch to `unit`. */
-export function wireControls(unit: EnergyAxisUnit, actions: ControlActions): { setUnit(u: EnergyAxisUnit): void; setDrawable(d: boolean): void } {
+export function wireControls(
+  unit: EnergyAxisUnit,
+  actions: ControlActions,
+): { setUnit(u: EnergyAxisUnit): void; setDrawable(d: boolean): void } {
   const select = document.getElementById('unit-select') as (HTMLElement & { value: string }) | null;
   const setUnit = (u: EnergyAxisUnit): void => {
     if (select && select.value !== u) select.value = u;
@@ -40,7 +43,8 @@ export function wireControls(unit: EnergyAxisUnit, actions: ControlActions): { s
   return {
     setUnit,
     setDrawable(d: boolean) {
-      for (const id of ['pin-button', 'export-png', 'export-csv', 'copy-link']) document.getElementById(id)?.toggleAttribute('disabled', !d);
+      for (const id of ['pin-button', 'export-png', 'export-csv', 'copy-link'])
+        document.getElementById(id)?.toggleAttribute('disabled', !d);
     },
   };
 }

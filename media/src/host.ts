@@ -3,7 +3,13 @@
  * gives a webview (`acquireVsCodeApi`, callable once), and the listener that
  * accepts only host messages that pass the shared validator.
  */
-import { isHostToView, isViewState, type HostToView, type ViewState, type ViewToHost } from '../../src/core/packageFree';
+import {
+  isHostToView,
+  isViewState,
+  type HostToView,
+  type ViewState,
+  type ViewToHost,
+} from '../../src/core/packageFree';
 
 /** What `acquireVsCodeApi()` returns. */
 interface VsCodeApi {

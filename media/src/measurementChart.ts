@@ -40,10 +40,47 @@ export class MeasurementChart {
     const ys = [...plot.points.map((q) => q.y), ...plot.fit.y];
     const xs = [...plot.points.map((q) => q.x), ...plot.fit.x];
     const datasets: ChartDataset<'scatter'>[] = [
-      { label: 'measured', data: plot.points.filter((q) => !q.flagged).map((q) => ({ x: q.x, y: q.y })), borderColor: p.measured, backgroundColor: p.measured, pointRadius: 4, pointStyle: 'circle', showLine: false, yAxisID: 'y' },
-      { label: 'flagged (> 3 σ off)', data: plot.points.filter((q) => q.flagged).map((q) => ({ x: q.x, y: q.y })), borderColor: p.saturation, backgroundColor: p.saturation, pointRadius: 6, pointStyle: 'crossRot', borderWidth: 2, showLine: false, yAxisID: 'y' },
-      { label: 'fit', data: plot.fit.x.map((x, i) => ({ x, y: plot.fit.y[i] })), borderColor: p.curve, backgroundColor: p.curve, pointRadius: 0, showLine: true, borderWidth: 2, yAxisID: 'y' },
-      { label: 'residual', data: plot.residuals.map((r) => ({ x: r.x, y: r.y })), borderColor: p.muted, backgroundColor: p.muted, pointRadius: 3, pointStyle: 'triangle', showLine: false, yAxisID: 'y2' },
+      {
+        label: 'measured',
+        data: plot.points.filter((q) => !q.flagged).map((q) => ({ x: q.x, y: q.y })),
+        borderColor: p.measured,
+        backgroundColor: p.measured,
+        pointRadius: 4,
+        pointStyle: 'circle',
+        showLine: false,
+        yAxisID: 'y',
+      },
+      {
+        label: 'flagged (> 3 σ off)',
+        data: plot.points.filter((q) => q.flagged).map((q) => ({ x: q.x, y: q.y })),
+        borderColor: p.saturation,
+        backgroundColor: p.saturation,
+        pointRadius: 6,
+        pointStyle: 'crossRot',
+        borderWidth: 2,
+        showLine: false,
+        yAxisID: 'y',
+      },
+      {
+        label: 'fit',
+        data: plot.fit.x.map((x, i) => ({ x, y: plot.fit.y[i] })),
+        borderColor: p.curve,
+        backgroundColor: p.curve,
+        pointRadius: 0,
+        showLine: true,
+        borderWidth: 2,
+        yAxisID: 'y',
+      },
+      {
+        label: 'residual',
+        data: plot.residuals.map((r) => ({ x: r.x, y: r.y })),
+        borderColor: p.muted,
+        backgroundColor: p.muted,
+        pointRadius: 3,
+        pointStyle: 'triangle',
+        showLine: false,
+        yAxisID: 'y2',
+      },
     ];
     const x = range(xs);
     const y = range(ys);
@@ -62,10 +99,32 @@ export class MeasurementChart {
       responsive: true,
       maintainAspectRatio: false,
       parsing: false as const,
-      scales: { x: axis(plot.xTitle, x.min, x.max, 'bottom', true), y: axis(plot.yTitle, y.min, y.max, 'left', true), y2: axis('residual', -rmax, rmax, 'right', false) },
-      plugins: { legend: { display: true, labels: { color: p.foreground, usePointStyle: true, boxWidth: 8, boxHeight: 8, filter: (i: { datasetIndex?: number }) => (i.datasetIndex === 1 ? plot.points.some((q) => q.flagged) : true) } }, background: { color: p.background } },
+      scales: {
+        x: axis(plot.xTitle, x.min, x.max, 'bottom', true),
+        y: axis(plot.yTitle, y.min, y.max, 'left', true),
+        y2: axis('residual', -rmax, rmax, 'right', false),
+      },
+      plugins: {
+        legend: {
+          display: true,
+          labels: {
+            color: p.foreground,
+            usePointStyle: true,
+            boxWidth: 8,
+            boxHeight: 8,
+            filter: (i: { datasetIndex?: number }) =>
+              i.datasetIndex === 1 ? plot.points.some((q) => q.flagged) : true,
+          },
+        },
+        background: { color: p.background },
+      },
     };
-    if (!this.chart) this.chart = new Chart(this.canvas, { type: 'scatter', data: { datasets }, options: options as never }) as unknown as Scatter;
+    if (!this.chart)
+      this.chart = new Chart(this.canvas, {
+        type: 'scatter',
+        data: { datasets },
+        options: options as never,
+      }) as unknown as Scatter;
     else {
       this.chart.data.datasets = datasets;
       this.chart.options = options as never;

@@ -4,7 +4,13 @@
  * dS/dE = β still holds on screen), axis ranges, error bars, the deficit gap
  * and the inversion region. Pure: no DOM, no chart.js.
  */
-import { pinsBesides, type CurvePayload, type DisplayUnit, type EnergyAxisUnit, type PinnedRun } from '../../src/core/packageFree';
+import {
+  pinsBesides,
+  type CurvePayload,
+  type DisplayUnit,
+  type EnergyAxisUnit,
+  type PinnedRun,
+} from '../../src/core/packageFree';
 import { shortNumber, shortTemperature } from './numbers';
 import type { Palette } from './theme';
 
@@ -98,7 +104,12 @@ export function niceCeil(x: number): number {
 }
 
 /** Builds both chart models for the shown block and the pinned runs. */
-export function viewModel(base: CurvePayload, pinned: readonly PinnedRun[], choice: EnergyAxisUnit, palette: Palette): ViewModel {
+export function viewModel(
+  base: CurvePayload,
+  pinned: readonly PinnedRun[],
+  choice: EnergyAxisUnit,
+  palette: Palette,
+): ViewModel {
   const pins = pinsBesides(base, pinned);
   const unit = unitOf(base, choice);
   const k = unit.kelvinPerUnit;
@@ -106,23 +117,70 @@ export function viewModel(base: CurvePayload, pinned: readonly PinnedRun[], choi
   const b: Series[] = [];
   const eBars: ErrorBar[] = [];
   const bBars: ErrorBar[] = [];
-  e.push({ role: 'curve', label: 'thermal states, large N', points: columnPoints(base.curve.energy, base.curve.entropy, k, 1), color: palette.curve, pointStyle: 'circle' });
-  b.push({ role: 'curve', label: 'thermal states, large N', points: columnPoints(base.curve.energy, base.curve.beta, k, k), color: palette.curve, pointStyle: 'circle' });
+  e.push({
+    role: 'curve',
+    label: 'thermal states, large N',
+    points: columnPoints(base.curve.energy, base.curve.entropy, k, 1),
+    color: palette.curve,
+    pointStyle: 'circle',
+  });
+  b.push({
+    role: 'curve',
+    label: 'thermal states, large N',
+    points: columnPoints(base.curve.energy, base.curve.beta, k, k),
+    color: palette.curve,
+    pointStyle: 'circle',
+  });
   const f = base.finiteN;
   if (f) {
     const label = `exact, N = ${f.n}`;
-    e.push({ role: 'finiteN', label, points: columnPoints(f.energy, f.entropy, k, 1), color: palette.finiteN, pointStyle: 'circle' });
-    b.push({ role: 'finiteN', label, points: columnPoints(f.energy, f.beta, k, k), color: palette.finiteN, pointStyle: 'circle' });
+    e.push({
+      role: 'finiteN',
+      label,
+      points: columnPoints(f.energy, f.entropy, k, 1),
+      color: palette.finiteN,
+      pointStyle: 'circle',
+    });
+    b.push({
+      role: 'finiteN',
+      label,
+      points: columnPoints(f.energy, f.beta, k, k),
+      color: palette.finiteN,
+      pointStyle: 'circle',
+    });
   }
   const runs: { p: CurvePayload; role: 'measured' | 'pin'; color: string; shape: Series['pointStyle'] }[] = [
     { p: base, role: 'measured', color: palette.measured, shape: 'circle' },
     // Each pin keeps the colour and shape of its place in the pin list, also while one of them is the shown run.
-    ...pinned.flatMap((r, i) => (pins.includes(r) ? [{ p: r.payload, role: 'pin' as const, color: palette.pins[i % palette.pins.length]!, shape: PIN_SHAPES[i % PIN_SHAPES.length]! }] : [])),
+    ...pinned.flatMap((r, i) =>
+      pins.includes(r)
+        ? [
+            {
+              p: r.payload,
+              role: 'pin' as const,
+              color: palette.pins[i % palette.pins.length]!,
+              shape: PIN_SHAPES[i % PIN_SHAPES.length]!,
+            },
+          ]
+        : [],
+    ),
   ];
   for (const { p, role, color, shape } of runs) {
     if (role === 'pin' && !sameScheme(p, base)) {
-      e.push({ role: 'pinCurve', label: null, points: columnPoints(p.curve.energy, p.curve.entropy, k, 1), color, pointStyle: shape });
-      b.push({ role: 'pinCurve', label: null, points: columnPoints(p.curve.energy, p.curve.beta, k, k), color, pointStyle: shape });
+      e.push({
+        role: 'pinCurve',
+        label: null,
+        points: columnPoints(p.curve.energy, p.curve.entropy, k, 1),
+        color,
+        pointStyle: shape,
+      });
+      b.push({
+        role: 'pinCurve',
+        label: null,
+        points: columnPoints(p.curve.energy, p.curve.beta, k, k),
+        color,
+        pointStyle: shape,
+      });
     }
     const m = p.measured;
     if (!m) continue;
@@ -138,8 +196,20 @@ export function viewModel(base: CurvePayload, pinned: readonly PinnedRun[], choi
   const t = base.thermal;
   if (t) {
     const label = `thermal at lattice ${shortTemperature(t.temperature)}`;
-    e.push({ role: 'lattice', label, points: [{ x: t.energy / k, y: t.entropy }], color: palette.lattice, pointStyle: 'triangle' });
-    b.push({ role: 'lattice', label, points: [{ x: t.energy / k, y: t.beta * k }], color: palette.lattice, pointStyle: 'triangle' });
+    e.push({
+      role: 'lattice',
+      label,
+      points: [{ x: t.energy / k, y: t.entropy }],
+      color: palette.lattice,
+      pointStyle: 'triangle',
+    });
+    b.push({
+      role: 'lattice',
+      label,
+      points: [{ x: t.energy / k, y: t.beta * k }],
+      color: palette.lattice,
+      pointStyle: 'triangle',
+    });
   }
   const all = [base, ...pins.map((r) => r.payload)];
   const xMin = Math.min(...all.map((p) => p.scheme.energies[0]!)) / k;
@@ -150,19 +220,36 @@ export function viewModel(base: CurvePayload, pinned: readonly PinnedRun[], choi
   const m = base.measured;
   const deficit: DeficitGap | null =
     m && m.thermalEntropy !== null && m.deficit !== null && m.deficit > 1e-3 * Math.max(sMax, 1e-300)
-      ? { x: m.energy / k, from: m.entropy, to: m.thermalEntropy, text: `deficit ΔS/N = ${shortNumber(m.deficit)} k`, color: palette.measured }
+      ? {
+          x: m.energy / k,
+          from: m.entropy,
+          to: m.thermalEntropy,
+          text: `deficit ΔS/N = ${shortNumber(m.deficit)} k`,
+          color: palette.measured,
+        }
       : null;
   return {
     unit,
     kelvinPerUnit: k,
-    entropy: { series: e, errorBars: eBars, deficit, saturationX: base.saturationEnergy / k, x: { min: xMin, max: xMax, title: xTitle }, y: { min: 0, max: niceCeil(1.08 * sMax), title: 'entropy S/(Nk)' } },
+    entropy: {
+      series: e,
+      errorBars: eBars,
+      deficit,
+      saturationX: base.saturationEnergy / k,
+      x: { min: xMin, max: xMax, title: xTitle },
+      y: { min: 0, max: niceCeil(1.08 * sMax), title: 'entropy S/(Nk)' },
+    },
     beta: {
       series: b,
       errorBars: bBars,
       deficit: null,
       saturationX: base.saturationEnergy / k,
       x: { min: xMin, max: xMax, title: xTitle },
-      y: { min: -limit, max: limit, title: unit.name === 'K' ? 'inverse temperature β (K⁻¹)' : `inverse temperature β (per ${unit.label})` },
+      y: {
+        min: -limit,
+        max: limit,
+        title: unit.name === 'K' ? 'inverse temperature β (K⁻¹)' : `inverse temperature β (per ${unit.label})`,
+      },
     },
   };
 }

@@ -21,7 +21,12 @@ export function shortNumber(x: number, digits = 3): string {
   return String(Number(x.toPrecision(digits))).replace('-', MINUS);
 }
 
-const PREFIXES: readonly [string, number][] = [['K', 1], ['mK', 1e-3], ['µK', 1e-6], ['nK', 1e-9]];
+const PREFIXES: readonly [string, number][] = [
+  ['K', 1],
+  ['mK', 1e-3],
+  ['µK', 1e-6],
+  ['nK', 1e-9],
+];
 
 /** A temperature in K with an SI prefix chosen from its size, e.g. `−5.6 mK`; `±∞` for an infinite one. */
 export function shortTemperature(kelvin: number): string {

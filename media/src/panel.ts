@@ -5,7 +5,11 @@
  */
 import type { CurvePayload, PinnedRun, ProblemPayload } from '../../src/core/packageFree';
 
-function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, className?: string): HTMLElementTagNameMap[K] {
+function el<K extends keyof HTMLElementTagNameMap>(
+  tag: K,
+  text?: string,
+  className?: string,
+): HTMLElementTagNameMap[K] {
   const e = document.createElement(tag);
   if (text !== undefined) e.textContent = text;
   if (className) e.className = className;
@@ -66,7 +70,9 @@ export class Panel {
     this.title.textContent = 'Energy–entropy curve';
     this.status.textContent = '';
     delete this.status.dataset.status;
-    this.problem.replaceChildren(el('span', 'Place the cursor in a `levels` block of a note to draw its curve.', 'message'));
+    this.problem.replaceChildren(
+      el('span', 'Place the cursor in a `levels` block of a note to draw its curve.', 'message'),
+    );
     this.facts.replaceChildren();
     this.notes.replaceChildren();
   }

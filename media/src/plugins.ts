@@ -114,16 +114,16 @@ export const errorBarsPlugin: Plugin = {
       if (bar.dx !== null && bar.dx > 0) {
         const l = x.getPixelForValue(bar.x - bar.dx);
         const r = x.getPixelForValue(bar.x + bar.dx);
-        ctx.moveTo(l, py), ctx.lineTo(r, py);
-        ctx.moveTo(l, py - cap), ctx.lineTo(l, py + cap);
-        ctx.moveTo(r, py - cap), ctx.lineTo(r, py + cap);
+        (ctx.moveTo(l, py), ctx.lineTo(r, py));
+        (ctx.moveTo(l, py - cap), ctx.lineTo(l, py + cap));
+        (ctx.moveTo(r, py - cap), ctx.lineTo(r, py + cap));
       }
       if (bar.dy !== null && bar.dy > 0) {
         const t = y.getPixelForValue(bar.y + bar.dy);
         const b = y.getPixelForValue(bar.y - bar.dy);
-        ctx.moveTo(px, t), ctx.lineTo(px, b);
-        ctx.moveTo(px - cap, t), ctx.lineTo(px + cap, t);
-        ctx.moveTo(px - cap, b), ctx.lineTo(px + cap, b);
+        (ctx.moveTo(px, t), ctx.lineTo(px, b));
+        (ctx.moveTo(px - cap, t), ctx.lineTo(px + cap, t));
+        (ctx.moveTo(px - cap, b), ctx.lineTo(px + cap, b));
       }
       ctx.stroke();
     }

@@ -52,10 +52,18 @@ export function readPalette(): Palette {
     lattice: v(['--vscode-charts-green']),
     inversion: v(['--vscode-charts-orange', '--vscode-charts-red']),
     saturation: v(['--vscode-charts-yellow', '--vscode-focusBorder']),
-    pins: [v(['--vscode-charts-orange']), v(['--vscode-charts-purple']), v(['--vscode-charts-yellow']), v(['--vscode-charts-green']), v(['--vscode-charts-blue'])],
+    pins: [
+      v(['--vscode-charts-orange']),
+      v(['--vscode-charts-purple']),
+      v(['--vscode-charts-yellow']),
+      v(['--vscode-charts-green']),
+      v(['--vscode-charts-blue']),
+    ],
     fontFamily: read(style, ['--vscode-font-family'], body.fontFamily),
     fontSize: Number.isFinite(size) && size > 0 ? size : 13,
-    highContrast: document.body.classList.contains('vscode-high-contrast') || document.body.classList.contains('vscode-high-contrast-light'),
+    highContrast:
+      document.body.classList.contains('vscode-high-contrast') ||
+      document.body.classList.contains('vscode-high-contrast-light'),
   };
 }
 

@@ -59,7 +59,11 @@ function draw(): void {
   panel.showCurve(current);
   measurement.draw(plot, palette);
   charts.draw(viewModel(current, last?.pinned ?? [], unit, palette), palette);
-  for (const c of charts.canvases()) c.setAttribute('aria-label', `${c.id === 'beta-chart' ? 'Inverse temperature' : 'Entropy'} against energy for ${current.id}`);
+  for (const c of charts.canvases())
+    c.setAttribute(
+      'aria-label',
+      `${c.id === 'beta-chart' ? 'Inverse temperature' : 'Entropy'} against energy for ${current.id}`,
+    );
   document.body.dataset.drawn = String(++drawn);
 }
 

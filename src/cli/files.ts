@@ -16,7 +16,9 @@ export interface Note {
 export class UsageError extends Error {}
 
 function walk(dir: string, out: string[]): void {
-  const entries = readdirSync(dir, { withFileTypes: true }).sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+  const entries = readdirSync(dir, { withFileTypes: true }).sort((a, b) =>
+    a.name < b.name ? -1 : a.name > b.name ? 1 : 0,
+  );
   for (const e of entries) {
     if (e.name.startsWith('.') || e.name === 'node_modules') continue;
     const p = join(dir, e.name);
@@ -39,7 +41,9 @@ export function collectFiles(paths: readonly string[], cwd: string): string[] {
       try {
         walk(p, files);
       } catch (err) {
-        throw new UsageError(`cannot read folder '${p}': ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}`);
+        throw new UsageError(
+          `cannot read folder '${p}': ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}`,
+        );
       }
     } else files.push(p);
   }

@@ -1,5 +1,14 @@
 /** The output formats of `boltzmark report`: a table for people, JSON (the contract), CSV and Markdown. */
-import { measurementShort, betaText, enhancementText, fractionText, temperatureText, type ReportEntry, type BlockReport, DEFAULT_DISPLAY } from '../core';
+import {
+  measurementShort,
+  betaText,
+  enhancementText,
+  fractionText,
+  temperatureText,
+  type ReportEntry,
+  type BlockReport,
+  DEFAULT_DISPLAY,
+} from '../core';
 
 /** A block with its report entry, for the formatters. */
 export interface Row {
@@ -14,21 +23,48 @@ export function formatTable(rows: readonly Row[]): string {
   const body = tableCells(rows);
   const width = (s: string): number => [...s].length;
   const widths = head.map((h, i) => Math.max(width(h), ...body.map((r) => width(r[i]))));
-  const line = (cells: string[]): string => cells.map((c, i) => c + ' '.repeat(widths[i] - width(c))).join('  ').trimEnd();
+  const line = (cells: string[]): string =>
+    cells
+      .map((c, i) => c + ' '.repeat(widths[i] - width(c)))
+      .join('  ')
+      .trimEnd();
   const out = [line(head), line(widths.map((w) => '-'.repeat(w)))];
   rows.forEach(({ entry }, i) => {
     out.push(line(body[i]));
-    for (const d of entry.diagnostics) out.push(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
+    for (const d of entry.diagnostics)
+      out.push(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
   });
   return out.join('\n') + '\n';
 }
 
 /** The JSON array of the contract, two-space indented. */
 export function formatJson(rows: readonly Row[]): string {
-  return JSON.stringify(rows.map((r) => r.entry), null, 2) + '\n';
+  return (
+    JSON.stringify(
+      rows.map((r) => r.entry),
+      null,
+      2,
+    ) + '\n'
+  );
 }
 
-const CSV_HEAD = ['file', 'line', 'id', 'status', 'beta', 'beta_uncertainty', 'temperature', 'temperature_uncertainty', 'polarization', 'polarization_uncertainty', 'thermal_polarization', 'enhancement', 'entropy', 'errors', 'warnings'];
+const CSV_HEAD = [
+  'file',
+  'line',
+  'id',
+  'status',
+  'beta',
+  'beta_uncertainty',
+  'temperature',
+  'temperature_uncertainty',
+  'polarization',
+  'polarization_uncertainty',
+  'thermal_polarization',
+  'enhancement',
+  'entropy',
+  'errors',
+  'warnings',
+];
 
 function csvCell(v: string | number | null): string {
   if (v === null) return '';
@@ -40,22 +76,39 @@ function csvCell(v: string | number | null): string {
 export function formatCsv(rows: readonly Row[]): string {
   const lines = [CSV_HEAD.join(',')];
   for (const { entry: e } of rows) {
-    lines.push([
-      e.file, e.line, e.id, e.status,
-      e.beta?.value ?? null, e.beta?.uncertainty ?? null,
-      e.temperature?.value ?? null, e.temperature?.uncertainty ?? null,
-      e.polarization?.value ?? null, e.polarization?.uncertainty ?? null,
-      e.thermalPolarization, e.enhancement, e.entropy,
-      e.diagnostics.filter((d) => d.severity === 'error').length,
-      e.diagnostics.filter((d) => d.severity === 'warning').length,
-    ].map(csvCell).join(','));
+    lines.push(
+      [
+        e.file,
+        e.line,
+        e.id,
+        e.status,
+        e.beta?.value ?? null,
+        e.beta?.uncertainty ?? null,
+        e.temperature?.value ?? null,
+        e.temperature?.uncertainty ?? null,
+        e.polarization?.value ?? null,
+        e.polarization?.uncertainty ?? null,
+        e.thermalPolarization,
+        e.enhancement,
+        e.entropy,
+        e.diagnostics.filter((d) => d.severity === 'error').length,
+        e.diagnostics.filter((d) => d.severity === 'warning').length,
+      ]
+        .map(csvCell)
+        .join(','),
+    );
   }
   return lines.join('\r\n') + '\r\n';
 }
 
 /** Escapes text for a Markdown table cell (pipes, backslashes, HTML, line breaks). */
 function mdCell(s: string): string {
-  return s.replace(/\\/g, '\\\\').replace(/\|/g, '\\|').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/[\r\n]+/g, ' ');
+  return s
+    .replace(/\\/g, '\\\\')
+    .replace(/\|/g, '\\|')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
+    .replace(/[\r\n]+/g, ' ');
 }
 
 /** A Markdown results table, to paste into a summary note. */
@@ -81,7 +134,7 @@ function tableCells(rows: readonly Row[]): string[][] {
       r?.polarization ? fractionText(r.polarization) : '—',
       r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',
       r ? enhancementText(r.enhancement) : '—',
-      r ? measurementShort(r) ?? '' : '',
+      r ? (measurementShort(r) ?? '') : '',
     ];
   });
 }

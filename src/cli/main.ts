@@ -22,21 +22,29 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
   for (const file of collectFiles(paths, io.cwd)) {
     const note = readNote(file);
     const lines = new LineIndex(note.text);
-    for (const block of analyzer.analyzeText(note.text).blocks) rows.push({ block, entry: reportEntry(note.name, block, lines) });
+    for (const block of analyzer.analyzeText(note.text).blocks)
+      rows.push({ block, entry: reportEntry(note.name, block, lines) });
   }
   return rows;
 }
 
-const hasError = (rows: readonly Row[]): boolean => rows.some((r) => r.entry.diagnostics.some((d) => d.severity === 'error'));
+const hasError = (rows: readonly Row[]): boolean =>
+  rows.some((r) => r.entry.diagnostics.some((d) => d.severity === 'error'));
 
 /**
  * Runs the report over the given paths and returns the exit status. A status
  * filter narrows what is printed; the exit status still reflects every block.
  */
-export function report(paths: readonly string[], format: string, io: Io, statuses: readonly Status[] | null = null): number {
+export function report(
+  paths: readonly string[],
+  format: string,
+  io: Io,
+  statuses: readonly Status[] | null = null,
+): number {
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
-  const formatter = { json: formatJson, csv: formatCsv, markdown: formatMarkdown, table: formatTable }[format] ?? formatTable;
+  const formatter =
+    { json: formatJson, csv: formatCsv, markdown: formatMarkdown, table: formatTable }[format] ?? formatTable;
   io.out(formatter(shown));
   return hasError(rows) ? 1 : 0;
 }
@@ -62,9 +70,13 @@ export function check(paths: readonly string[], io: Io): number {
 
 /** Parses `--status inverted,non-thermal`; throws a usage error for an unknown word. */
 function parseStatuses(value: string): Status[] {
-  const words = value.split(',').map((w) => w.trim()).filter((w) => w !== '');
+  const words = value
+    .split(',')
+    .map((w) => w.trim())
+    .filter((w) => w !== '');
   for (const w of words) {
-    if (!(STATUSES as readonly string[]).includes(w)) throw new InvalidArgumentError(`unknown status '${w}' (use ${STATUSES.join(', ')})`);
+    if (!(STATUSES as readonly string[]).includes(w))
+      throw new InvalidArgumentError(`unknown status '${w}' (use ${STATUSES.join(', ')})`);
   }
   return words as Status[];
 }
@@ -74,15 +86,30 @@ export function main(argv: readonly string[], io: Io): number {
   let status = 0;
   const program = new Command()
     .name('boltzmark')
-    .description('Spin and excitation temperatures, polarization and population inversion from the levels blocks of Markdown notes.')
+    .description(
+      'Spin and excitation temperatures, polarization and population inversion from the levels blocks of Markdown notes.',
+    )
     .exitOverride()
-    .configureOutput({ writeOut: io.out, writeErr: io.err, outputError: (s, write) => write(`boltzmark: ${s.replace(/^error: /, '')}`) });
+    .configureOutput({
+      writeOut: io.out,
+      writeErr: io.err,
+      outputError: (s, write) => write(`boltzmark: ${s.replace(/^error: /, '')}`),
+    });
   program
     .command('report')
     .description('report every levels block of the given notes (folders are searched for *.md)')
     .argument('<paths...>', 'Markdown files or folders')
-    .addOption(new Option('-f, --format <format>', 'output format').choices(['table', 'json', 'csv', 'markdown']).default('table'))
-    .addOption(new Option('-s, --status <list>', 'only blocks with these statuses, comma-separated (normal, saturated, inverted, non-thermal, invalid)').argParser(parseStatuses))
+    .addOption(
+      new Option('-f, --format <format>', 'output format')
+        .choices(['table', 'json', 'csv', 'markdown'])
+        .default('table'),
+    )
+    .addOption(
+      new Option(
+        '-s, --status <list>',
+        'only blocks with these statuses, comma-separated (normal, saturated, inverted, non-thermal, invalid)',
+      ).argParser(parseStatuses),
+    )
     .action((paths: string[], opts: { format: string; status?: Status[] }) => {
       status = report(paths, opts.format, io, opts.status ?? null);
     });

@@ -16,7 +16,11 @@ function target(uri?: string, line?: number): { uri: string; line: number } | nu
   return { uri: editor.document.uri.toString(), line: editor.selection.active.line };
 }
 
-async function results(getClient: () => LanguageClient | undefined, uri?: string, line?: number): Promise<string | null> {
+async function results(
+  getClient: () => LanguageClient | undefined,
+  uri?: string,
+  line?: number,
+): Promise<string | null> {
   const t = target(uri, line);
   const client = getClient();
   if (!t || !client) return null;
@@ -24,7 +28,11 @@ async function results(getClient: () => LanguageClient | undefined, uri?: string
 }
 
 /** Registers every command. */
-export function registerCommands(context: vscode.ExtensionContext, getClient: () => LanguageClient | undefined, log: vscode.LogOutputChannel): void {
+export function registerCommands(
+  context: vscode.ExtensionContext,
+  getClient: () => LanguageClient | undefined,
+  log: vscode.LogOutputChannel,
+): void {
   const noBlock = (): void => void vscode.window.showInformationMessage('Place the cursor in a `levels` block first.');
   context.subscriptions.push(
     vscode.commands.registerCommand('boltzmark.showCurve', (uri?: string | vscode.Uri, line?: number) => {

@@ -9,7 +9,11 @@ import type { CurvePayload, EnergyAxisUnit } from '../core';
 import { noteReader } from './loadNoteReader';
 import { fileStem, imageLink, pngBytes } from './exportNames';
 
-async function saveAs(note: vscode.Uri, name: string, filters: Record<string, string[]>): Promise<vscode.Uri | undefined> {
+async function saveAs(
+  note: vscode.Uri,
+  name: string,
+  filters: Record<string, string[]>,
+): Promise<vscode.Uri | undefined> {
   const defaultUri = vscode.Uri.joinPath(note, '..', name);
   return vscode.window.showSaveDialog({ defaultUri, filters, saveLabel: 'Save' });
 }
@@ -22,9 +26,17 @@ export async function savePng(p: CurvePayload, dataUrl: string): Promise<vscode.
 }
 
 /** Asks where to save the CSV of the shown and pinned runs and writes it. */
-export async function saveCsv(p: CurvePayload, pinned: readonly CurvePayload[], unit: EnergyAxisUnit): Promise<vscode.Uri | undefined> {
+export async function saveCsv(
+  p: CurvePayload,
+  pinned: readonly CurvePayload[],
+  unit: EnergyAxisUnit,
+): Promise<vscode.Uri | undefined> {
   const uri = await saveAs(vscode.Uri.parse(p.uri), `${fileStem(p.id)}-curve.csv`, { CSV: ['csv'] });
-  if (uri) await vscode.workspace.fs.writeFile(uri, Buffer.from(noteReader().curveCsv([p, ...pinned], unit === 'block' ? p.unit : null), 'utf8'));
+  if (uri)
+    await vscode.workspace.fs.writeFile(
+      uri,
+      Buffer.from(noteReader().curveCsv([p, ...pinned], unit === 'block' ? p.unit : null), 'utf8'),
+    );
   return uri;
 }
 

@@ -16,7 +16,8 @@ export function followCursor(): vscode.Disposable {
     clearTimeout(timer);
     timer = setTimeout(() => {
       const view = CurveView.active;
-      if (view && !editor.document.isClosed) view.follow({ uri: editor.document.uri.toString(), line: editor.selection.active.line });
+      if (view && !editor.document.isClosed)
+        view.follow({ uri: editor.document.uri.toString(), line: editor.selection.active.line });
     }, FOLLOW_DELAY_MS);
   };
   const subscriptions = [
@@ -26,7 +27,8 @@ export function followCursor(): vscode.Disposable {
     vscode.workspace.onDidChangeTextDocument((e) => {
       const view = CurveView.active;
       const editor = vscode.window.activeTextEditor;
-      if (view && editor && editor.document === e.document && view.shownUri === e.document.uri.toString()) later(editor);
+      if (view && editor && editor.document === e.document && view.shownUri === e.document.uri.toString())
+        later(editor);
     }),
   ];
   return { dispose: () => (clearTimeout(timer), subscriptions.forEach((s) => s.dispose())) };

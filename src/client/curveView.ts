@@ -8,7 +8,15 @@
  */
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
-import { isViewState, isViewToHost, pinsBesides, type CurvePayload, type PinnedRun, type ViewPayload, type ViewToHost } from '../core/packageFree';
+import {
+  isViewState,
+  isViewToHost,
+  pinsBesides,
+  type CurvePayload,
+  type PinnedRun,
+  type ViewPayload,
+  type ViewToHost,
+} from '../core/packageFree';
 import { CurveDataRequest } from '../shared/protocol';
 import { copyImageLink, saveCsv, savePng } from './curveExport';
 import { newNonce, viewHtml } from './viewHtml';
@@ -37,7 +45,10 @@ export function webviewOptions(extensionUri: vscode.Uri): vscode.WebviewOptions 
   return {
     enableScripts: true,
     enableCommandUris: false,
-    localResourceRoots: [vscode.Uri.joinPath(extensionUri, 'dist', 'media'), vscode.Uri.joinPath(extensionUri, 'media')],
+    localResourceRoots: [
+      vscode.Uri.joinPath(extensionUri, 'dist', 'media'),
+      vscode.Uri.joinPath(extensionUri, 'media'),
+    ],
   };
 }
 
@@ -63,7 +74,12 @@ export class CurveView implements vscode.Disposable {
     let view = CurveView.instance;
     if (view) view.panel.reveal(vscode.ViewColumn.Beside, true);
     else {
-      const panel = vscode.window.createWebviewPanel(CURVE_VIEW_TYPE, 'Energy–entropy curve', { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true }, webviewOptions(host.extensionUri));
+      const panel = vscode.window.createWebviewPanel(
+        CURVE_VIEW_TYPE,
+        'Energy–entropy curve',
+        { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true },
+        webviewOptions(host.extensionUri),
+      );
       view = new CurveView(panel, host);
     }
     view.follow(target);
@@ -111,7 +127,12 @@ export class CurveView implements vscode.Disposable {
   private html(): string {
     const w = this.panel.webview;
     const media = (...p: string[]) => w.asWebviewUri(vscode.Uri.joinPath(this.host.extensionUri, ...p)).toString();
-    return viewHtml({ cspSource: w.cspSource, scriptUri: media('dist', 'media', 'view.js'), styleUri: media('media', 'view.css'), nonce: newNonce() });
+    return viewHtml({
+      cspSource: w.cspSource,
+      scriptUri: media('dist', 'media', 'view.js'),
+      styleUri: media('media', 'view.css'),
+      nonce: newNonce(),
+    });
   }
 
   /** Asks the server for the target's payload; retries (up to `tries`) while the server lags the editor. */
@@ -168,10 +189,16 @@ export class CurveView implements vscode.Disposable {
         if (shown) await savePng(shown, m.dataUrl);
         return;
       case 'exportCsv':
-        if (shown) await saveCsv(shown, pinsBesides(shown, this.pins).map((p) => p.payload), m.unit);
+        if (shown)
+          await saveCsv(
+            shown,
+            pinsBesides(shown, this.pins).map((p) => p.payload),
+            m.unit,
+          );
         return;
       case 'copyImageLink':
-        if (shown && (await copyImageLink(shown, m.dataUrl))) void vscode.window.setStatusBarMessage('Boltzmark: image link copied', 3000);
+        if (shown && (await copyImageLink(shown, m.dataUrl)))
+          void vscode.window.setStatusBarMessage('Boltzmark: image link copied', 3000);
         return;
     }
   }

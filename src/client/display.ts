@@ -10,6 +10,17 @@ import { fromSection } from '../shared/settings';
 /** The display options from the settings (of the resource's folder, when one is given). */
 export function displayOptions(scope?: vscode.Uri): DisplayOptions {
   const c = vscode.workspace.getConfiguration('boltzmark', scope);
-  const s = fromSection({ display: { significantDigits: c.get('display.significantDigits'), temperature: c.get('display.temperature'), polarization: c.get('display.polarization') } });
-  return { ...DEFAULT_DISPLAY, digits: s.significantDigits, temperature: s.temperature, percent: s.polarization === 'percent' };
+  const s = fromSection({
+    display: {
+      significantDigits: c.get('display.significantDigits'),
+      temperature: c.get('display.temperature'),
+      polarization: c.get('display.polarization'),
+    },
+  });
+  return {
+    ...DEFAULT_DISPLAY,
+    digits: s.significantDigits,
+    temperature: s.temperature,
+    percent: s.polarization === 'percent',
+  };
 }

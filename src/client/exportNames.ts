@@ -15,7 +15,11 @@ export interface UriParts {
 
 /** A file-name stem from a block id: letters, digits, `_` and `-` only, at most 60 characters. */
 export function fileStem(id: string): string {
-  const stem = id.normalize('NFKD').replace(/[^\w-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase();
+  const stem = id
+    .normalize('NFKD')
+    .replace(/[^\w-]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .toLowerCase();
   return (stem || 'block').slice(0, 60);
 }
 

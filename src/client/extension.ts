@@ -4,7 +4,12 @@
  * only as quick fixes the user picks.
  */
 import * as vscode from 'vscode';
-import { LanguageClient, TransportKind, type LanguageClientOptions, type ServerOptions } from 'vscode-languageclient/node';
+import {
+  LanguageClient,
+  TransportKind,
+  type LanguageClientOptions,
+  type ServerOptions,
+} from 'vscode-languageclient/node';
 import type MarkdownIt from 'markdown-it';
 import { registerCommands } from './commands';
 import { displayOptions } from './display';
@@ -22,7 +27,10 @@ export interface BoltzmarkApi {
 
 /** Activates on the first Markdown document (or one of the commands or views). */
 export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
-  const api: BoltzmarkApi = { extendMarkdownIt: (md) => noteReader().levelsPreview(md, { infoStrings: previewInfoStrings, display: () => displayOptions() }) };
+  const api: BoltzmarkApi = {
+    extendMarkdownIt: (md) =>
+      noteReader().levelsPreview(md, { infoStrings: previewInfoStrings, display: () => displayOptions() }),
+  };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
   context.subscriptions.push(log);
   try {
@@ -39,7 +47,10 @@ export async function activate(context: vscode.ExtensionContext): Promise<Boltzm
     };
     client = new LanguageClient('boltzmark', 'Boltzmark', serverOptions, clientOptions);
     registerCommands(context, () => client, log);
-    context.subscriptions.push(followCursor(), registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }));
+    context.subscriptions.push(
+      followCursor(),
+      registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }),
+    );
     registerRunLog(context, log);
     await client.start();
     log.info('Boltzmark language server started');

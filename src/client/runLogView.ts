@@ -50,17 +50,27 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
     const e = node.entry;
     const item = new vscode.TreeItem(e.id ?? `block at line ${e.line + 1}`, vscode.TreeItemCollapsibleState.None);
     const t = e.temperature ? measuredTemperatureText(e.temperature, displayOptions(vscode.Uri.parse(e.uri))) : '';
-    item.description = [e.status, t, this.by === 'date' ? e.name : e.date ?? ''].filter((x) => x !== '').join(' · ');
+    item.description = [e.status, t, this.by === 'date' ? e.name : (e.date ?? '')].filter((x) => x !== '').join(' · ');
     item.tooltip = `${e.name}:${e.line + 1}\n${e.status}${t ? `\n${t}` : ''}`;
     item.iconPath = new vscode.ThemeIcon(STATUS_ICONS[e.status]);
     item.contextValue = 'boltzmark.run';
-    item.command = { command: 'vscode.open', title: 'Open run', arguments: [vscode.Uri.parse(e.uri), { selection: new vscode.Range(e.line, 0, e.line, 0) }] };
+    item.command = {
+      command: 'vscode.open',
+      title: 'Open run',
+      arguments: [vscode.Uri.parse(e.uri), { selection: new vscode.Range(e.line, 0, e.line, 0) }],
+    };
     return item;
   }
 }
 
 // Codicons chosen by meaning (not colour): a plain circle for normal runs, warnings for the rest.
-const STATUS_ICONS: Record<Status, string> = { normal: 'circle-outline', saturated: 'circle-large-outline', inverted: 'arrow-swap', 'non-thermal': 'graph-scatter', invalid: 'error' };
+const STATUS_ICONS: Record<Status, string> = {
+  normal: 'circle-outline',
+  saturated: 'circle-large-outline',
+  inverted: 'arrow-swap',
+  'non-thermal': 'graph-scatter',
+  invalid: 'error',
+};
 
 /** Registers the view, its commands and its watchers. */
 export function registerRunLog(context: vscode.ExtensionContext, log: vscode.LogOutputChannel): void {
@@ -90,10 +100,13 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
   const schedule = (uri: vscode.Uri): void => {
     const key = uri.toString();
     clearTimeout(timers.get(key));
-    timers.set(key, setTimeout(() => {
-      timers.delete(key);
-      void readOne(uri);
-    }, DEBOUNCE_MS));
+    timers.set(
+      key,
+      setTimeout(() => {
+        timers.delete(key);
+        void readOne(uri);
+      }, DEBOUNCE_MS),
+    );
   };
   const start = async (): Promise<void> => {
     if (started) return;
@@ -108,7 +121,9 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
       watcher.onDidCreate(schedule),
       watcher.onDidChange(schedule),
       watcher.onDidDelete((uri) => tree.log.remove(uri.toString()) && tree.refresh()),
-      vscode.workspace.onDidChangeTextDocument((e) => e.document.languageId === 'markdown' && e.document.uri.scheme !== 'output' && schedule(e.document.uri)),
+      vscode.workspace.onDidChangeTextDocument(
+        (e) => e.document.languageId === 'markdown' && e.document.uri.scheme !== 'output' && schedule(e.document.uri),
+      ),
     );
   };
 
@@ -123,7 +138,8 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
         { canPickMany: true, title: 'Show runs with these statuses' },
       );
       if (!picks) return;
-      tree.statuses = picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label as Status);
+      tree.statuses =
+        picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label as Status);
       view.description = tree.statuses ? tree.statuses.join(', ') : undefined;
       tree.refresh();
     }),
@@ -133,10 +149,20 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
     }),
     vscode.commands.registerCommand('boltzmark.runLog.exportCsv', async () => {
       await start();
-      const target = await vscode.window.showSaveDialog({ filters: { CSV: ['csv'] }, defaultUri: vscode.workspace.workspaceFolders?.[0] ? vscode.Uri.joinPath(vscode.workspace.workspaceFolders[0].uri, 'levels-runs.csv') : undefined });
+      const target = await vscode.window.showSaveDialog({
+        filters: { CSV: ['csv'] },
+        defaultUri: vscode.workspace.workspaceFolders?.[0]
+          ? vscode.Uri.joinPath(vscode.workspace.workspaceFolders[0].uri, 'levels-runs.csv')
+          : undefined,
+      });
       if (!target) return;
-      await vscode.workspace.fs.writeFile(target, new TextEncoder().encode(noteReader().runLogCsv(tree.log.entries(tree.statuses))));
-      void vscode.window.showInformationMessage(`Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`);
+      await vscode.workspace.fs.writeFile(
+        target,
+        new TextEncoder().encode(noteReader().runLogCsv(tree.log.entries(tree.statuses))),
+      );
+      void vscode.window.showInformationMessage(
+        `Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`,
+      );
     }),
   );
 }

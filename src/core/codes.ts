@@ -37,17 +37,26 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'unit-missing': { severity: 'error', summary: 'A bare number where a unit is required; the fix adds one.' },
   'unit-case': { severity: 'error', summary: 'A unit written in the wrong case (`MT` for `mT`); the fix corrects it.' },
   'unit-unknown': { severity: 'error', summary: 'A unit that is not in the table; a close match is offered.' },
-  'unit-dimension': { severity: 'error', summary: 'A valid unit of the wrong kind for the key (a field unit for an energy).' },
+  'unit-dimension': {
+    severity: 'error',
+    summary: 'A valid unit of the wrong kind for the key (a field unit for an energy).',
+  },
   'unit-unexpected': { severity: 'error', summary: 'A unit on a value that must be a plain number.' },
   'uncertainty-negative': { severity: 'error', summary: 'A standard uncertainty below zero.' },
   'uncertainty-twice': { severity: 'error', summary: 'Both `±` and an `uncertainty` key for the same value.' },
   'list-expected': { severity: 'error', summary: 'A list was expected.' },
   // The spin form
-  'isotope-unknown': { severity: 'error', summary: 'An isotope not in the table; a "did you mean" fix when one is close.' },
+  'isotope-unknown': {
+    severity: 'error',
+    summary: 'An isotope not in the table; a "did you mean" fix when one is close.',
+  },
   'field-missing': { severity: 'error', summary: 'A spin needs `field` or `frequency`.' },
   'field-not-positive': { severity: 'error', summary: 'The field must be positive.' },
   'frequency-not-positive': { severity: 'error', summary: 'The frequency must be positive.' },
-  'field-frequency-mismatch': { severity: 'warning', summary: 'Field and frequency disagree with the isotope table by more than 1 %.' },
+  'field-frequency-mismatch': {
+    severity: 'warning',
+    summary: 'Field and frequency disagree with the isotope table by more than 1 %.',
+  },
   'g-factor-not-electron': { severity: 'error', summary: '`g-factor` was given for a nucleus.' },
   'g-factor-zero': { severity: 'error', summary: 'A zero g-factor.' },
   'g-factor-invalid': { severity: 'error', summary: 'A g-factor that cannot be used.' },
@@ -70,7 +79,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'population-zero-excluded': { severity: 'info', summary: 'An empty level is left out of the Boltzmann fit.' },
   'temperature-zero': { severity: 'info', summary: 'All population in the lowest (T → 0⁺) or highest (T → 0⁻) level.' },
   // Measurement inputs (signals, series, lines, gain)
-  'key-not-for-form': { severity: 'warning', summary: 'A key of another form (e.g. `detector` in a spin block); ignored.' },
+  'key-not-for-form': {
+    severity: 'warning',
+    summary: 'A key of another form (e.g. `detector` in a spin block); ignored.',
+  },
   'measurement-conflict': { severity: 'error', summary: '`signal` together with `populations` or `polarization`.' },
   'signal-not-mapping': { severity: 'error', summary: '`signal` (or one of its pairs) is not a mapping.' },
   'signal-incomplete': { severity: 'error', summary: 'A required part of `signal` is missing.' },
@@ -84,16 +96,25 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'series-model': { severity: 'error', summary: '`series.model` is neither `decay` nor `buildup`.' },
   'series-length-mismatch': { severity: 'error', summary: 'Times and signals of unequal length.' },
   'series-times-order': { severity: 'error', summary: 'Times that do not increase.' },
-  'series-too-short': { severity: 'error', summary: 'Fewer points than the model has parameters (error), or exactly as many (warning: no uncertainties).' },
+  'series-too-short': {
+    severity: 'error',
+    summary: 'Fewer points than the model has parameters (error), or exactly as many (warning: no uncertainties).',
+  },
   'series-sign-change': { severity: 'error', summary: 'A decaying signal that changes sign (or is all zero).' },
   'series-no-convergence': { severity: 'warning', summary: 'The nonlinear fit did not converge.' },
   'flip-too-large': { severity: 'error', summary: 'A decay readout flip angle of 90 deg or more (or ≤ 0).' },
-  'flip-ignored': { severity: 'warning', summary: 'A flip angle on a build-up: the correction applies to decays only.' },
+  'flip-ignored': {
+    severity: 'warning',
+    summary: 'A flip angle on a build-up: the correction applies to decays only.',
+  },
   'detector-unknown': { severity: 'error', summary: '`detector` is neither `energy` nor `photon`.' },
   'lines-too-few': { severity: 'error', summary: 'Fewer than two emission lines.' },
   'lines-mixed-species': { severity: 'error', summary: 'Lines of different species in one Boltzmann plot.' },
   'line-not-mapping': { severity: 'error', summary: 'An emission line is not a mapping.' },
-  'line-wavelength-missing': { severity: 'error', summary: 'A line without `wavelength` (needed for energy-calibrated intensities).' },
+  'line-wavelength-missing': {
+    severity: 'error',
+    summary: 'A line without `wavelength` (needed for energy-calibrated intensities).',
+  },
   'line-upper-missing': { severity: 'error', summary: 'A line without its upper-level energy.' },
   'line-g-missing': { severity: 'error', summary: 'A line without the upper level’s degeneracy.' },
   'line-a-missing': { severity: 'error', summary: 'A line without its transition probability `A`.' },
@@ -113,7 +134,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'count-invalid': { severity: 'error', summary: '`count` must be a whole number ≥ 1.' },
   'internal-error': { severity: 'error', summary: 'A fault in Boltzmark itself; please report it.' },
   // The whole note
-  'note-bounded': { severity: 'warning', summary: 'The note is larger than the editor reads as you type; later blocks get no results there.' },
+  'note-bounded': {
+    severity: 'warning',
+    summary: 'The note is larger than the editor reads as you type; later blocks get no results there.',
+  },
 };
 
 /** The section of docs/format.md that explains a code. */

@@ -3,19 +3,52 @@
  * curve view and the tests are hosts of what is exported here; nothing
  * below imports `vscode`, the LSP packages or Node built-ins.
  */
-export { Analyzer, DEFAULT_ANALYZER_OPTIONS, UNBOUNDED, type AnalyzerLimits, type AnalyzerOptions, type BlockReport, type Bounded, type DocumentReport } from './analyzer/analyzer';
+export {
+  Analyzer,
+  DEFAULT_ANALYZER_OPTIONS,
+  UNBOUNDED,
+  type AnalyzerLimits,
+  type AnalyzerOptions,
+  type BlockReport,
+  type Bounded,
+  type DocumentReport,
+} from './analyzer/analyzer';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
-export { DEFAULT_DISPLAY, STATUS_WORDS, betaText, enhancementText, fractionText, measuredTemperatureText, shortSummary, temperatureText, type DisplayOptions } from './present/summary';
+export {
+  DEFAULT_DISPLAY,
+  STATUS_WORDS,
+  betaText,
+  enhancementText,
+  fractionText,
+  measuredTemperatureText,
+  shortSummary,
+  temperatureText,
+  type DisplayOptions,
+} from './present/summary';
 export * from './present/numbers';
 export * from './quantities/constants';
-export { lookupSpecies, speciesSymbols, larmorFrequencyHz, zeemanSpacingKelvin, type SpinSpecies } from './quantities/isotopes';
+export {
+  lookupSpecies,
+  speciesSymbols,
+  larmorFrequencyHz,
+  zeemanSpacingKelvin,
+  type SpinSpecies,
+} from './quantities/isotopes';
 export { parseQuantity, convert, unitsFor, type Dimension, type Quantity } from './quantities/units';
-export { STATUSES, type Measured, type Problem, type Replacement, type Severity, type Span, type Status } from './types';
+export {
+  STATUSES,
+  type Measured,
+  type Problem,
+  type Replacement,
+  type Severity,
+  type Span,
+  type Status,
+} from './types';
 export { schemeCurve, betaAtEnergy, thermalStateAtEnergy, type CurvePoint } from './physics/curves';
 export { finiteNCurve, lnBinomial, type FiniteNPoint } from './physics/finiteN';
 export { gibbsEntropy, thermalDistribution, meanEnergy, relativeEntropy } from './physics/entropy';
@@ -25,12 +58,45 @@ export { pairTemperature, type PairLevel, type PairTemperature } from './physics
 export { RESIDUAL_TOLERANCE } from './physics/fit';
 export { CANONICAL_UNITS } from './quantities/units';
 export { curveData, DEFAULT_CURVE_DATA_OPTIONS, type CurveDataOptions, type NoteSource } from './view/curveData';
-export type { CurveColumns, CurvePayload, DisplayUnit, Fact, FiniteNColumns, MeasuredPoint, MeasurementPlot, PayloadSource, PlotPoint, ProblemPayload, ThermalMarker, ViewPayload } from './view/payload';
+export type {
+  CurveColumns,
+  CurvePayload,
+  DisplayUnit,
+  Fact,
+  FiniteNColumns,
+  MeasuredPoint,
+  MeasurementPlot,
+  PayloadSource,
+  PlotPoint,
+  ProblemPayload,
+  ThermalMarker,
+  ViewPayload,
+} from './view/payload';
 export { measurementPlot } from './view/measurementPlot';
 export { displayUnitFor, KELVIN_UNIT } from './view/displayUnit';
 export { measuredPoint } from './view/measuredPoint';
 export { isCurvePayload, isProblemPayload, isViewPayload } from './view/payloadCheck';
-export { ENERGY_AXIS_UNITS, isHostToView, isRenderMessage, isViewState, isViewToHost, MAX_DATA_URL, pinsBesides, type CopyImageLinkMessage, type EnergyAxisUnit, type ExportCsvMessage, type ExportPngMessage, type HostToView, type PinMessage, type PinnedRun, type ReadyMessage, type RenderMessage, type UnpinMessage, type ViewState, type ViewToHost } from './view/messages';
+export {
+  ENERGY_AXIS_UNITS,
+  isHostToView,
+  isRenderMessage,
+  isViewState,
+  isViewToHost,
+  MAX_DATA_URL,
+  pinsBesides,
+  type CopyImageLinkMessage,
+  type EnergyAxisUnit,
+  type ExportCsvMessage,
+  type ExportPngMessage,
+  type HostToView,
+  type PinMessage,
+  type PinnedRun,
+  type ReadyMessage,
+  type RenderMessage,
+  type UnpinMessage,
+  type ViewState,
+  type ViewToHost,
+} from './view/messages';
 export { curveCsv } from './view/csv';
 export { measurementRows, measurementShort, type Row } from './present/measurementSummary';
 export type { SeriesFit } from './physics/relaxation';

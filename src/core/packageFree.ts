@@ -11,6 +11,39 @@
  */
 export { STATUSES, type Status } from './types';
 export { DEFAULT_DISPLAY, measuredTemperatureText, type DisplayOptions } from './present/summary';
-export { ENERGY_AXIS_UNITS, isHostToView, isRenderMessage, isViewState, isViewToHost, MAX_DATA_URL, pinsBesides, type CopyImageLinkMessage, type EnergyAxisUnit, type ExportCsvMessage, type ExportPngMessage, type HostToView, type PinMessage, type PinnedRun, type ReadyMessage, type RenderMessage, type UnpinMessage, type ViewState, type ViewToHost } from './view/messages';
+export {
+  ENERGY_AXIS_UNITS,
+  isHostToView,
+  isRenderMessage,
+  isViewState,
+  isViewToHost,
+  MAX_DATA_URL,
+  pinsBesides,
+  type CopyImageLinkMessage,
+  type EnergyAxisUnit,
+  type ExportCsvMessage,
+  type ExportPngMessage,
+  type HostToView,
+  type PinMessage,
+  type PinnedRun,
+  type ReadyMessage,
+  type RenderMessage,
+  type UnpinMessage,
+  type ViewState,
+  type ViewToHost,
+} from './view/messages';
 export { isCurvePayload, isProblemPayload, isViewPayload } from './view/payloadCheck';
-export type { CurveColumns, CurvePayload, DisplayUnit, Fact, FiniteNColumns, MeasuredPoint, MeasurementPlot, PayloadSource, PlotPoint, ProblemPayload, ThermalMarker, ViewPayload } from './view/payload';
+export type {
+  CurveColumns,
+  CurvePayload,
+  DisplayUnit,
+  Fact,
+  FiniteNColumns,
+  MeasuredPoint,
+  MeasurementPlot,
+  PayloadSource,
+  PlotPoint,
+  ProblemPayload,
+  ThermalMarker,
+  ViewPayload,
+} from './view/payload';

@@ -24,10 +24,13 @@ export class Debouncer {
   /** Schedules (or re-schedules) the call for `key`. */
   schedule(key: string, fn: () => void): void {
     this.cancel(key);
-    this.timers.set(key, setTimeout(() => {
-      this.timers.delete(key);
-      fn();
-    }, this.delayMs));
+    this.timers.set(
+      key,
+      setTimeout(() => {
+        this.timers.delete(key);
+        fn();
+      }, this.delayMs),
+    );
   }
 
   /** Drops a pending call. */

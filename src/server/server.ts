@@ -81,7 +81,15 @@ export function startServer(connection: Connection): void {
         documentSymbolProvider: true,
         foldingRangeProvider: true,
         codeLensProvider: { resolveProvider: false },
-        ...(pull ? { diagnosticProvider: { identifier: 'boltzmark', interFileDependencies: false, workspaceDiagnostics: false } } : {}),
+        ...(pull
+          ? {
+              diagnosticProvider: {
+                identifier: 'boltzmark',
+                interFileDependencies: false,
+                workspaceDiagnostics: false,
+              },
+            }
+          : {}),
       },
       serverInfo: { name: 'boltzmark-lsp', version: '0.1.0' },
     };
@@ -113,9 +121,15 @@ export function startServer(connection: Connection): void {
     items: serve(p.textDocument.uri, token, [], noteDiagnostics),
   }));
   connection.onHover((p, token) => serve(p.textDocument.uri, token, null, (s) => hover(s, p.position, notes.current)));
-  connection.languages.inlayHint.on((p, token) => serve(p.textDocument.uri, token, [], (s) => inlayHints(s, p.range, notes.current)));
-  connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range, notes.current)));
-  connection.onCompletion((p, token) => serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, notes.current)));
+  connection.languages.inlayHint.on((p, token) =>
+    serve(p.textDocument.uri, token, [], (s) => inlayHints(s, p.range, notes.current)),
+  );
+  connection.onCodeAction((p, token) =>
+    serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range, notes.current)),
+  );
+  connection.onCompletion((p, token) =>
+    serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, notes.current)),
+  );
   connection.onDocumentSymbol((p, token) => serve(p.textDocument.uri, token, [], documentSymbols));
   connection.onFoldingRanges((p, token) => serve(p.textDocument.uri, token, [], foldingRanges));
   connection.onCodeLens((p, token) => serve(p.textDocument.uri, token, [], codeLenses));
@@ -127,7 +141,9 @@ export function startServer(connection: Connection): void {
   );
   connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
   connection.onRequest(MemoryRequest, memoryStats);
-  connection.onRequest(CurveDataRequest, (p, token) => serve(p.uri, token, null, (s) => curvePayload(s, p.line, notes.current)));
+  connection.onRequest(CurveDataRequest, (p, token) =>
+    serve(p.uri, token, null, (s) => curvePayload(s, p.line, notes.current)),
+  );
 
   documents.listen(connection);
   connection.listen();

@@ -4,7 +4,14 @@
  * lazily; every feature reads from it.
  */
 import type { Position, Range } from 'vscode-languageserver';
-import { DEFAULT_DISPLAY, LineIndex, type BlockReport, type DisplayOptions, type DocumentReport, type Span } from '../core';
+import {
+  DEFAULT_DISPLAY,
+  LineIndex,
+  type BlockReport,
+  type DisplayOptions,
+  type DocumentReport,
+  type Span,
+} from '../core';
 import type { Settings } from '../shared/settings';
 
 /** An analysed version of a note. */
@@ -43,5 +50,10 @@ export function blockAt(state: NoteState, offset: number): BlockReport | undefin
 
 /** Display options of the core from the editor settings. */
 export function displayOptions(s: Settings): DisplayOptions {
-  return { ...DEFAULT_DISPLAY, digits: s.significantDigits, temperature: s.temperature, percent: s.polarization === 'percent' };
+  return {
+    ...DEFAULT_DISPLAY,
+    digits: s.significantDigits,
+    temperature: s.temperature,
+    percent: s.polarization === 'percent',
+  };
 }

@@ -25,7 +25,9 @@ export interface AnalysisStats {
 }
 
 /** Statistics of the latest analysis of a note (used by tests and benchmarks); null for an unknown note. */
-export const AnalysisStatsRequest = new RequestType<{ readonly uri: string }, AnalysisStats | null, void>('boltzmark/analysisStats');
+export const AnalysisStatsRequest = new RequestType<{ readonly uri: string }, AnalysisStats | null, void>(
+  'boltzmark/analysisStats',
+);
 
 /** The server's memory, bytes; `collected` tells whether a full garbage collection ran first (only when started with `--expose-gc`). */
 export interface MemoryStats {

@@ -18,12 +18,58 @@ export interface SettingDef {
 
 /** Every setting, named `boltzmark.<area>.<feature>`. */
 export const SETTING_DEFS: readonly SettingDef[] = [
-  { key: 'boltzmark.display.significantDigits', type: 'number', default: 4, minimum: 2, maximum: 8, description: 'Significant digits of values shown without an uncertainty. Values with an uncertainty always follow the GUM rule: two significant digits of the uncertainty, the value rounded to match.' },
-  { key: 'boltzmark.display.temperature', type: 'string', default: 'auto', enum: ['auto', 'kelvin', 'beta-first'], enumDescriptions: ['Temperatures with an SI prefix (mK, µK, nK) chosen from their size.', 'Temperatures always in kelvin.', 'Lead with the inverse temperature β (K⁻¹), which stays finite through saturation.'], description: 'How spin and excitation temperatures are shown in hovers and inlay hints.' },
-  { key: 'boltzmark.display.polarization', type: 'string', default: 'percent', enum: ['percent', 'fraction'], enumDescriptions: ['Polarization as a percentage (below 0.1 % as a fraction with a power of ten).', 'Polarization as a fraction between −1 and 1.'], description: 'How polarizations are shown.' },
-  { key: 'boltzmark.inlayHints.enabled', type: 'boolean', default: true, description: 'Show short results (T, P, ε) at the end of each block’s first line and after each level.' },
-  { key: 'boltzmark.status.saturationSigma', type: 'number', default: 2, minimum: 0, maximum: 10, description: 'A block is called saturated when β is within this many standard uncertainties of zero.' },
-  { key: 'boltzmark.blocks.extraInfoStrings', type: 'array', default: [], description: 'Extra fence info strings (besides `levels`) whose blocks Boltzmark reads, e.g. `populations`.' },
+  {
+    key: 'boltzmark.display.significantDigits',
+    type: 'number',
+    default: 4,
+    minimum: 2,
+    maximum: 8,
+    description:
+      'Significant digits of values shown without an uncertainty. Values with an uncertainty always follow the GUM rule: two significant digits of the uncertainty, the value rounded to match.',
+  },
+  {
+    key: 'boltzmark.display.temperature',
+    type: 'string',
+    default: 'auto',
+    enum: ['auto', 'kelvin', 'beta-first'],
+    enumDescriptions: [
+      'Temperatures with an SI prefix (mK, µK, nK) chosen from their size.',
+      'Temperatures always in kelvin.',
+      'Lead with the inverse temperature β (K⁻¹), which stays finite through saturation.',
+    ],
+    description: 'How spin and excitation temperatures are shown in hovers and inlay hints.',
+  },
+  {
+    key: 'boltzmark.display.polarization',
+    type: 'string',
+    default: 'percent',
+    enum: ['percent', 'fraction'],
+    enumDescriptions: [
+      'Polarization as a percentage (below 0.1 % as a fraction with a power of ten).',
+      'Polarization as a fraction between −1 and 1.',
+    ],
+    description: 'How polarizations are shown.',
+  },
+  {
+    key: 'boltzmark.inlayHints.enabled',
+    type: 'boolean',
+    default: true,
+    description: 'Show short results (T, P, ε) at the end of each block’s first line and after each level.',
+  },
+  {
+    key: 'boltzmark.status.saturationSigma',
+    type: 'number',
+    default: 2,
+    minimum: 0,
+    maximum: 10,
+    description: 'A block is called saturated when β is within this many standard uncertainties of zero.',
+  },
+  {
+    key: 'boltzmark.blocks.extraInfoStrings',
+    type: 'array',
+    default: [],
+    description: 'Extra fence info strings (besides `levels`) whose blocks Boltzmark reads, e.g. `populations`.',
+  },
 ];
 
 /** The settings as the server uses them. */
@@ -49,9 +95,12 @@ export function fromSection(section: unknown): Settings {
   const def = (key: string): SettingDef => SETTING_DEFS.find((d) => d.key === key)!;
   const num = (key: string, v: unknown): number => {
     const d = def(key);
-    return typeof v === 'number' && Number.isFinite(v) ? Math.min(d.maximum ?? v, Math.max(d.minimum ?? v, v)) : (d.default as number);
+    return typeof v === 'number' && Number.isFinite(v)
+      ? Math.min(d.maximum ?? v, Math.max(d.minimum ?? v, v))
+      : (d.default as number);
   };
-  const pick = <T extends string>(key: string, v: unknown): T => (def(key).enum!.includes(v as string) ? (v as T) : (def(key).default as T));
+  const pick = <T extends string>(key: string, v: unknown): T =>
+    def(key).enum!.includes(v as string) ? (v as T) : (def(key).default as T);
   const extra = s.blocks?.extraInfoStrings;
   return {
     significantDigits: Math.round(num('boltzmark.display.significantDigits', s.display?.significantDigits)),
@@ -59,6 +108,8 @@ export function fromSection(section: unknown): Settings {
     polarization: pick('boltzmark.display.polarization', s.display?.polarization),
     inlayHints: typeof s.inlayHints?.enabled === 'boolean' ? s.inlayHints.enabled : true,
     saturationSigma: num('boltzmark.status.saturationSigma', s.status?.saturationSigma),
-    extraInfoStrings: Array.isArray(extra) ? extra.filter((x): x is string => typeof x === 'string' && x.trim() !== '').map((x) => x.trim()) : [],
+    extraInfoStrings: Array.isArray(extra)
+      ? extra.filter((x): x is string => typeof x === 'string' && x.trim() !== '').map((x) => x.trim())
+      : [],
   };
 }

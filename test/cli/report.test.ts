@@ -12,7 +12,19 @@ function run(args: string[], cwd = process.cwd()): { code: number; out: string; 
   return { code, out, err };
 }
 
-const CONTRACT_FIELDS = ['file', 'line', 'id', 'status', 'beta', 'temperature', 'polarization', 'thermalPolarization', 'enhancement', 'entropy', 'diagnostics'];
+const CONTRACT_FIELDS = [
+  'file',
+  'line',
+  'id',
+  'status',
+  'beta',
+  'temperature',
+  'polarization',
+  'thermalPolarization',
+  'enhancement',
+  'entropy',
+  'diagnostics',
+];
 
 describe('boltzmark report', () => {
   it('prints the JSON array of the contract for the demo notebook, field by field', () => {
@@ -44,7 +56,8 @@ describe('boltzmark report', () => {
     assert.equal(run1.status, 'normal');
     assert.equal(Math.round((run1.beta as { value: number }).value * 100) / 100, 178.17);
     const statuses = new Set(entries.map((e) => e.status));
-    for (const s of ['normal', 'saturated', 'inverted', 'non-thermal', 'invalid']) assert.ok(statuses.has(s), `demo covers ${s}`);
+    for (const s of ['normal', 'saturated', 'inverted', 'non-thermal', 'invalid'])
+      assert.ok(statuses.has(s), `demo covers ${s}`);
   });
 
   it('prints a table with the block locations and the problems of the broken block', () => {
@@ -70,11 +83,18 @@ describe('boltzmark report', () => {
     const r = run(['report', dir, '-f', 'json']);
     assert.equal(r.code, 1);
     const entries = JSON.parse(r.out) as { status: string }[];
-    assert.deepEqual(entries.map((e) => e.status), ['normal', 'invalid', 'normal']);
+    assert.deepEqual(
+      entries.map((e) => e.status),
+      ['normal', 'invalid', 'normal'],
+    );
   });
 
   it('exits 2 with one line on stderr for an unknown option, an unknown format or a missing path', () => {
-    for (const args of [['report', 'demo', '--bogus'], ['report', 'demo', '-f', 'xml'], ['report', 'no/such/place']]) {
+    for (const args of [
+      ['report', 'demo', '--bogus'],
+      ['report', 'demo', '-f', 'xml'],
+      ['report', 'no/such/place'],
+    ]) {
       const r = run(args);
       assert.equal(r.code, 2, args.join(' '));
       assert.equal(r.out, '');
@@ -124,7 +144,10 @@ describe('README', () => {
 describe('boltzmark report: Markdown output and status filter', () => {
   it('prints a Markdown table whose cells escape note text', () => {
     const dir = mkdtempSync(join(tmpdir(), 'bm-'));
-    writeFileSync(join(dir, 'x.md'), '```levels\nid: "a|b <img src=x onerror=alert(1)>"\ngap: 10 K\nratio: 0.50 ± 0.01\n```\n');
+    writeFileSync(
+      join(dir, 'x.md'),
+      '```levels\nid: "a|b <img src=x onerror=alert(1)>"\ngap: 10 K\nratio: 0.50 ± 0.01\n```\n',
+    );
     const { out, code } = run(['report', dir, '--format', 'markdown']);
     assert.equal(code, 0);
     const lines = out.trim().split('\n');
@@ -157,7 +180,10 @@ describe('boltzmark check', () => {
     assert.equal(r.code, 1);
     const lines = r.out.trim().split('\n');
     for (const l of lines) assert.match(l, /^[^:]+:\d+:\d+: (error|warning|info) [a-z-]+ .+$/);
-    assert.ok(lines.includes('demo/polarizer-log.md:86:13: error unit-case field: Units are case-sensitive: `MT` is not `mT`.'), lines.join('\n'));
+    assert.ok(
+      lines.includes('demo/polarizer-log.md:86:13: error unit-case field: Units are case-sensitive: `MT` is not `mT`.'),
+      lines.join('\n'),
+    );
     assert.match(r.err, /error\(s\)/);
   });
 

@@ -5,7 +5,12 @@ import { contentSecurityPolicy, escapeHtml, newNonce, viewHtml } from '../../src
 /** A URI as VS Code splits it, enough for the link rules. */
 function uri(s: string): { scheme: string; authority: string; path: string; toString(): string } {
   const u = new URL(s);
-  return { scheme: u.protocol.slice(0, -1), authority: u.host, path: decodeURIComponent(u.pathname), toString: () => s };
+  return {
+    scheme: u.protocol.slice(0, -1),
+    authority: u.host,
+    path: decodeURIComponent(u.pathname),
+    toString: () => s,
+  };
 }
 
 describe('curve view page shell', () => {
@@ -18,7 +23,12 @@ describe('curve view page shell', () => {
   });
 
   it('escapes every interpolated value and has no inline handlers or inline script', () => {
-    const html = viewHtml({ cspSource: 'https://x"><script>', scriptUri: 'https://x/view.js?a=1&b="2"', styleUri: 'https://x/view.css', nonce: 'n0nce' });
+    const html = viewHtml({
+      cspSource: 'https://x"><script>',
+      scriptUri: 'https://x/view.js?a=1&b="2"',
+      styleUri: 'https://x/view.css',
+      nonce: 'n0nce',
+    });
     assert.ok(!html.includes('"><script>'), 'attribute break-out escaped');
     assert.ok(html.includes('a=1&amp;b=&quot;2&quot;'));
     assert.doesNotMatch(html, /\son[a-z]+\s*=/i, 'no inline event handler');
@@ -41,10 +51,22 @@ describe('curve view page shell', () => {
 
 describe('curve view export names', () => {
   it('makes a Markdown image link relative to the note, escaping the alt text', () => {
-    assert.equal(imageLink(uri('file:///lab/notes/week 11.md'), uri('file:///lab/notes/cell-b-run-7-curve.png'), 'cell-B run 7'), '![cell-B run 7](cell-b-run-7-curve.png)');
-    assert.equal(imageLink(uri('file:///lab/notes/a.md'), uri('file:///lab/images/x.png'), 'a [b]'), '![a \\[b\\]](../images/x.png)');
-    assert.equal(imageLink(uri('file:///lab/a.md'), uri('file:///lab/my pics/x (1).png'), 'x'), '![x](<my pics/x (1).png>)');
-    assert.equal(imageLink(uri('file:///lab/a.md'), uri('vscode-remote://ssh/lab/x.png'), 'x'), '![x](vscode-remote://ssh/lab/x.png)');
+    assert.equal(
+      imageLink(uri('file:///lab/notes/week 11.md'), uri('file:///lab/notes/cell-b-run-7-curve.png'), 'cell-B run 7'),
+      '![cell-B run 7](cell-b-run-7-curve.png)',
+    );
+    assert.equal(
+      imageLink(uri('file:///lab/notes/a.md'), uri('file:///lab/images/x.png'), 'a [b]'),
+      '![a \\[b\\]](../images/x.png)',
+    );
+    assert.equal(
+      imageLink(uri('file:///lab/a.md'), uri('file:///lab/my pics/x (1).png'), 'x'),
+      '![x](<my pics/x (1).png>)',
+    );
+    assert.equal(
+      imageLink(uri('file:///lab/a.md'), uri('vscode-remote://ssh/lab/x.png'), 'x'),
+      '![x](vscode-remote://ssh/lab/x.png)',
+    );
   });
 
   it('turns any block id into a safe file-name stem', () => {

@@ -51,7 +51,11 @@ describe('analysis of whole blocks against published values', () => {
     // T* = hν/k = 0.068168725 K; n₁/n₀ = 3 exp(−T*/T_s) (Wilson & Hüttemeister, Tools of Radio
     // Astronomy — Problems and Solutions, Springer 2000). ../shared/domain.md §6: n₁/n₀ = 2.99 → T_s =
     // 20.416514 K; 2.925882788 → 2.725 K (the CMB temperature, chosen as a check point).
-    for (const [ratio, ts] of [[2.99, 20.416514], [2.925882788, 2.725], [2.997955635, 100]] as const) {
+    for (const [ratio, ts] of [
+      [2.99, 20.416514],
+      [2.925882788, 2.725],
+      [2.997955635, 100],
+    ] as const) {
       const r = block(`gap: 1420.405751768 MHz\ng: [1, 3]\nratio: ${ratio}`).report;
       close(r.results!.temperature!.value, ts, 2e-7, `T_s for n1/n0 = ${ratio}`);
     }
@@ -88,7 +92,9 @@ describe('analysis of whole blocks against published values', () => {
     const E = [97492.304, 102823.904, 105291.657, 106632.1681];
     const g = [18, 32, 50, 72];
     const c2 = 1.438776877503934; // K per cm⁻¹ (second radiation constant; exact since the 2019 SI)
-    const items = E.map((e, i) => `  - { energy: ${e} cm-1, g: ${g[i]}, population: ${g[i] * Math.exp(-(e - E[0]) * c2 / 10000)} }`);
+    const items = E.map(
+      (e, i) => `  - { energy: ${e} cm-1, g: ${g[i]}, population: ${g[i] * Math.exp((-(e - E[0]) * c2) / 10000)} }`,
+    );
     const r = block(`levels:\n${items.join('\n')}`).report;
     assert.equal(r.status, 'normal');
     close(r.results!.temperature!.value, 10000, 1e-9, 'T_exc');
@@ -98,7 +104,8 @@ describe('analysis of whole blocks against published values', () => {
   it('calls a three-level set that fits no single temperature non-thermal, and lists its inverted pair', () => {
     // Populations chosen so the middle level holds more per degeneracy than the top but less than
     // the ground (a χ² far above the 1 % critical value with the stated uncertainties).
-    const body = 'levels:\n  - { energy: 0 K, population: 0.50, uncertainty: 0.01 }\n  - { energy: 10 K, population: 0.10, uncertainty: 0.01 }\n  - { energy: 20 K, population: 0.40, uncertainty: 0.01 }';
+    const body =
+      'levels:\n  - { energy: 0 K, population: 0.50, uncertainty: 0.01 }\n  - { energy: 10 K, population: 0.10, uncertainty: 0.01 }\n  - { energy: 20 K, population: 0.40, uncertainty: 0.01 }';
     const r = block(body).report;
     assert.equal(r.status, 'non-thermal');
     assert.equal(r.results!.fit!.weighted, true);
@@ -132,7 +139,8 @@ describe('analysis of whole blocks against published values', () => {
     const pops = [1.5, 0.5, -0.5, -1.5].map((m) => Math.exp(m * y));
     const r = block(`system: 7Li\nfrequency: 100 MHz\npopulations: [${pops.join(', ')}]`).report;
     const x = 1.5 * y;
-    const b = (2 * 1.5 + 1) / (2 * 1.5) / Math.tanh(((2 * 1.5 + 1) * x) / (2 * 1.5)) - 1 / (2 * 1.5) / Math.tanh(x / (2 * 1.5));
+    const b =
+      (2 * 1.5 + 1) / (2 * 1.5) / Math.tanh(((2 * 1.5 + 1) * x) / (2 * 1.5)) - 1 / (2 * 1.5) / Math.tanh(x / (2 * 1.5));
     close(r.results!.polarization!.value, b, 1e-12, 'P');
     close(r.results!.beta!.value * r.input!.spin!.spacing, y, 1e-12, 'βΔE');
     assert.equal(r.status, 'normal');

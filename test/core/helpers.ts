@@ -11,17 +11,28 @@ export function block(body: string, analyzer = new Analyzer()): { report: BlockR
 }
 
 /** The problem with this code (asserting there is exactly one), with the note text it points at. */
-export function problem(body: string, code: string): { severity: string; message: string; at: string; fixes: { title: string; newText: string; at: string }[] } {
+export function problem(
+  body: string,
+  code: string,
+): { severity: string; message: string; at: string; fixes: { title: string; newText: string; at: string }[] } {
   const { report, text } = block(body);
   const found = report.problems.filter((p) => p.code === code);
-  assert.equal(found.length, 1, `expected one '${code}', got: ${report.problems.map((p) => `${p.code} (${p.message})`).join('; ') || 'none'}`);
+  assert.equal(
+    found.length,
+    1,
+    `expected one '${code}', got: ${report.problems.map((p) => `${p.code} (${p.message})`).join('; ') || 'none'}`,
+  );
   const p = found[0];
   assert.ok(p.span.start >= 0 && p.span.end <= text.length && p.span.end >= p.span.start, 'span inside the note');
   return {
     severity: p.severity,
     message: p.message,
     at: text.slice(p.span.start, p.span.end),
-    fixes: (p.fixes ?? []).map((f) => ({ title: f.title, newText: f.newText, at: text.slice(f.span.start, f.span.end) })),
+    fixes: (p.fixes ?? []).map((f) => ({
+      title: f.title,
+      newText: f.newText,
+      at: text.slice(f.span.start, f.span.end),
+    })),
   };
 }
 
@@ -43,5 +54,8 @@ export function close(actual: number | null | undefined, expected: number, rel: 
   assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${what}: got ${actual}`);
   const delta = Math.abs(actual - expected);
   const allowed = expected === 0 ? rel : rel * Math.abs(expected);
-  assert.ok(delta <= allowed, `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`);
+  assert.ok(
+    delta <= allowed,
+    `${what}: got ${actual}, expected ${expected}, Δ = ${delta.toExponential(3)} > ${allowed.toExponential(3)}`,
+  );
 }

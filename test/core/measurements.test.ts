@@ -28,8 +28,15 @@ const ARGON = [
   { nm: 750.5935, E: 108722.6194, g: 1, A: 4.5e7 },
 ];
 
-function linesBlock(lines: { nm: number; E: number; g: number; A: number }[], intensities: number[], extra = ''): string {
-  const items = lines.map((l, i) => `  - { wavelength: ${l.nm} nm, upper: ${l.E} cm-1, g: ${l.g}, A: ${l.A}, intensity: ${intensities[i]}${extra} }`);
+function linesBlock(
+  lines: { nm: number; E: number; g: number; A: number }[],
+  intensities: number[],
+  extra = '',
+): string {
+  const items = lines.map(
+    (l, i) =>
+      `  - { wavelength: ${l.nm} nm, upper: ${l.E} cm-1, g: ${l.g}, A: ${l.A}, intensity: ${intensities[i]}${extra} }`,
+  );
   return `lines:\n${items.join('\n')}`;
 }
 
@@ -37,7 +44,10 @@ describe('emission lines: the Boltzmann plot', () => {
   it('recovers 10 000 K and 5 000 K from the published relative Balmer intensities', () => {
     // Relative intensities (energy units, Hα = 1) derived in ../shared/domain.md §8c from the NIST ASD data above:
     // I ∝ g A/λ · exp(−E_k/kT).
-    for (const [T, rel] of [[10000, [1, 0.21276108, 0.078459387, 0.03791632]], [5000, [1, 0.098797427, 0.025544659, 0.010179329]]] as const) {
+    for (const [T, rel] of [
+      [10000, [1, 0.21276108, 0.078459387, 0.03791632]],
+      [5000, [1, 0.098797427, 0.025544659, 0.010179329]],
+    ] as const) {
       const r = block(linesBlock(BALMER, [...rel])).report;
       assert.equal(r.status, 'normal', r.problems.map((p) => p.message).join('; '));
       close(r.results!.temperature!.value, T, 2e-6, `T_exc at ${T} K`);
@@ -53,7 +63,9 @@ describe('emission lines: the Boltzmann plot', () => {
   it('gives the same temperature from photon counts without wavelengths, and propagates intensity uncertainties', () => {
     const T = 8000;
     const counts = BALMER.map((l) => ((l.g * l.A) / l.nm) * Math.exp((-l.E * C2) / T) * l.nm); // photons ∝ energy × λ
-    const items = BALMER.map((l, i) => `  - { upper: ${l.E} cm-1, g: ${l.g}, A: ${l.A}, intensity: ${counts[i]} ± ${counts[i] * 0.02} }`);
+    const items = BALMER.map(
+      (l, i) => `  - { upper: ${l.E} cm-1, g: ${l.g}, A: ${l.A}, intensity: ${counts[i]} ± ${counts[i] * 0.02} }`,
+    );
     const r = block(`detector: photon\nlines:\n${items.join('\n')}`).report;
     close(r.results!.temperature!.value, T, 1e-9, 'T from photon counts');
     assert.ok(r.results!.beta!.uncertainty! > 0);
@@ -64,17 +76,24 @@ describe('emission lines: the Boltzmann plot', () => {
     const T = 10000;
     const I = BALMER.map((l) => ((l.g * l.A) / l.nm) * Math.exp((-l.E * C2) / T));
     I[2] *= 1.5; // Hγ 50 % too bright, with 1 % uncertainties
-    const body = BALMER.map((l, i) => `  - { wavelength: ${l.nm} nm, upper: ${l.E} cm-1, g: ${l.g}, A: ${l.A}, intensity: ${I[i]} ± ${I[i] * 0.01} }`);
+    const body = BALMER.map(
+      (l, i) =>
+        `  - { wavelength: ${l.nm} nm, upper: ${l.E} cm-1, g: ${l.g}, A: ${l.A}, intensity: ${I[i]} ± ${I[i] * 0.01} }`,
+    );
     const { report, text } = block(`lines:\n${body.join('\n')}`);
     const flagged = report.problems.filter((p) => p.code === 'line-outlier');
     assert.ok(flagged.length >= 1);
-    assert.ok(flagged.some((p) => text.slice(p.span.start, p.span.end).includes('434.1691')), 'the Hγ item is flagged');
+    assert.ok(
+      flagged.some((p) => text.slice(p.span.start, p.span.end).includes('434.1691')),
+      'the Hγ item is flagged',
+    );
     assert.equal(report.status, 'non-thermal');
   });
 });
 
 describe('signal against a thermal reference', () => {
-  const ref = (hpFlip: string) => `system: 13C\nfield: 9.4 T\nlattice: 298.15 K\nsignal:\n  hyperpolarized: 50\n  thermal: 1\n  scans: { hyperpolarized: 1, thermal: 16 }\n  flip: { hyperpolarized: ${hpFlip}, thermal: 90 deg }`;
+  const ref = (hpFlip: string) =>
+    `system: 13C\nfield: 9.4 T\nlattice: 298.15 K\nsignal:\n  hyperpolarized: 50\n  thermal: 1\n  scans: { hyperpolarized: 1, thermal: 16 }\n  flip: { hyperpolarized: ${hpFlip}, thermal: 90 deg }`;
 
   it('reproduces the worked example: ratio 50, 16 reference scans, equal gains → ε = 800', () => {
     // ../shared/domain.md §9 (common practice, no source; derived with IUPAC 2001 γ(13C) and exact h, k):
@@ -95,13 +114,27 @@ describe('signal against a thermal reference', () => {
   it('propagates the noise of both spectra to P and then to β', () => {
     const r = block(`${ref('90 deg')}\n  noise: { hyperpolarized: 1, thermal: 0.02 }`).report;
     // Relative uncertainties in quadrature (first order): √((1/50)² + (0.02/1)²) = 0.028284.
-    close(r.results!.polarization!.uncertainty! / r.results!.polarization!.value, Math.hypot(1 / 50, 0.02), 1e-9, 'u(P)/P');
+    close(
+      r.results!.polarization!.uncertainty! / r.results!.polarization!.value,
+      Math.hypot(1 / 50, 0.02),
+      1e-9,
+      'u(P)/P',
+    );
     assert.ok(r.results!.beta!.uncertainty! > 0);
   });
 
   it('rejects a zero thermal signal on that value, and needs the reference temperature', () => {
-    assert.equal(problem('system: 13C\nfield: 9.4 T\nlattice: 298 K\nsignal: { hyperpolarized: 5, thermal: 0 }', 'signal-thermal-zero').at, '0');
-    assert.equal(problem('system: 13C\nfield: 9.4 T\nsignal: { hyperpolarized: 5, thermal: 1 }', 'signal-lattice-missing').at, 'signal');
+    assert.equal(
+      problem(
+        'system: 13C\nfield: 9.4 T\nlattice: 298 K\nsignal: { hyperpolarized: 5, thermal: 0 }',
+        'signal-thermal-zero',
+      ).at,
+      '0',
+    );
+    assert.equal(
+      problem('system: 13C\nfield: 9.4 T\nsignal: { hyperpolarized: 5, thermal: 1 }', 'signal-lattice-missing').at,
+      'signal',
+    );
   });
 });
 
@@ -141,7 +174,8 @@ describe('time series', () => {
     const s = times.map((t, i) => 1.5 * Math.exp(-t / T1) + 0.03 * Math.sin(2.3 * i + 0.5));
     const sigma = times.map((_, i) => 0.005 * (1 + i * i));
     const ours = fitDecay(times, s, null, sigma)!;
-    const chi2 = ([a, k]: number[]) => s.reduce((acc, v, i) => acc + ((v - a * Math.exp(-times[i] / k)) / sigma[i]) ** 2, 0);
+    const chi2 = ([a, k]: number[]) =>
+      s.reduce((acc, v, i) => acc + ((v - a * Math.exp(-times[i] / k)) / sigma[i]) ** 2, 0);
     const theirs = nelderMead(chi2, [1, 10], { maxIterations: 20000, minErrorDelta: 1e-16, minTolerance: 1e-12 });
     close(ours.timeConstant.value, theirs.x[1], 1e-5, 'T₁ (weighted LM vs Nelder–Mead on χ²)');
     close(ours.amplitude.value, theirs.x[0], 1e-5, 'S₀');
@@ -151,7 +185,9 @@ describe('time series', () => {
   it('fits a build-up S∞(1 − e^(−t/τ)) + S₀', () => {
     const t = [0, 30, 60, 120, 240, 480, 960, 1920];
     const s = t.map((v) => 0.9 * (1 - Math.exp(-v / 400)) + 0.02);
-    const r = block(`series:\n  model: buildup\n  time: [${t.map((v) => `${v} s`).join(', ')}]\n  signal: [${s.join(', ')}]`).report;
+    const r = block(
+      `series:\n  model: buildup\n  time: [${t.map((v) => `${v} s`).join(', ')}]\n  signal: [${s.join(', ')}]`,
+    ).report;
     close(r.results!.series!.timeConstant.value, 400, 1e-6, 'τ');
     close(r.results!.series!.amplitude.value, 0.9, 1e-6, 'S∞');
   });
@@ -170,7 +206,9 @@ describe('gain of an optical transition', () => {
     // σ = 2.8e-19 cm² (Nd:YAG 1064 nm effective cross-section, W. Koechner, Solid-State Laser Engineering,
     // 6th ed. — value from memory); ΔN = 1e17 cm⁻³ → g₀ = 0.028 cm⁻¹; L = 10 cm, R = 1 and 0.9, α = 0 →
     // g_th = 5.2680258e-3 cm⁻¹ (../shared/domain.md §10, derived; threshold relation from Saleh & Teich).
-    const r = block('gap: 1064 nm\npopulations: [0 cm-3, 1e17 cm-3]\ncross-section: 2.8e-19 cm2\nlength: 10 cm\nmirrors: [1, 0.9]').report;
+    const r = block(
+      'gap: 1064 nm\npopulations: [0 cm-3, 1e17 cm-3]\ncross-section: 2.8e-19 cm2\nlength: 10 cm\nmirrors: [1, 0.9]',
+    ).report;
     close(r.results!.gain!.coefficient, 0.028, 1e-12, 'g₀');
     close(r.results!.gain!.threshold!, 5.2680258e-3, 1e-7, 'g_th');
     close(r.results!.gain!.singlePass!, Math.exp(0.28), 1e-12, 'G');
@@ -178,34 +216,49 @@ describe('gain of an optical transition', () => {
   });
 
   it('weights the lower level by g_u/g_l and reports a transition below threshold', () => {
-    const r = block('gap: 1064 nm\ng: [12, 4]\npopulations: [2.0e16 cm-3, 8.0e16 cm-3]\ncross-section: 2.8e-19 cm2\nlength: 10 cm\nmirrors: [0.5, 0.5]\nloss: 0.01 cm-1').report;
+    const r = block(
+      'gap: 1064 nm\ng: [12, 4]\npopulations: [2.0e16 cm-3, 8.0e16 cm-3]\ncross-section: 2.8e-19 cm2\nlength: 10 cm\nmirrors: [0.5, 0.5]\nloss: 0.01 cm-1',
+    ).report;
     close(r.results!.gain!.coefficient, 2.8e-19 * (8e16 - (4 / 12) * 2e16), 1e-12, 'g₀');
     assert.equal(r.results!.gain!.aboveThreshold, false);
   });
 
   it('needs densities, not relative populations', () => {
-    assert.equal(problem('gap: 1064 nm\npopulations: [1, 2]\ncross-section: 2.8e-19 cm2', 'gain-needs-densities').at, 'populations');
+    assert.equal(
+      problem('gap: 1064 nm\npopulations: [1, 2]\ncross-section: 2.8e-19 cm2', 'gain-needs-densities').at,
+      'populations',
+    );
   });
 });
 
 describe('bad measurement input', () => {
-  const series = (time: string, signal: string, extra = '') => `series:\n  model: decay\n  time: ${time}\n  signal: ${signal}${extra}`;
+  const series = (time: string, signal: string, extra = '') =>
+    `series:\n  model: decay\n  time: ${time}\n  signal: ${signal}${extra}`;
 
   it('points at each offending item and never throws', () => {
     assert.equal(problem(series('[0 s, 1 s, 2 s]', '[1, 0.9]'), 'series-length-mismatch').at, '[1, 0.9]');
     assert.equal(problem(series('[0 s, 2 s, 1 s]', '[1, 0.9, 0.8]'), 'series-times-order').at, '1 s');
     assert.equal(problem(series('[0 s]', '[1]'), 'series-too-short').severity, 'error');
     assert.equal(problem(series('[0 s, 1 s, 2 s]', '[1, -0.9, 0.8]'), 'series-sign-change').at, '-0.9');
-    assert.equal(problem(series('[0 s, 1 s, 2 s]', '[1, 0.9, 0.8]', '\n  flip: 90 deg'), 'flip-too-large').at, '90 deg');
-    const mixed = 'lines:\n  - { wavelength: 656 nm, upper: 12.09 eV, g: 18, A: 4.4e7, intensity: 1, species: H I }\n  - { wavelength: 811 nm, upper: 13.08 eV, g: 7, A: 3.3e7, intensity: 1, species: Ar I }';
+    assert.equal(
+      problem(series('[0 s, 1 s, 2 s]', '[1, 0.9, 0.8]', '\n  flip: 90 deg'), 'flip-too-large').at,
+      '90 deg',
+    );
+    const mixed =
+      'lines:\n  - { wavelength: 656 nm, upper: 12.09 eV, g: 18, A: 4.4e7, intensity: 1, species: H I }\n  - { wavelength: 811 nm, upper: 13.08 eV, g: 7, A: 3.3e7, intensity: 1, species: Ar I }';
     assert.equal(problem(mixed, 'lines-mixed-species').at, 'Ar I');
-    const noA = 'lines:\n  - { wavelength: 656 nm, upper: 12.09 eV, g: 18, intensity: 1 }\n  - { wavelength: 486 nm, upper: 12.75 eV, g: 32, A: 8.4e6, intensity: 0.2 }';
+    const noA =
+      'lines:\n  - { wavelength: 656 nm, upper: 12.09 eV, g: 18, intensity: 1 }\n  - { wavelength: 486 nm, upper: 12.75 eV, g: 32, A: 8.4e6, intensity: 0.2 }';
     assert.match(problem(noA, 'line-a-missing').at, /^\{ wavelength: 656 nm/);
   });
 
   it('keeps the rest of the note analysed when a measurement block is broken', () => {
-    const text = '```levels\nseries:\n  model: decay\n  time: [0 s, 1 s]\n  signal: [1]\n```\n```levels\ngap: 1 K\nratio: 0.5\n```\n';
-    assert.deepEqual(new Analyzer().analyzeText(text).blocks.map((b) => b.status), ['invalid', 'normal']);
+    const text =
+      '```levels\nseries:\n  model: decay\n  time: [0 s, 1 s]\n  signal: [1]\n```\n```levels\ngap: 1 K\nratio: 0.5\n```\n';
+    assert.deepEqual(
+      new Analyzer().analyzeText(text).blocks.map((b) => b.status),
+      ['invalid', 'normal'],
+    );
   });
 
   it('warns when a series only just fixes its parameters', () => {
@@ -230,7 +283,9 @@ describe('the measurement plot of the curve view', () => {
   });
 
   it('gives a series its data, fit and residuals, which add back up to the data', () => {
-    const { report } = block('series:\n  model: buildup\n  time: [0 s, 10 s, 20 s, 40 s, 80 s, 160 s]\n  signal: [0.01, 0.2, 0.36, 0.58, 0.8, 0.93]');
+    const { report } = block(
+      'series:\n  model: buildup\n  time: [0 s, 10 s, 20 s, 40 s, 80 s, 160 s]\n  signal: [0.01, 0.2, 0.36, 0.58, 0.8, 0.93]',
+    );
     const p = curveData(report, { uri: 'file:///x.md', version: 1 });
     const plot = p.plot!;
     assert.equal(plot.kind, 'series');

@@ -31,19 +31,34 @@ describe('API-level suites inside the browser-hosted VS Code’s extension host'
     let browser: Browser | undefined;
     const log: string[] = [];
     try {
-      browser = await chromium.launch({ executablePath: host.CHROMIUM, args: [...host.CHROMIUM_ARGS], env: run.env as Record<string, string> });
+      browser = await chromium.launch({
+        executablePath: host.CHROMIUM,
+        args: [...host.CHROMIUM_ARGS],
+        env: run.env as Record<string, string>,
+      });
       const page = await browser.newPage();
       const exit = new Promise<number>((resolve) => {
-        void page.exposeFunction('codeAutomationLog', (_type: string, args: unknown[]) => log.push(format(...(Array.isArray(args) ? args : [args]))));
+        void page.exposeFunction('codeAutomationLog', (_type: string, args: unknown[]) =>
+          log.push(format(...(Array.isArray(args) ? args : [args]))),
+        );
         void page.exposeFunction('codeAutomationExit', (code: number) => resolve(code));
       });
       const remote = (path: string): string => `vscode-remote://127.0.0.1:${server.port}${path}`;
-      const payload = JSON.stringify([['extensionDevelopmentPath', remote(host.ROOT)], ['extensionTestsPath', remote(tests)]]);
+      const payload = JSON.stringify([
+        ['extensionDevelopmentPath', remote(host.ROOT)],
+        ['extensionTestsPath', remote(tests)],
+      ]);
       await page.goto(`${server.open}&payload=${encodeURIComponent(payload)}`);
       // A deadline (not a pause): if the host never reports, fail and still clean up.
       let timer: NodeJS.Timeout | undefined;
       const deadline = new Promise<never>((_, reject) => {
-        timer = setTimeout(() => reject(new Error(`no exit code from the extension host within 5 minutes; its log so far:\n${log.join('\n')}`)), 5 * 60 * 1000);
+        timer = setTimeout(
+          () =>
+            reject(
+              new Error(`no exit code from the extension host within 5 minutes; its log so far:\n${log.join('\n')}`),
+            ),
+          5 * 60 * 1000,
+        );
       });
       const code = await Promise.race([exit, deadline]).finally(() => clearTimeout(timer));
       const suiteLog = log.filter((l) => !/^(Ignoring fetching|Updating additional builtin)/.test(l)).join('\n');

@@ -35,7 +35,10 @@ function corePayload(text: string, id: string): CurvePayload {
 
 /** The file-name stem the view is meant to offer for an ASCII block id: lower case, other characters as dashes. */
 function stem(id: string): string {
-  return id.toLowerCase().replace(/[^a-z0-9_]+/g, '-').replace(/^-+|-+$/g, '');
+  return id
+    .toLowerCase()
+    .replace(/[^a-z0-9_]+/g, '-')
+    .replace(/^-+|-+$/g, '');
 }
 
 /** The curve view's page (the webview frame with its controls). */
@@ -83,9 +86,16 @@ export function curveExportSteps(session: () => Session, plan: CurveExportPlan):
     assert.ok(await view.locator('#pins').isVisible(), 'the pin list is shown');
     assert.equal(clean(await view.locator('#block-status').innerText()), shown.status);
     for (const canvas of ['#entropy-chart', '#beta-chart']) {
-      assert.match(String(await view.locator(canvas).getAttribute('aria-label')), new RegExp(`for ${shown.id}$`), `${canvas} is drawn for the block under the cursor`);
+      assert.match(
+        String(await view.locator(canvas).getAttribute('aria-label')),
+        new RegExp(`for ${shown.id}$`),
+        `${canvas} is drawn for the block under the cursor`,
+      );
       const ink = await canvasInk(view, canvas);
-      assert.ok(ink.painted > ink.total * 0.002 && ink.colours >= 2, `${canvas} shows a drawn curve: ${JSON.stringify(ink)}`);
+      assert.ok(
+        ink.painted > ink.total * 0.002 && ink.colours >= 2,
+        `${canvas} shows a drawn curve: ${JSON.stringify(ink)}`,
+      );
     }
     await shot(page, '14-curve-view-pinned');
   });
@@ -95,17 +105,26 @@ export function curveExportSteps(session: () => Session, plan: CurveExportPlan):
     const view = await curveView(page);
     const file = join(scratchFolder(session()), 'charts.png');
     // The PNG is the two canvases stacked under a title band, at the canvases' device pixels.
-    const sizes = await view.locator('canvas#entropy-chart, canvas#beta-chart').evaluateAll((cs: any[]) => cs.map((c) => ({ width: Number(c.width), height: Number(c.height) })));
+    const sizes = await view
+      .locator('canvas#entropy-chart, canvas#beta-chart')
+      .evaluateAll((cs: any[]) => cs.map((c) => ({ width: Number(c.width), height: Number(c.height) })));
     await view.locator('#export-png').click();
     await shot(page, '15-save-png-dialog');
     const offered = await saveDialog(page, file);
-    assert.equal(offered, join(dirname(note()), `${stem(shown.id)}-curve.png`), 'the dialog offers a name made from the block id, beside the note');
+    assert.equal(
+      offered,
+      join(dirname(note()), `${stem(shown.id)}-curve.png`),
+      'the dialog offers a name made from the block id, beside the note',
+    );
     const bytes = await waitForFile(file, isWholePng);
     const png = pngFacts(bytes);
     assert.ok(png.width > 0 && png.height > 0, `IHDR gives a size: ${png.width}×${png.height}`);
     assert.equal(png.width, Math.max(...sizes.map((c) => c.width)), 'as wide as the wider canvas');
     const stacked = sizes.reduce((h, c) => h + c.height, 0);
-    assert.ok(png.height > stacked && png.height < stacked + 200, `as tall as both canvases and a title band: ${png.height} for ${stacked}`);
+    assert.ok(
+      png.height > stacked && png.height < stacked + 200,
+      `as tall as both canvases and a title band: ${png.height} for ${stacked}`,
+    );
     assert.equal(png.bitDepth, 8);
     const channels = ({ 0: 1, 2: 3, 4: 2, 6: 4 } as Record<number, number>)[png.colourType];
     assert.ok(channels, `a colour type of 8-bit images: ${png.colourType}`);
@@ -126,20 +145,37 @@ export function curveExportSteps(session: () => Session, plan: CurveExportPlan):
     const rows = parseCsv(text);
     const head = rows[0]!;
     assert.deepEqual(head.slice(0, 4), ['run', 'series', 'm', 'energy_K'], `the header: ${head.join(',')}`);
-    assert.equal(head[4], `energy_${shown.unit.name}`, 'energies also in the block’s display unit (the page’s default)');
+    assert.equal(
+      head[4],
+      `energy_${shown.unit.name}`,
+      'energies also in the block’s display unit (the page’s default)',
+    );
     const records = csvRecords(rows);
-    assert.deepEqual([...new Set(records.map((r) => r.run))], [shown.id, pinned.id], 'the shown run first, then the pinned one, nothing else');
+    assert.deepEqual(
+      [...new Set(records.map((r) => r.run))],
+      [shown.id, pinned.id],
+      'the shown run first, then the pinned one, nothing else',
+    );
     for (const p of [shown, pinned]) {
       const measured = records.filter((r) => r.run === p.id && r.series === 'measured');
       assert.equal(measured.length, 1, `one measured row for ${p.id}`);
       const m = measured[0]!;
-      const close = (cell: string, want: number, what: string): void => assert.ok(Math.abs(Number(cell) - want) <= 1e-9 * Math.abs(want), `${p.id} ${what}: ${cell}, the core says ${want}`);
+      const close = (cell: string, want: number, what: string): void =>
+        assert.ok(
+          Math.abs(Number(cell) - want) <= 1e-9 * Math.abs(want),
+          `${p.id} ${what}: ${cell}, the core says ${want}`,
+        );
       close(m.energy_K!, p.measured!.energy, 'energy_K');
       close(m.entropy_per_Nk!, p.measured!.entropy, 'entropy');
-      assert.equal(records.filter((r) => r.run === p.id && r.series === 'large-N').length, p.curve.energy.length, `the whole large-N curve of ${p.id}`);
+      assert.equal(
+        records.filter((r) => r.run === p.id && r.series === 'large-N').length,
+        p.curve.energy.length,
+        `the whole large-N curve of ${p.id}`,
+      );
     }
     // The inverted run's measured β is negative, the normal one's positive.
-    const beta = (id: string): number => Number(records.find((r) => r.run === id && r.series === 'measured')!.beta_per_K);
+    const beta = (id: string): number =>
+      Number(records.find((r) => r.run === id && r.series === 'measured')!.beta_per_K);
     assert.equal(Math.sign(beta(pinned.id)), Math.sign(pinned.measured!.beta!));
     assert.equal(Math.sign(beta(shown.id)), Math.sign(shown.measured!.beta!));
     assert.equal(text, curveCsv([shown, pinned], shown.unit), 'the file is the core’s CSV of both runs, byte for byte');

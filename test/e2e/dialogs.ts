@@ -36,16 +36,27 @@ export async function saveDialog(page: Page, file: string): Promise<string> {
   }, INPUT);
   const offered = await input.inputValue();
   const ext = extname(file);
-  const listing = ['..', ...readdirSync(dirname(file), { withFileTypes: true }).filter((d) => d.isDirectory() || extname(d.name) === ext).map((d) => d.name)].sort();
-  if (listing.includes(file.slice(dirname(file).length + 1))) throw new Error(`${file} exists already; the dialog would ask to overwrite it`);
+  const listing = [
+    '..',
+    ...readdirSync(dirname(file), { withFileTypes: true })
+      .filter((d) => d.isDirectory() || extname(d.name) === ext)
+      .map((d) => d.name),
+  ].sort();
+  if (listing.includes(file.slice(dirname(file).length + 1)))
+    throw new Error(`${file} exists already; the dialog would ask to overwrite it`);
   await input.fill(file);
-  await page.waitForFunction(([widget, want, value]: readonly [string, readonly string[], string]) => {
-    const w = document.querySelector(widget);
-    const i = w?.querySelector('.quick-input-box input');
-    if (!i || i.value !== value || !w.querySelector('.quick-input-progress.done')) return false;
-    const rows = Array.from<DomNode>(w.querySelectorAll('.quick-input-list .monaco-list-row')).map((r) => String(r.getAttribute('aria-label'))).sort();
-    return JSON.stringify(rows) === JSON.stringify(want);
-  }, [WIDGET, listing, file] as const);
+  await page.waitForFunction(
+    ([widget, want, value]: readonly [string, readonly string[], string]) => {
+      const w = document.querySelector(widget);
+      const i = w?.querySelector('.quick-input-box input');
+      if (!i || i.value !== value || !w.querySelector('.quick-input-progress.done')) return false;
+      const rows = Array.from<DomNode>(w.querySelectorAll('.quick-input-list .monaco-list-row'))
+        .map((r) => String(r.getAttribute('aria-label')))
+        .sort();
+      return JSON.stringify(rows) === JSON.stringify(want);
+    },
+    [WIDGET, listing, file] as const,
+  );
   await page.keyboard.press('Enter');
   await page.locator(WIDGET).waitFor({ state: 'hidden' });
   return offered;

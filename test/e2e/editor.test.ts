@@ -58,7 +58,8 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
 
   afterEach(async function () {
     // What the page looked like when a step failed.
-    if (this.currentTest?.state === 'failed' && page) await shot(page, `failed-${this.currentTest.title.slice(0, 40).replace(/[^\w]+/g, '-')}`).catch(() => undefined);
+    if (this.currentTest?.state === 'failed' && page)
+      await shot(page, `failed-${this.currentTest.title.slice(0, 40).replace(/[^\w]+/g, '-')}`).catch(() => undefined);
   });
 
   after(async () => {
@@ -67,7 +68,8 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
 
   it('installs the packaged .vsix as a user would, without sources or tests', () => {
     const files = readdirSync(s.installed, { recursive: true }).map(String);
-    for (const f of ['package.json', 'dist/extension.js', 'dist/server.js', 'docs/format.md']) assert.ok(files.includes(f), `${f} is missing from the installed extension`);
+    for (const f of ['package.json', 'dist/extension.js', 'dist/server.js', 'docs/format.md'])
+      assert.ok(files.includes(f), `${f} is missing from the installed extension`);
     const stray = files.filter((f) => /^(src|test|node_modules|scripts)(\/|$)|\.ts$|\.map$/.test(f));
     assert.deepEqual(stray, [], 'the installed extension carries development files');
     assert.ok(!existsSync(join(s.installed, 'dist', 'cli.js')));
@@ -81,7 +83,10 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     await fence.waitFor({ timeout: 90000 });
     assert.ok(clean(await fence.innerText()).startsWith('```levels'), 'the results hint is on the opening fence line');
     const { hint, text } = await hintPlacement(fence, 'T = 5.61 mK', 'levels');
-    assert.ok(hint.x >= text.x + text.width - 1, `the hint (x=${hint.x}) starts after the fence text (ends at ${text.x + text.width})`);
+    assert.ok(
+      hint.x >= text.x + text.width - 1,
+      `the hint (x=${hint.x}) starts after the fence text (ends at ${text.x + text.width})`,
+    );
     assert.ok(Math.abs(hint.y - text.y) < text.height, `the hint (y=${hint.y}) is on the fence line (y=${text.y})`);
     // Hints are decorations: the note's text is still "```levels" alone on that line.
     assert.equal(clean(TEXT.split('\n')[FENCE_CELL_B - 1]), '```levels');
@@ -98,7 +103,8 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     const rows = await problemRows(page);
     const markers = rows.filter((r) => /\[Ln \d+, Col \d+\]/.test(r));
     assert.ok(markers.length >= 3, `problem rows: ${JSON.stringify(rows)}`);
-    for (const m of markers) assert.match(m, /boltzmark\(?[a-z]+(-[a-z]+)+\)?\s*\[Ln/, `every problem comes from Boltzmark with a code: ${m}`);
+    for (const m of markers)
+      assert.match(m, /boltzmark\(?[a-z]+(-[a-z]+)+\)?\s*\[Ln/, `every problem comes from Boltzmark with a code: ${m}`);
     await shot(page, '03-problems');
   });
 
@@ -110,7 +116,10 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     const warnings = await squiggledText(page, 'warning');
     assert.ok(errors.includes('C13'), `an error squiggle under "C13"; squiggled: ${JSON.stringify(errors)}`);
     assert.ok(errors.includes('MT'), `an error squiggle under "MT"; squiggled: ${JSON.stringify(errors)}`);
-    assert.ok(warnings.includes('polarisation'), `a warning squiggle under "polarisation"; squiggled: ${JSON.stringify(warnings)}`);
+    assert.ok(
+      warnings.includes('polarisation'),
+      `a warning squiggle under "polarisation"; squiggled: ${JSON.stringify(warnings)}`,
+    );
     await shot(page, '04-squiggles');
   });
 
@@ -142,7 +151,7 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     await fix.waitFor();
     await shot(page, '07-quick-fix');
     // The menu opens with its only fix focused; Enter applies it (a click is caught by the menu's pointer block).
-    assert.match(await fix.getAttribute('class') ?? '', /\bfocused\b/, 'the fix is the focused entry');
+    assert.match((await fix.getAttribute('class')) ?? '', /\bfocused\b/, 'the fix is the focused entry');
     await page.keyboard.press('Enter');
     await line(page, 'field: 7.05 mT', true).waitFor();
     assert.ok(await activeTabDirty(page), 'the fix edits the note (unsaved)');
@@ -159,14 +168,16 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     await page.keyboard.press('Enter');
     await page.keyboard.type('system: ');
     const isotopes = await suggestions(page);
-    for (const want of ['1H', '13C', '7Li']) assert.ok(isotopes.includes(want), `isotope ${want} offered; got ${JSON.stringify(isotopes)}`);
+    for (const want of ['1H', '13C', '7Li'])
+      assert.ok(isotopes.includes(want), `isotope ${want} offered; got ${JSON.stringify(isotopes)}`);
     await shot(page, '08-complete-isotopes');
     await page.keyboard.press('Escape');
     await page.locator('.editor-widget.suggest-widget').waitFor({ state: 'hidden' });
     await page.keyboard.press('Enter');
     await page.keyboard.type('field: 9.4 ');
     const units = await suggestions(page);
-    for (const want of ['T', 'mT', 'G']) assert.ok(units.includes(want), `unit ${want} offered; got ${JSON.stringify(units)}`);
+    for (const want of ['T', 'mT', 'G'])
+      assert.ok(units.includes(want), `unit ${want} offered; got ${JSON.stringify(units)}`);
     await shot(page, '09-complete-units');
     await page.keyboard.press('Escape');
     await runCommand(page, 'File: Revert File');
@@ -178,21 +189,30 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     await runCommand(page, 'Explorer: Focus on Outline View');
     const ids = [...TEXT.matchAll(/^id: (.+)$/gm)].map((m) => m[1]);
     const labels = await outlineLabels(page);
-    for (const id of ids) assert.ok(labels.some((l) => l.startsWith(id)), `the Outline lists "${id}"; its rows: ${JSON.stringify(labels)}`);
+    for (const id of ids)
+      assert.ok(
+        labels.some((l) => l.startsWith(id)),
+        `the Outline lists "${id}"; its rows: ${JSON.stringify(labels)}`,
+      );
     await shot(page, '10-outline');
   });
 
   it('opens the curve view from the code lens; its canvas is drawn and it follows the cursor', async () => {
     await goToLine(page, FENCE_CELL_B + 1);
     // The view's page marks its state and counts its draws on <body> (media/src/view.ts).
-    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show energy–entropy curve', (ms) => frameWith(page, 'body[data-drawn] #block-title', undefined, ms));
+    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show energy–entropy curve', (ms) =>
+      frameWith(page, 'body[data-drawn] #block-title', undefined, ms),
+    );
     await view.locator('#block-title', { hasText: 'cell-B run 1' }).waitFor();
     await view.locator('body[data-state="chart"]:not([data-drawn="0"])').waitFor();
     const facts = clean(await view.locator('#facts').innerText());
     assert.match(facts, /T = 5\.61 ± 0\.19 mK/);
     for (const canvas of ['#entropy-chart', '#beta-chart']) {
       const ink = await canvasInk(view, canvas);
-      assert.ok(ink.painted > ink.total * 0.002 && ink.colours >= 2, `${canvas} shows a drawn curve: ${JSON.stringify(ink)}`);
+      assert.ok(
+        ink.painted > ink.total * 0.002 && ink.colours >= 2,
+        `${canvas} shows a drawn curve: ${JSON.stringify(ink)}`,
+      );
     }
     await shot(page, '11-curve-view');
     // Moving the cursor into another block redraws the view for that block.
@@ -205,7 +225,12 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
   });
 
   // The view now shows the ⁷Li block: pin it, move on to cell-B, export, unpin (curveExports.steps.ts).
-  curveExportSteps(() => s, { note: NOTE, text: TEXT, pinned: 'Li inversion W-3', shown: { id: 'cell-B run 1', line: FENCE_CELL_B + 1 } });
+  curveExportSteps(() => s, {
+    note: NOTE,
+    text: TEXT,
+    pinned: 'Li inversion W-3',
+    shown: { id: 'cell-B run 1', line: FENCE_CELL_B + 1 },
+  });
 
   it('shows each block’s results table in the Markdown preview', async () => {
     await focusEditor(page);
@@ -234,7 +259,13 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
       const { original, now } = noteBytes(s, name);
       assert.ok(original.equals(now), `the demo note ${name} on disk was changed by the session`);
     }
-    assert.deepEqual(readdirSync(s.workspace).filter((f) => f.endsWith('.md')).sort(), notes.filter((f) => f.endsWith('.md')).sort(), 'no note was added or left behind');
+    assert.deepEqual(
+      readdirSync(s.workspace)
+        .filter((f) => f.endsWith('.md'))
+        .sort(),
+      notes.filter((f) => f.endsWith('.md')).sort(),
+      'no note was added or left behind',
+    );
     assert.deepEqual(s.external, [], 'requests beyond 127.0.0.1');
   });
 });

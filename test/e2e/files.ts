@@ -48,7 +48,11 @@ const IEND = Buffer.from([0, 0, 0, 0, 0x49, 0x45, 0x4e, 0x44, 0xae, 0x42, 0x60, 
 
 /** True when the bytes start with the PNG signature and end with the IEND chunk (a whole file). */
 export function isWholePng(bytes: Buffer): boolean {
-  return bytes.length > SIGNATURE.length + IEND.length && bytes.subarray(0, 8).equals(SIGNATURE) && bytes.subarray(-12).equals(IEND);
+  return (
+    bytes.length > SIGNATURE.length + IEND.length &&
+    bytes.subarray(0, 8).equals(SIGNATURE) &&
+    bytes.subarray(-12).equals(IEND)
+  );
 }
 
 /** What a PNG file says about itself, read from its chunks. */
@@ -92,7 +96,14 @@ export function pngFacts(bytes: Buffer): PngFacts {
   const pixels = inflateSync(Buffer.concat(idat));
   const distinct = new Set<number>();
   for (let i = 0; i < pixels.length && distinct.size < 256; i += 7) distinct.add(pixels[i]!);
-  return { width: ihdr.readUInt32BE(0), height: ihdr.readUInt32BE(4), bitDepth: ihdr[8]!, colourType: ihdr[9]!, pixelBytes: pixels.length, distinctBytes: distinct.size };
+  return {
+    width: ihdr.readUInt32BE(0),
+    height: ihdr.readUInt32BE(4),
+    bitDepth: ihdr[8]!,
+    colourType: ihdr[9]!,
+    pixelBytes: pixels.length,
+    distinctBytes: distinct.size,
+  };
 }
 
 /** Splits CSV text (RFC 4180: quoted cells, doubled quotes, CRLF or LF line ends) into rows of cells. */

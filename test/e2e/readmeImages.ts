@@ -9,7 +9,18 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { startSession } from './session';
-import { dismissHover, frameWith, goToLine, hoverText, clickLensAbove, lensShown, line, lineOf, runCommand, waitAnimations } from './workbench';
+import {
+  dismissHover,
+  frameWith,
+  goToLine,
+  hoverText,
+  clickLensAbove,
+  lensShown,
+  line,
+  lineOf,
+  runCommand,
+  waitAnimations,
+} from './workbench';
 
 const IMAGES = join(host.ROOT, 'docs', 'images');
 const THEMES = [
@@ -24,7 +35,11 @@ async function save(page: Page, name: string): Promise<void> {
 }
 
 async function images(kind: string, theme: string): Promise<void> {
-  const s = await startSession({ name: `images-${kind}`, viewport: { width: 1100, height: 620 }, settings: { 'workbench.colorTheme': theme } });
+  const s = await startSession({
+    name: `images-${kind}`,
+    viewport: { width: 1100, height: 620 },
+    settings: { 'workbench.colorTheme': theme },
+  });
   try {
     const { page } = s;
     await runCommand(page, 'View: Toggle Primary Side Bar Visibility');
@@ -54,7 +69,9 @@ async function images(kind: string, theme: string): Promise<void> {
     await dismissHover(page);
 
     // The curve view beside the note, from the block's code lens.
-    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show energy–entropy curve', (ms) => frameWith(page, 'body[data-state="chart"]:not([data-drawn="0"]) #block-title', 'cell-B run 1', ms));
+    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show energy–entropy curve', (ms) =>
+      frameWith(page, 'body[data-state="chart"]:not([data-drawn="0"]) #block-title', 'cell-B run 1', ms),
+    );
     await view.locator('#entropy-chart').waitFor();
     await save(page, `vscode-curve-view-${kind}`);
   } finally {

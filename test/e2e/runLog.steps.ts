@@ -21,7 +21,9 @@ const VIEW = NLS['boltzmark.runLog.name']!;
 const FILTER = NLS['boltzmark.runLog.filter.title']!;
 const EXPORT = NLS['boltzmark.runLog.exportCsv.title']!;
 const DEMO = join(host.ROOT, 'demo');
-const NOTES = readdirSync(DEMO).filter((f) => f.endsWith('.md')).sort();
+const NOTES = readdirSync(DEMO)
+  .filter((f) => f.endsWith('.md'))
+  .sort();
 const TEXTS = new Map(NOTES.map((f) => [f, readFileSync(join(DEMO, f), 'utf8')]));
 /** A note the steps add to the served folder and delete again (not in demo/). */
 const ADDED = 'e2e-added-note.md';
@@ -50,9 +52,16 @@ function expectedRows(log: RunLog, statuses: readonly Status[] | null = null): T
   const run = (e: RunEntry): TreeRow => ({
     level: 2,
     label: e.id ?? `block at line ${e.line + 1}`,
-    description: [e.status, e.temperature ? measuredTemperatureText(e.temperature) : '', e.date ?? ''].filter((x) => x !== '').join(' · '),
+    description: [e.status, e.temperature ? measuredTemperatureText(e.temperature) : '', e.date ?? '']
+      .filter((x) => x !== '')
+      .join(' · '),
   });
-  return log.groups('file', statuses).flatMap((g) => [{ level: 1, label: g.label, description: `${g.entries.length} run${g.entries.length === 1 ? '' : 's'}` }, ...g.entries.map(run)]);
+  return log
+    .groups('file', statuses)
+    .flatMap((g) => [
+      { level: 1, label: g.label, description: `${g.entries.length} run${g.entries.length === 1 ? '' : 's'}` },
+      ...g.entries.map(run),
+    ]);
 }
 
 /** Registers the steps; `session` gives the suite's session once its `before` ran. */
@@ -68,24 +77,37 @@ export function runLogSteps(session: () => Session): void {
     assert.deepEqual(rows, want);
     // The same blocks as the notes' text says, note by note, in order.
     const groups = rows.filter((r) => r.level === 1).map((r) => r.label);
-    assert.deepEqual(groups, NOTES.filter((f) => fencedIds(TEXTS.get(f)!).length > 0));
+    assert.deepEqual(
+      groups,
+      NOTES.filter((f) => fencedIds(TEXTS.get(f)!).length > 0),
+    );
     const byNote = new Map<string, string[]>();
     let group = '';
     for (const r of rows) {
       if (r.level === 1) byNote.set((group = r.label), []);
       else byNote.get(group)?.push(r.label);
     }
-    for (const f of NOTES) assert.deepEqual(byNote.get(f) ?? [], fencedIds(TEXTS.get(f)!), `the runs listed under ${f}`);
+    for (const f of NOTES)
+      assert.deepEqual(byNote.get(f) ?? [], fencedIds(TEXTS.get(f)!), `the runs listed under ${f}`);
     // Temperatures as the hovers show them: GUM rounding with an uncertainty, an SI prefix, a true minus sign.
-    assert.ok(rows.some((r) => / · T = [\d.]+ ± [\d.]+ mK/.test(r.description)), 'runs with a temperature show it with its uncertainty');
-    assert.ok(rows.some((r) => / · T = −[\d.]+/.test(r.description)), 'an inverted run shows a negative temperature');
+    assert.ok(
+      rows.some((r) => / · T = [\d.]+ ± [\d.]+ mK/.test(r.description)),
+      'runs with a temperature show it with its uncertainty',
+    );
+    assert.ok(
+      rows.some((r) => / · T = −[\d.]+/.test(r.description)),
+      'an inverted run shows a negative temperature',
+    );
     await shot(page, '20-run-log');
   });
 
   it('filters the run log to the inverted runs with the filter button', async () => {
     const { page } = session();
     const want = expectedRows(all(), ['inverted']);
-    assert.ok(want.some((r) => r.level === 2) && want.length < expectedRows(all()).length, 'the demo has inverted and other runs');
+    assert.ok(
+      want.some((r) => r.level === 2) && want.length < expectedRows(all()).length,
+      'the demo has inverted and other runs',
+    );
     await paneAction(section, FILTER);
     const offered = await pickMany(page, ['inverted']);
     assert.deepEqual(offered, [...STATUSES], 'the filter offers every status');
@@ -99,7 +121,9 @@ export function runLogSteps(session: () => Session): void {
   it('opens the note at the block when a run is clicked', async () => {
     const { page } = session();
     // A run in a note that is not open yet, the lowest in its note, so the editor must open and scroll.
-    const entries = all().entries(['inverted']).filter((e) => e.name !== 'polarizer-log.md');
+    const entries = all()
+      .entries(['inverted'])
+      .filter((e) => e.name !== 'polarizer-log.md');
     assert.ok(entries.length > 0, 'an inverted run outside the note the earlier steps opened');
     const target = entries.reduce((a, b) => (b.line > a.line ? b : a));
     const file = target.name;
@@ -107,7 +131,9 @@ export function runLogSteps(session: () => Session): void {
     await runCommand(page, 'View: Focus First Editor Group');
     await treeRow(section, target.id!, 2).click();
     await page.locator('.editor-group-container.active .tabs-container .tab.active', { hasText: file }).waitFor();
-    await editor(page).locator('.line-numbers.active-line-number', { hasText: new RegExp(`^${target.line + 1}$`) }).waitFor();
+    await editor(page)
+      .locator('.line-numbers.active-line-number', { hasText: new RegExp(`^${target.line + 1}$`) })
+      .waitFor();
     await line(page, `id: ${target.id}`).waitFor();
     const fence = TEXTS.get(file)!.split('\n')[target.line]!;
     assert.match(fence, /^```levels/, 'the cursor is on the block’s opening fence');
@@ -126,8 +152,22 @@ export function runLogSteps(session: () => Session): void {
     const offered = await saveDialog(page, file);
     assert.equal(offered, join(session().workspace, 'levels-runs.csv'));
     await notification(page, 'run log written to');
-    const records = csvRecords(parseCsv((await waitForFile(file, (b) => b.toString('utf8').endsWith('\r\n'))).toString('utf8')));
-    assert.deepEqual(Object.keys(records[0] ?? {}), ['note', 'line', 'id', 'date', 'status', 'temperature_K', 'temperature_uncertainty_K', 'beta_per_K', 'beta_uncertainty_per_K', 'polarization', 'polarization_uncertainty']);
+    const records = csvRecords(
+      parseCsv((await waitForFile(file, (b) => b.toString('utf8').endsWith('\r\n'))).toString('utf8')),
+    );
+    assert.deepEqual(Object.keys(records[0] ?? {}), [
+      'note',
+      'line',
+      'id',
+      'date',
+      'status',
+      'temperature_K',
+      'temperature_uncertainty_K',
+      'beta_per_K',
+      'beta_uncertainty_per_K',
+      'polarization',
+      'polarization_uncertainty',
+    ]);
     const entries = log.entries();
     assert.equal(records.length, entries.length, 'one row per run');
     for (const e of entries) {
@@ -135,7 +175,11 @@ export function runLogSteps(session: () => Session): void {
       assert.ok(r, `a row for ${e.name}:${e.line + 1}`);
       assert.equal(r.id, e.id ?? '');
       assert.equal(r.status, e.status, `the status of ${e.id}`);
-      if (e.temperature) assert.ok(Math.abs(Number(r.temperature_K) - e.temperature.value) <= 1e-12 * Math.abs(e.temperature.value), `T of ${e.id}: ${r.temperature_K}`);
+      if (e.temperature)
+        assert.ok(
+          Math.abs(Number(r.temperature_K) - e.temperature.value) <= 1e-12 * Math.abs(e.temperature.value),
+          `T of ${e.id}: ${r.temperature_K}`,
+        );
       else assert.equal(r.temperature_K, '');
     }
     await shot(page, '23-run-log-csv');
@@ -164,6 +208,6 @@ export function runLogSteps(session: () => Session): void {
     await treeRow(section, ADDED, 1).waitFor({ state: 'detached' });
     const rows = await waitTreeRows(page, section, expectedRows(all()));
     assert.deepEqual(rows, expectedRows(all()), 'the deleted note’s run is gone');
-    assert.ok(await treeRow(section, 'e2e added run', 2).count() === 0);
+    assert.ok((await treeRow(section, 'e2e added run', 2).count()) === 0);
   });
 }

@@ -38,8 +38,11 @@ let packaged: string | null = null;
 export function packagedVsix(): string {
   if (packaged) return packaged;
   const vsix = join(host.ROOT, 'out', 'e2e', 'boltzmark-e2e.vsix');
-  const r = spawnSync(process.execPath, [join(host.ROOT, 'scripts', 'package.mjs'), '--out', vsix], { encoding: 'utf8' });
-  if (r.status !== 0) throw new Error(`packaging the .vsix failed (exit ${r.status ?? r.signal}):\n${r.stdout}${r.stderr}`);
+  const r = spawnSync(process.execPath, [join(host.ROOT, 'scripts', 'package.mjs'), '--out', vsix], {
+    encoding: 'utf8',
+  });
+  if (r.status !== 0)
+    throw new Error(`packaging the .vsix failed (exit ${r.status ?? r.signal}):\n${r.stdout}${r.stderr}`);
   packaged = vsix;
   return vsix;
 }
@@ -62,13 +65,23 @@ function isWebviewResource(url: string): boolean {
  * installed into a fresh extensions folder, server up, workbench loaded.
  * `settings` are added to the user settings (a theme, for instance).
  */
-export async function startSession(options: { name: string; settings?: Record<string, unknown>; viewport?: { width: number; height: number } }): Promise<Session> {
+export async function startSession(options: {
+  name: string;
+  settings?: Record<string, unknown>;
+  viewport?: { width: number; height: number };
+}): Promise<Session> {
   host.ensureHost({ echo: false });
   const vsix = packagedVsix();
   const run = host.makeRun('bm-e2e-');
   const workspace = join(run.dir, 'demo');
   cpSync(join(host.ROOT, 'demo'), workspace, { recursive: true });
-  host.writeUserSettings(run, { 'editor.hover.delay': 200, 'editor.minimap.enabled': false, 'editor.stickyScroll.enabled': false, 'workbench.colorTheme': 'Default Dark Modern', ...options.settings });
+  host.writeUserSettings(run, {
+    'editor.hover.delay': 200,
+    'editor.minimap.enabled': false,
+    'editor.stickyScroll.enabled': false,
+    'workbench.colorTheme': 'Default Dark Modern',
+    ...options.settings,
+  });
   const installed = host.installVsix(run, vsix);
   mkdirSync(OUTPUT, { recursive: true });
   const serverLog = join(OUTPUT, `${options.name}-server.log`);
@@ -80,7 +93,11 @@ export async function startSession(options: { name: string; settings?: Record<st
     run.remove();
   };
   try {
-    browser = await chromium.launch({ executablePath: host.CHROMIUM, args: [...host.CHROMIUM_ARGS], env: run.env as Record<string, string> });
+    browser = await chromium.launch({
+      executablePath: host.CHROMIUM,
+      args: [...host.CHROMIUM_ARGS],
+      env: run.env as Record<string, string>,
+    });
     const context = await browser.newContext({ viewport: options.viewport ?? { width: 1280, height: 800 } });
     const page = await context.newPage();
     page.setDefaultTimeout(30000);
@@ -90,7 +107,8 @@ export async function startSession(options: { name: string; settings?: Record<st
       if (!isLocal(r.url()) && !isWebviewResource(r.url())) external.push(r.url());
     });
     context.on('response', (r) => {
-      if (isWebviewResource(r.url()) && !r.fromServiceWorker()) external.push(`${r.url()} (not from the webview's service worker)`);
+      if (isWebviewResource(r.url()) && !r.fromServiceWorker())
+        external.push(`${r.url()} (not from the webview's service worker)`);
     });
     page.on('pageerror', (e) => pageErrors.push(String(e).slice(0, 400)));
     await page.goto(server.open);

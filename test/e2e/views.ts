@@ -75,24 +75,32 @@ export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]>
     let before = -1;
     for (;;) {
       const handle = await page
-        .waitForFunction(([el, prev]: readonly [DomNode, number]) => {
-          const drawn = Array.from<DomNode>(el.children);
-          const focused = drawn.find((r) => r.classList.contains('focused'));
-          if (!focused) return false;
-          const index = Number(focused.getAttribute('data-index'));
-          if (prev === -1 ? index !== 0 : index === prev) return false;
-          const rows = drawn.map((r) => ({
-            index: Number(r.getAttribute('data-index')),
-            level: Number(r.getAttribute('aria-level')),
-            label: String(r.querySelector('.label-name')?.textContent ?? ''),
-            description: String(r.querySelector('.label-description')?.textContent ?? ''),
-          }));
-          return { focused: index, last: focused.getAttribute('data-last-element') === 'true', rows };
-        }, [list, before] as const, { timeout: 10000 })
+        .waitForFunction(
+          ([el, prev]: readonly [DomNode, number]) => {
+            const drawn = Array.from<DomNode>(el.children);
+            const focused = drawn.find((r) => r.classList.contains('focused'));
+            if (!focused) return false;
+            const index = Number(focused.getAttribute('data-index'));
+            if (prev === -1 ? index !== 0 : index === prev) return false;
+            const rows = drawn.map((r) => ({
+              index: Number(r.getAttribute('data-index')),
+              level: Number(r.getAttribute('aria-level')),
+              label: String(r.querySelector('.label-name')?.textContent ?? ''),
+              description: String(r.querySelector('.label-description')?.textContent ?? ''),
+            }));
+            return { focused: index, last: focused.getAttribute('data-last-element') === 'true', rows };
+          },
+          [list, before] as const,
+          { timeout: 10000 },
+        )
         .catch(() => null);
       // No answer: a refresh replaced the rows between a key press and its effect (the focus gone or left in place).
       if (!handle) break;
-      const state = (await handle.jsonValue()) as { focused: number; last: boolean; rows: (TreeRow & { index: number })[] };
+      const state = (await handle.jsonValue()) as {
+        focused: number;
+        last: boolean;
+        rows: (TreeRow & { index: number })[];
+      };
       for (const { index, ...row } of state.rows) seen.set(index, row);
       if (state.last) {
         await page.keyboard.press('Home');
@@ -113,7 +121,12 @@ export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]>
  * reads again. A change that lands during a read is caught by the final read
  * at the deadline: slower, never wrong.
  */
-export async function waitTreeRows(page: Page, section: Locator, want: readonly TreeRow[], timeout = 30000): Promise<TreeRow[]> {
+export async function waitTreeRows(
+  page: Page,
+  section: Locator,
+  want: readonly TreeRow[],
+  timeout = 30000,
+): Promise<TreeRow[]> {
   const deadline = Date.now() + timeout;
   const list = await section.locator('.pane-body .monaco-list-rows').elementHandle();
   for (;;) {
@@ -122,15 +135,26 @@ export async function waitTreeRows(page: Page, section: Locator, want: readonly 
     if (JSON.stringify(rows) === JSON.stringify(want) || left <= 0) return rows;
     // (The signature is written out twice: functions run in the page may not share a named helper, see workbench.ts.)
     const drawn = await section.locator('.pane-body .monaco-list-rows').evaluate((el: DomNode) =>
-      Array.from<DomNode>(el.children).map((r) => `${r.getAttribute('data-index')}|${r.textContent}`).join('\n'),
+      Array.from<DomNode>(el.children)
+        .map((r) => `${r.getAttribute('data-index')}|${r.textContent}`)
+        .join('\n'),
     );
     await page
-      .waitForFunction(([el, before]: readonly [DomNode, string]) => Array.from<DomNode>(el.children).map((r) => `${r.getAttribute('data-index')}|${r.textContent}`).join('\n') !== before, [list, drawn] as const, { timeout: left })
+      .waitForFunction(
+        ([el, before]: readonly [DomNode, string]) =>
+          Array.from<DomNode>(el.children)
+            .map((r) => `${r.getAttribute('data-index')}|${r.textContent}`)
+            .join('\n') !== before,
+        [list, drawn] as const,
+        { timeout: left },
+      )
       .catch(() => undefined);
   }
 }
 
 /** The drawn row of a tree whose label is exactly `label`, at depth `level`. */
 export function treeRow(section: Locator, label: string, level: number): Locator {
-  return section.locator(`${ROWS}[aria-level="${level}"]`).filter({ has: section.page().locator('.label-name', { hasText: exact(label) }) });
+  return section
+    .locator(`${ROWS}[aria-level="${level}"]`)
+    .filter({ has: section.page().locator('.label-name', { hasText: exact(label) }) });
 }

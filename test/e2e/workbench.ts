@@ -39,7 +39,9 @@ export function pattern(text: string, whole = false): RegExp {
 
 /** The view line whose text (inlay hints included) contains `text`, or is exactly `text` with `whole`. */
 export function line(page: Page, text: string, whole = false): Locator {
-  return editor(page).locator('.view-lines .view-line', { hasText: pattern(text, whole) }).first();
+  return editor(page)
+    .locator('.view-lines .view-line', { hasText: pattern(text, whole) })
+    .first();
 }
 
 /** Opens a file of the workspace from the Explorer (pinned, as a double-click does). */
@@ -65,7 +67,10 @@ export async function runCommand(page: Page, title: string): Promise<void> {
   await input.fill(`>${title}`);
   const exact = new RegExp(`^${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}$`);
   // The palette ranks fuzzy matches: take the row whose label is the exact title.
-  const row = page.locator('.quick-input-widget .monaco-list-row').filter({ has: page.locator('.label-name', { hasText: exact }) }).first();
+  const row = page
+    .locator('.quick-input-widget .monaco-list-row')
+    .filter({ has: page.locator('.label-name', { hasText: exact }) })
+    .first();
   await row.waitFor();
   await row.click();
   await page.locator('.quick-input-widget').waitFor({ state: 'hidden' });
@@ -80,7 +85,9 @@ export async function goToLine(page: Page, lineNumber: number, column = 1): Prom
   await input.fill(`:${lineNumber}:${column}`);
   await page.keyboard.press('Enter');
   await page.locator('.quick-input-widget').waitFor({ state: 'hidden' });
-  await editor(page).locator('.line-numbers.active-line-number', { hasText: new RegExp(`^${lineNumber}$`) }).waitFor();
+  await editor(page)
+    .locator('.line-numbers.active-line-number', { hasText: new RegExp(`^${lineNumber}$`) })
+    .waitFor();
 }
 
 /** The 1-based number of the first line of a note's text that contains `text`. */
@@ -104,30 +111,41 @@ export interface Box {
  * carry no document text). Null when the line is not rendered.
  */
 export async function wordBox(page: Page, lineStart: string, word: string): Promise<Box | null> {
-  return editor(page).evaluate((root: DomNode, [start, w]: readonly [string, string]) => {
-    // (No named helper functions in here: the test runner's transpiler would wrap them in a helper the page lacks.)
-    for (const el of Array.from<DomNode>(root.querySelectorAll('.view-lines .view-line'))) {
-      if (!String(el.textContent ?? '').replace(/\u00a0/g, ' ').startsWith(start)) continue;
-      // Text nodes of the line in order, with their running offsets.
-      const walker = document.createTreeWalker(el, NodeFilter.SHOW_TEXT);
-      const nodes: DomNode[] = [];
-      for (let n = walker.nextNode(); n; n = walker.nextNode()) nodes.push(n);
-      const full = nodes.map((n) => n.data as string).join('').replace(/\u00a0/g, ' ');
-      const at = full.indexOf(w);
-      if (at < 0) return null;
-      let offset = 0;
-      const range = document.createRange();
-      for (const n of nodes) {
-        const end = offset + n.data.length;
-        if (at >= offset && at < end) range.setStart(n, at - offset);
-        if (at + w.length > offset && at + w.length <= end) range.setEnd(n, at + w.length - offset);
-        offset = end;
+  return editor(page).evaluate(
+    (root: DomNode, [start, w]: readonly [string, string]) => {
+      // (No named helper functions in here: the test runner's transpiler would wrap them in a helper the page lacks.)
+      for (const el of Array.from<DomNode>(root.querySelectorAll('.view-lines .view-line'))) {
+        if (
+          !String(el.textContent ?? '')
+            .replace(/\u00a0/g, ' ')
+            .startsWith(start)
+        )
+          continue;
+        // Text nodes of the line in order, with their running offsets.
+        const walker = document.createTreeWalker(el, NodeFilter.SHOW_TEXT);
+        const nodes: DomNode[] = [];
+        for (let n = walker.nextNode(); n; n = walker.nextNode()) nodes.push(n);
+        const full = nodes
+          .map((n) => n.data as string)
+          .join('')
+          .replace(/\u00a0/g, ' ');
+        const at = full.indexOf(w);
+        if (at < 0) return null;
+        let offset = 0;
+        const range = document.createRange();
+        for (const n of nodes) {
+          const end = offset + n.data.length;
+          if (at >= offset && at < end) range.setStart(n, at - offset);
+          if (at + w.length > offset && at + w.length <= end) range.setEnd(n, at + w.length - offset);
+          offset = end;
+        }
+        const r = range.getBoundingClientRect();
+        return { x: r.x, y: r.y, width: r.width, height: r.height };
       }
-      const r = range.getBoundingClientRect();
-      return { x: r.x, y: r.y, width: r.width, height: r.height };
-    }
-    return null;
-  }, [lineStart, word] as const);
+      return null;
+    },
+    [lineStart, word] as const,
+  );
 }
 
 /**
@@ -158,12 +176,19 @@ export async function hoverText(page: Page, lineStart: string, word: string, exp
 export async function dismissHover(page: Page): Promise<void> {
   await page.mouse.move(640, 5);
   await page.keyboard.press('Escape');
-  await page.locator('.monaco-hover-content').first().waitFor({ state: 'hidden' }).catch(() => undefined);
+  await page
+    .locator('.monaco-hover-content')
+    .first()
+    .waitFor({ state: 'hidden' })
+    .catch(() => undefined);
 }
 
 /** The active editor tab is dirty (unsaved changes). */
 export async function activeTabDirty(page: Page): Promise<boolean> {
-  return page.locator('.tabs-container .tab.active').first().evaluate((e: DomNode) => Boolean(e.classList.contains('dirty')));
+  return page
+    .locator('.tabs-container .tab.active')
+    .first()
+    .evaluate((e: DomNode) => Boolean(e.classList.contains('dirty')));
 }
 
 /** Waits until the active editor tab has no unsaved changes. */
@@ -173,20 +198,40 @@ export async function waitClean(page: Page): Promise<void> {
 
 /** Waits until, for each group of `texts`, one Problems panel row contains all of the group. */
 export async function waitProblems(page: Page, groups: readonly (readonly string[])[], timeout = 60000): Promise<void> {
-  await page.waitForFunction((want: readonly (readonly string[])[]) => {
-    const rows = Array.from<DomNode>(document.querySelectorAll('.markers-panel .monaco-list-row')).map((r) => String(r.textContent ?? '').replace(/\u00a0/g, ' '));
-    return want.every((group) => rows.some((r) => group.every((w) => r.includes(w))));
-  }, groups, { timeout });
+  await page.waitForFunction(
+    (want: readonly (readonly string[])[]) => {
+      const rows = Array.from<DomNode>(document.querySelectorAll('.markers-panel .monaco-list-row')).map((r) =>
+        String(r.textContent ?? '').replace(/\u00a0/g, ' '),
+      );
+      return want.every((group) => rows.some((r) => group.every((w) => r.includes(w))));
+    },
+    groups,
+    { timeout },
+  );
 }
 
 /** Waits until no Problems panel row contains `text`. */
 export async function waitNoProblem(page: Page, text: string, timeout = 60000): Promise<void> {
-  await page.waitForFunction((t: string) => Array.from<DomNode>(document.querySelectorAll('.markers-panel .monaco-list-row')).every((r) => !String(r.textContent ?? '').replace(/\u00a0/g, ' ').includes(t)), text, { timeout });
+  await page.waitForFunction(
+    (t: string) =>
+      Array.from<DomNode>(document.querySelectorAll('.markers-panel .monaco-list-row')).every(
+        (r) =>
+          !String(r.textContent ?? '')
+            .replace(/\u00a0/g, ' ')
+            .includes(t),
+      ),
+    text,
+    { timeout },
+  );
 }
 
 /** Waits until `count` squiggles of a kind are drawn in the main editor. */
 export async function waitSquiggles(page: Page, kind: 'error' | 'warning' | 'info', count: number): Promise<void> {
-  await page.waitForFunction(([k, n]: readonly [string, number]) => document.querySelectorAll(`.editor-instance .view-overlays .squiggly-${k}`).length >= n, [kind, count] as const);
+  await page.waitForFunction(
+    ([k, n]: readonly [string, number]) =>
+      document.querySelectorAll(`.editor-instance .view-overlays .squiggly-${k}`).length >= n,
+    [kind, count] as const,
+  );
 }
 
 /**
@@ -201,7 +246,10 @@ export async function outlineLabels(page: Page): Promise<string[]> {
   await page.locator('.outline-pane .monaco-list-row.focused[data-index="0"]').waitFor();
   const seen = new Set<string>();
   for (;;) {
-    for (const label of await rows.evaluateAll((rs: DomNode[]) => rs.map((r) => String(r.getAttribute('aria-label') ?? '')))) seen.add(label);
+    for (const label of await rows.evaluateAll((rs: DomNode[]) =>
+      rs.map((r) => String(r.getAttribute('aria-label') ?? '')),
+    ))
+      seen.add(label);
     const focused = page.locator('.outline-pane .monaco-list-row.focused');
     if ((await focused.getAttribute('data-last-element')) === 'true') break;
     const index = await focused.getAttribute('data-index');
@@ -213,7 +261,9 @@ export async function outlineLabels(page: Page): Promise<string[]> {
 
 /** The rows of the Problems panel, as text. */
 export async function problemRows(page: Page): Promise<string[]> {
-  return page.locator('.markers-panel .monaco-list-row').evaluateAll((rows: DomNode[]) => rows.map((r) => String(r.textContent ?? '').replace(/\u00a0/g, ' ')));
+  return page
+    .locator('.markers-panel .monaco-list-row')
+    .evaluateAll((rows: DomNode[]) => rows.map((r) => String(r.textContent ?? '').replace(/\u00a0/g, ' ')));
 }
 
 /**
@@ -272,7 +322,16 @@ export async function frameWith(page: Page, selector: string, text?: string, tim
     if (left <= 0) throw new Error(`no frame shows ${selector}${text ? ` with "${text}"` : ''} within ${timeout} ms`);
     const frames = page.frames().filter((f) => f !== page.mainFrame());
     const found = await Promise.race([
-      ...frames.map((f) => f.locator(selector, text ? { hasText: pattern(text) } : {}).first().waitFor({ timeout: left }).then(() => f, () => never)),
+      ...frames.map((f) =>
+        f
+          .locator(selector, text ? { hasText: pattern(text) } : {})
+          .first()
+          .waitFor({ timeout: left })
+          .then(
+            () => f,
+            () => never,
+          ),
+      ),
       page.waitForEvent('frameattached', { timeout: left }).then(() => null),
     ]);
     if (found) return found;
@@ -285,20 +344,34 @@ export async function frameWith(page: Page, selector: string, text?: string, tim
  * whenever they are refreshed, so the lens and the line are found together
  * in one look at the page.
  */
-export async function lensShown(page: Page, lineStart: string, title: string): Promise<{ id: string; x: number; y: number }> {
-  const handle = await page.waitForFunction(([start, t]: readonly [string, string]) => {
-    // (No named helper functions in here: see wordBox.)
-    const root = document.querySelector('.editor-instance .monaco-editor');
-    const target = root && Array.from<DomNode>(root.querySelectorAll('.view-lines .view-line')).find((l) => String(l.textContent ?? '').replace(/\u00a0/g, ' ').startsWith(start));
-    if (!target) return null;
-    const line = target.getBoundingClientRect();
-    for (const a of Array.from<DomNode>(root.querySelectorAll('.codelens-decoration a'))) {
-      const box = a.getBoundingClientRect();
-      const shown = getComputedStyle(a).visibility === 'visible' && box.width > 0;
-      if (shown && String(a.textContent).trim() === t && box.y < line.y && line.y - box.y < 3 * line.height) return { id: String(a.id), x: box.x + box.width / 2, y: box.y + box.height / 2 };
-    }
-    return null;
-  }, [lineStart, title] as const);
+export async function lensShown(
+  page: Page,
+  lineStart: string,
+  title: string,
+): Promise<{ id: string; x: number; y: number }> {
+  const handle = await page.waitForFunction(
+    ([start, t]: readonly [string, string]) => {
+      // (No named helper functions in here: see wordBox.)
+      const root = document.querySelector('.editor-instance .monaco-editor');
+      const target =
+        root &&
+        Array.from<DomNode>(root.querySelectorAll('.view-lines .view-line')).find((l) =>
+          String(l.textContent ?? '')
+            .replace(/\u00a0/g, ' ')
+            .startsWith(start),
+        );
+      if (!target) return null;
+      const line = target.getBoundingClientRect();
+      for (const a of Array.from<DomNode>(root.querySelectorAll('.codelens-decoration a'))) {
+        const box = a.getBoundingClientRect();
+        const shown = getComputedStyle(a).visibility === 'visible' && box.width > 0;
+        if (shown && String(a.textContent).trim() === t && box.y < line.y && line.y - box.y < 3 * line.height)
+          return { id: String(a.id), x: box.x + box.width / 2, y: box.y + box.height / 2 };
+      }
+      return null;
+    },
+    [lineStart, title] as const,
+  );
   const at = (await handle.jsonValue()) as { id: string; x: number; y: number };
   await handle.dispose();
   return at;
@@ -309,10 +382,18 @@ export async function lensShown(page: Page, lineStart: string, title: string): P
  * A lens refreshed between the press and the release of the button is a new
  * element and gets no click; then the lens is found again and clicked again.
  */
-export async function clickLensAbove<T>(page: Page, lineStart: string, title: string, opened: (timeout: number) => Promise<T>): Promise<T> {
+export async function clickLensAbove<T>(
+  page: Page,
+  lineStart: string,
+  title: string,
+  opened: (timeout: number) => Promise<T>,
+): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     const lens = await lensShown(page, lineStart, title);
-    await editor(page).locator(`.codelens-decoration a[id="${lens.id}"]`).click({ timeout: 5000 }).catch(() => undefined);
+    await editor(page)
+      .locator(`.codelens-decoration a[id="${lens.id}"]`)
+      .click({ timeout: 5000 })
+      .catch(() => undefined);
     try {
       return await opened(attempt < 3 ? 15000 : 60000);
     } catch (err) {
@@ -333,7 +414,9 @@ export interface Ink {
 /** Reads the pixels of a chart canvas's plot area in a frame. */
 export async function canvasInk(frame: Frame, selector: string): Promise<Ink> {
   return frame.locator(selector).evaluate((c: DomNode) => {
-    const [l, t, r, b] = String(c.dataset.area ?? '').split(',').map(Number);
+    const [l, t, r, b] = String(c.dataset.area ?? '')
+      .split(',')
+      .map(Number);
     const ratio = c.width / c.clientWidth;
     const x = Math.floor(l * ratio);
     const y = Math.floor(t * ratio);
@@ -358,7 +441,9 @@ export async function canvasInk(frame: Frame, selector: string): Promise<Ink> {
  */
 export async function waitAnimations(page: Page): Promise<void> {
   await page.waitForFunction(() =>
-    document.getAnimations().every((a: DomNode) => a.playState !== 'running' || a.effect?.getTiming().iterations === Infinity),
+    document
+      .getAnimations()
+      .every((a: DomNode) => a.playState !== 'running' || a.effect?.getTiming().iterations === Infinity),
   );
 }
 
@@ -368,13 +453,23 @@ export async function waitAnimations(page: Page): Promise<void> {
  * a re-render between two measurements cannot mix two layouts.
  */
 export async function hintPlacement(viewLine: Locator, hint: string, text: string): Promise<{ hint: Box; text: Box }> {
-  return viewLine.evaluate((el: DomNode, [h, t]: readonly [string, string]) => {
-    const leaves = Array.from<DomNode>(el.querySelectorAll('span')).filter((s) => s.querySelector('span') === null);
-    const hintEl = leaves.find((s) => String(s.textContent).replace(/\u00a0/g, ' ').startsWith(h));
-    const textEl = leaves.find((s) => String(s.textContent).includes(t));
-    if (!hintEl || !textEl) throw new Error(`line without ${hintEl ? t : h}: ${String(el.textContent)}`);
-    const a = hintEl.getBoundingClientRect();
-    const b = textEl.getBoundingClientRect();
-    return { hint: { x: a.x, y: a.y, width: a.width, height: a.height }, text: { x: b.x, y: b.y, width: b.width, height: b.height } };
-  }, [hint, text] as const);
+  return viewLine.evaluate(
+    (el: DomNode, [h, t]: readonly [string, string]) => {
+      const leaves = Array.from<DomNode>(el.querySelectorAll('span')).filter((s) => s.querySelector('span') === null);
+      const hintEl = leaves.find((s) =>
+        String(s.textContent)
+          .replace(/\u00a0/g, ' ')
+          .startsWith(h),
+      );
+      const textEl = leaves.find((s) => String(s.textContent).includes(t));
+      if (!hintEl || !textEl) throw new Error(`line without ${hintEl ? t : h}: ${String(el.textContent)}`);
+      const a = hintEl.getBoundingClientRect();
+      const b = textEl.getBoundingClientRect();
+      return {
+        hint: { x: a.x, y: a.y, width: a.width, height: a.height },
+        text: { x: b.x, y: b.y, width: b.width, height: b.height },
+      };
+    },
+    [hint, text] as const,
+  );
 }

@@ -17,7 +17,10 @@ export const OUT = join(ROOT, 'out', 'integration');
 export async function bundleIntegration(): Promise<string> {
   const suites = readdirSync(join(__dirname, 'suite')).filter((n) => n.endsWith('.itest.ts'));
   await esbuild.build({
-    entryPoints: [{ in: join(__dirname, 'index.ts'), out: 'index' }, ...suites.map((n) => ({ in: join(__dirname, 'suite', n), out: `suite/${n.replace(/\.ts$/, '')}` }))],
+    entryPoints: [
+      { in: join(__dirname, 'index.ts'), out: 'index' },
+      ...suites.map((n) => ({ in: join(__dirname, 'suite', n), out: `suite/${n.replace(/\.ts$/, '')}` })),
+    ],
     outdir: OUT,
     bundle: true,
     platform: 'node',

@@ -13,7 +13,10 @@ import Mocha from 'mocha';
 export function run(): Promise<void> {
   const mocha = new Mocha({ ui: 'bdd', color: false, timeout: 60000, reporter: 'spec' });
   const suites = join(__dirname, 'suite');
-  for (const f of readdirSync(suites).filter((n) => n.endsWith('.itest.js')).sort()) mocha.addFile(join(suites, f));
+  for (const f of readdirSync(suites)
+    .filter((n) => n.endsWith('.itest.js'))
+    .sort())
+    mocha.addFile(join(suites, f));
   return new Promise((resolve, reject) => {
     mocha.run((failures) => {
       // The same closing line as the main test run, for whoever reads the log.

@@ -26,7 +26,15 @@ async function main(): Promise<void> {
       extensionDevelopmentPath: ROOT,
       extensionTestsPath,
       extensionTestsEnv: { BOLTZMARK_DEMO_ORIGINAL: join(ROOT, 'demo') },
-      launchArgs: [workspace, '--disable-extensions', '--skip-welcome', '--skip-release-notes', '--disable-workspace-trust', '--user-data-dir', join(scratch, 'user-data')],
+      launchArgs: [
+        workspace,
+        '--disable-extensions',
+        '--skip-welcome',
+        '--skip-release-notes',
+        '--disable-workspace-trust',
+        '--user-data-dir',
+        join(scratch, 'user-data'),
+      ],
     });
   } finally {
     rmSync(scratch, { recursive: true, force: true });

@@ -29,14 +29,20 @@ function burst(text: string): { finalText: string; changes: { range: Range; text
   for (let i = 0; i < EDITS; i++) {
     const line = ID_LINES[(i * 37) % 100]!;
     const character = lines[line]!.length - 1;
-    const change = { range: { start: { line, character }, end: { line, character: character + 1 } }, text: String(Math.floor(i / 100) % 10) };
+    const change = {
+      range: { start: { line, character }, end: { line, character: character + 1 } },
+      text: String(Math.floor(i / 100) % 10),
+    };
     changes.push(change);
     lines[line] = lines[line]!.slice(0, character) + change.text;
   }
   // The last change turns the field of the first block (a spin block) into a wrong-case unit.
   const fieldLine = ID_LINES[0]! + 2;
   assert.match(lines[fieldLine]!, /^field: /);
-  changes.push({ range: { start: { line: fieldLine, character: 0 }, end: { line: fieldLine, character: lines[fieldLine]!.length } }, text: FINAL_FIELD });
+  changes.push({
+    range: { start: { line: fieldLine, character: 0 }, end: { line: fieldLine, character: lines[fieldLine]!.length } },
+    text: FINAL_FIELD,
+  });
   lines[fieldLine] = FINAL_FIELD;
   return { finalText: lines.join('\n'), changes };
 }
@@ -46,12 +52,18 @@ function expectedDiagnostics(text: string): string[] {
   const lines = new LineIndex(text);
   const report = new Analyzer({ limits: SERVER_LIMITS }).analyzeText(text);
   const out = report.problems.map((p) => `${p.code}@${lines.positionAt(p.span.start).line}`);
-  for (const b of report.blocks) for (const p of b.problems) out.push(`${p.code}@${lines.positionAt(p.span.start).line}:${lines.positionAt(p.span.start).character}`);
+  for (const b of report.blocks)
+    for (const p of b.problems)
+      out.push(`${p.code}@${lines.positionAt(p.span.start).line}:${lines.positionAt(p.span.start).character}`);
   return out;
 }
 
 function summary(diags: readonly Diag[]): string[] {
-  return diags.map((d) => (d.code === 'note-bounded' ? `${d.code}@${d.range.start.line}` : `${d.code}@${d.range.start.line}:${d.range.start.character}`));
+  return diags.map((d) =>
+    d.code === 'note-bounded'
+      ? `${d.code}@${d.range.start.line}`
+      : `${d.code}@${d.range.start.line}:${d.range.start.character}`,
+  );
 }
 
 async function sendBurst(s: LspSession, changes: { range: Range; text: string }[], hovers: boolean): Promise<number> {
@@ -59,8 +71,17 @@ async function sendBurst(s: LspSession, changes: { range: Range; text: string }[
   const pending: Promise<unknown>[] = [];
   for (const [i, change] of changes.entries()) {
     version++;
-    void s.conn.sendNotification('textDocument/didChange', { textDocument: { uri: URI, version }, contentChanges: [change] });
-    if (hovers && i % 10 === 9) pending.push(s.conn.sendRequest('textDocument/hover', { textDocument: { uri: URI }, position: { line: change.range.start.line, character: 1 } }));
+    void s.conn.sendNotification('textDocument/didChange', {
+      textDocument: { uri: URI, version },
+      contentChanges: [change],
+    });
+    if (hovers && i % 10 === 9)
+      pending.push(
+        s.conn.sendRequest('textDocument/hover', {
+          textDocument: { uri: URI },
+          position: { line: change.range.start.line, character: 1 },
+        }),
+      );
   }
   await Promise.all(pending);
   return version;
@@ -73,19 +94,26 @@ describe('language server under a burst of edits', function () {
 
   it('has a final text that differs from the note and carries the wrong-case unit', () => {
     assert.notEqual(finalText, NOTE);
-    assert.ok(expected.some((e) => e.startsWith('unit-case@')), expected.join(', '));
+    assert.ok(
+      expected.some((e) => e.startsWith('unit-case@')),
+      expected.join(', '),
+    );
   });
 
   it('ends with pulled diagnostics for the final text only, and its memory back near its baseline', async () => {
     const s = await startLsp({ pull: true, execArgv: ['--expose-gc'] });
     try {
-      await s.conn.sendNotification('textDocument/didOpen', { textDocument: { uri: URI, languageId: 'markdown', version: 1, text: NOTE } });
+      await s.conn.sendNotification('textDocument/didOpen', {
+        textDocument: { uri: URI, languageId: 'markdown', version: 1, text: NOTE },
+      });
       await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: URI } });
       const baseline = await s.conn.sendRequest(MemoryRequest);
       assert.ok(baseline.collected, 'the server was started with --expose-gc, so it collects before measuring');
 
       const version = await sendBurst(s, changes, true);
-      const r = (await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: URI } })) as { items: Diag[] };
+      const r = (await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: URI } })) as {
+        items: Diag[];
+      };
       assert.deepEqual(summary(r.items), expected);
       const stats = await s.conn.sendRequest(AnalysisStatsRequest, { uri: URI });
       assert.equal(stats?.version, version, 'the latest analysis is of the final version');
@@ -94,7 +122,10 @@ describe('language server under a burst of edits', function () {
       // version of the 1 MB note alive would add about 100 MB here (100 analysed versions).
       const after = await s.conn.sendRequest(MemoryRequest);
       const mb = (x: number): string => `${(x / 1e6).toFixed(1)} MB`;
-      assert.ok(after.heapUsed <= 1.5 * baseline.heapUsed, `heap ${mb(after.heapUsed)} after the burst, baseline ${mb(baseline.heapUsed)}`);
+      assert.ok(
+        after.heapUsed <= 1.5 * baseline.heapUsed,
+        `heap ${mb(after.heapUsed)} after the burst, baseline ${mb(baseline.heapUsed)}`,
+      );
     } finally {
       await s.close();
     }
@@ -103,7 +134,9 @@ describe('language server under a burst of edits', function () {
   it('pushes diagnostics last for the final version, matching the final text', async () => {
     const s = await startLsp({ pull: false });
     try {
-      await s.conn.sendNotification('textDocument/didOpen', { textDocument: { uri: URI, languageId: 'markdown', version: 1, text: NOTE } });
+      await s.conn.sendNotification('textDocument/didOpen', {
+        textDocument: { uri: URI, languageId: 'markdown', version: 1, text: NOTE },
+      });
       await s.waitForPush(URI, (d) => d.version === 1);
       const version = await sendBurst(s, changes, false);
       await s.waitForPush(URI, (d) => d.version === version);

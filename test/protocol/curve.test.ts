@@ -31,7 +31,9 @@ describe('boltzmark/curveData over stdio', function () {
 
   before(async () => {
     s = await startLsp();
-    await s.conn.sendNotification('textDocument/didOpen', { textDocument: { uri: URI, languageId: 'markdown', version: 5, text: NOTE } });
+    await s.conn.sendNotification('textDocument/didOpen', {
+      textDocument: { uri: URI, languageId: 'markdown', version: 5, text: NOTE },
+    });
   });
   after(async () => s.close());
 

@@ -43,11 +43,15 @@ async function everyFeature(s: LspSession, uri: string, text: string): Promise<n
     return s.conn.sendRequest(method, params);
   };
   const diags = (await ask('textDocument/diagnostic', doc)) as { items: { range: { start: Pos; end: Pos } }[] };
-  await ask('textDocument/inlayHint', { ...doc, range: { start: { line: 0, character: 0 }, end: { line: lineCount, character: 0 } } });
+  await ask('textDocument/inlayHint', {
+    ...doc,
+    range: { start: { line: 0, character: 0 }, end: { line: lineCount, character: 0 } },
+  });
   await ask('textDocument/documentSymbol', doc);
   await ask('textDocument/foldingRange', doc);
   await ask('textDocument/codeLens', doc);
-  for (const d of diags.items) await ask('textDocument/codeAction', { ...doc, range: d.range, context: { diagnostics: [d] } });
+  for (const d of diags.items)
+    await ask('textDocument/codeAction', { ...doc, range: d.range, context: { diagnostics: [d] } });
   for (const p of positions(text)) {
     await ask('textDocument/hover', { ...doc, position: p });
     await ask('textDocument/completion', { ...doc, position: p });
@@ -81,7 +85,9 @@ describe('nothing writes to a note', function () {
           const file = resolve(DEMO, name);
           const text = readFileSync(file, 'utf8');
           const uri = pathToFileURL(file).href;
-          await s.conn.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'markdown', version: 1, text } });
+          await s.conn.sendNotification('textDocument/didOpen', {
+            textDocument: { uri, languageId: 'markdown', version: 1, text },
+          });
           requests += await everyFeature(s, uri, text);
           if (!pull) await s.waitForPush(uri);
           await s.conn.sendNotification('textDocument/didClose', { textDocument: { uri } });
@@ -91,7 +97,13 @@ describe('nothing writes to a note', function () {
         await s.close();
       }
     }
-    for (const args of [['report', DEMO], ['report', DEMO, '--format', 'json'], ['report', DEMO, '--format', 'csv'], ['report', DEMO, '--format', 'markdown'], ['check', DEMO]]) {
+    for (const args of [
+      ['report', DEMO],
+      ['report', DEMO, '--format', 'json'],
+      ['report', DEMO, '--format', 'csv'],
+      ['report', DEMO, '--format', 'markdown'],
+      ['check', DEMO],
+    ]) {
       const r = spawnSync(process.execPath, ['dist/cli.js', ...args], { encoding: 'utf8' });
       assert.ok(r.status === 0 || r.status === 1, `boltzmark ${args.join(' ')} exited with ${r.status}: ${r.stderr}`);
     }

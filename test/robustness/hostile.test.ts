@@ -33,7 +33,12 @@ describe('robustness: hostile input', function () {
   it('refuses a YAML alias bomb without expanding it', () => {
     const letters = 'abcdefghijklmnopqrstu';
     const lines = ['a: &a [x, x, x, x, x, x, x, x, x]'];
-    for (let i = 1; i < letters.length; i++) lines.push(`${letters[i]}: &${letters[i]} [${Array(9).fill(`*${letters[i - 1]}`).join(', ')}]`);
+    for (let i = 1; i < letters.length; i++)
+      lines.push(
+        `${letters[i]}: &${letters[i]} [${Array(9)
+          .fill(`*${letters[i - 1]}`)
+          .join(', ')}]`,
+      );
     // Expanded, the last list would hold 9^21 ≈ 10^20 nodes.
     const b = only(fenced(lines.join('\n')));
     assert.equal(b.status, 'invalid');
@@ -43,13 +48,19 @@ describe('robustness: hostile input', function () {
   for (const [name, body] of [
     ['flow sequences nested 10,000 deep', `levels: ${'['.repeat(10000)}${']'.repeat(10000)}`],
     ['flow mappings nested 10,000 deep', `levels: ${'{a: '.repeat(10000)}1${'}'.repeat(10000)}`],
-    ['block mappings nested 10,000 deep', Array.from({ length: 10000 }, (_, i) => `${' '.repeat(i)}a:`).join('\n') + ' 1'],
+    [
+      'block mappings nested 10,000 deep',
+      Array.from({ length: 10000 }, (_, i) => `${' '.repeat(i)}a:`).join('\n') + ' 1',
+    ],
     ['a flow sequence opened 10,000 times and never closed', `levels: ${'['.repeat(10000)}`],
   ] as const) {
     it(`reads ${name} as an invalid block with a YAML error`, () => {
       const b = only(fenced(body));
       assert.equal(b.status, 'invalid');
-      assert.ok(b.problems.some((p) => p.severity === 'error'), codes(b).join(', '));
+      assert.ok(
+        b.problems.some((p) => p.severity === 'error'),
+        codes(b).join(', '),
+      );
     });
   }
 
@@ -80,7 +91,12 @@ describe('robustness: hostile input', function () {
     let seed = 12345;
     const byte = (): number => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) >> 16) & 0xff;
     const bytes = Buffer.from(Array.from({ length: 200_000 }, byte));
-    for (const text of [bytes.toString('latin1'), bytes.toString('utf8'), `\`\`\`levels\n${bytes.toString('latin1')}\n\`\`\`\n`, `\`\`\`levels\n${'\u0000'.repeat(1000)}\n\`\`\`\n`]) {
+    for (const text of [
+      bytes.toString('latin1'),
+      bytes.toString('utf8'),
+      `\`\`\`levels\n${bytes.toString('latin1')}\n\`\`\`\n`,
+      `\`\`\`levels\n${'\u0000'.repeat(1000)}\n\`\`\`\n`,
+    ]) {
       const r = analyse(text);
       for (const b of r.blocks) for (const p of b.problems) assert.ok(p.span.start >= 0 && p.span.end <= text.length);
     }
@@ -90,7 +106,13 @@ describe('robustness: hostile input', function () {
     const lf = fenced([...GOOD, 'sample: x\nfrequency: 75.5 MHz', 'note: 9.4 MT'].join('\n'));
     const bad = fenced(['system: 13C', 'field: 7.05 MT', 'polarisation: 0.3'].join('\n'));
     for (const eol of ['\r\n', '\r', 'mixed'] as const) {
-      const convert = (t: string): string => (eol === 'mixed' ? t.split('\n').map((l, i, all) => l + (i === all.length - 1 ? '' : ['\r\n', '\n', '\r'][i % 3])).join('') : t.replace(/\n/g, eol));
+      const convert = (t: string): string =>
+        eol === 'mixed'
+          ? t
+              .split('\n')
+              .map((l, i, all) => l + (i === all.length - 1 ? '' : ['\r\n', '\n', '\r'][i % 3]))
+              .join('')
+          : t.replace(/\n/g, eol);
       for (const original of [lf, bad]) {
         const want = only(original);
         const text = convert(original);
@@ -102,7 +124,11 @@ describe('robustness: hostile input', function () {
         const [a, b] = [new LineIndex(original), new LineIndex(text)];
         got.problems.forEach((p, i) => {
           const q = want.problems[i]!;
-          assert.equal(text.slice(p.span.start, p.span.end).replace(/\r\n?/g, '\n'), original.slice(q.span.start, q.span.end), p.code);
+          assert.equal(
+            text.slice(p.span.start, p.span.end).replace(/\r\n?/g, '\n'),
+            original.slice(q.span.start, q.span.end),
+            p.code,
+          );
           assert.deepEqual(b.positionAt(p.span.start), a.positionAt(q.span.start), p.code);
         });
       }
@@ -120,7 +146,10 @@ describe('robustness: hostile input', function () {
   it('reports tabs used as YAML indentation, and reads tabs inside values and around a fence without throwing', () => {
     const tabbed = only(fenced('levels:\n\t- { energy: 0 K, population: 0.7 }\n\t- { energy: 1 K, population: 0.3 }'));
     assert.equal(tabbed.status, 'invalid');
-    assert.ok(codes(tabbed).some((c) => c.startsWith('yaml-')), codes(tabbed).join(', '));
+    assert.ok(
+      codes(tabbed).some((c) => c.startsWith('yaml-')),
+      codes(tabbed).join(', '),
+    );
     const inValues = only(fenced('gap:\t1 K\npopulations: [0.7,\t0.3]'));
     assert.equal(inValues.status, 'normal', codes(inValues).join(', '));
     // A tab before the fence indents it by four columns: indented code, not a fence (CommonMark §4.4).
@@ -132,7 +161,16 @@ describe('robustness: hostile input', function () {
     try {
       // Latin-1: 0xB1 is ±, 0xB5 is µ; read as UTF-8 they become U+FFFD.
       const file = join(dir, 'latin1.md');
-      writeFileSync(file, Buffer.concat([Buffer.from('```levels\ngap: 1 K\npopulations: [0.7 '), Buffer.from([0xb1]), Buffer.from(' 0.01, 0.3]\nlattice: 5 '), Buffer.from([0xb5]), Buffer.from('K\n```\n')]));
+      writeFileSync(
+        file,
+        Buffer.concat([
+          Buffer.from('```levels\ngap: 1 K\npopulations: [0.7 '),
+          Buffer.from([0xb1]),
+          Buffer.from(' 0.01, 0.3]\nlattice: 5 '),
+          Buffer.from([0xb5]),
+          Buffer.from('K\n```\n'),
+        ]),
+      );
       const r = spawnSync(process.execPath, ['dist/cli.js', 'check', file], { encoding: 'utf8' });
       assert.equal(r.status, 1, r.stderr);
       assert.match(r.stdout, /latin1\.md:3:\d+: error/);
@@ -147,8 +185,12 @@ describe('robustness: hostile input', function () {
     const uri = 'file:///notes/fifty.md';
     const s = await startLsp({ pull: true });
     try {
-      await s.conn.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'markdown', version: 1, text } });
-      const d = (await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri } })) as { items: { code: string; range: { start: { line: number } }; message: string }[] };
+      await s.conn.sendNotification('textDocument/didOpen', {
+        textDocument: { uri, languageId: 'markdown', version: 1, text },
+      });
+      const d = (await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri } })) as {
+        items: { code: string; range: { start: { line: number } }; message: string }[];
+      };
       const bounded = d.items.filter((x) => x.code === 'note-bounded');
       assert.equal(bounded.length, 1);
       assert.equal(bounded[0]!.range.start.line, 0);
@@ -160,12 +202,16 @@ describe('robustness: hostile input', function () {
       for (let i = 0; i <= SERVER_LIMITS.maxBlocks; i++) at = text.indexOf('```levels', at + 1);
       const firstUnread = lines.positionAt(at).line;
       assert.match(bounded[0]!.message, new RegExp(`line ${firstUnread + 1}\\b`));
-      const hover = (line: number): Promise<unknown> => s.conn.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line, character: 1 } });
+      const hover = (line: number): Promise<unknown> =>
+        s.conn.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line, character: 1 } });
       const lastRead = lines.positionAt(text.lastIndexOf('```levels', at - 1)).line;
       assert.ok(await hover(lastRead + 1), 'the last block read has a hover');
       assert.equal(await hover(firstUnread + 1), null, 'a block past the bound has none');
       // An edit is taken and answered.
-      await s.conn.sendNotification('textDocument/didChange', { textDocument: { uri, version: 2 }, contentChanges: [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, text: 'x' }] });
+      await s.conn.sendNotification('textDocument/didChange', {
+        textDocument: { uri, version: 2 },
+        contentChanges: [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, text: 'x' }],
+      });
       assert.ok(await hover(lastRead + 1));
       assert.equal((await s.conn.sendRequest(AnalysisStatsRequest, { uri }))?.version, 2);
     } finally {

@@ -31,26 +31,54 @@ function view(r: DocumentReport): unknown {
 
 /** Text that fences, info strings and line breaks are made of, and some that is not. */
 const piece = fc.oneof(
-  fc.constantFrom('```', '~~~', '````', '```levels\n', '\n```\n', 'levels', '\n', '\r', '\r\n', '\uFEFF', ' ', '   ', '`', 'x', 'gap: 1 K\nratio: 0.5\n', '- ', '±'),
+  fc.constantFrom(
+    '```',
+    '~~~',
+    '````',
+    '```levels\n',
+    '\n```\n',
+    'levels',
+    '\n',
+    '\r',
+    '\r\n',
+    '\uFEFF',
+    ' ',
+    '   ',
+    '`',
+    'x',
+    'gap: 1 K\nratio: 0.5\n',
+    '- ',
+    '±',
+  ),
   fc.string({ maxLength: 6 }),
 );
 
 /** One edit: delete `remove` characters at a relative place and insert `insert` there. */
-const edit = fc.record({ at: fc.double({ min: 0, max: 1, noNaN: true }), remove: fc.nat({ max: 12 }), insert: fc.oneof(fc.constant(''), piece) });
+const edit = fc.record({
+  at: fc.double({ min: 0, max: 1, noNaN: true }),
+  remove: fc.nat({ max: 12 }),
+  insert: fc.oneof(fc.constant(''), piece),
+});
 
 function apply(text: string, e: { at: number; remove: number; insert: string }): string {
   const at = Math.min(text.length, Math.floor(e.at * (text.length + 1)));
   return text.slice(0, at) + e.insert + text.slice(Math.min(text.length, at + e.remove));
 }
 
-function check(limits: AnalyzerLimits | undefined): fc.IPropertyWithHooks<[string, { at: number; remove: number; insert: string }[]]> {
+function check(
+  limits: AnalyzerLimits | undefined,
+): fc.IPropertyWithHooks<[string, { at: number; remove: number; insert: string }[]]> {
   return fc.property(markdownNote, fc.array(edit, { minLength: 1, maxLength: 8 }), (note, edits) => {
     const warm = new Analyzer(limits ? { limits } : {});
     let text = note;
     warm.analyzeText(text);
     for (const e of edits) {
       text = apply(text, e);
-      assert.deepStrictEqual(view(warm.analyzeText(text)), view(new Analyzer(limits ? { limits } : {}).analyzeText(text)), JSON.stringify(text));
+      assert.deepStrictEqual(
+        view(warm.analyzeText(text)),
+        view(new Analyzer(limits ? { limits } : {}).analyzeText(text)),
+        JSON.stringify(text),
+      );
     }
   });
 }
@@ -68,15 +96,19 @@ describe('robustness: an edited note is analysed as a fresh one', function () {
 
   it('does so when the analyzer goes back and forth between notes', () => {
     fc.assert(
-      fc.property(fc.array(markdownNote, { minLength: 2, maxLength: 6 }), fc.array(edit, { maxLength: 6 }), (notes, edits) => {
-        const warm = new Analyzer();
-        const texts = [...notes];
-        for (let i = 0; i < texts.length + edits.length; i++) {
-          const k = i % texts.length;
-          if (i >= texts.length) texts[k] = apply(texts[k]!, edits[i - texts.length]!);
-          assert.deepStrictEqual(view(warm.analyzeText(texts[k]!)), view(new Analyzer().analyzeText(texts[k]!)));
-        }
-      }),
+      fc.property(
+        fc.array(markdownNote, { minLength: 2, maxLength: 6 }),
+        fc.array(edit, { maxLength: 6 }),
+        (notes, edits) => {
+          const warm = new Analyzer();
+          const texts = [...notes];
+          for (let i = 0; i < texts.length + edits.length; i++) {
+            const k = i % texts.length;
+            if (i >= texts.length) texts[k] = apply(texts[k]!, edits[i - texts.length]!);
+            assert.deepStrictEqual(view(warm.analyzeText(texts[k]!)), view(new Analyzer().analyzeText(texts[k]!)));
+          }
+        },
+      ),
       runs(150),
     );
   });

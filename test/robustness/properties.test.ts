@@ -1,6 +1,18 @@
 import { strict as assert } from 'node:assert';
 import fc from 'fast-check';
-import { Analyzer, bodyToDocument, CODES, convert, findFencedBlocks, LineIndex, parseQuantity, STATUSES, type Dimension, type Problem, type Span } from '../../src/core';
+import {
+  Analyzer,
+  bodyToDocument,
+  CODES,
+  convert,
+  findFencedBlocks,
+  LineIndex,
+  parseQuantity,
+  STATUSES,
+  type Dimension,
+  type Problem,
+  type Span,
+} from '../../src/core';
 import { interpretBody } from '../../src/core/block/interpret';
 import { noteDiagnostics } from '../../src/server/diagnostics';
 import { codeActions } from '../../src/server/features/codeActions';
@@ -20,8 +32,14 @@ import { runs } from './seed';
 // On a failure fast-check prints the seed and the shrunk counterexample.
 
 function assertSpanIn(span: Span, lo: number, hi: number, what: string): void {
-  assert.ok(Number.isInteger(span.start) && Number.isInteger(span.end), `${what}: integer offsets ${JSON.stringify(span)}`);
-  assert.ok(lo <= span.start && span.start <= span.end && span.end <= hi, `${what}: ${JSON.stringify(span)} outside [${lo}, ${hi}]`);
+  assert.ok(
+    Number.isInteger(span.start) && Number.isInteger(span.end),
+    `${what}: integer offsets ${JSON.stringify(span)}`,
+  );
+  assert.ok(
+    lo <= span.start && span.start <= span.end && span.end <= hi,
+    `${what}: ${JSON.stringify(span)} outside [${lo}, ${hi}]`,
+  );
 }
 
 function assertRegistered(p: Problem): void {
@@ -39,7 +57,19 @@ function assertFinite(value: unknown, path: string, seen = new Set<unknown>()): 
   }
 }
 
-const DIMENSIONS: readonly Dimension[] = ['energy', 'wavelengthEnergy', 'field', 'temperature', 'time', 'angle', 'density', 'crossSection', 'length', 'attenuation', 'rate'];
+const DIMENSIONS: readonly Dimension[] = [
+  'energy',
+  'wavelengthEnergy',
+  'field',
+  'temperature',
+  'time',
+  'angle',
+  'density',
+  'crossSection',
+  'length',
+  'attenuation',
+  'rate',
+];
 
 describe('robustness: properties of the readers and the analysis', function () {
   this.timeout(120000);
@@ -49,9 +79,16 @@ describe('robustness: properties of the readers and the analysis', function () {
       fc.property(markdownNote, (text) => {
         let previousEnd = -1;
         for (const b of findFencedBlocks(text)) {
-          assert.ok(previousEnd < b.openStart && b.openStart <= b.openEnd && b.openEnd <= b.blockEnd && b.blockEnd <= text.length, 'blocks in order, inside the note');
+          assert.ok(
+            previousEnd < b.openStart &&
+              b.openStart <= b.openEnd &&
+              b.openEnd <= b.blockEnd &&
+              b.blockEnd <= text.length,
+            'blocks in order, inside the note',
+          );
           previousEnd = b.blockEnd;
-          for (let i = 0; i < b.body.length; i++) assert.equal(text[bodyToDocument(b, i)], b.body[i], `body offset ${i}`);
+          for (let i = 0; i < b.body.length; i++)
+            assert.equal(text[bodyToDocument(b, i)], b.body[i], `body offset ${i}`);
           const end = bodyToDocument(b, b.body.length);
           assert.ok(end >= b.openEnd && end <= b.blockEnd, 'the body ends inside its block');
         }
@@ -61,7 +98,9 @@ describe('robustness: properties of the readers and the analysis', function () {
   });
 
   it('indexes lines as CommonMark and LSP count them: \\n, \\r\\n and a lone \\r each end one', () => {
-    const text = fc.array(fc.constantFrom('a', 'xyz', '\n', '\r', '\r\n', '\u2028', ''), { maxLength: 40 }).map((parts) => parts.join(''));
+    const text = fc
+      .array(fc.constantFrom('a', 'xyz', '\n', '\r', '\r\n', '\u2028', ''), { maxLength: 40 })
+      .map((parts) => parts.join(''));
     fc.assert(
       fc.property(text, (t) => {
         // Reference: walk the characters one by one.
@@ -107,14 +146,21 @@ describe('robustness: properties of the readers and the analysis', function () {
         }
         const q = r.quantity;
         assert.ok(Number.isFinite(q.value), `value ${q.value}`);
-        assert.ok(q.uncertainty === null || (Number.isFinite(q.uncertainty) && q.uncertainty >= 0), `uncertainty ${q.uncertainty}`);
-        for (const span of [q.valueSpan, q.uncertaintySpan, q.unitSpan]) if (span) assertSpanIn(span, 0, text.length, 'quantity span');
+        assert.ok(
+          q.uncertainty === null || (Number.isFinite(q.uncertainty) && q.uncertainty >= 0),
+          `uncertainty ${q.uncertainty}`,
+        );
+        for (const span of [q.valueSpan, q.uncertaintySpan, q.unitSpan])
+          if (span) assertSpanIn(span, 0, text.length, 'quantity span');
         for (const dim of DIMENSIONS) {
           const c = convert(q, dim);
           if ('problem' in c) assert.ok(c.problem.code in CODES, c.problem.code);
           else {
             assert.ok(Number.isFinite(c.value), `${dim}: ${c.value}`);
-            assert.ok(c.uncertainty === null || (Number.isFinite(c.uncertainty) && c.uncertainty >= 0), `${dim}: u = ${c.uncertainty}`);
+            assert.ok(
+              c.uncertainty === null || (Number.isFinite(c.uncertainty) && c.uncertainty >= 0),
+              `${dim}: u = ${c.uncertainty}`,
+            );
           }
         }
       }),
@@ -147,10 +193,16 @@ describe('robustness: properties of the readers and the analysis', function () {
       fc.property(fc.oneof(markdownNote, numericNote), fc.nat(), fc.nat(), (text, a, b) => {
         const state = noteState(text);
         const lines = new LineIndex(text);
-        const inside = (r: { start: { line: number; character: number }; end: { line: number; character: number } }): void => {
+        const inside = (r: {
+          start: { line: number; character: number };
+          end: { line: number; character: number };
+        }): void => {
           for (const p of [r.start, r.end]) {
             assert.ok(p.line >= 0 && p.line < lines.lineCount && p.character >= 0, JSON.stringify(r));
-            assert.ok(lines.offsetAt(p) === lines.lineStart(p.line) + p.character, `past the line's end: ${JSON.stringify(r)}`);
+            assert.ok(
+              lines.offsetAt(p) === lines.lineStart(p.line) + p.character,
+              `past the line's end: ${JSON.stringify(r)}`,
+            );
           }
         };
         for (const d of noteDiagnostics(state)) inside(d.range);
@@ -159,8 +211,14 @@ describe('robustness: properties of the readers and the analysis', function () {
         const range = position.line <= other.line ? { start: position, end: other } : { start: other, end: position };
         const h = hover(state, position, DEFAULT_SETTINGS);
         if (h?.range) inside(h.range);
-        for (const hint of inlayHints(state, { start: { line: 0, character: 0 }, end: { line: lines.lineCount, character: 0 } }, DEFAULT_SETTINGS)) inside({ start: hint.position, end: hint.position });
-        for (const action of codeActions(state, range, DEFAULT_SETTINGS)) for (const edits of Object.values(action.edit?.changes ?? {})) for (const e of edits) inside(e.range);
+        for (const hint of inlayHints(
+          state,
+          { start: { line: 0, character: 0 }, end: { line: lines.lineCount, character: 0 } },
+          DEFAULT_SETTINGS,
+        ))
+          inside({ start: hint.position, end: hint.position });
+        for (const action of codeActions(state, range, DEFAULT_SETTINGS))
+          for (const edits of Object.values(action.edit?.changes ?? {})) for (const e of edits) inside(e.range);
         completion(state, position, DEFAULT_SETTINGS);
         for (const s of documentSymbols(state)) inside(s.range);
         for (const f of foldingRanges(state)) assert.ok(f.startLine <= f.endLine && f.endLine < lines.lineCount);

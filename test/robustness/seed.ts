@@ -6,7 +6,8 @@
  */
 import type { Parameters } from 'fast-check';
 
-const SEED = Number.isSafeInteger(Number(process.env.FC_SEED)) && process.env.FC_SEED ? Number(process.env.FC_SEED) : 20260314;
+const SEED =
+  Number.isSafeInteger(Number(process.env.FC_SEED)) && process.env.FC_SEED ? Number(process.env.FC_SEED) : 20260314;
 const SCALE = Number(process.env.FC_RUNS_SCALE) > 0 ? Number(process.env.FC_RUNS_SCALE) : 1;
 
 /** fast-check parameters with the suite's seed and `numRuns` cases (scaled). */

@@ -17,7 +17,8 @@ describe('levels injection grammar', () => {
   });
 
   it('opens on levels fences of backticks or tildes, up to three spaces in, and on nothing else', () => {
-    for (const ok of ['```levels', '~~~levels', '````levels', '   ```levels', '```levels title']) assert.ok(begin.test(ok), ok);
+    for (const ok of ['```levels', '~~~levels', '````levels', '   ```levels', '```levels title'])
+      assert.ok(begin.test(ok), ok);
     for (const no of ['    ```levels', '```yaml', '```levelsx', '``levels', '```level']) assert.ok(!begin.test(no), no);
   });
 

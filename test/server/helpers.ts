@@ -17,7 +17,10 @@ export function noteState(text: string, settings: Settings = DEFAULT_SETTINGS): 
 }
 
 /** A note with a cursor marker: the state without the marker and the cursor's position. */
-export function withCursor(marked: string, settings: Settings = DEFAULT_SETTINGS): { state: NoteState; position: { line: number; character: number } } {
+export function withCursor(
+  marked: string,
+  settings: Settings = DEFAULT_SETTINGS,
+): { state: NoteState; position: { line: number; character: number } } {
   const marker = marked.includes('$0') ? '$0' : '|';
   const at = marked.indexOf(marker);
   assert.ok(at >= 0, 'the note needs a cursor marker ($0 or |)');
@@ -41,9 +44,18 @@ export function settings(changes: Partial<Settings>): Settings {
  * lives"): 13C at 7.05 T, P = 0.312 ± 0.010, lattice 1.4 K. The core gives
  * T = 5.61 ± 0.19 mK, β = 178.2 ± 6.1 K⁻¹, P_th = 0.129 %, ε = 241.
  */
-export const CONTRACT = ['id: cell-B run 7', 'system: 13C', 'field: 7.05 T', 'lattice: 1.4 K', 'polarization: 0.312 ± 0.010'];
+export const CONTRACT = [
+  'id: cell-B run 7',
+  'system: 13C',
+  'field: 7.05 T',
+  'lattice: 1.4 K',
+  'polarization: 0.312 ± 0.010',
+];
 
 /** The whole note as a range. */
-export function everything(state: NoteState): { start: { line: number; character: number }; end: { line: number; character: number } } {
+export function everything(state: NoteState): {
+  start: { line: number; character: number };
+  end: { line: number; character: number };
+} {
   return { start: { line: 0, character: 0 }, end: state.lines.positionAt(state.text.length) };
 }

@@ -5,7 +5,9 @@ import { FORMAT_DOC_URL, codeLink } from '../../src/server/docsLink';
 import { DEFAULT_SETTINGS, fromSection, SETTING_DEFS } from '../../src/shared/settings';
 
 describe('settings', () => {
-  const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configuration: { properties: Record<string, Record<string, unknown>> } } };
+  const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as {
+    contributes: { configuration: { properties: Record<string, Record<string, unknown>> } };
+  };
   const props = manifest.contributes.configuration.properties;
 
   it('declares in package.json exactly the settings the code defines, with the same types, defaults and choices', () => {
@@ -23,7 +25,12 @@ describe('settings', () => {
   it('reads a configuration section, keeping defaults for anything missing or malformed', () => {
     assert.deepEqual(fromSection(undefined), DEFAULT_SETTINGS);
     assert.equal(DEFAULT_SETTINGS.saturationSigma, 2);
-    const s = fromSection({ display: { significantDigits: 99, temperature: 'kelvin', polarization: 'bogus' }, inlayHints: { enabled: false }, status: { saturationSigma: 3 }, blocks: { extraInfoStrings: ['populations', 3, ' '] } });
+    const s = fromSection({
+      display: { significantDigits: 99, temperature: 'kelvin', polarization: 'bogus' },
+      inlayHints: { enabled: false },
+      status: { saturationSigma: 3 },
+      blocks: { extraInfoStrings: ['populations', 3, ' '] },
+    });
     assert.equal(s.significantDigits, 8);
     assert.equal(s.temperature, 'kelvin');
     assert.equal(s.polarization, 'percent');
@@ -33,7 +40,11 @@ describe('settings', () => {
   });
 
   it('declares its commands with localised titles and activates only on Markdown and a restored curve view', () => {
-    const m = JSON.parse(readFileSync('package.json', 'utf8')) as { activationEvents: string[]; contributes: { commands: { title: string; command: string }[] }; capabilities: { untrustedWorkspaces: { supported: boolean } } };
+    const m = JSON.parse(readFileSync('package.json', 'utf8')) as {
+      activationEvents: string[];
+      contributes: { commands: { title: string; command: string }[] };
+      capabilities: { untrustedWorkspaces: { supported: boolean } };
+    };
     const nls = JSON.parse(readFileSync('package.nls.json', 'utf8')) as Record<string, string>;
     assert.deepEqual(m.activationEvents, ['onLanguage:markdown', 'onWebviewPanel:boltzmark.curveView']);
     assert.equal(m.capabilities.untrustedWorkspaces.supported, true);

@@ -36,7 +36,10 @@ describe('curve view drawing (headless Chromium)', function () {
     const p = curveOf(TWO_LEVEL);
     await show(p);
     const blue = rgb(LIGHT.vars['--vscode-charts-blue']!);
-    for (const [id, ys] of [['entropy-chart', p.curve.entropy], ['beta-chart', p.curve.beta]] as const) {
+    for (const [id, ys] of [
+      ['entropy-chart', p.curve.entropy],
+      ['beta-chart', p.curve.beta],
+    ] as const) {
       const g = await geometry(view.page, id);
       const points = inside(g, p.curve.energy, ys, 8);
       assert.ok(points.length > 15, `${id}: ${points.length} curve points inside the plot`);
@@ -47,7 +50,10 @@ describe('curve view drawing (headless Chromium)', function () {
     // Control: above the entropy curve near the ground state (E → 0, S → 0) there is no curve colour.
     const g = await geometry(view.page, 'entropy-chart');
     const empty = await pixelsAround(view.page, 'entropy-chart', [toPixel(g, 1, 0.6), toPixel(g, 9, 0.6)], 3);
-    assert.ok(empty.every((px) => !px.some((q) => near(q, blue))), 'no curve colour where the curve is not');
+    assert.ok(
+      empty.every((px) => !px.some((q) => near(q, blue))),
+      'no curve colour where the curve is not',
+    );
     assert.equal(await view.page.evaluate('document.body.dataset.state'), 'chart');
   });
 
@@ -67,7 +73,8 @@ describe('curve view drawing (headless Chromium)', function () {
         if (x < zeroX - 5) left.push([x, y]);
         else if (x > zeroX + 5) right.push([x, y]);
       }
-      const shaded = async (pts: [number, number][]) => (await pixelsAround(view.page, id, pts, 0)).filter((px) => near(px[0]!, shade, 3)).length;
+      const shaded = async (pts: [number, number][]) =>
+        (await pixelsAround(view.page, id, pts, 0)).filter((px) => near(px[0]!, shade, 3)).length;
       const r = await shaded(right);
       assert.ok(r >= 0.8 * right.length, `${id}: ${r} of ${right.length} pixels right of β = 0 are shaded`);
       assert.equal(await shaded(left), 0, `${id}: no shading left of β = 0`);
@@ -85,9 +92,23 @@ describe('curve view drawing (headless Chromium)', function () {
     const [mx, my] = toPixel(g, m.energy / k, m.entropy);
     const [, ty] = toPixel(g, m.energy / k, m.thermalEntropy!);
     assert.ok(ty < my - 5, 'the thermal curve lies visibly above the non-thermal point');
-    const [atPoint, inGap] = await pixelsAround(view.page, 'entropy-chart', [[mx, my], [mx, (my + ty) / 2]], 1);
-    assert.ok(atPoint!.some((q) => near(q, red)), 'the measured marker');
-    assert.ok(inGap!.some((q) => near(q, red)), 'the dashed deficit gap between point and curve');
+    const [atPoint, inGap] = await pixelsAround(
+      view.page,
+      'entropy-chart',
+      [
+        [mx, my],
+        [mx, (my + ty) / 2],
+      ],
+      1,
+    );
+    assert.ok(
+      atPoint!.some((q) => near(q, red)),
+      'the measured marker',
+    );
+    assert.ok(
+      inGap!.some((q) => near(q, red)),
+      'the dashed deficit gap between point and curve',
+    );
     const facts = (await view.page.evaluate(`document.getElementById('facts').textContent`)) as string;
     assert.match(facts, /entropy deficit/);
     assert.match(facts, /relative entropy to thermal/);
@@ -101,10 +122,18 @@ describe('curve view drawing (headless Chromium)', function () {
     const f = p.finiteN!;
     const k = p.unit.kelvinPerUnit;
     // The exact values ln C(12, m)/12 sit at E = mε/12; each step is drawn through them.
-    const steps = inside(g, f.energy.map((e) => e / k), f.entropy, 1);
+    const steps = inside(
+      g,
+      f.energy.map((e) => e / k),
+      f.entropy,
+      1,
+    );
     assert.ok(steps.length >= 9, `${steps.length} steps inside`);
     const around = await pixelsAround(view.page, 'entropy-chart', steps, 1.5);
-    assert.ok(around.every((px) => px.some((q) => near(q, purple))), 'staircase colour at every exact point');
+    assert.ok(
+      around.every((px) => px.some((q) => near(q, purple))),
+      'staircase colour at every exact point',
+    );
     const legend = await view.page.evaluate(`document.body.dataset.drawn`);
     assert.equal(Number(legend), draws);
   });
@@ -116,7 +145,8 @@ describe('curve view drawing (headless Chromium)', function () {
     const g = await geometry(view.page, 'beta-chart');
     const red = rgb(LIGHT.vars['--vscode-charts-red']!);
     const at = (p: CurvePayload) => toPixel(g, p.measured!.energy, p.measured!.beta!);
-    const hasRed = async (pt: [number, number]) => (await pixelsAround(view.page, 'beta-chart', [pt], 1))[0]!.some((q) => near(q, red));
+    const hasRed = async (pt: [number, number]) =>
+      (await pixelsAround(view.page, 'beta-chart', [pt], 1))[0]!.some((q) => near(q, red));
     assert.ok(await hasRed(at(before)), 'marker at the first position');
     assert.equal(await hasRed(at(after)), false, 'nothing red yet where the second point goes');
     await show(after);

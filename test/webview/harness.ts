@@ -40,7 +40,8 @@ const FILES: Readonly<Record<string, { path: string; type: string }>> = {
 
 /** The page server: every request for `/` gets a fresh nonce, as every render in VS Code does. */
 export async function startServer(): Promise<{ origin: string; server: Server; nonces: string[] }> {
-  if (!existsSync('dist/media/view.js')) throw new Error('dist/media/view.js is missing: run `npm run build` first (npm test does)');
+  if (!existsSync('dist/media/view.js'))
+    throw new Error('dist/media/view.js is missing: run `npm run build` first (npm test does)');
   if (!existsSync(CHROMIUM)) throw new Error(`${CHROMIUM} is missing: install Debian's chromium (.ci/run does)`);
   const nonces: string[] = [];
   let origin = '';
@@ -49,7 +50,12 @@ export async function startServer(): Promise<{ origin: string; server: Server; n
     if (path === '/') {
       const nonce = newNonce();
       nonces.push(nonce);
-      const html = viewHtml({ cspSource: origin, scriptUri: `${origin}/dist/media/view.js`, styleUri: `${origin}/media/view.css`, nonce });
+      const html = viewHtml({
+        cspSource: origin,
+        scriptUri: `${origin}/dist/media/view.js`,
+        styleUri: `${origin}/media/view.css`,
+        nonce,
+      });
       res.writeHead(200, { 'content-type': 'text/html; charset=utf-8' }).end(html);
       return;
     }
@@ -97,7 +103,9 @@ export async function openView(browser: Browser, origin: string, theme: TestThem
       try {
         await page.waitForFunction((k) => Number(document.body.dataset.drawn) >= k, n, { timeout: 15000 });
       } catch (err) {
-        throw new Error(`draw ${n} did not happen: ${(err as Error).message}\npage console:\n${consoleLines.join('\n')}`);
+        throw new Error(
+          `draw ${n} did not happen: ${(err as Error).message}\npage console:\n${consoleLines.join('\n')}`,
+        );
       }
     },
     posted: () => page.evaluate(() => window.__test.posted),
@@ -133,4 +141,3 @@ export function usePageServer(): PageServer {
   });
   return pages;
 }
-

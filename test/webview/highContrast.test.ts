@@ -46,7 +46,12 @@ describe('curve view in high-contrast themes (headless Chromium)', function () {
 
       // The ground of the plot where nothing is drawn (above the curve near E = 0) is the theme's background,
       // and the curve stands out from it by at least 3:1.
-      const [[ground]] = await pixelsAround(view.page, 'entropy-chart', [toPixel(g, p.curve.energy.at(-1)! * 0.03, 0.6)], 0);
+      const [[ground]] = await pixelsAround(
+        view.page,
+        'entropy-chart',
+        [toPixel(g, p.curve.energy.at(-1)! * 0.03, 0.6)],
+        0,
+      );
       assert.ok(near(ground!, bg, 2), `plot ground ${JSON.stringify(ground)} is the background ${JSON.stringify(bg)}`);
       const ratio = contrastRatio(curve, [ground![0], ground![1], ground![2]]);
       assert.ok(ratio >= 3, `curve against ground: ${ratio.toFixed(2)}:1`);
@@ -60,7 +65,10 @@ describe('curve view in high-contrast themes (headless Chromium)', function () {
       const weak = blend(theme.vars['--vscode-charts-orange']!, theme.vars['--vscode-editor-background']!, 0.16);
       const cells = await pixelsAround(view.page, 'entropy-chart', right, 0);
       const strong = cells.filter((c) => near(c[0]!, shade, 3)).length;
-      assert.ok(strong >= 0.8 * right.length, `${strong} of ${right.length} pixels right of β = 0 carry the high-contrast shade`);
+      assert.ok(
+        strong >= 0.8 * right.length,
+        `${strong} of ${right.length} pixels right of β = 0 carry the high-contrast shade`,
+      );
       assert.equal(cells.filter((c) => near(c[0]!, weak, 3)).length, 0, 'none carries the ordinary shade');
 
       // The facts beside the charts are in the theme's foreground, readable at 4.5:1 or better.

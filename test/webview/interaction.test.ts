@@ -9,7 +9,16 @@ import { DARK, LIGHT, rgb } from './themes';
 declare const window: { __test: { applyTheme(t: unknown): void; posted: unknown[] } };
 declare const document: {
   body: { dataset: Record<string, string | undefined> };
-  getElementById(id: string): ({ textContent: string | null; hidden: boolean; value: string; dataset: Record<string, string | undefined>; dispatchEvent(e: unknown): void; hasAttribute(a: string): boolean }) | null;
+  getElementById(
+    id: string,
+  ): {
+    textContent: string | null;
+    hidden: boolean;
+    value: string;
+    dataset: Record<string, string | undefined>;
+    dispatchEvent(e: unknown): void;
+    hasAttribute(a: string): boolean;
+  } | null;
   querySelectorAll(selector: string): { length: number };
 };
 declare const Event: new (type: string) => unknown;
@@ -65,10 +74,15 @@ describe('curve view messages and controls (headless Chromium)', function () {
 
   it('lists a pin of the shown run once in the legend and keeps it in the pin list, and lists other pins beside it', async () => {
     const [first, second] = SERIES.map((b, i) => curveOf(b, `series-${i}`));
-    const legend = async (): Promise<string[]> => ((await view.page.evaluate(() => document.getElementById('entropy-chart')!.dataset.legend)) ?? '').split('\n');
+    const legend = async (): Promise<string[]> =>
+      ((await view.page.evaluate(() => document.getElementById('entropy-chart')!.dataset.legend)) ?? '').split('\n');
     const pinItems = () => view.page.evaluate(() => document.querySelectorAll('#pin-list li').length);
     await show(first!, [{ key: 'pin-1', payload: first! }]);
-    assert.equal((await legend()).filter((l) => l === first!.id).length, 1, `legend: ${JSON.stringify(await legend())}`);
+    assert.equal(
+      (await legend()).filter((l) => l === first!.id).length,
+      1,
+      `legend: ${JSON.stringify(await legend())}`,
+    );
     assert.equal(await pinItems(), 1, 'the pin can still be unpinned');
     await show(second!, [{ key: 'pin-1', payload: first! }]);
     const both = await legend();
@@ -111,7 +125,10 @@ describe('curve view messages and controls (headless Chromium)', function () {
     draws += 2;
     assert.equal(await drawCount(), draws, 'exactly the two valid, current renders were drawn');
     assert.equal(await title(), 'cell-B run 8');
-    assert.ok(view.console.some((l) => l.includes('ignored a message')), view.console.join('\n'));
+    assert.ok(
+      view.console.some((l) => l.includes('ignored a message')),
+      view.console.join('\n'),
+    );
   });
 
   it('shows the first diagnostic of a block with errors instead of a stale chart', async () => {
@@ -146,7 +163,10 @@ describe('curve view messages and controls (headless Chromium)', function () {
     const g = await geometry(view.page, 'beta-chart');
     const i = Math.floor(p.curve.energy.length / 3);
     const [px] = await pixelsAround(view.page, 'beta-chart', [toPixel(g, p.curve.energy[i]!, p.curve.beta[i]!)], 1.5);
-    assert.ok(px!.some((q) => near(q, rgb(DARK.vars['--vscode-charts-blue']!))), 'dark theme blue on the curve');
+    assert.ok(
+      px!.some((q) => near(q, rgb(DARK.vars['--vscode-charts-blue']!))),
+      'dark theme blue on the curve',
+    );
     const [bg] = await pixelsAround(view.page, 'beta-chart', [[g.left + 2, g.bottom - 40]], 0);
     assert.ok(near(bg![0]!, rgb(DARK.vars['--vscode-editor-background']!), 2), `dark background, got ${bg![0]}`);
   });

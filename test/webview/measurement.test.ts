@@ -4,7 +4,11 @@ import { payloadOf, render } from './payloads';
 import { geometry, near, pixelsAround, toPixel, type ChartGeometry } from './pixels';
 
 /** The page's DOM as these tests touch it (the test files compile without the DOM library). */
-declare const document: { getElementById(id: string): { hidden: boolean; textContent: string | null; dataset: Record<string, string | undefined> } | null };
+declare const document: {
+  getElementById(
+    id: string,
+  ): { hidden: boolean; textContent: string | null; dataset: Record<string, string | undefined> } | null;
+};
 import { LIGHT, rgb } from './themes';
 
 // Ar I lines of the NIST Atomic Spectra Database (upper-level energies, g, A; vacuum λ), with intensities
@@ -16,7 +20,8 @@ const LINES = `lines:
   - { wavelength: 810.5921 nm, upper: 106087.2598 cm-1, g: 3, A: 2.5e7, intensity: 0.4458006 ± 0.022 }
   - { wavelength: 801.699 nm, upper: 105617.27 cm-1, g: 5, A: 9.3e6, intensity: 0.19934234 ± 0.01 }
   - { wavelength: 795.0362 nm, upper: 107131.7086 cm-1, g: 3, A: 1.86e7, intensity: 0.19398811 ± 0.01 }`;
-const SERIES = 'series:\n  model: decay\n  time: [0 s, 6 s, 12 s, 18 s, 24 s, 30 s]\n  signal: [1.0, 0.88, 0.78, 0.69, 0.6, 0.53]';
+const SERIES =
+  'series:\n  model: decay\n  time: [0 s, 6 s, 12 s, 18 s, 24 s, 30 s]\n  signal: [1.0, 0.88, 0.78, 0.69, 0.6, 0.53]';
 
 // The measurement chart under the curves: the Boltzmann plot of emission lines, a series with its fit.
 describe('curve view measurement plot (headless Chromium)', function () {
@@ -45,16 +50,28 @@ describe('curve view measurement plot (headless Chromium)', function () {
     assert.equal(p.plot!.points.filter((q) => q.flagged).length, 1, 'only the too-bright line is flagged');
     const before = await drawnCount();
     await view.post(render(p));
-    await view.page.waitForFunction((n) => Number(document.getElementById('measurement')!.dataset.drawn ?? 0) > n, before);
+    await view.page.waitForFunction(
+      (n) => Number(document.getElementById('measurement')!.dataset.drawn ?? 0) > n,
+      before,
+    );
     assert.equal(await view.page.evaluate(() => document.getElementById('measurement')!.hidden), false);
     const g = await geometryOf();
     assert.equal(g.kind, 'boltzmann');
     const red = rgb(LIGHT.vars['--vscode-charts-red']!);
     const plain = p.plot!.points.filter((q) => !q.flagged).map((q) => toPixel(g, q.x, q.y));
-    assert.ok(plain.length >= 4 && plain.every(([x, y]) => x > g.left && x < g.right && y > g.top && y < g.bottom), `points inside the plot area: ${JSON.stringify({ g, plain })}`);
+    assert.ok(
+      plain.length >= 4 && plain.every(([x, y]) => x > g.left && x < g.right && y > g.top && y < g.bottom),
+      `points inside the plot area: ${JSON.stringify({ g, plain })}`,
+    );
     const around = await pixelsAround(view.page, 'measurement-chart', plain, 2);
-    assert.ok(around.every((px) => px.some((q) => near(q, red))), 'a measured-colour dot at every unflagged line');
-    assert.match(await view.page.evaluate(() => document.getElementById('measurement-title')!.textContent ?? ''), /Boltzmann plot/);
+    assert.ok(
+      around.every((px) => px.some((q) => near(q, red))),
+      'a measured-colour dot at every unflagged line',
+    );
+    assert.match(
+      await view.page.evaluate(() => document.getElementById('measurement-title')!.textContent ?? ''),
+      /Boltzmann plot/,
+    );
   });
 
   it('draws a bare decay series with its fit, and hides the plot for a block without one', async () => {
@@ -63,7 +80,10 @@ describe('curve view measurement plot (headless Chromium)', function () {
     assert.equal(p.plot!.residuals.length, 6);
     const before = await drawnCount();
     await view.post(render(p));
-    await view.page.waitForFunction((n) => Number(document.getElementById('measurement')!.dataset.drawn ?? 0) > n, before);
+    await view.page.waitForFunction(
+      (n) => Number(document.getElementById('measurement')!.dataset.drawn ?? 0) > n,
+      before,
+    );
     assert.equal((await geometryOf()).kind, 'series');
     await view.post(render(payloadOf('gap: 10 K\nratio: 0.5', 'plain')));
     await view.page.waitForFunction(() => document.getElementById('measurement')!.hidden === true);

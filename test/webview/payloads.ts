@@ -2,7 +2,14 @@
  * Payloads for the view tests, built the way the server builds them: a
  * block's text through the core's Analyzer and `curveData`.
  */
-import { Analyzer, curveData, type CurvePayload, type PinnedRun, type RenderMessage, type ViewPayload } from '../../src/core';
+import {
+  Analyzer,
+  curveData,
+  type CurvePayload,
+  type PinnedRun,
+  type RenderMessage,
+  type ViewPayload,
+} from '../../src/core';
 
 const analyzer = new Analyzer();
 
@@ -32,7 +39,8 @@ export function render(current: ViewPayload | null, pinned: readonly PinnedRun[]
 export const TWO_LEVEL = 'id: two levels\ngap: 10 K\npopulations: [0.7 ± 0.01, 0.3 ± 0.01]\nlattice: 10 K';
 
 /** The same scheme with more population up: inverted. */
-export const TWO_LEVEL_INVERTED = 'id: two levels, inverted\ngap: 10 K\npopulations: [0.35 ± 0.01, 0.65 ± 0.01]\nlattice: 10 K';
+export const TWO_LEVEL_INVERTED =
+  'id: two levels, inverted\ngap: 10 K\npopulations: [0.35 ± 0.01, 0.65 ± 0.01]\nlattice: 10 K';
 
 /** Three levels in cm⁻¹, far from one temperature (the demo's pumped cell). */
 export const MULTI_LEVEL = [
@@ -44,7 +52,8 @@ export const MULTI_LEVEL = [
 ].join('\n');
 
 /** Two levels with N = 12 systems: a visible staircase. */
-export const FINITE_N = 'id: twelve spins\ngap: 4 GHz\npopulations: [0.75 ± 0.02, 0.25 ± 0.02]\nlattice: 0.1 K\ncount: 12';
+export const FINITE_N =
+  'id: twelve spins\ngap: 4 GHz\npopulations: [0.75 ± 0.02, 0.25 ± 0.02]\nlattice: 0.1 K\ncount: 12';
 
 /** A run series on one ¹³C scheme, for pinning. */
 export const SERIES = [0.312, 0.18, 0.05, -0.12].map(

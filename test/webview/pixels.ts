@@ -45,14 +45,21 @@ export function toPixel(g: ChartGeometry, x: number, y: number): [number, number
 }
 
 /** The pixels within `radius` CSS pixels around each point (a square), per point. */
-export async function pixelsAround(page: Page, id: string, points: readonly (readonly [number, number])[], radius: number): Promise<Pixel[][]> {
+export async function pixelsAround(
+  page: Page,
+  id: string,
+  points: readonly (readonly [number, number])[],
+  radius: number,
+): Promise<Pixel[][]> {
   const raw = await page.evaluate(
     ([canvasId, pts, rad]) => {
       const c = document.getElementById(canvasId);
       const ratio = c.width / c.clientWidth;
       const ctx = c.getContext('2d');
       const r = Math.round(rad * ratio);
-      return pts.map(([x, y]) => Array.from(ctx.getImageData(Math.round(x * ratio) - r, Math.round(y * ratio) - r, 2 * r + 1, 2 * r + 1).data));
+      return pts.map(([x, y]) =>
+        Array.from(ctx.getImageData(Math.round(x * ratio) - r, Math.round(y * ratio) - r, 2 * r + 1, 2 * r + 1).data),
+      );
     },
     [id, points, radius] as const,
   );
@@ -65,5 +72,7 @@ export async function pixelsAround(page: Page, id: string, points: readonly (rea
 
 /** True when an opaque pixel is within `tol` of the colour in every channel. */
 export function near(p: Pixel, rgb: readonly [number, number, number], tol = 4): boolean {
-  return p[3] === 255 && Math.abs(p[0] - rgb[0]) <= tol && Math.abs(p[1] - rgb[1]) <= tol && Math.abs(p[2] - rgb[2]) <= tol;
+  return (
+    p[3] === 255 && Math.abs(p[0] - rgb[0]) <= tol && Math.abs(p[1] - rgb[1]) <= tol && Math.abs(p[2] - rgb[2]) <= tol
+  );
 }

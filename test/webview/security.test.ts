@@ -4,7 +4,10 @@ import { curveOf, payloadOf, render, TWO_LEVEL, XSS_ID } from './payloads';
 import { LIGHT } from './themes';
 
 // Page-side names for the functions passed to the page (this module is typed without the DOM library).
-interface Violation { directive: string; blocked: string }
+interface Violation {
+  directive: string;
+  blocked: string;
+}
 declare const window: { __test: { violations: Violation[] }; __injected?: boolean; __fromNote?: boolean };
 declare const document: {
   createElement(tag: string): { textContent: string | null };
@@ -61,11 +64,16 @@ describe('curve view security (headless Chromium)', function () {
     await view.post(render(curveOf(TWO_LEVEL)));
     await view.drawn(2);
     assert.deepEqual(await view.page.evaluate(() => window.__test.violations), []);
-    assert.ok(requests.every((u) => u.startsWith(`${pages.origin}/`)), requests.join('\n'));
+    assert.ok(
+      requests.every((u) => u.startsWith(`${pages.origin}/`)),
+      requests.join('\n'),
+    );
   });
 
   it('blocks an injected inline script and reports the violation', async () => {
-    const csp = await view.page.evaluate(() => document.querySelector('meta[http-equiv="Content-Security-Policy"]')!.getAttribute('content'));
+    const csp = await view.page.evaluate(() =>
+      document.querySelector('meta[http-equiv="Content-Security-Policy"]')!.getAttribute('content'),
+    );
     assert.match(csp!, /default-src 'none'/);
     assert.match(csp!, new RegExp(`script-src 'nonce-${pages.nonces.at(-1)!.replace(/[+/=]/g, '\\$&')}'`));
     assert.doesNotMatch(csp!, /unsafe-inline|unsafe-eval/);
@@ -84,7 +92,9 @@ describe('curve view security (headless Chromium)', function () {
   it('gives every page load a fresh nonce', async () => {
     const before = pages.nonces.length;
     await view.page.reload();
-    await view.page.waitForFunction(() => document.querySelector('meta[http-equiv="Content-Security-Policy"]') !== null);
+    await view.page.waitForFunction(
+      () => document.querySelector('meta[http-equiv="Content-Security-Policy"]') !== null,
+    );
     assert.equal(pages.nonces.length, before + 1);
     assert.equal(new Set(pages.nonces).size, pages.nonces.length, 'no nonce repeats');
     assert.match(pages.nonces.at(-1)!, /^[A-Za-z0-9+/]{22}==$/, '128 bits, base64');

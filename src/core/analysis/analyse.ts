@@ -37,10 +37,10 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   const energies = input.levels.map((l) => l.energy);
   const g = input.levels.map((l) => l.g);
   // Emission lines sample only the upper levels: their "fractions" are not a distribution.
-  const fractions = input.lines ? null : finding.fractions ?? impliedFractions(energies, g, finding);
+  const fractions = input.lines ? null : (finding.fractions ?? impliedFractions(energies, g, finding));
   const beta = finding.beta;
   const temperature = temperatureOf(beta, finding.limit);
-  const polarization = input.lines ? null : finding.polarization ?? polarizationOf(effective, fractions);
+  const polarization = input.lines ? null : (finding.polarization ?? polarizationOf(effective, fractions));
   const thermalPolarization = thermalPolarizationOf(input);
   const enhancement = polarization && thermalPolarization ? polarization.value / thermalPolarization : null;
   const outliers = lineOutliers(input, finding.fit, problems);
@@ -75,7 +75,14 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
 const NONE: readonly never[] = Object.freeze([]);
 
 /** What a block without populations or polarization (a bare series) finds. */
-const NOTHING_MEASURED: BetaFinding = { beta: null, limit: null, fit: null, fractions: null, polarization: null, problems: [] };
+const NOTHING_MEASURED: BetaFinding = {
+  beta: null,
+  limit: null,
+  fit: null,
+  fractions: null,
+  polarization: null,
+  problems: [],
+};
 
 function hasMeasurement(input: BlockInput): boolean {
   return input.polarization !== null || input.levels.some((l) => l.population !== null);
@@ -102,9 +109,21 @@ function findBeta(input: BlockInput, problems: Problem[]): BetaFinding {
 function fromPolarization(input: BlockInput, problems: Problem[]): BetaFinding {
   const spin = input.spin!;
   const p = input.polarization!;
-  const base: BetaFinding = { beta: null, limit: null, fit: null, fractions: null, polarization: { value: p.value, uncertainty: p.uncertainty }, problems: [] };
+  const base: BetaFinding = {
+    beta: null,
+    limit: null,
+    fit: null,
+    fractions: null,
+    polarization: { value: p.value, uncertainty: p.uncertainty },
+    problems: [],
+  };
   if (Math.abs(p.value) === 1) {
-    problems.push({ severity: 'info', code: 'temperature-zero', message: `|P| = 1: every spin is in one level, so T → 0${p.value > 0 ? '⁺' : '⁻'} (β → ${p.value > 0 ? '+' : '−'}∞).`, span: p.span });
+    problems.push({
+      severity: 'info',
+      code: 'temperature-zero',
+      message: `|P| = 1: every spin is in one level, so T → 0${p.value > 0 ? '⁺' : '⁻'} (β → ${p.value > 0 ? '+' : '−'}∞).`,
+      span: p.span,
+    });
     return { ...base, limit: p.value > 0 ? 'zero-positive' : 'zero-negative' };
   }
   const I = spin.species.spin;

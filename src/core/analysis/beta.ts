@@ -46,9 +46,20 @@ export function measureTwoLevels(input: BlockInput): BetaFinding {
         : 'The lower level is empty: all population is in the upper level, so T → 0⁻ (β → −∞), a complete inversion.',
       span,
     });
-    return { beta: null, limit: positive ? 'zero-positive' : 'zero-negative', fit: null, fractions, polarization: null, problems };
+    return {
+      beta: null,
+      limit: positive ? 'zero-positive' : 'zero-negative',
+      fit: null,
+      fractions,
+      polarization: null,
+      problems,
+    };
   }
-  const beta = betaFromPopulations(nl, nu, lo.g, up.g, gap, { nLower: lo.uPopulation, nUpper: up.uPopulation, gap: input.uGap });
+  const beta = betaFromPopulations(nl, nu, lo.g, up.g, gap, {
+    nLower: lo.uPopulation,
+    nUpper: up.uPopulation,
+    gap: input.uGap,
+  });
   return { beta, limit: null, fit: null, fractions, polarization: null, problems };
 }
 
@@ -67,7 +78,12 @@ export function fitManyLevels(input: BlockInput): BetaFinding {
   for (let i = 0; i < levels.length; i++) {
     const l = levels[i]!;
     if (l.population === 0) {
-      problems.push({ severity: 'info', code: 'population-zero-excluded', message: 'This level is empty; ln(n/g) is undefined there, so it is left out of the Boltzmann fit.', span: l.populationSpan ?? { start: 0, end: 1 } });
+      problems.push({
+        severity: 'info',
+        code: 'population-zero-excluded',
+        message: 'This level is empty; ln(n/g) is undefined there, so it is left out of the Boltzmann fit.',
+        span: l.populationSpan ?? { start: 0, end: 1 },
+      });
     }
     if (!((l.population ?? 0) > 0)) continue;
     used.push(i);
@@ -81,15 +97,34 @@ export function fitManyLevels(input: BlockInput): BetaFinding {
     const allLow = used.every((i) => levels[i]!.energy === levels[0]!.energy);
     const allHigh = used.every((i) => levels[i]!.energy === levels[levels.length - 1]!.energy);
     const limit = allLow ? 'zero-positive' : allHigh ? 'zero-negative' : null;
-    problems.push({ severity: 'info', code: 'temperature-zero', message: 'Only one energy holds population, so no finite temperature fits the levels.', span: (used.length > 0 ? levels[used[0]!]!.populationSpan : null) ?? { start: 0, end: 1 } });
+    problems.push({
+      severity: 'info',
+      code: 'temperature-zero',
+      message: 'Only one energy holds population, so no finite temperature fits the levels.',
+      span: (used.length > 0 ? levels[used[0]!]!.populationSpan : null) ?? { start: 0, end: 1 },
+    });
     return { beta: null, limit, fit: null, fractions, polarization: null, problems };
   }
   const fit = boltzmannFit(energies, populations, g, hasU ? u : null);
   if (!fit) return { beta: null, limit: null, fit: null, fractions, polarization: null, problems };
   const residuals: (number | null)[] = levels.map(() => null);
   for (let k = 0; k < used.length; k++) residuals[used[k]!] = fit.residuals[k]!;
-  const summary: FitSummary = { chi2: fit.chi2, dof: fit.dof, weighted: fit.weighted, consistent: fit.consistent, residuals, critical: fit.chi2Limit };
-  return { beta: { value: fit.beta, uncertainty: fit.uBeta }, limit: null, fit: summary, fractions, polarization: null, problems };
+  const summary: FitSummary = {
+    chi2: fit.chi2,
+    dof: fit.dof,
+    weighted: fit.weighted,
+    consistent: fit.consistent,
+    residuals,
+    critical: fit.chi2Limit,
+  };
+  return {
+    beta: { value: fit.beta, uncertainty: fit.uBeta },
+    limit: null,
+    fit: summary,
+    fractions,
+    polarization: null,
+    problems,
+  };
 }
 
 /** True when the energies hold at least two distinct values (as a Set counts them: NaN equals NaN, −0 equals +0). */

@@ -20,19 +20,34 @@ export const LINE_OUTLIER_SIGMA = 3;
 export function measureSeries(input: BlockInput, problems: Problem[]): SeriesFit | null {
   const s = input.series;
   if (!s) return null;
-  const fit = s.model === 'decay' ? fitDecay(s.times, s.signals, s.flip, s.uSignals) : fitBuildup(s.times, s.signals, s.uSignals);
+  const fit =
+    s.model === 'decay' ? fitDecay(s.times, s.signals, s.flip, s.uSignals) : fitBuildup(s.times, s.signals, s.uSignals);
   if (!fit || !fit.converged) {
-    problems.push({ severity: 'warning', code: 'series-no-convergence', message: `series: the ${s.model} fit did not converge; check that the data follow the model (and the sign and units of the times).`, span: s.span });
+    problems.push({
+      severity: 'warning',
+      code: 'series-no-convergence',
+      message: `series: the ${s.model} fit did not converge; check that the data follow the model (and the sign and units of the times).`,
+      span: s.span,
+    });
     return fit && Number.isFinite(fit.timeConstant.value) && fit.timeConstant.value > 0 ? fit : null;
   }
   if (fit.dof === 0) {
-    problems.push({ severity: 'warning', code: 'series-too-short', message: `series: ${s.times.length} points fix the ${s.model} model's ${s.times.length} parameters exactly; add points to get standard uncertainties.`, span: s.span });
+    problems.push({
+      severity: 'warning',
+      code: 'series-too-short',
+      message: `series: ${s.times.length} points fix the ${s.model} model's ${s.times.length} parameters exactly; add points to get standard uncertainties.`,
+      span: s.span,
+    });
   }
   return fit;
 }
 
 /** Polarization from the signal and its thermal reference (the series amplitude stands in for a missing hyperpolarized signal). */
-export function measureSignal(input: BlockInput, series: SeriesFit | null, problems: Problem[]): { result: SignalResult; polarization: ReadValue } | null {
+export function measureSignal(
+  input: BlockInput,
+  series: SeriesFit | null,
+  problems: Problem[],
+): { result: SignalResult; polarization: ReadValue } | null {
   const sig = input.signal;
   const spin = input.spin;
   const T = input.lattice?.value;
@@ -54,7 +69,12 @@ export function measureSignal(input: BlockInput, series: SeriesFit | null, probl
   );
   const p = referencedPolarization(pThermal, hp, uHp, sig.thermal, sig.uThermal, factor);
   if (!(Math.abs(p.value) < 1)) {
-    problems.push({ severity: 'error', code: 'signal-polarization-range', message: `signal: the referenced polarization comes out as ${p.value.toPrecision(3)}, beyond ±1; check scans, gains, flip angles and the lattice temperature.`, span: sig.span });
+    problems.push({
+      severity: 'error',
+      code: 'signal-polarization-range',
+      message: `signal: the referenced polarization comes out as ${p.value.toPrecision(3)}, beyond ±1; check scans, gains, flip angles and the lattice temperature.`,
+      span: sig.span,
+    });
     return null;
   }
   return {
@@ -70,8 +90,14 @@ export function measureGain(input: BlockInput): GainResult | null {
   const [lo, up] = input.levels;
   const g0 = gainCoefficient(gi.crossSection, lo.population!, up.population!, lo.g, up.g);
   const single = gi.length !== null ? singlePassGain(g0, gi.length) : null;
-  const threshold = gi.length !== null && gi.mirrors ? thresholdGain(gi.loss, gi.mirrors[0], gi.mirrors[1], gi.length) : null;
-  return { coefficient: g0, singlePass: single !== null && Number.isFinite(single) ? single : null, threshold, aboveThreshold: threshold === null ? null : g0 > threshold };
+  const threshold =
+    gi.length !== null && gi.mirrors ? thresholdGain(gi.loss, gi.mirrors[0], gi.mirrors[1], gi.length) : null;
+  return {
+    coefficient: g0,
+    singlePass: single !== null && Number.isFinite(single) ? single : null,
+    threshold,
+    aboveThreshold: threshold === null ? null : g0 > threshold,
+  };
 }
 
 /** Warns on each emission line more than {@link LINE_OUTLIER_SIGMA} standard deviations off the fitted line. */
@@ -85,7 +111,12 @@ export function lineOutliers(input: BlockInput, fit: FitSummary | null, problems
     const sigma = fit.weighted && l.uPopulation !== null && l.population ? l.uPopulation / l.population : scatter;
     if (r === null || !sigma || !(Math.abs(r) > LINE_OUTLIER_SIGMA * sigma)) return;
     out.push(i);
-    problems.push({ severity: 'warning', code: 'line-outlier', message: `This line lies ${(Math.abs(r) / sigma).toFixed(1)} σ off the Boltzmann line (more than ${LINE_OUTLIER_SIGMA} σ): self-absorption, a blend, or a wrong A or g?`, span: l.span! });
+    problems.push({
+      severity: 'warning',
+      code: 'line-outlier',
+      message: `This line lies ${(Math.abs(r) / sigma).toFixed(1)} σ off the Boltzmann line (more than ${LINE_OUTLIER_SIGMA} σ): self-absorption, a blend, or a wrong A or g?`,
+      span: l.span!,
+    });
   });
   return out;
 }

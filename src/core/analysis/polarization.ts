@@ -19,9 +19,16 @@ export function polarizationOf(input: BlockInput, fractions: readonly number[] |
     return { value: fractions[0] - fractions[1], uncertainty: null };
   }
   const pops = raw as number[];
-  if (input.spin) return spinPolarizationFromPopulations(pops, levels.map((l) => l.uPopulation));
+  if (input.spin)
+    return spinPolarizationFromPopulations(
+      pops,
+      levels.map((l) => l.uPopulation),
+    );
   if (levels.length !== 2) return null;
-  return polarizationFromPopulations(pops[0], pops[1], { nLower: levels[0].uPopulation, nUpper: levels[1].uPopulation });
+  return polarizationFromPopulations(pops[0], pops[1], {
+    nLower: levels[0].uPopulation,
+    nUpper: levels[1].uPopulation,
+  });
 }
 
 /** Thermal-equilibrium polarization at `lattice` (Brillouin function for spins; Boltzmann factors with degeneracies for two levels). */
@@ -30,6 +37,10 @@ export function thermalPolarizationOf(input: BlockInput): number | null {
   if (T === undefined || !(T > 0)) return null;
   if (input.spin) return thermalSpinPolarization(input.spin.species.spin, input.spin.spacing, T);
   if (input.levels.length !== 2) return null;
-  const p = thermalDistribution(input.levels.map((l) => l.energy), input.levels.map((l) => l.g), 1 / T);
+  const p = thermalDistribution(
+    input.levels.map((l) => l.energy),
+    input.levels.map((l) => l.g),
+    1 / T,
+  );
   return p ? p[0] - p[1] : null;
 }

@@ -37,7 +37,12 @@ export interface AnalyzerOptions extends AnalysisOptions {
 }
 
 /** The contract's defaults. */
-export const DEFAULT_ANALYZER_OPTIONS: AnalyzerOptions = { ...DEFAULT_ANALYSIS_OPTIONS, infoStrings: [], cacheSize: 20_000, limits: UNBOUNDED };
+export const DEFAULT_ANALYZER_OPTIONS: AnalyzerOptions = {
+  ...DEFAULT_ANALYSIS_OPTIONS,
+  infoStrings: [],
+  cacheSize: 20_000,
+  limits: UNBOUNDED,
+};
 
 /** Where a bounded analysis stopped: the first block not read, and the bound it would have passed. */
 export interface Bounded {
@@ -108,7 +113,11 @@ export class Analyzer {
 
   /** True when a fence's info string marks one of our blocks. */
   isLevelsFence(block: FencedBlock): boolean {
-    return block.language === 'levels' || this.options.infoStrings.includes(block.language) || this.options.infoStrings.includes(block.info);
+    return (
+      block.language === 'levels' ||
+      this.options.infoStrings.includes(block.language) ||
+      this.options.infoStrings.includes(block.info)
+    );
   }
 
   /**
@@ -159,7 +168,11 @@ export class Analyzer {
         // The bound is checked on the body's length before the block is read.
         if (blocks.length >= maxBlocks || bodyChars + block.body.length > maxBodyChars) {
           bodyChars += block.body.length;
-          bounded = { offset: block.openStart, line: block.openLine, reason: blocks.length >= maxBlocks ? 'blocks' : 'size' };
+          bounded = {
+            offset: block.openStart,
+            line: block.openLine,
+            reason: blocks.length >= maxBlocks ? 'blocks' : 'size',
+          };
           open = false;
           break;
         }
@@ -206,11 +219,24 @@ export class Analyzer {
       const interp = interpretBody(body);
       const results = interp.input ? analyse(interp.input, this.options) : null;
       const all = [...interp.problems, ...(results?.problems ?? [])];
-      const problems = all.length > 1 ? all.sort((a, b) => a.span.start - b.span.start) : all.length === 1 ? all : NO_PROBLEMS;
+      const problems =
+        all.length > 1 ? all.sort((a, b) => a.span.start - b.span.start) : all.length === 1 ? all : NO_PROBLEMS;
       return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems };
     } catch (err) {
-      const problem: Problem = { severity: 'error', code: 'internal-error', message: `Boltzmark failed on this block: ${(err as Error).message}. Please report it.`, span: { start: 0, end: Math.max(1, body.length) } };
-      return { body, used: this.generation, meta: { id: null, idSpan: null, keys: new Map(), date: null }, input: null, results: null, problems: [problem] };
+      const problem: Problem = {
+        severity: 'error',
+        code: 'internal-error',
+        message: `Boltzmark failed on this block: ${(err as Error).message}. Please report it.`,
+        span: { start: 0, end: Math.max(1, body.length) },
+      };
+      return {
+        body,
+        used: this.generation,
+        meta: { id: null, idSpan: null, keys: new Map(), date: null },
+        input: null,
+        results: null,
+        problems: [problem],
+      };
     }
   }
 
@@ -238,7 +264,12 @@ function ownCopy(s: string): string {
 function moved(f: Fence, delta: number, lines: number): Fence {
   if (delta === 0 && lines === 0) return f;
   const r = f.report;
-  return { openStart: f.openStart + delta, openLine: f.openLine + lines, report: r && report(movedBlock(r.block, delta, lines), f.entry!), entry: f.entry };
+  return {
+    openStart: f.openStart + delta,
+    openLine: f.openLine + lines,
+    report: r && report(movedBlock(r.block, delta, lines), f.entry!),
+    entry: f.entry,
+  };
 }
 
 /**
@@ -266,16 +297,27 @@ function report(found: FencedBlock, c: Cached): BlockReport {
     span: spanToNote(block, p.span),
     ...(p.fixes ? { fixes: p.fixes.map((f) => ({ ...f, span: spanToNote(block, f.span) })) } : {}),
   }));
-  const unclosed: Problem | null = block.closeLine !== null ? null : {
-    severity: 'warning',
-    code: 'fence-unclosed',
-    message: 'This block has no closing fence, so it runs to the end of the note.',
-    span: { start: block.openStart, end: block.openEnd },
-  };
+  const unclosed: Problem | null =
+    block.closeLine !== null
+      ? null
+      : {
+          severity: 'warning',
+          code: 'fence-unclosed',
+          message: 'This block has no closing fence, so it runs to the end of the note.',
+          span: { start: block.openStart, end: block.openEnd },
+        };
   const problems: readonly Problem[] = unclosed ? [unclosed, ...mapped] : mapped.length > 0 ? mapped : NO_PROBLEMS;
   const hasError = problems.some((p) => p.severity === 'error');
   const status: Status = hasError || !c.results ? 'invalid' : c.results.status;
-  return { block, meta: c.meta, input: c.input, results: hasError ? null : c.results, status, problems, toNote: reportToNote };
+  return {
+    block,
+    meta: c.meta,
+    input: c.input,
+    results: hasError ? null : c.results,
+    status,
+    problems,
+    toNote: reportToNote,
+  };
 }
 
 /**

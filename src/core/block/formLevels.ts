@@ -10,17 +10,28 @@ import { LEVEL_KEY_NAMES } from './schema';
 import { nonEmpty, readInteger, readList, readQuantity, readText, report, type ReadContext } from './values';
 import { entries, isMap, spanOf, type Entry } from './yamlTree';
 
-
 /** Reads the `levels` list; levels come back sorted by energy, lowest first. */
 export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): FormRead | null {
   const e = byKey.get('levels')!;
   if (byKey.has('populations')) {
-    report(ctx, 'error', 'populations-misplaced', 'With explicit `levels`, give each level its own `population:` instead of a `populations` list.', byKey.get('populations')!.keySpan);
+    report(
+      ctx,
+      'error',
+      'populations-misplaced',
+      'With explicit `levels`, give each level its own `population:` instead of a `populations` list.',
+      byKey.get('populations')!.keySpan,
+    );
   }
   const items = readList(ctx, e.value, 'levels', e.valueSpan);
   if (!items) return null;
   if (items.length < 2) {
-    report(ctx, 'error', 'levels-too-few', `levels: at least two levels are needed; ${items.length} given.`, nonEmpty(e.valueSpan));
+    report(
+      ctx,
+      'error',
+      'levels-too-few',
+      `levels: at least two levels are needed; ${items.length} given.`,
+      nonEmpty(e.valueSpan),
+    );
     return null;
   }
   const unit = firstEnergyUnit(ctx, items) ?? 'cm-1';
@@ -37,11 +48,23 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
   // a copy at the final length: the list grown by push keeps spare room, and this one stays cached with the block.
   const sorted = ascendingEnergies(levels) ? levels.slice() : [...levels].sort((a, b) => a.energy - b.energy);
   if (sorted[0].energy === sorted[sorted.length - 1].energy) {
-    report(ctx, 'error', 'energy-equal', 'levels: all levels have the same energy, so no temperature can be defined.', nonEmpty(e.valueSpan));
+    report(
+      ctx,
+      'error',
+      'energy-equal',
+      'levels: all levels have the same energy, so no temperature can be defined.',
+      nonEmpty(e.valueSpan),
+    );
     return null;
   }
   if (sorted.every((l) => l.population === 0)) {
-    report(ctx, 'error', 'populations-zero', 'levels: all populations are zero, so nothing can be computed.', nonEmpty(e.valueSpan));
+    report(
+      ctx,
+      'error',
+      'populations-zero',
+      'levels: all populations are zero, so nothing can be computed.',
+      nonEmpty(e.valueSpan),
+    );
     return null;
   }
   return { form: 'levels', levels: sorted, energyUnit: unit, spin: null, polarization: null, ratio: null, uGap: null };
@@ -57,7 +80,9 @@ function firstEnergyUnit(ctx: ReadContext, items: unknown[]): string | null {
   for (const item of items) {
     const energy = entries(item).find((x) => x.key === 'energy');
     const t = energy ? readText(ctx, energy.value) : null;
-    const m = t ? /^\s*[-+]?[\d.]+(?:[eE][-+]?\d+)?\s*(?:(?:±|\+-)\s*[\d.]+(?:[eE][-+]?\d+)?\s*)?([^\s\d].*?)\s*$/.exec(t.text) : null;
+    const m = t
+      ? /^\s*[-+]?[\d.]+(?:[eE][-+]?\d+)?\s*(?:(?:±|\+-)\s*[\d.]+(?:[eE][-+]?\d+)?\s*)?([^\s\d].*?)\s*$/.exec(t.text)
+      : null;
     if (m) return m[1];
   }
   return null;
@@ -67,7 +92,13 @@ function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): Le
   const span = spanOf(item);
   const subject = `levels[${i}]`;
   if (!isMap(item)) {
-    report(ctx, 'error', 'level-not-mapping', `${subject}: each level is a mapping such as \`{ energy: 120 cm-1, g: 3, population: 0.25 }\`.`, nonEmpty(span ?? { start: 0, end: 0 }));
+    report(
+      ctx,
+      'error',
+      'level-not-mapping',
+      `${subject}: each level is a mapping such as \`{ energy: 120 cm-1, g: 3, population: 0.25 }\`.`,
+      nonEmpty(span ?? { start: 0, end: 0 }),
+    );
     return null;
   }
   const byKey = new Map(entries(item).map((x) => [x.key, x] as const));
@@ -109,7 +140,12 @@ function descendingNote(ctx: ReadContext, e: Entry, items: unknown[], levels: Le
   const seps = s.slice(1).map((x, i) => ctx.body.slice(s[i].end, x.start));
   let newText = texts[texts.length - 1];
   for (let i = 0; i < seps.length; i++) newText += seps[i] + texts[texts.length - 2 - i];
-  report(ctx, 'info', 'levels-descending', 'The levels are listed from the highest energy down; they are read correctly, but lowest first matches the populations lists of the other forms.', e.keySpan, [
-    { title: 'List the levels lowest energy first', span: { start: s[0].start, end: s[s.length - 1].end }, newText },
-  ]);
+  report(
+    ctx,
+    'info',
+    'levels-descending',
+    'The levels are listed from the highest energy down; they are read correctly, but lowest first matches the populations lists of the other forms.',
+    e.keySpan,
+    [{ title: 'List the levels lowest energy first', span: { start: s[0].start, end: s[s.length - 1].end }, newText }],
+  );
 }

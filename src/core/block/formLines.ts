@@ -9,7 +9,17 @@
 import type { FormRead, LevelInput, LineInput } from './input';
 import { LINE_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
-import { nonEmpty, readInteger, readList, readNumber, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
+import {
+  nonEmpty,
+  readInteger,
+  readList,
+  readNumber,
+  readQuantity,
+  readText,
+  report,
+  type ReadContext,
+  type ReadValue,
+} from './values';
 import { entries, isMap, spanOf, type Entry } from './yamlTree';
 
 const KEYS = new Set(LINE_KEYS.map((k) => k.key));
@@ -21,7 +31,13 @@ export function readLinesForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry
   const items = readList(ctx, e.value, 'lines', e.valueSpan);
   if (!items || !detector) return null;
   if (items.length < 2) {
-    report(ctx, 'error', 'lines-too-few', `lines: a Boltzmann plot needs at least two lines; ${items.length} given.`, nonEmpty(e.valueSpan));
+    report(
+      ctx,
+      'error',
+      'lines-too-few',
+      `lines: a Boltzmann plot needs at least two lines; ${items.length} given.`,
+      nonEmpty(e.valueSpan),
+    );
     return null;
   }
   const lines: LineInput[] = [];
@@ -34,48 +50,98 @@ export function readLinesForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry
     if (line?.species) {
       if (species === null) species = { name: line.species.text };
       else if (line.species.text !== species.name) {
-        report(ctx, 'error', 'lines-mixed-species', `lines[${i}]: species \`${line.species.text}\` differs from \`${species.name}\`; a Boltzmann plot takes the lines of one species only.`, line.species.span);
+        report(
+          ctx,
+          'error',
+          'lines-mixed-species',
+          `lines[${i}]: species \`${line.species.text}\` differs from \`${species.name}\`; a Boltzmann plot takes the lines of one species only.`,
+          line.species.span,
+        );
         ok = false;
       }
     }
   });
   if (!ok) return null;
   if (new Set(lines.map((l) => l.upper)).size < 2) {
-    report(ctx, 'error', 'energy-equal', 'lines: all lines share one upper-level energy, so the plot has no slope.', nonEmpty(e.valueSpan));
+    report(
+      ctx,
+      'error',
+      'energy-equal',
+      'lines: all lines share one upper-level energy, so the plot has no slope.',
+      nonEmpty(e.valueSpan),
+    );
     return null;
   }
   const levels: LevelInput[] = lines
     .map((l) => {
       const scale = detector === 'energy' ? l.wavelength! / l.A : 1 / l.A;
-      return { label: l.label, energy: l.upper, g: l.g, population: l.intensity * scale, uPopulation: l.uIntensity === null ? null : l.uIntensity * scale, span: l.span, populationSpan: l.span };
+      return {
+        label: l.label,
+        energy: l.upper,
+        g: l.g,
+        population: l.intensity * scale,
+        uPopulation: l.uIntensity === null ? null : l.uIntensity * scale,
+        span: l.span,
+        populationSpan: l.span,
+      };
     })
     .sort((a, b) => a.energy - b.energy);
-  return { form: 'lines', levels, energyUnit: 'eV', spin: null, polarization: null, ratio: null, uGap: null, lines: { detector, lines } };
+  return {
+    form: 'lines',
+    levels,
+    energyUnit: 'eV',
+    spin: null,
+    polarization: null,
+    ratio: null,
+    uGap: null,
+    lines: { detector, lines },
+  };
 }
 
 function readDetector(ctx: ReadContext, e: Entry | undefined): 'energy' | 'photon' | null {
   if (!e) return 'energy';
   const t = readText(ctx, e.value);
   if (t && (t.text === 'energy' || t.text === 'photon')) return t.text;
-  report(ctx, 'error', 'detector-unknown', 'detector: use `energy` (energy-calibrated intensities) or `photon` (photon counting).', t?.span ?? e.keySpan);
+  report(
+    ctx,
+    'error',
+    'detector-unknown',
+    'detector: use `energy` (energy-calibrated intensities) or `photon` (photon counting).',
+    t?.span ?? e.keySpan,
+  );
   return null;
 }
 
-function readLine(ctx: ReadContext, item: unknown, i: number, detector: 'energy' | 'photon'): { line: LineInput; species: { text: string; span: { start: number; end: number } } | null } | null {
+function readLine(
+  ctx: ReadContext,
+  item: unknown,
+  i: number,
+  detector: 'energy' | 'photon',
+): { line: LineInput; species: { text: string; span: { start: number; end: number } } | null } | null {
   const subject = `lines[${i}]`;
   const span = nonEmpty(spanOf(item) ?? { start: 0, end: 0 });
   if (!isMap(item)) {
-    report(ctx, 'error', 'line-not-mapping', `${subject}: each line is a mapping such as \`{ wavelength: 696.54 nm, upper: 13.328 eV, g: 3, A: 6.39e6, intensity: 1520 }\`.`, span);
+    report(
+      ctx,
+      'error',
+      'line-not-mapping',
+      `${subject}: each line is a mapping such as \`{ wavelength: 696.54 nm, upper: 13.328 eV, g: 3, A: 6.39e6, intensity: 1520 }\`.`,
+      span,
+    );
     return null;
   }
   const byKey = new Map(entries(item).map((x) => [x.key, x] as const));
   for (const x of byKey.values()) if (!KEYS.has(x.key)) unknownKey(ctx, x, KEYS);
   const need = (key: string, why: string): Entry | undefined => {
     const x = byKey.get(key);
-    if (!x) report(ctx, 'error', `line-${key.toLowerCase()}-missing`, `${subject}: \`${key}\` is missing (${why}).`, span);
+    if (!x)
+      report(ctx, 'error', `line-${key.toLowerCase()}-missing`, `${subject}: \`${key}\` is missing (${why}).`, span);
     return x;
   };
-  const we = detector === 'energy' ? need('wavelength', 'energy-calibrated intensities need λ; use `detector: photon` for photon counts') : byKey.get('wavelength');
+  const we =
+    detector === 'energy'
+      ? need('wavelength', 'energy-calibrated intensities need λ; use `detector: photon` for photon counts')
+      : byKey.get('wavelength');
   const ue = need('upper', 'the upper-level energy');
   const ge = need('g', 'the upper level’s degeneracy');
   const ae = need('A', 'the transition probability in s⁻¹');
@@ -87,9 +153,20 @@ function readLine(ctx: ReadContext, item: unknown, i: number, detector: 'energy'
   const intensity = ie ? readIntensity(ctx, ie.value, byKey.get('uncertainty'), subject) : null;
   const label = byKey.get('label') ? readText(ctx, byKey.get('label')!.value) : null;
   const species = byKey.get('species') ? readText(ctx, byKey.get('species')!.value) : null;
-  if (A && !(A.value > 0)) report(ctx, 'error', 'line-a-invalid', `${subject}.A: a transition probability must be positive.`, A.span);
-  if (wavelength && !(wavelength.value > 0)) report(ctx, 'error', 'line-wavelength-invalid', `${subject}.wavelength must be positive.`, wavelength.span);
-  if ((we && !wavelength) || !upper || !g || !A || !(A.value > 0) || !intensity || (wavelength && !(wavelength.value > 0))) return null;
+  if (A && !(A.value > 0))
+    report(ctx, 'error', 'line-a-invalid', `${subject}.A: a transition probability must be positive.`, A.span);
+  if (wavelength && !(wavelength.value > 0))
+    report(ctx, 'error', 'line-wavelength-invalid', `${subject}.wavelength must be positive.`, wavelength.span);
+  if (
+    (we && !wavelength) ||
+    !upper ||
+    !g ||
+    !A ||
+    !(A.value > 0) ||
+    !intensity ||
+    (wavelength && !(wavelength.value > 0))
+  )
+    return null;
   return {
     line: {
       label: label?.text ?? null,
@@ -110,14 +187,26 @@ function readIntensity(ctx: ReadContext, node: unknown, sibling: Entry | undefin
   const v = readNumber(ctx, node, `${subject}.intensity`);
   if (!v) return null;
   if (!(v.value > 0)) {
-    report(ctx, 'error', 'line-intensity-invalid', `${subject}.intensity: must be positive (its logarithm is plotted).`, v.span);
+    report(
+      ctx,
+      'error',
+      'line-intensity-invalid',
+      `${subject}.intensity: must be positive (its logarithm is plotted).`,
+      v.span,
+    );
     return null;
   }
   if (!sibling) return v;
   const u = readNumber(ctx, sibling.value, `${subject}.uncertainty`);
   if (!u) return null;
   if (v.uncertainty !== null) {
-    report(ctx, 'error', 'uncertainty-twice', `${subject}.intensity already carries ±; remove one of the two.`, sibling.keySpan);
+    report(
+      ctx,
+      'error',
+      'uncertainty-twice',
+      `${subject}.intensity already carries ±; remove one of the two.`,
+      sibling.keySpan,
+    );
     return null;
   }
   if (u.value < 0) {

@@ -7,13 +7,18 @@ import { KELVIN_PER_HERTZ } from '../quantities/constants';
 import { electronWithGFactor, lookupSpecies, zeemanSpacingKelvin, type SpinSpecies } from '../quantities/isotopes';
 import type { FormRead, LevelInput, SignalInput, SpinInput } from './input';
 import { readSignal } from './signal';
-import { bothGiven, measurementMissing, readPopulation, readPopulationList, withSiblingUncertainty } from './populations';
+import {
+  bothGiven,
+  measurementMissing,
+  readPopulation,
+  readPopulationList,
+  withSiblingUncertainty,
+} from './populations';
 import { readList, readNumber, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
 import type { Entry } from './yamlTree';
 
 /** Field and frequency may disagree by this fraction before a warning (the contract's 1 %). */
 export const FIELD_FREQUENCY_TOLERANCE = 0.01;
-
 
 /** Reads `system`, `field`/`frequency` and `populations`/`polarization`. */
 export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): FormRead | null {
@@ -38,7 +43,16 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
       populationSpan: pop ? pop.span : null,
     };
   }
-  return { form: 'spin', levels, energyUnit: 'MHz', spin, polarization: measured.polarization, ratio: null, uGap: spin.uSpacing, signal: measured.signal };
+  return {
+    form: 'spin',
+    levels,
+    energyUnit: 'MHz',
+    spin,
+    polarization: measured.polarization,
+    ratio: null,
+    uGap: spin.uSpacing,
+    signal: measured.signal,
+  };
 }
 
 /** Labels already made, by spin and sign of γ (a notebook uses a handful of species). */
@@ -73,15 +87,25 @@ function readSpecies(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): SpinS
   }
   const found = lookupSpecies(t.text);
   if (!('species' in found)) {
-    const fixes = found.suggestion ? [{ title: `Change to ${found.suggestion}`, span: t.span, newText: found.suggestion }] : [];
-    const hint = found.suggestion ? ` Did you mean \`${found.suggestion}\`?` : ' Write the mass number first, as in `13C`.';
+    const fixes = found.suggestion
+      ? [{ title: `Change to ${found.suggestion}`, span: t.span, newText: found.suggestion }]
+      : [];
+    const hint = found.suggestion
+      ? ` Did you mean \`${found.suggestion}\`?`
+      : ' Write the mass number first, as in `13C`.';
     report(ctx, 'error', 'isotope-unknown', `system: unknown isotope \`${t.text}\`.${hint}`, t.span, fixes);
     return null;
   }
   const gf = byKey.get('g-factor');
   if (!gf) return found.species;
   if (found.species.symbol !== 'electron') {
-    report(ctx, 'error', 'g-factor-not-electron', '`g-factor` applies to `system: electron` only; nuclei use the isotope table.', gf.keySpan);
+    report(
+      ctx,
+      'error',
+      'g-factor-not-electron',
+      '`g-factor` applies to `system: electron` only; nuclei use the isotope table.',
+      gf.keySpan,
+    );
     return null;
   }
   const g = readNumber(ctx, gf.value, 'g-factor');
@@ -96,13 +120,32 @@ function readSpecies(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): SpinS
   return custom;
 }
 
-function readSplitting(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, species: SpinSpecies | null): SpinInput | null {
+function readSplitting(
+  ctx: ReadContext,
+  byKey: ReadonlyMap<string, Entry>,
+  species: SpinSpecies | null,
+): SpinInput | null {
   const fe = byKey.get('field');
   const qe = byKey.get('frequency');
-  const field = fe ? positive(ctx, readQuantity(ctx, fe.value, 'field', 'field', { suggestUnit: 'T' }), 'field', 'field-not-positive') : null;
-  const freq = qe ? positive(ctx, readQuantity(ctx, qe.value, 'energy', 'frequency', { suggestUnit: 'MHz' }), 'frequency', 'frequency-not-positive') : null;
+  const field = fe
+    ? positive(ctx, readQuantity(ctx, fe.value, 'field', 'field', { suggestUnit: 'T' }), 'field', 'field-not-positive')
+    : null;
+  const freq = qe
+    ? positive(
+        ctx,
+        readQuantity(ctx, qe.value, 'energy', 'frequency', { suggestUnit: 'MHz' }),
+        'frequency',
+        'frequency-not-positive',
+      )
+    : null;
   if (!fe && !qe) {
-    report(ctx, 'error', 'field-missing', 'A spin needs `field:` (e.g. `9.4 T`) or the observed Larmor `frequency:`.', byKey.get('system')!.keySpan);
+    report(
+      ctx,
+      'error',
+      'field-missing',
+      'A spin needs `field:` (e.g. `9.4 T`) or the observed Larmor `frequency:`.',
+      byKey.get('system')!.keySpan,
+    );
     return null;
   }
   if ((fe && !field) || (qe && !freq) || !species) return null;
@@ -110,11 +153,21 @@ function readSplitting(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, spec
   if (freq && fromField !== null) {
     const rel = Math.abs(freq.value - fromField) / fromField;
     if (rel > FIELD_FREQUENCY_TOLERANCE) {
-      report(ctx, 'warning', 'field-frequency-mismatch', `frequency and field disagree by ${(rel * 100).toFixed(1)} % for ${species.symbol} (the table expects ${formatMHz(fromField)} at this field); the frequency is used.`, freq.span);
+      report(
+        ctx,
+        'warning',
+        'field-frequency-mismatch',
+        `frequency and field disagree by ${(rel * 100).toFixed(1)} % for ${species.symbol} (the table expects ${formatMHz(fromField)} at this field); the frequency is used.`,
+        freq.span,
+      );
     }
   }
   const spacing = freq ? freq.value : fromField!;
-  const uSpacing = freq ? freq.uncertainty : field!.uncertainty !== null ? (field!.uncertainty / field!.value) * spacing : null;
+  const uSpacing = freq
+    ? freq.uncertainty
+    : field!.uncertainty !== null
+      ? (field!.uncertainty / field!.value) * spacing
+      : null;
   return {
     species,
     spacing,
@@ -142,7 +195,11 @@ interface SpinMeasurement {
   readonly signal: SignalInput | null;
 }
 
-function readSpinMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, species: SpinSpecies | null): SpinMeasurement | null {
+function readSpinMeasurement(
+  ctx: ReadContext,
+  byKey: ReadonlyMap<string, Entry>,
+  species: SpinSpecies | null,
+): SpinMeasurement | null {
   const pe = byKey.get('populations');
   const pol = byKey.get('polarization');
   const sig = byKey.get('signal');
@@ -161,7 +218,11 @@ function readSpinMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
   if (!pe && !pol) {
     // A bare time series needs no population measurement: it gives a time constant.
     if (byKey.has('series')) return { populations: null, polarization: null, signal: null };
-    measurementMissing(ctx, '`populations:` (in order of increasing energy), `polarization:` or `signal:`', byKey.get('system')!.keySpan);
+    measurementMissing(
+      ctx,
+      '`populations:` (in order of increasing energy), `polarization:` or `signal:`',
+      byKey.get('system')!.keySpan,
+    );
     return null;
   }
   if (pe && !species) {
@@ -180,7 +241,13 @@ function readSpinMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
   const p = p0 ? withSiblingUncertainty(ctx, p0, byKey.get('uncertainty'), 'polarization') : null;
   if (!p) return null;
   if (Math.abs(p.value) > 1) {
-    report(ctx, 'error', 'polarization-range', `polarization: |P| cannot exceed 1 (got ${p.value}); give a fraction, not a percentage.`, p.span);
+    report(
+      ctx,
+      'error',
+      'polarization-range',
+      `polarization: |P| cannot exceed 1 (got ${p.value}); give a fraction, not a percentage.`,
+      p.span,
+    );
     return null;
   }
   return { populations: null, polarization: p, signal: null };

@@ -6,16 +6,30 @@
 import { GAIN_KEYS, readGain } from './gain';
 import type { FormRead, LevelInput } from './input';
 import { bothGiven, measurementMissing, readPopulationList, withSiblingUncertainty } from './populations';
-import { nonEmpty, readInteger, readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
+import {
+  nonEmpty,
+  readInteger,
+  readList,
+  readNumber,
+  readQuantity,
+  report,
+  type ReadContext,
+  type ReadValue,
+} from './values';
 import type { Entry } from './yamlTree';
-
 
 /** Reads `gap`, `g` and `populations`/`ratio`. */
 export function readTransitionForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>): FormRead | null {
   const ge = byKey.get('gap')!;
   const gap = readQuantity(ctx, ge.value, 'wavelengthEnergy', 'gap', { suggestUnit: 'cm-1' });
   if (gap && !(gap.value > 0)) {
-    report(ctx, 'error', 'gap-not-positive', 'gap: the transition energy must be positive (the upper level lies above the lower).', gap.span);
+    report(
+      ctx,
+      'error',
+      'gap-not-positive',
+      'gap: the transition energy must be positive (the upper level lies above the lower).',
+      gap.span,
+    );
   }
   const g = readDegeneracies(ctx, byKey.get('g'));
   const measured = readTransitionMeasurement(ctx, byKey, ge);
@@ -51,7 +65,13 @@ function readDegeneracies(ctx: ReadContext, e: Entry | undefined): [number, numb
   const items = readList(ctx, e.value, 'g', e.valueSpan);
   if (!items) return null;
   if (items.length !== 2) {
-    report(ctx, 'error', 'degeneracy-length', `g: give the two degeneracies [lower, upper]; ${items.length} given.`, nonEmpty(e.valueSpan));
+    report(
+      ctx,
+      'error',
+      'degeneracy-length',
+      `g: give the two degeneracies [lower, upper]; ${items.length} given.`,
+      nonEmpty(e.valueSpan),
+    );
     return null;
   }
   const lower = readInteger(ctx, items[0], 'g (lower)', 'degeneracy-invalid', 1);
@@ -59,7 +79,11 @@ function readDegeneracies(ctx: ReadContext, e: Entry | undefined): [number, numb
   return lower && upper ? [lower.value, upper.value] : null;
 }
 
-function readTransitionMeasurement(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, gapEntry: Entry): { populations: ReadValue[] | null; ratio: ReadValue | null } | null {
+function readTransitionMeasurement(
+  ctx: ReadContext,
+  byKey: ReadonlyMap<string, Entry>,
+  gapEntry: Entry,
+): { populations: ReadValue[] | null; ratio: ReadValue | null } | null {
   const pe = byKey.get('populations');
   const re = byKey.get('ratio');
   if (pe && re) {

@@ -13,7 +13,16 @@ import { readLinesForm } from './formLines';
 import { readSeries } from './series';
 import { KeySpans } from './keySpans';
 import { unknownKey } from './unknownKey';
-import { insideBody, nonEmpty, readInteger, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
+import {
+  insideBody,
+  nonEmpty,
+  readInteger,
+  readQuantity,
+  readText,
+  report,
+  type ReadContext,
+  type ReadValue,
+} from './values';
 import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
 
 /** What reading a block gave: its label and key spans, its input (null on errors) and its problems. */
@@ -30,14 +39,24 @@ function keepName(key: string): string {
   return KEY_NAMES.get(key) ?? key;
 }
 
-const FORM_KEYS: readonly [string, BlockForm][] = [['levels', 'levels'], ['system', 'spin'], ['gap', 'transition'], ['lines', 'lines']];
+const FORM_KEYS: readonly [string, BlockForm][] = [
+  ['levels', 'levels'],
+  ['system', 'spin'],
+  ['gap', 'transition'],
+  ['lines', 'lines'],
+];
 
 /** Reads one block body (the text between the fences). Never throws. */
 export function interpretBody(body: string): Interpretation {
   const problems: Problem[] = [];
   const emptyMeta: BlockMeta = { id: null, idSpan: null, keys: new Map(), date: null };
   if (!/\S/.test(body)) {
-    problems.push({ severity: 'error', code: 'block-empty', message: 'The block is empty: describe the levels with `levels:`, `system:` + `field:`, or `gap:`.', span: firstLine(body) });
+    problems.push({
+      severity: 'error',
+      code: 'block-empty',
+      message: 'The block is empty: describe the levels with `levels:`, `system:` + `field:`, or `gap:`.',
+      span: firstLine(body),
+    });
     return { meta: emptyMeta, input: null, problems };
   }
   const parsed = parseBody(body);
@@ -46,7 +65,12 @@ export function interpretBody(body: string): Interpretation {
   if (!doc) return { meta: emptyMeta, input: null, problems };
   if (!isMap(doc.contents)) {
     const span = spanOf(doc.contents) ?? firstLine(body);
-    problems.push({ severity: 'error', code: 'body-not-mapping', message: 'The block must be a YAML mapping of `key: value` lines.', span: insideBody(nonEmpty(span), body) });
+    problems.push({
+      severity: 'error',
+      code: 'body-not-mapping',
+      message: 'The block must be a YAML mapping of `key: value` lines.',
+      span: insideBody(nonEmpty(span), body),
+    });
     return { meta: emptyMeta, input: null, problems };
   }
   const ctx: ReadContext = { body, problems };
@@ -62,17 +86,34 @@ export function interpretBody(body: string): Interpretation {
   const idText = idEntry ? readText(ctx, idEntry.value) : null;
   const dateEntry = byKey.get('date');
   const dateText = dateEntry ? readText(ctx, dateEntry.value) : null;
-  const meta: BlockMeta = { id: idText && idText.text !== '' ? idText.text : null, idSpan: idText?.span ?? null, keys, date: dateText && dateText.text !== '' ? dateText.text : null };
+  const meta: BlockMeta = {
+    id: idText && idText.text !== '' ? idText.text : null,
+    idSpan: idText?.span ?? null,
+    keys,
+    date: dateText && dateText.text !== '' ? dateText.text : null,
+  };
 
   const forms: [string, BlockForm][] = [];
   for (const f of FORM_KEYS) if (byKey.has(f[0])) forms.push(f);
   if (forms.length > 1) forms.sort((a, b) => byKey.get(a[0])!.keySpan.start - byKey.get(b[0])!.keySpan.start);
   let input: BlockInput | null = null;
   if (forms.length === 0 && !byKey.has('series')) {
-    report(ctx, 'error', 'form-missing', 'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition); or give emission `lines:` or a time `series:`.', firstLine(body));
+    report(
+      ctx,
+      'error',
+      'form-missing',
+      'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition); or give emission `lines:` or a time `series:`.',
+      firstLine(body),
+    );
   } else if (forms.length > 1) {
     const [first, second] = forms;
-    report(ctx, 'error', 'form-conflict', `Use one way of describing the levels: \`${first[0]}\` and \`${second[0]}\` cannot be combined.`, byKey.get(second[0])!.keySpan);
+    report(
+      ctx,
+      'error',
+      'form-conflict',
+      `Use one way of describing the levels: \`${first[0]}\` and \`${second[0]}\` cannot be combined.`,
+      byKey.get(second[0])!.keySpan,
+    );
   } else {
     const form: BlockForm = forms.length === 1 ? forms[0][1] : 'series';
     misplacedKeys(ctx, byKey, form);
@@ -81,7 +122,13 @@ export function interpretBody(body: string): Interpretation {
     const series = byKey.has('series') ? readSeries(ctx, byKey.get('series')!) : null;
     const read = readForm(ctx, byKey, form);
     if (read?.signal && !lattice) {
-      report(ctx, 'error', 'signal-lattice-missing', 'signal: give `lattice:`, the temperature of the thermal reference, so its polarization is known.', byKey.get('signal')!.keySpan);
+      report(
+        ctx,
+        'error',
+        'signal-lattice-missing',
+        'signal: give `lattice:`, the temperature of the thermal reference, so its polarization is known.',
+        byKey.get('signal')!.keySpan,
+      );
     }
     if (read && countErrors(problems) === 0) {
       input = {
@@ -132,15 +179,28 @@ function readCount(ctx: ReadContext, e: Entry | undefined): ReadValue | null {
   return readInteger(ctx, e.value, 'count', 'count-invalid', 1);
 }
 
-const SERIES_ONLY: FormRead = { form: 'series', levels: [], energyUnit: null, spin: null, polarization: null, ratio: null, uGap: null };
+const SERIES_ONLY: FormRead = {
+  form: 'series',
+  levels: [],
+  energyUnit: null,
+  spin: null,
+  polarization: null,
+  ratio: null,
+  uGap: null,
+};
 
 function readForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: BlockForm): FormRead | null {
   switch (form) {
-    case 'levels': return readLevelsForm(ctx, byKey);
-    case 'spin': return readSpinForm(ctx, byKey);
-    case 'transition': return readTransitionForm(ctx, byKey);
-    case 'lines': return readLinesForm(ctx, byKey);
-    default: return SERIES_ONLY;
+    case 'levels':
+      return readLevelsForm(ctx, byKey);
+    case 'spin':
+      return readSpinForm(ctx, byKey);
+    case 'transition':
+      return readTransitionForm(ctx, byKey);
+    case 'lines':
+      return readLinesForm(ctx, byKey);
+    default:
+      return SERIES_ONLY;
   }
 }
 
@@ -148,7 +208,14 @@ function readForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: Blo
 function misplacedKeys(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form: BlockForm): void {
   for (const doc of FOREIGN_KEYS[form]) {
     const e = byKey.get(doc.key);
-    if (e) report(ctx, 'warning', 'key-not-for-form', `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form as BlockForm]}; it is ignored in ${FORM_NAMES[form]}.`, e.keySpan);
+    if (e)
+      report(
+        ctx,
+        'warning',
+        'key-not-for-form',
+        `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form as BlockForm]}; it is ignored in ${FORM_NAMES[form]}.`,
+        e.keySpan,
+      );
   }
 }
 

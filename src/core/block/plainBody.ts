@@ -28,12 +28,15 @@ const TEMPLATE = new Document(null, YAML_OPTIONS);
 const SCHEMA = TEMPLATE.schema;
 const OPTIONS = TEMPLATE.options;
 /** The core schema's scalar tags, in the order the composer tries them on a plain scalar. */
-const SCALAR_TAGS: readonly ScalarTag[] = SCHEMA.tags.filter((t): t is ScalarTag => !('collection' in t && t.collection));
+const SCALAR_TAGS: readonly ScalarTag[] = SCHEMA.tags.filter(
+  (t): t is ScalarTag => !('collection' in t && t.collection),
+);
 /** The tag of every quoted scalar and of a plain one no other tag claims. */
 const STRING_TAG: ScalarTag = SCALAR_TAGS.find((t) => t.tag === 'tag:yaml.org,2002:str')!;
 /** The null tag, the first whose test the composer tries: a plain scalar is null exactly when that test matches. */
 const NULL_TAG: ScalarTag = SCALAR_TAGS.find((t) => t.tag === 'tag:yaml.org,2002:null')!;
-if (SCALAR_TAGS.find((t) => t.default === true && t.test) !== NULL_TAG) throw new Error('the core schema no longer tries null first');
+if (SCALAR_TAGS.find((t) => t.default === true && t.test) !== NULL_TAG)
+  throw new Error('the core schema no longer tries null first');
 
 /** Thrown inside the walk when a token falls outside the accepted shapes; caught at the top. */
 class NotPlain extends Error {}
@@ -55,7 +58,12 @@ export function plainTree(body: string): TreeMap | null {
   for (const token of new Parser().parse(body)) {
     if (token.type === 'document' && !doc) doc = token;
     // Comment lines before the document are its prelude, which the composer reads without a rule to break.
-    else if (!(token.type === 'comment' || token.type === 'newline' || (token.type === 'space' && !token.source.includes('\t')))) return null;
+    else if (!(
+      token.type === 'comment' ||
+      token.type === 'newline' ||
+      (token.type === 'space' && !token.source.includes('\t'))
+    ))
+      return null;
   }
   if (!doc || !doc.value || doc.value.type !== 'block-map' || doc.value.indent !== 0) return null;
   try {
@@ -230,7 +238,8 @@ function isFlowScalar(t: CST.Token): t is CST.FlowScalar {
  * its unit, say) and never need it.
  */
 function scalar(token: CST.FlowScalar, atKey: boolean): TreeScalar {
-  if (token.source === '' || token.source.includes('\n') || token.source.includes('\r') || token.source.includes('\t')) refuse();
+  if (token.source === '' || token.source.includes('\n') || token.source.includes('\r') || token.source.includes('\t'))
+    refuse();
   // After a value: spaces, line breaks, a comment after white space. After a key, spaces only
   // (a key must end on its line, and a comment there would end the line before the `:`).
   if (token.end) {
@@ -244,7 +253,15 @@ function scalar(token: CST.FlowScalar, atKey: boolean): TreeScalar {
   });
   if (failed || !read) refuse();
   const range: TreeRange = read.range;
-  if (token.type !== 'scalar') return { kind: 'scalar', value: read.value, source: read.value, type: read.type as ScalarStyle, range, isNull: false };
+  if (token.type !== 'scalar')
+    return {
+      kind: 'scalar',
+      value: read.value,
+      source: read.value,
+      type: read.type as ScalarStyle,
+      range,
+      isNull: false,
+    };
   return new PlainScalar(read.value, range, atKey);
 }
 
@@ -308,8 +325,12 @@ function typeScalar(source: string, atKey: boolean): unknown {
       break;
     }
   }
-  const res = tag.resolve(source, (message) => {
-    throw new Error(`YAML tag ${tag.tag} could not resolve ${JSON.stringify(source)}: ${message}`);
-  }, OPTIONS);
+  const res = tag.resolve(
+    source,
+    (message) => {
+      throw new Error(`YAML tag ${tag.tag} could not resolve ${JSON.stringify(source)}: ${message}`);
+    },
+    OPTIONS,
+  );
   return isScalar(res) ? res.value : res;
 }

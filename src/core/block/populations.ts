@@ -29,7 +29,13 @@ export function readPopulationList(ctx: ReadContext, e: Entry, expected: number,
   const items = readList(ctx, e.value, 'populations', e.valueSpan);
   if (!items) return null;
   if (items.length !== expected) {
-    report(ctx, 'error', 'populations-length', `populations: ${why} needs ${expected} values in order of increasing energy; ${items.length} given.`, e.valueSpan);
+    report(
+      ctx,
+      'error',
+      'populations-length',
+      `populations: ${why} needs ${expected} values in order of increasing energy; ${items.length} given.`,
+      e.valueSpan,
+    );
     return null;
   }
   const out: ReadValue[] = [];
@@ -41,7 +47,13 @@ export function readPopulationList(ctx: ReadContext, e: Entry, expected: number,
   });
   if (!ok) return null;
   if (out.every((v) => v.value === 0)) {
-    report(ctx, 'error', 'populations-zero', 'populations: all populations are zero, so nothing can be computed.', e.valueSpan);
+    report(
+      ctx,
+      'error',
+      'populations-zero',
+      'populations: all populations are zero, so nothing can be computed.',
+      e.valueSpan,
+    );
     return null;
   }
   return out;
@@ -51,12 +63,23 @@ export function readPopulationList(ctx: ReadContext, e: Entry, expected: number,
  * Attaches a block-level `uncertainty:` sibling to a value written without
  * `±`; both at once is an error.
  */
-export function withSiblingUncertainty(ctx: ReadContext, v: ReadValue, sibling: Entry | undefined, subject: string): ReadValue | null {
+export function withSiblingUncertainty(
+  ctx: ReadContext,
+  v: ReadValue,
+  sibling: Entry | undefined,
+  subject: string,
+): ReadValue | null {
   if (!sibling) return v;
   const u = readNumber(ctx, sibling.value, 'uncertainty');
   if (!u) return null;
   if (v.uncertainty !== null) {
-    report(ctx, 'error', 'uncertainty-twice', `${subject} already carries an uncertainty (±); remove one of the two.`, sibling.keySpan);
+    report(
+      ctx,
+      'error',
+      'uncertainty-twice',
+      `${subject} already carries an uncertainty (±); remove one of the two.`,
+      sibling.keySpan,
+    );
     return null;
   }
   if (u.value < 0) {

@@ -6,7 +6,16 @@
 import type { SeriesInput } from './input';
 import { SERIES_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
-import { nonEmpty, readList, readNumber, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
+import {
+  nonEmpty,
+  readList,
+  readNumber,
+  readQuantity,
+  readText,
+  report,
+  type ReadContext,
+  type ReadValue,
+} from './values';
 import { entries, isMap, type Entry } from './yamlTree';
 
 /** Fewest points that determine each model's parameters. */
@@ -27,25 +36,48 @@ export function readSeries(ctx: ReadContext, e: Entry): SeriesInput | null {
     report(ctx, 'error', 'series-incomplete', `series: \`${!te ? 'time' : 'signal'}\` is missing.`, e.keySpan);
     return null;
   }
-  const times = readValues(ctx, te, (node, s) => readQuantity(ctx, node, 'time', s, { suggestUnit: 's' }), 'series.time');
+  const times = readValues(
+    ctx,
+    te,
+    (node, s) => readQuantity(ctx, node, 'time', s, { suggestUnit: 's' }),
+    'series.time',
+  );
   const signals = readValues(ctx, se, (node, s) => readNumber(ctx, node, s), 'series.signal');
   const noise = byKey.get('noise') ? readNumber(ctx, byKey.get('noise')!.value, 'series.noise') : null;
   const flipEntry = byKey.get('flip');
   const flip = flipEntry ? readQuantity(ctx, flipEntry.value, 'angle', 'series.flip', { suggestUnit: 'deg' }) : null;
   if (!model || !times || !signals || (flipEntry && !flip) || (byKey.get('noise') && !noise)) return null;
   if (times.length !== signals.length) {
-    report(ctx, 'error', 'series-length-mismatch', `series: ${times.length} times but ${signals.length} signals; give one signal per time.`, nonEmpty(se.valueSpan));
+    report(
+      ctx,
+      'error',
+      'series-length-mismatch',
+      `series: ${times.length} times but ${signals.length} signals; give one signal per time.`,
+      nonEmpty(se.valueSpan),
+    );
     return null;
   }
   for (let i = 1; i < times.length; i++) {
     if (!(times[i].value > times[i - 1].value)) {
-      report(ctx, 'error', 'series-times-order', `series.time[${i}]: times must increase (this one is not after the one before).`, times[i].span);
+      report(
+        ctx,
+        'error',
+        'series-times-order',
+        `series.time[${i}]: times must increase (this one is not after the one before).`,
+        times[i].span,
+      );
       return null;
     }
   }
   const need = SERIES_PARAMETERS[model];
   if (times.length < need) {
-    report(ctx, 'error', 'series-too-short', `series: a ${model} fit has ${need} parameters and needs at least ${need} points; ${times.length} given.`, nonEmpty(se.valueSpan));
+    report(
+      ctx,
+      'error',
+      'series-too-short',
+      `series: a ${model} fit has ${need} parameters and needs at least ${need} points; ${times.length} given.`,
+      nonEmpty(se.valueSpan),
+    );
     return null;
   }
   if (flip && !checkFlip(ctx, model, flip)) return null;
@@ -70,12 +102,22 @@ function readModel(ctx: ReadContext, m: Entry | undefined, e: Entry): 'decay' | 
   }
   const t = readText(ctx, m.value);
   if (t && (t.text === 'decay' || t.text === 'buildup')) return t.text;
-  const fixes = t && /^build[\s_-]?up$/i.test(t.text) ? [{ title: 'Change to buildup', span: t.span, newText: 'buildup' }] : t && /^decay$/i.test(t.text) ? [{ title: 'Change to decay', span: t.span, newText: 'decay' }] : [];
+  const fixes =
+    t && /^build[\s_-]?up$/i.test(t.text)
+      ? [{ title: 'Change to buildup', span: t.span, newText: 'buildup' }]
+      : t && /^decay$/i.test(t.text)
+        ? [{ title: 'Change to decay', span: t.span, newText: 'decay' }]
+        : [];
   report(ctx, 'error', 'series-model', 'series.model: use `decay` or `buildup`.', t?.span ?? m.keySpan, fixes);
   return null;
 }
 
-function readValues(ctx: ReadContext, e: Entry, read: (node: unknown, subject: string) => ReadValue | null, subject: string): ReadValue[] | null {
+function readValues(
+  ctx: ReadContext,
+  e: Entry,
+  read: (node: unknown, subject: string) => ReadValue | null,
+  subject: string,
+): ReadValue[] | null {
   const items = readList(ctx, e.value, subject, e.valueSpan);
   if (!items) return null;
   const out: ReadValue[] = [];
@@ -90,12 +132,24 @@ function readValues(ctx: ReadContext, e: Entry, read: (node: unknown, subject: s
 
 function checkFlip(ctx: ReadContext, model: 'decay' | 'buildup', flip: ReadValue): boolean {
   if (model === 'buildup') {
-    report(ctx, 'warning', 'flip-ignored', 'series.flip: the cos^(n−1) θ readout correction applies to decays only; a build-up under repeated readout needs a rate model, so the flip angle is not used here.', flip.span);
+    report(
+      ctx,
+      'warning',
+      'flip-ignored',
+      'series.flip: the cos^(n−1) θ readout correction applies to decays only; a build-up under repeated readout needs a rate model, so the flip angle is not used here.',
+      flip.span,
+    );
     return true;
   }
   // cos 90° is 6e-17 in floating point: anything that close to 90° counts as 90°.
   if (!(flip.value > 0) || !(Math.cos(flip.value) > 1e-9)) {
-    report(ctx, 'error', 'flip-too-large', 'series.flip: a decay readout angle must lie between 0 and 90 deg, so that each readout leaves cos θ > 0 of the magnetization.', flip.span);
+    report(
+      ctx,
+      'error',
+      'flip-too-large',
+      'series.flip: a decay readout angle must lie between 0 and 90 deg, so that each readout leaves cos θ > 0 of the magnetization.',
+      flip.span,
+    );
     return false;
   }
   return true;
@@ -109,7 +163,13 @@ function sameSign(ctx: ReadContext, signals: ReadValue[]): boolean {
   }
   const bad = signals.find((s) => s.value !== 0 && Math.sign(s.value) !== Math.sign(first.value));
   if (bad) {
-    report(ctx, 'error', 'series-sign-change', 'series.signal: a decaying signal keeps its sign; this value has the opposite sign of the first one (phase the spectra alike, or model it as a build-up).', bad.span);
+    report(
+      ctx,
+      'error',
+      'series-sign-change',
+      'series.signal: a decaying signal keeps its sign; this value has the opposite sign of the first one (phase the spectra alike, or model it as a build-up).',
+      bad.span,
+    );
     return false;
   }
   return true;
@@ -120,7 +180,13 @@ function uncertainties(ctx: ReadContext, signals: ReadValue[], noise: ReadValue 
   const withPm = signals.filter((s) => s.uncertainty !== null);
   if (noise) {
     if (noise.value < 0) {
-      report(ctx, 'error', 'uncertainty-negative', 'series.noise: a standard uncertainty cannot be negative.', noise.span);
+      report(
+        ctx,
+        'error',
+        'uncertainty-negative',
+        'series.noise: a standard uncertainty cannot be negative.',
+        noise.span,
+      );
       return undefined;
     }
     if (withPm.length > 0) {
@@ -129,6 +195,7 @@ function uncertainties(ctx: ReadContext, signals: ReadValue[], noise: ReadValue 
     }
     return noise.value > 0 ? signals.map(() => noise.value) : null;
   }
-  if (withPm.length === signals.length && signals.every((s) => s.uncertainty! > 0)) return signals.map((s) => s.uncertainty!);
+  if (withPm.length === signals.length && signals.every((s) => s.uncertainty! > 0))
+    return signals.map((s) => s.uncertainty!);
   return null;
 }

@@ -18,35 +18,94 @@ const SIDES = ['hyperpolarized', 'thermal'] as const;
 /** Reads `signal:`; `fromSeries` means a time series supplies the hyperpolarized signal. */
 export function readSignal(ctx: ReadContext, e: Entry, fromSeries: boolean): SignalInput | null {
   if (!isMap(e.value)) {
-    report(ctx, 'error', 'signal-not-mapping', 'signal: give `hyperpolarized:` and `thermal:` (and optionally `scans`, `flip`, `gain`, `amount`, `noise`) as a mapping.', e.keySpan);
+    report(
+      ctx,
+      'error',
+      'signal-not-mapping',
+      'signal: give `hyperpolarized:` and `thermal:` (and optionally `scans`, `flip`, `gain`, `amount`, `noise`) as a mapping.',
+      e.keySpan,
+    );
     return null;
   }
   const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
   for (const x of byKey.values()) if (!SIGNAL_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(SIGNAL_KEYS));
-  const noise = readPair(ctx, byKey.get('noise'), 'noise', (node, s) => readNumber(ctx, node, s), null, (v) => v >= 0, 'noise must be ≥ 0');
+  const noise = readPair(
+    ctx,
+    byKey.get('noise'),
+    'noise',
+    (node, s) => readNumber(ctx, node, s),
+    null,
+    (v) => v >= 0,
+    'noise must be ≥ 0',
+  );
   const hpEntry = byKey.get('hyperpolarized');
   let hp: ReadValue | null = null;
   if (hpEntry) {
     const v = readNumber(ctx, hpEntry.value, 'signal.hyperpolarized');
     hp = v ? withNoise(ctx, v, noise?.[0] ?? null, 'signal.hyperpolarized') : null;
   } else if (!fromSeries) {
-    report(ctx, 'error', 'signal-incomplete', 'signal: `hyperpolarized:` is missing (or give a `series:` whose fitted amplitude is the hyperpolarized signal).', e.keySpan);
+    report(
+      ctx,
+      'error',
+      'signal-incomplete',
+      'signal: `hyperpolarized:` is missing (or give a `series:` whose fitted amplitude is the hyperpolarized signal).',
+      e.keySpan,
+    );
   }
   const thEntry = byKey.get('thermal');
   let th: ReadValue | null = null;
-  if (!thEntry) report(ctx, 'error', 'signal-incomplete', 'signal: the `thermal:` reference signal is missing.', e.keySpan);
+  if (!thEntry)
+    report(ctx, 'error', 'signal-incomplete', 'signal: the `thermal:` reference signal is missing.', e.keySpan);
   else {
     const v = readNumber(ctx, thEntry.value, 'signal.thermal');
     th = v ? withNoise(ctx, v, noise?.[1] ?? null, 'signal.thermal') : null;
     if (th && th.value === 0) {
-      report(ctx, 'error', 'signal-thermal-zero', 'signal.thermal: a zero thermal signal gives no reference to scale by.', th.span);
+      report(
+        ctx,
+        'error',
+        'signal-thermal-zero',
+        'signal.thermal: a zero thermal signal gives no reference to scale by.',
+        th.span,
+      );
       th = null;
     }
   }
-  const scans = readPair(ctx, byKey.get('scans'), 'scans', (node, s) => readInteger(ctx, node, s, 'scans-invalid', 1), 1, () => true, '');
-  const flip = readPair(ctx, byKey.get('flip'), 'flip', (node, s) => readQuantity(ctx, node, 'angle', s, { suggestUnit: 'deg' }), Math.PI / 2, (v) => Math.sin(v) > 1e-12, 'the flip angle must lie strictly between 0 and 180 deg (sin θ > 0)');
-  const gain = readPair(ctx, byKey.get('gain'), 'gain', (node, s) => readNumber(ctx, node, s), 1, (v) => v > 0, 'a receiver gain must be positive');
-  const amount = readPair(ctx, byKey.get('amount'), 'amount', (node, s) => readNumber(ctx, node, s), 1, (v) => v > 0, 'a relative amount must be positive');
+  const scans = readPair(
+    ctx,
+    byKey.get('scans'),
+    'scans',
+    (node, s) => readInteger(ctx, node, s, 'scans-invalid', 1),
+    1,
+    () => true,
+    '',
+  );
+  const flip = readPair(
+    ctx,
+    byKey.get('flip'),
+    'flip',
+    (node, s) => readQuantity(ctx, node, 'angle', s, { suggestUnit: 'deg' }),
+    Math.PI / 2,
+    (v) => Math.sin(v) > 1e-12,
+    'the flip angle must lie strictly between 0 and 180 deg (sin θ > 0)',
+  );
+  const gain = readPair(
+    ctx,
+    byKey.get('gain'),
+    'gain',
+    (node, s) => readNumber(ctx, node, s),
+    1,
+    (v) => v > 0,
+    'a receiver gain must be positive',
+  );
+  const amount = readPair(
+    ctx,
+    byKey.get('amount'),
+    'amount',
+    (node, s) => readNumber(ctx, node, s),
+    1,
+    (v) => v > 0,
+    'a relative amount must be positive',
+  );
   if ((hpEntry && !hp) || !th || !scans || !flip || !gain || !amount || (byKey.has('noise') && !noise)) return null;
   return {
     hyperpolarized: hp ? hp.value : null,
@@ -82,7 +141,13 @@ function readPair(
 ): Pair | null {
   if (!e) return fallback === null ? null : [fallback, fallback];
   if (!isMap(e.value)) {
-    report(ctx, 'error', 'signal-not-mapping', `signal.${name}: give \`{ hyperpolarized: …, thermal: … }\`.`, spanOf(e.value) ?? e.keySpan);
+    report(
+      ctx,
+      'error',
+      'signal-not-mapping',
+      `signal.${name}: give \`{ hyperpolarized: …, thermal: … }\`.`,
+      spanOf(e.value) ?? e.keySpan,
+    );
     return null;
   }
   const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
@@ -108,4 +173,3 @@ function readPair(
   }
   return [out[0], out[1]];
 }
-

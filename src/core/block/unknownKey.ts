@@ -6,7 +6,9 @@ import type { Entry } from './yamlTree';
 /** Warns about a key the block does not know, offering the closest known one. */
 export function unknownKey(ctx: ReadContext, e: Entry, known: ReadonlySet<string>): void {
   // Allow about one edit per three letters, so short unrelated words get no suggestion.
-  const guess = closest(e.key, [...known], Math.max(1, Math.min(3, Math.floor(e.key.length / 3))), { ignoreCase: true });
+  const guess = closest(e.key, [...known], Math.max(1, Math.min(3, Math.floor(e.key.length / 3))), {
+    ignoreCase: true,
+  });
   const fixes = guess ? [{ title: `Change to \`${guess}\``, span: e.keySpan, newText: guess }] : [];
   const hint = guess ? ` Did you mean \`${guess}\`?` : '';
   report(ctx, 'warning', 'key-unknown', `Unknown key \`${e.key}\`; it is ignored.${hint}`, e.keySpan, fixes);

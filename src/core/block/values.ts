@@ -23,9 +23,18 @@ export interface ReadValue {
 }
 
 /** Adds a problem to the context. */
-export function report(ctx: ReadContext, severity: Severity, code: string, message: string, span: Span, fixes?: Replacement[]): void {
+export function report(
+  ctx: ReadContext,
+  severity: Severity,
+  code: string,
+  message: string,
+  span: Span,
+  fixes?: Replacement[],
+): void {
   const at = insideBody(span, ctx.body);
-  ctx.problems.push(fixes && fixes.length > 0 ? { severity, code, message, span: at, fixes } : { severity, code, message, span: at });
+  ctx.problems.push(
+    fixes && fixes.length > 0 ? { severity, code, message, span: at, fixes } : { severity, code, message, span: at },
+  );
 }
 
 /** The span clamped to the body (a one-character span widened past the body's end becomes empty there). */
@@ -60,7 +69,11 @@ function shift(base: number, s: { start: number; end: number }, within: Span): S
 function quantityProblem(ctx: ReadContext, p: QuantityProblem, base: number, within: Span, subject: string): void {
   const fixes: Replacement[] = [];
   if (p.replacement) {
-    fixes.push({ title: p.replacement.title, span: shift(base, p.replacement.span, within), newText: p.replacement.newText });
+    fixes.push({
+      title: p.replacement.title,
+      span: shift(base, p.replacement.span, within),
+      newText: p.replacement.newText,
+    });
   }
   report(ctx, 'error', p.code, `${subject}: ${p.message}`, shift(base, p.span, within), fixes);
 }
@@ -74,12 +87,24 @@ export interface QuantityOptions {
 }
 
 /** Reads `"<number> [± u] <unit>"` (or a bare number) into canonical units; reports and returns null on a problem. */
-export function readQuantity(ctx: ReadContext, node: unknown, dim: Dimension, subject: string, opts: QuantityOptions = {}): ReadValue | null {
+export function readQuantity(
+  ctx: ReadContext,
+  node: unknown,
+  dim: Dimension,
+  subject: string,
+  opts: QuantityOptions = {},
+): ReadValue | null {
   const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src || src.text.trim() === '' || isNullScalar(n)) {
     const span = spanOf(n) ?? { start: 0, end: 0 };
-    report(ctx, 'error', 'value-missing', `${subject}: a value is needed here, such as ${example(dim)}.`, nonEmpty(span));
+    report(
+      ctx,
+      'error',
+      'value-missing',
+      `${subject}: a value is needed here, such as ${example(dim)}.`,
+      nonEmpty(span),
+    );
     return null;
   }
   const parsed = parseQuantity(src.text);
@@ -92,8 +117,17 @@ export function readQuantity(ctx: ReadContext, node: unknown, dim: Dimension, su
     const unit = opts.suggestUnit;
     const end = shift(src.base, { start: q.valueSpan.end, end: q.valueSpan.end }, src.span).start;
     const at = q.uncertaintySpan ? shift(src.base, q.uncertaintySpan, src.span).end : end;
-    const fixes: Replacement[] = unit ? [{ title: `Add the unit ${unit}`, span: { start: at, end: at }, newText: ` ${unit}` }] : [];
-    report(ctx, 'error', 'unit-missing', `${subject}: a bare number needs a unit here (${example(dim)}).`, src.span, fixes);
+    const fixes: Replacement[] = unit
+      ? [{ title: `Add the unit ${unit}`, span: { start: at, end: at }, newText: ` ${unit}` }]
+      : [];
+    report(
+      ctx,
+      'error',
+      'unit-missing',
+      `${subject}: a bare number needs a unit here (${example(dim)}).`,
+      src.span,
+      fixes,
+    );
     return null;
   }
   const c = convert(q, dim, opts.defaultUnit !== undefined ? { defaultUnit: opts.defaultUnit } : {});
@@ -106,17 +140,28 @@ export function readQuantity(ctx: ReadContext, node: unknown, dim: Dimension, su
 
 function example(dim: Dimension): string {
   switch (dim) {
-    case 'energy': return '`120 cm-1` or `9.4 GHz`';
-    case 'wavelengthEnergy': return '`1420.405751768 MHz` or `1064 nm`';
-    case 'field': return '`9.4 T`';
-    case 'temperature': return '`1.4 K`';
-    case 'time': return '`30 s`';
-    case 'angle': return '`5 deg`';
-    case 'density': return '`2.0e16 cm-3`';
-    case 'crossSection': return '`2.8e-19 cm2`';
-    case 'length': return '`10 cm`';
-    case 'attenuation': return '`0.01 cm-1`';
-    default: return 'a number with a unit';
+    case 'energy':
+      return '`120 cm-1` or `9.4 GHz`';
+    case 'wavelengthEnergy':
+      return '`1420.405751768 MHz` or `1064 nm`';
+    case 'field':
+      return '`9.4 T`';
+    case 'temperature':
+      return '`1.4 K`';
+    case 'time':
+      return '`30 s`';
+    case 'angle':
+      return '`5 deg`';
+    case 'density':
+      return '`2.0e16 cm-3`';
+    case 'crossSection':
+      return '`2.8e-19 cm2`';
+    case 'length':
+      return '`10 cm`';
+    case 'attenuation':
+      return '`0.01 cm-1`';
+    default:
+      return 'a number with a unit';
   }
 }
 
@@ -132,7 +177,13 @@ export function readNumber(ctx: ReadContext, node: unknown, subject: string): Re
   const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src || src.text.trim() === '' || isNullScalar(n)) {
-    report(ctx, 'error', 'value-missing', `${subject}: a number is needed here.`, nonEmpty(spanOf(n) ?? { start: 0, end: 0 }));
+    report(
+      ctx,
+      'error',
+      'value-missing',
+      `${subject}: a number is needed here.`,
+      nonEmpty(spanOf(n) ?? { start: 0, end: 0 }),
+    );
     return null;
   }
   const parsed = parseQuantity(src.text);
@@ -143,18 +194,36 @@ export function readNumber(ctx: ReadContext, node: unknown, subject: string): Re
   const q = parsed.quantity;
   if (q.unit !== null) {
     const us = q.unitSpan ? shift(src.base, q.unitSpan, src.span) : src.span;
-    report(ctx, 'error', 'unit-unexpected', `${subject}: a plain number is expected here, without the unit \`${q.unit}\`.`, us);
+    report(
+      ctx,
+      'error',
+      'unit-unexpected',
+      `${subject}: a plain number is expected here, without the unit \`${q.unit}\`.`,
+      us,
+    );
     return null;
   }
   return { value: q.value, uncertainty: q.uncertainty, span: src.span, unit: null };
 }
 
 /** Reads a whole number ≥ `min`; reports `code` otherwise. */
-export function readInteger(ctx: ReadContext, node: unknown, subject: string, code: string, min: number): ReadValue | null {
+export function readInteger(
+  ctx: ReadContext,
+  node: unknown,
+  subject: string,
+  code: string,
+  min: number,
+): ReadValue | null {
   const v = readNumber(ctx, node, subject);
   if (!v) return null;
   if (!Number.isInteger(v.value) || v.value < min || v.uncertainty !== null) {
-    report(ctx, 'error', code, `${subject} must be a whole number ≥ ${min}; \`${ctx.body.slice(v.span.start, v.span.end)}\` is not.`, v.span);
+    report(
+      ctx,
+      'error',
+      code,
+      `${subject} must be a whole number ≥ ${min}; \`${ctx.body.slice(v.span.start, v.span.end)}\` is not.`,
+      v.span,
+    );
     return null;
   }
   return v;
@@ -172,7 +241,13 @@ export function readText(ctx: ReadContext, node: unknown): { text: string; span:
 export function readList(ctx: ReadContext, node: unknown, subject: string, span: Span): unknown[] | null {
   const n = deref(node);
   if (!isSeq(n)) {
-    report(ctx, 'error', 'list-expected', `${subject} must be a list, e.g. \`[0.7, 0.3]\`.`, nonEmpty(spanOf(n) ?? span));
+    report(
+      ctx,
+      'error',
+      'list-expected',
+      `${subject} must be a list, e.g. \`[0.7, 0.3]\`.`,
+      nonEmpty(spanOf(n) ?? span),
+    );
     return null;
   }
   return n.items.map((i) => deref(i));

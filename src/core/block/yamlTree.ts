@@ -4,7 +4,17 @@
  * (the block layer maps them to the note). Parsing never throws; YAML's own
  * errors and our bounds come back as problems.
  */
-import { Document, isAlias as isYamlAlias, isMap as isYamlMap, isPair, isScalar as isYamlScalar, isSeq as isYamlSeq, parseDocument, type YAMLMap, type YAMLSeq } from 'yaml';
+import {
+  Document,
+  isAlias as isYamlAlias,
+  isMap as isYamlMap,
+  isPair,
+  isScalar as isYamlScalar,
+  isSeq as isYamlSeq,
+  parseDocument,
+  type YAMLMap,
+  type YAMLSeq,
+} from 'yaml';
 import type { Problem, Span } from '../types';
 import { plainTree } from './plainBody';
 import type { TreeAlias, TreeMap, TreeNode, TreeScalar, TreeSeq } from './tree';
@@ -48,14 +58,29 @@ export function parseBody(body: string): YamlBody {
     doc = parseDocument(text, YAML_OPTIONS);
   } catch (err) {
     // The parser is robust, but a bug or a stack overflow on pathological nesting must not take the note down.
-    problems.push({ severity: 'error', code: 'yaml-syntax', message: `The block could not be read as YAML (${(err as Error).message}).`, span: { start: 0, end: body.length } });
+    problems.push({
+      severity: 'error',
+      code: 'yaml-syntax',
+      message: `The block could not be read as YAML (${(err as Error).message}).`,
+      span: { start: 0, end: body.length },
+    });
     return { doc: null, problems };
   }
   for (const e of doc.errors) {
-    problems.push({ severity: 'error', code: YAML_CODES[e.code] ?? 'yaml-syntax', message: `YAML: ${e.message}`, span: errorSpan(e.pos, body) });
+    problems.push({
+      severity: 'error',
+      code: YAML_CODES[e.code] ?? 'yaml-syntax',
+      message: `YAML: ${e.message}`,
+      span: errorSpan(e.pos, body),
+    });
   }
   for (const w of doc.warnings) {
-    problems.push({ severity: 'warning', code: 'yaml-warning', message: `YAML: ${w.message}`, span: errorSpan(w.pos, body) });
+    problems.push({
+      severity: 'warning',
+      code: 'yaml-warning',
+      message: `YAML: ${w.message}`,
+      span: errorSpan(w.pos, body),
+    });
   }
   // An alias is written `*name`: a body without a `*` has none, and the counting pass is skipped.
   const expanded = body.includes('*') ? aliasExpansion(doc) : NO_ALIASES;
@@ -154,7 +179,14 @@ export function treeOfDocument(doc: Document.Parsed): TreeNode | null {
       const target = n.resolve(doc);
       t = { kind: 'alias', target: target ? make(target) : null, range: n.range ?? null };
     } else if (isYamlScalar(n)) {
-      t = { kind: 'scalar', value: n.value, source: typeof n.source === 'string' ? n.source : String(n.value), type: n.type ?? null, range: n.range ?? null, isNull: n.value === null };
+      t = {
+        kind: 'scalar',
+        value: n.value,
+        source: typeof n.source === 'string' ? n.source : String(n.value),
+        type: n.type ?? null,
+        range: n.range ?? null,
+        isNull: n.value === null,
+      };
     } else if (isYamlMap(n)) {
       t = { kind: 'map', items: [], range: n.range ?? null, flow: n.flow === true };
       pending.push([n, t]);

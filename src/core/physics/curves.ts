@@ -105,7 +105,7 @@ class Queue {
   push(item: { key: number; lo: number; hi: number }): void {
     const a = this.items;
     a.push(item);
-    for (let i = a.length - 1; i > 0; ) {
+    for (let i = a.length - 1; i > 0;) {
       const p = (i - 1) >> 1;
       if (a[p]!.key >= a[i]!.key) break;
       [a[p], a[i]] = [a[i]!, a[p]!];
@@ -118,7 +118,7 @@ class Queue {
     const last = a.pop()!;
     if (a.length > 0) {
       a[0] = last;
-      for (let i = 0; ; ) {
+      for (let i = 0; ;) {
         const l = 2 * i + 1;
         const r = l + 1;
         let m = i;
@@ -159,7 +159,10 @@ export function schemeCurve(
   const s = prepare(energiesK, g);
   if (s === null) return null;
   const requested = opts?.points;
-  const points = requested !== undefined && Number.isFinite(requested) ? Math.min(MAX_CURVE_POINTS, Math.max(3, Math.floor(requested))) : 400;
+  const points =
+    requested !== undefined && Number.isFinite(requested)
+      ? Math.min(MAX_CURVE_POINTS, Math.max(3, Math.floor(requested)))
+      : 400;
   const span = s.max - s.min;
   const logHi = Math.log1p(endBeta(s, 1) * span);
   const logLo = Math.log1p(endBeta(s, -1) * span);
@@ -200,7 +203,9 @@ export function schemeCurve(
   }
   // Decreasing β is increasing energy. Schemes at the edge of the double range may still overflow: no curve then.
   const curve = [...byT.values()].sort((a, b) => b.beta - a.beta);
-  return curve.every((p) => Number.isFinite(p.beta) && Number.isFinite(p.energy) && Number.isFinite(p.entropy)) ? curve : null;
+  return curve.every((p) => Number.isFinite(p.beta) && Number.isFinite(p.energy) && Number.isFinite(p.entropy))
+    ? curve
+    : null;
 }
 
 /**
@@ -212,7 +217,11 @@ export function schemeCurve(
  * Units: E and energies E/k in K, β in K⁻¹. Domain: as {@link schemeCurve}, and
  * E_min < E < E_max (the end values need β = ±∞); otherwise null.
  */
-export function betaAtEnergy(energiesK: readonly number[], g: readonly number[] | null | undefined, energyK: number): number | null {
+export function betaAtEnergy(
+  energiesK: readonly number[],
+  g: readonly number[] | null | undefined,
+  energyK: number,
+): number | null {
   const s = prepare(energiesK, g);
   if (s === null || !(energyK > s.min && energyK < s.max)) return null;
   return solveBeta(s, energyK);

@@ -96,7 +96,9 @@ export function finiteNCurve(n: number, gapK: number, opts?: { readonly maxPoint
   if (!Number.isSafeInteger(n) || n < 1 || !Number.isFinite(gapK) || gapK <= 0) return null;
   const requested = opts?.maxPoints;
   const maxPoints =
-    requested !== undefined && Number.isFinite(requested) ? Math.min(MAX_FINITE_N_POINTS, Math.max(4, Math.floor(requested))) : 2001;
+    requested !== undefined && Number.isFinite(requested)
+      ? Math.min(MAX_FINITE_N_POINTS, Math.max(4, Math.floor(requested)))
+      : 2001;
   return sampleCounts(n, maxPoints).map((m) => ({
     m,
     energy: (m * gapK) / n,

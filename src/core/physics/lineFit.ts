@@ -39,7 +39,11 @@ export interface LineFit {
  * > 0. Returns null otherwise, when all x are equal (to rounding), and when the
  * sums overflow.
  */
-export function weightedLineFit(x: readonly number[], y: readonly number[], sigma: readonly number[] | null): LineFit | null {
+export function weightedLineFit(
+  x: readonly number[],
+  y: readonly number[],
+  sigma: readonly number[] | null,
+): LineFit | null {
   const n = x.length;
   if (n < 2 || y.length !== n || (sigma !== null && sigma.length !== n)) return null;
   if (!x.every(Number.isFinite) || !y.every(Number.isFinite)) return null;

@@ -23,7 +23,8 @@ export function pairTemperature(lower: PairLevel, upper: PairLevel): PairTempera
   const gap = upper.energy - lower.energy;
   const nl = lower.population / lower.g;
   const nu = upper.population / upper.g;
-  if (!(gap !== 0) || (nl === 0 && nu === 0) || !Number.isFinite(nl) || !Number.isFinite(nu)) return { kind: 'undefined' };
+  if (!(gap !== 0) || (nl === 0 && nu === 0) || !Number.isFinite(nl) || !Number.isFinite(nu))
+    return { kind: 'undefined' };
   if (nu === 0) return { kind: 'zero', sign: gap > 0 ? 1 : -1 };
   if (nl === 0) return { kind: 'zero', sign: gap > 0 ? -1 : 1 };
   const log = Math.log(nl / nu);
@@ -37,4 +38,3 @@ export interface PairLevel {
   readonly g: number;
   readonly population: number;
 }
-

@@ -57,7 +57,12 @@ const STEP_TOLERANCE = 1e-7;
 type Model = (p: readonly number[], i: number) => number;
 
 /** Fits a decay with optional readout flip angle θ (rad, 0 < θ < π/2). */
-export function fitDecay(t: readonly number[], s: readonly number[], flip: number | null, sigma: readonly number[] | null): SeriesFit | null {
+export function fitDecay(
+  t: readonly number[],
+  s: readonly number[],
+  flip: number | null,
+  sigma: readonly number[] | null,
+): SeriesFit | null {
   const c = flip === null ? 1 : Math.cos(flip);
   const corr = t.map((_, i) => Math.pow(c, i));
   const tMax = Math.max(...t.map(Math.abs)) || 1;
@@ -74,7 +79,16 @@ export function fitDecay(t: readonly number[], s: readonly number[], flip: numbe
   if (!fit) return null;
   const [a, k] = fit.p;
   const [ua, uk] = fit.u;
-  return finish('decay', fit, { value: k * tMax, u: uk * tMax }, { value: a * sMax, u: ua * sMax }, null, s, (i) => f(fit.p, i) * sMax, sigma);
+  return finish(
+    'decay',
+    fit,
+    { value: k * tMax, u: uk * tMax },
+    { value: a * sMax, u: ua * sMax },
+    null,
+    s,
+    (i) => f(fit.p, i) * sMax,
+    sigma,
+  );
 }
 
 /**
@@ -86,7 +100,12 @@ export function fitDecay(t: readonly number[], s: readonly number[], flip: numbe
  * line; without two usable points, or when the line does not fall, the first and
  * last points give the start instead.
  */
-function logLinearStart(x: readonly number[], y: readonly number[], corr: readonly number[], sigma: readonly number[] | null): number[] {
+function logLinearStart(
+  x: readonly number[],
+  y: readonly number[],
+  corr: readonly number[],
+  sigma: readonly number[] | null,
+): number[] {
   const sign = y[0]! < 0 ? -1 : 1;
   const xs: number[] = [];
   const zs: number[] = [];
@@ -100,7 +119,8 @@ function logLinearStart(x: readonly number[], y: readonly number[], corr: readon
     us.push((sigma ? sigma[i]! : 1) / Math.abs(y[i]!));
   }
   const line = xs.length >= 2 ? weightedLineFit(xs, zs, us) : null;
-  if (line && line.slope < 0 && Number.isFinite(line.intercept)) return [sign * Math.exp(line.intercept), -1 / line.slope];
+  if (line && line.slope < 0 && Number.isFinite(line.intercept))
+    return [sign * Math.exp(line.intercept), -1 / line.slope];
   const y0 = y[0]! / corr[0]!;
   const yn = y[y.length - 1]! / corr[corr.length - 1]!;
   const ratio = yn / y0;
@@ -109,7 +129,11 @@ function logLinearStart(x: readonly number[], y: readonly number[], corr: readon
 }
 
 /** Fits a build-up S(t) = S∞(1 − e^(−t/τ)) + S₀. */
-export function fitBuildup(t: readonly number[], s: readonly number[], sigma: readonly number[] | null): SeriesFit | null {
+export function fitBuildup(
+  t: readonly number[],
+  s: readonly number[],
+  sigma: readonly number[] | null,
+): SeriesFit | null {
   const tMax = Math.max(...t.map(Math.abs)) || 1;
   const sMax = Math.max(...s.map(Math.abs)) || 1;
   const x = t.map((v) => v / tMax);
@@ -126,7 +150,16 @@ export function fitBuildup(t: readonly number[], s: readonly number[], sigma: re
   if (!fit) return null;
   const [a, k, b] = fit.p;
   const [ua, uk, ub] = fit.u;
-  return finish('buildup', fit, { value: k * tMax, u: uk * tMax }, { value: a * sMax, u: ua * sMax }, { value: b * sMax, u: ub * sMax }, s, (i) => f(fit.p, i) * sMax, sigma);
+  return finish(
+    'buildup',
+    fit,
+    { value: k * tMax, u: uk * tMax },
+    { value: a * sMax, u: ua * sMax },
+    { value: b * sMax, u: ub * sMax },
+    s,
+    (i) => f(fit.p, i) * sMax,
+    sigma,
+  );
 }
 
 interface Solved {
@@ -135,7 +168,14 @@ interface Solved {
   readonly converged: boolean;
 }
 
-function solve(x: number[], y: number[], f: Model, jac: (p: readonly number[], i: number) => number[], initial: number[], sigma: number[] | null): Solved | null {
+function solve(
+  x: number[],
+  y: number[],
+  f: Model,
+  jac: (p: readonly number[], i: number) => number[],
+  initial: number[],
+  sigma: number[] | null,
+): Solved | null {
   if (!initial.every(Number.isFinite)) return null;
   const index = x.map((_, i) => i);
   // Weighted least squares is run as plain least squares of y/σ against f/σ. The package's own
@@ -172,7 +212,13 @@ function solve(x: number[], y: number[], f: Model, jac: (p: readonly number[], i
       const next = run(p, ROUND).parameterValues;
       if (!next.every(Number.isFinite)) return null;
       p = next;
-      at = curvature(p, x.length, (i) => y[i]! - f(p, i), (i) => jac(p, i), sigma);
+      at = curvature(
+        p,
+        x.length,
+        (i) => y[i]! - f(p, i),
+        (i) => jac(p, i),
+        sigma,
+      );
       // A singular JᵀWJ leaves a parameter undetermined; more rounds would not change that.
       if (!at) break;
       converged = at.step.every((d, j) => Math.abs(d) <= STEP_TOLERANCE * Math.abs(p[j]!));
@@ -203,7 +249,13 @@ interface Curvature {
  * unweighted), from the residuals r and the model's analytic derivatives. Null when
  * JᵀWJ is singular (a parameter the data do not determine).
  */
-function curvature(p: readonly number[], n: number, residual: (i: number) => number, derivatives: (i: number) => number[], sigma: readonly number[] | null): Curvature | null {
+function curvature(
+  p: readonly number[],
+  n: number,
+  residual: (i: number) => number,
+  derivatives: (i: number) => number[],
+  sigma: readonly number[] | null,
+): Curvature | null {
   const m = p.length;
   const jtj = Matrix.zeros(m, m);
   const jtr = new Array<number>(m).fill(0);
@@ -243,10 +295,23 @@ function finish(
   at: (i: number) => number,
   sigma: readonly number[] | null,
 ): SeriesFit {
-  const m = (v: { value: number; u: number }): Measured => ({ value: v.value, uncertainty: Number.isFinite(v.u) ? v.u : null });
+  const m = (v: { value: number; u: number }): Measured => ({
+    value: v.value,
+    uncertainty: Number.isFinite(v.u) ? v.u : null,
+  });
   const fitted = s.map((_, i) => at(i));
   const residuals = s.map((v, i) => v - fitted[i]);
   const chi2 = residuals.reduce((acc, r, i) => acc + (r / (sigma ? sigma[i] : 1)) ** 2, 0);
   const ok = fit.converged && Number.isFinite(tc.value) && tc.value > 0;
-  return { model, timeConstant: m(tc), amplitude: m(amp), offset: off ? m(off) : null, fitted, residuals, chi2, dof: s.length - fit.p.length, converged: ok };
+  return {
+    model,
+    timeConstant: m(tc),
+    amplitude: m(amp),
+    offset: off ? m(off) : null,
+    fitted,
+    residuals,
+    chi2,
+    dof: s.length - fit.p.length,
+    converged: ok,
+  };
 }

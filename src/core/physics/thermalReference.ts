@@ -23,8 +23,16 @@ export function acquisitionFactor(hp: Acquisition, th: Acquisition): number {
  * P_hp from the signals, with u(P) from the signals' noise to first order
  * (relative uncertainties in quadrature; P_th and the factors taken as exact).
  */
-export function referencedPolarization(pThermal: number, sHp: number, uHp: number | null, sTh: number, uTh: number | null, factor: number): Measured {
+export function referencedPolarization(
+  pThermal: number,
+  sHp: number,
+  uHp: number | null,
+  sTh: number,
+  uTh: number | null,
+  factor: number,
+): Measured {
   const value = pThermal * (sHp / sTh) * factor;
-  const rel = uHp === null && uTh === null ? null : Math.hypot(uHp === null ? 0 : uHp / sHp, uTh === null ? 0 : uTh / sTh);
+  const rel =
+    uHp === null && uTh === null ? null : Math.hypot(uHp === null ? 0 : uHp / sHp, uTh === null ? 0 : uTh / sTh);
   return { value, uncertainty: rel === null ? null : Math.abs(value) * rel };
 }

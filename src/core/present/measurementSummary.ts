@@ -20,16 +20,27 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
   if (s && input?.series) {
     const name = s.model === 'decay' ? 'T₁ (decay)' : 'τ (build-up)';
     rows.push([name, `${formatMeasured(s.timeConstant.value, s.timeConstant.uncertainty, { digits: o.digits })} s`]);
-    rows.push([s.model === 'decay' ? 'S₀' : 'S∞', formatMeasured(s.amplitude.value, s.amplitude.uncertainty, { digits: o.digits })]);
-    if (s.offset) rows.push(['S₀ (offset)', formatMeasured(s.offset.value, s.offset.uncertainty, { digits: o.digits })]);
+    rows.push([
+      s.model === 'decay' ? 'S₀' : 'S∞',
+      formatMeasured(s.amplitude.value, s.amplitude.uncertainty, { digits: o.digits }),
+    ]);
+    if (s.offset)
+      rows.push(['S₀ (offset)', formatMeasured(s.offset.value, s.offset.uncertainty, { digits: o.digits })]);
     const weighted = input.series.uSignals !== null;
-    rows.push(['series fit', `${input.series.times.length} points, ${weighted ? `χ²/dof = ${formatNumber(s.chi2, 3)}/${s.dof}` : `rms residual ${formatNumber(Math.sqrt(s.chi2 / Math.max(1, s.dof)), 3)}`}${s.converged ? '' : ', not converged'}`]);
-    if (s.model === 'decay' && input.series.flip !== null) rows.push(['readout correction', `cos^(n−1) θ, θ = ${deg(input.series.flip)}`]);
+    rows.push([
+      'series fit',
+      `${input.series.times.length} points, ${weighted ? `χ²/dof = ${formatNumber(s.chi2, 3)}/${s.dof}` : `rms residual ${formatNumber(Math.sqrt(s.chi2 / Math.max(1, s.dof)), 3)}`}${s.converged ? '' : ', not converged'}`,
+    ]);
+    if (s.model === 'decay' && input.series.flip !== null)
+      rows.push(['readout correction', `cos^(n−1) θ, θ = ${deg(input.series.flip)}`]);
   }
   const sig = r.signal;
   if (sig && input?.signal) {
     const i = input.signal;
-    rows.push(['S_hp / S_th', `${formatNumber(sig.hyperpolarized, o.digits)} / ${formatNumber(i.thermal, o.digits)} = ${formatNumber(sig.ratio, o.digits)}${sig.fromSeries ? ' (S_hp fitted from the series)' : ''}`]);
+    rows.push([
+      'S_hp / S_th',
+      `${formatNumber(sig.hyperpolarized, o.digits)} / ${formatNumber(i.thermal, o.digits)} = ${formatNumber(sig.ratio, o.digits)}${sig.fromSeries ? ' (S_hp fitted from the series)' : ''}`,
+    ]);
     rows.push(['scans hp / th', `${i.scans[0]} / ${i.scans[1]}`]);
     rows.push(['flip hp / th', `${deg(i.flip[0])} / ${deg(i.flip[1])}`]);
     rows.push(['gain hp / th', `${formatNumber(i.gain[0], 4)} / ${formatNumber(i.gain[1], 4)}`]);
@@ -38,13 +49,20 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
     rows.push(['P_th of the reference', formatNumber(sig.pThermal, o.digits)]);
   }
   if (input?.lines) {
-    rows.push(['Boltzmann plot', `${input.lines.lines.length} lines, ${input.lines.detector === 'energy' ? 'ln(Iλ/gA)' : 'ln(I/gA)'} vs E_upper${r.outliers.length ? `, ${r.outliers.length} outlier(s)` : ''}`]);
+    rows.push([
+      'Boltzmann plot',
+      `${input.lines.lines.length} lines, ${input.lines.detector === 'energy' ? 'ln(Iλ/gA)' : 'ln(I/gA)'} vs E_upper${r.outliers.length ? `, ${r.outliers.length} outlier(s)` : ''}`,
+    ]);
   }
   const g = r.gain;
   if (g) {
     rows.push(['gain g₀', `${formatNumber(g.coefficient, o.digits)} cm⁻¹`]);
     if (g.singlePass !== null) rows.push(['single-pass gain', formatNumber(g.singlePass, o.digits)]);
-    if (g.threshold !== null) rows.push(['threshold g_th', `${formatNumber(g.threshold, o.digits)} cm⁻¹ (${g.aboveThreshold ? 'above threshold' : 'below threshold'})`]);
+    if (g.threshold !== null)
+      rows.push([
+        'threshold g_th',
+        `${formatNumber(g.threshold, o.digits)} cm⁻¹ (${g.aboveThreshold ? 'above threshold' : 'below threshold'})`,
+      ]);
   }
   return rows;
 }
@@ -52,7 +70,11 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
 /** A short addition to the one-line summary, e.g. `T₁ = 22.1 s` or `g₀ = 0.0205 cm⁻¹ (above threshold)`. */
 export function measurementShort(r: BlockResults): string | null {
   const parts: string[] = [];
-  if (r.series) parts.push(`${r.series.model === 'decay' ? 'T₁' : 'τ'} = ${formatNumber(r.series.timeConstant.value, 3)} s`);
-  if (r.gain) parts.push(`g₀ = ${formatNumber(r.gain.coefficient, 3)} cm⁻¹${r.gain.aboveThreshold === null ? '' : r.gain.aboveThreshold ? ' (above threshold)' : ' (below threshold)'}`);
+  if (r.series)
+    parts.push(`${r.series.model === 'decay' ? 'T₁' : 'τ'} = ${formatNumber(r.series.timeConstant.value, 3)} s`);
+  if (r.gain)
+    parts.push(
+      `g₀ = ${formatNumber(r.gain.coefficient, 3)} cm⁻¹${r.gain.aboveThreshold === null ? '' : r.gain.aboveThreshold ? ' (above threshold)' : ' (below threshold)'}`,
+    );
   return parts.length ? parts.join(' · ') : null;
 }

@@ -129,7 +129,10 @@ export interface TemperatureOptions extends MeasuredOptions {
 }
 
 const PREFIXES: ReadonlyArray<readonly [unit: string, factor: number]> = [
-  ['K', 1], ['mK', 1e-3], ['µK', 1e-6], ['nK', 1e-9],
+  ['K', 1],
+  ['mK', 1e-3],
+  ['µK', 1e-6],
+  ['nK', 1e-9],
 ];
 
 /**

@@ -44,7 +44,8 @@ export interface ReportEntry {
   readonly invertedPairs: readonly [number, number][];
 }
 
-const finite = (x: number | null | undefined): number | null => (x !== null && x !== undefined && Number.isFinite(x) ? x : null);
+const finite = (x: number | null | undefined): number | null =>
+  x !== null && x !== undefined && Number.isFinite(x) ? x : null;
 const measured = (m: Measured | null): Measured | null =>
   m && Number.isFinite(m.value) ? { value: m.value, uncertainty: finite(m.uncertainty) } : null;
 

@@ -76,15 +76,29 @@ export class RunLog {
   groups(by: 'file' | 'date', statuses: readonly Status[] | null = null): RunGroup[] {
     const map = new Map<string, RunEntry[]>();
     for (const e of this.entries(statuses)) {
-      const key = by === 'file' ? e.name : e.date ?? '';
+      const key = by === 'file' ? e.name : (e.date ?? '');
       map.set(key, [...(map.get(key) ?? []), e]);
     }
-    const keys = [...map.keys()].sort((a, b) => (by === 'date' ? (a === '' ? 1 : b === '' ? -1 : a < b ? 1 : a > b ? -1 : 0) : a < b ? -1 : 1));
+    const keys = [...map.keys()].sort((a, b) =>
+      by === 'date' ? (a === '' ? 1 : b === '' ? -1 : a < b ? 1 : a > b ? -1 : 0) : a < b ? -1 : 1,
+    );
     return keys.map((k) => ({ label: k === '' ? 'no date' : k, entries: map.get(k)! }));
   }
 }
 
-const CSV_HEAD = ['note', 'line', 'id', 'date', 'status', 'temperature_K', 'temperature_uncertainty_K', 'beta_per_K', 'beta_uncertainty_per_K', 'polarization', 'polarization_uncertainty'];
+const CSV_HEAD = [
+  'note',
+  'line',
+  'id',
+  'date',
+  'status',
+  'temperature_K',
+  'temperature_uncertainty_K',
+  'beta_per_K',
+  'beta_uncertainty_per_K',
+  'polarization',
+  'polarization_uncertainty',
+];
 
 function cell(v: string | number | null): string {
   if (v === null) return '';
@@ -98,7 +112,23 @@ function cell(v: string | number | null): string {
 export function runLogCsv(entries: readonly RunEntry[]): string {
   const rows = [CSV_HEAD.join(',')];
   for (const e of entries) {
-    rows.push([e.name, e.line + 1, e.id, e.date, e.status, e.temperature?.value ?? null, e.temperature?.uncertainty ?? null, e.beta?.value ?? null, e.beta?.uncertainty ?? null, e.polarization?.value ?? null, e.polarization?.uncertainty ?? null].map(cell).join(','));
+    rows.push(
+      [
+        e.name,
+        e.line + 1,
+        e.id,
+        e.date,
+        e.status,
+        e.temperature?.value ?? null,
+        e.temperature?.uncertainty ?? null,
+        e.beta?.value ?? null,
+        e.beta?.uncertainty ?? null,
+        e.polarization?.value ?? null,
+        e.polarization?.uncertainty ?? null,
+      ]
+        .map(cell)
+        .join(','),
+    );
   }
   return rows.join('\r\n') + '\r\n';
 }

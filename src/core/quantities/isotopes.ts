@@ -7,13 +7,7 @@
  * observed Larmor frequency of a sample also carries chemical shielding. The
  * electron uses CODATA 2022 (see constants.ts).
  */
-import {
-  BOHR_MAGNETON,
-  BOLTZMANN,
-  CODATA_EDITION,
-  ELECTRON_GYROMAGNETIC_RATIO,
-  HBAR,
-} from './constants';
+import { BOHR_MAGNETON, BOLTZMANN, CODATA_EDITION, ELECTRON_GYROMAGNETIC_RATIO, HBAR } from './constants';
 import { closest } from '../text/suggest';
 
 /** A particle with a spin in a magnetic field. */
@@ -86,14 +80,32 @@ export function speciesSymbols(): string[] {
 
 /** Names people write instead of a symbol, lower-cased, mapped to the symbol. */
 const ALIASES: Readonly<Record<string, string>> = {
-  e: 'electron', 'e-': 'electron', 'e−': 'electron', electron: 'electron', electrons: 'electron',
-  proton: '1H', protons: '1H', deuteron: '2H', deuterium: '2H', d: '2H', helion: '3He',
+  e: 'electron',
+  'e-': 'electron',
+  'e−': 'electron',
+  electron: 'electron',
+  electrons: 'electron',
+  proton: '1H',
+  protons: '1H',
+  deuteron: '2H',
+  deuterium: '2H',
+  d: '2H',
+  helion: '3He',
 };
 
 /** Element names for `carbon-13`-style spellings (only elements of the table). */
 const ELEMENT_NAMES: Readonly<Record<string, string>> = {
-  hydrogen: 'H', helium: 'He', lithium: 'Li', carbon: 'C', nitrogen: 'N', oxygen: 'O',
-  fluorine: 'F', sodium: 'Na', silicon: 'Si', phosphorus: 'P', xenon: 'Xe',
+  hydrogen: 'H',
+  helium: 'He',
+  lithium: 'Li',
+  carbon: 'C',
+  nitrogen: 'N',
+  oxygen: 'O',
+  fluorine: 'F',
+  sodium: 'Na',
+  silicon: 'Si',
+  phosphorus: 'P',
+  xenon: 'Xe',
 };
 
 /** The element symbol for a lower-cased name or symbol: `carbon` → `C`, `xe` → `Xe`. */

@@ -10,13 +10,28 @@
  * or a problem. Energies convert to kelvin (E/k) with the exact SI 2019 constants.
  */
 import type { Replacement, Span } from '../types';
-import { KELVIN_PER_EV, KELVIN_PER_HERTZ, KELVIN_PER_JOULE, KELVIN_PER_WAVENUMBER, photonEnergyKelvinFromWavelength } from './constants';
+import {
+  KELVIN_PER_EV,
+  KELVIN_PER_HERTZ,
+  KELVIN_PER_JOULE,
+  KELVIN_PER_WAVENUMBER,
+  photonEnergyKelvinFromWavelength,
+} from './constants';
 import { closest } from '../text/suggest';
 
 /** What a key measures; decides which units are valid. `wavelengthEnergy` is an energy that may also be a photon wavelength. */
 export type Dimension =
-  | 'energy' | 'wavelengthEnergy' | 'field' | 'temperature' | 'time'
-  | 'angle' | 'density' | 'crossSection' | 'length' | 'attenuation' | 'rate';
+  | 'energy'
+  | 'wavelengthEnergy'
+  | 'field'
+  | 'temperature'
+  | 'time'
+  | 'angle'
+  | 'density'
+  | 'crossSection'
+  | 'length'
+  | 'attenuation'
+  | 'rate';
 
 /** A problem in a quantity string; spans are offsets `[start, end)` within that string. */
 export interface QuantityProblem {
@@ -40,41 +55,79 @@ export interface Quantity {
 }
 
 /** How one unit converts: canonical = value × scale + offset, or, for a wavelength, hc/(λ k) with λ = value × scale in m. */
-interface Rule { readonly scale: number; readonly offset?: number; readonly wavelength?: boolean }
+interface Rule {
+  readonly scale: number;
+  readonly offset?: number;
+  readonly wavelength?: boolean;
+}
 
 const ENERGY: Record<string, Rule> = {
-  J: { scale: KELVIN_PER_JOULE }, eV: { scale: KELVIN_PER_EV }, meV: { scale: 1e-3 * KELVIN_PER_EV },
-  'µeV': { scale: 1e-6 * KELVIN_PER_EV }, 'cm-1': { scale: KELVIN_PER_WAVENUMBER },
-  Hz: { scale: KELVIN_PER_HERTZ }, kHz: { scale: 1e3 * KELVIN_PER_HERTZ }, MHz: { scale: 1e6 * KELVIN_PER_HERTZ },
-  GHz: { scale: 1e9 * KELVIN_PER_HERTZ }, THz: { scale: 1e12 * KELVIN_PER_HERTZ }, K: { scale: 1 },
+  J: { scale: KELVIN_PER_JOULE },
+  eV: { scale: KELVIN_PER_EV },
+  meV: { scale: 1e-3 * KELVIN_PER_EV },
+  µeV: { scale: 1e-6 * KELVIN_PER_EV },
+  'cm-1': { scale: KELVIN_PER_WAVENUMBER },
+  Hz: { scale: KELVIN_PER_HERTZ },
+  kHz: { scale: 1e3 * KELVIN_PER_HERTZ },
+  MHz: { scale: 1e6 * KELVIN_PER_HERTZ },
+  GHz: { scale: 1e9 * KELVIN_PER_HERTZ },
+  THz: { scale: 1e12 * KELVIN_PER_HERTZ },
+  K: { scale: 1 },
 };
 
 /** Canonical spellings per dimension, in completion order, with their conversion to the canonical unit. */
 const TABLE: Record<Dimension, Record<string, Rule>> = {
   energy: ENERGY,
-  wavelengthEnergy: { ...ENERGY, nm: { scale: 1e-9, wavelength: true }, 'µm': { scale: 1e-6, wavelength: true } },
+  wavelengthEnergy: { ...ENERGY, nm: { scale: 1e-9, wavelength: true }, µm: { scale: 1e-6, wavelength: true } },
   field: { T: { scale: 1 }, mT: { scale: 1e-3 }, G: { scale: 1e-4 } },
-  temperature: { K: { scale: 1 }, mK: { scale: 1e-3 }, 'µK': { scale: 1e-6 }, nK: { scale: 1e-9 }, '°C': { scale: 1, offset: 273.15 } },
+  temperature: {
+    K: { scale: 1 },
+    mK: { scale: 1e-3 },
+    µK: { scale: 1e-6 },
+    nK: { scale: 1e-9 },
+    '°C': { scale: 1, offset: 273.15 },
+  },
   time: { s: { scale: 1 }, ms: { scale: 1e-3 }, min: { scale: 60 }, h: { scale: 3600 } },
   angle: { deg: { scale: Math.PI / 180 }, rad: { scale: 1 } },
   density: { 'cm-3': { scale: 1 }, 'm-3': { scale: 1e-6 } },
   crossSection: { cm2: { scale: 1 }, m2: { scale: 1e4 } },
-  length: { m: { scale: 100 }, cm: { scale: 1 }, mm: { scale: 0.1 }, 'µm': { scale: 1e-4 }, nm: { scale: 1e-7 } },
+  length: { m: { scale: 100 }, cm: { scale: 1 }, mm: { scale: 0.1 }, µm: { scale: 1e-4 }, nm: { scale: 1e-7 } },
   attenuation: { 'cm-1': { scale: 1 }, 'm-1': { scale: 0.01 } },
   rate: { 's-1': { scale: 1 } },
 };
 
 /** Other accepted spellings of a canonical unit (valid in every dimension that has the canonical one). */
 const ALIASES: Record<string, string> = {
-  ueV: 'µeV', 'μeV': 'µeV', 'cm^-1': 'cm-1', '/cm': 'cm-1', um: 'µm', 'μm': 'µm', uK: 'µK', 'μK': 'µK',
-  degC: '°C', 'cm^-3': 'cm-3', 'm^-3': 'm-3', 'cm^2': 'cm2', 'm^2': 'm2', 'm^-1': 'm-1', '/m': 'm-1',
-  's^-1': 's-1', '/s': 's-1',
+  ueV: 'µeV',
+  μeV: 'µeV',
+  'cm^-1': 'cm-1',
+  '/cm': 'cm-1',
+  um: 'µm',
+  μm: 'µm',
+  uK: 'µK',
+  μK: 'µK',
+  degC: '°C',
+  'cm^-3': 'cm-3',
+  'm^-3': 'm-3',
+  'cm^2': 'cm2',
+  'm^2': 'm2',
+  'm^-1': 'm-1',
+  '/m': 'm-1',
+  's^-1': 's-1',
+  '/s': 's-1',
 };
 
 const DIMENSION_NAMES: Record<Dimension, string> = {
-  energy: 'an energy', wavelengthEnergy: 'an energy (or photon wavelength)', field: 'a magnetic field',
-  temperature: 'a temperature', time: 'a time', angle: 'an angle', density: 'a number density',
-  crossSection: 'a cross-section', length: 'a length', attenuation: 'an attenuation coefficient',
+  energy: 'an energy',
+  wavelengthEnergy: 'an energy (or photon wavelength)',
+  field: 'a magnetic field',
+  temperature: 'a temperature',
+  time: 'a time',
+  angle: 'an angle',
+  density: 'a number density',
+  crossSection: 'a cross-section',
+  length: 'a length',
+  attenuation: 'an attenuation coefficient',
   rate: 'a rate (transition probability)',
 };
 
@@ -156,23 +209,33 @@ function endOfDecimal(text: string, start: number): number {
 function scanNumber(text: string, start: number): Scanned {
   NOT_A_NUMBER.lastIndex = start;
   const bad = mayStartNotANumber(text.charCodeAt(start)) ? NOT_A_NUMBER.exec(text) : null;
-  if (bad) return problem('number-invalid', `\`${bad[0]}\` is not a finite number.`, { start, end: start + bad[0].length });
+  if (bad)
+    return problem('number-invalid', `\`${bad[0]}\` is not a finite number.`, { start, end: start + bad[0].length });
   const decimalEnd = endOfDecimal(text, start);
   if (decimalEnd < 0) {
     const end = Math.max(start + 1, text.slice(start).search(/\s|$/) + start);
-    return problem('number-invalid', 'Expected a number such as `7.05` or `2.0e16`.', { start, end: Math.min(end, text.length) });
+    return problem('number-invalid', 'Expected a number such as `7.05` or `2.0e16`.', {
+      start,
+      end: Math.min(end, text.length),
+    });
   }
   const written = text.slice(start, decimalEnd);
   const span = { start, end: decimalEnd };
   const comma = text.charCodeAt(span.end) === 44 /* , */ ? /^,\d+/.exec(text.slice(span.end)) : null;
   if (comma && !written.includes('.')) {
     const whole = { start, end: span.end + comma[0].length };
-    return problem('number-invalid', 'Use a decimal point, not a comma.', whole,
-      { title: 'Use a decimal point', span: whole, newText: text.slice(whole.start, whole.end).replace(',', '.') });
+    return problem('number-invalid', 'Use a decimal point, not a comma.', whole, {
+      title: 'Use a decimal point',
+      span: whole,
+      newText: text.slice(whole.start, whole.end).replace(',', '.'),
+    });
   }
   // The Unicode minus is rare; only then is the text rewritten for Number().
-  const value = Number(written.includes('\u2212') ? written.replace('\u2212', '-').replace(/([eE])\u2212/, '$1-') : written);
-  if (!Number.isFinite(value)) return problem('number-invalid', `\`${written}\` is out of the range of double precision.`, span);
+  const value = Number(
+    written.includes('\u2212') ? written.replace('\u2212', '-').replace(/([eE])\u2212/, '$1-') : written,
+  );
+  if (!Number.isFinite(value))
+    return problem('number-invalid', `\`${written}\` is out of the range of double precision.`, span);
   const sign = written.charCodeAt(0);
   return { value, span, negative: sign === 45 /* - */ || sign === 0x2212 };
 }
@@ -198,19 +261,34 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
     if ('problem' in u) return u;
     if (u.negative && u.value !== 0) {
       const fixed = text.slice(u.span.start + 1, u.span.end);
-      return problem('uncertainty-negative', 'A standard uncertainty cannot be negative.', u.span,
-        { title: `Change uncertainty to ${fixed}`, span: u.span, newText: fixed });
+      return problem('uncertainty-negative', 'A standard uncertainty cannot be negative.', u.span, {
+        title: `Change uncertainty to ${fixed}`,
+        span: u.span,
+        newText: fixed,
+      });
     }
     [uncertainty, uncertaintySpan] = [Math.abs(u.value), u.span];
     i = skipSpace(text, u.span.end);
   }
   const end = text.trimEnd().length;
-  if (i >= end) return { quantity: { value: value.value, uncertainty, unit: null, valueSpan: value.span, uncertaintySpan, unitSpan: null } };
+  if (i >= end)
+    return {
+      quantity: { value: value.value, uncertainty, unit: null, valueSpan: value.span, uncertaintySpan, unitSpan: null },
+    };
   const rest = text.slice(i, end);
   if (looksNumeric(rest)) {
     return problem('number-invalid', `Unexpected \`${rest}\` after the number.`, { start: i, end });
   }
-  return { quantity: { value: value.value, uncertainty, unit: rest, valueSpan: value.span, uncertaintySpan, unitSpan: { start: i, end } } };
+  return {
+    quantity: {
+      value: value.value,
+      uncertainty,
+      unit: rest,
+      valueSpan: value.span,
+      uncertaintySpan,
+      unitSpan: { start: i, end },
+    },
+  };
 }
 
 /**
@@ -227,8 +305,17 @@ function looksNumeric(rest: string): boolean {
 
 /** The unit every dimension converts to: energies as E/k in K, fields in T, populations per cm³, and so on. */
 export const CANONICAL_UNITS: Readonly<Record<Dimension, string>> = {
-  energy: 'K', wavelengthEnergy: 'K', field: 'T', temperature: 'K', time: 's', angle: 'rad',
-  density: 'cm-3', crossSection: 'cm2', length: 'cm', attenuation: 'cm-1', rate: 's-1',
+  energy: 'K',
+  wavelengthEnergy: 'K',
+  field: 'T',
+  temperature: 'K',
+  time: 's',
+  angle: 'rad',
+  density: 'cm-3',
+  crossSection: 'cm2',
+  length: 'cm',
+  attenuation: 'cm-1',
+  rate: 's-1',
 };
 
 const DIMENSIONS = Object.keys(TABLE) as Dimension[];
@@ -260,18 +347,62 @@ function resolveIgnoringCase(unit: string, dim: Dimension): string | null {
 
 /** Spelled-out names, lower-cased, that stand for a unit. */
 const WORDS: Record<string, string> = {
-  sec: 's', secs: 's', second: 's', seconds: 's', msec: 'ms', mins: 'min', minute: 'min', minutes: 'min',
-  hr: 'h', hrs: 'h', hour: 'h', hours: 'h', degree: 'deg', degrees: 'deg', radian: 'rad', radians: 'rad',
-  tesla: 'T', millitesla: 'mT', gauss: 'G', kelvin: 'K', millikelvin: 'mK', microkelvin: 'µK', nanokelvin: 'nK',
-  celsius: '°C', degreesc: '°C', joule: 'J', joules: 'J', electronvolt: 'eV', electronvolts: 'eV', hertz: 'Hz',
-  wavenumber: 'cm-1', wavenumbers: 'cm-1', nanometre: 'nm', nanometer: 'nm', micron: 'µm', microns: 'µm',
-  metre: 'm', meter: 'm', centimetre: 'cm', centimeter: 'cm', millimetre: 'mm', millimeter: 'mm',
+  sec: 's',
+  secs: 's',
+  second: 's',
+  seconds: 's',
+  msec: 'ms',
+  mins: 'min',
+  minute: 'min',
+  minutes: 'min',
+  hr: 'h',
+  hrs: 'h',
+  hour: 'h',
+  hours: 'h',
+  degree: 'deg',
+  degrees: 'deg',
+  radian: 'rad',
+  radians: 'rad',
+  tesla: 'T',
+  millitesla: 'mT',
+  gauss: 'G',
+  kelvin: 'K',
+  millikelvin: 'mK',
+  microkelvin: 'µK',
+  nanokelvin: 'nK',
+  celsius: '°C',
+  degreesc: '°C',
+  joule: 'J',
+  joules: 'J',
+  electronvolt: 'eV',
+  electronvolts: 'eV',
+  hertz: 'Hz',
+  wavenumber: 'cm-1',
+  wavenumbers: 'cm-1',
+  nanometre: 'nm',
+  nanometer: 'nm',
+  micron: 'µm',
+  microns: 'µm',
+  metre: 'm',
+  meter: 'm',
+  centimetre: 'cm',
+  centimeter: 'cm',
+  millimetre: 'mm',
+  millimeter: 'mm',
 };
 
 /** Rewrites `1/cm`, `cm⁻¹`, `cm**-1`, `/cm3`, `℃`, `deg C`, `seconds` … into an accepted spelling where one is meant. */
 function normaliseUnit(unit: string): string {
-  const n = unit.replace(/\s+/g, '').replace(/\u207B|\u2212/g, '-').replace(/\u00B9/g, '1').replace(/\u00B2/g, '2')
-    .replace(/\u00B3/g, '3').replace(/\*\*|[()^]/g, '').replace(/\u2103/g, '°C').replace(/\u00BA/g, '°').replace(/^1\//, '/');
+  const n = unit
+    .replace(/\s+/g, '')
+    .replace(/\u207B|\u2212/g, '-')
+    .replace(/\u00B9/g, '1')
+    .replace(/\u00B2/g, '2')
+    .replace(/\u00B3/g, '3')
+    .replace(/\*\*|[()^]/g, '')
+    .replace(/\u2103/g, '°C')
+    .replace(/\u00BA/g, '°')
+    .replace(/^1\//, '/');
   const inverse = /^\/(c?m)([23]?)$/.exec(n);
   if (inverse) return `${inverse[1]}-${inverse[2] || '1'}`;
   return Object.hasOwn(WORDS, n.toLowerCase()) ? WORDS[n.toLowerCase()] : n;
@@ -287,17 +418,26 @@ function unitProblem(quantity: Quantity, unit: string, dim: Dimension): { proble
   const normal = normaliseUnit(unit);
   const meant = resolve(normal, dim) ?? resolveIgnoringCase(normal, dim);
   if (meant !== null) return fix('unit-unknown', `Unknown unit \`${unit}\`; did you mean \`${meant}\`?`, meant);
-  const others = DIMENSIONS.filter((d) => d !== 'wavelengthEnergy' && (resolve(unit, d) ?? resolve(normal, d)) !== null);
+  const others = DIMENSIONS.filter(
+    (d) => d !== 'wavelengthEnergy' && (resolve(unit, d) ?? resolve(normal, d)) !== null,
+  );
   if (others.length === 0 && resolve(normal, 'wavelengthEnergy') !== null) others.push('wavelengthEnergy');
   if (others.length > 0) {
-    const what = others.map((d) => (d === 'wavelengthEnergy' ? 'a photon wavelength' : DIMENSION_NAMES[d])).join(' or ');
+    const what = others
+      .map((d) => (d === 'wavelengthEnergy' ? 'a photon wavelength' : DIMENSION_NAMES[d]))
+      .join(' or ');
     const wavelength = dim === 'energy' && resolve(normal, 'wavelengthEnergy') !== null;
     const hint = wavelength ? ' A wavelength is accepted only for a transition energy such as `gap`.' : '';
     return problem('unit-dimension', `\`${unit}\` measures ${what}; ${needed} is needed here.${hint}`, span);
   }
   const limit = unit.length <= 1 ? 0 : unit.length <= 3 ? 1 : 2;
   const near = closest(unit, spellings(dim), limit, { ignoreCase: true });
-  if (near !== null) return fix('unit-unknown', `Unknown unit \`${unit}\`; did you mean \`${resolve(near, dim)}\`?`, resolve(near, dim) ?? near);
+  if (near !== null)
+    return fix(
+      'unit-unknown',
+      `Unknown unit \`${unit}\`; did you mean \`${resolve(near, dim)}\`?`,
+      resolve(near, dim) ?? near,
+    );
   return problem('unit-unknown', `Unknown unit \`${unit}\`: ${needed} is needed here.`, span);
 }
 
@@ -314,11 +454,18 @@ export interface ConvertOptions {
  * Range checks (a positive temperature, a positive gap) are left to the caller,
  * except that a wavelength must be positive and results must stay finite.
  */
-export function convert(quantity: Quantity, dim: Dimension, options: ConvertOptions = {}):
-  { value: number; uncertainty: number | null } | { problem: QuantityProblem } {
+export function convert(
+  quantity: Quantity,
+  dim: Dimension,
+  options: ConvertOptions = {},
+): { value: number; uncertainty: number | null } | { problem: QuantityProblem } {
   const unit = quantity.unit ?? options.defaultUnit ?? null;
   if (unit === null) {
-    return problem('unit-missing', `A unit is needed: ${DIMENSION_NAMES[dim]} (${formatUnitList(dim)}).`, quantity.valueSpan);
+    return problem(
+      'unit-missing',
+      `A unit is needed: ${DIMENSION_NAMES[dim]} (${formatUnitList(dim)}).`,
+      quantity.valueSpan,
+    );
   }
   const canonical = resolve(unit, dim);
   if (canonical === null) return unitProblem(quantity, unit, dim);
@@ -335,7 +482,11 @@ export function convert(quantity: Quantity, dim: Dimension, options: ConvertOpti
     uncertainty = u === null ? null : u * rule.scale;
   }
   if (!Number.isFinite(value) || (uncertainty !== null && !Number.isFinite(uncertainty))) {
-    return problem('number-invalid', `The value is out of range after conversion to ${CANONICAL_UNITS[dim]}.`, quantity.valueSpan);
+    return problem(
+      'number-invalid',
+      `The value is out of range after conversion to ${CANONICAL_UNITS[dim]}.`,
+      quantity.valueSpan,
+    );
   }
   return { value, uncertainty };
 }

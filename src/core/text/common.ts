@@ -27,7 +27,8 @@ export function commonPrefix(a: string, b: string): number {
 export function commonSuffix(a: string, b: string, prefix: number): number {
   const n = Math.min(a.length, b.length) - prefix;
   let i = 0;
-  while (i + CHUNK <= n && a.slice(a.length - i - CHUNK, a.length - i) === b.slice(b.length - i - CHUNK, b.length - i)) i += CHUNK;
+  while (i + CHUNK <= n && a.slice(a.length - i - CHUNK, a.length - i) === b.slice(b.length - i - CHUNK, b.length - i))
+    i += CHUNK;
   while (i < n && a.charCodeAt(a.length - 1 - i) === b.charCodeAt(b.length - 1 - i)) i++;
   return i;
 }

@@ -125,11 +125,24 @@ export function* scanFencedBlocks(text: string, from = 0, line = 0): Generator<F
     let contentEnd = end;
     if (contentEnd > pos && text.charCodeAt(contentEnd - 1) === 13) contentEnd--;
     // A lone \r also ends a line in CommonMark.
-    if (nextCr !== -1 && nextCr < contentEnd) { contentEnd = nextCr; next = nextCr + 1; }
+    if (nextCr !== -1 && nextCr < contentEnd) {
+      contentEnd = nextCr;
+      next = nextCr + 1;
+    }
 
     if (open === null) {
       const fence = openingFence(text, pos, contentEnd);
-      if (fence) open = { fence, openStart: pos, openEnd: contentEnd, openLine: line, lines: [], parts: fence.indent > 0 ? [] : null, bodyFrom: next, bodyLen: 0 };
+      if (fence)
+        open = {
+          fence,
+          openStart: pos,
+          openEnd: contentEnd,
+          openLine: line,
+          lines: [],
+          parts: fence.indent > 0 ? [] : null,
+          bodyFrom: next,
+          bodyLen: 0,
+        };
     } else if (isClosingFence(text, pos, contentEnd, open.fence)) {
       yield finish(text, open, line, pos, contentEnd);
       open = null;

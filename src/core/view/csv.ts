@@ -9,7 +9,19 @@ import type { CurvePayload, DisplayUnit } from './payload';
 
 type Cell = string | number | null;
 
-const HEAD = ['run', 'series', 'm', 'energy_K', 'entropy_per_Nk', 'beta_per_K', 'u_energy_K', 'u_entropy', 'u_beta_per_K', 'entropy_deficit', 'relative_entropy'];
+const HEAD = [
+  'run',
+  'series',
+  'm',
+  'energy_K',
+  'entropy_per_Nk',
+  'beta_per_K',
+  'u_energy_K',
+  'u_entropy',
+  'u_beta_per_K',
+  'entropy_deficit',
+  'relative_entropy',
+];
 
 /**
  * One cell: numbers in plain ASCII; text quoted when it holds a quote, comma or
@@ -27,17 +39,56 @@ function cell(v: Cell): string {
 function runRows(p: CurvePayload): Cell[][] {
   const rows: Cell[][] = [];
   const c = p.curve;
-  for (let i = 0; i < c.energy.length; i++) rows.push([p.id, 'large-N', null, c.energy[i]!, c.entropy[i]!, c.beta[i]!, null, null, null, null, null]);
+  for (let i = 0; i < c.energy.length; i++)
+    rows.push([p.id, 'large-N', null, c.energy[i]!, c.entropy[i]!, c.beta[i]!, null, null, null, null, null]);
   const f = p.finiteN;
   if (f) {
     for (let i = 0; i < f.energy.length; i++) {
-      rows.push([p.id, `finite-N (N=${f.n})`, f.m[i]!, f.energy[i]!, f.entropy[i]!, f.beta[i]!, null, null, null, null, null]);
+      rows.push([
+        p.id,
+        `finite-N (N=${f.n})`,
+        f.m[i]!,
+        f.energy[i]!,
+        f.entropy[i]!,
+        f.beta[i]!,
+        null,
+        null,
+        null,
+        null,
+        null,
+      ]);
     }
   }
   const m = p.measured;
-  if (m) rows.push([p.id, 'measured', null, m.energy, m.entropy, m.beta, m.uEnergy, m.uEntropy, m.uBeta, m.deficit, m.relativeEntropy]);
+  if (m)
+    rows.push([
+      p.id,
+      'measured',
+      null,
+      m.energy,
+      m.entropy,
+      m.beta,
+      m.uEnergy,
+      m.uEntropy,
+      m.uBeta,
+      m.deficit,
+      m.relativeEntropy,
+    ]);
   const t = p.thermal;
-  if (t) rows.push([p.id, `thermal at lattice ${formatPlainNumber(t.temperature)} K`, null, t.energy, t.entropy, t.beta, null, null, null, null, null]);
+  if (t)
+    rows.push([
+      p.id,
+      `thermal at lattice ${formatPlainNumber(t.temperature)} K`,
+      null,
+      t.energy,
+      t.entropy,
+      t.beta,
+      null,
+      null,
+      null,
+      null,
+      null,
+    ]);
   return rows;
 }
 

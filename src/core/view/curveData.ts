@@ -32,7 +32,11 @@ export interface CurveDataOptions {
 export const DEFAULT_CURVE_DATA_OPTIONS: CurveDataOptions = { display: DEFAULT_DISPLAY, points: 400 };
 
 function columns(points: readonly { energy: number; entropy: number; beta: number }[]): CurveColumns {
-  return { energy: points.map((p) => p.energy), entropy: points.map((p) => p.entropy), beta: points.map((p) => p.beta) };
+  return {
+    energy: points.map((p) => p.energy),
+    entropy: points.map((p) => p.entropy),
+    beta: points.map((p) => p.beta),
+  };
 }
 
 /**
@@ -86,14 +90,19 @@ function problemPayload(report: BlockReport, source: NoteSource): ProblemPayload
  * first error, a scheme the curve cannot be computed for (fewer than two
  * levels, a time series only) a problem payload with `code` null.
  */
-export function curveData(report: BlockReport, source: NoteSource, options: CurveDataOptions = DEFAULT_CURVE_DATA_OPTIONS): ViewPayload {
+export function curveData(
+  report: BlockReport,
+  source: NoteSource,
+  options: CurveDataOptions = DEFAULT_CURVE_DATA_OPTIONS,
+): ViewPayload {
   const { input, results } = report;
   if (report.status === 'invalid' || !input || !results) return problemPayload(report, source);
   const line = report.block.openLine;
   const plot = measurementPlot(input, results);
   if (input.lines) {
     // The lines sample only the upper levels of the species: they are no distribution over a level scheme.
-    const message = 'Emission lines sample the upper levels only, so there is no S(E) curve of a level scheme; the Boltzmann plot shows the fit.';
+    const message =
+      'Emission lines sample the upper levels only, so there is no S(E) curve of a level scheme; the Boltzmann plot shows the fit.';
     return { kind: 'problem', ...source, line, id: report.meta.id, code: null, message, plot };
   }
   const energies = input.levels.map((l) => l.energy);
@@ -110,11 +119,14 @@ export function curveData(report: BlockReport, source: NoteSource, options: Curv
   let finiteN: FiniteNColumns | null = null;
   if (input.count !== null && input.levels.length === 2) finiteN = twoLevelFiniteN(input.count, energies, g);
   else if (input.count !== null) {
-    notes.push(`The exact finite-N curve is drawn for two-level schemes only; this scheme has ${input.levels.length} levels, so only the large-N curve is shown.`);
+    notes.push(
+      `The exact finite-N curve is drawn for two-level schemes only; this scheme has ${input.levels.length} levels, so only the large-N curve is shown.`,
+    );
   }
   const measured = measuredPoint(input, results);
   if (!measured) notes.push('The block gives no distribution over its levels, so no measured point is drawn.');
-  else if (measured.uEnergy === null) notes.push('E has no error bar: the inputs carry no complete set of uncertainties to propagate.');
+  else if (measured.uEnergy === null)
+    notes.push('E has no error bar: the inputs carry no complete set of uncertainties to propagate.');
   const thermal = input.lattice ? thermalAt(input.lattice.value, energies, g) : null;
   return {
     kind: 'curve',

@@ -33,14 +33,25 @@ export function blockFacts(
   if (point) {
     facts.push({ label: 'entropy (measured)', text: `S/N = ${entropyText(point.entropy, point.uEntropy, o.digits)}` });
     if (point.thermalEntropy !== null) {
-      facts.push({ label: 'entropy (thermal, same E)', text: `S/N = ${entropyText(point.thermalEntropy, null, o.digits)}` });
+      facts.push({
+        label: 'entropy (thermal, same E)',
+        text: `S/N = ${entropyText(point.thermalEntropy, null, o.digits)}`,
+      });
     }
-    if (point.deficit !== null) facts.push({ label: 'entropy deficit', text: `ΔS/N = ${entropyText(point.deficit, null, o.digits)}` });
+    if (point.deficit !== null)
+      facts.push({ label: 'entropy deficit', text: `ΔS/N = ${entropyText(point.deficit, null, o.digits)}` });
     if (point.relativeEntropy !== null) {
-      facts.push({ label: 'relative entropy to thermal', text: `D = ${formatNumber(point.relativeEntropy, o.digits)} nat` });
+      facts.push({
+        label: 'relative entropy to thermal',
+        text: `D = ${formatNumber(point.relativeEntropy, o.digits)} nat`,
+      });
     }
   }
-  if (thermal) facts.push({ label: 'lattice', text: `T_L = ${formatTemperature(thermal.temperature, null, { digits: o.digits })}` });
+  if (thermal)
+    facts.push({
+      label: 'lattice',
+      text: `T_L = ${formatTemperature(thermal.temperature, null, { digits: o.digits })}`,
+    });
   if (count !== null) facts.push({ label: 'systems', text: `N = ${count}` });
   return facts;
 }

@@ -81,7 +81,13 @@ function finiteOrNull(x: number): number | null {
  * construction (implied by a polarization, or two levels, e.g. a `ratio`);
  * otherwise none.
  */
-function spreadOf(input: BlockInput, p: readonly number[], energy: number, entropy: number, beta: BlockResults['beta']): Spread {
+function spreadOf(
+  input: BlockInput,
+  p: readonly number[],
+  energy: number,
+  entropy: number,
+  beta: BlockResults['beta'],
+): Spread {
   const complete = input.levels.every((l) => l.population !== null && l.uPopulation !== null);
   if (complete) return fromPopulations(input, p, energy, entropy);
   const thermal = input.levels.length === 2 || input.levels.every((l) => l.population === null);

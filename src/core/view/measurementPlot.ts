@@ -33,7 +33,13 @@ function boltzmannPlot(input: BlockInput, r: BlockResults): MeasurementPlot {
     const x = l.energy / KELVIN_PER_EV;
     const y = Math.log(n / l.g);
     const res = fit.residuals[i];
-    points.push({ x, y, u: l.uPopulation !== null ? l.uPopulation / n : null, flagged: r.outliers.includes(i), label: l.label });
+    points.push({
+      x,
+      y,
+      u: l.uPopulation !== null ? l.uPopulation / n : null,
+      flagged: r.outliers.includes(i),
+      label: l.label,
+    });
     if (res !== null && res !== undefined) {
       fitted.push({ x, y: y - res });
       residuals.push({ x, y: res });
@@ -57,7 +63,13 @@ function boltzmannPlot(input: BlockInput, r: BlockResults): MeasurementPlot {
 function seriesPlot(input: BlockInput, r: BlockResults): MeasurementPlot {
   const s = input.series!;
   const f = r.series!;
-  const points: PlotPoint[] = s.times.map((t, i) => ({ x: t, y: s.signals[i], u: s.uSignals ? s.uSignals[i] : null, flagged: false, label: null }));
+  const points: PlotPoint[] = s.times.map((t, i) => ({
+    x: t,
+    y: s.signals[i],
+    u: s.uSignals ? s.uSignals[i] : null,
+    flagged: false,
+    label: null,
+  }));
   const tMax = s.times[s.times.length - 1];
   const tMin = s.times[0];
   const a = f.amplitude.value;

@@ -39,23 +39,42 @@ export type HostToView = RenderMessage;
  */
 export function pinsBesides(shown: CurvePayload | null, pins: readonly PinnedRun[]): PinnedRun[] {
   if (!shown) return [...pins];
-  return pins.filter((r) => !(r.payload.uri === shown.uri && r.payload.line === shown.line && r.payload.version === shown.version));
+  return pins.filter(
+    (r) => !(r.payload.uri === shown.uri && r.payload.line === shown.line && r.payload.version === shown.version),
+  );
 }
 
-export interface ReadyMessage { readonly type: 'ready' }
+export interface ReadyMessage {
+  readonly type: 'ready';
+}
 /** View → host: pin the block shown now. */
-export interface PinMessage { readonly type: 'pin' }
+export interface PinMessage {
+  readonly type: 'pin';
+}
 /** View → host: drop a pinned run. */
-export interface UnpinMessage { readonly type: 'unpin'; readonly key: string }
+export interface UnpinMessage {
+  readonly type: 'unpin';
+  readonly key: string;
+}
 /** View → host: save the charts as a PNG (a `data:image/png;base64,` URL). */
-export interface ExportPngMessage { readonly type: 'exportPng'; readonly dataUrl: string }
+export interface ExportPngMessage {
+  readonly type: 'exportPng';
+  readonly dataUrl: string;
+}
 /** View → host: save the curves and points as CSV, energies also in this unit. */
-export interface ExportCsvMessage { readonly type: 'exportCsv'; readonly unit: EnergyAxisUnit }
+export interface ExportCsvMessage {
+  readonly type: 'exportCsv';
+  readonly unit: EnergyAxisUnit;
+}
 /** View → host: save the PNG and copy a Markdown image link to it. */
-export interface CopyImageLinkMessage { readonly type: 'copyImageLink'; readonly dataUrl: string }
+export interface CopyImageLinkMessage {
+  readonly type: 'copyImageLink';
+  readonly dataUrl: string;
+}
 
 /** Every view → host message. */
-export type ViewToHost = ReadyMessage | PinMessage | UnpinMessage | ExportPngMessage | ExportCsvMessage | CopyImageLinkMessage;
+export type ViewToHost =
+  ReadyMessage | PinMessage | UnpinMessage | ExportPngMessage | ExportCsvMessage | CopyImageLinkMessage;
 
 /** What the webview keeps with `setState`, so a hidden or reloaded panel comes back as it was. */
 export interface ViewState {
@@ -69,7 +88,9 @@ export const MAX_DATA_URL = 64 * 1024 * 1024;
 const PNG_PREFIX = 'data:image/png;base64,';
 
 function isPngDataUrl(x: unknown): x is string {
-  return isText(x, MAX_DATA_URL) && x.startsWith(PNG_PREFIX) && /^[A-Za-z0-9+/]*={0,2}$/.test(x.slice(PNG_PREFIX.length));
+  return (
+    isText(x, MAX_DATA_URL) && x.startsWith(PNG_PREFIX) && /^[A-Za-z0-9+/]*={0,2}$/.test(x.slice(PNG_PREFIX.length))
+  );
 }
 
 function isPinned(x: unknown): x is PinnedRun {
@@ -79,8 +100,11 @@ function isPinned(x: unknown): x is PinnedRun {
 /** True when `x` is a well-formed {@link RenderMessage}. */
 export function isRenderMessage(x: unknown): x is RenderMessage {
   return (
-    isRecord(x) && x.type === 'render' && isCount(x.seq) &&
-    (x.current === null || isViewPayload(x.current)) && isArrayOf(x.pinned, isPinned, 100)
+    isRecord(x) &&
+    x.type === 'render' &&
+    isCount(x.seq) &&
+    (x.current === null || isViewPayload(x.current)) &&
+    isArrayOf(x.pinned, isPinned, 100)
   );
 }
 

@@ -2,8 +2,29 @@
  * Validators of the view payloads (see payload.ts), used on arrival in the
  * webview and when the extension restores a panel from saved state.
  */
-import type { CurveColumns, CurvePayload, DisplayUnit, Fact, FiniteNColumns, MeasuredPoint, MeasurementPlot, PlotPoint, ProblemPayload, ThermalMarker, ViewPayload } from './payload';
-import { isArrayOf, isCount, isFiniteNumber, isNumberArray, isNumberOrNull, isOneOf, isRecord, isText } from './validate';
+import type {
+  CurveColumns,
+  CurvePayload,
+  DisplayUnit,
+  Fact,
+  FiniteNColumns,
+  MeasuredPoint,
+  MeasurementPlot,
+  PlotPoint,
+  ProblemPayload,
+  ThermalMarker,
+  ViewPayload,
+} from './payload';
+import {
+  isArrayOf,
+  isCount,
+  isFiniteNumber,
+  isNumberArray,
+  isNumberOrNull,
+  isOneOf,
+  isRecord,
+  isText,
+} from './validate';
 
 const STATUSES = ['normal', 'saturated', 'inverted', 'non-thermal'] as const;
 const LIMITS = ['zero-positive', 'zero-negative'] as const;
@@ -14,11 +35,21 @@ function isColumns(x: unknown): x is CurveColumns {
 }
 
 function isFiniteN(x: unknown): x is FiniteNColumns | null {
-  return x === null || (isColumns(x) && isRecord(x) && isCount(x.n) && x.n >= 1 && isArrayOf(x.m, isCount, 1_000_000) && x.m.length === x.energy.length);
+  return (
+    x === null ||
+    (isColumns(x) &&
+      isRecord(x) &&
+      isCount(x.n) &&
+      x.n >= 1 &&
+      isArrayOf(x.m, isCount, 1_000_000) &&
+      x.m.length === x.energy.length)
+  );
 }
 
 function isUnit(x: unknown): x is DisplayUnit {
-  return isRecord(x) && isText(x.name, 40) && isText(x.label, 40) && isFiniteNumber(x.kelvinPerUnit) && x.kelvinPerUnit > 0;
+  return (
+    isRecord(x) && isText(x.name, 40) && isText(x.label, 40) && isFiniteNumber(x.kelvinPerUnit) && x.kelvinPerUnit > 0
+  );
 }
 
 function isMeasured(x: unknown): x is MeasuredPoint | null {
@@ -26,7 +57,9 @@ function isMeasured(x: unknown): x is MeasuredPoint | null {
   if (!isRecord(x)) return false;
   const numbers = [x.energy, x.entropy];
   const nullable = [x.uEnergy, x.uEntropy, x.beta, x.uBeta, x.thermalEntropy, x.deficit, x.relativeEntropy];
-  return numbers.every(isFiniteNumber) && nullable.every(isNumberOrNull) && (x.limit === null || isOneOf(x.limit, LIMITS));
+  return (
+    numbers.every(isFiniteNumber) && nullable.every(isNumberOrNull) && (x.limit === null || isOneOf(x.limit, LIMITS))
+  );
 }
 
 function isThermal(x: unknown): x is ThermalMarker | null {
@@ -46,7 +79,14 @@ function isScheme(x: unknown): boolean {
 }
 
 function isPoint(x: unknown): x is PlotPoint {
-  return isRecord(x) && isFiniteNumber(x.x) && isFiniteNumber(x.y) && isNumberOrNull(x.u) && typeof x.flagged === 'boolean' && (x.label === null || isText(x.label, 200));
+  return (
+    isRecord(x) &&
+    isFiniteNumber(x.x) &&
+    isFiniteNumber(x.y) &&
+    isNumberOrNull(x.u) &&
+    typeof x.flagged === 'boolean' &&
+    (x.label === null || isText(x.label, 200))
+  );
 }
 
 function isXY(x: unknown): x is { x: number; y: number } {
@@ -59,8 +99,15 @@ export function isPlot(x: unknown): x is MeasurementPlot | null | undefined {
   if (!isRecord(x) || !isOneOf(x.kind, ['boltzmann', 'series'] as const)) return false;
   const fit = x.fit;
   return (
-    isText(x.title, 200) && isText(x.xTitle, 200) && isText(x.yTitle, 200) && isArrayOf(x.points, isPoint, 100_000) &&
-    isRecord(fit) && isNumberArray(fit.x) && isNumberArray(fit.y) && fit.x.length === fit.y.length && isArrayOf(x.residuals, isXY, 100_000)
+    isText(x.title, 200) &&
+    isText(x.xTitle, 200) &&
+    isText(x.yTitle, 200) &&
+    isArrayOf(x.points, isPoint, 100_000) &&
+    isRecord(fit) &&
+    isNumberArray(fit.x) &&
+    isNumberArray(fit.y) &&
+    fit.x.length === fit.y.length &&
+    isArrayOf(x.residuals, isXY, 100_000)
   );
 }
 
@@ -68,16 +115,28 @@ export function isPlot(x: unknown): x is MeasurementPlot | null | undefined {
 export function isCurvePayload(x: unknown): x is CurvePayload {
   if (!isRecord(x) || x.kind !== 'curve' || !isSource(x)) return false;
   return (
-    isText(x.id) && isOneOf(x.status, STATUSES) && isUnit(x.unit) && isScheme(x.scheme) &&
-    isFiniteNumber(x.saturationEnergy) && isFiniteNumber(x.maxEntropy) && isColumns(x.curve) && isFiniteN(x.finiteN) &&
-    isMeasured(x.measured) && isThermal(x.thermal) && isArrayOf(x.facts, isFact, 100) && isArrayOf(x.notes, (n): n is string => isText(n), 100) && isPlot(x.plot)
+    isText(x.id) &&
+    isOneOf(x.status, STATUSES) &&
+    isUnit(x.unit) &&
+    isScheme(x.scheme) &&
+    isFiniteNumber(x.saturationEnergy) &&
+    isFiniteNumber(x.maxEntropy) &&
+    isColumns(x.curve) &&
+    isFiniteN(x.finiteN) &&
+    isMeasured(x.measured) &&
+    isThermal(x.thermal) &&
+    isArrayOf(x.facts, isFact, 100) &&
+    isArrayOf(x.notes, (n): n is string => isText(n), 100) &&
+    isPlot(x.plot)
   );
 }
 
 /** True when `x` is a well-formed {@link ProblemPayload}. */
 export function isProblemPayload(x: unknown): x is ProblemPayload {
   if (!isRecord(x) || x.kind !== 'problem' || !isSource(x)) return false;
-  return (x.id === null || isText(x.id)) && (x.code === null || isText(x.code, 200)) && isText(x.message) && isPlot(x.plot);
+  return (
+    (x.id === null || isText(x.id)) && (x.code === null || isText(x.code, 200)) && isText(x.message) && isPlot(x.plot)
+  );
 }
 
 /** True when `x` is a well-formed {@link ViewPayload}. */

@@ -3,14 +3,19 @@
  * missing unit, a misspelt isotope …) offered as a code action. The core
  * only proposes replacements; the edit is applied when the user picks it.
  */
-import { CodeActionKind, DiagnosticSeverity, type CodeAction, type Diagnostic, type Range } from 'vscode-languageserver';
+import {
+  CodeActionKind,
+  DiagnosticSeverity,
+  type CodeAction,
+  type Diagnostic,
+  type Range,
+} from 'vscode-languageserver';
 import type { BlockReport, Problem, Severity, Span } from '../../core';
 import { codeLink } from '../docsLink';
 import type { Settings } from '../../shared/settings';
 import { toOffset, toRange, type NoteState } from '../state';
 
 /** Where each diagnostic code is explained: docs/format.md, whose section anchors are the codes. */
-
 
 const SEVERITY: Readonly<Record<Severity, DiagnosticSeverity>> = {
   error: DiagnosticSeverity.Error,

@@ -7,7 +7,14 @@
  * The context is read from the lines' text rather than from the YAML tree:
  * while a line is being typed the block is usually not valid YAML.
  */
-import { CompletionItemKind, InsertTextFormat, MarkupKind, type CompletionItem, type Position, type Range } from 'vscode-languageserver';
+import {
+  CompletionItemKind,
+  InsertTextFormat,
+  MarkupKind,
+  type CompletionItem,
+  type Position,
+  type Range,
+} from 'vscode-languageserver';
 import {
   BLOCK_KEYS,
   convert,
@@ -33,8 +40,18 @@ export function completion(state: NoteState, position: Position, _settings: Sett
   if (!b) return lineText.slice(position.character).trim() === '' ? snippetItems(position, before) : [];
   const inBody = position.line > b.block.openLine && (b.block.closeLine === null || position.line < b.block.closeLine);
   if (!inBody) return [];
-  const body: Body = { state, first: b.block.openLine + 1, last: b.block.closeLine === null ? state.lines.lineCount - 1 : b.block.closeLine - 1, current: position.line };
-  return speciesItems(position, before) ?? unitItems(body, position, before) ?? keyItems(body, position, lineText, before) ?? [];
+  const body: Body = {
+    state,
+    first: b.block.openLine + 1,
+    last: b.block.closeLine === null ? state.lines.lineCount - 1 : b.block.closeLine - 1,
+    current: position.line,
+  };
+  return (
+    speciesItems(position, before) ??
+    unitItems(body, position, before) ??
+    keyItems(body, position, lineText, before) ??
+    []
+  );
 }
 
 // ---- reading the block's lines ----
@@ -138,9 +155,19 @@ function back(position: Position, length: number): Range {
 
 // ---- keys ----
 
-const FORM_KEYS: Readonly<Record<string, BlockForm>> = { levels: 'levels', system: 'spin', gap: 'transition', lines: 'lines' };
+const FORM_KEYS: Readonly<Record<string, BlockForm>> = {
+  levels: 'levels',
+  system: 'spin',
+  gap: 'transition',
+  lines: 'lines',
+};
 /** Keys that exclude each other (docs/format.md: populations-and-polarization, populations-and-ratio, measurement-conflict). */
-const EXCLUSIVE: readonly (readonly [string, string])[] = [['populations', 'polarization'], ['populations', 'ratio'], ['signal', 'populations'], ['signal', 'polarization']];
+const EXCLUSIVE: readonly (readonly [string, string])[] = [
+  ['populations', 'polarization'],
+  ['populations', 'ratio'],
+  ['signal', 'populations'],
+  ['signal', 'polarization'],
+];
 
 /** Whether a top-level key fits a block that already has `present`: new, of the block's form, not excluded. */
 function fits(doc: KeyDoc, present: ReadonlySet<string>): boolean {
@@ -171,12 +198,16 @@ function keyItems(body: Body, position: Position, lineText: string, before: stri
   const top = topIndent(body);
   const brace = openBrace(before);
   const flow = brace >= 0 ? /[{,]\s*([\w-]*)$/.exec(before) : null;
-  const itemKeys = (region: string | null): readonly KeyDoc[] | null => (region === 'levels' ? LEVEL_KEYS : region === 'lines' ? LINE_KEYS : null);
+  const itemKeys = (region: string | null): readonly KeyDoc[] | null =>
+    region === 'levels' ? LEVEL_KEYS : region === 'lines' ? LINE_KEYS : null;
   if (flow) {
     const docs = itemKeys(regionKey(body, top));
     if (!docs) return null;
     const present = flowKeys(lineText, brace);
-    return docs.map((d, i) => ({ d, i })).filter(({ d }) => !present.has(d.key)).map(({ d, i }) => keyItem(d, i, back(position, flow[1].length)));
+    return docs
+      .map((d, i) => ({ d, i }))
+      .filter(({ d }) => !present.has(d.key))
+      .map(({ d, i }) => keyItem(d, i, back(position, flow[1].length)));
   }
   const atStart = /^\s*(-\s+)?([\w-]*)$/.exec(before);
   if (!atStart || !/^\s*(?:-\s+)?[\w-]*\s*$/.test(lineText)) return null;
@@ -184,12 +215,17 @@ function keyItems(body: Body, position: Position, lineText: string, before: stri
   const indent = indentOf(before);
   if (!atStart[1] && indent === top) {
     const present = topKeys(body, top);
-    return BLOCK_KEYS.map((d, i) => ({ d, i })).filter(({ d }) => fits(d, present)).map(({ d, i }) => keyItem(d, i, range));
+    return BLOCK_KEYS.map((d, i) => ({ d, i }))
+      .filter(({ d }) => fits(d, present))
+      .map(({ d, i }) => keyItem(d, i, range));
   }
   const docs = indent > top ? itemKeys(regionKey(body, top)) : null;
   if (!docs) return null;
   const present = blockItemKeys(body);
-  return docs.map((d, i) => ({ d, i })).filter(({ d }) => !present.has(d.key)).map(({ d, i }) => keyItem(d, i, range));
+  return docs
+    .map((d, i) => ({ d, i }))
+    .filter(({ d }) => !present.has(d.key))
+    .map(({ d, i }) => keyItem(d, i, range));
 }
 
 // ---- isotopes ----
@@ -216,14 +252,19 @@ function speciesItems(position: Position, before: string): CompletionItem[] | nu
     const found = lookupSpecies(symbol);
     if (!('species' in found)) return [];
     const s = found.species;
-    return [{
-      label: symbol,
-      kind: CompletionItemKind.EnumMember,
-      detail: `I = ${spinText(s.spin)} · γ/2π = ${gammaText(s.gamma)}`,
-      documentation: { kind: MarkupKind.Markdown, value: `${Math.round(2 * s.spin + 1)} Zeeman levels, |γ|ħB apart. Spin and γ: ${s.source}.` },
-      textEdit: { range: back(position, m[1].length), newText: symbol },
-      sortText: String(i).padStart(3, '0'),
-    }];
+    return [
+      {
+        label: symbol,
+        kind: CompletionItemKind.EnumMember,
+        detail: `I = ${spinText(s.spin)} · γ/2π = ${gammaText(s.gamma)}`,
+        documentation: {
+          kind: MarkupKind.Markdown,
+          value: `${Math.round(2 * s.spin + 1)} Zeeman levels, |γ|ħB apart. Spin and γ: ${s.source}.`,
+        },
+        textEdit: { range: back(position, m[1].length), newText: symbol },
+        sortText: String(i).padStart(3, '0'),
+      },
+    ];
   });
 }
 
@@ -231,20 +272,34 @@ function speciesItems(position: Position, before: string): CompletionItem[] | nu
 
 /** What each quantity key measures, for its unit list. */
 const UNIT_KEYS: Readonly<Record<string, Dimension>> = {
-  field: 'field', lattice: 'temperature', gap: 'wavelengthEnergy', energy: 'energy', frequency: 'energy',
-  populations: 'density', population: 'density',
+  field: 'field',
+  lattice: 'temperature',
+  gap: 'wavelengthEnergy',
+  energy: 'energy',
+  frequency: 'energy',
+  populations: 'density',
+  population: 'density',
 };
 /** The canonical unit each dimension converts to, for the item details. */
-const CANONICAL: Partial<Record<Dimension, string>> = { field: 'T', temperature: 'K', energy: 'K (E/k)', wavelengthEnergy: 'K (E/k)', density: 'cm⁻³' };
+const CANONICAL: Partial<Record<Dimension, string>> = {
+  field: 'T',
+  temperature: 'K',
+  energy: 'K (E/k)',
+  wavelengthEnergy: 'K (E/k)',
+  density: 'cm⁻³',
+};
 
 const NUM = String.raw`[+\-\u2212]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+\-\u2212]?\d+)?`;
 /** A number, an optional `± u`, optional spaces and the start of a unit, at the end of the text before the cursor. */
-const AFTER_NUMBER = new RegExp(String.raw`(${NUM})(?:\s*(?:±|\+\/-|\+-)\s*${NUM})?(\s*)([A-Za-zµμ°/^][^\s,\]}"'#]*|)$`);
+const AFTER_NUMBER = new RegExp(
+  String.raw`(${NUM})(?:\s*(?:±|\+\/-|\+-)\s*${NUM})?(\s*)([A-Za-zµμ°/^][^\s,\]}"'#]*|)$`,
+);
 
 /** The key whose value the number starting at `at` belongs to: `key: 9.4`, `key: [0.4, 0.6`, or a `- 0.4` item. */
 function valueKey(body: Body, before: string, at: number): string | null {
   const prefix = before.slice(0, at);
-  const m = /([A-Za-z_][\w-]*)\s*:\s*["']?$/.exec(prefix) ?? /([A-Za-z_][\w-]*)\s*:\s*\[(?:[^[\]]*,)?\s*["']?$/.exec(prefix);
+  const m =
+    /([A-Za-z_][\w-]*)\s*:\s*["']?$/.exec(prefix) ?? /([A-Za-z_][\w-]*)\s*:\s*\[(?:[^[\]]*,)?\s*["']?$/.exec(prefix);
   if (m) return m[1];
   return /^\s*-\s+["']?$/.test(prefix) ? regionKey(body, topIndent(body)) : null;
 }
@@ -255,7 +310,9 @@ function unitDetail(unit: string, dim: Dimension): string {
   if (dim === 'wavelengthEnergy' && !unitsFor('energy').includes(unit)) return 'photon wavelength, E = hc/λ';
   const q = parseQuantity(`1 ${unit}`);
   const c = 'problem' in q ? null : convert(q.quantity, dim);
-  return c && !('problem' in c) ? `1 ${unit} = ${trimZeros(formatNumber(c.value, 7))} ${CANONICAL[dim] ?? ''}`.trimEnd() : unit;
+  return c && !('problem' in c)
+    ? `1 ${unit} = ${trimZeros(formatNumber(c.value, 7))} ${CANONICAL[dim] ?? ''}`.trimEnd()
+    : unit;
 }
 
 /** Drops trailing zeros of a displayed mantissa: `1.000000` → `1`, `1.000000 × 10⁻⁶` → `1 × 10⁻⁶`. */
@@ -286,8 +343,16 @@ function unitItems(body: Body, position: Position, before: string): CompletionIt
 // ---- new blocks ----
 
 const TEMPLATES: readonly { readonly label: string; readonly detail: string; readonly body: readonly string[] }[] = [
-  { label: 'levels block', detail: 'a spin in a field, with its polarization', body: ['id: ${1:run}', 'system: ${2:13C}', 'field: ${3:9.4 T}', 'lattice: ${4:1.4 K}', 'polarization: ${5:0.3}'] },
-  { label: 'levels block (transition)', detail: 'a single transition with degeneracies', body: ['id: ${1:line}', 'gap: ${2:1420.405751768 MHz}', 'g: [${3:1}, ${4:3}]', 'ratio: ${5:2.99}'] },
+  {
+    label: 'levels block',
+    detail: 'a spin in a field, with its polarization',
+    body: ['id: ${1:run}', 'system: ${2:13C}', 'field: ${3:9.4 T}', 'lattice: ${4:1.4 K}', 'polarization: ${5:0.3}'],
+  },
+  {
+    label: 'levels block (transition)',
+    detail: 'a single transition with degeneracies',
+    body: ['id: ${1:line}', 'gap: ${2:1420.405751768 MHz}', 'g: [${3:1}, ${4:3}]', 'ratio: ${5:2.99}'],
+  },
   {
     label: 'levels block (explicit levels)',
     detail: 'three levels with energies, degeneracies and populations',

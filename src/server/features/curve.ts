@@ -22,5 +22,9 @@ export function blockAtLine(state: NoteState, line: number): BlockReport | undef
 export function curvePayload(state: NoteState, line: number, settings: Settings): ViewPayload | null {
   const block = blockAtLine(state, line);
   if (!block) return null;
-  return curveData(block, { uri: state.uri, version: state.version }, { ...DEFAULT_CURVE_DATA_OPTIONS, display: displayOptions(settings) });
+  return curveData(
+    block,
+    { uri: state.uri, version: state.version },
+    { ...DEFAULT_CURVE_DATA_OPTIONS, display: displayOptions(settings) },
+  );
 }

@@ -61,18 +61,25 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
   }
   const input = b.input;
   if (r.polarization) {
-    const sign = input.spin ? 'P > 0 at positive spin temperature, whatever the sign of γ.' : 'P > 0 at positive temperature.';
-    parts.push(input.spin && input.spin.species.spin > 0.5
-      ? `P is the vector polarization ⟨I\\_z⟩/I under one spin temperature; ${sign}`
-      : `P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; ${sign}`);
+    const sign = input.spin
+      ? 'P > 0 at positive spin temperature, whatever the sign of γ.'
+      : 'P > 0 at positive temperature.';
+    parts.push(
+      input.spin && input.spin.species.spin > 0.5
+        ? `P is the vector polarization ⟨I\\_z⟩/I under one spin temperature; ${sign}`
+        : `P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; ${sign}`,
+    );
   }
-  if (r.thermalPolarization === null && r.polarization && !input.lattice) parts.push('Add `lattice:` to get P\\_th and ε.');
+  if (r.thermalPolarization === null && r.polarization && !input.lattice)
+    parts.push('Add `lattice:` to get P\\_th and ε.');
   if (r.fit) parts.push(fitText(r.fit));
   if (input.levels.length >= 3 && r.invertedPairs.length > 0) {
     const name = (i: number): string => escapeMarkdown(input.levels[i].label ?? `level ${i + 1}`);
     const shown = r.invertedPairs.slice(0, 6).map((p) => `${name(p.lower)} ↔ ${name(p.upper)}`);
     const more = r.invertedPairs.length - shown.length;
-    parts.push(`Inverted pairs (more population per degeneracy above): ${shown.join(', ')}${more > 0 ? `, and ${more} more` : ''}.`);
+    parts.push(
+      `Inverted pairs (more population per degeneracy above): ${shown.join(', ')}${more > 0 ? `, and ${more} more` : ''}.`,
+    );
   }
   return { value: parts.join('\n\n'), span };
 }
@@ -82,7 +89,6 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
  * 5 % off the fitted line per degeneracy makes the block non-thermal
  * (docs/format.md#status). Mirrors the core's rule, which the core's index does not export.
  */
-
 
 /** One line on the Boltzmann fit: χ² test when weighted, the 5 % residual rule otherwise (docs/format.md#status). */
 function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>): string {
@@ -100,10 +106,17 @@ function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>): 
 /** A pair temperature as shown, e.g. `164.3 K`, `−14.4 K`, `±∞`, `0⁺`. */
 export function pairTemperatureText(t: PairTemperature, o: DisplayOptions): string {
   switch (t.kind) {
-    case 'value': return formatTemperature(t.kelvin, null, { digits: o.digits, mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto' });
-    case 'infinite': return '±∞';
-    case 'zero': return t.sign > 0 ? '0⁺' : '0⁻';
-    default: return '—';
+    case 'value':
+      return formatTemperature(t.kelvin, null, {
+        digits: o.digits,
+        mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto',
+      });
+    case 'infinite':
+      return '±∞';
+    case 'zero':
+      return t.sign > 0 ? '0⁺' : '0⁻';
+    default:
+      return '—';
   }
 }
 
@@ -113,7 +126,9 @@ function levelAt(b: BlockReport, offset: number): number | null {
   for (let i = 0; i < levels.length; i++) {
     const s = levels[i].span ?? levels[i].populationSpan;
     if (!s || !within(b.toNote(s), offset)) continue;
-    const shared = levels.some((l, j) => j !== i && l.span !== null && l.span.start === s.start && l.span.end === s.end);
+    const shared = levels.some(
+      (l, j) => j !== i && l.span !== null && l.span.start === s.start && l.span.end === s.end,
+    );
     return shared ? null : i;
   }
   return null;
@@ -128,16 +143,28 @@ function levelHover(b: BlockReport, offset: number, o: DisplayOptions): { value:
   const level = levels[i];
   const name = (k: number): string => escapeMarkdown(levels[k].label ?? `level ${k + 1}`);
   const pair = (k: number): PairLevel => ({ energy: levels[k].energy, g: levels[k].g, population: fractions[k] });
-  const rows: [string, string][] = [['E', energyText(level.energy, b.input.energyUnit, o)], ['g', String(level.g)]];
+  const rows: [string, string][] = [
+    ['E', energyText(level.energy, b.input.energyUnit, o)],
+    ['g', String(level.g)],
+  ];
   const share = `fraction ${formatNumber(fractions[i], o.digits)}`;
-  rows.push(['population', level.population !== null ? `${formatMeasured(level.population, level.uPopulation, { digits: o.digits })} (${share})` : `${share}, implied by β`]);
+  rows.push([
+    'population',
+    level.population !== null
+      ? `${formatMeasured(level.population, level.uPopulation, { digits: o.digits })} (${share})`
+      : `${share}, implied by β`,
+  ]);
   rows.push(['n/g', formatNumber(fractions[i] / level.g, o.digits)]);
-  if (i > 0) rows.push([`T with ${name(i - 1)} (below)`, pairTemperatureText(pairTemperature(pair(i - 1), pair(i)), o)]);
-  if (i + 1 < levels.length) rows.push([`T with ${name(i + 1)} (above)`, pairTemperatureText(pairTemperature(pair(i), pair(i + 1)), o)]);
+  if (i > 0)
+    rows.push([`T with ${name(i - 1)} (below)`, pairTemperatureText(pairTemperature(pair(i - 1), pair(i)), o)]);
+  if (i + 1 < levels.length)
+    rows.push([`T with ${name(i + 1)} (above)`, pairTemperatureText(pairTemperature(pair(i), pair(i + 1)), o)]);
   const residual = b.results?.fit?.residuals[i];
-  if (residual !== undefined && residual !== null) rows.push(['Δ ln(n/g) from the fit', `${residual > 0 ? '+' : ''}${formatNumber(residual, 3)}`]);
+  if (residual !== undefined && residual !== null)
+    rows.push(['Δ ln(n/g) from the fit', `${residual > 0 ? '+' : ''}${formatNumber(residual, 3)}`]);
   const title = `**${name(i)}** · level ${i + 1} of ${levels.length} from the bottom · ${blockName(b)}`;
-  const formula = 'Pair temperature T = (E\\_u − E\\_l)/ln[(n\\_l/g\\_l)/(n\\_u/g\\_u)]; negative when the pair is inverted.';
+  const formula =
+    'Pair temperature T = (E\\_u − E\\_l)/ln[(n\\_l/g\\_l)/(n\\_u/g\\_u)]; negative when the pair is inverted.';
   const span = b.toNote((level.span ?? level.populationSpan)!);
   return { value: `${title}\n\n${markdownTable(['level', 'value'], rows)}\n\n${formula}`, span };
 }
@@ -159,16 +186,28 @@ function kelvinPer(unit: string): number | null {
 
 /** `cm-1` → `cm⁻¹`, `cm-3` → `cm⁻³`, for display only. */
 function prettyUnit(unit: string): string {
-  return unit.replace(/^\/cm$/, 'cm-1').replace(/\^?-1$/, '⁻¹').replace(/\^?-3$/, '⁻³');
+  return unit
+    .replace(/^\/cm$/, 'cm-1')
+    .replace(/\^?-1$/, '⁻¹')
+    .replace(/\^?-3$/, '⁻³');
 }
 
 // ---- one quantity ----
 
 /** Top-level keys holding a quantity, and what they measure. */
-const QUANTITY_KEYS: ReadonlyArray<readonly [string, Dimension]> = [['field', 'field'], ['frequency', 'energy'], ['gap', 'wavelengthEnergy'], ['lattice', 'temperature']];
+const QUANTITY_KEYS: ReadonlyArray<readonly [string, Dimension]> = [
+  ['field', 'field'],
+  ['frequency', 'energy'],
+  ['gap', 'wavelengthEnergy'],
+  ['lattice', 'temperature'],
+];
 
 /** The quantity under the offset: a top-level value, or a level's `energy`. */
-function quantityAt(state: NoteState, b: BlockReport, offset: number): { key: string; dim: Dimension; span: Span } | null {
+function quantityAt(
+  state: NoteState,
+  b: BlockReport,
+  offset: number,
+): { key: string; dim: Dimension; span: Span } | null {
   for (const [key, dim] of QUANTITY_KEYS) {
     const k = b.meta.keys.get(key);
     const span = k ? b.toNote(k.value) : null;
@@ -178,7 +217,9 @@ function quantityAt(state: NoteState, b: BlockReport, offset: number): { key: st
   for (const level of b.input.levels) {
     const item = level.span ? b.toNote(level.span) : null;
     if (!item || !within(item, offset)) continue;
-    const m = /(^|[\s{,])energy[ \t]*:[ \t]*("[^"\n]*"|'[^'\n]*'|[^,}\n\r#]*[^,}\s#])/.exec(state.text.slice(item.start, item.end));
+    const m = /(^|[\s{,])energy[ \t]*:[ \t]*("[^"\n]*"|'[^'\n]*'|[^,}\n\r#]*[^,}\s#])/.exec(
+      state.text.slice(item.start, item.end),
+    );
     if (!m) return null;
     const start = item.start + m.index + m[0].length - m[2].length;
     const span = { start, end: start + m[2].length };
@@ -188,7 +229,12 @@ function quantityAt(state: NoteState, b: BlockReport, offset: number): { key: st
 }
 
 /** The hover of a quantity: its value converted to the units spectroscopists compare. */
-function quantityHover(state: NoteState, b: BlockReport, offset: number, o: DisplayOptions): { value: string; span: Span } | null {
+function quantityHover(
+  state: NoteState,
+  b: BlockReport,
+  offset: number,
+  o: DisplayOptions,
+): { value: string; span: Span } | null {
   const q = quantityAt(state, b, offset);
   if (!q) return null;
   const written = writtenText(state, q.span);
@@ -200,7 +246,9 @@ function quantityHover(state: NoteState, b: BlockReport, offset: number, o: Disp
   // Every row is the canonical value times a constant factor, so the uncertainty scales with it.
   const show: Shown = (factor, unit) => {
     const u = c.uncertainty === null ? null : c.uncertainty * Math.abs(factor);
-    return unit === 'K' ? formatTemperature(c.value * factor, u, { digits: o.digits }) : `${formatMeasured(c.value * factor, u, { digits: o.digits })} ${unit}`;
+    return unit === 'K'
+      ? formatTemperature(c.value * factor, u, { digits: o.digits })
+      : `${formatMeasured(c.value * factor, u, { digits: o.digits })} ${unit}`;
   };
   const species = speciesOf(state, b);
   let rows: [string, string][];
@@ -208,7 +256,11 @@ function quantityHover(state: NoteState, b: BlockReport, offset: number, o: Disp
   else if (q.dim === 'temperature') rows = energyRows('kT', show);
   else {
     rows = energyRows('E', show);
-    if (q.key === 'frequency' && species) rows.push([`field for ${escapeMarkdown(species.symbol)} (bare nucleus)`, show(1 / zeemanSpacingKelvin(species, 1), 'T')]);
+    if (q.key === 'frequency' && species)
+      rows.push([
+        `field for ${escapeMarkdown(species.symbol)} (bare nucleus)`,
+        show(1 / zeemanSpacingKelvin(species, 1), 'T'),
+      ]);
   }
   return { value: `${head}\n\n${markdownTable(['as', 'value'], rows)}`, span: q.span };
 }
@@ -233,7 +285,10 @@ function fieldRows(species: SpinSpecies | null, tesla: number, show: Shown): [st
   if (!species || !(nu > 0)) return rows;
   const power = Math.min(12, Math.max(0, 3 * Math.floor(Math.log10(nu) / 3)));
   const unit = ({ 0: 'Hz', 3: 'kHz', 6: 'MHz', 9: 'GHz', 12: 'THz' } as Record<number, string>)[power];
-  rows.push([`Larmor frequency of ${escapeMarkdown(species.symbol)}`, show(larmorFrequencyHz(species, 1) / 10 ** power, unit)]);
+  rows.push([
+    `Larmor frequency of ${escapeMarkdown(species.symbol)}`,
+    show(larmorFrequencyHz(species, 1) / 10 ** power, unit),
+  ]);
   rows.push(['Zeeman spacing hν/k', show(zeemanSpacingKelvin(species, 1), 'K')]);
   return rows;
 }

@@ -27,7 +27,8 @@ export function inlayHints(state: NoteState, range: Range, settings: Settings): 
 }
 
 function inRange(p: Position, r: Range): boolean {
-  const before = (a: Position, b: Position): boolean => a.line < b.line || (a.line === b.line && a.character <= b.character);
+  const before = (a: Position, b: Position): boolean =>
+    a.line < b.line || (a.line === b.line && a.character <= b.character);
   return before(r.start, p) && before(p, r.end);
 }
 
@@ -40,7 +41,12 @@ function blockHint(state: NoteState, b: BlockReport, o: DisplayOptions): InlayHi
   const position = state.lines.positionAt(b.block.openEnd);
   if (!b.results) {
     const e = firstError(b);
-    return { position, label: e ? `invalid: ${e.code}` : 'invalid', paddingLeft: true, ...(e ? { tooltip: e.message } : {}) };
+    return {
+      position,
+      label: e ? `invalid: ${e.code}` : 'invalid',
+      paddingLeft: true,
+      ...(e ? { tooltip: e.message } : {}),
+    };
   }
   return {
     position,
@@ -77,7 +83,12 @@ function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayH
       label += ` · T_pair = ${pairTemperatureText(t, short)}`;
       tooltip += ` Excitation temperature with the level below (${name(i - 1)}): ${pairTemperatureText(t, o)}.`;
     }
-    out.push({ position: levelHintPosition(state, input.form === 'levels', span, spans), label, paddingLeft: true, tooltip });
+    out.push({
+      position: levelHintPosition(state, input.form === 'levels', span, spans),
+      label,
+      paddingLeft: true,
+      tooltip,
+    });
   });
   return out;
 }
@@ -86,7 +97,12 @@ function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayH
  * Where a level's hint goes: the end of the last line of an explicit level
  * item (unless another item continues on that line), else right after the value.
  */
-function levelHintPosition(state: NoteState, wholeLine: boolean, span: { start: number; end: number }, all: readonly ({ start: number } | null)[]): Position {
+function levelHintPosition(
+  state: NoteState,
+  wholeLine: boolean,
+  span: { start: number; end: number },
+  all: readonly ({ start: number } | null)[],
+): Position {
   const end = state.lines.positionAt(span.end);
   if (!wholeLine) return end;
   const line = state.lines.positionAt(Math.max(span.start, span.end - 1)).line;

@@ -27,9 +27,7 @@ import type { NoteState } from '../state';
  */
 export function escapeMarkdown(text: string): string {
   const entities: Readonly<Record<string, string>> = { '<': '&lt;', '>': '&gt;', '&': '&amp;' };
-  return text
-    .replace(/\r\n|\r|\n/g, ' ')
-    .replace(/[\\`*_{}[\]()<>#+\-.!|~&]/g, (c) => entities[c] ?? `\\${c}`);
+  return text.replace(/\r\n|\r|\n/g, ' ').replace(/[\\`*_{}[\]()<>#+\-.!|~&]/g, (c) => entities[c] ?? `\\${c}`);
 }
 
 /** A two-column Markdown table; cells are Markdown already (escape user text before). */
@@ -72,7 +70,8 @@ export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions):
   const t: [string, string] = ['T', valuePart(temperatureText(r, o), 'T')];
   const beta: [string, string] = ['β', valuePart(betaText(r, o), 'β')];
   // A bare time series has no temperature; its rows are the fit's.
-  const rows: [string, string][] = !r.beta && !r.limit && r.series ? [] : o.temperature === 'beta-first' ? [beta, t] : [t, beta];
+  const rows: [string, string][] =
+    !r.beta && !r.limit && r.series ? [] : o.temperature === 'beta-first' ? [beta, t] : [t, beta];
   if (r.polarization) rows.push([polarizationLabel(b), fractionText(r.polarization, o)]);
   const lattice = b.input?.lattice;
   if (r.thermalPolarization !== null && lattice) {
@@ -82,7 +81,8 @@ export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions):
   }
   if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
-  for (const [label, value] of measurementRows(b.input, r, o)) rows.push([escapeMarkdown(label), escapeMarkdown(value)]);
+  for (const [label, value] of measurementRows(b.input, r, o))
+    rows.push([escapeMarkdown(label), escapeMarkdown(value)]);
   return rows;
 }
 

@@ -11,7 +11,9 @@ import { firstError } from './markdown';
 export function documentSymbols(state: NoteState): DocumentSymbol[] {
   return state.report.blocks.map((b) => {
     const range = toRange(state.lines, { start: b.block.openStart, end: b.block.blockEnd });
-    const selection = b.meta.idSpan ? toRange(state.lines, b.toNote(b.meta.idSpan)) : toRange(state.lines, { start: b.block.openStart, end: b.block.openEnd });
+    const selection = b.meta.idSpan
+      ? toRange(state.lines, b.toNote(b.meta.idSpan))
+      : toRange(state.lines, { start: b.block.openStart, end: b.block.openEnd });
     return {
       name: b.meta.id ?? `levels block at line ${b.block.openLine + 1}`,
       detail: detail(b),

@@ -18,7 +18,11 @@ describe('the analyzer of a whole note', () => {
     // Block 0 is used again, then eleven new ones overflow the cache: the blocks least recently used go.
     a.analyzeText(note([0]));
     a.analyzeText(note([10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20]));
-    assert.deepEqual(a.analyzeText(note([0])).stats, { analysed: 1, reused: 0 }, 'all older blocks were evicted to make room');
+    assert.deepEqual(
+      a.analyzeText(note([0])).stats,
+      { analysed: 1, reused: 0 },
+      'all older blocks were evicted to make room',
+    );
     const b = new Analyzer({ cacheSize: 10 });
     b.analyzeText(note([0, 1, 2, 3, 4, 5, 6, 7, 8, 9]));
     b.analyzeText(note([0]));
@@ -33,7 +37,10 @@ describe('the analyzer of a whole note', () => {
     assert.equal(r.blocks.length, 2);
     assert.equal(r.bounded?.reason, 'blocks');
     assert.equal(r.bounded?.line, 13);
-    assert.deepEqual(r.problems.map((p) => [p.code, p.severity, p.span]), [['note-bounded', 'warning', { start: 0, end: 10 }]]);
+    assert.deepEqual(
+      r.problems.map((p) => [p.code, p.severity, p.span]),
+      [['note-bounded', 'warning', { start: 0, end: 10 }]],
+    );
     assert.match(r.problems[0]!.message, /line 14/);
     const bySize = new Analyzer({ limits: { maxBlocks: Infinity, maxBodyChars: 100 } }).analyzeText(text);
     assert.equal(bySize.blocks.length, 2);
@@ -44,7 +51,13 @@ describe('the analyzer of a whole note', () => {
   describe('after an edit (the note is scanned again only where it changed)', () => {
     /** Where each block is, what it says, and where its problems point: what a host reads. */
     const view = (r: DocumentReport): unknown =>
-      r.blocks.map((b) => ({ block: b.block, status: b.status, problems: b.problems, id: b.meta.id, idAt: b.meta.idSpan && b.toNote(b.meta.idSpan) }));
+      r.blocks.map((b) => ({
+        block: b.block,
+        status: b.status,
+        problems: b.problems,
+        id: b.meta.id,
+        idAt: b.meta.idSpan && b.toNote(b.meta.idSpan),
+      }));
     /** The warm analyzer's report of `after`, checked against a fresh analyzer's. */
     const edited = (before: string, after: string): DocumentReport => {
       const a = new Analyzer();
@@ -67,7 +80,10 @@ describe('the analyzer of a whole note', () => {
       const before = `Intro\n\n${note([1, 2, 3])}`;
       const opened = before.replace('Intro', '```\nIntro');
       // The new fence runs to the first block's closing fence, so that block is code now; the other two stay.
-      assert.deepEqual(edited(before, opened).blocks.map((b) => b.meta.id), ['run 2', 'run 3']);
+      assert.deepEqual(
+        edited(before, opened).blocks.map((b) => b.meta.id),
+        ['run 2', 'run 3'],
+      );
       edited(opened, before);
       edited(before, before.replace('id: run 2', '```\nid: run 2'));
     });

@@ -70,7 +70,10 @@ describe('bad input in a block', () => {
   });
 
   it('rejects populations and polarization together', () => {
-    const p = problem('system: 1H\nfield: 1 T\npopulations: [0.6, 0.4]\npolarization: 0.2', 'populations-and-polarization');
+    const p = problem(
+      'system: 1H\nfield: 1 T\npopulations: [0.6, 0.4]\npolarization: 0.2',
+      'populations-and-polarization',
+    );
     assert.equal(p.at, 'polarization');
   });
 
@@ -128,7 +131,12 @@ describe('bad input in a block', () => {
 
   it('stops an alias bomb in milliseconds with an error instead of expanding it', () => {
     const lines = ['a0: &a0 [x, x, x, x, x, x, x, x, x, x]'];
-    for (let i = 1; i < 12; i++) lines.push(`a${i}: &a${i} [${Array(10).fill(`*a${i - 1}`).join(', ')}]`);
+    for (let i = 1; i < 12; i++)
+      lines.push(
+        `a${i}: &a${i} [${Array(10)
+          .fill(`*a${i - 1}`)
+          .join(', ')}]`,
+      );
     const body = `gap: 1 K\nratio: 0.5\nnote:\n  ${lines.join('\n  ')}`;
     const started = process.hrtime.bigint();
     const p = problem(body, 'alias-expansion');
@@ -155,7 +163,8 @@ describe('bad input in a block', () => {
   });
 
   it('keeps every other block of the note working when one block is broken', () => {
-    const text = '```levels\ngap: 1 K\nratio: 0.5\n```\n```levels\ngap: [\n```\n```levels\nsystem: 1H\nfield: 1 T\npolarization: 0.5\n```\n';
+    const text =
+      '```levels\ngap: 1 K\nratio: 0.5\n```\n```levels\ngap: [\n```\n```levels\nsystem: 1H\nfield: 1 T\npolarization: 0.5\n```\n';
     const statuses = new Analyzer().analyzeText(text).blocks.map((b) => b.status);
     assert.deepEqual(statuses, ['normal', 'invalid', 'normal']);
   });
@@ -173,7 +182,8 @@ describe('bad input in a block', () => {
 
 describe('tidy-ups offered as fixes', () => {
   it('offers to list levels written from the top down lowest first, keeping each item as written', () => {
-    const body = 'levels:\n  - { label: B, energy: 410 cm-1, g: 5, population: 0.05 }  # top\n  - { label: A, energy: 120 cm-1, g: 3, population: 0.25 }\n  - { label: ground, energy: 0 cm-1, population: 0.70 }';
+    const body =
+      'levels:\n  - { label: B, energy: 410 cm-1, g: 5, population: 0.05 }  # top\n  - { label: A, energy: 120 cm-1, g: 3, population: 0.25 }\n  - { label: ground, energy: 0 cm-1, population: 0.70 }';
     const p = problem(body, 'levels-descending');
     assert.equal(p.severity, 'info');
     assert.equal(p.at, 'levels');

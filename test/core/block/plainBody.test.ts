@@ -18,10 +18,14 @@ import { runs } from '../../robustness/seed';
 function shape(n: TreeNode | null): unknown {
   if (n === null) return null;
   switch (n.kind) {
-    case 'scalar': return { scalar: n.value, source: n.source, type: n.type, range: n.range, isNull: n.isNull };
-    case 'map': return { map: n.items.map((p) => [shape(p.key), shape(p.value)]), range: n.range, flow: n.flow };
-    case 'seq': return { seq: n.items.map(shape), range: n.range, flow: n.flow };
-    default: return { alias: n.range };
+    case 'scalar':
+      return { scalar: n.value, source: n.source, type: n.type, range: n.range, isNull: n.isNull };
+    case 'map':
+      return { map: n.items.map((p) => [shape(p.key), shape(p.value)]), range: n.range, flow: n.flow };
+    case 'seq':
+      return { seq: n.items.map(shape), range: n.range, flow: n.flow };
+    default:
+      return { alias: n.range };
   }
 }
 
@@ -30,8 +34,16 @@ function agrees(body: string): boolean {
   const quick = plainTree(body);
   if (!quick) return false;
   const doc = parseDocument(body, YAML_OPTIONS);
-  assert.deepEqual(doc.errors.map((e) => e.message), [], `the composer reports errors for ${JSON.stringify(body)}`);
-  assert.deepEqual(doc.warnings.map((e) => e.message), [], `the composer warns for ${JSON.stringify(body)}`);
+  assert.deepEqual(
+    doc.errors.map((e) => e.message),
+    [],
+    `the composer reports errors for ${JSON.stringify(body)}`,
+  );
+  assert.deepEqual(
+    doc.warnings.map((e) => e.message),
+    [],
+    `the composer warns for ${JSON.stringify(body)}`,
+  );
   assert.deepEqual(shape(quick), shape(treeOfDocument(doc)), `trees differ for ${JSON.stringify(body)}`);
   return true;
 }
@@ -55,23 +67,116 @@ function bodiesUnder(dir: string): { body: string; language: string }[] {
  * nested maps, lists of levels) with varied spacing and indentation, and now and then a line
  * of the kind the composer has rules about (tabs, comments, stray indicators).
  */
-const word = fc.constantFrom('a', 'b', 'id', 'field', 'x y', 'é', '🙂', '1', '1.0', '01', '-0', '1e3', '.inf', '0x1F', '0o7', 'true', 'True', 'null', '~', '"q"', "'q'", "'it''s'", '"a\\tb"', 'a:b', 'a-b', 'a.b');
-const oddWord = fc.constantFrom('a #b', 'a,b', '@a', '`a', '%a', '-', '- a', '?', ':', '"x', '&a', '*a', '!t', 'a: b', '[a', '{a', '|', '>');
+const word = fc.constantFrom(
+  'a',
+  'b',
+  'id',
+  'field',
+  'x y',
+  'é',
+  '🙂',
+  '1',
+  '1.0',
+  '01',
+  '-0',
+  '1e3',
+  '.inf',
+  '0x1F',
+  '0o7',
+  'true',
+  'True',
+  'null',
+  '~',
+  '"q"',
+  "'q'",
+  "'it''s'",
+  '"a\\tb"',
+  'a:b',
+  'a-b',
+  'a.b',
+);
+const oddWord = fc.constantFrom(
+  'a #b',
+  'a,b',
+  '@a',
+  '`a',
+  '%a',
+  '-',
+  '- a',
+  '?',
+  ':',
+  '"x',
+  '&a',
+  '*a',
+  '!t',
+  'a: b',
+  '[a',
+  '{a',
+  '|',
+  '>',
+);
 const anyWord = fc.oneof({ weight: 30, arbitrary: word }, { weight: 1, arbitrary: oddWord });
-const gap = fc.oneof({ weight: 30, arbitrary: fc.constantFrom(' ', '  ') }, { weight: 1, arbitrary: fc.constantFrom('', '\t', ' \t') });
-const flowSeq = fc.tuple(fc.array(anyWord, { maxLength: 4 }), fc.constantFrom(', ', ',', ' , ', ',\n    ', ', ')).map(([xs, sep]) => `[${xs.join(sep)}]`);
-const flowMap = fc.array(fc.tuple(anyWord, gap, anyWord), { maxLength: 3 }).map((kv) => `{ ${kv.map(([k, g, v]) => `${k}:${g}${v}`).join(', ')} }`);
-const comment = fc.oneof({ weight: 6, arbitrary: fc.constant('') }, { weight: 1, arbitrary: fc.constantFrom(' # c', '  #c', '\t# c', '#c', ' # a: b') });
-const inline = fc.tuple(fc.oneof({ weight: 4, arbitrary: anyWord }, { weight: 2, arbitrary: flowSeq }, { weight: 2, arbitrary: flowMap }), comment).map(([v, c]) => v + c);
-const indent = fc.oneof({ weight: 30, arbitrary: fc.constantFrom('  ', ' ', '    ') }, { weight: 1, arbitrary: fc.constant('\t') });
+const gap = fc.oneof(
+  { weight: 30, arbitrary: fc.constantFrom(' ', '  ') },
+  { weight: 1, arbitrary: fc.constantFrom('', '\t', ' \t') },
+);
+const flowSeq = fc
+  .tuple(fc.array(anyWord, { maxLength: 4 }), fc.constantFrom(', ', ',', ' , ', ',\n    ', ', '))
+  .map(([xs, sep]) => `[${xs.join(sep)}]`);
+const flowMap = fc
+  .array(fc.tuple(anyWord, gap, anyWord), { maxLength: 3 })
+  .map((kv) => `{ ${kv.map(([k, g, v]) => `${k}:${g}${v}`).join(', ')} }`);
+const comment = fc.oneof(
+  { weight: 6, arbitrary: fc.constant('') },
+  { weight: 1, arbitrary: fc.constantFrom(' # c', '  #c', '\t# c', '#c', ' # a: b') },
+);
+const inline = fc
+  .tuple(
+    fc.oneof({ weight: 4, arbitrary: anyWord }, { weight: 2, arbitrary: flowSeq }, { weight: 2, arbitrary: flowMap }),
+    comment,
+  )
+  .map(([v, c]) => v + c);
+const indent = fc.oneof(
+  { weight: 30, arbitrary: fc.constantFrom('  ', ' ', '    ') },
+  { weight: 1, arbitrary: fc.constant('\t') },
+);
 const nested: fc.Arbitrary<string> = fc.oneof(
-  fc.tuple(indent, fc.array(fc.tuple(anyWord, gap, inline, comment), { minLength: 1, maxLength: 3 })).map(([ind, kv]) => kv.map(([k, g, v, c]) => `${c ? `\n${ind}${c.trim()}` : ''}\n${ind}${k}:${g}${v}`).join('')),
-  fc.tuple(fc.constantFrom('  ', '', '    '), fc.array(fc.oneof(inline, fc.tuple(anyWord, anyWord).map(([k, v]) => `${k}: ${v}`)), { minLength: 1, maxLength: 3 })).map(([ind, xs]) => xs.map((x) => `\n${ind}- ${x}`).join('')),
+  fc
+    .tuple(indent, fc.array(fc.tuple(anyWord, gap, inline, comment), { minLength: 1, maxLength: 3 }))
+    .map(([ind, kv]) => kv.map(([k, g, v, c]) => `${c ? `\n${ind}${c.trim()}` : ''}\n${ind}${k}:${g}${v}`).join('')),
+  fc
+    .tuple(
+      fc.constantFrom('  ', '', '    '),
+      fc.array(
+        fc.oneof(
+          inline,
+          fc.tuple(anyWord, anyWord).map(([k, v]) => `${k}: ${v}`),
+        ),
+        { minLength: 1, maxLength: 3 },
+      ),
+    )
+    .map(([ind, xs]) => xs.map((x) => `\n${ind}- ${x}`).join('')),
 );
 const entry: fc.Arbitrary<string> = fc.oneof(
   { weight: 10, arbitrary: fc.tuple(anyWord, gap, inline).map(([k, g, v]) => `${k}:${g}${v}`) },
   { weight: 4, arbitrary: fc.tuple(anyWord, comment, nested).map(([k, c, v]) => `${k}:${c}${v}`) },
-  { weight: 1, arbitrary: fc.constantFrom('', ' ', '# note', 'a: 1 # note', '\tb: 1', ' c: 1', 'd:', 'e :  f', '? g', '- h', '...', '---') },
+  {
+    weight: 1,
+    arbitrary: fc.constantFrom(
+      '',
+      ' ',
+      '# note',
+      'a: 1 # note',
+      '\tb: 1',
+      ' c: 1',
+      'd:',
+      'e :  f',
+      '? g',
+      '- h',
+      '...',
+      '---',
+    ),
+  },
 );
 const spacedBody: fc.Arbitrary<string> = fc
   .tuple(fc.array(entry, { minLength: 1, maxLength: 8 }), fc.constantFrom('\n', '\r\n', '\n\n'), fc.boolean())
@@ -80,12 +185,50 @@ const spacedBody: fc.Arbitrary<string> = fc
 /** A body with a few random edits of YAML's significant characters. */
 function damaged(base: fc.Arbitrary<string>): fc.Arbitrary<string> {
   return fc
-    .tuple(base, fc.array(fc.tuple(fc.nat(), fc.nat(2), fc.constantFrom(' ', '\t', '\n', ':', '-', ',', '[', ']', '{', '}', '#', '"', "'", '&', '*', '!', '|', '>', '?', '%', '@', '\r')), { maxLength: 3 }))
+    .tuple(
+      base,
+      fc.array(
+        fc.tuple(
+          fc.nat(),
+          fc.nat(2),
+          fc.constantFrom(
+            ' ',
+            '\t',
+            '\n',
+            ':',
+            '-',
+            ',',
+            '[',
+            ']',
+            '{',
+            '}',
+            '#',
+            '"',
+            "'",
+            '&',
+            '*',
+            '!',
+            '|',
+            '>',
+            '?',
+            '%',
+            '@',
+            '\r',
+          ),
+        ),
+        { maxLength: 3 },
+      ),
+    )
     .map(([body, edits]) => {
       let s = body;
       for (const [at, op, ch] of edits) {
         const i = s.length === 0 ? 0 : at % (s.length + 1);
-        s = op === 0 ? s.slice(0, i) + ch + s.slice(i) : op === 1 ? s.slice(0, i) + s.slice(i + 1) : s.slice(0, i) + ch + s.slice(i + 1);
+        s =
+          op === 0
+            ? s.slice(0, i) + ch + s.slice(i)
+            : op === 1
+              ? s.slice(0, i) + s.slice(i + 1)
+              : s.slice(0, i) + ch + s.slice(i + 1);
       }
       return s;
     });
@@ -93,7 +236,9 @@ function damaged(base: fc.Arbitrary<string>): fc.Arbitrary<string> {
 
 describe('the plain-body shortcut of the YAML reader', () => {
   it('reads every block of the benchmark note, and gives the composer’s tree for each', () => {
-    const bodies = findFencedBlocks(generateNote({ blocks: 200 })).filter((b) => b.language === 'levels').map((b) => b.body);
+    const bodies = findFencedBlocks(generateNote({ blocks: 200 }))
+      .filter((b) => b.language === 'levels')
+      .map((b) => b.body);
     assert.equal(bodies.length, 200);
     for (const body of bodies) assert.ok(agrees(body), `not read as plain: ${JSON.stringify(body)}`);
   });
@@ -120,10 +265,13 @@ describe('the plain-body shortcut of the YAML reader', () => {
     it(`answers only where the composer reports nothing, with the composer’s tree: ${name}`, () => {
       let cases = 0;
       let plain = 0;
-      fc.assert(fc.property(arb as fc.Arbitrary<string>, (body) => {
-        cases++;
-        if (agrees(body)) plain++;
-      }), runs(n));
+      fc.assert(
+        fc.property(arb as fc.Arbitrary<string>, (body) => {
+          cases++;
+          if (agrees(body)) plain++;
+        }),
+        runs(n),
+      );
       assert.ok(plain >= least * cases, `${plain} of ${cases} read as plain`);
     });
   }
@@ -138,23 +286,57 @@ describe('the plain-body shortcut of the YAML reader', () => {
       `a: ${'['.repeat(60)}${']'.repeat(60)}\n`,
       'id: "quoted, with: colons"\nnote: \'single\'\n\n\ndate: 2026-01-01',
       '# run of the day\nid: a # the first\nfield: 7 T   # nominal\n# between keys\nseries: # below\n  # first key\n  model: decay\nlevels:\n  # lower\n  - { energy: 0 K }\n# at the end\n',
-    ]) assert.ok(agrees(body), JSON.stringify(body));
+    ])
+      assert.ok(agrees(body), JSON.stringify(body));
   });
 
   it('leaves to the composer what it does not read itself', () => {
     for (const body of [
-      '[a, # c\n b]: 1\n', 'a: [1, # c\n 2]\n', 'a # c: 1\n', 'a: &x 1\nb: *x\n', 'a: !!str 1\n', 'a: 1\na: 2\n', '1: a\n1.0: b\n',
-      'a:\n', 'a: \n', '"a": 1\n', 'a: b\n  c\n', 'a: b: c\n', 'a:\n\tb: 1\n', 'a:\t1\n', 'a: |\n  x\n', '---\na: 1\n', 'a: 1\n...\n',
-      '- a\n- b\n', 'a: [1, 2\n', 'a: [1,, 2]\n', 'a: [1, 2, ]\n', 'a: {b: 1, b: 2}\n', 'a: {b}\n', 'a: [b: 1]\n', '? a\n: 1\n', '%YAML 1.2\n---\na: 1\n',
-      '\uFEFFa: 1\n', '  a: 1\n', `a: ${'['.repeat(100)}${']'.repeat(100)}\n`, 'a: 1\n b: 2\n', 'a: `x`\n', 'a: @x\n', `${'k'.repeat(1030)}: 1\n`,
-    ]) assert.equal(plainTree(body), null, JSON.stringify(body));
+      '[a, # c\n b]: 1\n',
+      'a: [1, # c\n 2]\n',
+      'a # c: 1\n',
+      'a: &x 1\nb: *x\n',
+      'a: !!str 1\n',
+      'a: 1\na: 2\n',
+      '1: a\n1.0: b\n',
+      'a:\n',
+      'a: \n',
+      '"a": 1\n',
+      'a: b\n  c\n',
+      'a: b: c\n',
+      'a:\n\tb: 1\n',
+      'a:\t1\n',
+      'a: |\n  x\n',
+      '---\na: 1\n',
+      'a: 1\n...\n',
+      '- a\n- b\n',
+      'a: [1, 2\n',
+      'a: [1,, 2]\n',
+      'a: [1, 2, ]\n',
+      'a: {b: 1, b: 2}\n',
+      'a: {b}\n',
+      'a: [b: 1]\n',
+      '? a\n: 1\n',
+      '%YAML 1.2\n---\na: 1\n',
+      '\uFEFFa: 1\n',
+      '  a: 1\n',
+      `a: ${'['.repeat(100)}${']'.repeat(100)}\n`,
+      'a: 1\n b: 2\n',
+      'a: `x`\n',
+      'a: @x\n',
+      `${'k'.repeat(1030)}: 1\n`,
+    ])
+      assert.equal(plainTree(body), null, JSON.stringify(body));
   });
 
   it('keeps the composer’s problems for what it leaves: the block reader reports them as before', () => {
     // Checked against the package itself: duplicate keys are its DUPLICATE_KEY error.
     const { doc, problems } = parseBody('a: 1\na: 2\n');
     assert.ok(doc);
-    assert.deepEqual(problems.map((p) => p.code), ['yaml-duplicate-key']);
+    assert.deepEqual(
+      problems.map((p) => p.code),
+      ['yaml-duplicate-key'],
+    );
     assert.equal(parseBody('a: &x [1, 2]\nb: *x\n').problems.length, 0);
   });
 
@@ -163,6 +345,9 @@ describe('the plain-body shortcut of the YAML reader', () => {
     const values = t.items.map((p) => (p.value as { value: unknown }).value);
     // YAML 1.2 core schema (yaml.org/spec/1.2.2, §10.3.2): hex and decimal ints, .inf, ~ as null, True as bool.
     assert.deepEqual(values, [31, Infinity, null, 1.5, true, 7, 1000, 'text']);
-    assert.deepEqual(t.items.map((p) => (p.value as { isNull: boolean }).isNull), [false, false, true, false, false, false, false, false]);
+    assert.deepEqual(
+      t.items.map((p) => (p.value as { isNull: boolean }).isNull),
+      [false, false, true, false, false, false, false, false],
+    );
   });
 });

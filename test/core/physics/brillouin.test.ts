@@ -93,7 +93,13 @@ describe('Brillouin function', () => {
   });
 
   it('returns null for NaN arguments and non-positive or non-finite J', () => {
-    for (const [j, x] of [[1, NaN], [0, 1], [-1, 1], [NaN, 1], [Infinity, 1]] as const) {
+    for (const [j, x] of [
+      [1, NaN],
+      [0, 1],
+      [-1, 1],
+      [NaN, 1],
+      [Infinity, 1],
+    ] as const) {
       assert.equal(brillouin(j, x), null, `J = ${j}, x = ${x}`);
     }
   });
@@ -128,7 +134,16 @@ describe('thermal spin polarization', () => {
 
   it('returns 0 at infinite temperature and null for T ≤ 0, bad spacing or a non-spin I', () => {
     assert.equal(thermalSpinPolarization(1, 1, Infinity), 0);
-    for (const [i, d, t] of [[1, 1, 0], [1, 1, -5], [1, 1, NaN], [1, 0, 1], [1, -1, 1], [1, Infinity, 1], [0.7, 1, 1], [0, 1, 1]] as const) {
+    for (const [i, d, t] of [
+      [1, 1, 0],
+      [1, 1, -5],
+      [1, 1, NaN],
+      [1, 0, 1],
+      [1, -1, 1],
+      [1, Infinity, 1],
+      [0.7, 1, 1],
+      [0, 1, 1],
+    ] as const) {
       assert.equal(thermalSpinPolarization(i, d, t), null, `I = ${i}, ΔE = ${d}, T = ${t}`);
     }
   });
@@ -167,7 +182,9 @@ describe('spin polarization from populations', () => {
     const parts = pops.map((_, k) => {
       const up = pops.map((v, i) => (i === k ? v + h : v));
       const dn = pops.map((v, i) => (i === k ? v - h : v));
-      return ((spinPolarizationFromPopulations(up)!.value - spinPolarizationFromPopulations(dn)!.value) / (2 * h)) * u[k]!;
+      return (
+        ((spinPolarizationFromPopulations(up)!.value - spinPolarizationFromPopulations(dn)!.value) / (2 * h)) * u[k]!
+      );
     });
     close(spinPolarizationFromPopulations(pops, u)!.uncertainty, Math.hypot(...parts), 1e-7, 'u(P), spin 1');
   });
@@ -192,7 +209,12 @@ describe('inverse temperature from spin polarization', () => {
       for (const y of [1e-9, 1e-4, 0.02, 0.7, 2, 5]) {
         for (const sign of [1, -1]) {
           const p = spinPolarization(spin, sign * y)!;
-          close(betaFromSpinPolarization(spin, p, 0.25)!.value, (sign * y) / 0.25, 1e-9, `I = ${spin}, y = ${sign * y}`);
+          close(
+            betaFromSpinPolarization(spin, p, 0.25)!.value,
+            (sign * y) / 0.25,
+            1e-9,
+            `I = ${spin}, y = ${sign * y}`,
+          );
         }
       }
     }
@@ -202,7 +224,11 @@ describe('inverse temperature from spin polarization', () => {
   });
 
   it('has u(β) = u(P)/|dP/dβ|, checked against a numerical derivative', () => {
-    for (const [spin, beta] of [[1, 0.4], [2.5, -1.3], [0.5, 2]] as const) {
+    for (const [spin, beta] of [
+      [1, 0.4],
+      [2.5, -1.3],
+      [0.5, 2],
+    ] as const) {
       const d = 0.5;
       const p = spinPolarization(spin, beta * d)!;
       const h = 1e-6;
@@ -216,7 +242,18 @@ describe('inverse temperature from spin polarization', () => {
   it('returns exactly zero at P = 0 and null at |P| ≥ 1 or invalid inputs', () => {
     assert.ok(Object.is(betaFromSpinPolarization(1.5, 0, 1)!.value, 0));
     assert.ok(Object.is(betaFromSpinPolarization(1.5, -0, 1)!.value, 0));
-    for (const [i, p, d] of [[1, 1, 1], [1, -1, 1], [1, 1.5, 1], [1, NaN, 1], [1, 0.5, 0], [1, 0.5, -2], [1, 0.5, NaN], [0.3, 0.5, 1], [-1, 0.5, 1], [1, Infinity, 1]] as const) {
+    for (const [i, p, d] of [
+      [1, 1, 1],
+      [1, -1, 1],
+      [1, 1.5, 1],
+      [1, NaN, 1],
+      [1, 0.5, 0],
+      [1, 0.5, -2],
+      [1, 0.5, NaN],
+      [0.3, 0.5, 1],
+      [-1, 0.5, 1],
+      [1, Infinity, 1],
+    ] as const) {
       assert.equal(betaFromSpinPolarization(i, p, d), null, `I = ${i}, P = ${p}, ΔE = ${d}`);
     }
   });

@@ -1,5 +1,11 @@
 import assert from 'node:assert/strict';
-import { MAX_CURVE_POINTS, betaAtEnergy, schemeCurve, thermalStateAtEnergy, type CurvePoint } from '../../../src/core/physics/curves';
+import {
+  MAX_CURVE_POINTS,
+  betaAtEnergy,
+  schemeCurve,
+  thermalStateAtEnergy,
+  type CurvePoint,
+} from '../../../src/core/physics/curves';
 import { gibbsEntropy, meanEnergy, relativeEntropy, thermalDistribution } from '../../../src/core/physics/entropy';
 import { close } from '../helpers';
 
@@ -13,10 +19,16 @@ function checkShape(curve: CurvePoint[], eMin: number, eMax: number): void {
     assert.ok(curve[i]!.beta < curve[i - 1]!.beta, `β not decreasing at point ${i}`);
   }
   const span = eMax - eMin;
-  assert.ok(curve[0]!.energy - eMin <= 1e-6 * span, `first point ${curve[0]!.energy} not within 1e-6 of the ground energy`);
+  assert.ok(
+    curve[0]!.energy - eMin <= 1e-6 * span,
+    `first point ${curve[0]!.energy} not within 1e-6 of the ground energy`,
+  );
   assert.ok(eMax - curve[curve.length - 1]!.energy <= 1e-6 * span, 'last point not within 1e-6 of the top energy');
   assert.ok(curve[0]!.beta > 0 && curve[curve.length - 1]!.beta < 0, 'β does not change sign');
-  assert.ok(curve.some((p) => p.beta === 0), 'no point at β = 0');
+  assert.ok(
+    curve.some((p) => p.beta === 0),
+    'no point at β = 0',
+  );
 }
 
 describe('S(E) and β(E) of a two-level scheme', () => {
@@ -56,7 +68,10 @@ describe('S(E) and β(E) of a two-level scheme', () => {
       const b = curve[i]!;
       const slope = (b.entropy - a.entropy) / (b.energy - a.energy);
       const margin = 1e-6 * Math.max(1, Math.abs(slope));
-      assert.ok(slope <= a.beta + margin && slope >= b.beta - margin, `chord ${i}: slope ${slope} outside [${b.beta}, ${a.beta}]`);
+      assert.ok(
+        slope <= a.beta + margin && slope >= b.beta - margin,
+        `chord ${i}: slope ${slope} outside [${b.beta}, ${a.beta}]`,
+      );
     }
   });
 });
@@ -118,7 +133,16 @@ describe('S(E) and β(E) of larger schemes', () => {
 
   it('returns null for fewer than two levels, zero span and invalid numbers', () => {
     const cases: Array<[number[], number[] | null]> = [
-      [[1], null], [[], null], [[2, 2], null], [[0, NaN], null], [[0, Infinity], null], [[0, 1], [1, 0]], [[0, 1], [1]],
+      [[1], null],
+      [[], null],
+      [[2, 2], null],
+      [[0, NaN], null],
+      [[0, Infinity], null],
+      [
+        [0, 1],
+        [1, 0],
+      ],
+      [[0, 1], [1]],
       [[-Number.MAX_VALUE, Number.MAX_VALUE], null],
     ];
     for (const [e, g] of cases) {
@@ -144,7 +168,8 @@ describe('inverse temperature at a given energy', () => {
   it('returns zero at the β = 0 energy and null at or outside the ends', () => {
     const e0 = meanEnergy(g, energies)!;
     assert.equal(betaAtEnergy(energies, g, e0), 0);
-    for (const e of [0, 4, -1, 5, NaN, Infinity, -Infinity]) assert.equal(betaAtEnergy(energies, g, e), null, `E = ${e}`);
+    for (const e of [0, 4, -1, 5, NaN, Infinity, -Infinity])
+      assert.equal(betaAtEnergy(energies, g, e), null, `E = ${e}`);
     assert.equal(thermalStateAtEnergy(energies, g, 4), null);
   });
 

@@ -29,7 +29,12 @@ describe('thermal distribution and Gibbs entropy of a two-level system', () => {
     close(gibbsEntropy(thermalDistribution([0, 1], null, 2)!), 0.3653338551, 1e-9, 'x = 2');
     close(gibbsEntropy(thermalDistribution([-0.5, 0.5], null, 1)!), 0.5822031089, 1e-9, 'paramagnet');
     const x = 0.5;
-    close(gibbsEntropy(thermalDistribution([-0.5, 0.5], null, 1)!), Math.log(2 * Math.cosh(x)) - x * Math.tanh(x), 1e-14, 'paramagnet closed form');
+    close(
+      gibbsEntropy(thermalDistribution([-0.5, 0.5], null, 1)!),
+      Math.log(2 * Math.cosh(x)) - x * Math.tanh(x),
+      1e-14,
+      'paramagnet closed form',
+    );
   });
 
   it('gives S/(Nk) = 1.385 325 944 for the degenerate pair g = 1, 3 at ε/kT = 0.1', () => {
@@ -94,7 +99,20 @@ describe('Gibbs entropy', () => {
 
   it('returns null for invalid inputs and never NaN', () => {
     const cases: Array<[number[], number[] | null]> = [
-      [[], null], [[0, 0], null], [[1, -1], null], [[1, NaN], null], [[1, Infinity], null], [[1, 1], [1]], [[1, 1], [1, 0]], [[1, 1], [1, NaN]],
+      [[], null],
+      [[0, 0], null],
+      [[1, -1], null],
+      [[1, NaN], null],
+      [[1, Infinity], null],
+      [[1, 1], [1]],
+      [
+        [1, 1],
+        [1, 0],
+      ],
+      [
+        [1, 1],
+        [1, NaN],
+      ],
     ];
     for (const [p, g] of cases) {
       assert.equal(gibbsEntropy(p, g), null, `p = ${p}, g = ${g}`);

@@ -33,7 +33,10 @@ describe('ln C(N, m)', () => {
       for (let m = 0; m <= n; m++) {
         const exact = lnBig(exactBinomial(n, m));
         const got = lnBinomial(n, m)!;
-        assert.ok(Math.abs(got - exact) <= 1e-13 * Math.max(1, exact), `ln C(${n}, ${m}) = ${got}, exact ${exact}, Δ = ${Math.abs(got - exact)}`);
+        assert.ok(
+          Math.abs(got - exact) <= 1e-13 * Math.max(1, exact),
+          `ln C(${n}, ${m}) = ${got}, exact ${exact}, Δ = ${Math.abs(got - exact)}`,
+        );
       }
     }
   });
@@ -49,7 +52,12 @@ describe('ln C(N, m)', () => {
   it('stays accurate up to N = 1e9', () => {
     close(lnBinomial(1e9, 1), Math.log(1e9), 1e-15, 'ln C(1e9, 1) = ln N');
     close(lnBinomial(1e9, 2), Math.log(1e9) + Math.log(1e9 - 1) - Math.LN2, 1e-15, 'ln C(1e9, 2)');
-    close(lnBinomial(1e9, 1e9 - 3), Math.log(1e9) + Math.log(1e9 - 1) + Math.log(1e9 - 2) - Math.log(6), 1e-15, 'ln C(1e9, N − 3)');
+    close(
+      lnBinomial(1e9, 1e9 - 3),
+      Math.log(1e9) + Math.log(1e9 - 1) + Math.log(1e9 - 2) - Math.log(6),
+      1e-15,
+      'ln C(1e9, N − 3)',
+    );
     // Central binomial coefficient, asymptotic series: ln C(N, N/2) = N ln 2 − ½ ln(πN/2) − 1/(4N) + O(N⁻³) (derived).
     const n = 1e9;
     close(lnBinomial(n, n / 2), n * Math.LN2 - 0.5 * Math.log((Math.PI * n) / 2) - 1 / (4 * n), 1e-15, 'ln C(N, N/2)');
@@ -65,7 +73,17 @@ describe('ln C(N, m)', () => {
   it('returns null outside 0 ≤ m ≤ N or for non-integers and non-finite numbers', () => {
     assert.equal(lnBinomial(0, 0), 0);
     assert.equal(lnBinomial(5, -0), 0);
-    for (const [n, m] of [[5, 6], [5, -1], [5.5, 2], [5, 2.5], [NaN, 1], [10, NaN], [Infinity, 1], [-1, 0], [2 ** 53, 1]] as const) {
+    for (const [n, m] of [
+      [5, 6],
+      [5, -1],
+      [5.5, 2],
+      [5, 2.5],
+      [NaN, 1],
+      [10, NaN],
+      [Infinity, 1],
+      [-1, 0],
+      [2 ** 53, 1],
+    ] as const) {
       assert.equal(lnBinomial(n, m), null, `ln C(${n}, ${m})`);
     }
   });
@@ -129,20 +147,38 @@ describe('finite-N entropy and inverse temperature', () => {
       if (i > 0) assert.ok(a.energy > curve[i - 1]!.energy && a.beta < curve[i - 1]!.beta, `ordering at m = ${a.m}`);
     }
     // Midpoint: ln C(N, N/2)/N = ln 2 − ½ ln(πN/2)/N + O(N⁻²) (central binomial asymptotics, derived).
-    close(curve.find((p) => p.m === n / 2)!.entropy, Math.LN2 - (0.5 * Math.log((Math.PI * n) / 2)) / n, 1e-15, 'S/(Nk) at the midpoint');
+    close(
+      curve.find((p) => p.m === n / 2)!.entropy,
+      Math.LN2 - (0.5 * Math.log((Math.PI * n) / 2)) / n,
+      1e-15,
+      'S/(Nk) at the midpoint',
+    );
   });
 
   it('keeps both central counts for odd N and honours small maxPoints', () => {
     const ms = finiteNCurve(1001, 1, { maxPoints: 50 })!.map((p) => p.m);
     assert.ok(ms.length <= 50, `${ms.length} points`);
     assert.ok(ms.includes(500) && ms.includes(501) && ms.includes(0) && ms.includes(1001));
-    assert.deepEqual(finiteNCurve(1001, 1, { maxPoints: 2 })!.map((p) => p.m), [0, 500, 501, 1001]);
+    assert.deepEqual(
+      finiteNCurve(1001, 1, { maxPoints: 2 })!.map((p) => p.m),
+      [0, 500, 501, 1001],
+    );
     assert.equal(finiteNCurve(1000, 1, { maxPoints: NaN })!.length, 1001);
     assert.ok(finiteNCurve(1e9, 1, { maxPoints: 1e12 })!.length <= MAX_FINITE_N_POINTS, 'maxPoints is capped');
   });
 
   it('returns null for N < 1, non-integer or non-finite N and a gap that is not positive and finite', () => {
-    for (const [n, gap] of [[0, 1], [-5, 1], [2.5, 1], [NaN, 1], [Infinity, 1], [10, 0], [10, -1], [10, NaN], [10, Infinity]] as const) {
+    for (const [n, gap] of [
+      [0, 1],
+      [-5, 1],
+      [2.5, 1],
+      [NaN, 1],
+      [Infinity, 1],
+      [10, 0],
+      [10, -1],
+      [10, NaN],
+      [10, Infinity],
+    ] as const) {
       assert.equal(finiteNCurve(n, gap), null, `N = ${n}, ε = ${gap}`);
     }
   });

@@ -15,12 +15,26 @@ import { close } from '../helpers';
  * Δ = S·Sxx − Sx², b = (S·Sxy − Sx·Sy)/Δ, a = (Sxx·Sy − Sx·Sxy)/Δ, var b = S/Δ, var a = Sxx/Δ, cov = −Sx/Δ.
  */
 function normalEquations(x: number[], y: number[], w: number[]) {
-  let s = 0, sx = 0, sy = 0, sxx = 0, sxy = 0;
+  let s = 0,
+    sx = 0,
+    sy = 0,
+    sxx = 0,
+    sxy = 0;
   x.forEach((xi, i) => {
-    s += w[i]!; sx += w[i]! * xi; sy += w[i]! * y[i]!; sxx += w[i]! * xi * xi; sxy += w[i]! * xi * y[i]!;
+    s += w[i]!;
+    sx += w[i]! * xi;
+    sy += w[i]! * y[i]!;
+    sxx += w[i]! * xi * xi;
+    sxy += w[i]! * xi * y[i]!;
   });
   const d = s * sxx - sx * sx;
-  return { slope: (s * sxy - sx * sy) / d, intercept: (sxx * sy - sx * sxy) / d, varSlope: s / d, varIntercept: sxx / d, cov: -sx / d };
+  return {
+    slope: (s * sxy - sx * sy) / d,
+    intercept: (sxx * sy - sx * sxy) / d,
+    varSlope: s / d,
+    varIntercept: sxx / d,
+    cov: -sx / d,
+  };
 }
 
 // H I Balmer lines, NIST Atomic Spectra Database (Kramida, Ralchenko, Reader and NIST ASD Team; export of
@@ -41,7 +55,11 @@ describe('weighted straight-line fit', () => {
 
   it('agrees with the uncentred normal equations when weighted', () => {
     const fit = weightedLineFit(x, y, sigma)!;
-    const ref = normalEquations(x, y, sigma.map((s) => 1 / (s * s)));
+    const ref = normalEquations(
+      x,
+      y,
+      sigma.map((s) => 1 / (s * s)),
+    );
     close(fit.slope, ref.slope, 1e-13, 'slope');
     close(fit.intercept, ref.intercept, 1e-12, 'intercept');
     close(fit.uSlope, Math.sqrt(ref.varSlope), 1e-12, 'u(slope)');
@@ -55,7 +73,11 @@ describe('weighted straight-line fit', () => {
 
   it('scales the unweighted covariance by the residual variance s² = RSS/(n − 2)', () => {
     const fit = weightedLineFit(x, y, null)!;
-    const ref = normalEquations(x, y, x.map(() => 1));
+    const ref = normalEquations(
+      x,
+      y,
+      x.map(() => 1),
+    );
     const rss = y.reduce((acc, yi, i) => acc + (yi - ref.intercept - ref.slope * x[i]!) ** 2, 0);
     close(fit.slope, ref.slope, 1e-13, 'slope');
     close(fit.chi2, rss, 1e-10, 'residual sum of squares');
@@ -98,7 +120,9 @@ describe('Boltzmann fit', () => {
   it('reproduces the relative Balmer intensities of a 10 000 K plasma from the ASD data', () => {
     // domain.md §8c, derived (D): I ∝ gA/λ · exp(−E_k/kT); relative to Hα: 0.212 761 08, 0.078 459 387, 0.037 916 32.
     const intensity = BALMER.map((l) => ((l.g * l.a) / l.lambda) * Math.exp((-l.e * C2) / 10000));
-    [1, 0.21276108, 0.078459387, 0.03791632].forEach((expected, i) => close(intensity[i]! / intensity[0]!, expected, 1e-7, BALMER[i]!.line));
+    [1, 0.21276108, 0.078459387, 0.03791632].forEach((expected, i) =>
+      close(intensity[i]! / intensity[0]!, expected, 1e-7, BALMER[i]!.line),
+    );
   });
 
   it('recovers β = 1e-4 K⁻¹ (T = 10 000 K) from the tabulated Balmer intensities', () => {
@@ -107,12 +131,22 @@ describe('Boltzmann fit', () => {
     const relative = [1, 0.21276108, 0.078459387, 0.03791632];
     const energies = BALMER.map((l) => l.e * C2);
     const populations = BALMER.map((l, i) => (relative[i]! * l.lambda) / l.a);
-    const fit = boltzmannFit(energies, populations, BALMER.map((l) => l.g), null)!;
+    const fit = boltzmannFit(
+      energies,
+      populations,
+      BALMER.map((l) => l.g),
+      null,
+    )!;
     close(fit.beta, 1e-4, 1e-7, 'β');
     assert.equal(fit.consistent, true);
     assert.equal(fit.rule, 'residual');
     // With 2 % uncertainties the fit is weighted and passes the χ² test.
-    const weighted = boltzmannFit(energies, populations, BALMER.map((l) => l.g), populations.map((n) => 0.02 * n))!;
+    const weighted = boltzmannFit(
+      energies,
+      populations,
+      BALMER.map((l) => l.g),
+      populations.map((n) => 0.02 * n),
+    )!;
     close(weighted.beta, 1e-4, 1e-7, 'β, weighted');
     assert.equal(weighted.weighted, true);
     assert.equal(weighted.consistent, true);
@@ -125,7 +159,12 @@ describe('Boltzmann fit', () => {
     // domain.md §8c (D): relative I at 5000 K = 1, 0.098 797 427, 0.025 544 659, 0.010 179 329.
     const relative = [1, 0.098797427, 0.025544659, 0.010179329];
     const populations = BALMER.map((l, i) => (relative[i]! * l.lambda) / l.a);
-    const fit = boltzmannFit(BALMER.map((l) => l.e * C2), populations, BALMER.map((l) => l.g), null)!;
+    const fit = boltzmannFit(
+      BALMER.map((l) => l.e * C2),
+      populations,
+      BALMER.map((l) => l.g),
+      null,
+    )!;
     close(1 / fit.beta, 5000, 1e-7, 'T');
   });
 
@@ -133,14 +172,27 @@ describe('Boltzmann fit', () => {
     // NIST Atomic Spectra Database, Ar I lines as transcribed in domain.md §8b (λ_vac nm, E_k cm⁻¹, g_k, A s⁻¹);
     // relative intensities at 10 000 K from domain.md §8c (derived, D), relative to 811.7542 nm.
     const ar = [
-      [811.7542, 105462.7596, 7, 3.3e7], [763.7208, 106237.5518, 5, 2.45e7], [810.5921, 106087.2598, 3, 2.5e7],
-      [801.699, 105617.27, 5, 9.3e6], [795.0362, 107131.7086, 3, 1.86e7], [751.6721, 107054.272, 1, 4.0e7],
-      [738.6014, 107289.7001, 5, 8.5e6], [696.7352, 107496.4166, 3, 6.4e6], [750.5935, 108722.6194, 1, 4.5e7],
+      [811.7542, 105462.7596, 7, 3.3e7],
+      [763.7208, 106237.5518, 5, 2.45e7],
+      [810.5921, 106087.2598, 3, 2.5e7],
+      [801.699, 105617.27, 5, 9.3e6],
+      [795.0362, 107131.7086, 3, 1.86e7],
+      [751.6721, 107054.272, 1, 4.0e7],
+      [738.6014, 107289.7001, 5, 8.5e6],
+      [696.7352, 107496.4166, 3, 6.4e6],
+      [750.5935, 108722.6194, 1, 4.5e7],
     ] as const;
-    const relative = [1, 0.50419777, 0.2972004, 0.19934234, 0.19398811, 0.14872981, 0.15546566, 0.072272388, 0.13180352];
+    const relative = [
+      1, 0.50419777, 0.2972004, 0.19934234, 0.19398811, 0.14872981, 0.15546566, 0.072272388, 0.13180352,
+    ];
     const computed = ar.map(([lambda, e, g, a]) => ((g * a) / lambda) * Math.exp((-e * C2) / 10000));
     relative.forEach((r, i) => close(computed[i]! / computed[0]!, r, 1e-7, `Ar line ${ar[i]![0]} nm`));
-    const fit = boltzmannFit(ar.map((l) => l[1] * C2), ar.map((l, i) => (relative[i]! * l[0]) / l[3]), ar.map((l) => l[2]), null)!;
+    const fit = boltzmannFit(
+      ar.map((l) => l[1] * C2),
+      ar.map((l, i) => (relative[i]! * l[0]) / l[3]),
+      ar.map((l) => l[2]),
+      null,
+    )!;
     close(1 / fit.beta, 10000, 1e-5, 'T');
   });
 
@@ -148,7 +200,12 @@ describe('Boltzmann fit', () => {
     // domain.md §8c (D): y = ln(I_rel λ/(gA)) = −14.005 498 14, −14.772 596 42, −15.127 651 01, −15.320 520 65
     // against E_k in cm⁻¹ has slope −1.438 776 88 × 10⁻⁴ cm at 10 000 K.
     const y = [-14.00549814, -14.77259642, -15.12765101, -15.32052065];
-    const fit = boltzmannFit(BALMER.map((l) => l.e), y.map(Math.exp), null, null)!;
+    const fit = boltzmannFit(
+      BALMER.map((l) => l.e),
+      y.map(Math.exp),
+      null,
+      null,
+    )!;
     close(-fit.beta, -1.43877688e-4, 1e-7, 'slope');
   });
 
@@ -158,10 +215,18 @@ describe('Boltzmann fit', () => {
     const energies = [0, 100, 200, 300];
     const pattern = [1, -1, -1, 1]; // orthogonal to 1 and E, so the residuals are exactly c·pattern
     const sigmaY = 0.02;
-    for (const [chi2, expected] of [[9.0, true], [9.5, false]] as const) {
+    for (const [chi2, expected] of [
+      [9.0, true],
+      [9.5, false],
+    ] as const) {
       const c = sigmaY * Math.sqrt(chi2 / 4);
       const populations = energies.map((e, i) => Math.exp(-0.01 * e + c * pattern[i]!));
-      const fit = boltzmannFit(energies, populations, null, populations.map((n) => sigmaY * n))!;
+      const fit = boltzmannFit(
+        energies,
+        populations,
+        null,
+        populations.map((n) => sigmaY * n),
+      )!;
       close(fit.chi2Limit, 2 * Math.log(100), 1e-9, 'χ² limit');
       close(fit.chi2, chi2, 1e-9, 'χ²');
       close(fit.chi2PerDof, chi2 / 2, 1e-9, 'χ²/dof');
@@ -176,11 +241,21 @@ describe('Boltzmann fit', () => {
     // χ²₀.₉₉(1 dof) = 6.634 897 (common statistical tables, from memory).
     const energies = [0, 100, 200];
     const thermal = energies.map((e, i) => Math.exp(-0.01 * e) * (1 + [0.005, -0.008, 0.006][i]!));
-    const ok = boltzmannFit(energies, thermal, [1, 1, 1], thermal.map((n) => 0.01 * n))!;
+    const ok = boltzmannFit(
+      energies,
+      thermal,
+      [1, 1, 1],
+      thermal.map((n) => 0.01 * n),
+    )!;
     close(ok.chi2Limit, 6.634897, 1e-6, 'χ² limit for 1 dof');
     assert.equal(ok.consistent, true);
     const odd = [1, 2 * Math.exp(-1), Math.exp(-2)];
-    const bad = boltzmannFit(energies, odd, [1, 1, 1], odd.map((n) => 0.01 * n))!;
+    const bad = boltzmannFit(
+      energies,
+      odd,
+      [1, 1, 1],
+      odd.map((n) => 0.01 * n),
+    )!;
     assert.equal(bad.consistent, false);
     assert.ok(bad.chi2 > 1000);
   });
@@ -190,7 +265,10 @@ describe('Boltzmann fit', () => {
     close(RESIDUAL_TOLERANCE, Math.log(1.05), 1e-15, 'tolerance');
     const energies = [0, 100, 200, 300];
     const pattern = [1, -1, -1, 1];
-    for (const [c, expected] of [[0.045, true], [0.055, false]] as const) {
+    for (const [c, expected] of [
+      [0.045, true],
+      [0.055, false],
+    ] as const) {
       const populations = energies.map((e, i) => 3 * Math.exp(-0.02 * e + c * pattern[i]!));
       const fit = boltzmannFit(energies, populations, [1, 1, 1, 1], null)!;
       fit.residuals.forEach((r, i) => close(r, c * pattern[i]!, 1e-9, `residual ${i}`));
@@ -262,7 +340,10 @@ describe('inverted pairs', () => {
     };
     assert.equal(ALL_PAIRS_LIMIT, 200);
     const small = schemeOf(ALL_PAIRS_LIMIT);
-    assert.deepEqual(invertedPairs(small.energies, small.populations, null), [{ lower: 0, upper: 2 }, { lower: 1, upper: 2 }]);
+    assert.deepEqual(invertedPairs(small.energies, small.populations, null), [
+      { lower: 0, upper: 2 },
+      { lower: 1, upper: 2 },
+    ]);
     const large = schemeOf(ALL_PAIRS_LIMIT + 1);
     assert.deepEqual(invertedPairs(large.energies, large.populations, null), [{ lower: 1, upper: 2 }]);
   });

@@ -13,12 +13,17 @@ const NM = { maxIterations: 40000, minErrorDelta: 1e-18, minTolerance: 1e-13 };
 
 /** χ² of the build-up model S∞(1 − e^(−t/τ)) + S₀ (σ = 1 for an unweighted fit). */
 function buildupChi2(t: number[], s: number[], sigma: number[] | null) {
-  return ([a, k, b]: number[]): number => s.reduce((acc, v, i) => acc + ((v - (a! * (1 - Math.exp(-t[i]! / k!)) + b!)) / (sigma ? sigma[i]! : 1)) ** 2, 0);
+  return ([a, k, b]: number[]): number =>
+    s.reduce((acc, v, i) => acc + ((v - (a! * (1 - Math.exp(-t[i]! / k!)) + b!)) / (sigma ? sigma[i]! : 1)) ** 2, 0);
 }
 
 /** χ² of the decay model S₀ e^(−t/T₁) cos^(n−1) θ. */
 function decayChi2(t: number[], s: number[], flip: number, sigma: number[] | null) {
-  return ([a, k]: number[]): number => s.reduce((acc, v, i) => acc + ((v - a! * Math.exp(-t[i]! / k!) * Math.cos(flip) ** i) / (sigma ? sigma[i]! : 1)) ** 2, 0);
+  return ([a, k]: number[]): number =>
+    s.reduce(
+      (acc, v, i) => acc + ((v - a! * Math.exp(-t[i]! / k!) * Math.cos(flip) ** i) / (sigma ? sigma[i]! : 1)) ** 2,
+      0,
+    );
 }
 
 function converged(fit: SeriesFit | null): SeriesFit {
@@ -68,17 +73,24 @@ describe('series fits, against an independent minimiser', () => {
     const chi2 = buildupChi2(t, s, sigma);
     const h = p.map((v) => 1e-4 * Math.abs(v));
     const at = (d: number[]): number => chi2(p.map((v, j) => v + d[j]!));
-    const H = p.map((_, j) => p.map((__, l) => {
-      const e = (sj: number, sl: number): number => at(p.map((___, m) => (m === j ? sj * h[j]! : 0) + (m === l ? sl * h[l]! : 0)));
-      return (e(1, 1) - e(1, -1) - e(-1, 1) + e(-1, -1)) / (4 * h[j]! * h[l]!);
-    }));
+    const H = p.map((_, j) =>
+      p.map((__, l) => {
+        const e = (sj: number, sl: number): number =>
+          at(p.map((___, m) => (m === j ? sj * h[j]! : 0) + (m === l ? sl * h[l]! : 0)));
+        return (e(1, 1) - e(1, -1) - e(-1, 1) + e(-1, -1)) / (4 * h[j]! * h[l]!);
+      }),
+    );
     // Inverse of the 3 × 3 Hessian by Gauss–Jordan elimination, independent of the fit's own closed form.
     const n = 3;
     const m = H.map((row, j) => [...row, ...Array.from({ length: n }, (_, l) => (l === j ? 1 : 0))]);
     for (let c = 0; c < n; c++) {
       const pivot = m[c]![c]!;
       for (let l = 0; l < 2 * n; l++) m[c]![l]! /= pivot;
-      for (let r = 0; r < n; r++) if (r !== c) { const f = m[r]![c]!; for (let l = 0; l < 2 * n; l++) m[r]![l]! -= f * m[c]![l]!; }
+      for (let r = 0; r < n; r++)
+        if (r !== c) {
+          const f = m[r]![c]!;
+          for (let l = 0; l < 2 * n; l++) m[r]![l]! -= f * m[c]![l]!;
+        }
     }
     const u = (j: number): number => Math.sqrt(2 * m[j]![n + j]!);
     close(ours.amplitude.uncertainty!, u(0), 1e-4, 'u(S∞)');
@@ -90,7 +102,14 @@ describe('series fits, against an independent minimiser', () => {
     // Check values: the roots of ∂(Σ residual²)/∂(parameters) = 0 for the series of demo/measurements.md,
     // solved in 50-digit arithmetic by reference/relaxation_minimum.py (mpmath 1.3 findroot).
     // The fit stops within 1e-7 of the minimum by design; in practice it lands far closer.
-    const decay = converged(fitDecay([0, 6, 12, 18, 24, 30, 36, 42, 48, 54], [1.0, 0.8844, 0.769, 0.6822, 0.5956, 0.5267, 0.4598, 0.4079, 0.3561, 0.3143], (5 * Math.PI) / 180, null));
+    const decay = converged(
+      fitDecay(
+        [0, 6, 12, 18, 24, 30, 36, 42, 48, 54],
+        [1.0, 0.8844, 0.769, 0.6822, 0.5956, 0.5267, 0.4598, 0.4079, 0.3561, 0.3143],
+        (5 * Math.PI) / 180,
+        null,
+      ),
+    );
     close(decay.timeConstant.value, 47.939950135587116711, 1e-9, 'T₁ of the demo decay');
     const minutes = [0, 5, 10, 20, 30, 45, 60, 90].map((m) => 60 * m);
     const buildup = converged(fitBuildup(minutes, [0.02, 0.257, 0.431, 0.672, 0.805, 0.911, 0.953, 0.984], null));

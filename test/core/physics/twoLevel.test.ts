@@ -72,8 +72,17 @@ describe('two-level inverse temperature from populations', () => {
 
   it('returns null for an empty level, a non-positive gap and non-finite numbers, and never throws', () => {
     const cases: Array<[number, number, number, number, number]> = [
-      [0, 1, 1, 1, 1], [1, 0, 1, 1, 1], [-0, 1, 1, 1, 1], [1, 1, 1, 1, 0], [1, 1, 1, 1, -2], [1, 1, 0, 1, 1],
-      [NaN, 1, 1, 1, 1], [1, Infinity, 1, 1, 1], [1, 1, 1, 1, Infinity], [1, 1, 1, -Infinity, 1], [-1, 1, 1, 1, 1],
+      [0, 1, 1, 1, 1],
+      [1, 0, 1, 1, 1],
+      [-0, 1, 1, 1, 1],
+      [1, 1, 1, 1, 0],
+      [1, 1, 1, 1, -2],
+      [1, 1, 0, 1, 1],
+      [NaN, 1, 1, 1, 1],
+      [1, Infinity, 1, 1, 1],
+      [1, 1, 1, 1, Infinity],
+      [1, 1, 1, -Infinity, 1],
+      [-1, 1, 1, 1, 1],
     ];
     for (const args of cases) {
       assert.equal(betaFromPopulations(...args), null, `inputs ${args.join(', ')}`);
@@ -94,8 +103,10 @@ describe('two-level polarization', () => {
     const p = polarizationFromPopulations(0.7, 0.3, { nLower: 0.02, nUpper: 0.01 });
     close(p?.value, 0.4, 1e-14, 'P');
     const h = 1e-7;
-    const c1 = (polarizationFromPopulations(0.7 + h, 0.3)!.value - polarizationFromPopulations(0.7 - h, 0.3)!.value) / (2 * h);
-    const c2 = (polarizationFromPopulations(0.7, 0.3 + h)!.value - polarizationFromPopulations(0.7, 0.3 - h)!.value) / (2 * h);
+    const c1 =
+      (polarizationFromPopulations(0.7 + h, 0.3)!.value - polarizationFromPopulations(0.7 - h, 0.3)!.value) / (2 * h);
+    const c2 =
+      (polarizationFromPopulations(0.7, 0.3 + h)!.value - polarizationFromPopulations(0.7, 0.3 - h)!.value) / (2 * h);
     close(p?.uncertainty, Math.hypot(c1 * 0.02, c2 * 0.01), 1e-7, 'u(P)');
   });
 
@@ -106,7 +117,13 @@ describe('two-level polarization', () => {
   });
 
   it('returns null for empty, negative or non-finite populations', () => {
-    for (const [a, b] of [[0, 0], [-1, 2], [NaN, 1], [1, Infinity], [-0, 0]] as const) {
+    for (const [a, b] of [
+      [0, 0],
+      [-1, 2],
+      [NaN, 1],
+      [1, Infinity],
+      [-0, 0],
+    ] as const) {
       assert.equal(polarizationFromPopulations(a, b), null, `inputs ${a}, ${b}`);
     }
   });
@@ -142,7 +159,14 @@ describe('two-level inverse temperature from polarization', () => {
 
   it('returns null for |P| ≥ 1, non-finite P, and invalid gaps or degeneracies', () => {
     const cases: Array<[number, number, number, number]> = [
-      [1, 1, 1, 1], [-1, 1, 1, 1], [1.2, 1, 1, 1], [NaN, 1, 1, 1], [Infinity, 1, 1, 1], [0.1, 1, 1, 0], [0.1, 0, 1, 1], [0.1, 1, 1, NaN],
+      [1, 1, 1, 1],
+      [-1, 1, 1, 1],
+      [1.2, 1, 1, 1],
+      [NaN, 1, 1, 1],
+      [Infinity, 1, 1, 1],
+      [0.1, 1, 1, 0],
+      [0.1, 0, 1, 1],
+      [0.1, 1, 1, NaN],
     ];
     for (const args of cases) {
       assert.equal(betaFromTwoLevelPolarization(...args), null, `inputs ${args.join(', ')}`);

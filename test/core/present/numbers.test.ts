@@ -1,6 +1,11 @@
 import { strict as assert } from 'node:assert';
 import {
-  formatFraction, formatInverseTemperature, formatMeasured, formatNumber, formatPlainNumber, formatTemperature,
+  formatFraction,
+  formatInverseTemperature,
+  formatMeasured,
+  formatNumber,
+  formatPlainNumber,
+  formatTemperature,
 } from '../../../src/core/present/numbers';
 
 const NON_FINITE = [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY];
@@ -181,8 +186,13 @@ describe('display strings', () => {
     for (const x of values) {
       for (const u of uncertainties) {
         const texts = [
-          formatMeasured(x, u), formatTemperature(x, u), formatTemperature(x, u, { mode: 'kelvin' }),
-          formatInverseTemperature(x, u), formatFraction(x, u), formatFraction(x, u, { percent: true }), formatNumber(x),
+          formatMeasured(x, u),
+          formatTemperature(x, u),
+          formatTemperature(x, u, { mode: 'kelvin' }),
+          formatInverseTemperature(x, u),
+          formatFraction(x, u),
+          formatFraction(x, u, { percent: true }),
+          formatNumber(x),
         ];
         for (const text of texts) {
           assert.doesNotMatch(text, /NaN|Infinity|undefined/, `${x}, ${u}: ${text}`);

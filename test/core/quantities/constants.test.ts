@@ -1,14 +1,31 @@
 import { strict as assert } from 'node:assert';
 import {
-  AVOGADRO, BOHR_MAGNETON, BOLTZMANN, CODATA_EDITION, ELECTRON_G_FACTOR, ELECTRON_GYROMAGNETIC_RATIO,
-  ELEMENTARY_CHARGE, HBAR, KELVIN_PER_EV, KELVIN_PER_HERTZ, KELVIN_PER_JOULE, KELVIN_PER_WAVENUMBER,
-  NUCLEAR_MAGNETON, PLANCK, PROTON_GYROMAGNETIC_RATIO, SPEED_OF_LIGHT, photonEnergyKelvinFromWavelength,
+  AVOGADRO,
+  BOHR_MAGNETON,
+  BOLTZMANN,
+  CODATA_EDITION,
+  ELECTRON_G_FACTOR,
+  ELECTRON_GYROMAGNETIC_RATIO,
+  ELEMENTARY_CHARGE,
+  HBAR,
+  KELVIN_PER_EV,
+  KELVIN_PER_HERTZ,
+  KELVIN_PER_JOULE,
+  KELVIN_PER_WAVENUMBER,
+  NUCLEAR_MAGNETON,
+  PLANCK,
+  PROTON_GYROMAGNETIC_RATIO,
+  SPEED_OF_LIGHT,
+  photonEnergyKelvinFromWavelength,
 } from '../../../src/core/quantities/constants';
 
 /** Fails with the relative difference when |actual − expected| > rel·|expected|. */
 function assertClose(actual: number, expected: number, rel: number, what: string): void {
   const delta = Math.abs(actual - expected) / Math.abs(expected);
-  assert.ok(delta <= rel, `${what}: got ${actual}, expected ${expected}, relative Δ = ${delta.toExponential(2)} > ${rel}`);
+  assert.ok(
+    delta <= rel,
+    `${what}: got ${actual}, expected ${expected}, relative Δ = ${delta.toExponential(2)} > ${rel}`,
+  );
 }
 
 describe('constants', () => {

@@ -1,12 +1,25 @@
 import { strict as assert } from 'node:assert';
-import { ELECTRON_G_FACTOR, ELECTRON_GYROMAGNETIC_RATIO, KELVIN_PER_HERTZ } from '../../../src/core/quantities/constants';
 import {
-  ELECTRON, SpinSpecies, electronWithGFactor, larmorFrequencyHz, lookupSpecies, speciesSymbols, zeemanSpacingKelvin,
+  ELECTRON_G_FACTOR,
+  ELECTRON_GYROMAGNETIC_RATIO,
+  KELVIN_PER_HERTZ,
+} from '../../../src/core/quantities/constants';
+import {
+  ELECTRON,
+  SpinSpecies,
+  electronWithGFactor,
+  larmorFrequencyHz,
+  lookupSpecies,
+  speciesSymbols,
+  zeemanSpacingKelvin,
 } from '../../../src/core/quantities/isotopes';
 
 function assertClose(actual: number, expected: number, rel: number, what: string): void {
   const delta = Math.abs(actual - expected) / Math.abs(expected);
-  assert.ok(delta <= rel, `${what}: got ${actual}, expected ${expected}, relative Δ = ${delta.toExponential(2)} > ${rel}`);
+  assert.ok(
+    delta <= rel,
+    `${what}: got ${actual}, expected ${expected}, relative Δ = ${delta.toExponential(2)} > ${rel}`,
+  );
 }
 
 function species(symbol: string): SpinSpecies {
@@ -20,9 +33,18 @@ function species(symbol: string): SpinSpecies {
  * γ/2π derived from the tabulated γ (10⁷ rad s⁻¹ T⁻¹) as γ·10⁷/2π/10⁶, 30-digit arithmetic.
  */
 const IUPAC: ReadonlyArray<readonly [string, number, number]> = [
-  ['1H', 0.5, 42.5774691], ['2H', 1, 6.53590131], ['3He', 0.5, -32.43603], ['7Li', 1.5, 16.5484556],
-  ['13C', 0.5, 10.7083966], ['15N', 0.5, -4.3172657], ['17O', 2.5, -5.7742687], ['19F', 0.5, 40.0775702],
-  ['23Na', 1.5, 11.2695217], ['29Si', 0.5, -8.4654514], ['31P', 0.5, 17.2514409], ['129Xe', 0.5, -11.8603903],
+  ['1H', 0.5, 42.5774691],
+  ['2H', 1, 6.53590131],
+  ['3He', 0.5, -32.43603],
+  ['7Li', 1.5, 16.5484556],
+  ['13C', 0.5, 10.7083966],
+  ['15N', 0.5, -4.3172657],
+  ['17O', 2.5, -5.7742687],
+  ['19F', 0.5, 40.0775702],
+  ['23Na', 1.5, 11.2695217],
+  ['29Si', 0.5, -8.4654514],
+  ['31P', 0.5, 17.2514409],
+  ['129Xe', 0.5, -11.8603903],
 ];
 
 describe('isotope table', () => {
@@ -124,10 +146,28 @@ describe('lookupSpecies', () => {
   });
 
   const misspellings: ReadonlyArray<readonly [string, string]> = [
-    ['C13', '13C'], ['c13', '13C'], ['13c', '13C'], ['13 C', '13C'], ['C-13', '13C'], ['carbon-13', '13C'],
-    ['H1', '1H'], ['1h', '1H'], ['Xe129', '129Xe'], ['129xe', '129Xe'], ['129XE', '129Xe'], ['he3', '3He'],
-    ['Si29', '29Si'], ['Electron', 'electron'], ['ELECTRON', 'electron'], ['e-', 'electron'], ['e', 'electron'],
-    ['elektron', 'electron'], ['electorn', 'electron'], ['proton', '1H'], ['deuterium', '2H'], [' 13C ', '13C'],
+    ['C13', '13C'],
+    ['c13', '13C'],
+    ['13c', '13C'],
+    ['13 C', '13C'],
+    ['C-13', '13C'],
+    ['carbon-13', '13C'],
+    ['H1', '1H'],
+    ['1h', '1H'],
+    ['Xe129', '129Xe'],
+    ['129xe', '129Xe'],
+    ['129XE', '129Xe'],
+    ['he3', '3He'],
+    ['Si29', '29Si'],
+    ['Electron', 'electron'],
+    ['ELECTRON', 'electron'],
+    ['e-', 'electron'],
+    ['e', 'electron'],
+    ['elektron', 'electron'],
+    ['electorn', 'electron'],
+    ['proton', '1H'],
+    ['deuterium', '2H'],
+    [' 13C ', '13C'],
   ];
   for (const [written, meant] of misspellings) {
     it(`suggests ${meant} for ${JSON.stringify(written)}`, () => {
@@ -142,6 +182,7 @@ describe('lookupSpecies', () => {
   });
 
   it('suggests nothing for text that resembles no species', () => {
-    for (const text of ['foo', '', 'Uranium', '235U', 'neutrino', 'constructor', 'toString', '__proto__']) assert.deepEqual(lookupSpecies(text), { suggestion: null }, text);
+    for (const text of ['foo', '', 'Uranium', '235U', 'neutrino', 'constructor', 'toString', '__proto__'])
+      assert.deepEqual(lookupSpecies(text), { suggestion: null }, text);
   });
 });

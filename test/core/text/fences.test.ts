@@ -36,13 +36,19 @@ describe('fenced block finder', () => {
     // Offsets in the stripped body map back to the exact place in the note.
     const c = b.body.indexOf('c');
     assert.equal(text[bodyToDocument(b, c)], 'c');
-    assert.equal(text.slice(bodyToDocument(b, b.body.indexOf('b')), bodyToDocument(b, b.body.indexOf('b')) + 4), 'b: 2');
+    assert.equal(
+      text.slice(bodyToDocument(b, b.body.indexOf('b')), bodyToDocument(b, b.body.indexOf('b')) + 4),
+      'b: 2',
+    );
   });
 
   it('ignores four-space indented fences (indented code) and backtick info strings containing a backtick', () => {
     assert.equal(findFencedBlocks('    ```levels\na: 1\n    ```\n').length, 0);
     // (its last line then opens a fence of its own, with no info string).
-    assert.deepEqual(findFencedBlocks('```levels `x`\na: 1\n```\n').map((b) => b.language), ['']);
+    assert.deepEqual(
+      findFencedBlocks('```levels `x`\na: 1\n```\n').map((b) => b.language),
+      [''],
+    );
     // A tilde fence's info string may contain backticks.
     assert.equal(findFencedBlocks('~~~levels `x`\na: 1\n~~~\n').length, 1);
   });

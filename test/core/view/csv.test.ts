@@ -15,12 +15,12 @@ function parse(text: string): string[][] {
   for (let i = 0; i < text.length; i++) {
     const c = text[i];
     if (quoted) {
-      if (c === '"' && text[i + 1] === '"') (cell += '"'), i++;
+      if (c === '"' && text[i + 1] === '"') ((cell += '"'), i++);
       else if (c === '"') quoted = false;
       else cell += c;
     } else if (c === '"') quoted = true;
-    else if (c === ',') row.push(cell), (cell = '');
-    else if (c === '\r' && text[i + 1] === '\n') row.push(cell), rows.push(row), (row = []), (cell = ''), i++;
+    else if (c === ',') (row.push(cell), (cell = ''));
+    else if (c === '\r' && text[i + 1] === '\n') (row.push(cell), rows.push(row), (row = []), (cell = ''), i++);
     else cell += c;
   }
   return rows;
@@ -30,10 +30,25 @@ describe('curve view CSV export', () => {
   it('writes the large-N curve, the finite-N steps, the measured point and the lattice marker', () => {
     const p = payload('id: run 1\ngap: 10 K\npopulations: [0.7 ± 0.01, 0.3 ± 0.01]\nlattice: 10 K\ncount: 4');
     const rows = parse(curveCsv([p]));
-    assert.deepEqual(rows[0], ['run', 'series', 'm', 'energy_K', 'entropy_per_Nk', 'beta_per_K', 'u_energy_K', 'u_entropy', 'u_beta_per_K', 'entropy_deficit', 'relative_entropy']);
+    assert.deepEqual(rows[0], [
+      'run',
+      'series',
+      'm',
+      'energy_K',
+      'entropy_per_Nk',
+      'beta_per_K',
+      'u_energy_K',
+      'u_entropy',
+      'u_beta_per_K',
+      'entropy_deficit',
+      'relative_entropy',
+    ]);
     assert.equal(rows.filter((r) => r[1] === 'large-N').length, p.curve.energy.length);
     const steps = rows.filter((r) => r[1] === 'finite-N (N=4)');
-    assert.deepEqual(steps.map((r) => r[2]), ['0', '1', '2', '3', '4']);
+    assert.deepEqual(
+      steps.map((r) => r[2]),
+      ['0', '1', '2', '3', '4'],
+    );
     assert.equal(Number(steps[2]![4]), p.finiteN!.entropy[2]); // full precision: reads back as the same double
     assert.ok(Math.abs(Number(steps[2]![4]) - Math.log(6) / 4) < 1e-15); // ln C(4, 2)/4
     const measured = rows.find((r) => r[1] === 'measured')!;

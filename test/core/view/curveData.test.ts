@@ -29,7 +29,10 @@ describe('curve view payload', () => {
       const beta = Math.log((1 - p) / p) / 10;
       if (Math.abs(beta) > 1e-6) close(c.curve.beta[i], beta, 1e-7, `β at p = ${p}`);
     }
-    assert.ok(c.curve.energy.every((e, i) => i === 0 || e > c.curve.energy[i - 1]!), 'energies increase');
+    assert.ok(
+      c.curve.energy.every((e, i) => i === 0 || e > c.curve.energy[i - 1]!),
+      'energies increase',
+    );
     assert.equal(c.saturationEnergy, 5);
     close(c.maxEntropy, Math.LN2, 1e-15, 'S at saturation');
   });
@@ -68,7 +71,9 @@ describe('curve view payload', () => {
 
   it('gives a non-thermal measurement a positive entropy deficit equal to its relative entropy', () => {
     // The pumped-cell populations of the demo: the middle level is driven far above its Boltzmann share.
-    const c = curveOf('levels:\n  - { energy: 0 cm-1, g: 2, population: 0.52 }\n  - { energy: 12579 cm-1, g: 2, population: 0.30 }\n  - { energy: 12817 cm-1, g: 4, population: 0.18 }');
+    const c = curveOf(
+      'levels:\n  - { energy: 0 cm-1, g: 2, population: 0.52 }\n  - { energy: 12579 cm-1, g: 2, population: 0.30 }\n  - { energy: 12817 cm-1, g: 4, population: 0.18 }',
+    );
     const m = c.measured!;
     assert.ok(m.deficit! > 0.01, `deficit ${m.deficit}`);
     close(m.relativeEntropy, m.deficit!, 1e-9, 'D(p‖q) against S_thermal − S');
@@ -85,7 +90,9 @@ describe('curve view payload', () => {
     assert.deepEqual(f.m, [0, 1, 2, 3, 4]);
     assert.deepEqual(f.energy, [0, 2.5, 5, 7.5, 10]);
     // C(4, m) = 1, 4, 6, 4, 1 (Pascal's triangle).
-    [1, 4, 6, 4, 1].forEach((binomial, m) => close(f.entropy[m]! + 1, Math.log(binomial) / 4 + 1, 1e-15, `S at m = ${m}`));
+    [1, 4, 6, 4, 1].forEach((binomial, m) =>
+      close(f.entropy[m]! + 1, Math.log(binomial) / 4 + 1, 1e-15, `S at m = ${m}`),
+    );
     // Each step sits below the large-N value at the same energy (Stirling: ln C(N, m) < N H(m/N)).
     for (const m of [1, 2, 3]) assert.ok(f.entropy[m]! < binaryEntropy(m / 4));
   });
@@ -117,7 +124,15 @@ describe('curve view payload', () => {
     const p = curveData(report, SOURCE);
     assert.equal(p.kind, 'problem');
     const first = report.problems.find((x) => x.severity === 'error')!;
-    assert.deepEqual(p, { kind: 'problem', ...SOURCE, line: 2, id: 'hurried', code: 'unit-case', message: first.message, plot: null });
+    assert.deepEqual(p, {
+      kind: 'problem',
+      ...SOURCE,
+      line: 2,
+      id: 'hurried',
+      code: 'unit-case',
+      message: first.message,
+      plot: null,
+    });
   });
 
   it('uses kelvin on the axis for a gap written as a wavelength, and a stand-in id naming the line', () => {

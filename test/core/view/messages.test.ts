@@ -1,8 +1,20 @@
 import { strict as assert } from 'node:assert';
-import { curveData, isHostToView, isViewPayload, isViewState, isViewToHost, pinsBesides, type CurvePayload, type RenderMessage } from '../../../src/core';
+import {
+  curveData,
+  isHostToView,
+  isViewPayload,
+  isViewState,
+  isViewToHost,
+  pinsBesides,
+  type CurvePayload,
+  type RenderMessage,
+} from '../../../src/core';
 import { block } from '../helpers';
 
-const payload = curveData(block('id: run 1\ngap: 10 K\npopulations: [0.7 ± 0.01, 0.3 ± 0.01]\nlattice: 10 K\ncount: 20').report, { uri: 'file:///n.md', version: 1 }) as CurvePayload;
+const payload = curveData(
+  block('id: run 1\ngap: 10 K\npopulations: [0.7 ± 0.01, 0.3 ± 0.01]\nlattice: 10 K\ncount: 20').report,
+  { uri: 'file:///n.md', version: 1 },
+) as CurvePayload;
 const render: RenderMessage = { type: 'render', seq: 1, current: payload, pinned: [{ key: 'p1', payload }] };
 
 /** A deep copy through JSON, as postMessage would deliver it, with one change applied. */
@@ -39,14 +51,29 @@ describe('curve view messages', () => {
   });
 
   it('accept a problem payload and reject one without a message', () => {
-    const problem = { kind: 'problem', uri: 'file:///n.md', version: 2, line: 4, id: null, code: 'unit-case', message: 'Units are case-sensitive.' };
+    const problem = {
+      kind: 'problem',
+      uri: 'file:///n.md',
+      version: 2,
+      line: 4,
+      id: null,
+      code: 'unit-case',
+      message: 'Units are case-sensitive.',
+    };
     assert.ok(isViewPayload(problem));
     assert.equal(isViewPayload({ ...problem, message: undefined }), false);
   });
 
   it('accept the view’s messages and reject unknown or malformed ones', () => {
     const png = 'data:image/png;base64,iVBORw0KGgo=';
-    for (const m of [{ type: 'ready' }, { type: 'pin' }, { type: 'unpin', key: 'p1' }, { type: 'exportPng', dataUrl: png }, { type: 'copyImageLink', dataUrl: png }, { type: 'exportCsv', unit: 'K' }]) {
+    for (const m of [
+      { type: 'ready' },
+      { type: 'pin' },
+      { type: 'unpin', key: 'p1' },
+      { type: 'exportPng', dataUrl: png },
+      { type: 'copyImageLink', dataUrl: png },
+      { type: 'exportCsv', unit: 'K' },
+    ]) {
       assert.ok(isViewToHost(m), JSON.stringify(m));
     }
     const bad = [
@@ -75,7 +102,13 @@ describe('curve view messages', () => {
     const otherBlock = { key: 'other', payload: { ...payload, line: payload.line + 20 } };
     const otherNote = { key: 'note', payload: { ...payload, uri: 'file:///m.md' } };
     const pins = [same, edited, otherBlock, otherNote];
-    assert.deepEqual(pinsBesides(payload, pins).map((r) => r.key), ['edited', 'other', 'note']);
-    assert.deepEqual(pinsBesides(null, pins).map((r) => r.key), ['same', 'edited', 'other', 'note']);
+    assert.deepEqual(
+      pinsBesides(payload, pins).map((r) => r.key),
+      ['edited', 'other', 'note'],
+    );
+    assert.deepEqual(
+      pinsBesides(null, pins).map((r) => r.key),
+      ['same', 'edited', 'other', 'note'],
+    );
   });
 });

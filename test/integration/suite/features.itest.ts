@@ -63,31 +63,54 @@ describe('Boltzmark through the VS Code API', () => {
   });
 
   it('reports the demo’s deliberate mistakes with their codes at their places', async () => {
-    const codes = (): string[] => vscode.languages.getDiagnostics(uri).map((d) => `${String(typeof d.code === 'object' ? d.code.value : d.code)}@${d.range.start.line}:${d.range.start.character}`);
+    const codes = (): string[] =>
+      vscode.languages
+        .getDiagnostics(uri)
+        .map(
+          (d) =>
+            `${String(typeof d.code === 'object' ? d.code.value : d.code)}@${d.range.start.line}:${d.range.start.character}`,
+        );
     const want = [
       `isotope-unknown@${at('system: C13', 'C13').line}:${at('system: C13', 'C13').character}`,
       `unit-case@${at('field: 7.05 MT', 'MT').line}:${at('field: 7.05 MT', 'MT').character}`,
       `key-unknown@${at('polarisation:', 'polarisation').line}:0`,
     ];
-    await when(vscode.languages.onDidChangeDiagnostics, () => (want.every((w) => codes().includes(w)) ? true : undefined), 30000, `diagnostics ${want.join(', ')}`);
+    await when(
+      vscode.languages.onDidChangeDiagnostics,
+      () => (want.every((w) => codes().includes(w)) ? true : undefined),
+      30000,
+      `diagnostics ${want.join(', ')}`,
+    );
     for (const d of vscode.languages.getDiagnostics(uri)) assert.equal(d.source, 'boltzmark');
   });
 
   it('hovers a block with T, β, P and its status; an inverted one says so', async () => {
-    const hovers = await vscode.commands.executeCommand<vscode.Hover[]>('vscode.executeHoverProvider', uri, at('id: cell-B run 1', 'cell-B', 1));
+    const hovers = await vscode.commands.executeCommand<vscode.Hover[]>(
+      'vscode.executeHoverProvider',
+      uri,
+      at('id: cell-B run 1', 'cell-B', 1),
+    );
     const text = hovers.map(markdownOf).join('\n');
     assert.match(text, /cell\\?-B run 1/); // the id is Markdown-escaped
     assert.match(text, /normal: positive spin temperature/);
     assert.match(text, /5\.61 ± 0\.19 mK/);
     assert.match(text, /178\.2 ± 6\.1/);
     assert.match(text, /31\.2 ± 1\.0 %/);
-    const inverted = await vscode.commands.executeCommand<vscode.Hover[]>('vscode.executeHoverProvider', uri, at('id: Li inversion W-3', 'Li', 1));
+    const inverted = await vscode.commands.executeCommand<vscode.Hover[]>(
+      'vscode.executeHoverProvider',
+      uri,
+      at('id: Li inversion W-3', 'Li', 1),
+    );
     assert.match(inverted.map(markdownOf).join('\n'), /inverted: population inversion/);
   });
 
   it('puts the block’s results in an inlay hint at the end of its first line', async () => {
     const range = new vscode.Range(0, 0, doc.lineCount, 0);
-    const hints = await vscode.commands.executeCommand<vscode.InlayHint[]>('vscode.executeInlayHintProvider', uri, range);
+    const hints = await vscode.commands.executeCommand<vscode.InlayHint[]>(
+      'vscode.executeInlayHintProvider',
+      uri,
+      range,
+    );
     const fence = at('id: cell-B run 1', 'id').line - 1;
     const onFence = hints.filter((h) => h.position.line === fence).map(labelOf);
     assert.deepEqual(onFence, ['T = 5.61 mK · P = 31.2 % · ε = 241']);
@@ -96,7 +119,11 @@ describe('Boltzmark through the VS Code API', () => {
 
   it('fixes a wrong-case unit with a quick fix, and undo restores the note', async () => {
     const mt = at('field: 7.05 MT', 'MT');
-    const actions = await vscode.commands.executeCommand<vscode.CodeAction[]>('vscode.executeCodeActionProvider', uri, new vscode.Range(mt, mt.translate(0, 2)));
+    const actions = await vscode.commands.executeCommand<vscode.CodeAction[]>(
+      'vscode.executeCodeActionProvider',
+      uri,
+      new vscode.Range(mt, mt.translate(0, 2)),
+    );
     const fix = actions.find((a) => a.title === 'Change unit to mT');
     assert.ok(fix?.edit, `a fix titled "Change unit to mT"; got ${JSON.stringify(actions.map((a) => a.title))}`);
     const before = doc.getText();
@@ -109,19 +136,34 @@ describe('Boltzmark through the VS Code API', () => {
   });
 
   it('completes isotopes after "system: " and units after a number', async () => {
-    const scratch = await vscode.workspace.openTextDocument({ language: 'markdown', content: '```levels\nsystem: \nfield: 9.4 \n```\n' });
-    const isotopes = await vscode.commands.executeCommand<vscode.CompletionList>('vscode.executeCompletionItemProvider', scratch.uri, new vscode.Position(1, 8));
+    const scratch = await vscode.workspace.openTextDocument({
+      language: 'markdown',
+      content: '```levels\nsystem: \nfield: 9.4 \n```\n',
+    });
+    const isotopes = await vscode.commands.executeCommand<vscode.CompletionList>(
+      'vscode.executeCompletionItemProvider',
+      scratch.uri,
+      new vscode.Position(1, 8),
+    );
     const names = isotopes.items.map(completionLabel);
     for (const want of ['1H', '13C', '7Li']) assert.ok(names.includes(want), `isotope ${want} offered`);
-    const units = await vscode.commands.executeCommand<vscode.CompletionList>('vscode.executeCompletionItemProvider', scratch.uri, new vscode.Position(2, 11));
+    const units = await vscode.commands.executeCommand<vscode.CompletionList>(
+      'vscode.executeCompletionItemProvider',
+      scratch.uri,
+      new vscode.Position(2, 11),
+    );
     const unitNames = units.items.map(completionLabel);
     for (const want of ['T', 'mT', 'G']) assert.ok(unitNames.includes(want), `unit ${want} offered`);
   });
 
   it('outlines the blocks by their ids', async () => {
-    const symbols = await vscode.commands.executeCommand<vscode.DocumentSymbol[]>('vscode.executeDocumentSymbolProvider', uri);
+    const symbols = await vscode.commands.executeCommand<vscode.DocumentSymbol[]>(
+      'vscode.executeDocumentSymbolProvider',
+      uri,
+    );
     const names = symbols.map((s) => s.name);
-    for (const id of [...doc.getText().matchAll(/^id: (.+)$/gm)].map((m) => m[1])) assert.ok(names.includes(id), `symbol ${id}`);
+    for (const id of [...doc.getText().matchAll(/^id: (.+)$/gm)].map((m) => m[1]))
+      assert.ok(names.includes(id), `symbol ${id}`);
   });
 
   it('offers the curve view as a code lens, and the command opens it', async () => {
@@ -129,8 +171,14 @@ describe('Boltzmark through the VS Code API', () => {
     const fence = at('id: cell-B run 1', 'id').line - 1;
     const lens = lenses.find((l) => l.range.start.line === fence && l.command?.command === 'boltzmark.showCurve');
     assert.ok(lens?.command, 'a "Show energy–entropy curve" lens on the fence line');
-    const isView = (t: vscode.Tab): boolean => t.input instanceof vscode.TabInputWebview && t.input.viewType.includes('boltzmark.curveView');
-    const opened = when(vscode.window.tabGroups.onDidChangeTabs, () => (vscode.window.tabGroups.all.some((g) => g.tabs.some(isView)) ? true : undefined), 30000, 'the curve view tab');
+    const isView = (t: vscode.Tab): boolean =>
+      t.input instanceof vscode.TabInputWebview && t.input.viewType.includes('boltzmark.curveView');
+    const opened = when(
+      vscode.window.tabGroups.onDidChangeTabs,
+      () => (vscode.window.tabGroups.all.some((g) => g.tabs.some(isView)) ? true : undefined),
+      30000,
+      'the curve view tab',
+    );
     await vscode.commands.executeCommand(lens.command.command, ...(lens.command.arguments ?? []));
     await opened;
   });

@@ -12,7 +12,9 @@ function apply(state: NoteState, action: CodeAction): string {
   assert.deepEqual(Object.keys(action.edit?.changes ?? {}), [URI], 'edits touch this note only');
   edits.sort((a, b) => state.lines.offsetAt(b.range.start) - state.lines.offsetAt(a.range.start));
   let text = state.text;
-  for (const e of edits) text = text.slice(0, state.lines.offsetAt(e.range.start)) + e.newText + text.slice(state.lines.offsetAt(e.range.end));
+  for (const e of edits)
+    text =
+      text.slice(0, state.lines.offsetAt(e.range.start)) + e.newText + text.slice(state.lines.offsetAt(e.range.end));
   return text;
 }
 
@@ -36,12 +38,19 @@ describe('code actions', () => {
 
   it('add the unit the block already uses to a bare level energy', () => {
     check(note('levels:', '  - { energy: 0 cm-1, population: 0.7 }', '  - { energy: 12$00, population: 0.3 }'), [
-      ['Add the unit cm-1', 'unit-missing', true, note('levels:', '  - { energy: 0 cm-1, population: 0.7 }', '  - { energy: 120 cm-1, population: 0.3 }')],
+      [
+        'Add the unit cm-1',
+        'unit-missing',
+        true,
+        note('levels:', '  - { energy: 0 cm-1, population: 0.7 }', '  - { energy: 120 cm-1, population: 0.3 }'),
+      ],
     ]);
   });
 
   it('offer the isotope the user meant', () => {
-    check(note('system: C1$03', 'field: 9.4 T', 'polarization: 0.1'), [['Change to 13C', 'isotope-unknown', true, note('system: 13C', 'field: 9.4 T', 'polarization: 0.1')]]);
+    check(note('system: C1$03', 'field: 9.4 T', 'polarization: 0.1'), [
+      ['Change to 13C', 'isotope-unknown', true, note('system: 13C', 'field: 9.4 T', 'polarization: 0.1')],
+    ]);
   });
 
   it('offer nothing where no problem with a fix is', () => {
@@ -52,7 +61,10 @@ describe('code actions', () => {
   it('answer for every problem a wider range meets', () => {
     const state = noteState(note('system: C13', 'field: 9.4', 'polarization: 0.1'));
     const actions = codeActions(state, everything(state), DEFAULT_SETTINGS);
-    assert.deepEqual(actions.map((a) => a.title), ['Change to 13C', 'Add the unit T']);
+    assert.deepEqual(
+      actions.map((a) => a.title),
+      ['Change to 13C', 'Add the unit T'],
+    );
   });
 
   it('prefer a fix only when it is the only one, and drop a fix that would edit outside the block', () => {
@@ -63,7 +75,13 @@ describe('code actions', () => {
     const twice = { ...p, fixes: [...p.fixes!, { ...p.fixes![0], title: 'Change unit to T', newText: 'T' }, outside] };
     const changed: NoteState = { ...state, report: { ...state.report, blocks: [{ ...b, problems: [twice] }] } };
     const actions = codeActions(changed, everything(state), DEFAULT_SETTINGS);
-    assert.deepEqual(actions.map((a) => [a.title, a.isPreferred]), [['Change unit to mT', false], ['Change unit to T', false]]);
+    assert.deepEqual(
+      actions.map((a) => [a.title, a.isPreferred]),
+      [
+        ['Change unit to mT', false],
+        ['Change unit to T', false],
+      ],
+    );
   });
 
   it('build the diagnostic with its range, severity, code, source and a link to the code’s section', () => {

@@ -7,7 +7,10 @@ import { CONTRACT, note, noteState, settings, URI } from '../helpers';
 /** Compares the lenses of a note as [line, title, command, arguments]. */
 function check(text: string, expected: readonly (readonly [number, string, string, unknown[]])[]): void {
   const lenses = codeLenses(noteState(text));
-  assert.deepEqual(lenses.map((l) => [l.range.start.line, l.command?.title, l.command?.command, l.command?.arguments]), expected);
+  assert.deepEqual(
+    lenses.map((l) => [l.range.start.line, l.command?.title, l.command?.command, l.command?.arguments]),
+    expected,
+  );
   for (const l of lenses) assert.equal(l.range.start.line, l.range.end.line, 'a lens sits on one line');
 }
 
@@ -24,32 +27,43 @@ describe('code lenses', () => {
   it('copy the results as a Markdown table with the hover’s numbers', () => {
     const state = noteState(note(...CONTRACT));
     const md = resultsMarkdown(state, state.report.blocks[0], DEFAULT_SETTINGS);
-    assert.equal(md, [
-      '**cell\\-B run 7** — normal',
-      '',
-      '| result | value |',
-      '| :-- | :-- |',
-      '| T | 5.61 ± 0.19 mK |',
-      '| β | 178.2 ± 6.1 K⁻¹ |',
-      '| P | 31.2 ± 1.0 % |',
-      '| P\\_th at 1\\.4 K | 0.129 % |',
-      '| ε = P/P\\_th | 241 |',
-      '| S/(Nk) | 0.6437 |',
-      '',
-    ].join('\n'));
+    assert.equal(
+      md,
+      [
+        '**cell\\-B run 7** — normal',
+        '',
+        '| result | value |',
+        '| :-- | :-- |',
+        '| T | 5.61 ± 0.19 mK |',
+        '| β | 178.2 ± 6.1 K⁻¹ |',
+        '| P | 31.2 ± 1.0 % |',
+        '| P\\_th at 1\\.4 K | 0.129 % |',
+        '| ε = P/P\\_th | 241 |',
+        '| S/(Nk) | 0.6437 |',
+        '',
+      ].join('\n'),
+    );
     const h = hover(state, { line: 4, character: 1 }, DEFAULT_SETTINGS);
     const value = (h!.contents as { value: string }).value;
-    for (const row of md.split('\n').filter((l) => l.startsWith('| '))) assert.ok(value.includes(row), `the hover lacks ${row}`);
+    for (const row of md.split('\n').filter((l) => l.startsWith('| ')))
+      assert.ok(value.includes(row), `the hover lacks ${row}`);
   });
 
   it('copy the first error of an invalid block', () => {
     const state = noteState(note('id: hurried', 'system: 1H', 'field: 9.4 MT', 'polarization: 0.001'));
-    assert.equal(resultsMarkdown(state, state.report.blocks[0], DEFAULT_SETTINGS), '**hurried** — invalid\n\nError `unit-case`: field: Units are case\\-sensitive: \\`MT\\` is not \\`mT\\`\\.\n');
+    assert.equal(
+      resultsMarkdown(state, state.report.blocks[0], DEFAULT_SETTINGS),
+      '**hurried** — invalid\n\nError `unit-case`: field: Units are case\\-sensitive: \\`MT\\` is not \\`mT\\`\\.\n',
+    );
   });
 
   it('follow the display settings', () => {
     const state = noteState(note(...CONTRACT));
-    const md = resultsMarkdown(state, state.report.blocks[0], settings({ polarization: 'fraction', temperature: 'beta-first' }));
+    const md = resultsMarkdown(
+      state,
+      state.report.blocks[0],
+      settings({ polarization: 'fraction', temperature: 'beta-first' }),
+    );
     assert.ok(md.indexOf('| β |') < md.indexOf('| T |'), md);
     assert.ok(md.includes('| P | 0.312 ± 0.010 |'), md);
   });

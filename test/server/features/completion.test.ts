@@ -13,7 +13,10 @@ function itemsAt(marked: string): CompletionItem[] {
 /** Compares the labels of the items at the cursor, in sort order. */
 function check(marked: string, expected: readonly string[]): void {
   const items = itemsAt(marked).sort((a, b) => (a.sortText ?? a.label).localeCompare(b.sortText ?? b.label));
-  assert.deepEqual(items.map((i) => i.label), expected);
+  assert.deepEqual(
+    items.map((i) => i.label),
+    expected,
+  );
 }
 
 /** The text an item inserts. */
@@ -22,27 +25,98 @@ function inserted(item: CompletionItem | undefined): string {
   return (item.textEdit as TextEdit | undefined)?.newText ?? item.insertText ?? item.label;
 }
 
-const SPIN_KEYS = ['field', 'frequency', 'g-factor', 'populations', 'polarization', 'signal', 'series', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date'];
+const SPIN_KEYS = [
+  'field',
+  'frequency',
+  'g-factor',
+  'populations',
+  'polarization',
+  'signal',
+  'series',
+  'lattice',
+  'count',
+  'uncertainty',
+  'note',
+  'sample',
+  'date',
+];
 
 describe('completion', () => {
   describe('of keys', () => {
     it('offers every key in an empty block', () => {
-      check(note('$0'), ['id', 'levels', 'system', 'field', 'frequency', 'g-factor', 'populations', 'polarization', 'gap', 'g', 'ratio', 'signal', 'series', 'lines', 'detector', 'cross-section', 'length', 'mirrors', 'loss', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
+      check(note('$0'), [
+        'id',
+        'levels',
+        'system',
+        'field',
+        'frequency',
+        'g-factor',
+        'populations',
+        'polarization',
+        'gap',
+        'g',
+        'ratio',
+        'signal',
+        'series',
+        'lines',
+        'detector',
+        'cross-section',
+        'length',
+        'mirrors',
+        'loss',
+        'lattice',
+        'count',
+        'uncertainty',
+        'note',
+        'sample',
+        'date',
+      ]);
     });
 
     it('never proposes a key already in the mapping, nor one of another form', () => {
       check(note('id: a', 'system: 13C', '$0'), SPIN_KEYS);
       check(note('id: a', 'system: 13C', 'fi$0'), SPIN_KEYS);
-      check(note('system: 13C', '$0', 'field: 9.4 T', 'polarization: 0.3'), ['id', 'frequency', 'g-factor', 'series', 'lattice', 'count', 'uncertainty', 'note', 'sample', 'date']);
-      check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), ['id', 'series', 'lattice', 'count', 'note', 'sample', 'date']);
-      check(note('lines:', '  - { upper: 13 eV, $0'), ['wavelength', 'g', 'A', 'intensity', 'uncertainty', 'species', 'label']);
+      check(note('system: 13C', '$0', 'field: 9.4 T', 'polarization: 0.3'), [
+        'id',
+        'frequency',
+        'g-factor',
+        'series',
+        'lattice',
+        'count',
+        'uncertainty',
+        'note',
+        'sample',
+        'date',
+      ]);
+      check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), [
+        'id',
+        'series',
+        'lattice',
+        'count',
+        'note',
+        'sample',
+        'date',
+      ]);
+      check(note('lines:', '  - { upper: 13 eV, $0'), [
+        'wavelength',
+        'g',
+        'A',
+        'intensity',
+        'uncertainty',
+        'species',
+        'label',
+      ]);
     });
 
     it('documents each key with its summary and inserts `key: `', () => {
       const field = itemsAt(note('system: 13C', '$0')).find((i) => i.label === 'field');
       assert.equal(inserted(field), 'field: ');
       assert.equal(field!.kind, 10, 'Property');
-      assert.deepEqual(field!.documentation, { kind: 'markdown', value: 'Magnetic field: gives the Zeeman splitting from the isotope table’s γ (`T`, `mT`, `G`).\n\n`field: 9.4 T`' });
+      assert.deepEqual(field!.documentation, {
+        kind: 'markdown',
+        value:
+          'Magnetic field: gives the Zeeman splitting from the isotope table’s γ (`T`, `mT`, `G`).\n\n`field: 9.4 T`',
+      });
     });
 
     it('offers the keys of a level inside a flow item, without those it has', () => {
@@ -53,7 +127,11 @@ describe('completion', () => {
 
     it('offers the keys of a level in a block-style item, without those it has', () => {
       check(note('levels:', '  - $0'), ['label', 'energy', 'g', 'population', 'uncertainty']);
-      check(note('levels:', '  - label: A', '    $0', '    population: 0.3', '  - label: B'), ['energy', 'g', 'uncertainty']);
+      check(note('levels:', '  - label: A', '    $0', '    population: 0.3', '  - label: B'), [
+        'energy',
+        'g',
+        'uncertainty',
+      ]);
     });
 
     it('offers nothing in the middle of a value or on a fence line', () => {
@@ -64,7 +142,21 @@ describe('completion', () => {
 
   describe('of isotopes', () => {
     it('lists the table after `system:`, by mass number, the electron last', () => {
-      check(note('system: $0'), ['1H', '2H', '3He', '7Li', '13C', '15N', '17O', '19F', '23Na', '29Si', '31P', '129Xe', 'electron']);
+      check(note('system: $0'), [
+        '1H',
+        '2H',
+        '3He',
+        '7Li',
+        '13C',
+        '15N',
+        '17O',
+        '19F',
+        '23Na',
+        '29Si',
+        '31P',
+        '129Xe',
+        'electron',
+      ]);
     });
 
     it('gives spin and signed γ/2π as detail', () => {
@@ -77,7 +169,11 @@ describe('completion', () => {
       assert.equal(detail('23Na'), 'I = 3/2 · γ/2π = +11.2695 MHz/T');
       // CODATA 2022: |γ_e|/2π = 28 024.951 MHz/T, negative with g_e.
       assert.equal(detail('electron'), 'I = 1/2 · γ/2π = −28.0250 GHz/T');
-      assert.deepEqual((items[0].textEdit as TextEdit).range, { start: { line: 3, character: 8 }, end: { line: 3, character: 9 } }, 'replaces the typed `1`');
+      assert.deepEqual(
+        (items[0].textEdit as TextEdit).range,
+        { start: { line: 3, character: 8 }, end: { line: 3, character: 9 } },
+        'replaces the typed `1`',
+      );
     });
   });
 
@@ -88,7 +184,10 @@ describe('completion', () => {
 
     it('replaces a partly typed unit', () => {
       const mt = itemsAt(note('system: 13C', 'field: 9.4 M$0')).find((i) => i.label === 'mT');
-      assert.deepEqual(mt!.textEdit, { range: { start: { line: 4, character: 11 }, end: { line: 4, character: 12 } }, newText: 'mT' });
+      assert.deepEqual(mt!.textEdit, {
+        range: { start: { line: 4, character: 11 }, end: { line: 4, character: 12 } },
+        newText: 'mT',
+      });
       assert.equal(mt!.detail, '1 mT = 0.001 T');
     });
 
@@ -99,9 +198,33 @@ describe('completion', () => {
     });
 
     it('offers energy units in a level item, wavelengths for a gap, hertz first for a frequency', () => {
-      check(note('levels:', '  - { label: A, energy: 120 $0'), ['J', 'eV', 'meV', 'µeV', 'cm-1', 'Hz', 'kHz', 'MHz', 'GHz', 'THz', 'K']);
+      check(note('levels:', '  - { label: A, energy: 120 $0'), [
+        'J',
+        'eV',
+        'meV',
+        'µeV',
+        'cm-1',
+        'Hz',
+        'kHz',
+        'MHz',
+        'GHz',
+        'THz',
+        'K',
+      ]);
       check(note('gap: 1064 $0'), ['J', 'eV', 'meV', 'µeV', 'cm-1', 'Hz', 'kHz', 'MHz', 'GHz', 'THz', 'K', 'nm', 'µm']);
-      check(note('system: 1H', 'frequency: 400 $0'), ['Hz', 'kHz', 'MHz', 'GHz', 'THz', 'J', 'eV', 'meV', 'µeV', 'cm-1', 'K']);
+      check(note('system: 1H', 'frequency: 400 $0'), [
+        'Hz',
+        'kHz',
+        'MHz',
+        'GHz',
+        'THz',
+        'J',
+        'eV',
+        'meV',
+        'µeV',
+        'cm-1',
+        'K',
+      ]);
     });
 
     it('offers density units after a population, in a flow list or a block list', () => {
@@ -126,7 +249,8 @@ describe('completion', () => {
       assert.equal(spin.kind, 15, 'Snippet');
       assert.deepEqual(spin.textEdit, {
         range: { start: { line: 2, character: 0 }, end: { line: 2, character: 3 } },
-        newText: '```levels\nid: ${1:run}\nsystem: ${2:13C}\nfield: ${3:9.4 T}\nlattice: ${4:1.4 K}\npolarization: ${5:0.3}\n```',
+        newText:
+          '```levels\nid: ${1:run}\nsystem: ${2:13C}\nfield: ${3:9.4 T}\nlattice: ${4:1.4 K}\npolarization: ${5:0.3}\n```',
       });
     });
   });

@@ -24,8 +24,10 @@ function check(marked: string, expected: Expected | null, s: Settings = DEFAULT_
   assert.equal((h.contents as { kind: string }).kind, 'markdown');
   const [sl, sc, el, ec] = expected.range;
   assert.deepEqual(h.range, { start: { line: sl, character: sc }, end: { line: el, character: ec } });
-  for (const text of expected.includes ?? []) assert.ok(value.includes(text), `missing ${JSON.stringify(text)} in:\n${value}`);
-  for (const text of expected.excludes ?? []) assert.ok(!value.includes(text), `unexpected ${JSON.stringify(text)} in:\n${value}`);
+  for (const text of expected.includes ?? [])
+    assert.ok(value.includes(text), `missing ${JSON.stringify(text)} in:\n${value}`);
+  for (const text of expected.excludes ?? [])
+    assert.ok(!value.includes(text), `unexpected ${JSON.stringify(text)} in:\n${value}`);
   return value;
 }
 
@@ -39,26 +41,35 @@ describe('hover', () => {
   describe('on a block', () => {
     it('shows the results of the format example with the numbers the report prints, over the whole block', () => {
       const value = check(contract(4, 3), { range: [2, 0, 8, 3] });
-      assert.equal(value, [
-        '**cell\\-B run 7** — normal: positive spin temperature, more population below',
-        '',
-        '| result | value |',
-        '| :-- | :-- |',
-        '| T | 5.61 ± 0.19 mK |',
-        '| β | 178.2 ± 6.1 K⁻¹ |',
-        '| P | 31.2 ± 1.0 % |',
-        '| P\\_th at 1\\.4 K | 0.129 % |',
-        '| ε = P/P\\_th | 241 |',
-        '| S/(Nk) | 0.6437 |',
-        '',
-        'P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; P > 0 at positive spin temperature, whatever the sign of γ.',
-      ].join('\n'));
+      assert.equal(
+        value,
+        [
+          '**cell\\-B run 7** — normal: positive spin temperature, more population below',
+          '',
+          '| result | value |',
+          '| :-- | :-- |',
+          '| T | 5.61 ± 0.19 mK |',
+          '| β | 178.2 ± 6.1 K⁻¹ |',
+          '| P | 31.2 ± 1.0 % |',
+          '| P\\_th at 1\\.4 K | 0.129 % |',
+          '| ε = P/P\\_th | 241 |',
+          '| S/(Nk) | 0.6437 |',
+          '',
+          'P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; P > 0 at positive spin temperature, whatever the sign of γ.',
+        ].join('\n'),
+      );
     });
 
     it('answers on the fence lines as well as on the body', () => {
       check(note('id: fenced$0', 'gap: 10 K', 'ratio: 0.5'), { range: [2, 0, 6, 3], includes: ['**fenced**'] });
-      check(note('gap: 10 K', 'ratio: 0.5').replace('```levels', '``$0`levels'), { range: [2, 0, 5, 3], includes: ['levels block at line 3'] });
-      check(note('gap: 10 K', 'ratio: 0.5').replace(/```\n$/, '`$0``\n'), { range: [2, 0, 5, 3], includes: ['T | 14.43 K'] });
+      check(note('gap: 10 K', 'ratio: 0.5').replace('```levels', '``$0`levels'), {
+        range: [2, 0, 5, 3],
+        includes: ['levels block at line 3'],
+      });
+      check(note('gap: 10 K', 'ratio: 0.5').replace(/```\n$/, '`$0``\n'), {
+        range: [2, 0, 5, 3],
+        includes: ['T | 14.43 K'],
+      });
     });
 
     it('gives nothing outside the blocks', () => {
@@ -71,7 +82,11 @@ describe('hover', () => {
     });
 
     it('shows temperatures in kelvin when the setting asks for it', () => {
-      check(contract(0, 1), { range: [2, 0, 8, 3], includes: ['| T | 0.00561 ± 0.00019 K |'] }, settings({ temperature: 'kelvin' }));
+      check(
+        contract(0, 1),
+        { range: [2, 0, 8, 3], includes: ['| T | 0.00561 ± 0.00019 K |'] },
+        settings({ temperature: 'kelvin' }),
+      );
     });
 
     it('says inverted, with a negative temperature, for a population inversion', () => {
@@ -79,19 +94,31 @@ describe('hover', () => {
       // P = (1 − 2)/(1 + 2) = −1/3 with u(P) = 2 u(r)/(1 + r)² = 0.0089.
       check(note('gap: 10 K', 'ratio: 2.0 ± 0.04$0'), {
         range: [2, 0, 5, 3],
-        includes: ['— inverted: population inversion, negative spin temperature', '| T | −14.43 ± 0.42 K |', '| P | −33.33 ± 0.89 % |'],
+        includes: [
+          '— inverted: population inversion, negative spin temperature',
+          '| T | −14.43 ± 0.42 K |',
+          '| P | −33.33 ± 0.89 % |',
+        ],
       });
     });
 
     it('says T → ±∞ for equal populations (saturation)', () => {
       check(note('system: 1H', 'field: 9.4 T', 'populations: [0.5, 0.5]$0'), {
         range: [2, 0, 6, 3],
-        includes: ['saturated: β is zero', '| T | → ±∞ (saturated) |', '| β | 0 K⁻¹ |', 'Add `lattice:` to get P\\_th and ε.'],
+        includes: [
+          'saturated: β is zero',
+          '| T | → ±∞ (saturated) |',
+          '| β | 0 K⁻¹ |',
+          'Add `lattice:` to get P\\_th and ε.',
+        ],
       });
     });
 
     it('writes the T → 0⁺ limit when the upper level is empty', () => {
-      check(note('gap: 10 K', 'populations: [1, 0]$0'), { range: [2, 0, 5, 3], includes: ['| T | → 0⁺ |', '| β | → +∞ |', '| S/(Nk) | 0 |'] });
+      check(note('gap: 10 K', 'populations: [1, 0]$0'), {
+        range: [2, 0, 5, 3],
+        includes: ['| T | → 0⁺ |', '| β | → +∞ |', '| S/(Nk) | 0 |'],
+      });
     });
 
     it('escapes an id written as HTML, so that it shows as text', () => {
@@ -103,13 +130,19 @@ describe('hover', () => {
     });
 
     it('escapes Markdown in an id, so that it cannot break out of bold or a table', () => {
-      check(note('id: "*run* | [x](y) `z`$0"', 'gap: 10 K', 'ratio: 0.5'), { range: [2, 0, 6, 3], includes: ['**\\*run\\* \\| \\[x\\]\\(y\\) \\`z\\`**'] });
+      check(note('id: "*run* | [x](y) `z`$0"', 'gap: 10 K', 'ratio: 0.5'), {
+        range: [2, 0, 6, 3],
+        includes: ['**\\*run\\* \\| \\[x\\]\\(y\\) \\`z\\`**'],
+      });
     });
 
     it('shows invalid and the first error of a block with errors', () => {
       check(note('id: hurried', 'system: 1H', 'field: 9.4 MT', 'polarization: 0.001$0'), {
         range: [2, 0, 7, 3],
-        includes: ['**hurried** — invalid: the block has an error', 'Error `unit-case`: field: Units are case\\-sensitive: \\`MT\\` is not \\`mT\\`\\.'],
+        includes: [
+          '**hurried** — invalid: the block has an error',
+          'Error `unit-case`: field: Units are case\\-sensitive: \\`MT\\` is not \\`mT\\`\\.',
+        ],
         excludes: ['| T |'],
       });
     });
@@ -122,24 +155,54 @@ describe('hover', () => {
     });
 
     it('gives the weighted fit’s χ²/dof and verdict for three levels with uncertainties', () => {
-      check(note('id: w', 'levels:', '  - { label: a, energy: 0 K, population: 0.60 ± 0.01 }', '  - { label: b, energy: 10 K, population: 0.25 ± 0.01 }', '  - { label: c, energy: 20 K, population: 0.15 ± 0.01 }', '$0'), {
-        range: [2, 0, 9, 3],
-        includes: ['non-thermal', 'Boltzmann fit weighted by u(n)/n: χ²/dof = 12.0/1; 1 % critical value 6.63: not consistent with one temperature.'],
-        excludes: ['| P |'],
-      });
+      check(
+        note(
+          'id: w',
+          'levels:',
+          '  - { label: a, energy: 0 K, population: 0.60 ± 0.01 }',
+          '  - { label: b, energy: 10 K, population: 0.25 ± 0.01 }',
+          '  - { label: c, energy: 20 K, population: 0.15 ± 0.01 }',
+          '$0',
+        ),
+        {
+          range: [2, 0, 9, 3],
+          includes: [
+            'non-thermal',
+            'Boltzmann fit weighted by u(n)/n: χ²/dof = 12.0/1; 1 % critical value 6.63: not consistent with one temperature.',
+          ],
+          excludes: ['| P |'],
+        },
+      );
     });
 
     it('gives the residual rule and names the inverted pairs by label without uncertainties', () => {
-      check(note('id: mixed', 'levels:', '  - { label: ground, energy: 0 cm-1, population: 0.5 }', '  - { label: A, energy: 100 cm-1, population: 0.2 }', '  - { label: B, energy: 200 cm-1, population: 0.3 }', '$0'), {
-        range: [2, 0, 9, 3],
-        includes: ['(residual rule): largest \\|Δ ln(n/g)\\| = 0.441, limit ln 1.05 = 0.0488: not consistent', 'Inverted pairs (more population per degeneracy above): A ↔ B.'],
-      });
+      check(
+        note(
+          'id: mixed',
+          'levels:',
+          '  - { label: ground, energy: 0 cm-1, population: 0.5 }',
+          '  - { label: A, energy: 100 cm-1, population: 0.2 }',
+          '  - { label: B, energy: 200 cm-1, population: 0.3 }',
+          '$0',
+        ),
+        {
+          range: [2, 0, 9, 3],
+          includes: [
+            '(residual rule): largest \\|Δ ln(n/g)\\| = 0.441, limit ln 1.05 = 0.0488: not consistent',
+            'Inverted pairs (more population per degeneracy above): A ↔ B.',
+          ],
+        },
+      );
     });
   });
 
   describe('on a level', () => {
     const levels = (cursorItem: number, column: number): string => {
-      const items = ['  - { label: ground, energy: 0 cm-1,   g: 1, population: 0.70 }', '  - { label: A,      energy: 120 cm-1, g: 3, population: 0.25, uncertainty: 0.01 }', '  - { label: B,      energy: 410 cm-1, g: 5, population: 0.05 }'];
+      const items = [
+        '  - { label: ground, energy: 0 cm-1,   g: 1, population: 0.70 }',
+        '  - { label: A,      energy: 120 cm-1, g: 3, population: 0.25, uncertainty: 0.01 }',
+        '  - { label: B,      energy: 410 cm-1, g: 5, population: 0.05 }',
+      ];
       items[cursorItem] = items[cursorItem].slice(0, column) + '$0' + items[cursorItem].slice(column);
       return note('id: three', 'levels:', ...items);
     };
@@ -163,7 +226,11 @@ describe('hover', () => {
     });
 
     it('has no neighbour below for the lowest level', () => {
-      check(levels(0, 12), { range: [5, 4, 5, 63], includes: ['| T with A (above) | 81.13 K |'], excludes: ['(below)'] });
+      check(levels(0, 12), {
+        range: [5, 4, 5, 63],
+        includes: ['| T with A (above) | 81.13 K |'],
+        excludes: ['(below)'],
+      });
     });
 
     it('shows a value of a populations list as its Zeeman level', () => {
@@ -171,7 +238,11 @@ describe('hover', () => {
       // T = 19.208 mK / ln(0.6/0.4) = 47.37 mK.
       check(note('system: 1H', 'field: 9.4 T', 'populations: [0.6, 0.$04]'), {
         range: [5, 19, 5, 22],
-        includes: ['**m = −1/2** · level 2 of 2', '| E | 400.2 MHz = 19.21 mK |', '| T with m = \\+1/2 (below) | 47.37 mK |'],
+        includes: [
+          '**m = −1/2** · level 2 of 2',
+          '| E | 400.2 MHz = 19.21 mK |',
+          '| T with m = \\+1/2 (below) | 47.37 mK |',
+        ],
       });
     });
 
@@ -186,29 +257,51 @@ describe('hover', () => {
       // hν/k = 68.1687 mK, ν/c = 0.047 380 cm⁻¹, hν = 5.8743 µeV (exact SI constants).
       check(note('gap: 1420.40$05751768 MHz', 'g: [1, 3]', 'ratio: 2.99'), {
         range: [3, 5, 3, 23],
-        includes: ['**gap** 1420\\.405751768 MHz — Energy of the single transition', '| E/k | 68.17 mK |', '| E/hc | 0.04738 cm⁻¹ |', '| E/h | 1.420 GHz |', '| E | 5.874 × 10⁻⁶ eV |'],
+        includes: [
+          '**gap** 1420\\.405751768 MHz — Energy of the single transition',
+          '| E/k | 68.17 mK |',
+          '| E/hc | 0.04738 cm⁻¹ |',
+          '| E/h | 1.420 GHz |',
+          '| E | 5.874 × 10⁻⁶ eV |',
+        ],
       });
     });
 
     it('gives a field as the Larmor frequency and Zeeman spacing of the block’s isotope', () => {
       // 13C: γ/2π = 10.7084 MHz/T (IUPAC 2001, Harris et al., Pure Appl. Chem. 73, 1795); 7.05 T → 75.494 MHz, hν/k = 3.6231 mK.
-      check(contract(2, 8), { range: [5, 7, 5, 13], includes: ['| B | 7.050 T |', '| Larmor frequency of 13C | 75.49 MHz |', '| Zeeman spacing hν/k | 3.623 mK |'] });
+      check(contract(2, 8), {
+        range: [5, 7, 5, 13],
+        includes: ['| B | 7.050 T |', '| Larmor frequency of 13C | 75.49 MHz |', '| Zeeman spacing hν/k | 3.623 mK |'],
+      });
     });
 
     it('still converts a field when another key of the block has an error', () => {
-      check(note('system: 13C', 'field: 7.0$05 T', 'polarization: 2'), { range: [4, 7, 4, 13], includes: ['| Larmor frequency of 13C | 75.49 MHz |'] });
+      check(note('system: 13C', 'field: 7.0$05 T', 'polarization: 2'), {
+        range: [4, 7, 4, 13],
+        includes: ['| Larmor frequency of 13C | 75.49 MHz |'],
+      });
     });
 
     it('gives the thermal energy kT of the lattice temperature', () => {
       // kT at 1.4 K: 0.973 05 cm⁻¹, 29.171 GHz, 120.64 µeV (exact SI constants).
-      check(contract(3, 10), { range: [6, 9, 6, 14], includes: ['| kT/k | 1.400 K |', '| kT/hc | 0.9730 cm⁻¹ |', '| kT/h | 29.17 GHz |', '| kT | 0.0001206 eV |'] });
+      check(contract(3, 10), {
+        range: [6, 9, 6, 14],
+        includes: ['| kT/k | 1.400 K |', '| kT/hc | 0.9730 cm⁻¹ |', '| kT/h | 29.17 GHz |', '| kT | 0.0001206 eV |'],
+      });
     });
 
     it('converts a level energy written inside a flow item', () => {
-      check(note('levels:', '  - { label: x, energy: 0 cm-1, population: 0.7 }', '  - { label: y, energy: "12$00 cm-1", population: 0.3 }'), {
-        range: [5, 24, 5, 34],
-        includes: ['**energy** 120 cm\\-1', '| E/k | 172.7 K |', '| E/hc | 120.0 cm⁻¹ |'],
-      });
+      check(
+        note(
+          'levels:',
+          '  - { label: x, energy: 0 cm-1, population: 0.7 }',
+          '  - { label: y, energy: "12$00 cm-1", population: 0.3 }',
+        ),
+        {
+          range: [5, 24, 5, 34],
+          includes: ['**energy** 120 cm\\-1', '| E/k | 172.7 K |', '| E/hc | 120.0 cm⁻¹ |'],
+        },
+      );
     });
   });
 
@@ -218,11 +311,23 @@ describe('hover', () => {
       const t = pairTemperature({ energy: 0, g: 1, population: 1 }, { energy: 10, g: 3, population: 1 });
       assert.equal(t.kind, 'value');
       assert.ok(t.kind === 'value' && Math.abs(t.kelvin - 10 / Math.log(3)) < 1e-12);
-      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 2 }, { energy: 5, g: 2, population: 4 }), { kind: 'infinite' });
-      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 1 }, { energy: 5, g: 1, population: 0 }), { kind: 'zero', sign: 1 });
-      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 0 }, { energy: 5, g: 1, population: 1 }), { kind: 'zero', sign: -1 });
-      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 0 }, { energy: 5, g: 1, population: 0 }), { kind: 'undefined' });
-      assert.deepEqual(pairTemperature({ energy: 5, g: 1, population: 1 }, { energy: 5, g: 1, population: 2 }), { kind: 'undefined' });
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 2 }, { energy: 5, g: 2, population: 4 }), {
+        kind: 'infinite',
+      });
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 1 }, { energy: 5, g: 1, population: 0 }), {
+        kind: 'zero',
+        sign: 1,
+      });
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 0 }, { energy: 5, g: 1, population: 1 }), {
+        kind: 'zero',
+        sign: -1,
+      });
+      assert.deepEqual(pairTemperature({ energy: 0, g: 1, population: 0 }, { energy: 5, g: 1, population: 0 }), {
+        kind: 'undefined',
+      });
+      assert.deepEqual(pairTemperature({ energy: 5, g: 1, population: 1 }, { energy: 5, g: 1, population: 2 }), {
+        kind: 'undefined',
+      });
     });
 
     it('is negative for an inverted pair', () => {

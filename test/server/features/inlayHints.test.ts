@@ -6,10 +6,18 @@ import { CONTRACT, everything, note, noteState, settings } from '../helpers';
 type Range = { start: { line: number; character: number }; end: { line: number; character: number } };
 
 /** Asks for the hints of a note (over `range`, or the whole note) and compares [line, character, label] triples. */
-function check(text: string, expected: readonly (readonly [number, number, string])[], s: Settings = DEFAULT_SETTINGS, range?: Range): void {
+function check(
+  text: string,
+  expected: readonly (readonly [number, number, string])[],
+  s: Settings = DEFAULT_SETTINGS,
+  range?: Range,
+): void {
   const state = noteState(text, s);
   const hints = inlayHints(state, range ?? everything(state), s);
-  assert.deepEqual(hints.map((h) => [h.position.line, h.position.character, h.label]), expected);
+  assert.deepEqual(
+    hints.map((h) => [h.position.line, h.position.character, h.label]),
+    expected,
+  );
   for (const h of hints) assert.equal(h.paddingLeft, true, 'hints keep a space from the text');
 }
 
@@ -45,13 +53,21 @@ describe('inlay hints', () => {
   });
 
   it('give a negative pair temperature to an inverted pair', () => {
-    check(note('levels:', '  - { label: a, energy: 0 K, population: 0.5 }', '  - { label: b, energy: 10 K, population: 0.2 }', '  - { label: c, energy: 20 K, population: 0.3 }'), [
-      // T(a, b) = 10 K / ln(0.5/0.2) = 10.91 K; T(b, c) = 10 K / ln(0.2/0.3) = −24.66 K.
-      [2, 9, 'T = 39 K · non-thermal'],
-      [4, 46, 'n/g = 0.500'],
-      [5, 47, 'n/g = 0.200 · T_pair = 10.9 K'],
-      [6, 47, 'n/g = 0.300 · T_pair = −24.7 K'],
-    ]);
+    check(
+      note(
+        'levels:',
+        '  - { label: a, energy: 0 K, population: 0.5 }',
+        '  - { label: b, energy: 10 K, population: 0.2 }',
+        '  - { label: c, energy: 20 K, population: 0.3 }',
+      ),
+      [
+        // T(a, b) = 10 K / ln(0.5/0.2) = 10.91 K; T(b, c) = 10 K / ln(0.2/0.3) = −24.66 K.
+        [2, 9, 'T = 39 K · non-thermal'],
+        [4, 46, 'n/g = 0.500'],
+        [5, 47, 'n/g = 0.200 · T_pair = 10.9 K'],
+        [6, 47, 'n/g = 0.300 · T_pair = −24.7 K'],
+      ],
+    );
   });
 
   it('put the hint of a populations list right after each value', () => {
@@ -74,7 +90,15 @@ describe('inlay hints', () => {
     // The second block's fence is on line 12; its levels A and B on lines 16 and 17.
     const text = `${note(...CONTRACT)}\n${note(...LEVELS)}`;
     const range = { start: { line: 16, character: 0 }, end: { line: 17, character: 80 } };
-    check(text, [[16, 63, 'n/g = 0.0833 · T_pair = 81.1 K'], [17, 63, 'n/g = 0.0100 · T_pair = 197 K']], DEFAULT_SETTINGS, range);
+    check(
+      text,
+      [
+        [16, 63, 'n/g = 0.0833 · T_pair = 81.1 K'],
+        [17, 63, 'n/g = 0.0100 · T_pair = 197 K'],
+      ],
+      DEFAULT_SETTINGS,
+      range,
+    );
   });
 
   it('carry the longer results and the first error message as tooltips', () => {
@@ -82,6 +106,9 @@ describe('inlay hints', () => {
     const [hint] = inlayHints(ok, everything(ok), DEFAULT_SETTINGS);
     assert.match((hint.tooltip as { value: string }).value, /\| T \| 5\.61 ± 0\.19 mK \|/);
     const bad = noteState(note('system: 1H', 'field: 9.4 MT', 'polarization: 0.001'));
-    assert.equal(inlayHints(bad, everything(bad), DEFAULT_SETTINGS)[0].tooltip, 'field: Units are case-sensitive: `MT` is not `mT`.');
+    assert.equal(
+      inlayHints(bad, everything(bad), DEFAULT_SETTINGS)[0].tooltip,
+      'field: Units are case-sensitive: `MT` is not `mT`.',
+    );
   });
 });

@@ -18,25 +18,45 @@ function check(text: string, expected: readonly Flat[]): void {
 
 describe('document symbols', () => {
   it('name a block by its id, with status and short results, selecting the id', () => {
-    check(note(...CONTRACT), [['cell-B run 7', 'normal · T = 5.61 mK · P = 31.2 % · ε = 241', [2, 0, 8, 3], [3, 4, 3, 16], []]]);
+    check(note(...CONTRACT), [
+      ['cell-B run 7', 'normal · T = 5.61 mK · P = 31.2 % · ε = 241', [2, 0, 8, 3], [3, 4, 3, 16], []],
+    ]);
   });
 
   it('name a block without an id by its line and select its fence', () => {
-    check(note('gap: 10 K', 'ratio: 2'), [['levels block at line 3', 'inverted · T = −14.4 K · P = −33.3 %', [2, 0, 5, 3], [2, 0, 2, 9], []]]);
+    check(note('gap: 10 K', 'ratio: 2'), [
+      ['levels block at line 3', 'inverted · T = −14.4 K · P = −33.3 %', [2, 0, 5, 3], [2, 0, 2, 9], []],
+    ]);
   });
 
   it('give an invalid block its first error code', () => {
-    check(note('id: hurried', 'system: 1H', 'field: 9.4 MT', 'polarization: 0.001'), [['hurried', 'invalid · unit-case', [2, 0, 7, 3], [3, 4, 3, 11], []]]);
+    check(note('id: hurried', 'system: 1H', 'field: 9.4 MT', 'polarization: 0.001'), [
+      ['hurried', 'invalid · unit-case', [2, 0, 7, 3], [3, 4, 3, 11], []],
+    ]);
   });
 
   it('list explicit levels as children, in the order they are written', () => {
     // Written from the top down; the core sorts them by energy, the outline keeps the note's order.
-    check(note('id: scheme', 'levels:', '  - { label: up, energy: 10 K, population: 0.2 }', '  - { label: down, energy: 0 K, population: 0.8 }'), [
-      // T = 10 K / ln(0.8/0.2) = 7.213 K; P = (0.8 − 0.2)/(0.8 + 0.2) = 60 %.
-      ['scheme', 'normal · T = 7.21 K · P = 60.0 %', [2, 0, 7, 3], [3, 4, 3, 10], [
-        ['up', 'E/k = 10.00 K · g = 1 · n/g = 0.200', [5, 4, 5, 48], [5, 4, 5, 48], []],
-        ['down', 'E/k = 0 K · g = 1 · n/g = 0.800', [6, 4, 6, 49], [6, 4, 6, 49], []],
-      ]],
-    ]);
+    check(
+      note(
+        'id: scheme',
+        'levels:',
+        '  - { label: up, energy: 10 K, population: 0.2 }',
+        '  - { label: down, energy: 0 K, population: 0.8 }',
+      ),
+      [
+        // T = 10 K / ln(0.8/0.2) = 7.213 K; P = (0.8 − 0.2)/(0.8 + 0.2) = 60 %.
+        [
+          'scheme',
+          'normal · T = 7.21 K · P = 60.0 %',
+          [2, 0, 7, 3],
+          [3, 4, 3, 10],
+          [
+            ['up', 'E/k = 10.00 K · g = 1 · n/g = 0.200', [5, 4, 5, 48], [5, 4, 5, 48], []],
+            ['down', 'E/k = 0 K · g = 1 · n/g = 0.800', [6, 4, 6, 49], [6, 4, 6, 49], []],
+          ],
+        ],
+      ],
+    );
   });
 });

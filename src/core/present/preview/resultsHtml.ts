@@ -6,7 +6,15 @@
 import type { BlockResults } from '../../analysis/results';
 import type { BlockInput, BlockMeta } from '../../block/input';
 import { measurementRows } from '../measurementSummary';
-import { betaText, DEFAULT_DISPLAY, enhancementText, fractionText, STATUS_WORDS, temperatureText, type DisplayOptions } from '../summary';
+import {
+  betaText,
+  DEFAULT_DISPLAY,
+  enhancementText,
+  fractionText,
+  STATUS_WORDS,
+  temperatureText,
+  type DisplayOptions,
+} from '../summary';
 import type { Problem, Status } from '../../types';
 import { formatNumber } from '../numbers';
 import { escapeText, sparklineSvg } from './sparkline';
@@ -30,7 +38,9 @@ export function resultsHtml(b: PreviewBlock, o: DisplayOptions = DEFAULT_DISPLAY
     return `<div class="boltzmark-results">${head}<p class="boltzmark-error">${msg}</p></div>`;
   }
   const r = b.results;
-  const rows = tableRows(b, r, o).map(([k, v]) => `<tr><th scope="row">${escapeText(k)}</th><td>${escapeText(v)}</td></tr>`).join('');
+  const rows = tableRows(b, r, o)
+    .map(([k, v]) => `<tr><th scope="row">${escapeText(k)}</th><td>${escapeText(v)}</td></tr>`)
+    .join('');
   const svg = sparkline(b, r, name);
   return `<div class="boltzmark-results">${head}<table class="boltzmark-table"><tbody>${rows}</tbody></table>${svg ?? ''}</div>`;
 }
@@ -42,10 +52,15 @@ function tableRows(b: PreviewBlock, r: BlockResults, o: DisplayOptions): [string
     rows.push(['β', betaText(r, o).replace(/^β = /, '')]);
   }
   if (r.polarization) rows.push(['P', fractionText(r.polarization, o)]);
-  if (r.thermalPolarization !== null) rows.push(['P_th', fractionText(r.thermalPolarization, { ...o, digits: Math.min(o.digits, 3) })]);
+  if (r.thermalPolarization !== null)
+    rows.push(['P_th', fractionText(r.thermalPolarization, { ...o, digits: Math.min(o.digits, 3) })]);
   if (r.enhancement !== null) rows.push(['ε', enhancementText(r.enhancement, o)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
-  if (r.fit) rows.push(['fit', `χ²/dof = ${formatNumber(r.fit.chi2, 3)}/${r.fit.dof}, ${r.fit.consistent ? 'one temperature' : 'not one temperature'}`]);
+  if (r.fit)
+    rows.push([
+      'fit',
+      `χ²/dof = ${formatNumber(r.fit.chi2, 3)}/${r.fit.dof}, ${r.fit.consistent ? 'one temperature' : 'not one temperature'}`,
+    ]);
   for (const [k, v] of measurementRows(b.input, r, o)) rows.push([k, v]);
   return rows;
 }
@@ -54,5 +69,10 @@ function sparkline(b: PreviewBlock, r: BlockResults, name: string): string | nul
   const input = b.input;
   if (!input || input.levels.length < 2 || input.lines) return null;
   const point = r.meanEnergy !== null && r.entropy !== null ? { energy: r.meanEnergy, entropy: r.entropy } : null;
-  return sparklineSvg(input.levels.map((l) => l.energy), input.levels.map((l) => l.g), point, `S(E) of ${name}${point ? ' with the measured state' : ''}`);
+  return sparklineSvg(
+    input.levels.map((l) => l.energy),
+    input.levels.map((l) => l.g),
+    point,
+    `S(E) of ${name}${point ? ' with the measured state' : ''}`,
+  );
 }

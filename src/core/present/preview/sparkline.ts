@@ -17,7 +17,12 @@ const H = 48;
 const PAD = 4;
 
 /** The SVG text, or null when the scheme has no curve (fewer than two distinct energies). */
-export function sparklineSvg(energiesK: readonly number[], g: readonly number[], point: SparkPoint | null, label: string): string | null {
+export function sparklineSvg(
+  energiesK: readonly number[],
+  g: readonly number[],
+  point: SparkPoint | null,
+  label: string,
+): string | null {
   const curve = schemeCurve(energiesK, g, { points: 120 });
   if (!curve || curve.length < 2) return null;
   const eMin = Math.min(...energiesK);
@@ -26,7 +31,9 @@ export function sparklineSvg(energiesK: readonly number[], g: readonly number[],
   if (!(eMax > eMin) || !(sMax > 0)) return null;
   const x = (e: number): number => PAD + ((e - eMin) / (eMax - eMin)) * (W - 2 * PAD);
   const y = (s: number): number => H - PAD - (s / sMax) * (H - 2 * PAD);
-  const path = curve.map((p, i) => `${i === 0 ? 'M' : 'L'}${x(p.energy).toFixed(1)},${y(p.entropy).toFixed(1)}`).join(' ');
+  const path = curve
+    .map((p, i) => `${i === 0 ? 'M' : 'L'}${x(p.energy).toFixed(1)},${y(p.entropy).toFixed(1)}`)
+    .join(' ');
   // β = 0 sits at the maximum of S: the region to its right is the inverted half.
   const top = curve.reduce((a, b) => (b.entropy > a.entropy ? b : a));
   const parts = [
@@ -36,7 +43,9 @@ export function sparklineSvg(energiesK: readonly number[], g: readonly number[],
     `<path d="${path}" fill="none" stroke="currentColor" stroke-width="1.5"/>`,
   ];
   if (point && Number.isFinite(point.energy) && Number.isFinite(point.entropy)) {
-    parts.push(`<circle cx="${x(point.energy).toFixed(1)}" cy="${y(point.entropy).toFixed(1)}" r="3.5" fill="currentColor" stroke="none"/>`);
+    parts.push(
+      `<circle cx="${x(point.energy).toFixed(1)}" cy="${y(point.entropy).toFixed(1)}" r="3.5" fill="currentColor" stroke="none"/>`,
+    );
   }
   parts.push('</svg>');
   return parts.join('');
