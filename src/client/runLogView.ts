@@ -10,6 +10,7 @@ import type { RunEntry, RunGroup, RunLog } from '../core';
 import { measuredTemperatureText, STATUSES, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
 import { noteReader } from './loadNoteReader';
+import { Debouncer } from '../shared/debouncer';
 
 const MAX_FILES = 2000;
 const MAX_BYTES = 5 * 1024 * 1024;
@@ -76,7 +77,7 @@ const STATUS_ICONS: Record<Status, string> = {
 export function registerRunLog(context: vscode.ExtensionContext, log: vscode.LogOutputChannel): void {
   const tree = new RunLogTree();
   const view = vscode.window.createTreeView('boltzmark.runLog', { treeDataProvider: tree, showCollapseAll: true });
-  const timers = new Map<string, ReturnType<typeof setTimeout>>();
+  const rereads = new Debouncer(DEBOUNCE_MS);
   let started = false;
 
   // The folder's name leads the path only in a workspace of several folders (VS Code's default).
@@ -97,17 +98,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
       log.debug(`run log: cannot read ${uri.toString()}: ${(err as Error).message}`);
     }
   };
-  const schedule = (uri: vscode.Uri): void => {
-    const key = uri.toString();
-    clearTimeout(timers.get(key));
-    timers.set(
-      key,
-      setTimeout(() => {
-        timers.delete(key);
-        void readOne(uri);
-      }, DEBOUNCE_MS),
-    );
-  };
+  const schedule = (uri: vscode.Uri): void => rereads.schedule(uri.toString(), () => void readOne(uri));
   const start = async (): Promise<void> => {
     if (started) return;
     started = true;
@@ -130,6 +121,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
   if (view.visible) void start();
   context.subscriptions.push(
     view,
+    rereads,
     view.onDidChangeVisibility((e) => e.visible && void start()),
     vscode.workspace.onDidChangeConfiguration((e) => e.affectsConfiguration('boltzmark.display') && tree.refresh()),
     vscode.commands.registerCommand('boltzmark.runLog.filter', async () => {

@@ -14,7 +14,8 @@ import {
   type InitializeResult,
 } from 'vscode-languageserver';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { Debouncer, noteDiagnostics } from './diagnostics';
+import { noteDiagnostics } from './diagnostics';
+import { Debouncer } from '../shared/debouncer';
 import { codeActions } from './features/codeActions';
 import { codeLenses, resultsMarkdown } from './features/codeLens';
 import { completion } from './features/completion';
@@ -58,7 +59,7 @@ export function startServer(connection: Connection): void {
     try {
       return fn(s);
     } catch (err) {
-      connection.console.error(`boltzmark: ${(err as Error).stack ?? err}`);
+      connection.console.error(`boltzmark: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`);
       return empty;
     }
   };
@@ -99,9 +100,9 @@ export function startServer(connection: Connection): void {
     if (!configurable) return;
     const section: unknown = await connection.workspace.getConfiguration('boltzmark');
     notes.reconfigure(fromSection(section));
-    if (pull) connection.languages.diagnostics.refresh();
+    if (pull) connection.languages.diagnostics.refresh().catch(() => undefined);
     else documents.all().forEach((d) => push(d.uri));
-    connection.languages.inlayHint.refresh();
+    connection.languages.inlayHint.refresh().catch(() => undefined);
     connection.sendRequest('workspace/codeLens/refresh').catch(() => undefined);
   };
   connection.onInitialized(() => void loadSettings().catch((e) => connection.console.error(String(e))));

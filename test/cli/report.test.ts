@@ -49,7 +49,7 @@ describe('boltzmark report', () => {
       }
     }
     // Files in name order, blocks in line order.
-    const keys = entries.map((e) => `${e.file}:${String(e.line).padStart(5, '0')}`);
+    const keys = entries.map((e) => `${String(e.file)}:${String(e.line).padStart(5, '0')}`);
     assert.deepEqual(keys, [...keys].sort());
     const run1 = entries.find((e) => e.id === 'cell-B run 1')!;
     assert.equal(run1.file, 'demo/polarizer-log.md');

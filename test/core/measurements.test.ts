@@ -267,7 +267,7 @@ describe('bad measurement input', () => {
 });
 
 describe('the measurement plot of the curve view', () => {
-  it('draws the Balmer Boltzmann plot with slope −1/(kT) per eV: −1.1604518 eV⁻¹ at 10 000 K', async () => {
+  it('draws the Balmer Boltzmann plot with slope −1/(kT) per eV: −1.1604518 eV⁻¹ at 10 000 K', () => {
     // 1 eV = 11 604.518 K (e/k, exact since the 2019 SI; CODATA 2022), so −β in eV⁻¹ is −11604.518/T.
     const rel = [1, 0.21276108, 0.078459387, 0.03791632];
     const { report } = block(linesBlock(BALMER, rel));

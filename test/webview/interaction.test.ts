@@ -9,9 +9,7 @@ import { DARK, LIGHT, rgb } from './themes';
 declare const window: { __test: { applyTheme(t: unknown): void; posted: unknown[] } };
 declare const document: {
   body: { dataset: Record<string, string | undefined> };
-  getElementById(
-    id: string,
-  ): {
+  getElementById(id: string): {
     textContent: string | null;
     hidden: boolean;
     value: string;
@@ -168,6 +166,9 @@ describe('curve view messages and controls (headless Chromium)', function () {
       'dark theme blue on the curve',
     );
     const [bg] = await pixelsAround(view.page, 'beta-chart', [[g.left + 2, g.bottom - 40]], 0);
-    assert.ok(near(bg![0]!, rgb(DARK.vars['--vscode-editor-background']!), 2), `dark background, got ${bg![0]}`);
+    assert.ok(
+      near(bg![0]!, rgb(DARK.vars['--vscode-editor-background']!), 2),
+      `dark background, got ${JSON.stringify(bg![0])}`,
+    );
   });
 });

@@ -173,7 +173,6 @@ export class Analyzer {
             line: block.openLine,
             reason: blocks.length >= maxBlocks ? 'blocks' : 'size',
           };
-          open = false;
           break;
         }
         // The body is a stretch of this version of the note; the cache keeps a copy of its own. The copy is

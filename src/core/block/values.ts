@@ -234,7 +234,7 @@ export function readText(ctx: ReadContext, node: unknown): { text: string; span:
   const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src) return null;
-  return { text: isScalar(n) && n.value !== null ? String(n.value) : '', span: src.span };
+  return { text: isScalar(n) && n.value !== null ? String(n.value as string | number | boolean) : '', span: src.span };
 }
 
 /** The items of a YAML sequence, or null (with a problem) when the node is not one. */

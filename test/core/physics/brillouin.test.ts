@@ -191,7 +191,7 @@ describe('spin polarization from populations', () => {
 
   it('returns null for fewer than two levels or invalid populations', () => {
     for (const pops of [[], [1], [0, 0], [1, -1], [1, NaN], [Infinity, 1]]) {
-      assert.equal(spinPolarizationFromPopulations(pops), null, `populations ${pops}`);
+      assert.equal(spinPolarizationFromPopulations(pops), null, `populations ${pops.join(', ')}`);
     }
     assert.equal(spinPolarizationFromPopulations([0, 0, 5])!.value, -1);
   });

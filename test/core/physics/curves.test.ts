@@ -146,7 +146,7 @@ describe('S(E) and β(E) of larger schemes', () => {
       [[-Number.MAX_VALUE, Number.MAX_VALUE], null],
     ];
     for (const [e, g] of cases) {
-      assert.equal(schemeCurve(e, g), null, `energies ${e}, g ${g}`);
+      assert.equal(schemeCurve(e, g), null, `energies ${e.join(', ')}, g ${JSON.stringify(g)}`);
     }
     assert.equal(schemeCurve([0, 1], null, { points: NaN })!.length, 400);
     assert.equal(schemeCurve([0, 1], null, { points: 1 })!.length, 3);

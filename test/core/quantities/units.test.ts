@@ -1,8 +1,8 @@
 import { strict as assert } from 'node:assert';
 import {
-  Dimension,
-  Quantity,
-  QuantityProblem,
+  type Dimension,
+  type Quantity,
+  type QuantityProblem,
   convert,
   formatUnitList,
   parseQuantity,
