@@ -2,6 +2,7 @@
  * Form 1 of the contract: explicit levels, a list of
  * `{ label, energy, g, population, uncertainty }` items in any order.
  */
+import type { TreeNode } from './tree';
 import { unknownKey } from './unknownKey';
 import type { Span } from '../types';
 import type { FormRead, LevelInput } from './input';
@@ -76,7 +77,7 @@ function ascendingEnergies(levels: readonly LevelInput[]): boolean {
 }
 
 /** The unit of the first level energy written with one, offered by the "add a unit" fix. */
-function firstEnergyUnit(ctx: ReadContext, items: unknown[]): string | null {
+function firstEnergyUnit(ctx: ReadContext, items: readonly (TreeNode | null)[]): string | null {
   for (const item of items) {
     const energy = entries(item).find((x) => x.key === 'energy');
     const t = energy ? readText(ctx, energy.value) : null;
@@ -88,7 +89,7 @@ function firstEnergyUnit(ctx: ReadContext, items: unknown[]): string | null {
   return null;
 }
 
-function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): LevelInput | null {
+function readLevel(ctx: ReadContext, item: TreeNode | null, i: number, unit: string): LevelInput | null {
   const span = spanOf(item);
   const subject = `levels[${i}]`;
   if (!isMap(item)) {
@@ -130,7 +131,7 @@ function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): Le
  * reverse them. The fix keeps every item's text and the separators between
  * items, so comments and layout survive.
  */
-function descendingNote(ctx: ReadContext, e: Entry, items: unknown[], levels: LevelInput[]): void {
+function descendingNote(ctx: ReadContext, e: Entry, items: readonly (TreeNode | null)[], levels: LevelInput[]): void {
   if (levels.length < 2 || levels.length !== items.length) return;
   for (let i = 1; i < levels.length; i++) if (!(levels[i].energy < levels[i - 1].energy)) return;
   const spans = items.map((it) => spanOf(it));

@@ -6,6 +6,7 @@
  * carried as an upper level with "population" n = I λ / A (or I / A), so the
  * Boltzmann fit of ln(n/g) against E serves emission data too.
  */
+import type { TreeNode } from './tree';
 import type { FormRead, LevelInput, LineInput } from './input';
 import { LINE_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
@@ -114,7 +115,7 @@ function readDetector(ctx: ReadContext, e: Entry | undefined): 'energy' | 'photo
 
 function readLine(
   ctx: ReadContext,
-  item: unknown,
+  item: TreeNode | null,
   i: number,
   detector: 'energy' | 'photon',
 ): { line: LineInput; species: { text: string; span: { start: number; end: number } } | null } | null {
@@ -183,7 +184,12 @@ function readLine(
   };
 }
 
-function readIntensity(ctx: ReadContext, node: unknown, sibling: Entry | undefined, subject: string): ReadValue | null {
+function readIntensity(
+  ctx: ReadContext,
+  node: TreeNode | null,
+  sibling: Entry | undefined,
+  subject: string,
+): ReadValue | null {
   const v = readNumber(ctx, node, `${subject}.intensity`);
   if (!v) return null;
   if (!(v.value > 0)) {

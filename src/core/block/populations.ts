@@ -3,6 +3,7 @@
  * counts) with an optional `± u`, or absolute number densities with a unit
  * (`2.0e16 cm-3`). All are ≥ 0; only their ratios matter.
  */
+import type { TreeNode } from './tree';
 import type { Span } from '../types';
 import { readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import { deref, isScalar, type Entry } from './yamlTree';
@@ -10,7 +11,7 @@ import { deref, isScalar, type Entry } from './yamlTree';
 const LETTER = /[a-zA-Zµ]/;
 
 /** Reads one population; reports negative values. */
-export function readPopulation(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
+export function readPopulation(ctx: ReadContext, node: TreeNode | null, subject: string): ReadValue | null {
   const n = deref(node);
   // A letter other than an exponent's `e` means a unit; text without any letter needs no closer look
   // (nor typing: a number's text has no letter but an exponent's, and the typed value is only read for text).

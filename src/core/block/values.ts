@@ -3,6 +3,7 @@
  * lists, each with its body-relative span. Problems are collected in the
  * reader's list; nothing throws.
  */
+import type { TreeNode } from './tree';
 import { isNullScalar, isScalar, isSeq, spanOf, deref } from './yamlTree';
 import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../quantities/units';
 import type { Problem, Replacement, Severity, Span } from '../types';
@@ -49,7 +50,7 @@ export function insideBody(span: Span, body: string): Span {
  * one character in; escapes inside quotes may shift later spans, which are
  * then clamped to the node.
  */
-function scalarSource(ctx: ReadContext, node: unknown): { text: string; base: number; span: Span } | null {
+function scalarSource(ctx: ReadContext, node: TreeNode | null): { text: string; base: number; span: Span } | null {
   if (!isScalar(node) || !node.range) return null;
   const span = spanOf(node)!;
   const raw = ctx.body.slice(span.start, span.end);
@@ -89,7 +90,7 @@ export interface QuantityOptions {
 /** Reads `"<number> [± u] <unit>"` (or a bare number) into canonical units; reports and returns null on a problem. */
 export function readQuantity(
   ctx: ReadContext,
-  node: unknown,
+  node: TreeNode | null,
   dim: Dimension,
   subject: string,
   opts: QuantityOptions = {},
@@ -173,7 +174,7 @@ function nonEmpty(span: Span): Span {
  * Reads a plain number, optionally with `± u` (no unit allowed). Used for
  * populations, polarization, ratios and the like.
  */
-export function readNumber(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
+export function readNumber(ctx: ReadContext, node: TreeNode | null, subject: string): ReadValue | null {
   const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src || src.text.trim() === '' || isNullScalar(n)) {
@@ -209,7 +210,7 @@ export function readNumber(ctx: ReadContext, node: unknown, subject: string): Re
 /** Reads a whole number ≥ `min`; reports `code` otherwise. */
 export function readInteger(
   ctx: ReadContext,
-  node: unknown,
+  node: TreeNode | null,
   subject: string,
   code: string,
   min: number,
@@ -230,7 +231,7 @@ export function readInteger(
 }
 
 /** Reads a scalar as text (numbers are kept as written). */
-export function readText(ctx: ReadContext, node: unknown): { text: string; span: Span } | null {
+export function readText(ctx: ReadContext, node: TreeNode | null): { text: string; span: Span } | null {
   const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src) return null;
@@ -238,7 +239,12 @@ export function readText(ctx: ReadContext, node: unknown): { text: string; span:
 }
 
 /** The items of a YAML sequence, or null (with a problem) when the node is not one. */
-export function readList(ctx: ReadContext, node: unknown, subject: string, span: Span): unknown[] | null {
+export function readList(
+  ctx: ReadContext,
+  node: TreeNode | null,
+  subject: string,
+  span: Span,
+): (TreeNode | null)[] | null {
   const n = deref(node);
   if (!isSeq(n)) {
     report(

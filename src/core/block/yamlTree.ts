@@ -212,13 +212,13 @@ export function treeOfDocument(doc: Document.Parsed): TreeNode | null {
 }
 
 /** Follows an alias to its anchored node; other nodes are returned as they are. */
-export function deref(node: unknown): unknown {
-  return isAlias(node) ? node.target : node;
+export function deref(node: TreeNode | null | undefined): TreeNode | null {
+  return isAlias(node) ? node.target : (node ?? null);
 }
 
 /** The span a node covers (value part, without trailing comments), or null. */
-export function spanOf(node: unknown): Span | null {
-  const r = (node as TreeNode | null | undefined)?.range;
+export function spanOf(node: TreeNode | null | undefined): Span | null {
+  const r = node?.range;
   return r ? { start: r[0], end: Math.max(r[1], r[0]) } : null;
 }
 
@@ -226,12 +226,12 @@ export function spanOf(node: unknown): Span | null {
 export interface Entry {
   readonly key: string;
   readonly keySpan: Span;
-  readonly value: unknown;
+  readonly value: TreeNode | null;
   readonly valueSpan: Span;
 }
 
 /** Entries of a YAML mapping node; non-scalar keys are skipped (the caller reports them). */
-export function entries(node: unknown): Entry[] {
+export function entries(node: TreeNode | null | undefined): Entry[] {
   const map = deref(node);
   if (!isMap(map)) return [];
   const out: Entry[] = [];
@@ -246,23 +246,23 @@ export function entries(node: unknown): Entry[] {
   return out;
 }
 
-export function isMap(node: unknown): node is TreeMap {
-  return (node as TreeNode | null | undefined)?.kind === 'map';
+export function isMap(node: TreeNode | null | undefined): node is TreeMap {
+  return node?.kind === 'map';
 }
 
-export function isSeq(node: unknown): node is TreeSeq {
-  return (node as TreeNode | null | undefined)?.kind === 'seq';
+export function isSeq(node: TreeNode | null | undefined): node is TreeSeq {
+  return node?.kind === 'seq';
 }
 
-export function isScalar(node: unknown): node is TreeScalar {
-  return (node as TreeNode | null | undefined)?.kind === 'scalar';
+export function isScalar(node: TreeNode | null | undefined): node is TreeScalar {
+  return node?.kind === 'scalar';
 }
 
-function isAlias(node: unknown): node is TreeAlias {
-  return (node as TreeNode | null | undefined)?.kind === 'alias';
+function isAlias(node: TreeNode | null | undefined): node is TreeAlias {
+  return node?.kind === 'alias';
 }
 
 /** True for a scalar whose value is YAML's null (`~`, `null`, nothing at all). */
-export function isNullScalar(node: unknown): boolean {
+export function isNullScalar(node: TreeNode | null | undefined): boolean {
   return isScalar(node) && node.isNull;
 }
