@@ -1,5 +1,5 @@
 /**
- * Commands of the extension. "Show energy–entropy curve" opens the curve
+ * Commands of the extension. "Show Curve View" opens the curve
  * view beside the note (from the code lens, the palette or the editor title
  * bar); "Copy results" puts the block's results table on the clipboard.
  */

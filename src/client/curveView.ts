@@ -1,5 +1,5 @@
 /**
- * The energy–entropy view beside the editor: one webview panel that shows
+ * The curve view beside the editor: one webview panel that shows
  * the block under the cursor (or the one a command names), with pinned runs
  * overlaid. Curve data come from the language server (`boltzmark/curveData`,
  * computed by the core); the page only draws. Messages from the page are
@@ -76,7 +76,7 @@ export class CurveView implements vscode.Disposable {
     else {
       const panel = vscode.window.createWebviewPanel(
         CURVE_VIEW_TYPE,
-        'Energy–entropy curve',
+        'Curve view',
         { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true },
         webviewOptions(host.extensionUri),
       );

@@ -51,11 +51,11 @@ export function viewHtml(o: ViewHtmlOptions): string {
 <meta http-equiv="Content-Security-Policy" content="${e(contentSecurityPolicy(o.cspSource, o.nonce))}">
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <link rel="stylesheet" href="${e(o.styleUri)}" nonce="${e(o.nonce)}">
-<title>Energy–entropy curve</title>
+<title>Curve view</title>
 </head>
 <body data-drawn="0" data-state="empty">
 <header>
-  <h1 id="block-title">Energy–entropy curve</h1>
+  <h1 id="block-title">Curve view</h1>
   <span id="block-status" role="status"></span>
   <div class="controls">
     <label for="unit-select">Energy in</label>

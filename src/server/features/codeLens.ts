@@ -1,5 +1,5 @@
 /**
- * Code lenses above each block: "Show energy–entropy curve" and "Copy
+ * Code lenses above each block: "Show Curve View" and "Copy
  * results". Both take the note's URI and the 0-based line of the opening
  * fence, which is how the client's commands find the block again.
  */
@@ -18,7 +18,7 @@ export function codeLenses(state: NoteState): CodeLens[] {
     const range = toRange(state.lines, { start: b.block.openStart, end: b.block.openEnd });
     const args = [state.uri, b.block.openLine];
     return [
-      { range, command: { title: 'Show energy–entropy curve', command: 'boltzmark.showCurve', arguments: args } },
+      { range, command: { title: 'Show Curve View', command: 'boltzmark.showCurve', arguments: args } },
       { range, command: { title: 'Copy results', command: 'boltzmark.copyResults', arguments: args } },
     ];
   });

@@ -15,11 +15,11 @@ function check(text: string, expected: readonly (readonly [number, string, strin
 }
 
 describe('code lenses', () => {
-  it('put "Show energy–entropy curve" and "Copy results" above every block, invalid ones included', () => {
+  it('put "Show Curve View" and "Copy results" above every block, invalid ones included', () => {
     check(`${note(...CONTRACT)}\n${note('system: 1H', 'field: 9.4 MT', 'polarization: 0.001')}`, [
-      [2, 'Show energy–entropy curve', 'boltzmark.showCurve', [URI, 2]],
+      [2, 'Show Curve View', 'boltzmark.showCurve', [URI, 2]],
       [2, 'Copy results', 'boltzmark.copyResults', [URI, 2]],
-      [12, 'Show energy–entropy curve', 'boltzmark.showCurve', [URI, 12]],
+      [12, 'Show Curve View', 'boltzmark.showCurve', [URI, 12]],
       [12, 'Copy results', 'boltzmark.copyResults', [URI, 12]],
     ]);
   });
