@@ -78,6 +78,10 @@ export async function pickMany(page: Page, labels: readonly string[]): Promise<s
     if ((await row.getAttribute('aria-checked')) === want) continue;
     await row.locator('.monaco-checkbox').click();
     await widget.locator(`.quick-input-list .monaco-list-row[aria-label="${label}"][aria-checked="${want}"]`).waitFor();
+    // The row's label shows as a hover under the pointer, and on a slow machine it can cover the next row's
+    // checkbox: move the pointer off the list and wait for the hover to go before the next click.
+    await page.mouse.move(1, 1);
+    await page.locator('.context-view .hover-contents').waitFor({ state: 'hidden' });
   }
   await widget.locator('.quick-input-action .monaco-button', { hasText: /^OK$/ }).click();
   await widget.waitFor({ state: 'hidden' });
