@@ -59,4 +59,25 @@ describe('document symbols', () => {
       ],
     );
   });
+
+  it('never give a blank name: an id or level label that is empty or only spaces falls back to the line or the index', () => {
+    // LSP 3.17, DocumentSymbol.name: "must not be an empty string or a string only consisting of white spaces".
+    for (const id of ['id: ""', 'id: "   "', 'id: "\\t\\u3000"', 'id:'])
+      assert.equal(documentSymbols(noteState(note(id, 'gap: 10 K', 'ratio: 2')))[0].name, 'levels block at line 3', id);
+    const [scheme] = documentSymbols(
+      noteState(
+        note(
+          'id: scheme',
+          'levels:',
+          '  - { label: "", energy: 10 K, population: 0.2 }',
+          '  - { label: "  ", energy: 0 K, population: 0.8 }',
+        ),
+      ),
+    );
+    // Levels are numbered in energy order (the core sorts them): the 0 K level is level 1.
+    assert.deepEqual(
+      scheme.children!.map((c) => c.name),
+      ['level 2', 'level 1'],
+    );
+  });
 });
