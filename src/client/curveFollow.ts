@@ -31,5 +31,10 @@ export function followCursor(): vscode.Disposable {
         later(editor);
     }),
   ];
-  return { dispose: () => (clearTimeout(timer), subscriptions.forEach((s) => s.dispose())) };
+  return {
+    dispose: () => {
+      clearTimeout(timer);
+      for (const s of subscriptions) s.dispose();
+    },
+  };
 }

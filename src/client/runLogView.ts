@@ -9,6 +9,7 @@ import * as vscode from 'vscode';
 import type { RunEntry, RunGroup, RunLog } from '../core';
 import { measuredTemperatureText, STATUSES, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
+import { background } from './background';
 import { noteReader } from './loadNoteReader';
 
 const MAX_FILES = 2000;
@@ -104,7 +105,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
       key,
       setTimeout(() => {
         timers.delete(key);
-        void readOne(uri);
+        background(log, `run log: reading ${uri.toString()}`, readOne(uri));
       }, DEBOUNCE_MS),
     );
   };
@@ -127,10 +128,12 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
     );
   };
 
-  if (view.visible) void start();
+  // The first scan starts when the view is first shown; a failure (e.g. of the file search) is logged.
+  const startNow = (): void => background(log, 'run log: the first scan', start());
+  if (view.visible) startNow();
   context.subscriptions.push(
     view,
-    view.onDidChangeVisibility((e) => e.visible && void start()),
+    view.onDidChangeVisibility((e) => e.visible && startNow()),
     vscode.workspace.onDidChangeConfiguration((e) => e.affectsConfiguration('boltzmark.display') && tree.refresh()),
     vscode.commands.registerCommand('boltzmark.runLog.filter', async () => {
       const picks = await vscode.window.showQuickPick(
@@ -138,8 +141,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
         { canPickMany: true, title: 'Show runs with these statuses' },
       );
       if (!picks) return;
-      tree.statuses =
-        picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label as Status);
+      tree.statuses = picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label);
       view.description = tree.statuses ? tree.statuses.join(', ') : undefined;
       tree.refresh();
     }),
@@ -160,8 +162,12 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
         target,
         new TextEncoder().encode(noteReader().runLogCsv(tree.log.entries(tree.statuses))),
       );
-      void vscode.window.showInformationMessage(
-        `Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`,
+      background(
+        log,
+        'run log: the export message',
+        vscode.window.showInformationMessage(
+          `Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`,
+        ),
       );
     }),
   );

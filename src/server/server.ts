@@ -182,10 +182,8 @@ export function startServer(connection: Connection): void {
   connection.languages.inlayHint.on((p, token) =>
     serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
   );
-  connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s, set) => codeActions(s, p.range, set)));
-  connection.onCompletion((p, token) =>
-    serve(p.textDocument.uri, token, [], (s, set) => completion(s, p.position, set)),
-  );
+  connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
+  connection.onCompletion((p, token) => serve(p.textDocument.uri, token, [], (s) => completion(s, p.position)));
   connection.onDocumentSymbol((p, token) => serve(p.textDocument.uri, token, [], documentSymbols));
   connection.onFoldingRanges((p, token) => serve(p.textDocument.uri, token, [], foldingRanges));
   connection.onCodeLens((p, token) => serve(p.textDocument.uri, token, [], codeLenses));

@@ -218,9 +218,9 @@ describe('robustness: properties of the readers and the analysis', function () {
           DEFAULT_SETTINGS,
         ))
           inside({ start: hint.position, end: hint.position });
-        for (const action of codeActions(state, range, DEFAULT_SETTINGS))
+        for (const action of codeActions(state, range))
           for (const edits of Object.values(action.edit?.changes ?? {})) for (const e of edits) inside(e.range);
-        completion(state, position, DEFAULT_SETTINGS);
+        completion(state, position);
         // LSP 3.17 DocumentSymbol: a name that is not empty or only white space, the selection inside the range.
         const symbol = (s: DocumentSymbol): void => {
           assert.ok(s.name.trim() !== '', `a blank symbol name: ${JSON.stringify(s.name)}`);

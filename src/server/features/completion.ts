@@ -29,11 +29,10 @@ import {
   type Dimension,
   type KeyDoc,
 } from '../../core';
-import type { Settings } from '../../shared/settings';
 import { blockAt, toOffset, type NoteState } from '../state';
 
 /** The completions at a position. */
-export function completion(state: NoteState, position: Position, _settings: Settings): CompletionItem[] {
+export function completion(state: NoteState, position: Position): CompletionItem[] {
   const b = blockAt(state, toOffset(state.lines, position));
   const lineText = textOfLine(state, position.line);
   const before = lineText.slice(0, position.character);

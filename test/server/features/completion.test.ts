@@ -1,13 +1,12 @@
 import { strict as assert } from 'node:assert';
 import type { CompletionItem, TextEdit } from 'vscode-languageserver';
 import { completion } from '../../../src/server/features/completion';
-import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
 import { note, withCursor } from '../helpers';
 
 /** The items at the cursor marker. */
 function itemsAt(marked: string): CompletionItem[] {
   const { state, position } = withCursor(marked);
-  return completion(state, position, DEFAULT_SETTINGS);
+  return completion(state, position);
 }
 
 /** Compares the labels of the items at the cursor, in sort order. */
