@@ -17,6 +17,10 @@ import type { SettingsChange } from './settingsStore';
 export interface ClientCaps {
   /** LSP 3.17 pull diagnostics; otherwise the server pushes them. */
   readonly pull: boolean;
+  /** `completionItem.snippetSupport`: the new-block templates come as snippets, else as plain text. */
+  readonly snippets: boolean;
+  /** `documentSymbol.hierarchicalDocumentSymbolSupport`: the outline nests levels in blocks, else it is flat. */
+  readonly hierarchicalSymbols: boolean;
   /** `workspace/configuration`: settings are asked for per note. */
   readonly configuration: boolean;
   /** `workspaceFolders`: settings are kept per folder and the folders followed. */
@@ -32,6 +36,8 @@ export function clientCaps(c: ClientCapabilities | undefined): ClientCaps {
   const w = c?.workspace;
   return {
     pull: !!c?.textDocument?.diagnostic,
+    snippets: c?.textDocument?.completion?.completionItem?.snippetSupport === true,
+    hierarchicalSymbols: c?.textDocument?.documentSymbol?.hierarchicalDocumentSymbolSupport === true,
     configuration: w?.configuration === true,
     workspaceFolders: w?.workspaceFolders === true,
     configurationChange: w?.didChangeConfiguration?.dynamicRegistration === true,

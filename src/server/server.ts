@@ -25,7 +25,7 @@ import { curvePayload } from './features/curve';
 import { foldingRanges } from './features/folding';
 import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
-import { documentSymbols } from './features/symbols';
+import { documentSymbols, flatSymbols } from './features/symbols';
 import { Notes } from './notes';
 import { memoryStats } from './heapStats';
 import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from '../shared/protocol';
@@ -183,8 +183,14 @@ export function startServer(connection: Connection): void {
     serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
   );
   connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
-  connection.onCompletion((p, token) => serve(p.textDocument.uri, token, [], (s) => completion(s, p.position)));
-  connection.onDocumentSymbol((p, token) => serve(p.textDocument.uri, token, [], documentSymbols));
+  connection.onCompletion((p, token) =>
+    serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, caps.snippets)),
+  );
+  connection.onDocumentSymbol((p, token) =>
+    serve(p.textDocument.uri, token, [], (s) =>
+      caps.hierarchicalSymbols ? documentSymbols(s) : flatSymbols(s.uri, documentSymbols(s)),
+    ),
+  );
   connection.onFoldingRanges((p, token) => serve(p.textDocument.uri, token, [], foldingRanges));
   connection.onCodeLens((p, token) => serve(p.textDocument.uri, token, [], codeLenses));
   connection.onRequest(ResultsMarkdownRequest, (p, token) =>

@@ -118,6 +118,26 @@ describe('the server with minimal clients', function () {
       [],
       'a client without capabilities gets no server-to-client request',
     );
+    // No hierarchical symbols: a flat list with locations; no snippets: plain text templates.
+    const symbols = await ask<{ name: string; location?: { uri: string }; children?: unknown }[]>(
+      s,
+      'textDocument/documentSymbol',
+      { textDocument: { uri: URI } },
+    );
+    assert.deepEqual(
+      symbols.map((x) => [x.name, x.location?.uri, x.children]),
+      [
+        ['cell-B run 7', URI, undefined],
+        ['hurried', URI, undefined],
+      ],
+    );
+    const templates = await ask<{ insertTextFormat?: number; textEdit?: { newText: string } }[]>(
+      s,
+      'textDocument/completion',
+      { textDocument: { uri: URI }, position: { line: 16, character: 0 } },
+    );
+    assert.ok(templates.length > 0);
+    for (const t of templates) assert.ok(t.insertTextFormat !== 2 && !/\$\{/.test(t.textEdit?.newText ?? ''));
     await s.close();
     assert.equal(s.proc.exitCode, 0);
   });

@@ -115,6 +115,8 @@ export async function startLsp(opts: StartOptions = {}): Promise<LspSession> {
         workspace: { configuration: true },
         textDocument: {
           hover: { contentFormat: ['markdown', 'plaintext'] },
+          completion: { completionItem: { snippetSupport: true } },
+          documentSymbol: { hierarchicalDocumentSymbolSupport: true },
           ...(opts.pull ? { diagnostic: { dynamicRegistration: false } } : {}),
           publishDiagnostics: { versionSupport: true },
         },

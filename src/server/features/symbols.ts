@@ -2,7 +2,7 @@
  * The outline: each block as a symbol named by its id, with its status and
  * short results as detail, and for explicit levels one child per level.
  */
-import { SymbolKind, type DocumentSymbol } from 'vscode-languageserver';
+import { SymbolKind, type DocumentSymbol, type SymbolInformation } from 'vscode-languageserver';
 import { formatNumber, formatTemperature, shortSummary, type BlockReport } from '../../core';
 import { toRange, type NoteState } from '../state';
 import { firstError } from './markdown';
@@ -24,6 +24,22 @@ export function documentSymbols(state: NoteState): DocumentSymbol[] {
       children: levelSymbols(state, b),
     };
   });
+}
+
+/**
+ * The outline for a client without `hierarchicalDocumentSymbolSupport`: the
+ * same symbols as a flat list, each level naming its block as container.
+ */
+export function flatSymbols(uri: string, symbols: readonly DocumentSymbol[], container?: string): SymbolInformation[] {
+  return symbols.flatMap((s) => [
+    {
+      name: s.name,
+      kind: s.kind,
+      location: { uri, range: s.range },
+      ...(container ? { containerName: container } : {}),
+    },
+    ...flatSymbols(uri, s.children ?? [], s.name),
+  ]);
 }
 
 /**

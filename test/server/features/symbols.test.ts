@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import type { DocumentSymbol } from 'vscode-languageserver';
-import { documentSymbols } from '../../../src/server/features/symbols';
-import { CONTRACT, note, noteState } from '../helpers';
+import { documentSymbols, flatSymbols } from '../../../src/server/features/symbols';
+import { CONTRACT, note, noteState, URI } from '../helpers';
 
 /** A symbol as [name, detail, range as [line, character, line, character], selection range, children]. */
 type Flat = [string, string, number[], number[], Flat[]];
@@ -78,6 +78,26 @@ describe('document symbols', () => {
     assert.deepEqual(
       scheme.children!.map((c) => c.name),
       ['level 2', 'level 1'],
+    );
+  });
+
+  it('flatten for a client without hierarchical symbols, each level naming its block as container', () => {
+    const state = noteState(
+      note(
+        'id: scheme',
+        'levels:',
+        '  - { label: up, energy: 10 K, population: 0.2 }',
+        '  - { label: down, energy: 0 K, population: 0.8 }',
+      ),
+    );
+    const flat = flatSymbols(URI, documentSymbols(state));
+    assert.deepEqual(
+      flat.map((s) => [s.name, s.containerName ?? null, s.location.uri, s.location.range.start.line]),
+      [
+        ['scheme', null, URI, 2],
+        ['up', 'scheme', URI, 5],
+        ['down', 'scheme', URI, 6],
+      ],
     );
   });
 });
