@@ -56,11 +56,13 @@ export class SettingsStore {
    * @param fetch asks the client (null when it cannot be asked)
    * @param log reports a failed or late request
    * @param onLate called with the change when an answer arrives after the note was served with the fallback
+   * @param waitMs how long an answer may take before the fallback is used
    */
   constructor(
     private readonly fetch: FetchSection | null,
     private readonly log: (message: string) => void,
     private readonly onLate: (change: SettingsChange) => void,
+    private readonly waitMs = SETTINGS_WAIT_MS,
   ) {}
 
   /** The workspace folders (from `initialize` and `workspace/didChangeWorkspaceFolders`), longest first. */
@@ -132,10 +134,12 @@ export class SettingsStore {
       let late = false;
       const timer = setTimeout(() => {
         late = true;
-        this.log(`boltzmark: no settings after ${SETTINGS_WAIT_MS} ms for ${key}; using the defaults until they come`);
+        this.log(
+          `boltzmark: no settings after ${this.waitMs} ms for ${key}; using the initialization options or the defaults until they come`,
+        );
         if (current()) this.known.set(key, this.fallback);
         resolve(this.fallback);
-      }, SETTINGS_WAIT_MS);
+      }, this.waitMs);
       void answer
         .then((s) => {
           clearTimeout(timer);
