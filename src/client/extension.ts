@@ -27,7 +27,10 @@ export interface BoltzmarkApi {
 export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
   const api: BoltzmarkApi = {
     extendMarkdownIt: (md) =>
-      noteReader().levelsPreview(md, { infoStrings: previewInfoStrings, display: () => displayOptions() }),
+      noteReader().levelsPreview(md, {
+        infoStrings: (env) => previewInfoStrings(renderedNote(env)),
+        display: (env) => displayOptions(renderedNote(env)),
+      }),
   };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
   context.subscriptions.push(log, trackBlocksKey(log));
@@ -56,6 +59,12 @@ export async function activate(context: vscode.ExtensionContext): Promise<Boltzm
     );
   }
   return api;
+}
+
+/** The note VS Code's preview is rendering: markdown-it's `env.currentDocument`, when it is there. */
+function renderedNote(env: unknown): vscode.Uri | undefined {
+  const doc = (env as { currentDocument?: unknown } | null | undefined)?.currentDocument;
+  return doc instanceof vscode.Uri ? doc : undefined;
 }
 
 /** The extra info strings from the settings (of the note's folder, when one is given). */
