@@ -52,6 +52,7 @@ export function startServer(connection: Connection): void {
   const changed = (change: SettingsChange): void =>
     refreshAfter(connection, caps, change, documents, (uri) => pushes.schedule(uri, () => push(uri)));
   let settings = new SettingsStore(null, log, changed);
+  let folders: string[] = [];
 
   /** The note's analysis and settings, once its folder's settings are known; null for an unknown note. */
   const note = async (uri: string): Promise<{ state: NoteState; settings: Settings } | null> => {
@@ -96,7 +97,7 @@ export function startServer(connection: Connection): void {
       changed,
     );
     settings.setFallback(params.initializationOptions);
-    const folders = params.workspaceFolders?.map((f) => f.uri) ?? (params.rootUri ? [params.rootUri] : []);
+    folders = params.workspaceFolders?.map((f) => f.uri) ?? (params.rootUri ? [params.rootUri] : []);
     settings.setFolders(folders);
     return {
       capabilities: {
@@ -135,15 +136,14 @@ export function startServer(connection: Connection): void {
         connection.client.register(DidChangeConfigurationNotification.type, { section: 'boltzmark' }),
       );
     if (caps.workspaceFolders)
-      connection.workspace.onDidChangeWorkspaceFolders(() => {
-        const folders = connection.workspace.getWorkspaceFolders();
+      connection.workspace.onDidChangeWorkspaceFolders((e) => {
+        const removed = new Set(e.removed.map((f) => f.uri));
+        folders = [...folders.filter((f) => !removed.has(f)), ...e.added.map((f) => f.uri)];
+        const open = documents.all().map((d) => d.uri);
         background(
           connection,
-          'reading the workspace folders',
-          folders.then((list) => {
-            settings.setFolders((list ?? []).map((f) => f.uri));
-            return reload();
-          }),
+          'reading the settings of the changed folders',
+          settings.reload(open, folders).then(changed),
         );
       });
   });

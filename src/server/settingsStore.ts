@@ -98,18 +98,20 @@ export class SettingsStore {
   }
 
   /**
-   * The configuration changed: forgets every answer, asks again for the
-   * folders of `openUris`, and says what changed compared with the values
-   * those notes were served with.
+   * The configuration (or, with `folders`, the set of workspace folders)
+   * changed: forgets every answer, asks again for the folders of `openUris`,
+   * and says what changed for those notes compared with what they were
+   * served with.
    */
-  async reload(openUris: readonly string[]): Promise<SettingsChange> {
-    if (!this.fetch) return { analysis: false, any: false };
-    const before = new Map(this.known);
+  async reload(openUris: readonly string[], folders?: readonly string[]): Promise<SettingsChange> {
+    if (!this.fetch) {
+      if (folders) this.setFolders(folders);
+      return { analysis: false, any: false };
+    }
+    const before = new Map(openUris.map((u) => [u, this.known.get(this.scopeOf(u))]));
+    if (folders) this.setFolders(folders);
     this.forgetAll();
-    const keys = new Map(openUris.map((u) => [this.scopeOf(u), u]));
-    const changes = await Promise.all(
-      [...keys].map(async ([key, uri]) => compare(before.get(key), await this.get(uri))),
-    );
+    const changes = await Promise.all(openUris.map(async (u) => compare(before.get(u), await this.get(u))));
     return { analysis: changes.some((c) => c.analysis), any: changes.some((c) => c.any) };
   }
 

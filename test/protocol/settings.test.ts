@@ -104,6 +104,27 @@ describe('settings in the language server', function () {
     );
   });
 
+  it('follows added workspace folders: a note in a new folder gets that folder’s settings', async () => {
+    let folders = ['file:///lab/a/'];
+    s = await startLsp({
+      capabilities: CAPABILITIES,
+      workspaceFolders: [{ uri: 'file:///lab/a', name: 'a' }],
+      settings: (scope?: string) =>
+        folders.includes('file:///lab/b/') && scope?.startsWith('file:///lab/b/')
+          ? { display: { temperature: 'kelvin' } }
+          : {},
+    });
+    const uri = 'file:///lab/b/3.md';
+    await open(s, uri);
+    assert.match(await hover(s, uri), /\| T \| 5\.61 ± 0\.19 mK \|/);
+    folders = ['file:///lab/a/', 'file:///lab/b/'];
+    await s.conn.sendNotification('workspace/didChangeWorkspaceFolders', {
+      event: { added: [{ uri: 'file:///lab/b', name: 'b' }], removed: [] },
+    });
+    await until(s, () => methods(s!, '/refresh').includes('workspace/inlayHint/refresh'), 'hints refreshed');
+    assert.match(await hover(s, uri), /\| T \| 0\.00561 ± 0\.00019 K \|/);
+  });
+
   it('analyses a note opened at start-up once, and again only when a value that changes results changes', async () => {
     let section: Record<string, unknown> = {};
     s = await startLsp({ capabilities: CAPABILITIES, pull: true, settings: () => section });

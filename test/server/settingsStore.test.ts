@@ -89,4 +89,29 @@ describe('settings store', () => {
     assert.equal((await store.get('file:///n.md')).temperature, 'kelvin');
     assert.deepEqual(store.setFallback({ display: { temperature: 'kelvin' } }), { analysis: false, any: false });
   });
+
+  it('asks again when the workspace folders change, and reports a note whose new folder brings other values', async () => {
+    // The client resolves a scopeUri against its own folders; folder b's settings exist once b is open.
+    let clientFolders = ['file:///lab/a/'];
+    const store = new SettingsStore(
+      (scope) =>
+        Promise.resolve(
+          clientFolders.includes('file:///lab/b/') && scope.startsWith('file:///lab/b/')
+            ? { display: { temperature: 'kelvin' } }
+            : {},
+        ),
+      () => undefined,
+      noLate,
+    );
+    store.setFolders(['file:///lab/a']);
+    const open = ['file:///lab/a/1.md', 'file:///lab/b/2.md'];
+    for (const u of open) assert.equal((await store.get(u)).temperature, 'auto');
+    clientFolders = ['file:///lab/a/', 'file:///lab/c/'];
+    assert.deepEqual(await store.reload(open, ['file:///lab/a', 'file:///lab/c']), { analysis: false, any: false });
+    clientFolders = ['file:///lab/a/', 'file:///lab/b/'];
+    assert.deepEqual(await store.reload(open, ['file:///lab/a', 'file:///lab/b']), { analysis: false, any: true });
+    assert.equal(store.scopeOf('file:///lab/b/2.md'), 'file:///lab/b/');
+    assert.equal((await store.get('file:///lab/b/2.md')).temperature, 'kelvin');
+    assert.equal((await store.get('file:///lab/a/1.md')).temperature, 'auto');
+  });
 });
