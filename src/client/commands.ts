@@ -6,6 +6,7 @@
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
 import { ResultsMarkdownRequest } from '../shared/protocol';
+import { background } from './background';
 import { CurveView } from './curveView';
 
 /** Resolves the note and line a command acts on: its arguments, or the active editor's cursor. */
@@ -33,7 +34,12 @@ export function registerCommands(
   getClient: () => LanguageClient | undefined,
   log: vscode.LogOutputChannel,
 ): void {
-  const noBlock = (): void => void vscode.window.showInformationMessage('Place the cursor in a `levels` block first.');
+  const noBlock = (): void =>
+    background(
+      log,
+      'the no-block message',
+      vscode.window.showInformationMessage('Place the cursor in a `levels` block first.'),
+    );
   context.subscriptions.push(
     vscode.commands.registerCommand('boltzmark.showCurve', (uri?: string | vscode.Uri, line?: number) => {
       // From the editor title bar VS Code passes the note's Uri; the code lens passes (uri, line).

@@ -9,7 +9,7 @@ import { CURVE_VIEW_TYPE, CurveView, type CurveViewHost } from './curveView';
 /** Registers the serializer for the `boltzmark.curveView` panels. */
 export function registerCurveSerializer(host: CurveViewHost): vscode.Disposable {
   return vscode.window.registerWebviewPanelSerializer(CURVE_VIEW_TYPE, {
-    deserializeWebviewPanel(panel: vscode.WebviewPanel, state: unknown): Thenable<void> {
+    deserializeWebviewPanel(panel: vscode.WebviewPanel, state: unknown): Promise<void> {
       CurveView.revive(panel, host, state);
       return Promise.resolve();
     },

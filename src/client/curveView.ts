@@ -18,6 +18,7 @@ import {
   type ViewToHost,
 } from '../core/packageFree';
 import { CurveDataRequest } from '../shared/protocol';
+import { background } from './background';
 import { copyImageLink, saveCsv, savePng } from './curveExport';
 import { newNonce, viewHtml } from './viewHtml';
 
@@ -121,7 +122,7 @@ export class CurveView implements vscode.Disposable {
   /** Shows the block at `target` (if there is one; otherwise keeps the block shown). */
   follow(target: CurveTarget): void {
     this.target = target;
-    void this.refresh(3);
+    background(this.host.log, 'curve view: refresh', this.refresh(3));
   }
 
   private html(): string {
@@ -159,7 +160,11 @@ export class CurveView implements vscode.Disposable {
 
   private send(): void {
     if (this.disposed) return;
-    void this.panel.webview.postMessage({ type: 'render', seq: ++this.seq, current: this.current, pinned: this.pins });
+    background(
+      this.host.log,
+      'curve view: render',
+      this.panel.webview.postMessage({ type: 'render', seq: ++this.seq, current: this.current, pinned: this.pins }),
+    );
   }
 
   private receive(m: unknown): void {
@@ -168,9 +173,10 @@ export class CurveView implements vscode.Disposable {
       this.host.log.warn('curve view: dropped a malformed message from the page');
       return;
     }
-    void this.handle(m).catch((err: Error) => {
-      this.host.log.error(`curve view: ${err.message}`);
-      void vscode.window.showErrorMessage(`Boltzmark: ${err.message}`);
+    this.handle(m).catch((err: unknown) => {
+      const message = err instanceof Error ? err.message : String(err);
+      this.host.log.error(`curve view: ${message}`);
+      background(this.host.log, 'curve view: error message', vscode.window.showErrorMessage(`Boltzmark: ${message}`));
     });
   }
 

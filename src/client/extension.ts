@@ -4,13 +4,11 @@
  * only as quick fixes the user picks.
  */
 import * as vscode from 'vscode';
-import {
-  LanguageClient,
-  TransportKind,
-  type LanguageClientOptions,
-  type ServerOptions,
-} from 'vscode-languageclient/node';
+import { LanguageClient, TransportKind, type ServerOptions } from 'vscode-languageclient/node';
 import type MarkdownIt from 'markdown-it';
+import { background } from './background';
+import { BLOCKS_KEY_DELAY_MS, BlocksKey, NOTE_HAS_BLOCKS } from './blocksKey';
+import { CLIENT_ID, clientOptions } from './clientOptions';
 import { registerCommands } from './commands';
 import { displayOptions } from './display';
 import { followCursor } from './curveFollow';
@@ -29,23 +27,20 @@ export interface BoltzmarkApi {
 export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
   const api: BoltzmarkApi = {
     extendMarkdownIt: (md) =>
-      noteReader().levelsPreview(md, { infoStrings: previewInfoStrings, display: () => displayOptions() }),
+      noteReader().levelsPreview(md, {
+        infoStrings: (env) => previewInfoStrings(renderedNote(env)),
+        display: (env) => displayOptions(renderedNote(env)),
+      }),
   };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
-  context.subscriptions.push(log);
+  context.subscriptions.push(log, trackBlocksKey(log));
   try {
     const module = context.asAbsolutePath('dist/server.js');
     const serverOptions: ServerOptions = {
       run: { module, transport: TransportKind.ipc },
       debug: { module, transport: TransportKind.ipc, options: { execArgv: ['--nolazy', '--inspect=6009'] } },
     };
-    const clientOptions: LanguageClientOptions = {
-      // Every scheme: the server reads only the text it is sent, so virtual and untitled notes work too.
-      documentSelector: [{ language: 'markdown' }],
-      outputChannel: log,
-      synchronize: { configurationSection: 'boltzmark' },
-    };
-    client = new LanguageClient('boltzmark', 'Boltzmark', serverOptions, clientOptions);
+    client = new LanguageClient(CLIENT_ID, 'Boltzmark', serverOptions, clientOptions(log));
     registerCommands(context, () => client, log);
     context.subscriptions.push(
       followCursor(),
@@ -57,18 +52,70 @@ export async function activate(context: vscode.ExtensionContext): Promise<Boltzm
   } catch (err) {
     const message = `Boltzmark could not start its language server: ${(err as Error).message}`;
     log.error(message);
-    void vscode.window.showErrorMessage(message, 'Show log').then((pick) => pick && log.show());
+    background(
+      log,
+      'showing the start-up error',
+      vscode.window.showErrorMessage(message, 'Show log').then((pick) => pick && log.show()),
+    );
   }
   return api;
 }
 
-/** The extra info strings from the settings, read when the preview renders. */
-function previewInfoStrings(): readonly string[] {
-  return vscode.workspace.getConfiguration('boltzmark').get<string[]>('blocks.extraInfoStrings', []);
+/** The note VS Code's preview is rendering: markdown-it's `env.currentDocument`, when it is there. */
+function renderedNote(env: unknown): vscode.Uri | undefined {
+  const doc = (env as { currentDocument?: unknown } | null | undefined)?.currentDocument;
+  return doc instanceof vscode.Uri ? doc : undefined;
+}
+
+/** The extra info strings from the settings (of the note's folder, when one is given). */
+function previewInfoStrings(scope?: vscode.Uri): readonly string[] {
+  const value = vscode.workspace.getConfiguration('boltzmark', scope).get<unknown>('blocks.extraInfoStrings', []);
+  return Array.isArray(value) ? value.filter((x): x is string => typeof x === 'string') : [];
+}
+
+/**
+ * Keeps `boltzmark.noteHasBlocks` true exactly while the active editor shows
+ * a note with a `levels` block: at once when the active editor or the
+ * settings change, after a short pause when the active note is edited.
+ */
+function trackBlocksKey(log: vscode.LogOutputChannel): vscode.Disposable {
+  const active = (): vscode.TextDocument | undefined => vscode.window.activeTextEditor?.document;
+  const key = new BlocksKey(
+    (value) =>
+      background(
+        log,
+        `setting ${NOTE_HAS_BLOCKS}`,
+        vscode.commands.executeCommand('setContext', NOTE_HAS_BLOCKS, value),
+      ),
+    () => previewInfoStrings(active()?.uri),
+  );
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const now = (): void => {
+    clearTimeout(timer);
+    key.update(active());
+  };
+  now();
+  const subscriptions = [
+    vscode.window.onDidChangeActiveTextEditor(now),
+    vscode.workspace.onDidChangeConfiguration((e) => e.affectsConfiguration('boltzmark.blocks') && now()),
+    vscode.workspace.onDidChangeTextDocument((e) => {
+      if (e.document !== active()) return;
+      clearTimeout(timer);
+      timer = setTimeout(now, BLOCKS_KEY_DELAY_MS);
+    }),
+  ];
+  return {
+    dispose: () => {
+      clearTimeout(timer);
+      for (const d of subscriptions) d.dispose();
+    },
+  };
 }
 
 /** Stops the language server. */
 export async function deactivate(): Promise<void> {
-  await client?.stop();
+  const stopping = client;
   client = undefined;
+  // A server that already died cannot be stopped; VS Code is shutting the extension down either way.
+  await stopping?.stop().catch(() => undefined);
 }

@@ -9,6 +9,7 @@ import * as vscode from 'vscode';
 import type { RunEntry, RunGroup, RunLog } from '../core';
 import { measuredTemperatureText, STATUSES, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
+import { background } from './background';
 import { noteReader } from './loadNoteReader';
 import { Debouncer } from '../shared/debouncer';
 
@@ -98,7 +99,8 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
       log.debug(`run log: cannot read ${uri.toString()}: ${(err as Error).message}`);
     }
   };
-  const schedule = (uri: vscode.Uri): void => rereads.schedule(uri.toString(), () => void readOne(uri));
+  const schedule = (uri: vscode.Uri): void =>
+    rereads.schedule(uri.toString(), () => background(log, `run log: reading ${uri.toString()}`, readOne(uri)));
   const start = async (): Promise<void> => {
     if (started) return;
     started = true;
@@ -118,11 +120,13 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
     );
   };
 
-  if (view.visible) void start();
+  // The first scan starts when the view is first shown; a failure (e.g. of the file search) is logged.
+  const startNow = (): void => background(log, 'run log: the first scan', start());
+  if (view.visible) startNow();
   context.subscriptions.push(
     view,
     rereads,
-    view.onDidChangeVisibility((e) => e.visible && void start()),
+    view.onDidChangeVisibility((e) => e.visible && startNow()),
     vscode.workspace.onDidChangeConfiguration((e) => e.affectsConfiguration('boltzmark.display') && tree.refresh()),
     vscode.commands.registerCommand('boltzmark.runLog.filter', async () => {
       const picks = await vscode.window.showQuickPick(
@@ -130,8 +134,7 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
         { canPickMany: true, title: 'Show runs with these statuses' },
       );
       if (!picks) return;
-      tree.statuses =
-        picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label as Status);
+      tree.statuses = picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label);
       view.description = tree.statuses ? tree.statuses.join(', ') : undefined;
       tree.refresh();
     }),
@@ -152,8 +155,12 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
         target,
         new TextEncoder().encode(noteReader().runLogCsv(tree.log.entries(tree.statuses))),
       );
-      void vscode.window.showInformationMessage(
-        `Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`,
+      background(
+        log,
+        'run log: the export message',
+        vscode.window.showInformationMessage(
+          `Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`,
+        ),
       );
     }),
   );

@@ -16,7 +16,7 @@ export {
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
-export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
+export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
 export {

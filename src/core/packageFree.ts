@@ -10,6 +10,7 @@
  * package, so the promise above cannot quietly break.
  */
 export { STATUSES, type Status } from './types';
+export { hasLevelsBlock } from './text/fences';
 export { DEFAULT_DISPLAY, measuredTemperatureText, type DisplayOptions } from './present/summary';
 export {
   ENERGY_AXIS_UNITS,

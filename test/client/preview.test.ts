@@ -73,4 +73,25 @@ describe('Markdown preview of levels blocks', () => {
     const expected = 48 - 4 - (0.5822031089 / Math.LN2) * 40;
     assert.ok(Math.abs(cy - expected) < 0.15, `cy ${cy} vs ${expected}`);
   });
+
+  it('reads the fences and display settings for the note being rendered (markdown-it’s render env)', () => {
+    const seen: unknown[] = [];
+    const md = levelsPreview(new MarkdownIt({ html: false }), {
+      infoStrings: (env) => {
+        seen.push(env);
+        return (env as { folder?: string }).folder === 'b' ? ['populations'] : [];
+      },
+      display: (env) => ({
+        ...DEFAULT_DISPLAY,
+        temperature: (env as { folder?: string }).folder === 'b' ? 'kelvin' : 'auto',
+      }),
+    });
+    const note = '```populations\nsystem: 13C\nfield: 7.05 T\nlattice: 1.4 K\npolarization: 0.312 ± 0.010\n```\n';
+    const a = { folder: 'a' };
+    const b = { folder: 'b' };
+    assert.doesNotMatch(md.render(note, a), /boltzmark-table/);
+    // Same block as the demo's cell-B run: T = 5.61 ± 0.19 mK, here written in kelvin.
+    assert.match(md.render(note, b), /<th scope="row">T<\/th><td>0\.00561 ± 0\.00019 K<\/td>/);
+    assert.deepEqual(seen, [a, b]);
+  });
 });

@@ -93,6 +93,26 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
     await shot(page, '02-inlay-hints');
   });
 
+  it('shows the curve button in the editor title on a note with blocks, and not on one without', async () => {
+    // The button's title is the command's, from package.nls.json; `when` gates it on boltzmark.noteHasBlocks.
+    const nls = JSON.parse(readFileSync(join(host.ROOT, 'package.nls.json'), 'utf8')) as Record<string, string>;
+    const title = nls['boltzmark.showCurve.title'];
+    const button = page.locator(`.editor-group-container.active .editor-actions .action-label[aria-label="${title}"]`);
+    await button.waitFor({ state: 'visible' });
+    await shot(page, '02b-title-button');
+    // demo/README.md is Markdown without a `levels` block.
+    await openFromExplorer(page, 'README.md', 'Demo notebook (invented)');
+    // Whatever happens, the README is closed again, so that the later steps find the demo note active.
+    const hidden = await button
+      .waitFor({ state: 'detached', timeout: 20000 })
+      .then(() => true)
+      .catch(() => false);
+    await runCommand(page, 'View: Close Editor');
+    await page.locator('.tabs-container .tab.active', { hasText: NOTE }).waitFor();
+    assert.ok(hidden, 'the curve button is not shown on a note without a levels block');
+    await button.waitFor({ state: 'visible' });
+  });
+
   it('lists the demo’s deliberate mistakes in the Problems panel with their codes and positions', async () => {
     await runCommand(page, 'View: Focus Problems (Errors, Warnings, Infos)');
     await waitProblems(page, [

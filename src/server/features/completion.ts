@@ -29,15 +29,18 @@ import {
   type Dimension,
   type KeyDoc,
 } from '../../core';
-import type { Settings } from '../../shared/settings';
 import { blockAt, toOffset, type NoteState } from '../state';
 
-/** The completions at a position. */
-export function completion(state: NoteState, position: Position, _settings: Settings): CompletionItem[] {
+/**
+ * The completions at a position. `snippets` is false for a client without
+ * snippet support (`completionItem.snippetSupport`): the new-block templates
+ * then come as plain text with each placeholder's default.
+ */
+export function completion(state: NoteState, position: Position, snippets = true): CompletionItem[] {
   const b = blockAt(state, toOffset(state.lines, position));
   const lineText = textOfLine(state, position.line);
   const before = lineText.slice(0, position.character);
-  if (!b) return lineText.slice(position.character).trim() === '' ? snippetItems(position, before) : [];
+  if (!b) return lineText.slice(position.character).trim() === '' ? snippetItems(position, before, snippets) : [];
   const inBody = position.line > b.block.openLine && (b.block.closeLine === null || position.line < b.block.closeLine);
   if (!inBody) return [];
   const body: Body = {
@@ -367,17 +370,29 @@ const TEMPLATES: readonly { readonly label: string; readonly detail: string; rea
 ];
 
 /** Snippets for a new block, offered at a line start (optionally after a typed fence). */
-function snippetItems(position: Position, before: string): CompletionItem[] {
+function snippetItems(position: Position, before: string, snippets: boolean): CompletionItem[] {
   const m = /^ {0,3}((`{1,3}|~{1,3})?[A-Za-z-]*)$/.exec(before);
   if (!m) return [];
   const fence = m[2]?.startsWith('~') ? '~~~' : '```';
-  return TEMPLATES.map((t, i) => ({
-    label: t.label,
-    kind: CompletionItemKind.Snippet,
-    detail: t.detail,
-    insertTextFormat: InsertTextFormat.Snippet,
-    textEdit: { range: back(position, m[1].length), newText: [`${fence}levels`, ...t.body, fence].join('\n') },
-    filterText: `${m[2] ?? ''}${t.label}`,
-    sortText: String(i),
-  }));
+  return TEMPLATES.map((t, i) => {
+    const text = [`${fence}levels`, ...t.body, fence].join('\n');
+    return {
+      label: t.label,
+      kind: CompletionItemKind.Snippet,
+      detail: t.detail,
+      insertTextFormat: snippets ? InsertTextFormat.Snippet : InsertTextFormat.PlainText,
+      textEdit: { range: back(position, m[1].length), newText: snippets ? text : plainSnippet(text) },
+      filterText: `${m[2] ?? ''}${t.label}`,
+      sortText: String(i),
+    };
+  });
+}
+
+/**
+ * A snippet as plain text (LSP 3.17 snippet syntax): each placeholder
+ * `${n:default}` becomes its default, and tab stops `$n` / `${n}` vanish.
+ * The templates hold no nested placeholders, choices or escaped `$`.
+ */
+export function plainSnippet(snippet: string): string {
+  return snippet.replace(/\$\{\d+:([^}]*)\}/g, '$1').replace(/\$\{\d+\}|\$\d+/g, '');
 }

@@ -2,7 +2,6 @@ import { strict as assert } from 'node:assert';
 import type { CodeAction, TextEdit } from 'vscode-languageserver';
 import { codeActions, problemToDiagnostic } from '../../../src/server/features/codeActions';
 import { FORMAT_DOC_URL } from '../../../src/server/docsLink';
-import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
 import type { NoteState } from '../../../src/server/state';
 import { everything, note, noteState, URI, withCursor } from '../helpers';
 
@@ -21,7 +20,7 @@ function apply(state: NoteState, action: CodeAction): string {
 /** Quick fixes at the cursor: [title, diagnostic code, preferred, the note after applying it]. */
 function check(marked: string, expected: readonly (readonly [string, string, boolean, string])[]): void {
   const { state, position } = withCursor(marked);
-  const actions = codeActions(state, { start: position, end: position }, DEFAULT_SETTINGS);
+  const actions = codeActions(state, { start: position, end: position });
   assert.deepEqual(
     actions.map((a) => [a.title, String(a.diagnostics?.[0]?.code), a.isPreferred === true, apply(state, a)]),
     expected,
@@ -60,7 +59,7 @@ describe('code actions', () => {
 
   it('answer for every problem a wider range meets', () => {
     const state = noteState(note('system: C13', 'field: 9.4', 'polarization: 0.1'));
-    const actions = codeActions(state, everything(state), DEFAULT_SETTINGS);
+    const actions = codeActions(state, everything(state));
     assert.deepEqual(
       actions.map((a) => a.title),
       ['Change to 13C', 'Add the unit T'],
@@ -74,7 +73,7 @@ describe('code actions', () => {
     const outside = { title: 'Edit the heading', span: { start: 0, end: 1 }, newText: '#' };
     const twice = { ...p, fixes: [...p.fixes!, { ...p.fixes![0], title: 'Change unit to T', newText: 'T' }, outside] };
     const changed: NoteState = { ...state, report: { ...state.report, blocks: [{ ...b, problems: [twice] }] } };
-    const actions = codeActions(changed, everything(state), DEFAULT_SETTINGS);
+    const actions = codeActions(changed, everything(state));
     assert.deepEqual(
       actions.map((a) => [a.title, a.isPreferred]),
       [

@@ -1,13 +1,12 @@
 import { strict as assert } from 'node:assert';
 import type { CompletionItem, TextEdit } from 'vscode-languageserver';
-import { completion } from '../../../src/server/features/completion';
-import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
+import { completion, plainSnippet } from '../../../src/server/features/completion';
 import { note, withCursor } from '../helpers';
 
 /** The items at the cursor marker. */
 function itemsAt(marked: string): CompletionItem[] {
   const { state, position } = withCursor(marked);
-  return completion(state, position, DEFAULT_SETTINGS);
+  return completion(state, position);
 }
 
 /** Compares the labels of the items at the cursor, in sort order. */
@@ -252,6 +251,22 @@ describe('completion', () => {
         newText:
           '```levels\nid: ${1:run}\nsystem: ${2:13C}\nfield: ${3:9.4 T}\nlattice: ${4:1.4 K}\npolarization: ${5:0.3}\n```',
       });
+    });
+
+    it('inserts plain text with the placeholders’ defaults for a client without snippet support', () => {
+      // LSP 3.17 §Snippet syntax: `${1:run}` is a placeholder with default `run`, `$0` / `${2}` are tab stops.
+      assert.equal(plainSnippet('id: ${1:run}\ng: [${3:1}, ${4:3}]\n$0x${2}'), 'id: run\ng: [1, 3]\nx');
+      const { state, position } = withCursor('# Run 7\n\n```$0\n');
+      const items = completion(state, position, false);
+      assert.equal(items.length, 3);
+      for (const item of items) {
+        assert.equal(item.insertTextFormat, 1, 'PlainText');
+        assert.doesNotMatch(inserted(item), /\$/, item.label);
+      }
+      assert.equal(
+        inserted(items[0]),
+        '```levels\nid: run\nsystem: 13C\nfield: 9.4 T\nlattice: 1.4 K\npolarization: 0.3\n```',
+      );
     });
   });
 });
