@@ -8,8 +8,9 @@ import { readSpinForm } from './formSpin';
 import { readLevelsForm } from './formLevels';
 import { readTransitionForm } from './formTransition';
 import type { BlockInput, BlockMeta, FormRead } from './input';
-import { BLOCK_KEY_NAMES, BLOCK_KEYS, type BlockForm, type KeyDoc } from './schema';
+import { BLOCK_KEY_NAMES, BLOCK_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './schema';
 import { readLinesForm } from './formLines';
+import { readBackground, readRotor } from './tradeKeys';
 import { readSeries } from './series';
 import { KeySpans } from './keySpans';
 import { unknownKey } from './unknownKey';
@@ -121,6 +122,8 @@ export function interpretBody(body: string): Interpretation {
     const count = readCount(ctx, byKey.get('count'));
     const series = byKey.has('series') ? readSeries(ctx, byKey.get('series')!) : null;
     const read = readForm(ctx, byKey, form);
+    const background = readBackground(ctx, byKey.get('background'));
+    const rotor = readRotor(ctx, byKey.get('rotational-constant'));
     if (read?.signal && !lattice) {
       report(
         ctx,
@@ -146,6 +149,13 @@ export function interpretBody(body: string): Interpretation {
         series,
         lines: read.lines ?? null,
         gain: read.gain ?? null,
+        trade: {
+          medium: read.trade?.medium ?? null,
+          background,
+          line: read.trade?.line ?? null,
+          rotor,
+          columns: read.trade?.columns ?? false,
+        },
       };
     }
   }
@@ -213,7 +223,7 @@ function misplacedKeys(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form
         ctx,
         'warning',
         'key-not-for-form',
-        `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form as BlockForm]}; it is ignored in ${FORM_NAMES[form]}.`,
+        `\`${doc.key}\` belongs to ${doc.forms ? 'blocks of lines, transitions or levels' : FORM_NAMES[doc.form as BlockForm]}; it is ignored in ${FORM_NAMES[form]}.`,
         e.keySpan,
       );
   }
@@ -234,7 +244,7 @@ const FOREIGN_KEYS: Record<BlockForm, readonly KeyDoc[]> = {
 };
 
 function foreignKeys(form: BlockForm): KeyDoc[] {
-  return BLOCK_KEYS.filter((doc) => doc.form !== 'any' && doc.form !== form && !FORM_KEYS.some(([k]) => k === doc.key));
+  return BLOCK_KEYS.filter((doc) => !keyFitsForm(doc, form) && !FORM_KEYS.some(([k]) => k === doc.key));
 }
 
 const FORM_NAMES: Record<BlockForm, string> = {

@@ -7,6 +7,7 @@
  */
 import { MarkupKind, type Hover, type Position } from 'vscode-languageserver';
 import {
+  linePointRows,
   pairTemperature,
   RESIDUAL_TOLERANCE,
   type PairLevel,
@@ -40,7 +41,11 @@ export function hover(state: NoteState, position: Position, settings: Settings):
   const b = blockAt(state, offset);
   if (!b) return null;
   const o = displayOptions(settings);
-  const found = quantityHover(state, b, offset, o) ?? levelHover(b, offset, o) ?? blockHover(state, b, o);
+  const found =
+    quantityHover(state, b, offset, o) ??
+    lineHover(b, offset, o) ??
+    levelHover(b, offset, o) ??
+    blockHover(state, b, o);
   return { contents: { kind: MarkupKind.Markdown, value: found.value }, range: toRange(state.lines, found.span) };
 }
 
@@ -132,6 +137,34 @@ function levelAt(b: BlockReport, offset: number): number | null {
     return shared ? null : i;
   }
   return null;
+}
+
+/**
+ * The hover of one emission or radio line: its point on the Boltzmann plot
+ * (or rotation diagram), spoken of as intensities, not populations: E_u, the
+ * ordinate with its uncertainty (√N for photon counts), the residual and
+ * whether the line is flagged, above or below the refitted line.
+ */
+function lineHover(b: BlockReport, offset: number, o: DisplayOptions): { value: string; span: Span } | null {
+  if (!b.input?.lines || !b.results) return null;
+  const i = levelAt(b, offset);
+  if (i === null) return null;
+  const rows = linePointRows(b.results, i, o);
+  const level = b.input.levels[i];
+  if (!rows || !level.span) return null;
+  const name = escapeMarkdown(level.label ?? `line ${i + 1}`);
+  const what = b.input.lines.detector === 'radiometer' ? 'rotation diagram' : 'Boltzmann plot';
+  const title = `**${name}** · its point on the ${what} · ${blockName(b)}`;
+  const table = markdownTable(
+    ['line', 'value'],
+    rows.map(([k, v]) => [escapeMarkdown(k), escapeMarkdown(v)] as [string, string]),
+  );
+  return {
+    value: `${title}
+
+${table}`,
+    span: b.toNote(level.span),
+  };
 }
 
 /** The hover of one level: energy, g, population, n/g and the pair temperatures with its neighbours. */
