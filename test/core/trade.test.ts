@@ -345,3 +345,18 @@ describe('checks on a block of lines', () => {
     void C2;
   });
 });
+
+describe('unit fixes in explicit levels', () => {
+  it('offers the units of the other levels that keep a bare energy near theirs, and names those ruled out', () => {
+    // 410 cm⁻¹ = 590 K sits among 0…580 K levels; 410 eV = 4.8 × 10⁶ K would not (1 cm⁻¹ = 1.4388 K, 1 eV =
+    // 11 604.5 K: exact SI conversions, CODATA 2022).
+    const body =
+      'levels:\n  - { energy: 0 cm-1, population: 0.7 }\n  - { energy: 0.05 eV, population: 0.2 }\n  - { energy: 410, population: 0.1 }';
+    const p = problem(body, 'unit-missing');
+    assert.deepEqual(
+      p.fixes.map((f) => f.newText),
+      [' cm-1'],
+    );
+    assert.match(p.message, /410 eV/);
+  });
+});

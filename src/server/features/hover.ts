@@ -77,7 +77,7 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
   }
   if (r.thermalPolarization === null && r.polarization && !input.lattice)
     parts.push('Add `lattice:` to get P\\_th and ε.');
-  if (r.fit) parts.push(fitText(r.fit));
+  if (r.fit) parts.push(fitText(r.fit, input.lines ? (r.trade.plot?.ordinate ?? 'ln(I/gA)') : null));
   if (input.levels.length >= 3 && r.invertedPairs.length > 0) {
     const name = (i: number): string => escapeMarkdown(input.levels[i].label ?? `level ${i + 1}`);
     const shown = r.invertedPairs.slice(0, 6).map((p) => `${name(p.lower)} ↔ ${name(p.upper)}`);
@@ -96,14 +96,16 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
  */
 
 /** One line on the Boltzmann fit: χ² test when weighted, the 5 % residual rule otherwise (docs/format.md#status). */
-function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>): string {
+function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>, ordinate: string | null): string {
   const verdict = fit.consistent ? 'consistent with one temperature' : 'not consistent with one temperature';
+  // Lines are measured as intensities: their weights and residuals are spoken of as such.
+  const [weights, quantity] = ordinate !== null ? ['u(I)/I', ordinate] : ['u(n)/n', 'ln(n/g)'];
   if (fit.weighted) {
     const critical = fit.critical !== null ? `; 1 % critical value ${formatNumber(fit.critical, 3)}` : '';
-    return `Boltzmann fit weighted by u(n)/n: χ²/dof = ${formatNumber(fit.chi2, 3)}/${fit.dof}${critical}: ${verdict}.`;
+    return `Boltzmann fit weighted by ${weights}: χ²/dof = ${formatNumber(fit.chi2, 3)}/${fit.dof}${critical}: ${verdict}.`;
   }
   const worst = Math.max(0, ...fit.residuals.map((x) => (x === null ? 0 : Math.abs(x))));
-  return `Boltzmann fit without uncertainties (residual rule): largest \\|Δ ln(n/g)\\| = ${formatNumber(worst, 3)}, limit ln 1.05 = ${formatNumber(RESIDUAL_TOLERANCE, 3)}: ${verdict}.`;
+  return `Boltzmann fit without uncertainties (residual rule): largest \\|Δ ${quantity}\\| = ${formatNumber(worst, 3)}, limit ln 1.05 = ${formatNumber(RESIDUAL_TOLERANCE, 3)}: ${verdict}.`;
 }
 
 // ---- one level ----

@@ -1,0 +1,53 @@
+import { strict as assert } from 'node:assert';
+import { hover } from '../../../src/server/features/hover';
+import { inlayHints } from '../../../src/server/features/inlayHints';
+import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
+import { note, withCursor } from '../helpers';
+
+// Balmer lines with NIST ASD vacuum wavelengths, upper energies, g and A (Kramida, Ralchenko, Reader & NIST ASD
+// Team; export retrieved 2026-06-15, as quoted in ../shared/domain.md §8a); photon counts N ∝ gA e^(−E/kT) at
+// 10 000 K (../shared/domain.md §8), rounded to whole counts.
+const LINES = [
+  'detector: photon',
+  'wavelengths: vacuum',
+  'lines:',
+  '  - { label: Hα, upper: 97492.304 cm-1, g: 18, A: 4.4101e7, intensity: 40000 }',
+  '  - { label: Hβ, upper: 102823.904 cm-1, g: 32, A: 8.4193e6, intensity: 6$0304 }',
+  '  - { label: Hγ, upper: 105291.657 cm-1, g: 50, A: 2.5304e6, intensity: 2076 }',
+];
+
+function hoverText(lines: string[]): string {
+  const { state, position } = withCursor(note(...lines), DEFAULT_SETTINGS);
+  const h = hover(state, position, DEFAULT_SETTINGS);
+  assert.ok(h);
+  return (h.contents as { value: string }).value;
+}
+
+describe('hover and hints for lines', () => {
+  it('shows a line its point on the Boltzmann plot, in intensities, with its √N uncertainty', () => {
+    const text = hoverText(LINES.map((l) => l.replace('6$0', '$06')));
+    assert.match(text, /Hβ/);
+    assert.match(text, /its point on the Boltzmann plot/);
+    assert.ok(text.includes('ln\\(I/\\(gA\\)\\)'), text);
+    // u(y) = √N/N for N = 6304 counts: 0.0126 (Poisson counting statistics).
+    assert.ok(text.includes('0\\.013 = u\\(I\\)/I, with u\\(I\\) = √I \\(Poisson'), text);
+    assert.match(text, /residual from the fit/);
+    assert.ok(!text.includes('u(n)/n'), text);
+  });
+
+  it('names the excitation temperature with kT in eV in the block hover and the fence hint, with no P or ε', () => {
+    const lines = LINES.map((l) => l.replace('$0', ''));
+    const text = hoverText(['$0' + lines[0], ...lines.slice(1)]);
+    // T = 10 000 K as generated; kT = 10 000 K / 11 604.518 K/eV = 0.862 eV (e/k exact, CODATA 2022).
+    assert.ok(text.includes('| T\\_ex (excitation temperature) | 10000 ± 140 K (kT = 0.862 ± 0.012 eV) |'), text);
+    assert.match(text, /normal: positive excitation temperature, more population per degeneracy below/);
+    assert.ok(!/\| P |ε = P/.test(text), text);
+    const { state } = withCursor(note(...lines, '$0'), DEFAULT_SETTINGS);
+    const hints = inlayHints(
+      state,
+      { start: { line: 0, character: 0 }, end: { line: 20, character: 0 } },
+      DEFAULT_SETTINGS,
+    );
+    assert.equal(String(hints[0].label), 'T_ex = 10000 K (kT = 0.862 eV)');
+  });
+});
