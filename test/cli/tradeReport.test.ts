@@ -28,6 +28,20 @@ const NOTE = [
   '',
 ].join('\n');
 
+/** The fields of a report entry this suite reads. */
+interface Entry {
+  trade: string;
+  temperatureName: string;
+  polarization: null | object;
+  plot: {
+    ordinate: string;
+    intercept: { value: number };
+    points: { label: string; flag: string | null; upperEnergy: number; upperEnergyEv: number; y: number }[];
+  };
+  refit: { temperature: { value: number } };
+  wavelengths: { medium: string; stated: boolean };
+}
+
 describe('boltzmark report: the plot data of lines', () => {
   const dir = mkdtempSync(join(tmpdir(), 'bm-lines-'));
   writeFileSync(join(dir, 'lines.md'), NOTE);
@@ -35,16 +49,16 @@ describe('boltzmark report: the plot data of lines', () => {
   it('puts each line’s point, the intercept and the refit without the flagged line in the JSON', () => {
     const { code, out } = run(['report', dir, '--format', 'json']);
     assert.equal(code, 0);
-    const [e] = JSON.parse(out) as Record<string, any>[];
+    const [e] = JSON.parse(out) as Entry[];
     assert.equal(e.trade, 'emission');
     assert.equal(e.temperatureName, 'excitation temperature');
     assert.equal(e.polarization, null);
     assert.equal(e.plot.points.length, 5);
     assert.equal(e.plot.ordinate, 'ln(Iλ/(gA))');
     assert.ok(Number.isFinite(e.plot.intercept.value));
-    const flagged = e.plot.points.filter((p: { flag: string | null }) => p.flag !== null);
+    const flagged = e.plot.points.filter((p) => p.flag !== null);
     assert.deepEqual(
-      flagged.map((p: { label: string; flag: string }) => [p.label, p.flag]),
+      flagged.map((p) => [p.label, p.flag]),
       [['Hγ', 'below']],
     );
     // Without Hγ the four remaining Balmer points lie on the 10 000 K line (§8c); the fifth (Hε, E_u, g and A from memory, its intensity computed at 10 000 K by the same formula) too.

@@ -20,7 +20,6 @@ import {
 import { linesCsv } from '../../src/core/present/tradeSummary';
 import { applyFirstFix, block, close, problem } from './helpers';
 
-const C2 = 1.438776877503934; // K per cm⁻¹: second radiation constant hc/k (exact since the 2019 SI; CODATA 2022)
 const KELVIN_PER_EV = 11604.51812155008; // e/k (exact since the 2019 SI; CODATA 2022 "electron volt-kelvin relationship")
 // hν₁₀/k of the 21-cm line: 0.068 168 725 K (../shared/domain.md §6, derived from ν₁₀ = 1 420 405 751.768 Hz,
 // Hellwig et al., IEEE Trans. Instrum. Meas. IM-19, 200 (1970), and the exact h/k).
@@ -342,7 +341,6 @@ describe('checks on a block of lines', () => {
     // With a unit written, an implausible magnitude is flagged.
     const w = problem(body.replace('105617.27,', '105617.27 eV,'), 'energy-implausible');
     assert.equal(w.severity, 'warning');
-    void C2;
   });
 });
 

@@ -51,3 +51,26 @@ describe('hover and hints for lines', () => {
     assert.equal(String(hints[0].label), 'T_ex = 10000 K (kT = 0.862 eV)');
   });
 });
+
+describe('inlay hints of lines', () => {
+  it('put each line’s distance from the fit after it, and say which side a flagged line lies on', () => {
+    // The Hβ count lowered to 60 % (self-absorbed): four lines, one flagged below (counts N ∝ gA e^(−E/kT) at
+    // 10 000 K as above, Hδ from the same NIST ASD export: E_u = 106 632.1681 cm⁻¹, g = 72, A = 9.7320 × 10⁵ s⁻¹).
+    const lines = [
+      ...LINES.slice(0, 4),
+      '  - { label: Hβ, upper: 102823.904 cm-1, g: 32, A: 8.4193e6, intensity: 3782 }',
+      LINES[5],
+      '  - { label: Hδ, upper: 106632.1681 cm-1, g: 72, A: 9.732e5, intensity: 948 }',
+      '$0',
+    ];
+    const { state } = withCursor(note(...lines), DEFAULT_SETTINGS);
+    const hints = inlayHints(
+      state,
+      { start: { line: 0, character: 0 }, end: { line: 30, character: 0 } },
+      DEFAULT_SETTINGS,
+    ).map((h) => String(h.label));
+    assert.equal(hints.length, 5, hints.join(' | '));
+    assert.match(hints[2], /^outlier, below · Δy = −/);
+    assert.ok(!hints.some((h) => h.includes('n/g')));
+  });
+});
