@@ -46,7 +46,7 @@ export function tradeRows(input: BlockInput | null, r: BlockResults, o: DisplayO
     const flagged = p.points.filter((q) => q.flag !== null);
     if (flagged.length > 0) {
       const name = (q: PlotPointResult): string =>
-        `${q.label ?? `line at ${formatNumber(q.energy / KELVIN_PER_EV, 5)} eV`} (${q.flag})`;
+        `${q.label ?? `line at ${formatNumber(q.energy / KELVIN_PER_EV, 5)} eV`} (${q.flag ?? ''})`;
       rows.push([
         'flagged lines',
         `${flagged.map(name).join(', ')}; iterative clipping, each judged against the line refitted without it`,
