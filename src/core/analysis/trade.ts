@@ -201,6 +201,11 @@ export function tradeResults(
       : null;
   spanWarning(input, beta, problems);
   backgroundWarning(input, t, ctx.saturated, problems);
+  const column = columnOf(input, t, lines?.plot ?? null);
+  const medium = input.trade?.medium ?? null;
+  // Most blocks add nothing but their words: they share one frozen result per trade (results stay cached per block).
+  if (!lines && !column && !medium && temperatureEv === null && temperatureLimit === null && !input.trade?.line)
+    return PLAIN[trade];
   return {
     trade,
     temperatureName: trade === 'spin' ? 'spin temperature' : 'excitation temperature',
@@ -208,11 +213,34 @@ export function tradeResults(
     temperatureLimit,
     plot: lines?.plot ?? null,
     refit: lines?.refit ?? null,
-    column: columnOf(input, t, lines?.plot ?? null),
-    medium: input.trade?.medium ?? null,
+    column,
+    medium,
     fromBrightness: !!input.trade?.line,
   };
 }
+
+/** The result of a block whose trade adds nothing but its words. */
+function plain(trade: Trade): TradeResults {
+  return Object.freeze({
+    trade,
+    temperatureName: trade === 'spin' ? 'spin temperature' : 'excitation temperature',
+    temperatureEv: null,
+    temperatureLimit: null,
+    plot: null,
+    refit: null,
+    column: null,
+    medium: null,
+    fromBrightness: false,
+  });
+}
+
+const PLAIN: Readonly<Record<Trade, TradeResults>> = {
+  spin: plain('spin'),
+  emission: plain('emission'),
+  radio: plain('radio'),
+  optical: plain('optical'),
+  levels: plain('levels'),
+};
 
 /**
  * A Boltzmann plot whose upper levels span less than kT defines its slope

@@ -7,7 +7,7 @@ import type { Problem, Span } from '../types';
 import { readSpinForm } from './formSpin';
 import { readLevelsForm } from './formLevels';
 import { readTransitionForm } from './formTransition';
-import type { BlockInput, BlockMeta, FormRead } from './input';
+import type { BlockInput, BlockMeta, FormRead, TradeInput } from './input';
 import { BLOCK_KEY_NAMES, BLOCK_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './schema';
 import { readLinesForm } from './formLines';
 import { readBackground, readRotor } from './tradeKeys';
@@ -149,13 +149,16 @@ export function interpretBody(body: string): Interpretation {
         series,
         lines: read.lines ?? null,
         gain: read.gain ?? null,
-        trade: {
-          medium: read.trade?.medium ?? null,
-          background,
-          line: read.trade?.line ?? null,
-          rotor,
-          columns: read.trade?.columns ?? false,
-        },
+        trade:
+          read.trade?.medium || read.trade?.line || read.trade?.columns || background || rotor
+            ? {
+                medium: read.trade?.medium ?? null,
+                background,
+                line: read.trade?.line ?? null,
+                rotor,
+                columns: read.trade?.columns ?? false,
+              }
+            : NO_TRADE,
       };
     }
   }
@@ -188,6 +191,9 @@ function readCount(ctx: ReadContext, e: Entry | undefined): ReadValue | null {
   if (!e) return null;
   return readInteger(ctx, e.value, 'count', 'count-invalid', 1);
 }
+
+/** What most blocks carry for the trade keys: nothing, shared and frozen. */
+const NO_TRADE: TradeInput = Object.freeze({ medium: null, background: null, line: null, rotor: null, columns: false });
 
 const SERIES_ONLY: FormRead = {
   form: 'series',
