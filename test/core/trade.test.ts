@@ -358,3 +358,23 @@ describe('unit fixes in explicit levels', () => {
     assert.match(p.message, /410 eV/);
   });
 });
+
+describe('extreme values in the trade keys', () => {
+  it('never throws and never reports a non-finite number', () => {
+    const bodies = [
+      'gap: 1420.405751768 MHz\nbrightness: 35 K\noptical-depth: 1e-320',
+      'gap: 1420.405751768 MHz\nbrightness: 1e308 K\noptical-depth: 1e-300\nbackground: 1e308 K',
+      'detector: radiometer\nrotational-constant: 1e-300 Hz\nlines:\n  - { frequency: 1e300 GHz, upper: 1 K, g: 3, A: 1e-300, intensity: 1e300 }\n  - { frequency: 1 Hz, upper: 2e6 K, g: 5, A: 1, intensity: 1e-300, optical-depth: 1e300 }',
+      'gap: 1e300 Å\nratio: 0.5',
+      'gap: 0.0001 nm\nwavelengths: air\nratio: 0.5',
+      `detector: photon\nlines:\n${Array.from({ length: 300 }, (_, i) => `  - { upper: ${10 + i * 0.01} eV, g: 1, A: 1e7, intensity: ${1 + (i % 7)} }`).join('\n')}`,
+    ];
+    for (const b of bodies) {
+      const { report, text } = block(b);
+      const json = JSON.stringify(reportEntry('x.md', report, new LineIndex(text)));
+      assert.doesNotMatch(json, /NaN|Infinity/, b.slice(0, 40));
+    }
+    // T_B over a vanishing τ: T → ∞, β = 0, saturated (not unknown).
+    assert.equal(block(bodies[0]).report.status, 'saturated');
+  });
+});

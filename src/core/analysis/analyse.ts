@@ -156,9 +156,12 @@ function fromBrightness(input: BlockInput): BetaFinding {
   const line = input.trade!.line!;
   const bg = input.trade!.background;
   const t = lineTemperature(line.brightness, line.opticalDepth, bg);
-  const beta: Measured | null =
-    t.value !== 0 && Number.isFinite(t.value)
-      ? { value: 1 / t.value, uncertainty: t.uncertainty === null ? null : t.uncertainty / (t.value * t.value) }
+  // An optical depth too small for double precision makes T overflow: β is then 0 (T → ∞), not unknown.
+  const u = t.uncertainty === null ? null : t.uncertainty / (t.value * t.value);
+  const beta: Measured | null = !Number.isFinite(t.value)
+    ? { value: 0, uncertainty: null }
+    : t.value !== 0
+      ? { value: 1 / t.value, uncertainty: u !== null && Number.isFinite(u) ? u : null }
       : null;
   return { beta, limit: null, fit: null, fractions: null, polarization: null, problems: [] };
 }
