@@ -36,15 +36,18 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
     return null;
   }
   const unit = firstEnergyUnit(ctx, items) ?? 'cm-1';
-  const siblings = siblingsOf(
-    items.map((it) => {
-      const x = isMap(it) ? entries(it).find((y) => y.key === 'energy') : undefined;
-      return x ? (readText(ctx, x.value)?.text ?? '') : '';
-    }),
-    'energy',
-  );
-  // A bare energy is offered the units of the other levels that give it a magnitude near theirs (within 10³).
-  const choose = (v: number): UnitChoice => chooseUnits(v, 'energy', siblings, LEVEL_RANGE, [unit]);
+  // A bare energy is offered the units of the other levels that give it a magnitude near theirs (within 10³);
+  // the siblings are read only then, as a bare energy is rare.
+  const choose = (v: number): UnitChoice => {
+    const siblings = siblingsOf(
+      items.map((it) => {
+        const x = isMap(it) ? entries(it).find((y) => y.key === 'energy') : undefined;
+        return x ? (readText(ctx, x.value)?.text ?? '') : '';
+      }),
+      'energy',
+    );
+    return chooseUnits(v, 'energy', siblings, LEVEL_RANGE, [unit]);
+  };
   const levels: LevelInput[] = [];
   let ok = true;
   items.forEach((item, i) => {

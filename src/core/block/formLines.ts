@@ -49,13 +49,16 @@ export function readLinesForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry
   const lines: LineInput[] = [];
   let ok = true;
   let species: { name: string } | null = null;
-  const uppers = siblingsOf(
-    items.map((it) => {
-      const x = isMap(it) ? entries(it).find((y) => y.key === 'upper') : undefined;
-      return x ? (readText(ctx, x.value)?.text ?? '') : '';
-    }),
-    'energy',
-  );
+  // The other lines' upper energies judge a bare one; read only when a line has one (rare).
+  let known: Sibling[] | null = null;
+  const uppers = (): readonly Sibling[] =>
+    (known ??= siblingsOf(
+      items.map((it) => {
+        const x = isMap(it) ? entries(it).find((y) => y.key === 'upper') : undefined;
+        return x ? (readText(ctx, x.value)?.text ?? '') : '';
+      }),
+      'energy',
+    ));
   const how: LineReading = { detector: detector.kind, stated, uppers, media: [] };
   items.forEach((item, i) => {
     const line = readLine(ctx, item, i, how);
@@ -174,7 +177,7 @@ function readDetector(
 interface LineReading {
   readonly detector: Detector;
   readonly stated: { kind: 'air' | 'vacuum' } | null;
-  readonly uppers: readonly Sibling[];
+  readonly uppers: () => readonly Sibling[];
   /** The medium each optical wavelength was taken in, in reading order. */
   readonly media: { kind: 'air' | 'vacuum'; stated: boolean }[];
 }
@@ -226,7 +229,7 @@ function readLine(
   const frequency = fe ? readQuantity(ctx, fe.value, 'energy', `${subject}.frequency`, { suggestUnit: 'GHz' }) : null;
   const upper = ue
     ? readQuantity(ctx, ue.value, 'energy', `${subject}.upper`, {
-        unitChoice: (v) => chooseUnits(v, 'energy', how.uppers, UPPER_RANGE, ['eV', 'cm-1']),
+        unitChoice: (v) => chooseUnits(v, 'energy', how.uppers(), UPPER_RANGE, ['eV', 'cm-1']),
       })
     : null;
   const g = ge ? readInteger(ctx, ge.value, `${subject}.g`, 'degeneracy-invalid', 1) : null;
