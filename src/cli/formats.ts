@@ -4,7 +4,9 @@ import {
   betaText,
   enhancementText,
   fractionText,
+  linesCsv,
   temperatureText,
+  withoutSymbol,
   type ReportEntry,
   type BlockReport,
   DEFAULT_DISPLAY,
@@ -19,8 +21,7 @@ export interface Row {
 /** Human table: file:line, id, status, T, β, P, P_th, ε; then each problem on its own line. */
 export function formatTable(rows: readonly Row[]): string {
   if (rows.length === 0) return 'No levels blocks found.\n';
-  const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
-  const body = tableCells(rows);
+  const [head, body] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows));
   const width = (s: string): number => [...s].length;
   const widths = head.map((h, i) => Math.max(width(h), ...body.map((r) => width(r[i]))));
   const line = (cells: string[]): string =>
@@ -114,11 +115,30 @@ function mdCell(s: string): string {
 /** A Markdown results table, to paste into a summary note. */
 export function formatMarkdown(rows: readonly Row[]): string {
   if (rows.length === 0) return '_No levels blocks found._\n';
-  const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
-  const cells = tableCells(rows);
+  const [head, cells] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows));
   const out = [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`];
   for (const c of cells) out.push(`| \`${mdCell(c[0])}\` | ${c.slice(1).map(mdCell).join(' | ')} |`);
   return out.join('\n') + '\n';
+}
+
+const TABLE_HEAD = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
+
+/**
+ * Leaves out the P, P_th, ε and "also" columns when no row has a value there
+ * (emission lines and radio transitions have no polarization): a column of
+ * dashes says nothing.
+ */
+function withoutEmptyColumns(head: readonly string[], body: readonly string[][]): [string[], string[][]] {
+  const optional = new Set(['P', 'P_th', 'ε', 'also']);
+  const keep = head.map((h, i) => !optional.has(h) || body.some((r) => r[i] !== '—' && r[i] !== ''));
+  return [head.filter((_, i) => keep[i]), body.map((r) => r.filter((_, i) => keep[i]))];
+}
+
+/** The per-line plot data of every block of lines as CSV (one row per line; formula-like text guarded). */
+export function formatLinePoints(rows: readonly Row[]): string {
+  return linesCsv(
+    rows.map(({ entry, block }) => ({ file: entry.file, line: entry.line, id: entry.id, results: block.results })),
+  );
 }
 
 /** The cells of one row per block: where, id, status, T, β, P, P_th, ε, and the other results. */
@@ -129,7 +149,7 @@ function tableCells(rows: readonly Row[]): string[][] {
       `${e.file}:${e.line}`,
       e.id ?? '—',
       e.status,
-      r && (r.beta || r.limit) ? temperatureText(r).replace(/^T = /, '') : '—',
+      r && (r.beta || r.limit) ? withoutSymbol(temperatureText(r)) : '—',
       r && (r.beta || r.limit) ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
       r?.polarization ? fractionText(r.polarization) : '—',
       r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',

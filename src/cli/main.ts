@@ -6,7 +6,7 @@
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { Analyzer, LineIndex, reportEntry, STATUSES, type Status } from '../core';
 import { collectFiles, readNote, UsageError } from './files';
-import { formatCsv, formatJson, formatMarkdown, formatTable, type Row } from './formats';
+import { formatCsv, formatJson, formatLinePoints, formatMarkdown, formatTable, type Row } from './formats';
 
 /** Where the CLI writes; the tests pass their own. */
 export interface Io {
@@ -44,7 +44,13 @@ export function report(
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
   const formatter =
-    { json: formatJson, csv: formatCsv, markdown: formatMarkdown, table: formatTable }[format] ?? formatTable;
+    {
+      json: formatJson,
+      csv: formatCsv,
+      'line-points': formatLinePoints,
+      markdown: formatMarkdown,
+      table: formatTable,
+    }[format] ?? formatTable;
   io.out(formatter(shown));
   return hasError(rows) ? 1 : 0;
 }
@@ -100,8 +106,11 @@ export function main(argv: readonly string[], io: Io): number {
     .description('report every levels block of the given notes (folders are searched for *.md)')
     .argument('<paths...>', 'Markdown files or folders')
     .addOption(
-      new Option('-f, --format <format>', 'output format')
-        .choices(['table', 'json', 'csv', 'markdown'])
+      new Option(
+        '-f, --format <format>',
+        'output format (line-points: the plot data of every block of lines as CSV, one row per line)',
+      )
+        .choices(['table', 'json', 'csv', 'line-points', 'markdown'])
         .default('table'),
     )
     .addOption(

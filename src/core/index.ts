@@ -15,7 +15,7 @@ export {
 } from './analyzer/analyzer';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
-export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
+export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
@@ -27,9 +27,16 @@ export {
   fractionText,
   measuredTemperatureText,
   shortSummary,
+  statusText,
+  temperatureSymbol,
   temperatureText,
+  withoutSymbol,
   type DisplayOptions,
 } from './present/summary';
+export type { LinePlot, PlotPointResult, Trade, TradeResults } from './analysis/trade';
+export { tradeRows, linePointRows, linesCsv } from './present/tradeSummary';
+export { airToVacuum, vacuumToAir, airIndex } from './physics/airWavelength';
+export { lineTemperature, linearRotorPartition, opticalDepthCorrection } from './physics/radio';
 export * from './present/numbers';
 export * from './quantities/constants';
 export {

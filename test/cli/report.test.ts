@@ -156,7 +156,9 @@ describe('boltzmark report: Markdown output and status filter', () => {
     assert.ok(lines[2].includes('a\\|b &lt;img src=x onerror=alert(1)&gt;'), lines[2]);
     // The GUM-rounded values of ../shared/domain.md §11: T = 14.43 ± 0.42 K.
     assert.ok(lines[2].includes('14.43 ± 0.42 K'));
-    assert.equal(lines[2].split(/(?<!\\)\|/).length, 11, 'nine cells');
+    // No block has P_th, ε or anything else to add, so those columns are left out: six cells remain.
+    assert.equal(lines[2].split(/(?<!\\)\|/).length, 8, 'six cells');
+    assert.doesNotMatch(lines[0], /P_th|ε|also/);
   });
 
   it('keeps only the blocks with the requested statuses, while the exit status still covers all', () => {

@@ -80,7 +80,8 @@ describe('analysis of whole blocks against published values', () => {
 
   it('gives a negative excitation temperature for an inverted 1064 nm transition', () => {
     // ../shared/domain.md §10 (derived): hc/(λk) = 13 522.339 K at 1064 nm; N₂/N₁ = 2, g₂ = g₁ → T_ex = −19 508.61 K.
-    const r = block('gap: 1064 nm\npopulations: [1.0e16 cm-3, 2.0e16 cm-3]').report;
+    // The check value takes λ as the vacuum wavelength in E = hc/λ, so the block says so.
+    const r = block('gap: 1064 nm\nwavelengths: vacuum\npopulations: [1.0e16 cm-3, 2.0e16 cm-3]').report;
     assert.equal(r.status, 'inverted');
     close(r.results!.temperature!.value, -19508.61, 1e-6, 'T_ex');
   });

@@ -37,7 +37,8 @@ function linesBlock(
     (l, i) =>
       `  - { wavelength: ${l.nm} nm, upper: ${l.E} cm-1, g: ${l.g}, A: ${l.A}, intensity: ${intensities[i]}${extra} }`,
   );
-  return `lines:\n${items.join('\n')}`;
+  // The ASD wavelengths above are vacuum wavelengths: say so, or the IAU convention would read them as air.
+  return `wavelengths: vacuum\nlines:\n${items.join('\n')}`;
 }
 
 describe('emission lines: the Boltzmann plot', () => {

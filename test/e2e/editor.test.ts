@@ -158,7 +158,7 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
   it('says "inverted" when hovering an inverted block', async () => {
     await goToLine(page, LI_ID);
     const text = await hoverText(page, 'id: Li inversion W-3', 'Li', /Li inversion W-3/);
-    assert.match(text, /inverted: population inversion, negative spin temperature/);
+    assert.match(text, /inverted: more population per degeneracy above, a negative spin temperature/);
     assert.match(text, /T\s+−19\.18 ± 0\.18 mK/);
     await shot(page, '06-hover-inverted');
     await dismissHover(page);

@@ -13,7 +13,9 @@ import type { Measured, Problem } from '../types';
 import { fitManyLevels, measureTwoLevels, type BetaFinding } from './beta';
 import { polarizationOf, thermalPolarizationOf } from './polarization';
 import type { BlockResults } from './results';
-import { lineOutliers, measureGain, measureSeries, measureSignal } from './measurements';
+import { measureGain, measureSeries, measureSignal } from './measurements';
+import { linePlot, tradeOf, tradeResults } from './trade';
+import { lineTemperature } from '../physics/radio';
 import type { SeriesFit } from '../physics/relaxation';
 import { statusOf } from './status';
 
@@ -40,14 +42,20 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   const fractions = input.lines ? null : (finding.fractions ?? impliedFractions(energies, g, finding));
   const beta = finding.beta;
   const temperature = temperatureOf(beta, finding.limit);
-  const polarization = input.lines ? null : (finding.polarization ?? polarizationOf(effective, fractions));
-  const thermalPolarization = thermalPolarizationOf(input);
+  // In radio astronomy "polarization" means the Stokes parameters and no bath sets an enhancement: neither is shown.
+  const radio = tradeOf(input) === 'radio';
+  const polarization = input.lines || radio ? null : (finding.polarization ?? polarizationOf(effective, fractions));
+  const thermalPolarization = radio ? null : thermalPolarizationOf(input);
   const enhancement = polarization && thermalPolarization ? polarization.value / thermalPolarization : null;
-  const outliers = lineOutliers(input, finding.fit, problems);
+  const lines = linePlot(input, problems);
+  const outliers = lines?.outliers ?? [];
   const pairs = fractions ? invertedPairs(energies, fractions, g) : NONE;
+  const status = finding === NOTHING_MEASURED ? seriesStatus(series) : statusOf(beta, finding, options.saturationSigma);
+  const trade = tradeResults(input, { beta, temperature, saturated: status === 'saturated' }, lines, problems);
   const all = finding.problems.length === 0 ? problems : [...problems, ...finding.problems];
   return {
-    status: finding === NOTHING_MEASURED ? seriesStatus(series) : statusOf(beta, finding, options.saturationSigma),
+    trade,
+    status,
     series,
     signal: signal?.result ?? null,
     gain: measureGain(input),
@@ -85,7 +93,7 @@ const NOTHING_MEASURED: BetaFinding = {
 };
 
 function hasMeasurement(input: BlockInput): boolean {
-  return input.polarization !== null || input.levels.some((l) => l.population !== null);
+  return input.polarization !== null || !!input.trade?.line || input.levels.some((l) => l.population !== null);
 }
 
 /**
@@ -100,6 +108,7 @@ function seriesStatus(series: SeriesFit | null): BlockResults['status'] {
 
 function findBeta(input: BlockInput, problems: Problem[]): BetaFinding {
   if (input.polarization) return fromPolarization(input, problems);
+  if (input.trade?.line) return fromBrightness(input);
   const measured = input.levels.filter((l) => l.population !== null);
   if (measured.length === 2 && input.levels.length === 2) return measureTwoLevels(input);
   return fitManyLevels(input);
@@ -137,6 +146,24 @@ function fromPolarization(input: BlockInput, problems: Problem[]): BetaFinding {
     beta = b && us !== null ? { value: b.value, uncertainty: Math.hypot(b.uncertainty ?? 0, us) } : b;
   }
   return { ...base, beta };
+}
+
+/**
+ * β of a line from its brightness temperature, optical depth and background:
+ * T = T_B/(1 − e^(−τ)) + T_bg (physics/radio.ts), β = 1/T with u(β) = u(T)/T².
+ */
+function fromBrightness(input: BlockInput): BetaFinding {
+  const line = input.trade!.line!;
+  const bg = input.trade!.background;
+  const t = lineTemperature(line.brightness, line.opticalDepth, bg);
+  // An optical depth too small for double precision makes T overflow: β is then 0 (T → ∞), not unknown.
+  const u = t.uncertainty === null ? null : t.uncertainty / (t.value * t.value);
+  const beta: Measured | null = !Number.isFinite(t.value)
+    ? { value: 0, uncertainty: null }
+    : t.value !== 0
+      ? { value: 1 / t.value, uncertainty: u !== null && Number.isFinite(u) ? u : null }
+      : null;
+  return { beta, limit: null, fit: null, fractions: null, polarization: null, problems: [] };
 }
 
 /** Fractions implied by β when only a polarization was measured. */

@@ -1,6 +1,7 @@
 /** The physical results of one block, as the contract names them, plus what editors show. */
 import type { SeriesFit } from '../physics/relaxation';
 import type { Measured, Problem, Status } from '../types';
+import type { TradeResults } from './trade';
 
 /** Summary of the Boltzmann fit of a block with three or more levels. */
 export interface FitSummary {
@@ -69,4 +70,6 @@ export interface BlockResults {
   readonly outliers: readonly number[];
   /** Warnings and notes found by the analysis (body-relative spans). */
   readonly problems: readonly Problem[];
+  /** What the block's trade adds: its words, plot data, refit, column densities. */
+  readonly trade: TradeResults;
 }

@@ -3,6 +3,7 @@
  * `{ label, energy, g, population, uncertainty }` items in any order.
  */
 import type { TreeNode } from './tree';
+import { chooseUnits, siblingsOf, type PlausibleRange, type UnitChoice } from './unitChoice';
 import { unknownKey } from './unknownKey';
 import type { Span } from '../types';
 import type { FormRead, LevelInput } from './input';
@@ -36,10 +37,22 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
     return null;
   }
   const unit = firstEnergyUnit(ctx, items) ?? 'cm-1';
+  // A bare energy is offered the units of the other levels that give it a magnitude near theirs (within 10³);
+  // the siblings are read only then, as a bare energy is rare.
+  const choose = (v: number): UnitChoice => {
+    const siblings = siblingsOf(
+      items.map((it) => {
+        const x = isMap(it) ? entries(it).find((y) => y.key === 'energy') : undefined;
+        return x ? (readText(ctx, x.value)?.text ?? '') : '';
+      }),
+      'energy',
+    );
+    return chooseUnits(v, 'energy', siblings, LEVEL_RANGE, [unit]);
+  };
   const levels: LevelInput[] = [];
   let ok = true;
   items.forEach((item, i) => {
-    const level = readLevel(ctx, item, i, unit);
+    const level = readLevel(ctx, item, i, choose);
     if (level) levels.push(level);
     else ok = false;
   });
@@ -89,7 +102,15 @@ function firstEnergyUnit(ctx: ReadContext, items: readonly (TreeNode | null)[]):
   return null;
 }
 
-function readLevel(ctx: ReadContext, item: TreeNode | null, i: number, unit: string): LevelInput | null {
+/** Level energies may lie anywhere; only the siblings' spread (a factor 10³ either way) judges a bare number. */
+const LEVEL_RANGE: PlausibleRange = { low: 0, high: Infinity, spread: 1e3 };
+
+function readLevel(
+  ctx: ReadContext,
+  item: TreeNode | null,
+  i: number,
+  choose: (v: number) => UnitChoice,
+): LevelInput | null {
   const span = spanOf(item);
   const subject = `levels[${i}]`;
   if (!isMap(item)) {
@@ -108,7 +129,7 @@ function readLevel(ctx: ReadContext, item: TreeNode | null, i: number, unit: str
   const pe = byKey.get('population');
   if (!ee) report(ctx, 'error', 'energy-missing', `${subject}: \`energy\` is required.`, nonEmpty(span!));
   if (!pe) report(ctx, 'error', 'population-missing', `${subject}: \`population\` is required.`, nonEmpty(span!));
-  const energy = ee ? readQuantity(ctx, ee.value, 'energy', `${subject}.energy`, { suggestUnit: unit }) : null;
+  const energy = ee ? readQuantity(ctx, ee.value, 'energy', `${subject}.energy`, { unitChoice: choose }) : null;
   const g = byKey.get('g') ? readInteger(ctx, byKey.get('g')!.value, `${subject}.g`, 'degeneracy-invalid', 1) : null;
   const p0 = pe ? readPopulation(ctx, pe.value, `${subject}.population`) : null;
   const p = p0 ? withSiblingUncertainty(ctx, p0, byKey.get('uncertainty'), `${subject}.population`) : null;

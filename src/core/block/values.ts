@@ -7,6 +7,7 @@ import type { TreeNode } from './tree';
 import { isNullScalar, isScalar, isSeq, spanOf, deref } from './yamlTree';
 import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../quantities/units';
 import type { Problem, Replacement, Severity, Span } from '../types';
+import type { UnitChoice } from './unitChoice';
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
@@ -85,6 +86,11 @@ export interface QuantityOptions {
   readonly defaultUnit?: string;
   /** Unit offered by the "add a unit" fix for a bare number. */
   readonly suggestUnit?: string;
+  /**
+   * Units to offer for a bare number, judged by its magnitude (best first),
+   * with the ones ruled out named in the message; overrides `suggestUnit`.
+   */
+  readonly unitChoice?: (value: number) => UnitChoice;
 }
 
 /** Reads `"<number> [± u] <unit>"` (or a bare number) into canonical units; reports and returns null on a problem. */
@@ -115,17 +121,23 @@ export function readQuantity(
   }
   const q = parsed.quantity;
   if (q.unit === null && opts.defaultUnit === undefined) {
-    const unit = opts.suggestUnit;
+    const choice = opts.unitChoice ? opts.unitChoice(q.value) : null;
+    const units = choice ? choice.offer : opts.suggestUnit ? [opts.suggestUnit] : [];
     const end = shift(src.base, { start: q.valueSpan.end, end: q.valueSpan.end }, src.span).start;
     const at = q.uncertaintySpan ? shift(src.base, q.uncertaintySpan, src.span).end : end;
-    const fixes: Replacement[] = unit
-      ? [{ title: `Add the unit ${unit}`, span: { start: at, end: at }, newText: ` ${unit}` }]
-      : [];
+    const fixes: Replacement[] = units.map((unit) => ({
+      title: `Add the unit ${unit}`,
+      span: { start: at, end: at },
+      newText: ` ${unit}`,
+    }));
+    const ruled = choice?.ruledOut.length
+      ? ` Not offered, as the magnitude would be implausible here: ${choice.ruledOut.map((r) => `${q.value} ${r.unit}`).join(', ')}.`
+      : '';
     report(
       ctx,
       'error',
       'unit-missing',
-      `${subject}: a bare number needs a unit here (${example(dim)}).`,
+      `${subject}: a bare number needs a unit here (${example(dim)}).${ruled}`,
       src.span,
       fixes,
     );
@@ -155,6 +167,8 @@ function example(dim: Dimension): string {
       return '`5 deg`';
     case 'density':
       return '`2.0e16 cm-3`';
+    case 'column':
+      return '`3.1e14 cm-2`';
     case 'crossSection':
       return '`2.8e-19 cm2`';
     case 'length':

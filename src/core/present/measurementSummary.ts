@@ -7,6 +7,7 @@ import type { BlockResults } from '../analysis/results';
 import type { BlockInput } from '../block/input';
 import { formatMeasured, formatNumber } from './numbers';
 import type { DisplayOptions } from './displayOptions';
+import { tradeRows } from './tradeSummary';
 
 /** A label and its value, as display text. */
 export type Row = readonly [string, string];
@@ -48,12 +49,7 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
     rows.push(['scale factor', `(NS·G·sin θ·n)_th / (NS·G·sin θ·n)_hp = ${formatNumber(sig.factor, o.digits)}`]);
     rows.push(['P_th of the reference', formatNumber(sig.pThermal, o.digits)]);
   }
-  if (input?.lines) {
-    rows.push([
-      'Boltzmann plot',
-      `${input.lines.lines.length} lines, ${input.lines.detector === 'energy' ? 'ln(Iλ/gA)' : 'ln(I/gA)'} vs E_upper${r.outliers.length ? `, ${r.outliers.length} outlier(s)` : ''}`,
-    ]);
-  }
+  rows.push(...tradeRows(input, r, o));
   const g = r.gain;
   if (g) {
     rows.push(['gain g₀', `${formatNumber(g.coefficient, o.digits)} cm⁻¹`]);

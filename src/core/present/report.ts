@@ -7,6 +7,7 @@
  */
 import type { BlockReport } from '../analyzer/analyzer';
 import type { LineIndex } from '../text/lineIndex';
+import { KELVIN_PER_EV } from '../quantities/constants';
 import type { Measured, Severity, Status } from '../types';
 
 /** One diagnostic as the report prints it. */
@@ -42,6 +43,45 @@ export interface ReportEntry {
   readonly form: string | null;
   readonly fit: { readonly chi2: number; readonly dof: number; readonly consistent: boolean } | null;
   readonly invertedPairs: readonly [number, number][];
+  /** The block's trade (`spin`, `emission`, `radio`, `optical`, `levels`), or null for an invalid block. */
+  readonly trade: string | null;
+  /** `spin temperature` or `excitation temperature`: what `temperature` is called in the block's trade. */
+  readonly temperatureName: string | null;
+  /** kT in eV beside the temperature, for emission (plasma) blocks. */
+  readonly temperatureEv: Measured | null;
+  /** For a saturated radio block, |T| ≥ this many K at about 95 % (1/(|β| + 2u(β))). */
+  readonly temperatureAbove: number | null;
+  /** The per-line plot data and intercept of a block of lines, or null. */
+  readonly plot: {
+    readonly ordinate: string;
+    readonly intercept: Measured;
+    readonly slope: Measured;
+    readonly birgeRatio: number | null;
+    readonly points: readonly {
+      readonly label: string | null;
+      readonly upperEnergy: number;
+      readonly upperEnergyEv: number;
+      readonly y: number;
+      readonly uncertainty: number | null;
+      readonly residual: number;
+      readonly flag: 'above' | 'below' | null;
+      readonly poisson: boolean;
+    }[];
+  } | null;
+  /** β and T refitted without the flagged lines (`without`: level indices), or null. */
+  readonly refit: {
+    readonly beta: Measured;
+    readonly temperature: Measured | null;
+    readonly without: readonly number[];
+  } | null;
+  /** Column densities in cm⁻², or null: the sum of the given levels, Q(T), and the total Q(T)·e^a. */
+  readonly columnDensity: {
+    readonly sum: number | null;
+    readonly partitionFunction: number | null;
+    readonly total: Measured | null;
+  } | null;
+  /** `air` or `vacuum` for blocks with optical wavelengths, and whether the block stated it. */
+  readonly wavelengths: { readonly medium: 'air' | 'vacuum'; readonly stated: boolean } | null;
 }
 
 const finite = (x: number | null | undefined): number | null =>
@@ -74,5 +114,59 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex): Rep
     form: b.input?.form ?? null,
     fit: r?.fit ? { chi2: r.fit.chi2, dof: r.fit.dof, consistent: r.fit.consistent } : null,
     invertedPairs: r ? r.invertedPairs.map((p) => [p.lower, p.upper] as [number, number]) : [],
+    ...tradeEntry(r),
+  };
+}
+
+/** The fields the block's trade adds to its entry (all null for an invalid block). */
+function tradeEntry(
+  r: BlockReport['results'],
+): Pick<
+  ReportEntry,
+  | 'trade'
+  | 'temperatureName'
+  | 'temperatureEv'
+  | 'temperatureAbove'
+  | 'plot'
+  | 'refit'
+  | 'columnDensity'
+  | 'wavelengths'
+> {
+  const t = r?.trade;
+  const p = t?.plot;
+  return {
+    trade: t?.trade ?? null,
+    temperatureName: t?.temperatureName ?? null,
+    temperatureEv: t ? measured(t.temperatureEv) : null,
+    temperatureAbove: finite(t?.temperatureLimit),
+    plot: p
+      ? {
+          ordinate: p.ordinate,
+          intercept: measured(p.intercept)!,
+          slope: measured(p.slope)!,
+          birgeRatio: finite(p.birgeRatio),
+          points: p.points.map((q) => ({
+            label: q.label,
+            upperEnergy: q.energy,
+            upperEnergyEv: q.energy / KELVIN_PER_EV,
+            y: q.y,
+            uncertainty: finite(q.uY),
+            residual: q.residual,
+            flag: q.flag,
+            poisson: q.poisson,
+          })),
+        }
+      : null,
+    refit: t?.refit
+      ? { beta: measured(t.refit.beta)!, temperature: measured(t.refit.temperature), without: [...t.refit.without] }
+      : null,
+    columnDensity: t?.column
+      ? {
+          sum: finite(t.column.sum),
+          partitionFunction: finite(t.column.partition),
+          total: measured(t.column.total),
+        }
+      : null,
+    wavelengths: t?.medium ? { medium: t.medium.kind, stated: t.medium.stated } : null,
   };
 }

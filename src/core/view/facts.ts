@@ -4,7 +4,7 @@
  */
 import type { BlockResults } from '../analysis/results';
 import { formatMeasured, formatNumber, formatTemperature } from '../present/numbers';
-import { betaText, fractionText, STATUS_WORDS, temperatureText, type DisplayOptions } from '../present/summary';
+import { betaText, fractionText, statusText, temperatureText, type DisplayOptions } from '../present/summary';
 import type { Fact, MeasuredPoint, ThermalMarker } from './payload';
 
 /** Entropy in k per system with its uncertainty when known. */
@@ -25,8 +25,8 @@ export function blockFacts(
   o: DisplayOptions,
 ): Fact[] {
   const facts: Fact[] = [
-    { label: 'status', text: STATUS_WORDS[results.status] },
-    { label: 'temperature', text: temperatureText(results, o) },
+    { label: 'status', text: statusText(results.status, results) },
+    { label: results.trade.temperatureName, text: temperatureText(results, o) },
     { label: 'inverse temperature', text: betaText(results, o) },
   ];
   if (results.polarization) facts.push({ label: 'polarization', text: `P = ${fractionText(results.polarization, o)}` });

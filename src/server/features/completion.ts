@@ -17,6 +17,7 @@ import {
 } from 'vscode-languageserver';
 import {
   BLOCK_KEYS,
+  keyFitsForm,
   convert,
   formatNumber,
   LEVEL_KEYS,
@@ -177,7 +178,7 @@ function fits(doc: KeyDoc, present: ReadonlySet<string>): boolean {
   if (present.has(doc.key)) return false;
   const forms = [...present].map((k) => FORM_KEYS[k]).filter((f) => f !== undefined);
   if (forms.length === 1) {
-    if (doc.form !== 'any' && doc.form !== forms[0]) return false;
+    if (!keyFitsForm(doc, forms[0])) return false;
     // Explicit levels carry their own populations and uncertainties (populations-misplaced).
     if (forms[0] === 'levels' && (doc.key === 'populations' || doc.key === 'uncertainty')) return false;
   }
@@ -189,7 +190,7 @@ function keyItem(doc: KeyDoc, index: number, range: Range): CompletionItem {
   return {
     label: doc.key,
     kind: CompletionItemKind.Property,
-    detail: doc.form === 'any' ? 'any block' : `${doc.form} form`,
+    detail: doc.form === 'any' ? 'any block' : `${(doc.forms ?? [doc.form]).join(', ')} form`,
     documentation: { kind: MarkupKind.Markdown, value: `${doc.summary}${example}` },
     textEdit: { range, newText: `${doc.key}: ` },
     sortText: String(index).padStart(3, '0'),

@@ -10,8 +10,10 @@ import {
   enhancementText,
   formatNumber,
   fractionText,
-  STATUS_WORDS,
+  statusText,
+  temperatureSymbol,
   temperatureText,
+  withoutSymbol,
   type BlockReport,
   type DisplayOptions,
   type Span,
@@ -67,7 +69,12 @@ function polarizationLabel(b: BlockReport): string {
 export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions): [string, string][] {
   const r = b.results;
   if (!r) return [];
-  const t: [string, string] = ['T', valuePart(temperatureText(r, o), 'T')];
+  // Each trade's word: spin temperature for spins, excitation temperature (T_ex) for lines and transitions.
+  const sym = temperatureSymbol(r);
+  const t: [string, string] = [
+    sym === 'T' ? 'T' : `T\\_ex (${r.trade.temperatureName})`,
+    withoutSymbol(temperatureText(r, o)),
+  ];
   const beta: [string, string] = ['β', valuePart(betaText(r, o), 'β')];
   // A bare time series has no temperature; its rows are the fit's.
   const rows: [string, string][] =
@@ -97,7 +104,7 @@ export function firstError(b: BlockReport): BlockReport['problems'][number] | un
  * (with `explain`, the status in words) and by "Copy results".
  */
 export function blockResultsMarkdown(state: NoteState, b: BlockReport, o: DisplayOptions, explain = false): string {
-  const title = `**${blockName(b)}** — ${explain ? STATUS_WORDS[b.status] : b.status}`;
+  const title = `**${blockName(b)}** — ${explain ? statusText(b.status, b.results) : b.status}`;
   if (!b.results) {
     const e = firstError(b);
     return e ? `${title}\n\nError \`${e.code}\`: ${escapeMarkdown(e.message)}` : title;

@@ -63,6 +63,11 @@ describe('completion', () => {
         'length',
         'mirrors',
         'loss',
+        'brightness',
+        'optical-depth',
+        'background',
+        'wavelengths',
+        'rotational-constant',
         'lattice',
         'count',
         'uncertainty',
@@ -90,6 +95,9 @@ describe('completion', () => {
       check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), [
         'id',
         'series',
+        'background',
+        'wavelengths',
+        'rotational-constant',
         'lattice',
         'count',
         'note',
@@ -104,6 +112,8 @@ describe('completion', () => {
         'uncertainty',
         'species',
         'label',
+        'frequency',
+        'optical-depth',
       ]);
     });
 
@@ -210,7 +220,24 @@ describe('completion', () => {
         'THz',
         'K',
       ]);
-      check(note('gap: 1064 $0'), ['J', 'eV', 'meV', 'µeV', 'cm-1', 'Hz', 'kHz', 'MHz', 'GHz', 'THz', 'K', 'nm', 'µm']);
+      check(note('gap: 1064 $0'), [
+        'J',
+        'eV',
+        'meV',
+        'µeV',
+        'cm-1',
+        'Hz',
+        'kHz',
+        'MHz',
+        'GHz',
+        'THz',
+        'K',
+        'nm',
+        'µm',
+        'Å',
+        'mm',
+        'cm',
+      ]);
       check(note('system: 1H', 'frequency: 400 $0'), [
         'Hz',
         'kHz',

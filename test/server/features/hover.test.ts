@@ -44,7 +44,7 @@ describe('hover', () => {
       assert.equal(
         value,
         [
-          '**cell\\-B run 7** — normal: positive spin temperature, more population below',
+          '**cell\\-B run 7** — normal: positive spin temperature, more population per degeneracy below',
           '',
           '| result | value |',
           '| :-- | :-- |',
@@ -95,7 +95,7 @@ describe('hover', () => {
       check(note('gap: 10 K', 'ratio: 2.0 ± 0.04$0'), {
         range: [2, 0, 5, 3],
         includes: [
-          '— inverted: population inversion, negative spin temperature',
+          '— inverted: more population per degeneracy above, a negative excitation temperature',
           '| T | −14.43 ± 0.42 K |',
           '| P | −33.33 ± 0.89 % |',
         ],

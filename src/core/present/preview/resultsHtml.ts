@@ -11,8 +11,10 @@ import {
   DEFAULT_DISPLAY,
   enhancementText,
   fractionText,
-  STATUS_WORDS,
+  statusText,
+  temperatureSymbol,
   temperatureText,
+  withoutSymbol,
   type DisplayOptions,
 } from '../summary';
 import type { Problem, Status } from '../../types';
@@ -32,7 +34,7 @@ export function resultsHtml(b: PreviewBlock, o: DisplayOptions = DEFAULT_DISPLAY
   const error = b.problems.find((p) => p.severity === 'error');
   const status: Status = error || !b.results ? 'invalid' : b.results.status;
   const name = b.meta.id ?? 'levels block';
-  const head = `<p class="boltzmark-title"><strong>${escapeText(name)}</strong> — <span class="boltzmark-status boltzmark-status-${status}">${escapeText(STATUS_WORDS[status])}</span></p>`;
+  const head = `<p class="boltzmark-title"><strong>${escapeText(name)}</strong> — <span class="boltzmark-status boltzmark-status-${status}">${escapeText(statusText(status, b.results))}</span></p>`;
   if (error || !b.results) {
     const msg = error ? `<code>${escapeText(error.code)}</code>: ${escapeText(error.message)}` : 'no results';
     return `<div class="boltzmark-results">${head}<p class="boltzmark-error">${msg}</p></div>`;
@@ -48,7 +50,8 @@ export function resultsHtml(b: PreviewBlock, o: DisplayOptions = DEFAULT_DISPLAY
 function tableRows(b: PreviewBlock, r: BlockResults, o: DisplayOptions): [string, string][] {
   const rows: [string, string][] = [];
   if (r.beta || r.limit) {
-    rows.push(['T', temperatureText(r, o).replace(/^T = /, '')]);
+    const sym = temperatureSymbol(r);
+    rows.push([sym === 'T' ? 'T' : `${sym} (${r.trade.temperatureName})`, withoutSymbol(temperatureText(r, o))]);
     rows.push(['β', betaText(r, o).replace(/^β = /, '')]);
   }
   if (r.polarization) rows.push(['P', fractionText(r.polarization, o)]);
