@@ -88,8 +88,9 @@ ADDONS=(
   "$MODS/node-pty:build/Release/pty.node"
   "$MODS/kerberos:build/Release/kerberos.node"
 )
-# VS Code 1.139's server no longer has native-watchdog.
-[ "$WHICH" = newest ] || ADDONS+=("$MODS/native-watchdog:build/Release/watchdog.node")
+# The extension host's watchdog: native-watchdog in 1.100, @vscode/native-watchdog in 1.139.
+if [ "$WHICH" = newest ]; then WATCHDOG=@vscode/native-watchdog; else WATCHDOG=native-watchdog; fi
+ADDONS+=("$MODS/$WATCHDOG:build/Release/watchdog.node")
 ARGON2=$HOST/node_modules/argon2
 if [ "$WHICH" = newest ]; then
   # argon2 0.44 ships prebuilt N-API binaries in its npm package; they load as they are.
@@ -250,7 +251,7 @@ version=$("$HOST_NODE" "$CS/out/node/entry.js" --config "$SCRATCH/config.yaml" -
 case "$version" in "$CODE_SERVER "*"with Code $VSCODE") ;; *) fail "entry.js --version printed '$version'" ;; esac
 "$MODS/@vscode/ripgrep/bin/rg" --version >>"$LOG" 2>&1 || fail "ripgrep link is broken"
 # Each addon does some real work, not only load.
-(cd "$MODS" && WATCHDOG=$([ "$WHICH" = newest ] && echo 0 || echo 1) "$HOST_NODE" -e '
+(cd "$MODS" && WATCHDOG=$WATCHDOG "$HOST_NODE" -e '
   const fs = require("fs"), os = require("os"), path = require("path");
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "boltzmark-host-check-"));
   const pty = require("node-pty").spawn("/bin/sh", ["-c", "echo ok-$((6*7))"], { cols: 80, rows: 10 });
@@ -261,7 +262,7 @@ case "$version" in "$CODE_SERVER "*"with Code $VSCODE") ;; *) fail "entry.js --v
       if (!out.includes("ok-42")) throw new Error("node-pty printed " + JSON.stringify(out));
       const log = await require("@vscode/spdlog").createRotatingLogger("check", path.join(dir, "x.log"), 65536, 1);
       log.info("written"); log.flush();
-      if (process.env.WATCHDOG === "1") require("native-watchdog");
+      require(process.env.WATCHDOG);
       const sub = await require("@parcel/watcher").subscribe(dir, () => {}); await sub.unsubscribe();
       require("kerberos");
       console.log("addons work");

@@ -222,11 +222,24 @@ function healthz(port) {
 }
 
 /**
+ * What the server needs so that the workbench honours the extension
+ * development and test locations in its URL's `payload`. VS Code 1.100 reads
+ * them from any URL. Newer built VS Code (1.139) reads them only when the
+ * server runs with VS Code's `--enable-smoke-test-driver` (else the page loads
+ * as a plain workbench and never runs the tests); code-server 4.139 passes a
+ * VS Code server option through with `--vscode-option` (4.100 has no such
+ * option and rejects unknown ones).
+ */
+function extensionTestArgs(version) {
+  return checkVersion(version) === 'oldest' ? [] : ['--vscode-option', 'enable-smoke-test-driver'];
+}
+
+/**
  * Starts the server in its own process group (its extension host, pty host
  * and file watcher are children; `stop()` ends them all) and resolves when
  * it answers on /healthz. `open` is what the browser should load.
  */
-async function startServer(run, { workspace, port, logFile, extraArgs = [] }) {
+async function startServer(run, { workspace, port, logFile, extensionTests = false, extraArgs = [] }) {
   const entry = entryScript(run.version);
   if (!fs.existsSync(entry))
     throw new Error(`no editor host at ${hostDir(run.version)} (run scripts/editor-host.sh --vscode ${run.version})`);
@@ -234,7 +247,17 @@ async function startServer(run, { workspace, port, logFile, extraArgs = [] }) {
   const log = fs.openSync(logFile || path.join(run.dir, 'server.log'), 'w');
   const child = spawn(
     hostNode(run.version),
-    [entry, ...serverArgs(run), '--auth', 'none', '--bind-addr', `127.0.0.1:${chosen}`, ...extraArgs, workspace],
+    [
+      entry,
+      ...serverArgs(run),
+      '--auth',
+      'none',
+      '--bind-addr',
+      `127.0.0.1:${chosen}`,
+      ...(extensionTests ? extensionTestArgs(run.version) : []),
+      ...extraArgs,
+      workspace,
+    ],
     {
       env: run.env,
       stdio: ['ignore', log, log],

@@ -44,7 +44,14 @@ export function installVsix(run: Run, vsix: string): string;
 export function freePort(): Promise<number>;
 export function startServer(
   run: Run,
-  options: { workspace: string; port?: number; logFile?: string; extraArgs?: string[] },
+  options: {
+    workspace: string;
+    port?: number;
+    logFile?: string;
+    /** The page will carry extensionDevelopmentPath/extensionTestsPath in its `payload`: let the workbench honour them. */
+    extensionTests?: boolean;
+    extraArgs?: string[];
+  },
 ): Promise<Server>;
 export const CHROMIUM: string;
 export const CHROMIUM_ARGS: readonly string[];

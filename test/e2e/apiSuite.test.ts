@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { cpSync, mkdirSync, writeFileSync } from 'node:fs';
+import { appendFileSync, cpSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { format } from 'node:util';
 import { chromium, type Browser } from 'playwright-core';
@@ -31,7 +31,11 @@ function apiSuites(version: host.Version): void {
       // The extension host inherits the server's environment.
       run.env.BOLTZMARK_DEMO_ORIGINAL = join(host.ROOT, 'demo');
       mkdirSync(OUTPUT, { recursive: true });
-      const server = await host.startServer(run, { workspace, logFile: join(OUTPUT, 'api-suite-server.log') });
+      const server = await host.startServer(run, {
+        workspace,
+        logFile: join(OUTPUT, 'api-suite-server.log'),
+        extensionTests: true,
+      });
       let browser: Browser | undefined;
       const log: string[] = [];
       try {
@@ -41,18 +45,31 @@ function apiSuites(version: host.Version): void {
           env: run.env as Record<string, string>,
         });
         const page = await browser.newPage();
-        const exit = new Promise<number>((resolve) => {
-          void page.exposeFunction('codeAutomationLog', (_type: string, args: unknown[]) =>
-            log.push(format(...(Array.isArray(args) ? args : [args]))),
-          );
-          void page.exposeFunction('codeAutomationExit', (code: number) => resolve(code));
-        });
+        // The workbench's console, as it comes (what to read when the host never reports).
+        const consoleLog = join(OUTPUT, 'api-suite-console.log');
+        writeFileSync(consoleLog, '');
+        page.on('console', (m) => appendFileSync(consoleLog, `[${m.type()}] ${m.text()}\n`));
+        let reportExit: (code: number) => void = () => undefined;
+        const exit = new Promise<number>((resolve) => (reportExit = resolve));
+        await page.exposeFunction('codeAutomationLog', (_type: string, args: unknown[]) =>
+          log.push(format(...(Array.isArray(args) ? args : [args]))),
+        );
+        await page.exposeFunction('codeAutomationExit', (code: number) => reportExit(code));
         const remote = (path: string): string => `vscode-remote://127.0.0.1:${server.port}${path}`;
         const payload = JSON.stringify([
           ['extensionDevelopmentPath', remote(host.ROOT)],
           ['extensionTestsPath', remote(tests)],
         ]);
         await page.goto(`${server.open}&payload=${encodeURIComponent(payload)}`);
+        // The window title names the folder once the workbench has set it; a workbench that took the
+        // payload marks itself as an extension development host there (both versions do). One that
+        // ignored it would never run the tests: say so now instead of at the deadline.
+        await page.waitForFunction("document.title.includes('demo')", undefined, { timeout: 120000 });
+        const title = await page.title();
+        assert.ok(
+          title.includes('[Extension Development Host]'),
+          `the workbench ignored the payload's extension development and test paths (window title "${title}")`,
+        );
         // A deadline (not a pause): if the host never reports, fail and still clean up.
         let timer: NodeJS.Timeout | undefined;
         const deadline = new Promise<never>((_, reject) => {
