@@ -76,6 +76,15 @@ export async function pickMany(page: Page, labels: readonly string[]): Promise<s
     const row = widget.locator(`.quick-input-list .monaco-list-row[role="checkbox"][aria-label="${label}"]`);
     const want = String(labels.includes(label));
     if ((await row.getAttribute('aria-checked')) === want) continue;
+    // A row the pointer rests on (the last one clicked) shows its description in a hover below it, over the
+    // next row's checkbox: take the pointer to the filter box, which has no hover, and wait until none is shown.
+    const box = await page.locator(INPUT).boundingBox();
+    if (box) await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.waitForFunction(() =>
+      Array.from<DomNode>(document.querySelectorAll('.context-view .hover-contents')).every(
+        (h) => h.getClientRects().length === 0,
+      ),
+    );
     await row.locator('.monaco-checkbox').click();
     await widget.locator(`.quick-input-list .monaco-list-row[aria-label="${label}"][aria-checked="${want}"]`).waitFor();
   }

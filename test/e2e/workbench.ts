@@ -53,9 +53,21 @@ export async function openFromExplorer(page: Page, name: string, firstLine: stri
   await line(page, firstLine).waitFor();
 }
 
-/** Puts the keyboard focus in the main editor. */
+/**
+ * The element that takes the main editor's keyboard input: VS Code 1.100's
+ * `textarea.inputarea`, or, where the editor reads keys through the browser's
+ * EditContext (the default in 1.139), its `div.native-edit-context`. That
+ * editor also holds a read-only `textarea.ime-text-area`: focused, it gets the
+ * keys instead of the editor, and Undo (Ctrl+Z) there does nothing.
+ */
+export function editorInput(page: Page): Locator {
+  return editor(page).locator('.native-edit-context, textarea.inputarea').first();
+}
+
+/** Puts the keyboard focus in the main editor, and waits until the editor says it has it. */
 export async function focusEditor(page: Page): Promise<void> {
-  await editor(page).locator('textarea').first().focus();
+  await editorInput(page).focus();
+  await page.locator('.editor-instance .monaco-editor.focused').first().waitFor();
 }
 
 /** Runs a command by its exact palette title. */
