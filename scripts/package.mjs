@@ -61,7 +61,7 @@ const FORBIDDEN = [
   /node_modules\//,
   /\.map$/,
   /\.ts$/,
-  /^\.editor-host\//,
+  /^\.editor-host(-newest)?\//,
   /^dist\/cli\.js$/,
 ];
 
