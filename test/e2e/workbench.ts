@@ -50,7 +50,9 @@ export async function openFromExplorer(page: Page, name: string, firstLine: stri
   await row.waitFor();
   await row.dblclick();
   await page.locator('.tabs-container .tab.active', { hasText: name }).waitFor();
-  await line(page, firstLine).waitFor();
+  // The first note opened in a session may wait for the workbench to finish starting (longer in 1.139, which also
+  // starts its chat and agent host): a longer deadline, still a wait on the line.
+  await line(page, firstLine).waitFor({ timeout: 90000 });
 }
 
 /**
