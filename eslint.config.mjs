@@ -31,7 +31,16 @@ const forbid = (message, groups, regexes = []) => ({
 
 export default tseslint.config(
   {
-    ignores: ['node_modules/', 'dist/', 'out/', '.editor-host/', 'test-output/', '**/*.d.cts', 'eslint.config.mjs'],
+    ignores: [
+      'node_modules/',
+      'dist/',
+      'out/',
+      '.editor-host/',
+      '.editor-host-newest/',
+      'test-output/',
+      '**/*.d.cts',
+      'eslint.config.mjs',
+    ],
   },
   js.configs.recommended,
   ...tseslint.configs.recommendedTypeChecked,

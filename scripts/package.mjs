@@ -62,7 +62,7 @@ const FORBIDDEN = [
   /node_modules\//,
   /\.map$/,
   /\.ts$/,
-  /^\.editor-host\//,
+  /^\.editor-host(-newest)?\//,
   /^dist\/cli\.js$/,
 ];
 

@@ -64,8 +64,9 @@ export async function saveDialog(page: Page, file: string): Promise<string> {
 
 /**
  * In the open multi-select quick pick, leaves exactly the rows labelled
- * `labels` checked (each row's checkbox clicked only where its state must
- * change), then presses OK. Returns every row's label.
+ * `labels` checked (each row's checkbox toggled by a click event only where
+ * its state must change, and its new state awaited), then presses OK.
+ * Returns every row's label.
  */
 export async function pickMany(page: Page, labels: readonly string[]): Promise<string[]> {
   const widget = page.locator(WIDGET);
@@ -76,12 +77,10 @@ export async function pickMany(page: Page, labels: readonly string[]): Promise<s
     const row = widget.locator(`.quick-input-list .monaco-list-row[role="checkbox"][aria-label="${label}"]`);
     const want = String(labels.includes(label));
     if ((await row.getAttribute('aria-checked')) === want) continue;
-    await row.locator('.monaco-checkbox').click();
+    // The box gets the click event itself, with no pointer on the list: a row under the pointer shows its
+    // description in a hover below it, over the next row's box, and a real click there lands on the hover.
+    await row.locator('.monaco-checkbox').dispatchEvent('click');
     await widget.locator(`.quick-input-list .monaco-list-row[aria-label="${label}"][aria-checked="${want}"]`).waitFor();
-    // The row's label shows as a hover under the pointer, and on a slow machine it can cover the next row's
-    // checkbox: move the pointer off the list and wait for the hover to go before the next click.
-    await page.mouse.move(1, 1);
-    await page.locator('.context-view .hover-contents').waitFor({ state: 'hidden' });
   }
   await widget.locator('.quick-input-action .monaco-button', { hasText: /^OK$/ }).click();
   await widget.waitFor({ state: 'hidden' });
