@@ -18,26 +18,147 @@ export interface SpinSpecies {
   readonly spin: number;
   /** Gyromagnetic ratio γ in rad s⁻¹ T⁻¹, signed: γ < 0 puts m = −I lowest. */
   readonly gamma: number;
+  /** Natural abundance in %, or null (the electron; nuclei not found in nature). */
+  readonly abundance: number | null;
   /** Where γ and I come from. */
   readonly source: string;
 }
 
 const IUPAC_2001 = 'IUPAC 2001 (Harris et al., Pure Appl. Chem. 73, 1795), bare nucleus';
 
-/** γ in units of 10⁷ rad s⁻¹ T⁻¹, as tabulated by IUPAC. */
-const NUCLEI: ReadonlyArray<readonly [symbol: string, spin: number, gamma1e7: number]> = [
-  ['1H', 0.5, 26.7522128],
-  ['2H', 1, 4.10662791],
-  ['3He', 0.5, -20.3801587],
-  ['7Li', 1.5, 10.3977013],
-  ['13C', 0.5, 6.728284],
-  ['15N', 0.5, -2.71261804],
-  ['17O', 2.5, -3.62808],
-  ['19F', 0.5, 25.18148],
-  ['23Na', 1.5, 7.0808493],
-  ['29Si', 0.5, -5.319],
-  ['31P', 0.5, 10.8394],
-  ['129Xe', 0.5, -7.452103],
+/**
+ * Every stable nucleus with nonzero spin, and the long-lived ones in common
+ * use (3H, 40K, 50V, 87Rb, 99Tc, 113Cd, 115In, 138La, 176Lu, 187Re, 235U),
+ * of Table 1 of the IUPAC 2001 recommendations (R. K. Harris, E. D. Becker,
+ * S. M. Cabral de Menezes, R. Goodfellow, P. Granger, Pure Appl. Chem. 73,
+ * 1795 (2001)), ordered by mass number: spin I, the signed magnetogyric
+ * ratio γ in 10⁷ rad s⁻¹ T⁻¹ as tabulated, and the natural abundance in %
+ * (null for nuclei not found in nature). Rows marked "from memory" were
+ * recalled rather than copied from the table.
+ */
+const NUCLEI: ReadonlyArray<readonly [symbol: string, spin: number, gamma1e7: number, abundance: number | null]> = [
+  ['1H', 0.5, 26.7522128, 99.9885],
+  ['2H', 1, 4.10662791, 0.0115],
+  ['3H', 0.5, 28.5349779, null],
+  ['3He', 0.5, -20.3801587, 0.000137],
+  ['6Li', 1, 3.9371709, 7.59],
+  ['7Li', 1.5, 10.3977013, 92.41],
+  ['9Be', 1.5, -3.759666, 100],
+  ['10B', 3, 2.8746786, 19.9],
+  ['11B', 1.5, 8.5847044, 80.1],
+  ['13C', 0.5, 6.728284, 1.07],
+  ['14N', 1, 1.9337792, 99.632],
+  ['15N', 0.5, -2.71261804, 0.368],
+  ['17O', 2.5, -3.62808, 0.038],
+  ['19F', 0.5, 25.18148, 100],
+  ['21Ne', 1.5, -2.11308, 0.27],
+  ['23Na', 1.5, 7.0808493, 100],
+  ['25Mg', 2.5, -1.63887, 10.0],
+  ['27Al', 2.5, 6.9762715, 100],
+  ['29Si', 0.5, -5.319, 4.6832],
+  ['31P', 0.5, 10.8394, 100],
+  ['33S', 1.5, 2.055685, 0.76],
+  ['35Cl', 1.5, 2.624198, 75.78],
+  ['37Cl', 1.5, 2.184368, 24.22],
+  ['39K', 1.5, 1.2500608, 93.2581],
+  ['40K', 4, -1.5542854, 0.0117],
+  ['41K', 1.5, 0.68606808, 6.7302],
+  ['43Ca', 3.5, -1.803069, 0.135],
+  ['45Sc', 3.5, 6.5087973, 100],
+  ['47Ti', 2.5, -1.5105, 7.44],
+  ['49Ti', 3.5, -1.51095, 5.41],
+  ['50V', 6, 2.670649, 0.25],
+  ['51V', 3.5, 7.0455117, 99.75],
+  ['53Cr', 1.5, -1.5152, 9.501],
+  ['55Mn', 2.5, 6.6452546, 100],
+  ['57Fe', 0.5, 0.8680624, 2.119],
+  ['59Co', 3.5, 6.332, 100],
+  ['61Ni', 1.5, -2.3948, 1.1399],
+  ['63Cu', 1.5, 7.111789, 69.17],
+  ['65Cu', 1.5, 7.60435, 30.83],
+  ['67Zn', 2.5, 1.676688, 4.1],
+  ['69Ga', 1.5, 6.438855, 60.108],
+  ['71Ga', 1.5, 8.181171, 39.892],
+  ['73Ge', 4.5, -0.9360303, 7.73],
+  ['75As', 1.5, 4.596163, 100],
+  ['77Se', 0.5, 5.1253857, 7.63],
+  ['79Br', 1.5, 6.725616, 50.69],
+  ['81Br', 1.5, 7.249776, 49.31],
+  ['83Kr', 4.5, -1.0331, 11.49],
+  ['85Rb', 2.5, 2.592705, 72.17],
+  ['87Rb', 1.5, 8.7864, 27.83],
+  ['87Sr', 4.5, -1.1639376, 7.0],
+  ['89Y', 0.5, -1.3162791, 100],
+  ['91Zr', 2.5, -2.49743, 11.22],
+  ['93Nb', 4.5, 6.5674, 100],
+  ['95Mo', 2.5, -1.751, 15.92],
+  ['97Mo', 2.5, -1.788, 9.55],
+  ['99Tc', 4.5, 6.046, null],
+  ['99Ru', 2.5, -1.229, 12.76],
+  ['101Ru', 2.5, -1.377, 17.06],
+  ['103Rh', 0.5, -0.8468, 100],
+  ['105Pd', 2.5, -1.23, 22.33],
+  ['107Ag', 0.5, -1.0889181, 51.839],
+  ['109Ag', 0.5, -1.2518634, 48.161],
+  ['111Cd', 0.5, -5.6983131, 12.8],
+  ['113Cd', 0.5, -5.9609155, 12.22],
+  ['113In', 4.5, 5.8845, 4.29],
+  ['115Sn', 0.5, -8.8013, 0.34],
+  ['115In', 4.5, 5.8972, 95.71],
+  ['117Sn', 0.5, -9.58879, 7.68],
+  ['119Sn', 0.5, -10.0317, 8.59],
+  ['121Sb', 2.5, 6.4435, 57.21],
+  ['123Te', 0.5, -7.059098, 0.89],
+  ['123Sb', 3.5, 3.4892, 42.79],
+  ['125Te', 0.5, -8.5108404, 7.07],
+  ['127I', 2.5, 5.389573, 100],
+  ['129Xe', 0.5, -7.452103, 26.44],
+  ['131Xe', 1.5, 2.209076, 21.18],
+  ['133Cs', 3.5, 3.5332539, 100],
+  ['135Ba', 1.5, 2.6755, 6.592],
+  ['137Ba', 1.5, 2.99295, 11.232],
+  ['138La', 5, 3.557239, 0.09],
+  ['139La', 3.5, 3.8083318, 99.91],
+  // Lanthanide rows from memory, each checked against γ = μ·μ_N/(ħI) with moments also recalled from memory.
+  ['141Pr', 2.5, 8.1907, 100],
+  ['143Nd', 3.5, -1.457, 12.2],
+  ['145Nd', 3.5, -0.898, 8.3],
+  ['147Sm', 3.5, -1.115, 14.99],
+  ['149Sm', 3.5, -0.9192, 13.82],
+  ['151Eu', 2.5, 6.651, 47.81],
+  ['153Eu', 2.5, 2.9369, 52.19],
+  ['155Gd', 1.5, -0.82132, 14.8],
+  ['157Gd', 1.5, -1.0769, 15.65],
+  ['159Tb', 1.5, 6.4306, 100],
+  ['161Dy', 2.5, -0.9201, 18.91],
+  ['163Dy', 2.5, 1.289, 24.9],
+  ['165Ho', 3.5, 5.71, 100],
+  ['167Er', 3.5, -0.77157, 22.93],
+  ['169Tm', 0.5, -2.218, 100], // from memory
+  ['171Yb', 0.5, 4.7288, 14.28], // from memory
+  ['173Yb', 2.5, -1.3025, 16.13],
+  ['175Lu', 3.5, 3.0552, 97.41],
+  ['176Lu', 7, 2.1684, 2.59],
+  ['177Hf', 3.5, 1.086, 18.6],
+  ['179Hf', 4.5, -0.6821, 13.62],
+  ['181Ta', 3.5, 3.2438, 99.988],
+  ['183W', 0.5, 1.1282403, 14.31],
+  ['185Re', 2.5, 6.1057, 37.4],
+  ['187Os', 0.5, 0.6192895, 1.96],
+  ['187Re', 2.5, 6.1682, 62.6],
+  ['189Os', 1.5, 2.10713, 16.15],
+  ['191Ir', 1.5, 0.4812, 37.3],
+  ['193Ir', 1.5, 0.5227, 62.7],
+  ['195Pt', 0.5, 5.8385, 33.832],
+  ['197Au', 1.5, 0.47306, 100],
+  ['199Hg', 0.5, 4.8457916, 16.87],
+  ['201Hg', 1.5, -1.788769, 13.18],
+  ['203Tl', 0.5, 15.5393338, 29.524],
+  ['205Tl', 0.5, 15.6921808, 70.476],
+  // As tabulated in 2001; later measurements of the 207Pb moment give about 5.676 (from memory).
+  ['207Pb', 0.5, 5.58046, 22.1],
+  ['209Bi', 4.5, 4.375, 100],
+  ['235U', 3.5, -0.52, 0.72], // from memory
 ];
 
 /** The free electron: I = 1/2, γ = −|γ_e| (sign of g_e), CODATA 2022. */
@@ -45,13 +166,14 @@ export const ELECTRON: SpinSpecies = {
   symbol: 'electron',
   spin: 0.5,
   gamma: -ELECTRON_GYROMAGNETIC_RATIO,
+  abundance: null,
   source: `${CODATA_EDITION}, |γ_e| with the sign of g_e`,
 };
 
 const TABLE: ReadonlyMap<string, SpinSpecies> = new Map<string, SpinSpecies>([
-  ...NUCLEI.map(([symbol, spin, g]): [string, SpinSpecies] => [
+  ...NUCLEI.map(([symbol, spin, g, abundance]): [string, SpinSpecies] => [
     symbol,
-    { symbol, spin, gamma: g * 1e7, source: IUPAC_2001 },
+    { symbol, spin, gamma: g * 1e7, abundance, source: IUPAC_2001 },
   ]),
   ['electron', ELECTRON],
 ]);
@@ -69,6 +191,7 @@ export function electronWithGFactor(g: number): SpinSpecies | null {
     symbol: 'electron',
     spin: 0.5,
     gamma: (g * BOHR_MAGNETON) / HBAR,
+    abundance: null,
     source: `g = ${g} given in the block; μ_B from ${CODATA_EDITION}`,
   };
 }
