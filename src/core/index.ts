@@ -18,7 +18,7 @@ export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input
 export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
-export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
+export { reportEntry, type IntervalMeasured, type ReportEntry, type ReportDiagnostic } from './present/report';
 export {
   DEFAULT_DISPLAY,
   STATUS_WORDS,
@@ -26,10 +26,21 @@ export {
   enhancementText,
   fractionText,
   measuredTemperatureText,
+  polarizationText,
   shortSummary,
+  temperatureIntervalText,
   temperatureText,
+  temperatureWithInterval,
   type DisplayOptions,
 } from './present/summary';
+export {
+  COVERAGE_FACTOR,
+  resultIntervals,
+  temperatureSkewed,
+  type Interval,
+  type ResultIntervals,
+} from './analysis/intervals';
+export type { BudgetLine, BudgetSource } from './analysis/budget';
 export * from './present/numbers';
 export * from './quantities/constants';
 export {

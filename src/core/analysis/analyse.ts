@@ -125,14 +125,15 @@ function valuesOf(m: Measurement): CoreValues {
 
 /** The measurement's own line: its analytic u(β) and u(P), and u(ε) = u(P)/|P_th| with P_th exact. */
 function measurementLine(m: Measurement): BudgetLine {
-  const uP = m.polarization?.uncertainty ?? null;
+  const finite = (x: number | null | undefined): number | null => (x != null && Number.isFinite(x) ? x : null);
+  const uP = finite(m.polarization?.uncertainty);
   const pth = m.thermalPolarization;
   return {
     source: 'measurement',
-    beta: m.finding.beta?.uncertainty ?? null,
+    beta: finite(m.finding.beta?.uncertainty),
     polarization: uP,
     thermalPolarization: null,
-    enhancement: uP !== null && pth ? uP / Math.abs(pth) : null,
+    enhancement: uP !== null && pth ? finite(uP / Math.abs(pth)) : null,
   };
 }
 

@@ -39,7 +39,9 @@ const usable = (m: Measured | null): m is Measured & { uncertainty: number } =>
 export function betaInterval(beta: Measured | null): Interval | null {
   if (!usable(beta)) return null;
   const half = COVERAGE_FACTOR * beta.uncertainty;
-  return [beta.value - half, beta.value + half];
+  const low = beta.value - half;
+  const high = beta.value + half;
+  return Number.isFinite(low) && Number.isFinite(high) ? [low, high] : null;
 }
 
 /**
@@ -72,6 +74,7 @@ export function polarizationInterval(p: Measured | null): { interval: Interval; 
   const half = COVERAGE_FACTOR * p.uncertainty;
   const low = p.value - half;
   const high = p.value + half;
+  if (Number.isNaN(low) || Number.isNaN(high)) return null;
   return { interval: [Math.max(-1, low), Math.min(1, high)], clipped: low < -1 || high > 1 };
 }
 

@@ -5,7 +5,14 @@
  * temperatures, β in K⁻¹.
  */
 import type { BlockResults } from '../analysis/results';
-import { formatFraction, formatInverseTemperature, formatNumber, formatTemperature } from './numbers';
+import {
+  formatFraction,
+  formatInverseTemperature,
+  formatNumber,
+  formatTemperature,
+  formatTemperatureInterval,
+} from './numbers';
+import { temperatureSkewed } from '../analysis/intervals';
 import { measurementShort } from './measurementSummary';
 import type { Measured, Status } from '../types';
 import { DEFAULT_DISPLAY, type DisplayOptions } from './displayOptions';
@@ -33,6 +40,52 @@ export function temperatureText(r: BlockResults, o: DisplayOptions = DEFAULT_DIS
 /** A finite temperature as shown, `T = 5.61 ± 0.19 mK`: GUM rounding, the unit prefix as the options say. */
 export function measuredTemperatureText(t: Measured, o: DisplayOptions = DEFAULT_DISPLAY): string {
   return `T = ${formatTemperature(t.value, t.uncertainty, { digits: o.digits, mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto' })}`;
+}
+
+/**
+ * T as people read it in the hover and the report table, with what its k = 2
+ * interval says: `T = 57 K (33 … 199 K, 95 %)` when the interval (the image of
+ * β ± 2u(β)) is skewed by more than 10 %, `T = 57 ± 20 K` when it is not, and
+ * for a saturated block the bound that is known, `|T| ≥ 33 K (95 %), either sign`.
+ */
+export function temperatureIntervalText(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLAY): string {
+  if (r.limit || !r.beta) return temperatureText(r, o);
+  const { temperature: interval, temperatureBound: bound } = r.intervals;
+  return temperatureWithInterval(r.temperature, interval, bound, r.status === 'saturated', o) ?? temperatureText(r, o);
+}
+
+/**
+ * The interval-aware T text from plain numbers (for hosts that keep only
+ * those, such as the run log): null when there is neither a temperature nor a bound.
+ */
+export function temperatureWithInterval(
+  t: Measured | null,
+  interval: readonly [number, number] | null,
+  bound: number | null,
+  saturated: boolean,
+  o: DisplayOptions = DEFAULT_DISPLAY,
+): string | null {
+  const mode = o.temperature === 'kelvin' ? 'kelvin' : 'auto';
+  if (t && interval && !saturated) {
+    if (!temperatureSkewed(t, interval)) return measuredTemperatureText(t, o);
+    return `T = ${formatTemperatureInterval(t.value, interval[0], interval[1], { digits: o.digits, mode })}`;
+  }
+  if (bound !== null) {
+    const at = `|T| ≥ ${formatTemperature(bound, null, { digits: 2, mode })} (95 %), either sign`;
+    return saturated || !t ? `${at}: saturated` : `T = ${formatTemperature(t.value, null, { digits: 2, mode })}; ${at}`;
+  }
+  return t && !saturated ? measuredTemperatureText(t, o) : null;
+}
+
+/** P as shown, with its k = 2 interval when P ± 2u(P) passes ±1 and is clipped there. */
+export function polarizationText(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLAY): string {
+  const p = r.polarization;
+  if (!p) return '—';
+  const text = fractionText(p, o);
+  const iv = r.intervals.polarization;
+  if (!iv || !r.intervals.polarizationClipped) return text;
+  const short: DisplayOptions = { ...o, digits: Math.min(o.digits, 3) };
+  return `${text} (95 %: ${fractionText(iv[0], short)} … ${fractionText(iv[1], short)}, clipped at ±1)`;
 }
 
 /** β as shown, or its ±∞ limit. */
