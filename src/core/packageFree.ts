@@ -10,6 +10,7 @@
  * package, so the promise above cannot quietly break.
  */
 export { STATUSES, type Status } from './types';
+export { COVERAGE_FACTOR } from './analysis/intervals';
 export {
   DEFAULT_DISPLAY,
   measuredTemperatureText,
