@@ -13,7 +13,7 @@ import {
   type PinnedRun,
 } from '../../src/core/packageFree';
 import { shortNumber, shortTemperature } from './numbers';
-import type { Palette } from './theme';
+import type { Palette } from './palette';
 
 /** A point on screen axes. */
 export interface XY {

@@ -5,7 +5,7 @@
  */
 import { strict as assert } from 'node:assert';
 import { viewModel } from '../../media/src/model';
-import type { Palette } from '../../media/src/theme';
+import type { Palette } from '../../media/src/palette';
 import { curveOf, TWO_LEVEL } from '../webview/payloads';
 import { Analyzer, LineIndex, reportEntry } from '../../src/core';
 
@@ -38,7 +38,7 @@ describe('curve view: β error bar as the k = 2 interval', () => {
     const text = `\`\`\`levels\n${TWO_LEVEL}\n\`\`\`\n`;
     const entry = reportEntry('n.md', new Analyzer().analyzeText(text).blocks[0], new LineIndex(text));
     const [low, high] = entry.temperature!.interval!;
-    assert.ok(Math.abs(1 / (bar.y + bar.dy!) - low) <= 1e-12 * low, 'upper end of the bar reads as T’s low end');
-    assert.ok(Math.abs(1 / (bar.y - bar.dy!) - high) <= 1e-12 * high, 'lower end of the bar reads as T’s high end');
+    assert.ok(Math.abs(1 / (bar.y + bar.dy) - low) <= 1e-12 * low, 'upper end of the bar reads as T’s low end');
+    assert.ok(Math.abs(1 / (bar.y - bar.dy) - high) <= 1e-12 * high, 'lower end of the bar reads as T’s high end');
   });
 });

@@ -6,7 +6,7 @@ import {
 } from '../../../src/core/quantities/constants';
 import {
   ELECTRON,
-  SpinSpecies,
+  type SpinSpecies,
   electronWithGFactor,
   larmorFrequencyHz,
   lookupSpecies,
