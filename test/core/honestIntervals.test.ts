@@ -13,7 +13,8 @@
  * every run draws the same numbers.
  */
 import { strict as assert } from 'node:assert';
-import { Analyzer, LineIndex, reportEntry, type BlockReport } from '../../src/core';
+import { Analyzer, LineIndex, reportEntry, RunLog, runLogCsv, type BlockReport } from '../../src/core';
+import { formatCsv } from '../../src/cli/formats';
 import { formatTemperatureInterval } from '../../src/core/present/numbers';
 import { temperatureIntervalText, polarizationText } from '../../src/core/present/summary';
 import { close } from './helpers';
@@ -390,5 +391,42 @@ describe('the gain form: inversion density, threshold inversion and gain in dB (
     const gth = 0.01 + Math.log(1 / (0.995 * 0.95)) / 20;
     close(e.thresholdInversion, gth / 2.8e-19, 1e-12, 'ΔN_th');
     assert.equal(e.aboveThreshold, true);
+  });
+});
+
+describe('the intervals in the CSV outputs', () => {
+  it('appends the k = 2 ends to the report CSV, equal to the JSON report’s', () => {
+    const text = '```levels\ngap: 1 K\npopulations: [1.000 ± 0.035, 0.869 ± 0.030]\n```\n';
+    const block = new Analyzer().analyzeText(text).blocks[0];
+    const e = reportEntry('n.md', block, new LineIndex(text));
+    const [head, row] = formatCsv([{ entry: e, block }])
+      .trimEnd()
+      .split('\r\n');
+    const names = head.split(',');
+    const cells = row.split(',');
+    const at = (name: string): number => Number(cells[names.indexOf(name)]);
+    assert.deepEqual(names.slice(-6), [
+      'beta_low_95',
+      'beta_high_95',
+      'temperature_low_95',
+      'temperature_high_95',
+      'polarization_low_95',
+      'polarization_high_95',
+    ]);
+    assert.equal(at('beta_low_95'), e.beta!.interval![0]);
+    assert.equal(at('temperature_high_95'), e.temperature!.interval![1]);
+    assert.equal(at('polarization_low_95'), e.polarization!.interval![0]);
+  });
+
+  it('adds the same ends to the run log CSV', () => {
+    const log = new RunLog();
+    log.update('file:///n.md', 'n.md', '```levels\ngap: 1 K\npopulations: [1.000 ± 0.035, 0.869 ± 0.030]\n```\n');
+    const entries = log.groups('file', null).flatMap((g) => g.entries);
+    const [head, row] = runLogCsv(entries).trimEnd().split('\r\n');
+    const names = head.split(',');
+    const cells = row.split(',');
+    const e = entries[0];
+    assert.equal(Number(cells[names.indexOf('temperature_low_95_K')]), e.temperatureInterval![0]);
+    assert.equal(Number(cells[names.indexOf('beta_high_95_per_K')]), e.betaInterval![1]);
   });
 });
