@@ -253,12 +253,14 @@ describe('lookupSpecies', () => {
   it('suggests an isotope of the same element for an unlisted mass number or a bare element', () => {
     assert.deepEqual(lookupSpecies('16O'), { suggestion: '17O' });
     assert.deepEqual(lookupSpecies('238U'), { suggestion: '235U' });
+    assert.deepEqual(lookupSpecies('niobium-93'), { suggestion: '93Nb' });
+    assert.deepEqual(lookupSpecies('germanium'), { suggestion: '73Ge' });
     assert.deepEqual(lookupSpecies('Xe'), { suggestion: '129Xe' });
     assert.deepEqual(lookupSpecies('carbon'), { suggestion: '13C' });
   });
 
   it('suggests nothing for text that resembles no species', () => {
-    for (const text of ['foo', '', 'Uranium', 'neutrino', 'constructor', 'toString', '__proto__'])
+    for (const text of ['foo', '', 'Unobtainium', 'neutrino', 'constructor', 'toString', '__proto__'])
       assert.deepEqual(lookupSpecies(text), { suggestion: null }, text);
   });
 });
