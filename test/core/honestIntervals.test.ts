@@ -430,3 +430,47 @@ describe('the intervals in the CSV outputs', () => {
     assert.equal(Number(cells[names.indexOf('beta_high_95_per_K')]), e.betaInterval![1]);
   });
 });
+
+describe('the stated uncertainties of level energies', () => {
+  it('carry into u(β) of a Boltzmann fit as a Monte Carlo over the energies finds (JCGM 101)', () => {
+    // Three levels thermal at 50 K (n = g·e^(−E/T)), energies 0, 40 ± 2, 90 ± 3 K, populations exact.
+    const e = [0, 40, 90];
+    const ue = [0, 2, 3];
+    const n = e.map((x) => Math.exp(-x / 50));
+    const body = `levels:\n${e.map((x, i) => `  - { energy: ${x}${ue[i] ? ` ± ${ue[i]}` : ''} K, population: ${n[i]} }`).join('\n')}`;
+    const r = analysed(body).results!;
+    close(r.beta!.value, 1 / 50, 1e-9, 'β');
+    const line = r.budget.find((l) => l.source === 'energies');
+    assert.ok(line, 'an energies line');
+    // JCGM 101: draw the energies, refit (unweighted least squares of ln n against E, as the block is unweighted).
+    const z = gaussian(73);
+    const slopes: number[] = [];
+    const y = n.map((x) => Math.log(x));
+    for (let k = 0; k < M / 2; k++) {
+      const x = e.map((v, i) => v + ue[i] * z());
+      const xm = (x[0] + x[1] + x[2]) / 3;
+      const ym = (y[0] + y[1] + y[2]) / 3;
+      let sxx = 0;
+      let sxy = 0;
+      for (let i = 0; i < 3; i++) {
+        sxx += (x[i] - xm) ** 2;
+        sxy += (x[i] - xm) * (y[i] - ym);
+      }
+      slopes.push(-sxy / sxx);
+    }
+    const { sd } = moments(slopes);
+    assert.ok(Math.abs(line.beta! / sd - 1) < 0.03, `energies' share of u(β) ${line.beta} vs MC ${sd}`);
+    // The populations are exact and fit perfectly, so the energies carry all of u(β).
+    close(r.beta!.uncertainty!, line.beta!, 1e-9, 'u(β)');
+  });
+
+  it('make the gap of a two-level levels block uncertain, reaching β and P_th', () => {
+    const r = analysed(
+      'levels:\n  - { energy: 0 K, population: 0.7 }\n  - { energy: 10 ± 0.1 K, population: 0.3 }\nlattice: 10 K',
+    ).results!;
+    const spacing = r.budget.find((l) => l.source === 'spacing')!;
+    // ∂β/∂ΔE = −β/ΔE (the two-level formula), so a 1 % gap gives 1 % of β.
+    close(spacing.beta!, r.beta!.value * 0.01, 1e-6, 'gap share of u(β)');
+    assert.ok(spacing.thermalPolarization! > 0);
+  });
+});

@@ -18,6 +18,7 @@ import type { SeriesFit } from '../physics/relaxation';
 import { statusOf } from './status';
 import {
   combined,
+  energiesLine,
   scalarLines,
   withBudget,
   withoutScalarUncertainties,
@@ -44,6 +45,8 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   const m = measure(withoutScalarUncertainties(input), series, problems);
   const { signal, finding, fractions } = m;
   const lines = [measurementLine(m), ...scalarLines(input, (changed) => valuesOf(measure(changed, series, [])))];
+  const energyShare = finding.fit ? energiesLine(input) : null;
+  if (energyShare) lines.push(energyShare);
   const beta = withBudget(finding.beta?.value ?? null, lines, 'beta');
   const temperature = temperatureOf(beta, finding.limit);
   const polarization = withBudget(m.polarization?.value ?? null, lines, 'polarization');

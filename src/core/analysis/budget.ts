@@ -19,8 +19,12 @@
 import type { BlockInput } from '../block/input';
 import type { Measured } from '../types';
 
-/** Which input a budget line stands for: the measurement itself, the level spacing (`field`, `frequency` or `gap`), or `lattice`. */
-export type BudgetSource = 'measurement' | 'spacing' | 'lattice';
+/**
+ * Which input a budget line stands for: the measurement itself, the level
+ * spacing (`field`, `frequency`, `gap`, or two levels' energies), `lattice`, or
+ * the energies of three or more levels.
+ */
+export type BudgetSource = 'measurement' | 'spacing' | 'lattice' | 'energies';
 
 /** One input's contributions |c_i|·u(x_i) to each result; null where the result does not exist. */
 export interface BudgetLine {
@@ -118,6 +122,53 @@ export function scalarLines(input: BlockInput, evaluate: (input: BlockInput) => 
     lines.push(lineFrom('lattice', plus, minus, lattice.value, lattice.uncertainty));
   }
   return lines;
+}
+
+/**
+ * The share of the level energies' stated uncertainties in u(β) of a
+ * Boltzmann fit of three or more levels, analytically: the fit's slope
+ * b = S_xy/S_xx of y = ln(n/g) against x = E, weighted by w = (n/u(n))² when
+ * every used level has u(n) > 0 (else w = 1, as the fit does), has
+ * ∂b/∂x_i = w_i[(y_i − ȳ) − 2b(x_i − x̄)]/S_xx (the x̄ and ȳ terms cancel
+ * because Σw(x − x̄) = Σw(y − ȳ) = 0); β = −b. One O(n) pass, so any number of
+ * levels is safe. Null when no used level states an energy uncertainty.
+ */
+export function energiesLine(input: BlockInput): BudgetLine | null {
+  const levels = input.levels;
+  if (levels.length < 3 || !levels.some((l) => (l.uEnergy ?? 0) > 0)) return null;
+  const used = levels.filter((l) => l.population !== null && l.population > 0);
+  if (used.length < 3) return null;
+  const weighted = used.every((l) => l.uPopulation !== null && l.uPopulation > 0);
+  const w = used.map((l) => (weighted ? (l.population! / l.uPopulation!) ** 2 : 1));
+  const x = used.map((l) => l.energy);
+  const y = used.map((l) => Math.log(l.population! / l.g));
+  let sw = 0;
+  let sx = 0;
+  let sy = 0;
+  for (let i = 0; i < used.length; i++) {
+    sw += w[i];
+    sx += w[i] * x[i];
+    sy += w[i] * y[i];
+  }
+  const xm = sx / sw;
+  const ym = sy / sw;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = 0; i < used.length; i++) {
+    sxx += w[i] * (x[i] - xm) ** 2;
+    sxy += w[i] * (x[i] - xm) * (y[i] - ym);
+  }
+  if (!(sxx > 0)) return null;
+  const b = sxy / sxx;
+  const parts: number[] = [];
+  for (let i = 0; i < used.length; i++) {
+    const u = used[i].uEnergy ?? 0;
+    if (u > 0) parts.push(Math.abs((w[i] * (y[i] - ym - 2 * b * (x[i] - xm))) / sxx) * u);
+  }
+  const beta = Math.hypot(...parts);
+  return Number.isFinite(beta)
+    ? { source: 'energies', beta, polarization: null, thermalPolarization: null, enhancement: null }
+    : null;
 }
 
 type Quantity = 'beta' | 'polarization' | 'thermalPolarization' | 'enhancement';
