@@ -5,8 +5,9 @@ import {
   enhancementText,
   fractionText,
   linesCsv,
-  temperatureText,
   withoutSymbol,
+  polarizationText,
+  temperatureIntervalText,
   type ReportEntry,
   type BlockReport,
   DEFAULT_DISPLAY,
@@ -65,6 +66,12 @@ const CSV_HEAD = [
   'entropy',
   'errors',
   'warnings',
+  'beta_low_95',
+  'beta_high_95',
+  'temperature_low_95',
+  'temperature_high_95',
+  'polarization_low_95',
+  'polarization_high_95',
 ];
 
 function csvCell(v: string | number | null): string {
@@ -94,6 +101,12 @@ export function formatCsv(rows: readonly Row[]): string {
         e.entropy,
         e.diagnostics.filter((d) => d.severity === 'error').length,
         e.diagnostics.filter((d) => d.severity === 'warning').length,
+        e.beta?.interval?.[0] ?? null,
+        e.beta?.interval?.[1] ?? null,
+        e.temperature?.interval?.[0] ?? null,
+        e.temperature?.interval?.[1] ?? null,
+        e.polarization?.interval?.[0] ?? null,
+        e.polarization?.interval?.[1] ?? null,
       ]
         .map(csvCell)
         .join(','),
@@ -149,10 +162,15 @@ function tableCells(rows: readonly Row[]): string[][] {
       `${e.file}:${e.line}`,
       e.id ?? '—',
       e.status,
-      r && (r.beta || r.limit) ? withoutSymbol(temperatureText(r)) : '—',
+      r && (r.beta || r.limit) ? withoutSymbol(temperatureIntervalText(r)) : '—',
       r && (r.beta || r.limit) ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
-      r?.polarization ? fractionText(r.polarization) : '—',
-      r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',
+      r?.polarization ? polarizationText(r) : '—',
+      r?.thermalPolarization != null
+        ? fractionText(
+            { value: r.thermalPolarization, uncertainty: r.uThermalPolarization },
+            { ...DEFAULT_DISPLAY, digits: 3 },
+          )
+        : '—',
       r ? enhancementText(r.enhancement) : '—',
       r ? (measurementShort(r) ?? '') : '',
     ];

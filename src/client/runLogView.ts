@@ -7,7 +7,7 @@
  */
 import * as vscode from 'vscode';
 import type { RunEntry, RunGroup, RunLog } from '../core';
-import { measuredTemperatureText, STATUSES, type Status } from '../core/packageFree';
+import { measuredTemperatureText, STATUSES, temperatureWithInterval, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
 import { background } from './background';
 import { noteReader } from './loadNoteReader';
@@ -53,7 +53,16 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
     const item = new vscode.TreeItem(e.id ?? `block at line ${e.line + 1}`, vscode.TreeItemCollapsibleState.None);
     const t = e.temperature ? measuredTemperatureText(e.temperature, displayOptions(vscode.Uri.parse(e.uri))) : '';
     item.description = [e.status, t, this.by === 'date' ? e.name : (e.date ?? '')].filter((x) => x !== '').join(' · ');
-    item.tooltip = `${e.name}:${e.line + 1}\n${e.status}${t ? `\n${t}` : ''}`;
+    // The tooltip has room for what the k = 2 interval says (skewed T, or only a bound when saturated).
+    const full = temperatureWithInterval(
+      e.temperature,
+      e.temperatureInterval,
+      e.temperatureBound,
+      e.status === 'saturated',
+      displayOptions(vscode.Uri.parse(e.uri)),
+    );
+    const shown = full ?? t;
+    item.tooltip = `${e.name}:${e.line + 1}\n${e.status}${shown ? `\n${shown}` : ''}`;
     item.iconPath = new vscode.ThemeIcon(STATUS_ICONS[e.status]);
     item.contextValue = 'boltzmark.run';
     item.command = {

@@ -18,7 +18,7 @@ export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
-export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
+export { reportEntry, type IntervalMeasured, type ReportEntry, type ReportDiagnostic } from './present/report';
 export {
   DEFAULT_DISPLAY,
   STATUS_WORDS,
@@ -26,10 +26,13 @@ export {
   enhancementText,
   fractionText,
   measuredTemperatureText,
+  polarizationText,
   shortSummary,
   statusText,
   temperatureSymbol,
+  temperatureIntervalText,
   temperatureText,
+  temperatureWithInterval,
   withoutSymbol,
   type DisplayOptions,
 } from './present/summary';
@@ -37,6 +40,14 @@ export type { LinePlot, PlotPointResult, Trade, TradeResults } from './analysis/
 export { tradeRows, linePointRows, linesCsv } from './present/tradeSummary';
 export { airToVacuum, vacuumToAir, airIndex } from './physics/airWavelength';
 export { lineTemperature, linearRotorPartition, opticalDepthCorrection } from './physics/radio';
+export {
+  COVERAGE_FACTOR,
+  resultIntervals,
+  temperatureSkewed,
+  type Interval,
+  type ResultIntervals,
+} from './analysis/intervals';
+export type { BudgetLine, BudgetSource } from './analysis/budget';
 export * from './present/numbers';
 export * from './quantities/constants';
 export {

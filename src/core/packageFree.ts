@@ -11,7 +11,13 @@
  */
 export { STATUSES, type Status } from './types';
 export { hasLevelsBlock } from './text/fences';
-export { DEFAULT_DISPLAY, measuredTemperatureText, type DisplayOptions } from './present/summary';
+export { COVERAGE_FACTOR } from './analysis/intervals';
+export {
+  DEFAULT_DISPLAY,
+  measuredTemperatureText,
+  temperatureWithInterval,
+  type DisplayOptions,
+} from './present/summary';
 export {
   ENERGY_AXIS_UNITS,
   isHostToView,

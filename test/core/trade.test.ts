@@ -79,13 +79,15 @@ describe('radio units and the 21-cm pair', () => {
       const r = block(`gap: ${gap}\ng: [1, 3]\nratio: 2.99`).report;
       // n₁/n₀ = 2.99 → T_s = T*/ln(3/2.99) = 20.416 514 K (../shared/domain.md §6).
       close(r.results!.temperature!.value, 20.416514, 1e-6, `T from gap ${gap}`);
-      assert.equal(r.results!.trade.trade, 'radio');
+      // A radio wavelength says the trade; a frequency alone does not (94 GHz is also an electron-spin gap), so a
+      // pair given by frequency is a plain pair unless a radio key says otherwise.
+      assert.equal(r.results!.trade.trade, gap.endsWith('MHz') ? 'levels' : 'radio');
       assert.equal(r.results!.trade.medium, null, 'a radio wavelength is c/ν, no air correction');
     }
   });
 
   it('speaks of the excitation temperature, shows no polarization or enhancement, and says "per degeneracy"', () => {
-    const r = block('gap: 1420.405751768 MHz\ng: [1, 3]\nratio: 2.99\nlattice: 100 K').report.results!;
+    const r = block('gap: 21.106114054 cm\ng: [1, 3]\nratio: 2.99\nlattice: 100 K').report.results!;
     assert.equal(r.polarization, null);
     assert.equal(r.thermalPolarization, null);
     assert.equal(r.enhancement, null);
@@ -102,7 +104,7 @@ describe('radio units and the 21-cm pair', () => {
     // ratio 3.000 ± 0.0015: β = ln(3/3)/T* = 0, u(β) = u(r)/(r T*) = 0.0015/(3 × 0.068168725) = 0.0073347 K⁻¹
     // (first-order propagation, GUM JCGM 100:2008 §5.1.2); the bound 1/(2u) = 68.17 K, with the contract's rule
     // for saturated blocks (../shared/notebook-format.md, "Honest intervals").
-    const { report, text } = block('gap: 1420.405751768 MHz\ng: [1, 3]\nratio: 3.000 ± 0.0015');
+    const { report, text } = block('gap: 21.106114054 cm\ng: [1, 3]\nratio: 3.000 ± 0.0015');
     const r = report.results!;
     assert.equal(r.status, 'saturated');
     close(r.trade.temperatureLimit, 1 / (2 * (0.0015 / (3 * T_STAR))), 1e-6, 'limit');

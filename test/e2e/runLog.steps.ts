@@ -167,6 +167,12 @@ export function runLogSteps(session: () => Session): void {
       'beta_uncertainty_per_K',
       'polarization',
       'polarization_uncertainty',
+      'temperature_low_95_K',
+      'temperature_high_95_K',
+      'beta_low_95_per_K',
+      'beta_high_95_per_K',
+      'polarization_low_95',
+      'polarization_high_95',
     ]);
     const entries = log.entries();
     assert.equal(records.length, entries.length, 'one row per run');
@@ -181,6 +187,8 @@ export function runLogSteps(session: () => Session): void {
           `T of ${e.id}: ${r.temperature_K}`,
         );
       else assert.equal(r.temperature_K, '');
+      // The k = 2 interval's ends (T's is the image of β ± 2u(β)), empty without an uncertainty.
+      assert.equal(r.temperature_low_95_K, e.temperatureInterval ? String(e.temperatureInterval[0]) : '');
     }
     await shot(page, '23-run-log-csv');
   });

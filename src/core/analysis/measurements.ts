@@ -7,7 +7,14 @@
 import type { BlockInput } from '../block/input';
 import type { ReadValue } from '../block/values';
 import { thermalSpinPolarization } from '../physics/brillouin';
-import { gainCoefficient, singlePassGain, thresholdGain } from '../physics/gain';
+import {
+  gainCoefficient,
+  gainDecibels,
+  inversionDensity,
+  singlePassGain,
+  thresholdGain,
+  thresholdInversion,
+} from '../physics/gain';
 import { fitBuildup, fitDecay, type SeriesFit } from '../physics/relaxation';
 import { acquisitionFactor, referencedPolarization } from '../physics/thermalReference';
 import type { Problem } from '../types';
@@ -89,9 +96,14 @@ export function measureGain(input: BlockInput): GainResult | null {
   const single = gi.length !== null ? singlePassGain(g0, gi.length) : null;
   const threshold =
     gi.length !== null && gi.mirrors ? thresholdGain(gi.loss, gi.mirrors[0], gi.mirrors[1], gi.length) : null;
+  const db = gi.length !== null ? gainDecibels(g0, gi.length) : null;
+  const nth = threshold !== null ? thresholdInversion(threshold, gi.crossSection) : null;
   return {
     coefficient: g0,
     singlePass: single !== null && Number.isFinite(single) ? single : null,
+    singlePassDb: db !== null && Number.isFinite(db) ? db : null,
+    inversion: inversionDensity(lo.population!, up.population!, lo.g, up.g),
+    thresholdInversion: nth !== null && Number.isFinite(nth) ? nth : null,
     threshold,
     aboveThreshold: threshold === null ? null : g0 > threshold,
   };

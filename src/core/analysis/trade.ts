@@ -84,8 +84,11 @@ export function tradeOf(input: BlockInput): Trade {
   const t = input.trade;
   if (t?.line || t?.columns || t?.rotor) return 'radio';
   if (input.form === 'transition') {
-    // The unit says the trade: a frequency or a centimetre/millimetre wavelength below 3 THz is radio, an
-    // optical wavelength (or a gain medium) optical; a gap in K, eV or cm⁻¹ stays a plain pair of levels.
+    // The unit says the trade where it can: a centimetre/millimetre wavelength below 3 THz is how radio
+    // astronomers write a line, an optical wavelength (or a gain medium) is optical. A frequency alone does
+    // not tell: 94 GHz is as much an electron-spin (DNP, ESR) gap as a millimetre line, so a pair given by
+    // frequency is radio only with a radio key (brightness, optical depth, background, columns, rotor) and
+    // otherwise stays a plain pair of levels, whose polarization per degeneracy the contract defines.
     const unit = input.energyUnit ?? '';
     const gap = input.levels[1]!.energy - input.levels[0]!.energy;
     if (RADIO_UNITS.has(unit) && gap / KELVIN_PER_HERTZ < RADIO_BELOW_HZ) return 'radio';
@@ -94,8 +97,8 @@ export function tradeOf(input: BlockInput): Trade {
   return t?.background ? 'radio' : 'levels';
 }
 
-/** Units in which a gap is written by radio astronomers (frequencies, radio wavelengths). */
-const RADIO_UNITS = new Set(['Hz', 'kHz', 'MHz', 'GHz', 'THz', 'mm', 'cm']);
+/** Units in which only radio astronomers write a gap (radio wavelengths). */
+const RADIO_UNITS = new Set(['mm', 'cm']);
 /** Units of an optical wavelength. */
 const OPTICAL_UNITS = new Set(['nm', 'µm', 'um', 'μm', 'Å', '\u212B']);
 

@@ -81,7 +81,15 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
     );
     return null;
   }
-  return { form: 'levels', levels: sorted, energyUnit: unit, spin: null, polarization: null, ratio: null, uGap: null };
+  // Two levels: the energies' uncertainties are the gap's, u(ΔE) = √(u_l² + u_u²), which the analysis carries into β and P_th.
+  const uGap = sorted.length === 2 ? gapUncertainty(sorted[0].uEnergy ?? null, sorted[1].uEnergy ?? null) : null;
+  return { form: 'levels', levels: sorted, energyUnit: unit, spin: null, polarization: null, ratio: null, uGap };
+}
+
+/** √(a² + b²) of the stated ones, or null when neither is stated. */
+function gapUncertainty(a: number | null, b: number | null): number | null {
+  if (a === null && b === null) return null;
+  return Math.hypot(a ?? 0, b ?? 0);
 }
 
 function ascendingEnergies(levels: readonly LevelInput[]): boolean {
@@ -138,6 +146,7 @@ function readLevel(
   return {
     label: label?.text ?? null,
     energy: energy.value,
+    uEnergy: energy.uncertainty,
     g: g ? g.value : 1,
     population: p.value,
     uPopulation: p.uncertainty,

@@ -13,6 +13,8 @@ export interface LevelInput {
   readonly label: string | null;
   /** Energy E/k in kelvin. */
   readonly energy: number;
+  /** Standard uncertainty of the energy, K, when written (`levels` form), else null. */
+  readonly uEnergy?: number | null;
   readonly g: number;
   /** Population on the block's own scale, or null when not measured directly. */
   readonly population: number | null;

@@ -52,13 +52,25 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
   rows.push(...tradeRows(input, r, o));
   const g = r.gain;
   if (g) {
+    rows.push(['inversion ΔN = N_u − (g_u/g_l)·N_l', `${formatNumber(g.inversion, o.digits)} cm⁻³`]);
     rows.push(['gain g₀', `${formatNumber(g.coefficient, o.digits)} cm⁻¹`]);
-    if (g.singlePass !== null) rows.push(['single-pass gain', formatNumber(g.singlePass, o.digits)]);
+    if (g.singlePass !== null || g.singlePassDb !== null)
+      rows.push([
+        'single-pass gain',
+        [
+          g.singlePass !== null ? `× ${formatNumber(g.singlePass, o.digits)}` : null,
+          g.singlePassDb !== null ? `${formatNumber(g.singlePassDb, 3)} dB` : null,
+        ]
+          .filter((x) => x !== null)
+          .join(' = '),
+      ]);
     if (g.threshold !== null)
       rows.push([
         'threshold g_th',
         `${formatNumber(g.threshold, o.digits)} cm⁻¹ (${g.aboveThreshold ? 'above threshold' : 'below threshold'})`,
       ]);
+    if (g.thresholdInversion !== null)
+      rows.push(['threshold inversion ΔN_th = g_th/σ', `${formatNumber(g.thresholdInversion, o.digits)} cm⁻³`]);
   }
   return rows;
 }

@@ -3,7 +3,11 @@
  * block with the contract's fields, unknown quantities `null` (never missing),
  * lines 1-based. The v1.1 fields (`timeConstant`, `gainCoefficient`,
  * `singlePassGain`, `aboveThreshold`) follow the contract's measurement inputs;
- * `form`, `fit` and `invertedPairs` are Boltzmark's own extensions.
+ * the v1.2 `interval` of `beta`, `temperature` and `polarization` its "Honest
+ * intervals" section; `form`, `fit`, `invertedPairs`, `birge`,
+ * `thermalPolarizationUncertainty`, `enhancementUncertainty` and the gain's
+ * `inversionDensity`, `thresholdInversion` and `singlePassGainDb` are
+ * Boltzmark's own extensions (added fields only: nothing is renamed or removed).
  */
 import type { BlockReport } from '../analyzer/analyzer';
 import type { LineIndex } from '../text/lineIndex';
@@ -21,15 +25,20 @@ export interface ReportDiagnostic {
   readonly column: number;
 }
 
+/** A result with its standard uncertainty and its k = 2 coverage interval (null without an uncertainty). */
+export interface IntervalMeasured extends Measured {
+  readonly interval: readonly [number, number] | null;
+}
+
 /** One block as the JSON report prints it. */
 export interface ReportEntry {
   readonly file: string;
   readonly line: number;
   readonly id: string | null;
   readonly status: Status;
-  readonly beta: Measured | null;
-  readonly temperature: Measured | null;
-  readonly polarization: Measured | null;
+  readonly beta: IntervalMeasured | null;
+  readonly temperature: IntervalMeasured | null;
+  readonly polarization: IntervalMeasured | null;
   readonly thermalPolarization: number | null;
   readonly enhancement: number | null;
   readonly entropy: number | null;
@@ -82,12 +91,31 @@ export interface ReportEntry {
   } | null;
   /** `air` or `vacuum` for blocks with optical wavelengths, and whether the block stated it. */
   readonly wavelengths: { readonly medium: 'air' | 'vacuum'; readonly stated: boolean } | null;
+  /** Standard uncertainty of P_th from u(lattice) and u(field/frequency/gap), or null. */
+  readonly thermalPolarizationUncertainty: number | null;
+  /** Standard uncertainty of ε from every stated input uncertainty, or null. */
+  readonly enhancementUncertainty: number | null;
+  /** Weighted fits with χ²/dof > 1: the Birge ratio and u(β) scaled by it; otherwise null. */
+  readonly birge: { readonly ratio: number; readonly betaUncertainty: number } | null;
+  /** Gain form: N_u − (g_u/g_l)·N_l, cm⁻³. */
+  readonly inversionDensity: number | null;
+  /** Gain form with length and mirrors: g_th/σ, cm⁻³. */
+  readonly thresholdInversion: number | null;
+  /** Gain form with a length: 10 log₁₀ of the single-pass gain. */
+  readonly singlePassGainDb: number | null;
 }
 
 const finite = (x: number | null | undefined): number | null =>
   x !== null && x !== undefined && Number.isFinite(x) ? x : null;
 const measured = (m: Measured | null): Measured | null =>
   m && Number.isFinite(m.value) ? { value: m.value, uncertainty: finite(m.uncertainty) } : null;
+
+const withInterval = (m: Measured | null, interval: readonly [number, number] | null): IntervalMeasured | null => {
+  const base = measured(m);
+  if (!base) return null;
+  const usable = base.uncertainty !== null && interval !== null && interval.every(Number.isFinite);
+  return { ...base, interval: usable ? [interval[0], interval[1]] : null };
+};
 
 /** Converts one analysed block to its report entry. */
 export function reportEntry(file: string, b: BlockReport, lines: LineIndex): ReportEntry {
@@ -97,9 +125,9 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex): Rep
     line: b.block.openLine + 1,
     id: b.meta.id,
     status: b.status,
-    beta: r ? measured(r.beta) : null,
-    temperature: r ? measured(r.temperature) : null,
-    polarization: r ? measured(r.polarization) : null,
+    beta: r ? withInterval(r.beta, r.intervals.beta) : null,
+    temperature: r ? withInterval(r.temperature, r.intervals.temperature) : null,
+    polarization: r ? withInterval(r.polarization, r.intervals.polarization) : null,
     thermalPolarization: finite(r?.thermalPolarization),
     enhancement: finite(r?.enhancement),
     entropy: finite(r?.entropy),
@@ -114,6 +142,7 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex): Rep
     form: b.input?.form ?? null,
     fit: r?.fit ? { chi2: r.fit.chi2, dof: r.fit.dof, consistent: r.fit.consistent } : null,
     invertedPairs: r ? r.invertedPairs.map((p) => [p.lower, p.upper] as [number, number]) : [],
+    ...uncertaintyEntry(r),
     ...tradeEntry(r),
   };
 }
@@ -168,5 +197,30 @@ function tradeEntry(
         }
       : null,
     wavelengths: t?.medium ? { medium: t.medium.kind, stated: t.medium.stated } : null,
+  };
+}
+
+/** The uncertainty fields of an entry: u(P_th), u(ε), the Birge-scaled u(β), and the gain's inversion figures. */
+function uncertaintyEntry(
+  r: BlockReport['results'],
+): Pick<
+  ReportEntry,
+  | 'thermalPolarizationUncertainty'
+  | 'enhancementUncertainty'
+  | 'birge'
+  | 'inversionDensity'
+  | 'thresholdInversion'
+  | 'singlePassGainDb'
+> {
+  return {
+    thermalPolarizationUncertainty: finite(r?.uThermalPolarization),
+    enhancementUncertainty: finite(r?.uEnhancement),
+    birge:
+      r?.birge && r.birge.beta.uncertainty !== null
+        ? { ratio: r.birge.ratio, betaUncertainty: r.birge.beta.uncertainty }
+        : null,
+    inversionDensity: finite(r?.gain?.inversion),
+    thresholdInversion: finite(r?.gain?.thresholdInversion),
+    singlePassGainDb: finite(r?.gain?.singlePassDb),
   };
 }

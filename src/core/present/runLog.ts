@@ -21,6 +21,12 @@ export interface RunEntry {
   readonly temperature: Measured | null;
   readonly beta: Measured | null;
   readonly polarization: Measured | null;
+  /** The k = 2 intervals (analysis/intervals.ts); null without an uncertainty. */
+  readonly betaInterval: readonly [number, number] | null;
+  readonly temperatureInterval: readonly [number, number] | null;
+  /** When β's interval holds 0: the bound |T| ≥ this, K. */
+  readonly temperatureBound: number | null;
+  readonly polarizationInterval: readonly [number, number] | null;
 }
 
 /** A group of runs under one heading (a note, or a date). */
@@ -47,6 +53,10 @@ export class RunLog {
       temperature: b.results?.temperature ?? null,
       beta: b.results?.beta ?? null,
       polarization: b.results?.polarization ?? null,
+      betaInterval: b.results?.intervals.beta ?? null,
+      temperatureInterval: b.results?.intervals.temperature ?? null,
+      temperatureBound: b.results?.intervals.temperatureBound ?? null,
+      polarizationInterval: b.results?.intervals.polarization ?? null,
     }));
     const before = this.notes.get(uri);
     if (before && JSON.stringify(before) === JSON.stringify(entries)) return false;
@@ -98,6 +108,12 @@ const CSV_HEAD = [
   'beta_uncertainty_per_K',
   'polarization',
   'polarization_uncertainty',
+  'temperature_low_95_K',
+  'temperature_high_95_K',
+  'beta_low_95_per_K',
+  'beta_high_95_per_K',
+  'polarization_low_95',
+  'polarization_high_95',
 ];
 
 function cell(v: string | number | null): string {
@@ -125,6 +141,12 @@ export function runLogCsv(entries: readonly RunEntry[]): string {
         e.beta?.uncertainty ?? null,
         e.polarization?.value ?? null,
         e.polarization?.uncertainty ?? null,
+        e.temperatureInterval?.[0] ?? null,
+        e.temperatureInterval?.[1] ?? null,
+        e.betaInterval?.[0] ?? null,
+        e.betaInterval?.[1] ?? null,
+        e.polarizationInterval?.[0] ?? null,
+        e.polarizationInterval?.[1] ?? null,
       ]
         .map(cell)
         .join(','),

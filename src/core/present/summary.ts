@@ -5,7 +5,15 @@
  * temperatures, β in K⁻¹.
  */
 import type { BlockResults } from '../analysis/results';
-import { formatFraction, formatInverseTemperature, formatMeasured, formatNumber, formatTemperature } from './numbers';
+import {
+  formatFraction,
+  formatInverseTemperature,
+  formatMeasured,
+  formatNumber,
+  formatTemperature,
+  formatTemperatureInterval,
+} from './numbers';
+import { temperatureSkewed } from '../analysis/intervals';
 import { measurementShort } from './measurementSummary';
 import type { Measured, Status } from '../types';
 import { DEFAULT_DISPLAY, type DisplayOptions } from './displayOptions';
@@ -72,6 +80,69 @@ export function measuredTemperatureText(t: Measured, o: DisplayOptions = DEFAULT
 /** The temperature's value without its symbol: `T_ex = 10.0 kK` → `10.0 kK`, `T → ±∞` → `→ ±∞`. */
 export function withoutSymbol(text: string): string {
   return text.replace(/^T(?:_ex)? = /, '').replace(/^T(?:_ex)? /, '');
+}
+
+/**
+ * T as people read it in the hover and the report table, with what its k = 2
+ * interval says: `T = 57 K (33 … 199 K, 95 %)` when the interval (the image of
+ * β ± 2u(β)) is skewed by more than 10 %, `T = 57 ± 20 K` when it is not, and
+ * for a saturated block the bound that is known, `|T| ≥ 33 K (95 %), either sign`.
+ */
+export function temperatureIntervalText(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLAY): string {
+  if (r.limit || !r.beta) return temperatureText(r, o);
+  // A saturated radio line is quoted as that trade quotes it (temperatureText's `T_ex > … at 95 %`).
+  if (r.status === 'saturated' && r.trade.temperatureLimit !== null) return temperatureText(r, o);
+  const { temperature: interval, temperatureBound: bound } = r.intervals;
+  const text = temperatureWithInterval(
+    r.temperature,
+    interval,
+    bound,
+    r.status === 'saturated',
+    o,
+    temperatureSymbol(r),
+  );
+  if (text === null) return temperatureText(r, o);
+  const ev = r.trade.temperatureEv;
+  return ev && r.status !== 'saturated'
+    ? `${text} (kT = ${formatMeasured(ev.value, ev.uncertainty, { digits: o.digits })} eV)`
+    : text;
+}
+
+/**
+ * The interval-aware T text from plain numbers (for hosts that keep only
+ * those, such as the run log): null when there is neither a temperature nor a bound.
+ */
+export function temperatureWithInterval(
+  t: Measured | null,
+  interval: readonly [number, number] | null,
+  bound: number | null,
+  saturated: boolean,
+  o: DisplayOptions = DEFAULT_DISPLAY,
+  symbol = 'T',
+): string | null {
+  const mode = o.temperature === 'kelvin' ? 'kelvin' : 'auto';
+  if (t && interval && !saturated) {
+    if (!temperatureSkewed(t, interval)) return measuredTemperatureText(t, o, symbol);
+    return `${symbol} = ${formatTemperatureInterval(t.value, interval[0], interval[1], { digits: o.digits, mode })}`;
+  }
+  if (bound !== null) {
+    const at = `|${symbol}| ≥ ${formatTemperature(bound, null, { digits: 2, mode })} (95 %), either sign`;
+    return saturated || !t
+      ? `${at}: saturated`
+      : `${symbol} = ${formatTemperature(t.value, null, { digits: 2, mode })}; ${at}`;
+  }
+  return t && !saturated ? measuredTemperatureText(t, o, symbol) : null;
+}
+
+/** P as shown, with its k = 2 interval when P ± 2u(P) passes ±1 and is clipped there. */
+export function polarizationText(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLAY): string {
+  const p = r.polarization;
+  if (!p) return '—';
+  const text = fractionText(p, o);
+  const iv = r.intervals.polarization;
+  if (!iv || !r.intervals.polarizationClipped) return text;
+  const short: DisplayOptions = { ...o, digits: Math.min(o.digits, 3) };
+  return `${text} (95 %: ${fractionText(iv[0], short)} … ${fractionText(iv[1], short)}, clipped at ±1)`;
 }
 
 /** β as shown, or its ±∞ limit. */

@@ -263,7 +263,7 @@ function speciesItems(position: Position, before: string): CompletionItem[] | nu
         detail: `I = ${spinText(s.spin)} · γ/2π = ${gammaText(s.gamma)}`,
         documentation: {
           kind: MarkupKind.Markdown,
-          value: `${Math.round(2 * s.spin + 1)} Zeeman levels, |γ|ħB apart. Spin and γ: ${s.source}.`,
+          value: `${Math.round(2 * s.spin + 1)} Zeeman levels, |γ|ħB apart.${s.abundance === null ? '' : ` Natural abundance ${formatNumber(s.abundance, 6)} %.`} Spin and γ: ${s.source}.`,
         },
         textEdit: { range: back(position, m[1].length), newText: symbol },
         sortText: String(i).padStart(3, '0'),

@@ -34,6 +34,7 @@ import {
 import type { Settings } from '../../shared/settings';
 import { blockAt, displayOptions, toOffset, toRange, type NoteState } from '../state';
 import { blockName, blockResultsMarkdown, escapeMarkdown, markdownTable, writtenText } from './markdown';
+import { birgeText, budgetMarkdown, degeneratePolarizationText } from './uncertainty';
 
 /** The hover at a position, or null outside every block. */
 export function hover(state: NoteState, position: Position, settings: Settings): Hover | null {
@@ -65,7 +66,9 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
     return { value: parts.join('\n\n'), span };
   }
   const input = b.input;
-  if (r.polarization) {
+  const degenerate = r.polarization ? degeneratePolarizationText(b, r) : null;
+  if (degenerate) parts.push(degenerate);
+  else if (r.polarization) {
     const sign = input.spin
       ? 'P > 0 at positive spin temperature, whatever the sign of γ.'
       : 'P > 0 at positive temperature.';
@@ -78,6 +81,10 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
   if (r.thermalPolarization === null && r.polarization && !input.lattice)
     parts.push('Add `lattice:` to get P\\_th and ε.');
   if (r.fit) parts.push(fitText(r.fit, input.lines ? (r.trade.plot?.ordinate ?? 'ln(I/gA)') : null));
+  const birge = birgeText(r);
+  if (birge) parts.push(birge);
+  const budget = budgetMarkdown(state, b, r);
+  if (budget) parts.push(budget);
   if (input.levels.length >= 3 && r.invertedPairs.length > 0) {
     const name = (i: number): string => escapeMarkdown(input.levels[i].label ?? `level ${i + 1}`);
     const shown = r.invertedPairs.slice(0, 6).map((p) => `${name(p.lower)} ↔ ${name(p.upper)}`);
