@@ -1,5 +1,6 @@
 /** The output formats of `boltzmark report`: a table for people, JSON (the contract), CSV and Markdown. */
 import {
+  csvText,
   measurementShort,
   betaText,
   enhancementText,
@@ -66,39 +67,28 @@ const CSV_HEAD = [
   'warnings',
 ];
 
-function csvCell(v: string | number | null): string {
-  if (v === null) return '';
-  const s = String(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** CSV (RFC 4180) with full-precision numbers and empty cells for unknowns. */
+/** CSV through the core's writer (RFC 4180, formula-guarded), full-precision numbers, empty cells for unknowns. */
 export function formatCsv(rows: readonly Row[]): string {
-  const lines = [CSV_HEAD.join(',')];
-  for (const { entry: e } of rows) {
-    lines.push(
-      [
-        e.file,
-        e.line,
-        e.id,
-        e.status,
-        e.beta?.value ?? null,
-        e.beta?.uncertainty ?? null,
-        e.temperature?.value ?? null,
-        e.temperature?.uncertainty ?? null,
-        e.polarization?.value ?? null,
-        e.polarization?.uncertainty ?? null,
-        e.thermalPolarization,
-        e.enhancement,
-        e.entropy,
-        e.diagnostics.filter((d) => d.severity === 'error').length,
-        e.diagnostics.filter((d) => d.severity === 'warning').length,
-      ]
-        .map(csvCell)
-        .join(','),
-    );
-  }
-  return lines.join('\r\n') + '\r\n';
+  return csvText([
+    CSV_HEAD,
+    ...rows.map(({ entry: e }) => [
+      e.file,
+      e.line,
+      e.id,
+      e.status,
+      e.beta?.value ?? null,
+      e.beta?.uncertainty ?? null,
+      e.temperature?.value ?? null,
+      e.temperature?.uncertainty ?? null,
+      e.polarization?.value ?? null,
+      e.polarization?.uncertainty ?? null,
+      e.thermalPolarization,
+      e.enhancement,
+      e.entropy,
+      e.diagnostics.filter((d) => d.severity === 'error').length,
+      e.diagnostics.filter((d) => d.severity === 'warning').length,
+    ]),
+  ]);
 }
 
 /** Escapes text for a Markdown table cell (pipes, backslashes, HTML, line breaks). */

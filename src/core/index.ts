@@ -106,3 +106,4 @@ export { LINE_KEYS, SIGNAL_KEYS, SERIES_KEYS } from './block/schema';
 export { resultsHtml, type PreviewBlock } from './present/preview/resultsHtml';
 export { sparklineSvg, escapeText, escapeAttr, type SparkPoint } from './present/preview/sparkline';
 export { RunLog, runLogCsv, type RunEntry, type RunGroup } from './present/runLog';
+export { csvText, csvField, guardFormula, type CsvField } from './present/csv';
