@@ -1,6 +1,9 @@
 /** The output formats of `boltzmark report`: a table for people, JSON (the contract), CSV and Markdown. */
 import {
   csvText,
+  markdownCode,
+  markdownText,
+  terminalText,
   measurementShort,
   betaText,
   enhancementText,
@@ -14,16 +17,19 @@ import {
 /** A block with its report entry, for the formatters. */
 export interface Row {
   readonly entry: ReportEntry;
-  readonly block: BlockReport;
+  /** Null for a file that could not be read (its entry says why). */
+  readonly block: BlockReport | null;
 }
 
 /** Human table: file:line, id, status, T, β, P, P_th, ε; then each problem on its own line. */
 export function formatTable(rows: readonly Row[]): string {
   if (rows.length === 0) return 'No levels blocks found.\n';
   const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
-  const body = tableCells(rows);
+  // Note text (file names, ids, messages quoting the note) without control characters: no escape sequences.
+  const body = tableCells(rows).map((r) => r.map(terminalText));
   const width = (s: string): number => [...s].length;
-  const widths = head.map((h, i) => Math.max(width(h), ...body.map((r) => width(r[i]))));
+  // A loop, not Math.max(...cells): a report of a few hundred thousand blocks would overflow the stack.
+  const widths = head.map((h, i) => body.reduce((w, r) => Math.max(w, width(r[i]!)), width(h)));
   const line = (cells: string[]): string =>
     cells
       .map((c, i) => c + ' '.repeat(widths[i] - width(c)))
@@ -33,7 +39,7 @@ export function formatTable(rows: readonly Row[]): string {
   rows.forEach(({ entry }, i) => {
     out.push(line(body[i]));
     for (const d of entry.diagnostics)
-      out.push(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
+      out.push(terminalText(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`));
   });
   return out.join('\n') + '\n';
 }
@@ -91,30 +97,29 @@ export function formatCsv(rows: readonly Row[]): string {
   ]);
 }
 
-/** Escapes text for a Markdown table cell (pipes, backslashes, HTML, line breaks). */
-function mdCell(s: string): string {
-  return s
-    .replace(/\\/g, '\\\\')
-    .replace(/\|/g, '\\|')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/[\r\n]+/g, ' ');
-}
-
-/** A Markdown results table, to paste into a summary note. */
+/**
+ * A Markdown results table, to paste into a summary note. The cells that come
+ * from the note (the file name and the block id) are literal text: the file
+ * and line in a code span that no backtick in the name can close, the id with
+ * every Markdown character escaped. The other cells are Boltzmark's own
+ * numbers and words.
+ */
 export function formatMarkdown(rows: readonly Row[]): string {
   if (rows.length === 0) return '_No levels blocks found._\n';
   const head = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
-  const cells = tableCells(rows);
   const out = [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`];
-  for (const c of cells) out.push(`| \`${mdCell(c[0])}\` | ${c.slice(1).map(mdCell).join(' | ')} |`);
+  tableCells(rows).forEach((c, i) => {
+    const e = rows[i]!.entry;
+    const id = e.id === null ? c[1] : markdownText(e.id);
+    out.push(`| ${markdownCode(`${e.file}:${e.line}`)} | ${id} | ${c.slice(2).join(' | ')} |`);
+  });
   return out.join('\n') + '\n';
 }
 
 /** The cells of one row per block: where, id, status, T, β, P, P_th, ε, and the other results. */
 function tableCells(rows: readonly Row[]): string[][] {
   return rows.map(({ entry: e, block: b }) => {
-    const r = b.results;
+    const r = b?.results ?? null;
     return [
       `${e.file}:${e.line}`,
       e.id ?? '—',

@@ -18,7 +18,14 @@ export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input
 export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
-export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
+export {
+  notUtf8Diagnostic,
+  reportEntry,
+  unreadableEntry,
+  type ReportEntry,
+  type ReportDiagnostic,
+} from './present/report';
+export { decodeUtf8, type DecodedText, type InvalidUtf8 } from './text/utf8';
 export {
   DEFAULT_DISPLAY,
   STATUS_WORDS,
@@ -107,3 +114,4 @@ export { resultsHtml, type PreviewBlock } from './present/preview/resultsHtml';
 export { sparklineSvg, escapeText, escapeAttr, type SparkPoint } from './present/preview/sparkline';
 export { RunLog, runLogCsv, type RunEntry, type RunGroup } from './present/runLog';
 export { csvText, csvField, guardFormula, type CsvField } from './present/csv';
+export { markdownCode, markdownText, terminalText } from './present/literal';
