@@ -41,7 +41,8 @@ function linesBlock(
 
 describe('emission lines: the Boltzmann plot', () => {
   it('recovers 10 000 K and 5 000 K from the published relative Balmer intensities', () => {
-    // Relative intensities (energy units, Hα = 1) derived in ../shared/domain.md §8c from the NIST ASD data above:
+    // Relative intensities (energy units, Hα = 1) derived from the NIST ASD data above (Kramida et al.) with the
+    // Boltzmann-plot relation (J. A. Aguilera, C. Aragón, Spectrochim. Acta B 63, 893 (2008)):
     // I ∝ g A/λ · exp(−E_k/kT).
     for (const [T, rel] of [
       [10000, [1, 0.21276108, 0.078459387, 0.03791632]],
@@ -53,7 +54,8 @@ describe('emission lines: the Boltzmann plot', () => {
     }
   });
 
-  it('recovers 10 000 K from nine Ar I lines (ASD data, intensities of ../shared/domain.md §8c)', () => {
+  it('recovers 10 000 K from nine Ar I lines (NIST ASD data, intensities derived at 10 000 K)', () => {
+    // Intensities derived from the ASD rows of ARGON by I ∝ g A/λ · exp(−E_k/kT) at T = 10 000 K.
     const rel = [1, 0.50419777, 0.2972004, 0.19934234, 0.19398811, 0.14872981, 0.15546566, 0.072272388, 0.13180352];
     const r = block(linesBlock(ARGON, rel)).report;
     close(r.results!.temperature!.value, 10000, 1e-5, 'T_exc (Ar I)');
@@ -95,7 +97,8 @@ describe('signal against a thermal reference', () => {
     `system: 13C\nfield: 9.4 T\nlattice: 298.15 K\nsignal:\n  hyperpolarized: 50\n  thermal: 1\n  scans: { hyperpolarized: 1, thermal: 16 }\n  flip: { hyperpolarized: ${hpFlip}, thermal: 90 deg }`;
 
   it('reproduces the worked example: ratio 50, 16 reference scans, equal gains → ε = 800', () => {
-    // ../shared/domain.md §9 (common practice, no source; derived with IUPAC 2001 γ(13C) and exact h, k):
+    // The reference-signal formula is common practice, no source; values derived with IUPAC 2001 γ(13C)
+    // (Harris et al., Pure Appl. Chem. 73, 1795 (2001)) and the exact h, k of the SI:
     // P_th(13C, 9.4 T, 298.15 K) = 8.101403e-6; ε = 50 × 16 = 800; P_hp = 6.4811224e-3.
     const r = block(ref('90 deg')).report;
     close(r.results!.polarization!.value, 6.4811224e-3, 1e-6, 'P_hp');
@@ -104,7 +107,7 @@ describe('signal against a thermal reference', () => {
   });
 
   it('corrects for a 10 deg hyperpolarized readout: factor 50 × 16 / sin 10° = 4607.01639', () => {
-    // ../shared/domain.md §9 (derived): P_hp = 0.037323296.
+    // Derived: P_hp = P_th × 4607.01639 = 8.101403e-6 × 4607.01639 = 0.037323296.
     const r = block(ref('10 deg')).report;
     close(r.results!.polarization!.value, 0.037323296, 1e-6, 'P_hp at 10°');
     close(r.results!.enhancement!, 4607.01639, 1e-8, 'ε at 10°');
@@ -147,7 +150,7 @@ describe('time series', () => {
     const body = `series:\n  model: decay\n  time: [${times.map((t) => `${t} s`).join(', ')}]\n  signal: [${s.join(', ')}]\n  flip: 5 deg`;
     const r = block(body).report;
     close(r.results!.series!.timeConstant.value, T1, 1e-8, 'T₁');
-    // The readout factor of the 10th point: cos⁹ 5° = 0.966268972 (../shared/domain.md §9, derived).
+    // The readout factor of the 10th point: cos⁹ 5° = 0.966268972 (arithmetic; the correction is von Witte et al.'s).
     const fit = fitDecay(times, s, theta, null)!;
     close(fit.fitted[9] / (2.0 * Math.exp(-times[9] / T1)), 0.966268972, 1e-9, 'cos^(n−1) θ at n = 10');
     // Without the correction the readout losses pass for faster relaxation: an apparent rate
@@ -190,7 +193,8 @@ describe('gain of an optical transition', () => {
   it('gives g₀, single-pass gain and the threshold for Nd:YAG-like numbers', () => {
     // σ = 2.8e-19 cm² (Nd:YAG 1064 nm effective cross-section, W. Koechner, Solid-State Laser Engineering,
     // 6th ed. — value from memory); ΔN = 1e17 cm⁻³ → g₀ = 0.028 cm⁻¹; L = 10 cm, R = 1 and 0.9, α = 0 →
-    // g_th = 5.2680258e-3 cm⁻¹ (../shared/domain.md §10, derived; threshold relation from Saleh & Teich).
+    // g_th = α + ln(1/(R₁R₂))/(2L) = 5.2680258e-3 cm⁻¹ (derived; threshold relation from B. E. A. Saleh,
+    // M. C. Teich, Fundamentals of Photonics, 2nd ed., Wiley 2007).
     const r = block(
       'gap: 1064 nm\npopulations: [0 cm-3, 1e17 cm-3]\ncross-section: 2.8e-19 cm2\nlength: 10 cm\nmirrors: [1, 0.9]',
     ).report;
