@@ -5,7 +5,7 @@
  * errors and our bounds come back as problems.
  */
 import {
-  Document,
+  type Document,
   isAlias as isYamlAlias,
   isMap as isYamlMap,
   isPair,
