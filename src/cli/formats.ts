@@ -1,5 +1,9 @@
 /** The output formats of `boltzmark report`: a table for people, JSON (the contract), CSV and Markdown. */
 import {
+  csvText,
+  markdownCode,
+  markdownText,
+  terminalText,
   measurementShort,
   betaText,
   enhancementText,
@@ -16,15 +20,19 @@ import {
 /** A block with its report entry, for the formatters. */
 export interface Row {
   readonly entry: ReportEntry;
-  readonly block: BlockReport;
+  /** Null for a file that could not be read (its entry says why). */
+  readonly block: BlockReport | null;
 }
 
 /** Human table: file:line, id, status, T, β, P, P_th, ε; then each problem on its own line. */
 export function formatTable(rows: readonly Row[]): string {
   if (rows.length === 0) return 'No levels blocks found.\n';
-  const [head, body] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows));
+  const [head, cells] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows));
+  // Note text (file names, ids, messages quoting the note) without control characters: no escape sequences.
+  const body = cells.map((r) => r.map(terminalText));
   const width = (s: string): number => [...s].length;
-  const widths = head.map((h, i) => Math.max(width(h), ...body.map((r) => width(r[i]))));
+  // A loop, not Math.max(...cells): a report of a few hundred thousand blocks would overflow the stack.
+  const widths = head.map((h, i) => body.reduce((w, r) => Math.max(w, width(r[i]!)), width(h)));
   const line = (cells: string[]): string =>
     cells
       .map((c, i) => c + ' '.repeat(widths[i] - width(c)))
@@ -34,7 +42,7 @@ export function formatTable(rows: readonly Row[]): string {
   rows.forEach(({ entry }, i) => {
     out.push(line(body[i]));
     for (const d of entry.diagnostics)
-      out.push(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
+      out.push(terminalText(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`));
   });
   return out.join('\n') + '\n';
 }
@@ -74,63 +82,54 @@ const CSV_HEAD = [
   'polarization_high_95',
 ];
 
-function csvCell(v: string | number | null): string {
-  if (v === null) return '';
-  const s = String(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** CSV (RFC 4180) with full-precision numbers and empty cells for unknowns. */
+/** CSV through the core's writer (RFC 4180, formula-guarded), full-precision numbers, empty cells for unknowns. */
 export function formatCsv(rows: readonly Row[]): string {
-  const lines = [CSV_HEAD.join(',')];
-  for (const { entry: e } of rows) {
-    lines.push(
-      [
-        e.file,
-        e.line,
-        e.id,
-        e.status,
-        e.beta?.value ?? null,
-        e.beta?.uncertainty ?? null,
-        e.temperature?.value ?? null,
-        e.temperature?.uncertainty ?? null,
-        e.polarization?.value ?? null,
-        e.polarization?.uncertainty ?? null,
-        e.thermalPolarization,
-        e.enhancement,
-        e.entropy,
-        e.diagnostics.filter((d) => d.severity === 'error').length,
-        e.diagnostics.filter((d) => d.severity === 'warning').length,
-        e.beta?.interval?.[0] ?? null,
-        e.beta?.interval?.[1] ?? null,
-        e.temperature?.interval?.[0] ?? null,
-        e.temperature?.interval?.[1] ?? null,
-        e.polarization?.interval?.[0] ?? null,
-        e.polarization?.interval?.[1] ?? null,
-      ]
-        .map(csvCell)
-        .join(','),
-    );
-  }
-  return lines.join('\r\n') + '\r\n';
+  return csvText([
+    CSV_HEAD,
+    ...rows.map(({ entry: e }) => [
+      e.file,
+      e.line,
+      e.id,
+      e.status,
+      e.beta?.value ?? null,
+      e.beta?.uncertainty ?? null,
+      e.temperature?.value ?? null,
+      e.temperature?.uncertainty ?? null,
+      e.polarization?.value ?? null,
+      e.polarization?.uncertainty ?? null,
+      e.thermalPolarization,
+      e.enhancement,
+      e.entropy,
+      e.diagnostics.filter((d) => d.severity === 'error').length,
+      e.diagnostics.filter((d) => d.severity === 'warning').length,
+      e.beta?.interval?.[0] ?? null,
+      e.beta?.interval?.[1] ?? null,
+      e.temperature?.interval?.[0] ?? null,
+      e.temperature?.interval?.[1] ?? null,
+      e.polarization?.interval?.[0] ?? null,
+      e.polarization?.interval?.[1] ?? null,
+    ]),
+  ]);
 }
 
-/** Escapes text for a Markdown table cell (pipes, backslashes, HTML, line breaks). */
-function mdCell(s: string): string {
-  return s
-    .replace(/\\/g, '\\\\')
-    .replace(/\|/g, '\\|')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/[\r\n]+/g, ' ');
-}
-
-/** A Markdown results table, to paste into a summary note. */
+/**
+ * A Markdown results table, to paste into a summary note. The cells that come
+ * from the note (the file name and the block id) are literal text: the file
+ * and line in a code span that no backtick in the name can close, the id with
+ * every Markdown character escaped. The other cells are Boltzmark's own
+ * numbers and words.
+ */
 export function formatMarkdown(rows: readonly Row[]): string {
   if (rows.length === 0) return '_No levels blocks found._\n';
   const [head, cells] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows));
   const out = [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`];
-  for (const c of cells) out.push(`| \`${mdCell(c[0])}\` | ${c.slice(1).map(mdCell).join(' | ')} |`);
+  cells.forEach((c, i) => {
+    const e = rows[i]!.entry;
+    const id = e.id === null ? c[1]! : markdownText(e.id);
+    // The numbers are Boltzmark's own, but `|T| ≥ …` holds the table's cell separator.
+    const rest = c.slice(2).map((x) => x.replace(/\|/g, '\\|'));
+    out.push(`| ${markdownCode(`${e.file}:${e.line}`)} | ${id} | ${rest.join(' | ')} |`);
+  });
   return out.join('\n') + '\n';
 }
 
@@ -150,14 +149,16 @@ function withoutEmptyColumns(head: readonly string[], body: readonly string[][])
 /** The per-line plot data of every block of lines as CSV (one row per line; formula-like text guarded). */
 export function formatLinePoints(rows: readonly Row[]): string {
   return linesCsv(
-    rows.map(({ entry, block }) => ({ file: entry.file, line: entry.line, id: entry.id, results: block.results })),
+    rows.flatMap(({ entry, block }) =>
+      block ? [{ file: entry.file, line: entry.line, id: entry.id, results: block.results }] : [],
+    ),
   );
 }
 
 /** The cells of one row per block: where, id, status, T, β, P, P_th, ε, and the other results. */
 function tableCells(rows: readonly Row[]): string[][] {
   return rows.map(({ entry: e, block: b }) => {
-    const r = b.results;
+    const r = b?.results ?? null;
     return [
       `${e.file}:${e.line}`,
       e.id ?? '—',

@@ -173,6 +173,15 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     severity: 'warning',
     summary: 'The note is larger than the editor reads as you type; later blocks get no results there.',
   },
+  // The file (command line)
+  'file-unreadable': {
+    severity: 'error',
+    summary: 'The command line could not read the file (missing, not permitted, a broken link, not a regular file).',
+  },
+  'text-encoding-invalid': {
+    severity: 'warning',
+    summary: 'Bytes of the block are not UTF-8; each bad sequence is read as U+FFFD.',
+  },
 };
 
 /** The section of docs/format.md that explains a code. */

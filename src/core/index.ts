@@ -18,7 +18,15 @@ export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export { LineIndex, type LineCol } from './text/lineIndex';
-export { reportEntry, type IntervalMeasured, type ReportEntry, type ReportDiagnostic } from './present/report';
+export {
+  notUtf8Diagnostic,
+  reportEntry,
+  unreadableEntry,
+  type IntervalMeasured,
+  type ReportEntry,
+  type ReportDiagnostic,
+} from './present/report';
+export { decodeUtf8, type DecodedText, type InvalidUtf8 } from './text/utf8';
 export {
   DEFAULT_DISPLAY,
   STATUS_WORDS,
@@ -124,3 +132,5 @@ export { LINE_KEYS, SIGNAL_KEYS, SERIES_KEYS } from './block/schema';
 export { resultsHtml, type PreviewBlock } from './present/preview/resultsHtml';
 export { sparklineSvg, escapeText, escapeAttr, type SparkPoint } from './present/preview/sparkline';
 export { RunLog, runLogCsv, type RunEntry, type RunGroup } from './present/runLog';
+export { csvText, csvField, guardFormula, type CsvField } from './present/csv';
+export { markdownCode, markdownText, terminalText } from './present/literal';

@@ -65,7 +65,8 @@ describe('Markdown preview of levels blocks', () => {
 
   it('puts the measured dot on the curve for a thermal two-level block, at the right height', () => {
     // p_upper = 1/(1 + e^x) at x = ε/kT = 1 gives S/(Nk) = 0.5822031089, the curve's value there
-    // (../shared/domain.md §7; canonical two-state system, Schroeder 2000).
+    // (canonical two-state system: S/(Nk) = ln(1 + e^−x) + x/(1 + e^x), D. V. Schroeder, An Introduction to Thermal
+    // Physics, Addison Wesley Longman 2000, §2.1 and Problem 3.23; the value derived from it).
     const html = render(`\`\`\`levels\ngap: 1 K\nratio: ${Math.exp(-1)}\n\`\`\`\n`);
     const circle = /<circle cx="([\d.]+)" cy="([\d.]+)"/.exec(html)!;
     const cy = Number(circle[2]);

@@ -255,7 +255,9 @@ function spanWarning(input: BlockInput, beta: Measured | null, problems: Problem
   const lines = input.lines;
   if (!lines || !beta || !(beta.value > 0)) return;
   const energies = input.levels.map((l) => l.energy);
-  const span = Math.max(...energies) - Math.min(...energies);
+  // Loops, not spreads: a ladder of a few hundred thousand levels would overflow the stack.
+  const span =
+    energies.reduce((m, x) => Math.max(m, x), -Infinity) - energies.reduce((m, x) => Math.min(m, x), Infinity);
   const kT = 1 / beta.value;
   if (!(span < kT)) return;
   const first = lines.lines[0]!.span;

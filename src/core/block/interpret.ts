@@ -61,7 +61,8 @@ export function interpretBody(body: string): Interpretation {
     return { meta: emptyMeta, input: null, problems };
   }
   const parsed = parseBody(body);
-  problems.push(...parsed.problems);
+  // One by one: a spread of a few hundred thousand problems (repeated keys) would overflow the stack.
+  for (const p of parsed.problems) problems.push(p);
   const doc = parsed.doc;
   if (!doc) return { meta: emptyMeta, input: null, problems };
   if (!isMap(doc.contents)) {

@@ -56,9 +56,12 @@ export function chooseUnits(
   const units = [...new Set(siblings.map((s) => s.unit))];
   if (units.length === 0) units.push(...fallback);
   const mags = siblings.map((s) => Math.abs(s.canonical)).filter((m) => m > 0);
-  const lo = mags.length ? Math.min(...mags) / range.spread : range.low;
-  const hi = mags.length ? Math.max(...mags) * range.spread : range.high;
-  const middle = mags.length ? Math.sqrt(Math.min(...mags) * Math.max(...mags)) : Math.sqrt(range.low * range.high);
+  // Loops, not spreads: a list of a few hundred thousand siblings would overflow the stack.
+  const least = mags.reduce((m, x) => Math.min(m, x), Infinity);
+  const most = mags.reduce((m, x) => Math.max(m, x), -Infinity);
+  const lo = mags.length ? least / range.spread : range.low;
+  const hi = mags.length ? most * range.spread : range.high;
+  const middle = mags.length ? Math.sqrt(least * most) : Math.sqrt(range.low * range.high);
   const scored: { unit: string; canonical: number; score: number; ok: boolean }[] = [];
   for (const unit of units) {
     const q = parseQuantity(`${value} ${unit}`);

@@ -224,3 +224,50 @@ function uncertaintyEntry(
     singlePassGainDb: finite(r?.gain?.singlePassDb),
   };
 }
+
+/**
+ * The entry of a file the command line could not read: it stands where the
+ * file's blocks would, so no result is silently missing. `line` is 1, every
+ * quantity null, the status `invalid`, and one `file-unreadable` error says
+ * why (the reason is the host's: the core reads no files).
+ */
+export function unreadableEntry(file: string, reason: string): ReportEntry {
+  return {
+    file,
+    line: 1,
+    id: null,
+    status: 'invalid',
+    beta: null,
+    temperature: null,
+    polarization: null,
+    thermalPolarization: null,
+    enhancement: null,
+    entropy: null,
+    diagnostics: [{ severity: 'error', code: 'file-unreadable', message: reason, line: 1, column: 1 }],
+    timeConstant: null,
+    gainCoefficient: null,
+    singlePassGain: null,
+    aboveThreshold: null,
+    form: null,
+    fit: null,
+    invertedPairs: [],
+    ...uncertaintyEntry(null),
+    ...tradeEntry(null),
+  };
+}
+
+/**
+ * The warning for a byte sequence that is not UTF-8, at its place in the note
+ * (where its U+FFFD now stands), naming the byte offset in the file.
+ */
+export function notUtf8Diagnostic(byte: number, offset: number, count: number, lines: LineIndex): ReportDiagnostic {
+  const pos = lines.positionAt(offset);
+  const more = count > 1 ? ` (and ${count - 1} more in this block)` : '';
+  return {
+    severity: 'warning',
+    code: 'text-encoding-invalid',
+    message: `The bytes at offset ${byte} of the file are not UTF-8${more}; each bad sequence is read as U+FFFD. Save the note as UTF-8.`,
+    line: pos.line + 1,
+    column: pos.character + 1,
+  };
+}

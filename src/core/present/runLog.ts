@@ -6,6 +6,7 @@
  */
 import { Analyzer } from '../analyzer/analyzer';
 import type { Measured, Status } from '../types';
+import { csvText } from './csv';
 
 /** One run: a block of a note. */
 export interface RunEntry {
@@ -116,41 +117,28 @@ const CSV_HEAD = [
   'polarization_high_95',
 ];
 
-function cell(v: string | number | null): string {
-  if (v === null) return '';
-  const s = String(v);
-  // A leading =, +, - or @ would make spreadsheets evaluate the cell; quote such text.
-  const safe = typeof v === 'string' && /^[=+\-@]/.test(s) ? `'${s}` : s;
-  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-}
-
-/** The run log as CSV (RFC 4180), 1-based lines, full-precision numbers. */
+/** The run log as CSV (RFC 4180, formula-guarded: `csv.ts`), 1-based lines, full-precision numbers. */
 export function runLogCsv(entries: readonly RunEntry[]): string {
-  const rows = [CSV_HEAD.join(',')];
-  for (const e of entries) {
-    rows.push(
-      [
-        e.name,
-        e.line + 1,
-        e.id,
-        e.date,
-        e.status,
-        e.temperature?.value ?? null,
-        e.temperature?.uncertainty ?? null,
-        e.beta?.value ?? null,
-        e.beta?.uncertainty ?? null,
-        e.polarization?.value ?? null,
-        e.polarization?.uncertainty ?? null,
-        e.temperatureInterval?.[0] ?? null,
-        e.temperatureInterval?.[1] ?? null,
-        e.betaInterval?.[0] ?? null,
-        e.betaInterval?.[1] ?? null,
-        e.polarizationInterval?.[0] ?? null,
-        e.polarizationInterval?.[1] ?? null,
-      ]
-        .map(cell)
-        .join(','),
-    );
-  }
-  return rows.join('\r\n') + '\r\n';
+  return csvText([
+    CSV_HEAD,
+    ...entries.map((e) => [
+      e.name,
+      e.line + 1,
+      e.id,
+      e.date,
+      e.status,
+      e.temperature?.value ?? null,
+      e.temperature?.uncertainty ?? null,
+      e.beta?.value ?? null,
+      e.beta?.uncertainty ?? null,
+      e.polarization?.value ?? null,
+      e.polarization?.uncertainty ?? null,
+      e.temperatureInterval?.[0] ?? null,
+      e.temperatureInterval?.[1] ?? null,
+      e.betaInterval?.[0] ?? null,
+      e.betaInterval?.[1] ?? null,
+      e.polarizationInterval?.[0] ?? null,
+      e.polarizationInterval?.[1] ?? null,
+    ]),
+  ]);
 }

@@ -111,7 +111,8 @@ function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>, o
     const critical = fit.critical !== null ? `; 1 % critical value ${formatNumber(fit.critical, 3)}` : '';
     return `Boltzmann fit weighted by ${weights}: χ²/dof = ${formatNumber(fit.chi2, 3)}/${fit.dof}${critical}: ${verdict}.`;
   }
-  const worst = Math.max(0, ...fit.residuals.map((x) => (x === null ? 0 : Math.abs(x))));
+  // A loop, not a spread: a series of a few hundred thousand points would overflow the stack.
+  const worst = fit.residuals.reduce<number>((w, x) => (x === null ? w : Math.max(w, Math.abs(x))), 0);
   return `Boltzmann fit without uncertainties (residual rule): largest \\|Δ ${quantity}\\| = ${formatNumber(worst, 3)}, limit ln 1.05 = ${formatNumber(RESIDUAL_TOLERANCE, 3)}: ${verdict}.`;
 }
 
