@@ -4,7 +4,8 @@
  * cache re-analyses only the blocks that changed). Pure data; the editor's
  * tree view and the CSV export are hosts of it.
  */
-import { Analyzer } from '../analyzer/analyzer';
+import { Analyzer, type BlockReport } from '../analyzer/analyzer';
+import { isNotebookPath, notebookCells } from '../text/jupyter';
 import type { Measured, Status } from '../types';
 
 /** One run: a block of a note. */
@@ -13,8 +14,10 @@ export interface RunEntry {
   readonly uri: string;
   /** A short name of the note for display (e.g. its workspace-relative path). */
   readonly name: string;
-  /** 0-based line of the opening fence. */
+  /** 0-based line of the opening fence (in its cell, for a notebook). */
   readonly line: number;
+  /** 0-based index of the notebook cell that holds the block (among all cells), or null in a Markdown note. */
+  readonly cell: number | null;
   readonly id: string | null;
   readonly date: string | null;
   readonly status: Status;
@@ -35,19 +38,26 @@ export class RunLog {
 
   constructor(private readonly analyzer: Analyzer = new Analyzer()) {}
 
-  /** Reads (or re-reads) one note; returns true when its runs changed. */
+  /**
+   * Reads (or re-reads) one note; returns true when its runs changed. A URI ending in `.ipynb` is read as a
+   * Jupyter notebook: each Markdown cell is a note of its own (a file that is not a notebook has no runs).
+   */
   update(uri: string, name: string, text: string): boolean {
-    const entries: RunEntry[] = this.analyzer.analyzeText(text).blocks.map((b) => ({
+    const entry = (b: BlockReport, cell: number | null): RunEntry => ({
       uri,
       name,
       line: b.block.openLine,
+      cell,
       id: b.meta.id,
       date: b.meta.date,
       status: b.status,
       temperature: b.results?.temperature ?? null,
       beta: b.results?.beta ?? null,
       polarization: b.results?.polarization ?? null,
-    }));
+    });
+    const entries: RunEntry[] = isNotebookPath(uri)
+      ? notebookCells(text).cells.flatMap((c) => this.analyzer.analyzeText(c.text).blocks.map((b) => entry(b, c.index)))
+      : this.analyzer.analyzeText(text).blocks.map((b) => entry(b, null));
     const before = this.notes.get(uri);
     if (before && JSON.stringify(before) === JSON.stringify(entries)) return false;
     if (entries.length === 0 && !before) return false;
@@ -69,7 +79,9 @@ export class RunLog {
   /** All runs (optionally only some statuses), by note name then line. */
   entries(statuses: readonly Status[] | null = null): RunEntry[] {
     const all = [...this.notes.values()].flat().filter((e) => !statuses || statuses.includes(e.status));
-    return all.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : a.line - b.line));
+    return all.sort((a, b) =>
+      a.name < b.name ? -1 : a.name > b.name ? 1 : (a.cell ?? 0) - (b.cell ?? 0) || a.line - b.line,
+    );
   }
 
   /** Runs grouped by note, or by `date` (runs without a date last, under "no date"). */
@@ -98,6 +110,7 @@ const CSV_HEAD = [
   'beta_uncertainty_per_K',
   'polarization',
   'polarization_uncertainty',
+  'cell',
 ];
 
 function cell(v: string | number | null): string {
@@ -108,7 +121,7 @@ function cell(v: string | number | null): string {
   return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
 }
 
-/** The run log as CSV (RFC 4180), 1-based lines, full-precision numbers. */
+/** The run log as CSV (RFC 4180), 1-based lines (and notebook cells), full-precision numbers. */
 export function runLogCsv(entries: readonly RunEntry[]): string {
   const rows = [CSV_HEAD.join(',')];
   for (const e of entries) {
@@ -125,6 +138,7 @@ export function runLogCsv(entries: readonly RunEntry[]): string {
         e.beta?.uncertainty ?? null,
         e.polarization?.value ?? null,
         e.polarization?.uncertainty ?? null,
+        e.cell === null ? null : e.cell + 1,
       ]
         .map(cell)
         .join(','),
