@@ -17,7 +17,13 @@ export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
-export { isNotebookPath, notebookCells, type NotebookCell, type NotebookCells, type NotebookProblem } from './text/jupyter';
+export {
+  isNotebookPath,
+  notebookCells,
+  type NotebookCell,
+  type NotebookCells,
+  type NotebookProblem,
+} from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
 export {
