@@ -55,7 +55,8 @@ function cellList(doc: unknown): readonly unknown[] | null {
   // nbformat 3 keeps the cells in worksheets.
   if (Array.isArray(doc.worksheets)) {
     const all: unknown[] = [];
-    for (const w of doc.worksheets as unknown[]) if (isRecord(w) && Array.isArray(w.cells)) all.push(...w.cells);
+    for (const w of doc.worksheets as unknown[])
+      if (isRecord(w) && Array.isArray(w.cells)) all.push(...(w.cells as unknown[]));
     return all;
   }
   return null;
