@@ -22,7 +22,10 @@ export interface BoltzmarkApi {
 }
 
 /** Makes the host's language client (over IPC on the desktop, a web worker in the browser). */
-export type ClientFactory = (options: LanguageClientOptions, context: vscode.ExtensionContext) => BaseLanguageClient;
+export type ClientFactory = (
+  options: LanguageClientOptions,
+  context: vscode.ExtensionContext,
+) => BaseLanguageClient | Promise<BaseLanguageClient>;
 
 let client: BaseLanguageClient | undefined;
 
@@ -46,7 +49,7 @@ export async function activateWith(context: vscode.ExtensionContext, makeClient:
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
   context.subscriptions.push(log);
   try {
-    client = makeClient(clientOptions(log), context);
+    client = await makeClient(clientOptions(log), context);
     registerCommands(context, () => client, log);
     context.subscriptions.push(
       followCursor(),
@@ -59,6 +62,7 @@ export async function activateWith(context: vscode.ExtensionContext, makeClient:
   } catch (err) {
     const message = `Boltzmark could not start its language server: ${(err as Error).message}`;
     log.error(message);
+    if (err instanceof Error && err.stack) log.debug(err.stack);
     void vscode.window.showErrorMessage(message, 'Show log').then((pick) => pick && log.show());
   }
   return api;

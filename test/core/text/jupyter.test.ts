@@ -4,7 +4,7 @@ import { Analyzer, isNotebookPath, notebookCells, RunLog } from '../../../src/co
 
 // The notebook format: Jupyter's nbformat 4 (cells with `cell_type` and `source`, a string or a list of lines
 // with their line ends) and nbformat 3 (cells inside `worksheets`), as the nbformat documentation describes them.
-const nb = (cells: object[]): string => JSON.stringify({ cells, metadata: {}, nbformat: 4, nbformat_minor: 5 });
+const nb = (cells: unknown[]): string => JSON.stringify({ cells, metadata: {}, nbformat: 4, nbformat_minor: 5 });
 const BLOCK = ['```levels\n', 'id: nb run\n', 'gap: 100 GHz\n', 'ratio: 0.9\n', '```\n'];
 
 describe('Jupyter notebooks', () => {
