@@ -48,6 +48,9 @@ const REQUIRED = [
   'dist/extension.js',
   'dist/noteReader.js',
   'dist/server.js',
+  'dist/web/extension.js',
+  'dist/web/server.js',
+  'dist/cellRenderer.js',
   'docs/format.md',
   'media/icon.png',
 ];

@@ -7,7 +7,7 @@
  * the client library itself (it looks up `<id>.trace.server`).
  */
 import type { LogOutputChannel } from 'vscode';
-import type { LanguageClientOptions } from 'vscode-languageclient/node';
+import type { LanguageClientOptions } from 'vscode-languageclient';
 
 /** The client's id: names the `boltzmark.trace.server` setting and the server's log. */
 export const CLIENT_ID = 'boltzmark';
@@ -15,7 +15,8 @@ export const CLIENT_ID = 'boltzmark';
 /** Options of the language client. */
 export function clientOptions(log: LogOutputChannel): LanguageClientOptions {
   return {
-    // Every scheme: the server reads only the text it is sent, so virtual and untitled notes work too.
+    // Markdown of every scheme: notes on disk, untitled and virtual ones, and the Markdown cells of notebooks
+    // (`vscode-notebook-cell:` documents), which the server reads like notes of their own.
     documentSelector: [{ language: 'markdown' }],
     outputChannel: log,
   };

@@ -4,7 +4,7 @@
  * bar); "Copy results" puts the block's results table on the clipboard.
  */
 import * as vscode from 'vscode';
-import type { LanguageClient } from 'vscode-languageclient/node';
+import type { BaseLanguageClient as LanguageClient } from 'vscode-languageclient';
 import { ResultsMarkdownRequest } from '../shared/protocol';
 import { background } from './background';
 import { CurveView } from './curveView';
@@ -57,7 +57,12 @@ export function registerCommands(
     }),
     vscode.commands.registerCommand('boltzmark.restartServer', async () => {
       log.info('restarting the language server');
-      await getClient()?.restart();
+      // Stop and start: the same on both kinds of client (the Node client's restart() is this too).
+      const client = getClient();
+      if (client) {
+        await client.stop();
+        await client.start();
+      }
     }),
   );
 }

@@ -7,7 +7,7 @@
  * older version of the note than the editor's is asked for again.
  */
 import * as vscode from 'vscode';
-import type { LanguageClient } from 'vscode-languageclient/node';
+import type { BaseLanguageClient as LanguageClient } from 'vscode-languageclient';
 import {
   isViewState,
   isViewToHost,

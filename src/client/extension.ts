@@ -1,121 +1,27 @@
 /**
- * The VS Code extension: starts the language server for Markdown notes and
- * registers the commands. It never changes a note itself; edits reach a note
- * only as quick fixes the user picks.
+ * The desktop entry point (`main` in package.json): the language server runs
+ * as a Node.js process beside the extension host, over IPC.
  */
-import * as vscode from 'vscode';
+import type * as vscode from 'vscode';
 import { LanguageClient, TransportKind, type ServerOptions } from 'vscode-languageclient/node';
-import type MarkdownIt from 'markdown-it';
-import { background } from './background';
-import { BLOCKS_KEY_DELAY_MS, BlocksKey, NOTE_HAS_BLOCKS } from './blocksKey';
-import { CLIENT_ID, clientOptions } from './clientOptions';
-import { registerCommands } from './commands';
-import { displayOptions } from './display';
-import { followCursor } from './curveFollow';
-import { registerCurveSerializer } from './curveSerializer';
-import { noteReader } from './loadNoteReader';
-import { registerRunLog } from './runLogView';
+import { activateWith, deactivateClient, type BoltzmarkApi } from './activate';
+import { CLIENT_ID } from './clientOptions';
 
-let client: LanguageClient | undefined;
-
-/** What the extension gives VS Code's Markdown preview. */
-export interface BoltzmarkApi {
-  extendMarkdownIt(md: MarkdownIt): MarkdownIt;
-}
+export type { BoltzmarkApi } from './activate';
 
 /** Activates on the first Markdown document (or one of the commands or views). */
-export async function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
-  const api: BoltzmarkApi = {
-    extendMarkdownIt: (md) =>
-      noteReader().levelsPreview(md, {
-        infoStrings: (env) => previewInfoStrings(renderedNote(env)),
-        display: (env) => displayOptions(renderedNote(env)),
-      }),
-  };
-  const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
-  context.subscriptions.push(log, trackBlocksKey(log));
-  try {
-    const module = context.asAbsolutePath('dist/server.js');
+export function activate(context: vscode.ExtensionContext): Promise<BoltzmarkApi> {
+  return activateWith(context, (options, ctx) => {
+    const module = ctx.asAbsolutePath('dist/server.js');
     const serverOptions: ServerOptions = {
       run: { module, transport: TransportKind.ipc },
       debug: { module, transport: TransportKind.ipc, options: { execArgv: ['--nolazy', '--inspect=6009'] } },
     };
-    client = new LanguageClient(CLIENT_ID, 'Boltzmark', serverOptions, clientOptions(log));
-    registerCommands(context, () => client, log);
-    context.subscriptions.push(
-      followCursor(),
-      registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }),
-    );
-    registerRunLog(context, log);
-    await client.start();
-    log.info('Boltzmark language server started');
-  } catch (err) {
-    const message = `Boltzmark could not start its language server: ${(err as Error).message}`;
-    log.error(message);
-    background(
-      log,
-      'showing the start-up error',
-      vscode.window.showErrorMessage(message, 'Show log').then((pick) => pick && log.show()),
-    );
-  }
-  return api;
-}
-
-/** The note VS Code's preview is rendering: markdown-it's `env.currentDocument`, when it is there. */
-function renderedNote(env: unknown): vscode.Uri | undefined {
-  const doc = (env as { currentDocument?: unknown } | null | undefined)?.currentDocument;
-  return doc instanceof vscode.Uri ? doc : undefined;
-}
-
-/** The extra info strings from the settings (of the note's folder, when one is given). */
-function previewInfoStrings(scope?: vscode.Uri): readonly string[] {
-  const value = vscode.workspace.getConfiguration('boltzmark', scope).get<unknown>('blocks.extraInfoStrings', []);
-  return Array.isArray(value) ? value.filter((x): x is string => typeof x === 'string') : [];
-}
-
-/**
- * Keeps `boltzmark.noteHasBlocks` true exactly while the active editor shows
- * a note with a `levels` block: at once when the active editor or the
- * settings change, after a short pause when the active note is edited.
- */
-function trackBlocksKey(log: vscode.LogOutputChannel): vscode.Disposable {
-  const active = (): vscode.TextDocument | undefined => vscode.window.activeTextEditor?.document;
-  const key = new BlocksKey(
-    (value) =>
-      background(
-        log,
-        `setting ${NOTE_HAS_BLOCKS}`,
-        vscode.commands.executeCommand('setContext', NOTE_HAS_BLOCKS, value),
-      ),
-    () => previewInfoStrings(active()?.uri),
-  );
-  let timer: ReturnType<typeof setTimeout> | undefined;
-  const now = (): void => {
-    clearTimeout(timer);
-    key.update(active());
-  };
-  now();
-  const subscriptions = [
-    vscode.window.onDidChangeActiveTextEditor(now),
-    vscode.workspace.onDidChangeConfiguration((e) => e.affectsConfiguration('boltzmark.blocks') && now()),
-    vscode.workspace.onDidChangeTextDocument((e) => {
-      if (e.document !== active()) return;
-      clearTimeout(timer);
-      timer = setTimeout(now, BLOCKS_KEY_DELAY_MS);
-    }),
-  ];
-  return {
-    dispose: () => {
-      clearTimeout(timer);
-      for (const d of subscriptions) d.dispose();
-    },
-  };
+    return new LanguageClient(CLIENT_ID, 'Boltzmark', serverOptions, options);
+  });
 }
 
 /** Stops the language server. */
-export async function deactivate(): Promise<void> {
-  const stopping = client;
-  client = undefined;
-  // A server that already died cannot be stopped; VS Code is shutting the extension down either way.
-  await stopping?.stop().catch(() => undefined);
+export function deactivate(): Promise<void> {
+  return deactivateClient();
 }

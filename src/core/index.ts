@@ -17,6 +17,13 @@ export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
+export {
+  isNotebookPath,
+  notebookCells,
+  type NotebookCell,
+  type NotebookCells,
+  type NotebookProblem,
+} from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export {
   notUtf8Diagnostic,
