@@ -1,6 +1,6 @@
 /**
  * Collects and reads the Markdown notes named on the command line: files as
- * given, folders walked for `*.md` (hidden folders and node_modules skipped)
+ * given, folders walked for `*.md` and `*.ipynb` (hidden folders and node_modules skipped)
  * in a stable order, `-` for one note on standard input. Nothing here throws
  * for a path that cannot be read: it becomes an unreadable note with a reason,
  * reported in place of its blocks, so no other file's results are lost.
@@ -129,7 +129,7 @@ class Collector {
       if (e.name.startsWith('.') || e.name === 'node_modules') continue;
       const childName = join(name, e.name);
       const childPath = join(path, e.name);
-      const isNote = /\.md$/i.test(e.name);
+      const isNote = /\.(md|ipynb)$/i.test(e.name);
       if (e.isDirectory()) {
         if (this.first(childPath)) this.walk(childName, childPath);
       } else if (e.isFile()) {

@@ -42,7 +42,7 @@ export function formatTable(rows: readonly Row[]): string {
   rows.forEach(({ entry }, i) => {
     out.push(line(body[i]));
     for (const d of entry.diagnostics)
-      out.push(terminalText(`    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`));
+      out.push(terminalText(`    ${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code}: ${d.message}`));
   });
   return out.join('\n') + '\n';
 }
@@ -128,7 +128,7 @@ export function formatMarkdown(rows: readonly Row[]): string {
     const id = e.id === null ? c[1]! : markdownText(e.id);
     // The numbers are Boltzmark's own, but `|T| ≥ …` holds the table's cell separator.
     const rest = c.slice(2).map((x) => x.replace(/\|/g, '\\|'));
-    out.push(`| ${markdownCode(`${e.file}:${e.line}`)} | ${id} | ${rest.join(' | ')} |`);
+    out.push(`| ${markdownCode(where(e, e.line))} | ${id} | ${rest.join(' | ')} |`);
   });
   return out.join('\n') + '\n';
 }
@@ -160,7 +160,7 @@ function tableCells(rows: readonly Row[]): string[][] {
   return rows.map(({ entry: e, block: b }) => {
     const r = b?.results ?? null;
     return [
-      `${e.file}:${e.line}`,
+      where(e, e.line),
       e.id ?? '—',
       e.status,
       r && (r.beta || r.limit) ? withoutSymbol(temperatureIntervalText(r)) : '—',
@@ -176,4 +176,12 @@ function tableCells(rows: readonly Row[]): string[][] {
       r ? (measurementShort(r) ?? '') : '',
     ];
   });
+}
+
+/**
+ * Where a line of a note is, as people and CI annotations read it: `file:line`, and for a notebook cell
+ * `file, cell N:line` (the line counted in the cell, as the editor shows it there).
+ */
+export function where(e: Pick<ReportEntry, 'file' | 'cell'>, line: number): string {
+  return e.cell === null ? `${e.file}:${line}` : `${e.file}, cell ${e.cell}:${line}`;
 }

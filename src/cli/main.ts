@@ -9,6 +9,9 @@ import { Command, CommanderError, InvalidArgumentError, Option } from 'commander
 import {
   Analyzer,
   decodeUtf8,
+  isNotebookPath,
+  notebookCells,
+  notebookInvalidEntry,
   LineIndex,
   notUtf8Diagnostic,
   reportEntry,
@@ -20,7 +23,7 @@ import {
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
 import { collectNotes, UsageError } from './files';
-import { formatCsv, formatJson, formatLinePoints, formatMarkdown, formatTable, type Row } from './formats';
+import { formatCsv, formatJson, formatLinePoints, formatMarkdown, formatTable, where, type Row } from './formats';
 
 /** Where the CLI reads and writes; the tests pass their own. */
 export interface Io {
@@ -47,6 +50,16 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
     const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
     const text = bom ? decoded.text.slice(1) : decoded.text;
     const invalid = decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom }));
+    if (isNotebookPath(note.name)) {
+      rows.push(...notebookRows(analyzer, note.name, text));
+      if (invalid.length > 0)
+        io.err(
+          terminalText(
+            `boltzmark: warning: '${note.name}': the bytes at offset ${invalid[0]!.byte} are not UTF-8; they are read as U+FFFD`,
+          ) + '\n',
+        );
+      continue;
+    }
     const lines = new LineIndex(text);
     const blocks = analyzer.analyzeText(text).blocks;
     // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
@@ -82,6 +95,27 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
       );
   }
   return rows;
+}
+
+/**
+ * The rows of a Jupyter notebook: every block of its Markdown cells, each placed by its cell (1-based, among all
+ * cells) and its line in that cell; or, for a file that is not a notebook, one row with the fault.
+ */
+function notebookRows(analyzer: Analyzer, name: string, text: string): Row[] {
+  const nb = notebookCells(text);
+  if (nb.problem)
+    return [
+      {
+        block: null,
+        entry: notebookInvalidEntry(name, nb.problem.message, nb.problem.line + 1, nb.problem.column + 1),
+      },
+    ];
+  return nb.cells.flatMap((c) => {
+    const lines = new LineIndex(c.text);
+    return analyzer
+      .analyzeText(c.text)
+      .blocks.map((block) => ({ block, entry: reportEntry(name, block, lines, c.index + 1) }));
+  });
 }
 
 const hasError = (rows: readonly Row[]): boolean =>
@@ -123,7 +157,7 @@ export function check(paths: readonly string[], io: Io): number {
     for (const d of entry.diagnostics) {
       if (d.severity === 'error') errors++;
       if (d.severity === 'warning') warnings++;
-      io.out(`${terminalText(`${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code} ${d.message}`)}\n`);
+      io.out(`${terminalText(`${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code} ${d.message}`)}\n`);
     }
   }
   io.err(`boltzmark: ${rows.length} block(s) checked, ${errors} error(s), ${warnings} warning(s)\n`);

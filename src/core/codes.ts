@@ -178,6 +178,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     severity: 'error',
     summary: 'The command line could not read the file (missing, not permitted, a broken link, not a regular file).',
   },
+  'notebook-invalid': {
+    severity: 'error',
+    summary: 'A `.ipynb` file is not a Jupyter notebook (not JSON, or no cells); its Markdown cells cannot be read.',
+  },
   'text-encoding-invalid': {
     severity: 'warning',
     summary: 'Bytes of the block are not UTF-8; each bad sequence is read as U+FFFD.',

@@ -26,6 +26,7 @@ export {
 } from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export {
+  notebookInvalidEntry,
   notUtf8Diagnostic,
   reportEntry,
   unreadableEntry,

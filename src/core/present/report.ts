@@ -33,7 +33,10 @@ export interface IntervalMeasured extends Measured {
 /** One block as the JSON report prints it. */
 export interface ReportEntry {
   readonly file: string;
+  /** 1-based line of the opening fence; in a notebook, within its cell. */
   readonly line: number;
+  /** 1-based number of the notebook cell holding the block (among all cells), or null in a Markdown note. */
+  readonly cell: number | null;
   readonly id: string | null;
   readonly status: Status;
   readonly beta: IntervalMeasured | null;
@@ -118,11 +121,12 @@ const withInterval = (m: Measured | null, interval: readonly [number, number] | 
 };
 
 /** Converts one analysed block to its report entry. */
-export function reportEntry(file: string, b: BlockReport, lines: LineIndex): ReportEntry {
+export function reportEntry(file: string, b: BlockReport, lines: LineIndex, cell: number | null = null): ReportEntry {
   const r = b.results;
   return {
     file,
     line: b.block.openLine + 1,
+    cell,
     id: b.meta.id,
     status: b.status,
     beta: r ? withInterval(r.beta, r.intervals.beta) : null,
@@ -235,6 +239,7 @@ export function unreadableEntry(file: string, reason: string): ReportEntry {
   return {
     file,
     line: 1,
+    cell: null,
     id: null,
     status: 'invalid',
     beta: null,
@@ -269,5 +274,18 @@ export function notUtf8Diagnostic(byte: number, offset: number, count: number, l
     message: `The bytes at offset ${byte} of the file are not UTF-8${more}; each bad sequence is read as U+FFFD. Save the note as UTF-8.`,
     line: pos.line + 1,
     column: pos.character + 1,
+  };
+}
+
+/**
+ * The entry of a `.ipynb` file that is not a Jupyter notebook: it stands where
+ * the notebook's blocks would, with one `notebook-invalid` error at the fault's
+ * line and column in the file (1-based).
+ */
+export function notebookInvalidEntry(file: string, message: string, line: number, column: number): ReportEntry {
+  return {
+    ...unreadableEntry(file, message),
+    line,
+    diagnostics: [{ severity: 'error', code: 'notebook-invalid', message, line, column }],
   };
 }
