@@ -3,8 +3,10 @@
 import * as esbuild from 'esbuild';
 import { existsSync } from 'node:fs';
 import lazy from './lazyNoteReader.cjs';
+import docsLink from './browserDocsLink.cjs';
 
 const { lazyNoteReader } = lazy;
+const { browserDocsLink } = docsLink;
 
 const watch = process.argv.includes('--watch');
 const production = process.argv.includes('--production');
@@ -36,14 +38,6 @@ const browserEntries = [
   { in: 'src/server/browser.ts', out: 'dist/web/server', format: 'iife' },
   { in: 'src/client/cellRenderer.ts', out: 'dist/cellRenderer', format: 'esm' },
 ].filter((e) => existsSync(e.in));
-
-/** Swaps `./docsLink` (which searches the disk) for `./docsLink.browser` in browser bundles. */
-const browserDocsLink = {
-  name: 'browser-docs-link',
-  setup(build) {
-    build.onResolve({ filter: /\/docsLink$/ }, (args) => ({ path: `${args.resolveDir}/${args.path}.browser.ts` }));
-  },
-};
 
 const common = {
   bundle: true,

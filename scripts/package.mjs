@@ -37,6 +37,7 @@ const STAGED = [
   'docs',
   'scripts/build.mjs',
   'scripts/lazyNoteReader.cjs',
+  'scripts/browserDocsLink.cjs',
 ];
 /** Files a user's install cannot do without. */
 const REQUIRED = [
