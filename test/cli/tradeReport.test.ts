@@ -11,7 +11,7 @@ function run(args: string[]): { code: number; out: string } {
 }
 
 // Balmer lines with NIST ASD vacuum wavelengths, E_u, g and A (Kramida, Ralchenko, Reader & NIST ASD Team, export
-// retrieved 2026-06-15; ../shared/domain.md §8a) and the relative intensities at 10 000 K derived in §8c, with the
+// retrieved 2026-06-15) and the relative intensities I ∝ gA/λ · e^(−E/kT) at 10 000 K (Griem 1997, ch. 6), with the
 // Hγ line made 40 % too weak, as self-absorption would.
 const NOTE = [
   '```levels',

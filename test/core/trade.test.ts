@@ -21,13 +21,13 @@ import { linesCsv } from '../../src/core/present/tradeSummary';
 import { applyFirstFix, block, close, problem } from './helpers';
 
 const KELVIN_PER_EV = 11604.51812155008; // e/k (exact since the 2019 SI; CODATA 2022 "electron volt-kelvin relationship")
-// hν₁₀/k of the 21-cm line: 0.068 168 725 K (../shared/domain.md §6, derived from ν₁₀ = 1 420 405 751.768 Hz,
+// hν₁₀/k of the 21-cm line: 0.068 168 725 K (derived from ν₁₀ = 1 420 405 751.768 Hz,
 // Hellwig et al., IEEE Trans. Instrum. Meas. IM-19, 200 (1970), and the exact h/k).
 const T_STAR = 0.068168725;
 
 // Ar I 4p → 4s lines from the NIST Atomic Spectra Database (Kramida, Ralchenko, Reader & NIST ASD Team,
 // export retrieved 2026-06-15): vacuum wavelengths, with the air wavelengths of a spectrometer-calibration list
-// that quotes NIST ASD (as collected in ../shared/domain.md §8b).
+// that quotes NIST ASD.
 const ARGON_AIR_VACUUM: [number, number][] = [
   [811.7542, 811.5311],
   [763.7208, 763.5106],
@@ -74,10 +74,11 @@ describe('air and vacuum wavelengths (IAU convention)', () => {
 
 describe('radio units and the 21-cm pair', () => {
   it('takes the 21-cm gap as a wavelength in cm or mm: hc/(λk) = 0.068 168 725 K', () => {
-    // λ = c/ν₁₀ = 21.106 114 054 cm (../shared/domain.md §6, derived).
+    // λ = c/ν₁₀ = 21.106 114 054 cm (derived from ν₁₀ above and the exact c of the SI).
     for (const gap of ['21.106114054 cm', '211.06114054 mm', '1420.405751768 MHz']) {
       const r = block(`gap: ${gap}\ng: [1, 3]\nratio: 2.99`).report;
-      // n₁/n₀ = 2.99 → T_s = T*/ln(3/2.99) = 20.416 514 K (../shared/domain.md §6).
+      // n₁/n₀ = 2.99 → T_s = T*/ln(3/2.99) = 20.416 514 K (the Boltzmann ratio with g₁/g₀ = 3; Rybicki & Lightman,
+      // Radiative Processes in Astrophysics, 1979, §1.5).
       close(r.results!.temperature!.value, 20.416514, 1e-6, `T from gap ${gap}`);
       // A radio wavelength says the trade; a frequency alone does not (94 GHz is also an electron-spin gap), so a
       // pair given by frequency is a plain pair unless a radio key says otherwise.
@@ -103,7 +104,7 @@ describe('radio units and the 21-cm pair', () => {
   it('quotes a saturated radio line as a limit at 95 %: |T| ≥ 1/(|β| + 2u(β))', () => {
     // ratio 3.000 ± 0.0015: β = ln(3/3)/T* = 0, u(β) = u(r)/(r T*) = 0.0015/(3 × 0.068168725) = 0.0073347 K⁻¹
     // (first-order propagation, GUM JCGM 100:2008 §5.1.2); the bound 1/(2u) = 68.17 K, with the contract's rule
-    // for saturated blocks (../shared/notebook-format.md, "Honest intervals").
+    // for saturated blocks (the k = 2 interval of β mapped through T = 1/β, JCGM 101:2008 §5.3).
     const { report, text } = block('gap: 21.106114054 cm\ng: [1, 3]\nratio: 3.000 ± 0.0015');
     const r = report.results!;
     assert.equal(r.status, 'saturated');
@@ -251,7 +252,7 @@ const INVENTED = Array.from({ length: 15 }, (_, i) => ({
 
 describe('outliers of a Boltzmann plot', () => {
   const T = 9000;
-  // Photon counts of optically thin lines: N ∝ g A e^(−E/kT) (../shared/domain.md §8), scaled to 10⁶ for the strongest.
+  // Photon counts of optically thin lines: N ∝ g A e^(−E/kT) (Griem 1997, ch. 6), scaled to 10⁶ for the strongest.
   const thin = INVENTED.map((l) => l.g * l.A * Math.exp((-l.E * KELVIN_PER_EV) / T));
   const scale = 1e6 / Math.max(...thin);
   const counts = thin.map((c) => c * scale);
@@ -318,7 +319,8 @@ describe('checks on a block of lines', () => {
   });
 
   it('warns when the upper levels span less than kT (Ar I 4p at 10 000 K spans 0.4 eV < 0.86 eV)', () => {
-    // Upper-level energies and data of ../shared/domain.md §8b (NIST ASD); the 10 000 K intensities of §8c.
+    // Upper-level energies and line data from NIST ASD (export retrieved 2026-06-15); intensities at 10 000 K from
+    // I ∝ gA/λ · e^(−E/kT) (Griem 1997, ch. 6).
     const lines = [
       [811.7542, 105462.7596, 7, 3.3e7, 1],
       [763.7208, 106237.5518, 5, 2.45e7, 0.50419777],
@@ -331,7 +333,7 @@ describe('checks on a block of lines', () => {
   });
 
   it('offers only the sibling unit that keeps an atomic level atomic: cm-1, never eV, for 105617.27', () => {
-    // Ar I 2p8 at 105 617.27 cm⁻¹ (NIST ASD, ../shared/domain.md §8b); as eV it would be 105 keV.
+    // Ar I 2p8 at 105 617.27 cm⁻¹ (NIST ASD); as eV it would be 105 keV.
     const body =
       'detector: photon\nlines:\n  - { upper: 105462.7596 cm-1, g: 7, A: 3.3e7, intensity: 100 }\n  - { upper: 105617.27, g: 5, A: 9.3e6, intensity: 20 }\n  - { upper: 13.328 eV, g: 3, A: 6.4e6, intensity: 10 }';
     const p = problem(body, 'unit-missing');

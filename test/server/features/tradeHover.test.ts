@@ -9,8 +9,8 @@ const labelText = (label: string | readonly { value: string }[]): string =>
   typeof label === 'string' ? label : label.map((p) => p.value).join('');
 
 // Balmer lines with NIST ASD vacuum wavelengths, upper energies, g and A (Kramida, Ralchenko, Reader & NIST ASD
-// Team; export retrieved 2026-06-15, as quoted in ../shared/domain.md §8a); photon counts N ∝ gA e^(−E/kT) at
-// 10 000 K (../shared/domain.md §8), rounded to whole counts.
+// Team, export retrieved 2026-06-15); photon counts N ∝ gA e^(−E/kT) at 10 000 K for optically thin lines (the
+// Boltzmann-plot relation: H. R. Griem, Principles of Plasma Spectroscopy, 1997, ch. 6), rounded to whole counts.
 const LINES = [
   'detector: photon',
   'wavelengths: vacuum',
