@@ -181,12 +181,15 @@ export function runLogSteps(session: () => Session): void {
       'beta_high_95_per_K',
       'polarization_low_95',
       'polarization_high_95',
+      'cell',
     ]);
     const entries = log.entries();
     assert.equal(records.length, entries.length, 'one row per run');
     for (const e of entries) {
-      const r = records.find((x) => x.note === e.name && Number(x.line) === e.line + 1);
-      assert.ok(r, `a row for ${e.name}:${e.line + 1}`);
+      // A notebook's runs are told apart by their cell as well (1-based; empty for a Markdown note).
+      const cell = e.cell === null ? '' : String(e.cell + 1);
+      const r = records.find((x) => x.note === e.name && Number(x.line) === e.line + 1 && x.cell === cell);
+      assert.ok(r, `a row for ${e.name}:${e.line + 1}${cell ? ` in cell ${cell}` : ''}`);
       assert.equal(r.id, e.id ?? '');
       assert.equal(r.status, e.status, `the status of ${e.id}`);
       if (e.temperature)

@@ -101,7 +101,7 @@ describe('Boltzmark through the VS Code API', () => {
       uri,
       at('id: Li inversion W-3', 'Li', 1),
     );
-    assert.match(inverted.map(markdownOf).join('\n'), /inverted: population inversion/);
+    assert.match(inverted.map(markdownOf).join('\n'), /inverted: more population per degeneracy above/);
   });
 
   it('puts the block’s results in an inlay hint at the end of its first line', async () => {
