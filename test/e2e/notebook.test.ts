@@ -75,6 +75,18 @@ function notebookSteps(version: host.Version): void {
       const text = clean(await hover.innerText());
       assert.match(text, /7\.08 ± 0\.26 µK/);
     });
+
+    it('opens the curve view from the lens in a cell, and the view follows the cursor into another cell', async () => {
+      const cell = page.locator('.notebook-editor .monaco-editor', { hasText: 'system: 129Xe' });
+      await cell.locator('.codelens-decoration a', { hasText: 'Show Curve View' }).first().click();
+      const view = await frameWith(page, 'body[data-drawn] #block-title', 'Xe cell run 2');
+      // The next cell with a block: opened for editing, the cursor put on its id line.
+      const frame = await frameWith(page, '.boltzmark-results', 'probe pair T2');
+      await frame.getByText('Populations of the two hyperfine levels').dblclick();
+      const other = page.locator('.notebook-editor .monaco-editor', { hasText: 'id: probe pair T2' });
+      await other.locator('.view-line', { hasText: pattern('id: probe pair T2') }).click();
+      await view.locator('#block-title', { hasText: 'probe pair T2' }).waitFor();
+    });
   });
 }
 
