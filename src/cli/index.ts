@@ -6,4 +6,5 @@ process.exitCode = main(process.argv.slice(2), {
   out: (s) => process.stdout.write(s),
   err: (s) => process.stderr.write(s),
   cwd: process.cwd(),
+  ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
 });

@@ -6,13 +6,15 @@
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { Analyzer, LineIndex, reportEntry, STATUSES, type Status } from '../core';
 import { collectFiles, readNote, UsageError } from './files';
-import { formatCsv, formatJson, formatMarkdown, formatTable, type Row } from './formats';
+import { DEFAULT_TABLE_WIDTH, formatCsv, formatJson, formatMarkdown, formatTable, type Row } from './formats';
 
 /** Where the CLI writes; the tests pass their own. */
 export interface Io {
   readonly out: (s: string) => void;
   readonly err: (s: string) => void;
   readonly cwd: string;
+  /** The terminal's width in columns, when the output is a terminal. */
+  readonly columns?: number;
 }
 
 /** Every block of the notes under the given paths, in file then line order. */
@@ -40,11 +42,13 @@ export function report(
   format: string,
   io: Io,
   statuses: readonly Status[] | null = null,
+  wide = false,
 ): number {
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
-  const formatter =
-    { json: formatJson, csv: formatCsv, markdown: formatMarkdown, table: formatTable }[format] ?? formatTable;
+  const width = io.columns !== undefined && io.columns >= 40 ? io.columns : DEFAULT_TABLE_WIDTH;
+  const table = (r: readonly Row[]): string => formatTable(r, { width, wide });
+  const formatter = { json: formatJson, csv: formatCsv, markdown: formatMarkdown, table }[format] ?? table;
   io.out(formatter(shown));
   return hasError(rows) ? 1 : 0;
 }
@@ -70,9 +74,10 @@ export function check(paths: readonly string[], io: Io): number {
 
 /** Parses `--status inverted,non-thermal`; throws a usage error for an unknown word. */
 function parseStatuses(value: string): Status[] {
+  // Status words are matched without regard to case: `Inverted` and `NON-THERMAL` are what people type.
   const words = value
     .split(',')
-    .map((w) => w.trim())
+    .map((w) => w.trim().toLowerCase())
     .filter((w) => w !== '');
   for (const w of words) {
     if (!(STATUSES as readonly string[]).includes(w))
@@ -110,8 +115,9 @@ export function main(argv: readonly string[], io: Io): number {
         'only blocks with these statuses, comma-separated (normal, saturated, inverted, non-thermal, invalid)',
       ).argParser(parseStatuses),
     )
-    .action((paths: string[], opts: { format: string; status?: Status[] }) => {
-      status = report(paths, opts.format, io, opts.status ?? null);
+    .option('-w, --wide', 'the table with every column, however wide (default: fit the terminal, or 100 columns)')
+    .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean }) => {
+      status = report(paths, opts.format, io, opts.status ?? null, opts.wide === true);
     });
   program
     .command('check')

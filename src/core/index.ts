@@ -22,6 +22,7 @@ export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/
 export {
   DEFAULT_DISPLAY,
   STATUS_WORDS,
+  statusWords,
   betaText,
   enhancementText,
   fractionText,

@@ -43,6 +43,10 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   const polarization = input.lines ? null : (finding.polarization ?? polarizationOf(effective, fractions));
   const thermalPolarization = thermalPolarizationOf(input);
   const enhancement = polarization && thermalPolarization ? polarization.value / thermalPolarization : null;
+  const uEnhancement =
+    enhancement !== null && polarization && thermalPolarization
+      ? enhancementUncertainty(input, polarization.value, polarization.uncertainty, thermalPolarization)
+      : null;
   const outliers = lineOutliers(input, finding.fit, problems);
   const pairs = fractions ? invertedPairs(energies, fractions, g) : NONE;
   const all = finding.problems.length === 0 ? problems : [...problems, ...finding.problems];
@@ -58,6 +62,7 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     polarization,
     thermalPolarization,
     enhancement: enhancement !== null && Number.isFinite(enhancement) ? enhancement : null,
+    enhancementUncertainty: enhancement !== null && Number.isFinite(enhancement) ? uEnhancement : null,
     entropy: fractions ? gibbsEntropy(fractions, g) : null,
     fit: finding.fit,
     invertedPairs: pairs.length === 0 ? NONE : pairs,
@@ -155,4 +160,28 @@ function temperatureOf(beta: Measured | null, limit: BetaFinding['limit']): Meas
   if (!Number.isFinite(value)) return null;
   const u = beta.uncertainty === null ? null : beta.uncertainty / (beta.value * beta.value);
   return { value, uncertainty: u !== null && Number.isFinite(u) ? u : null };
+}
+
+/**
+ * Standard uncertainty of ε = P / P_th(T_lattice) by first-order propagation
+ * (JCGM 100:2008 §5.1.2, uncorrelated inputs): u(ε)² = (u(P)/P_th)² +
+ * (P/P_th² · dP_th/dT · u(T))². dP_th/dT is a central difference of the same
+ * thermal-polarization function with a step of 10⁻⁴ T (P_th is smooth in T > 0).
+ * Null when neither P nor the lattice temperature has an uncertainty.
+ */
+export function enhancementUncertainty(input: BlockInput, p: number, uP: number | null, pTh: number): number | null {
+  const uT = input.lattice?.uncertainty ?? null;
+  const T = input.lattice?.value ?? NaN;
+  let variance = 0;
+  if (uP !== null && uP > 0) variance += (uP / pTh) ** 2;
+  if (uT !== null && uT > 0 && input.lattice) {
+    const h = T * 1e-4;
+    const at = (t: number): number | null =>
+      thermalPolarizationOf({ ...input, lattice: { ...input.lattice!, value: t } });
+    const up = at(T + h);
+    const down = at(T - h);
+    if (up !== null && down !== null) variance += ((p / pTh ** 2) * ((up - down) / (2 * h)) * uT) ** 2;
+  }
+  const u = Math.sqrt(variance);
+  return variance > 0 && Number.isFinite(u) ? u : null;
 }

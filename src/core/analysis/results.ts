@@ -20,7 +20,7 @@ export interface FitSummary {
 export interface SignalResult {
   /** Thermal polarization of the reference at `lattice`. */
   readonly pThermal: number;
-  /** (NS_th G_th sin θ_th n_th)/(NS_hp G_hp sin θ_hp n_hp). */
+  /** (scans_th·G_th sin θ_th n_th)/(scans_hp·G_hp sin θ_hp n_hp). */
   readonly factor: number;
   /** S_hp / S_th. */
   readonly ratio: number;
@@ -33,8 +33,12 @@ export interface SignalResult {
 export interface GainResult {
   /** Small-signal gain coefficient g₀, cm⁻¹. */
   readonly coefficient: number;
+  /** Standard uncertainty of g₀ from the densities' uncertainties, cm⁻¹, or null. */
+  readonly uCoefficient: number | null;
   /** exp(g₀ L), or null without a length. */
   readonly singlePass: number | null;
+  /** u(G) = G·L·u(g₀), or null. */
+  readonly uSinglePass: number | null;
   /** Threshold gain coefficient, cm⁻¹, or null without length and mirrors. */
   readonly threshold: number | null;
   readonly aboveThreshold: boolean | null;
@@ -52,6 +56,8 @@ export interface BlockResults {
   readonly polarization: Measured | null;
   readonly thermalPolarization: number | null;
   readonly enhancement: number | null;
+  /** Standard uncertainty of ε from u(P) and u(lattice), or null when neither is known. */
+  readonly enhancementUncertainty: number | null;
   /** Gibbs entropy S/(Nk) of the measured (or implied) distribution. */
   readonly entropy: number | null;
   readonly fit: FitSummary | null;

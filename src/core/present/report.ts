@@ -31,13 +31,20 @@ export interface ReportEntry {
   readonly polarization: Measured | null;
   readonly thermalPolarization: number | null;
   readonly enhancement: number | null;
+  /** Standard uncertainty of `enhancement` (from u(P) and u(lattice)), or null. */
+  readonly enhancementUncertainty: number | null;
   readonly entropy: number | null;
   readonly diagnostics: readonly ReportDiagnostic[];
   /** T₁ or τ of a time series, s (v1.1). */
   readonly timeConstant: Measured | null;
   /** Small-signal gain coefficient g₀, cm⁻¹ (v1.1). */
   readonly gainCoefficient: number | null;
+  /** Standard uncertainty of g₀ from the densities' uncertainties, cm⁻¹. */
+  readonly gainCoefficientUncertainty: number | null;
   readonly singlePassGain: number | null;
+  readonly singlePassGainUncertainty: number | null;
+  /** Threshold gain coefficient g_th, cm⁻¹ (needs length and mirrors). */
+  readonly thresholdGain: number | null;
   readonly aboveThreshold: boolean | null;
   readonly form: string | null;
   readonly fit: { readonly chi2: number; readonly dof: number; readonly consistent: boolean } | null;
@@ -62,6 +69,7 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex): Rep
     polarization: r ? measured(r.polarization) : null,
     thermalPolarization: finite(r?.thermalPolarization),
     enhancement: finite(r?.enhancement),
+    enhancementUncertainty: finite(r?.enhancementUncertainty),
     entropy: finite(r?.entropy),
     diagnostics: b.problems.map((p) => {
       const pos = lines.positionAt(p.span.start);
@@ -69,7 +77,10 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex): Rep
     }),
     timeConstant: r?.series ? measured(r.series.timeConstant) : null,
     gainCoefficient: finite(r?.gain?.coefficient),
+    gainCoefficientUncertainty: finite(r?.gain?.uCoefficient),
     singlePassGain: finite(r?.gain?.singlePass),
+    singlePassGainUncertainty: finite(r?.gain?.uSinglePass),
+    thresholdGain: finite(r?.gain?.threshold),
     aboveThreshold: r?.gain?.aboveThreshold ?? null,
     form: b.input?.form ?? null,
     fit: r?.fit ? { chi2: r.fit.chi2, dof: r.fit.dof, consistent: r.fit.consistent } : null,

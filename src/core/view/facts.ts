@@ -4,7 +4,7 @@
  */
 import type { BlockResults } from '../analysis/results';
 import { formatMeasured, formatNumber, formatTemperature } from '../present/numbers';
-import { betaText, fractionText, STATUS_WORDS, temperatureText, type DisplayOptions } from '../present/summary';
+import { betaText, fractionText, statusWords, temperatureText, type DisplayOptions } from '../present/summary';
 import type { Fact, MeasuredPoint, ThermalMarker } from './payload';
 
 /** Entropy in k per system with its uncertainty when known. */
@@ -25,7 +25,7 @@ export function blockFacts(
   o: DisplayOptions,
 ): Fact[] {
   const facts: Fact[] = [
-    { label: 'status', text: STATUS_WORDS[results.status] },
+    { label: 'status', text: statusWords(results.status, results) },
     { label: 'temperature', text: temperatureText(results, o) },
     { label: 'inverse temperature', text: betaText(results, o) },
   ];

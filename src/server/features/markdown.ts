@@ -10,7 +10,7 @@ import {
   enhancementText,
   formatNumber,
   fractionText,
-  STATUS_WORDS,
+  statusWords,
   temperatureText,
   type BlockReport,
   type DisplayOptions,
@@ -79,7 +79,7 @@ export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions):
     const where = escapeMarkdown(writtenText(state, b.toNote(lattice.span)));
     rows.push([`P\\_th at ${where}`, fractionText(r.thermalPolarization, { ...o, digits: Math.min(o.digits, 3) })]);
   }
-  if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o)]);
+  if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o, r.enhancementUncertainty)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
   for (const [label, value] of measurementRows(b.input, r, o))
     rows.push([escapeMarkdown(label), escapeMarkdown(value)]);
@@ -97,7 +97,7 @@ export function firstError(b: BlockReport): BlockReport['problems'][number] | un
  * (with `explain`, the status in words) and by "Copy results".
  */
 export function blockResultsMarkdown(state: NoteState, b: BlockReport, o: DisplayOptions, explain = false): string {
-  const title = `**${blockName(b)}** — ${explain ? STATUS_WORDS[b.status] : b.status}`;
+  const title = `**${blockName(b)}** — ${explain ? statusWords(b.status, b.results) : b.status}`;
   if (!b.results) {
     const e = firstError(b);
     return e ? `${title}\n\nError \`${e.code}\`: ${escapeMarkdown(e.message)}` : title;
