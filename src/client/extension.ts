@@ -51,7 +51,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<Boltzm
       followCursor(),
       registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }),
     );
-    registerRunLog(context, log);
+    registerRunLog(context, log, { extensionUri: context.extensionUri, client: () => client, log });
     await client.start();
     log.info('Boltzmark language server started');
   } catch (err) {

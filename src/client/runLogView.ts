@@ -10,6 +10,7 @@ import type { RunEntry, RunGroup, RunLog } from '../core';
 import { measuredTemperatureText, STATUSES, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
 import { noteReader } from './loadNoteReader';
+import { CurveView, type CurveViewHost } from './curveView';
 
 const MAX_FILES = 2000;
 const MAX_BYTES = 5 * 1024 * 1024;
@@ -33,6 +34,8 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
 
   refresh(): void {
     this.changed.fire();
+    // A run comparison of this list follows it.
+    CurveView.active?.refreshRuns();
   }
 
   getChildren(node?: Node): Node[] {
@@ -73,7 +76,11 @@ const STATUS_ICONS: Record<Status, string> = {
 };
 
 /** Registers the view, its commands and its watchers. */
-export function registerRunLog(context: vscode.ExtensionContext, log: vscode.LogOutputChannel): void {
+export function registerRunLog(
+  context: vscode.ExtensionContext,
+  log: vscode.LogOutputChannel,
+  curveHost: CurveViewHost,
+): void {
   const tree = new RunLogTree();
   const view = vscode.window.createTreeView('boltzmark.runLog', { treeDataProvider: tree, showCollapseAll: true });
   const timers = new Map<string, ReturnType<typeof setTimeout>>();
@@ -142,6 +149,15 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
         picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label as Status);
       view.description = tree.statuses ? tree.statuses.join(', ') : undefined;
       tree.refresh();
+    }),
+    vscode.commands.registerCommand('boltzmark.runLog.compare', async () => {
+      await start();
+      const title = tree.statuses ? `run log (${tree.statuses.join(', ')})` : 'run log';
+      // In date order when the runs have dates, as a lab reads its log; the list's own order otherwise.
+      const key = (e: RunEntry): string => e.date ?? '\uffff';
+      const entries = (): RunEntry[] =>
+        [...tree.log.entries(tree.statuses)].sort((a, b) => (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0));
+      CurveView.compare(curveHost, { kind: 'list', title, entries }, null);
     }),
     vscode.commands.registerCommand('boltzmark.runLog.groupBy', () => {
       tree.by = tree.by === 'file' ? 'date' : 'file';

@@ -98,7 +98,22 @@ export {
   type ViewState,
   type ViewToHost,
 } from './view/messages';
-export { curveCsv } from './view/csv';
+export { curveCsv, runChartCsv } from './view/csv';
+export {
+  dayNumber,
+  dayText,
+  isRunChartPayload,
+  RUN_QUANTITIES,
+  runChartData,
+  runChartRows,
+  runCsvColumn,
+  type RunAxis,
+  type RunChartPayload,
+  type RunPoint,
+  type RunQuantity,
+  type RunSource,
+  type RunValue,
+} from './view/runChart';
 export { measurementRows, measurementShort, type Row } from './present/measurementSummary';
 export type { SeriesFit } from './physics/relaxation';
 export type { GainResult, SignalResult } from './analysis/results';

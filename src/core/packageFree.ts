@@ -23,6 +23,9 @@ export {
   type EnergyAxisUnit,
   type ExportCsvMessage,
   type ExportPngMessage,
+  type ExportRunsCsvMessage,
+  type ExportRunsPngMessage,
+  type OpenRunMessage,
   type HostToView,
   type PinMessage,
   type PinnedRun,
@@ -47,3 +50,14 @@ export type {
   ThermalMarker,
   ViewPayload,
 } from './view/payload';
+export {
+  dayNumber,
+  dayText,
+  isRunChartPayload,
+  RUN_QUANTITIES,
+  type RunAxis,
+  type RunChartPayload,
+  type RunPoint,
+  type RunQuantity,
+  type RunValue,
+} from './view/runChart';

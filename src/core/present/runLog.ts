@@ -21,6 +21,12 @@ export interface RunEntry {
   readonly temperature: Measured | null;
   readonly beta: Measured | null;
   readonly polarization: Measured | null;
+  /** ε = P/P_th with its standard uncertainty. */
+  readonly enhancement: Measured | null;
+  /** T₁ or τ of a time series, s. */
+  readonly timeConstant: Measured | null;
+  /** Small-signal gain coefficient g₀, cm⁻¹. */
+  readonly gain: Measured | null;
 }
 
 /** A group of runs under one heading (a note, or a date). */
@@ -47,6 +53,12 @@ export class RunLog {
       temperature: b.results?.temperature ?? null,
       beta: b.results?.beta ?? null,
       polarization: b.results?.polarization ?? null,
+      enhancement:
+        b.results?.enhancement != null
+          ? { value: b.results.enhancement, uncertainty: b.results.enhancementUncertainty }
+          : null,
+      timeConstant: b.results?.series?.timeConstant ?? null,
+      gain: b.results?.gain ? { value: b.results.gain.coefficient, uncertainty: b.results.gain.uCoefficient } : null,
     }));
     const before = this.notes.get(uri);
     if (before && JSON.stringify(before) === JSON.stringify(entries)) return false;

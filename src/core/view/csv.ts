@@ -6,6 +6,8 @@
  */
 import { formatPlainNumber } from '../present/numbers';
 import type { CurvePayload, DisplayUnit } from './payload';
+import { runChartRows, type RunChartPayload, type RunQuantity } from './runChart';
+import type { DisplayOptions } from '../present/displayOptions';
 
 type Cell = string | number | null;
 
@@ -108,4 +110,13 @@ export function curveCsv(runs: readonly CurvePayload[], unit: DisplayUnit | null
     }
   }
   return lines.join('\r\n') + '\r\n';
+}
+
+/** The CSV text of a run comparison for one quantity (see {@link runChartRows}). */
+export function runChartCsv(p: RunChartPayload, q: RunQuantity, o: DisplayOptions): string {
+  return (
+    runChartRows(p, q, o)
+      .map((row) => row.map(cell).join(','))
+      .join('\r\n') + '\r\n'
+  );
 }

@@ -6,6 +6,7 @@
 import type { CurvePayload, ViewPayload } from './payload';
 import { isCurvePayload, isViewPayload } from './payloadCheck';
 import { isArrayOf, isCount, isOneOf, isRecord, isText } from './validate';
+import { isRunChartPayload, RUN_QUANTITIES, type RunChartPayload, type RunQuantity } from './runChart';
 
 /** How the energy axis is shown: in the block's own unit or in kelvin. */
 export type EnergyAxisUnit = 'block' | 'K';
@@ -26,6 +27,8 @@ export interface RenderMessage {
   readonly seq: number;
   readonly current: ViewPayload | null;
   readonly pinned: readonly PinnedRun[];
+  /** The runs compared (the note's blocks, or the run log's filter); absent or null for none. */
+  readonly runs?: RunChartPayload | null;
 }
 
 /** Every host → view message. */
@@ -72,14 +75,42 @@ export interface CopyImageLinkMessage {
   readonly dataUrl: string;
 }
 
+/** View → host: open the note of a run of the comparison chart at its block. */
+export interface OpenRunMessage {
+  readonly type: 'openRun';
+  readonly uri: string;
+  /** 0-based line of the block's opening fence. */
+  readonly line: number;
+}
+/** View → host: save the run comparison as CSV, for the quantity shown. */
+export interface ExportRunsCsvMessage {
+  readonly type: 'exportRunsCsv';
+  readonly quantity: RunQuantity;
+}
+/** View → host: save the run comparison chart as a PNG. */
+export interface ExportRunsPngMessage {
+  readonly type: 'exportRunsPng';
+  readonly dataUrl: string;
+}
+
 /** Every view → host message. */
 export type ViewToHost =
-  ReadyMessage | PinMessage | UnpinMessage | ExportPngMessage | ExportCsvMessage | CopyImageLinkMessage;
+  | ReadyMessage
+  | PinMessage
+  | UnpinMessage
+  | ExportPngMessage
+  | ExportCsvMessage
+  | CopyImageLinkMessage
+  | OpenRunMessage
+  | ExportRunsCsvMessage
+  | ExportRunsPngMessage;
 
 /** What the webview keeps with `setState`, so a hidden or reloaded panel comes back as it was. */
 export interface ViewState {
   readonly unit: EnergyAxisUnit;
   readonly last: RenderMessage | null;
+  /** The quantity the run comparison shows. */
+  readonly quantity?: RunQuantity;
 }
 
 /** Longest PNG data URL accepted (64 MiB of text): a bound, not a size anyone reaches. */
@@ -104,7 +135,8 @@ export function isRenderMessage(x: unknown): x is RenderMessage {
     x.type === 'render' &&
     isCount(x.seq) &&
     (x.current === null || isViewPayload(x.current)) &&
-    isArrayOf(x.pinned, isPinned, 100)
+    isArrayOf(x.pinned, isPinned, 100) &&
+    (x.runs === undefined || x.runs === null || isRunChartPayload(x.runs))
   );
 }
 
@@ -127,6 +159,12 @@ export function isViewToHost(x: unknown): x is ViewToHost {
       return isPngDataUrl(x.dataUrl);
     case 'exportCsv':
       return isOneOf(x.unit, ENERGY_AXIS_UNITS);
+    case 'openRun':
+      return isText(x.uri, 4000) && isCount(x.line);
+    case 'exportRunsCsv':
+      return isOneOf(x.quantity, RUN_QUANTITIES);
+    case 'exportRunsPng':
+      return isPngDataUrl(x.dataUrl);
     default:
       return false;
   }
@@ -134,5 +172,10 @@ export function isViewToHost(x: unknown): x is ViewToHost {
 
 /** True when `x` is a well-formed {@link ViewState}. */
 export function isViewState(x: unknown): x is ViewState {
-  return isRecord(x) && isOneOf(x.unit, ENERGY_AXIS_UNITS) && (x.last === null || isRenderMessage(x.last));
+  return (
+    isRecord(x) &&
+    isOneOf(x.unit, ENERGY_AXIS_UNITS) &&
+    (x.last === null || isRenderMessage(x.last)) &&
+    (x.quantity === undefined || isOneOf(x.quantity, RUN_QUANTITIES))
+  );
 }
