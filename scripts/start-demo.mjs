@@ -15,6 +15,7 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
 
 const require = createRequire(import.meta.url);
 const host = require('./editorHost.cjs');
@@ -71,7 +72,7 @@ async function main() {
       console.error(`the editor host stopped (${code ?? signal}); its log: ${join(run.dir, 'server.log')}`);
       void stop(1);
     });
-    console.log(`\nBoltzmark demo in VS Code: ${server.open}\n(serving ${args.folder}; Ctrl-C stops)\n`);
+    console.log(startBanner(args.folder, server.open));
   } catch (err) {
     console.error(String(err instanceof Error ? err.message : err));
     const log = join(run.dir, 'server.log');
@@ -81,7 +82,20 @@ async function main() {
   }
 }
 
-main().catch((err) => {
-  console.error(String(err instanceof Error ? err.message : err));
-  process.exit(1);
-});
+/**
+ * The line printed once the editor is up: it names the folder served (the demo only when it is the
+ * demo), so `npm start -- ~/notes` does not claim to show the demo.
+ */
+export function startBanner(folder, url) {
+  const demo = resolve(folder) === resolve(join(host.ROOT, 'demo'));
+  const what = demo ? 'the demo notebook (demo/)' : folder;
+  return `\nBoltzmark in VS Code, serving ${what}: ${url}\n(Ctrl-C stops)\n`;
+}
+
+// Run only as the `npm start` script, not when a test imports startBanner.
+if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  main().catch((err) => {
+    console.error(String(err instanceof Error ? err.message : err));
+    process.exit(1);
+  });
+}
