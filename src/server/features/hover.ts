@@ -70,7 +70,9 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
         : `P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; ${sign}`,
     );
   }
-  if (r.thermalPolarization === null && r.polarization && !input.lattice)
+  // A thermal polarization means something for spins in a field (P_th of the lattice); for an optical
+  // transition at kT far below its gap it is 1 and ε says nothing, so no lattice is suggested there.
+  if (r.thermalPolarization === null && r.polarization && !input.lattice && input.spin)
     parts.push('Add `lattice:` to get P\\_th and ε.');
   if (r.fit) parts.push(fitText(r.fit));
   if (input.levels.length >= 3 && r.invertedPairs.length > 0) {

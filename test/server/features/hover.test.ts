@@ -409,4 +409,16 @@ describe('hover: what a practitioner reads', () => {
     );
     assert.doesNotMatch(value, /\bNS\b/);
   });
+
+  it('suggests a lattice for P_th and ε only where a thermal polarization means something (spins)', () => {
+    check(note('system: 13C', 'field: 7.05 T', 'polarization: 0.3$01'), {
+      range: [2, 0, 6, 3],
+      includes: ['Add `lattice:` to get P\\_th and ε.'],
+    });
+    // An optical transition at 1064 nm: kT at any lab temperature is far below hν, P_th ≈ 1, ε meaningless.
+    check(note('gap: 1064 nm', 'populations: [0.7$0, 0.3]'), {
+      range: [2, 0, 5, 3],
+      excludes: ['lattice'],
+    });
+  });
 });
