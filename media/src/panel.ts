@@ -56,9 +56,14 @@ export class Panel {
   showProblem(p: ProblemPayload): void {
     this.show('problem');
     this.title.textContent = p.id ?? 'block without id';
-    this.status.textContent = p.code === null ? 'nothing to draw' : 'invalid';
-    this.status.dataset.status = p.code === null ? 'empty' : 'invalid';
+    // The chip says what is drawn: a plot below when the block has one, nothing only when it has none.
+    const drawn = p.plot ? (p.plot.kind === 'series' ? 'series fit' : 'Boltzmann plot') : 'nothing to draw';
+    this.status.textContent = p.code === null ? drawn : 'invalid';
+    this.status.dataset.status = p.code === null ? (p.plot ? 'plot' : 'empty') : 'invalid';
     const code = p.code === null ? [] : [el('code', p.code, 'code')];
+    // An explanation is a note, not an error: styled and announced as one.
+    this.problem.dataset.kind = p.code === null ? 'note' : 'error';
+    this.problem.setAttribute('role', p.code === null ? 'status' : 'alert');
     this.problem.replaceChildren(el('span', p.message, 'message'), ...code);
     this.facts.replaceChildren();
     this.notes.replaceChildren();

@@ -11,6 +11,7 @@ import type { LanguageClient } from 'vscode-languageclient/node';
 import {
   isViewState,
   isViewToHost,
+  payloadTitle,
   pinsBesides,
   type CurvePayload,
   type PinnedRun,
@@ -217,7 +218,8 @@ export class CurveView implements vscode.Disposable {
       return;
     }
     this.current = payload;
-    if (payload.kind === 'curve') this.panel.title = `Curve: ${payload.id}`;
+    // The title follows the block shown, whatever it draws.
+    this.panel.title = payloadTitle(payload);
     this.send();
   }
 

@@ -73,6 +73,7 @@ export type {
   ThermalMarker,
   ViewPayload,
 } from './view/payload';
+export { payloadTitle } from './view/payload';
 export { measurementPlot } from './view/measurementPlot';
 export { displayUnitFor, KELVIN_UNIT } from './view/displayUnit';
 export { measuredPoint } from './view/measuredPoint';

@@ -36,6 +36,7 @@ export {
   type ViewToHost,
 } from './view/messages';
 export { isCurvePayload, isProblemPayload, isViewPayload } from './view/payloadCheck';
+export { payloadTitle } from './view/payload';
 export type {
   CurveColumns,
   CurvePayload,

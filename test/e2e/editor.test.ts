@@ -200,7 +200,7 @@ describe('Boltzmark in a browser-hosted VS Code (e2e)', function () {
   it('opens the curve view from the code lens; its canvas is drawn and it follows the cursor', async () => {
     await goToLine(page, FENCE_CELL_B + 1);
     // The view's page marks its state and counts its draws on <body> (media/src/view.ts).
-    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show energy–entropy curve', (ms) =>
+    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show Energy–Entropy Curve', (ms) =>
       frameWith(page, 'body[data-drawn] #block-title', undefined, ms),
     );
     await view.locator('#block-title', { hasText: 'cell-B run 1' }).waitFor();

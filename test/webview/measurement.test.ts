@@ -4,6 +4,7 @@ import { payloadOf, render } from './payloads';
 import { geometry, near, pixelsAround, toPixel, type ChartGeometry } from './pixels';
 
 /** The page's DOM as these tests touch it (the test files compile without the DOM library). */
+declare function getComputedStyle(e: never): { borderLeftColor: string };
 declare const document: {
   getElementById(
     id: string,
@@ -85,6 +86,22 @@ describe('curve view measurement plot (headless Chromium)', function () {
       before,
     );
     assert.equal((await geometryOf()).kind, 'series');
+    // Above a drawn fit the chip says what is drawn, and the explanation is a note, not an error.
+    assert.equal(await view.page.evaluate(() => document.getElementById('block-status')!.textContent), 'series fit');
+    const problem = await view.page.evaluate(() => {
+      const e = document.getElementById('problem') as unknown as {
+        dataset: Record<string, string>;
+        getAttribute(a: string): string;
+      };
+      return {
+        kind: e.dataset.kind,
+        role: e.getAttribute('role'),
+        border: getComputedStyle(e as never).borderLeftColor,
+      };
+    });
+    assert.deepEqual([problem.kind, problem.role], ['note', 'status']);
+    const error = rgb(LIGHT.vars['--vscode-inputValidation-errorBorder'] ?? LIGHT.vars['--vscode-errorForeground']!);
+    assert.notEqual(problem.border, `rgb(${error.join(', ')})`, 'not the error colour');
     await view.post(render(payloadOf('gap: 10 K\nratio: 0.5', 'plain')));
     await view.page.waitForFunction(() => document.getElementById('measurement')!.hidden === true);
   });

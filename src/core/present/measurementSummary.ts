@@ -1,6 +1,6 @@
 /**
  * Display rows for the measurement inputs (time series, thermal reference,
- * emission lines, gain), shared by hovers, "Copy results" and the preview so
+ * emission lines, gain), shared by hovers, "Copy Block Results" and the preview so
  * every host shows the same audited numbers.
  */
 import type { BlockResults } from '../analysis/results';

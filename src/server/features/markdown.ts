@@ -1,5 +1,5 @@
 /**
- * Markdown building shared by hovers, inlay-hint tooltips and "Copy results":
+ * Markdown building shared by hovers, inlay-hint tooltips and "Copy Block Results":
  * escaping of user text, small tables, and the results table of a block.
  * The numbers come from the core's display functions, so every surface shows
  * the same strings as the `boltzmark report` table.
@@ -94,7 +94,7 @@ export function firstError(b: BlockReport): BlockReport['problems'][number] | un
 /**
  * The compact results of a block: a title line (name and status) and the
  * results table, or for an invalid block its first error. Used by the hover
- * (with `explain`, the status in words) and by "Copy results".
+ * (with `explain`, the status in words) and by "Copy Block Results".
  */
 export function blockResultsMarkdown(state: NoteState, b: BlockReport, o: DisplayOptions, explain = false): string {
   const title = `**${blockName(b)}** — ${explain ? statusWords(b.status, b.results) : b.status}`;

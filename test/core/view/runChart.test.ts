@@ -1,11 +1,14 @@
 import { strict as assert } from 'node:assert';
 import {
+  Analyzer,
   DEFAULT_DISPLAY,
   dayNumber,
   dayText,
   isHostToView,
   isRunChartPayload,
   isViewToHost,
+  payloadTitle,
+  curveData,
   RunLog,
   runChartCsv,
   runChartData,
@@ -121,5 +124,20 @@ describe('run comparison data', () => {
     assert.equal(lines.length, 5);
     assert.ok(lines[1]!.startsWith("'=HYPERLINK(1),"), lines[1]);
     assert.match(lines[1]!, /,2026-03-09,normal,31\.2,1(\.0+\d*)?$/);
+  });
+});
+
+describe('curve view panel title', () => {
+  it('names what the block shows: its curve, a series fit, or a Boltzmann plot', () => {
+    const of = (body: string) => {
+      const [b] = [new Analyzer().analyzeText(`\`\`\`levels\n${body}\n\`\`\`\n`).blocks[0]!];
+      return payloadTitle(curveData(b!, { uri: 'file:///n.md', version: 1 }));
+    };
+    assert.equal(of('id: r1\ngap: 10 K\nratio: 0.5'), 'Curve: r1');
+    assert.equal(
+      of('id: d\nseries:\n  model: decay\n  time: [0 s, 10 s, 20 s, 30 s]\n  signal: [1.0, 0.74, 0.55, 0.40]'),
+      'Series fit: d',
+    );
+    assert.equal(of('gap: 10 K'), 'No curve: block at line 1');
   });
 });
