@@ -21,6 +21,13 @@ function range(values: readonly number[]): { min: number; max: number } {
   return { min: min - pad, max: max + pad };
 }
 
+/** The tick values of every axis, as JSON, for tests: `{"x":[…],"y":[…],"y2":[…]}`. */
+export function tickValues(chart: Chart): string {
+  const out: Record<string, number[]> = {};
+  for (const [id, scale] of Object.entries(chart.scales)) out[id] = scale.ticks.map((t) => t.value);
+  return JSON.stringify(out);
+}
+
 /** Owns the chart.js instance of the measurement plot. */
 export class MeasurementChart {
   private chart: Scatter | null = null;
@@ -92,7 +99,13 @@ export class MeasurementChart {
       max,
       title: { display: true, text: title, color: p.foreground },
       grid: { display: grid, color: p.grid, lineWidth: 0.5 },
-      ticks: { color: p.muted, callback: (v: number | string) => shortNumber(Number(v)), maxTicksLimit: 7 },
+      // Ticks at round steps only: the padded axis ends (1.04, −0.00617) would crowd their neighbours.
+      ticks: {
+        color: p.muted,
+        callback: (v: number | string) => shortNumber(Number(v)),
+        maxTicksLimit: 7,
+        includeBounds: false,
+      },
     });
     const options = {
       animation: false as const,
@@ -135,6 +148,7 @@ export class MeasurementChart {
     this.canvas.dataset.x = [x.min, x.max].join(',');
     this.canvas.dataset.y = [y.min, y.max].join(',');
     this.canvas.dataset.kind = plot.kind;
+    this.canvas.dataset.ticks = tickValues(this.chart);
     this.section.dataset.drawn = String(++this.drawn);
   }
 }

@@ -9,9 +9,7 @@ import { DARK, LIGHT, rgb } from './themes';
 declare const window: { __test: { applyTheme(t: unknown): void; posted: unknown[] } };
 declare const document: {
   body: { dataset: Record<string, string | undefined> };
-  getElementById(
-    id: string,
-  ): {
+  getElementById(id: string): {
     textContent: string | null;
     hidden: boolean;
     value: string;

@@ -1,4 +1,5 @@
 import { strict as assert } from 'node:assert';
+import { mkdirSync } from 'node:fs';
 import { openView, usePageServer, type ViewPage } from './harness';
 import { payloadOf, render } from './payloads';
 import { geometry, near, pixelsAround, toPixel, type ChartGeometry } from './pixels';
@@ -86,6 +87,8 @@ describe('curve view measurement plot (headless Chromium)', function () {
       before,
     );
     assert.equal((await geometryOf()).kind, 'series');
+    mkdirSync('test-output/webview', { recursive: true });
+    await view.page.locator('#measurement').screenshot({ path: 'test-output/webview/measurement-series-light.png' });
     // Above a drawn fit the chip says what is drawn, and the explanation is a note, not an error.
     assert.equal(await view.page.evaluate(() => document.getElementById('block-status')!.textContent), 'series fit');
     const problem = await view.page.evaluate(() => {
