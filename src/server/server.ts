@@ -15,7 +15,7 @@ import {
 } from 'vscode-languageserver';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import { Debouncer, noteDiagnostics } from './diagnostics';
-import { codeActions } from './features/codeActions';
+import { CODE_ACTION_FIX_ALL, codeActions } from './features/codeActions';
 import { codeLenses, resultsMarkdown } from './features/codeLens';
 import { completion } from './features/completion';
 import { curvePayload } from './features/curve';
@@ -76,7 +76,7 @@ export function startServer(connection: Connection): void {
         textDocumentSync: TextDocumentSyncKind.Incremental,
         hoverProvider: true,
         inlayHintProvider: true,
-        codeActionProvider: { codeActionKinds: [CodeActionKind.QuickFix] },
+        codeActionProvider: { codeActionKinds: [CodeActionKind.QuickFix, CODE_ACTION_FIX_ALL] },
         completionProvider: { triggerCharacters: [' ', ':', '{', ','] },
         documentSymbolProvider: true,
         foldingRangeProvider: true,

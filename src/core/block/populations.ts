@@ -4,7 +4,7 @@
  * (`2.0e16 cm-3`). All are ≥ 0; only their ratios matter.
  */
 import type { Span } from '../types';
-import { readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
+import { readFraction, readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import { deref, isScalar, type Entry } from './yamlTree';
 
 const LETTER = /[a-zA-Zµ]/;
@@ -16,7 +16,7 @@ export function readPopulation(ctx: ReadContext, node: unknown, subject: string)
   // (nor typing: a number's text has no letter but an exponent's, and the typed value is only read for text).
   const text = isScalar(n) && LETTER.test(n.source) && typeof n.value === 'string' ? n.value : '';
   const unit = LETTER.test(text) && LETTER.test(text.replace(/e[+-]?\d/gi, ''));
-  const v = unit ? readQuantity(ctx, n, 'density', subject) : readNumber(ctx, n, subject);
+  const v = unit ? readQuantity(ctx, n, 'density', subject) : readFraction(ctx, n, subject);
   if (v && v.value < 0) {
     report(ctx, 'error', 'population-negative', `${subject}: a population cannot be negative.`, v.span);
     return null;
