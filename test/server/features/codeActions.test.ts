@@ -203,4 +203,21 @@ describe('typing that forgives', () => {
       /such as `1200 cm-1` \(an energy\)/,
     );
   });
+
+  it('explains a value that needs quotes in plain words and offers to quote it', () => {
+    // YAML 1.2.2 §7.3.3: a plain scalar cannot start with `[`; `[1-13C]pyruvic acid` is a flow sequence
+    // followed by stray text, a syntax error.
+    const body = ['system: 13C', 'field: 3 T', 'polarization: 0.1'];
+    const { state, position } = withCursor(note('sample: [1-13C]pyr$0uvic acid', ...body));
+    const p = state.report.blocks[0]!.problems.find((x) => x.code === 'yaml-syntax')!;
+    assert.match(p.message, /^`sample`: .*put it in quotes/);
+    assert.doesNotMatch(p.message, /Unexpected scalar/);
+    const actions = codeActions(state, { start: position, end: position }, DEFAULT_SETTINGS);
+    const quote = actions.find((a) => a.title === 'Put the value in quotes')!;
+    const fixed = apply(state, quote);
+    assert.equal(fixed, note('sample: "[1-13C]pyruvic acid"', ...body));
+    assert.equal(noteState(fixed).report.blocks[0]!.status, 'normal');
+    // A list that is a list stays one: no quoting offered where YAML reads the line fine.
+    assert.equal(noteState(note('sample: [a, b]', ...body)).report.blocks[0]!.problems.length, 0);
+  });
 });
