@@ -57,7 +57,9 @@ export function codeActions(state: NoteState, range: Range, _settings: Settings)
       const fixes = (p.fixes ?? []).filter(
         (f) => insideBlock(b, f.span) && (f.more ?? []).every((m) => insideBlock(b, m.span)),
       );
-      if (fixes.length === 0 || !touches(p.span, from, to)) continue;
+      // Offered where the problem is marked and also where its fix would edit (e.g. on any item of a list
+      // the fix reorders), so the fix is found from the text it changes.
+      if (fixes.length === 0 || !(touches(p.span, from, to) || fixes.some((f) => touches(f.span, from, to)))) continue;
       const diagnostic = problemToDiagnostic(state, p);
       for (const f of fixes) {
         actions.push({

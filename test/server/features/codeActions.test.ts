@@ -220,4 +220,32 @@ describe('typing that forgives', () => {
     // A list that is a list stays one: no quoting offered where YAML reads the line fine.
     assert.equal(noteState(note('sample: [a, b]', ...body)).report.blocks[0]!.problems.length, 0);
   });
+
+  it('offers to list top-down levels bottom up where the note is marked and on every level item', () => {
+    const items = [
+      '  - { label: B, energy: 410 cm-1, g: 5, population: 0.05 }',
+      '  - { label: A, energy: 120 cm-1, g: 3, population: 0.25 }',
+      '  - { label: ground, energy: 0 cm-1, g: 1, population: 0.70 }',
+    ];
+    const bottomUp = note('levels:', items[2]!, items[1]!, items[0]!);
+    for (const [line, col] of [
+      [0, 3],
+      [1, 12],
+      [2, 30],
+      [3, 20],
+    ] as const) {
+      const lines = ['levels:', ...items];
+      lines[line] = lines[line]!.slice(0, col) + '$0' + lines[line]!.slice(col);
+      const { state, position } = withCursor(note(...lines));
+      const fix = codeActions(state, { start: position, end: position }, DEFAULT_SETTINGS).find(
+        (a) => a.title === 'List the levels lowest energy first',
+      );
+      assert.ok(fix, `offered at line ${line}`);
+      assert.equal(apply(state, fix), bottomUp);
+    }
+    const p = noteState(note('levels:', ...items)).report.blocks[0]!.problems.find(
+      (x) => x.code === 'levels-descending',
+    )!;
+    assert.match(p.message, /listed from the top \(highest energy\) down/);
+  });
 });
