@@ -90,21 +90,26 @@ const charts = new CurveCharts(
 function draw(): void {
   drawRuns();
   const current = last?.current ?? null;
-  panel.showPins(last?.pinned ?? [], (key) => host.post({ type: 'unpin', key }));
-  controls.setDrawable(current?.kind === 'curve');
+  const plotPins = last?.pinnedPlots ?? [];
+  panel.showPins(last?.pinned ?? [], plotPins, (key) => host.post({ type: 'unpin', key }));
+  controls.setDrawable(current?.kind === 'curve', current?.kind === 'curve' || !!current?.plot);
   const palette = readPalette();
   // Drawn after its section is shown, so chart.js measures a laid-out canvas.
   const plot = current?.plot ?? null;
+  // Pinned plots of the same kind (series with series, Boltzmann plots with Boltzmann plots), not the block shown.
+  const overlay = plotPins.filter(
+    (p) => plot && p.plot.kind === plot.kind && !(current && p.uri === current.uri && p.line === current.line),
+  );
   if (current === null) {
     measurement.draw(null, palette);
     return panel.showEmpty();
   }
   if (current.kind === 'problem') {
     panel.showProblem(current);
-    return measurement.draw(plot, palette);
+    return measurement.draw(plot, palette, overlay);
   }
   panel.showCurve(current);
-  measurement.draw(plot, palette);
+  measurement.draw(plot, palette, overlay);
   charts.draw(viewModel(current, last?.pinned ?? [], unit, palette), palette);
   for (const c of charts.canvases())
     c.setAttribute(

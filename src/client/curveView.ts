@@ -14,6 +14,7 @@ import {
   payloadTitle,
   pinsBesides,
   type CurvePayload,
+  type PinnedPlot,
   type PinnedRun,
   type RunChartPayload,
   type ViewPayload,
@@ -73,6 +74,7 @@ export class CurveView implements vscode.Disposable {
   private target: CurveTarget | null = null;
   private current: ViewPayload | null = null;
   private pins: PinnedRun[] = [];
+  private plotPins: PinnedPlot[] = [];
   private runs: RunChartPayload | null = null;
   private runsSource: RunsSource = { kind: 'note' };
   /** The note reader's run log, kept so that its analyzer's block cache serves every refresh. */
@@ -121,7 +123,8 @@ export class CurveView implements vscode.Disposable {
     if (isViewState(state) && state.last) {
       const shown = state.last.current;
       view.pins = [...state.last.pinned];
-      view.pinCount = view.pins.length;
+      view.plotPins = [...(state.last.pinnedPlots ?? [])];
+      view.pinCount = view.pins.length + view.plotPins.length;
       if (shown) view.follow({ uri: shown.uri, line: shown.line });
     }
     return view;
@@ -230,6 +233,7 @@ export class CurveView implements vscode.Disposable {
       seq: ++this.seq,
       current: this.current,
       pinned: this.pins,
+      pinnedPlots: this.plotPins,
       runs: this.runs,
     });
   }
@@ -253,9 +257,11 @@ export class CurveView implements vscode.Disposable {
         return this.send();
       case 'pin':
         if (shown) this.pin(shown);
+        else if (this.current?.kind === 'problem' && this.current.plot) this.pinPlot(this.current);
         return;
       case 'unpin':
         this.pins = this.pins.filter((p) => p.key !== m.key);
+        this.plotPins = this.plotPins.filter((p) => p.key !== m.key);
         return this.send();
       case 'exportPng':
         if (shown) await savePng(shown, m.dataUrl);
@@ -300,6 +306,17 @@ export class CurveView implements vscode.Disposable {
     if (this.target) return vscode.Uri.parse(this.target.uri);
     const folder = vscode.workspace.workspaceFolders?.[0];
     return folder ? vscode.Uri.joinPath(folder.uri, 'runs.md') : null;
+  }
+
+  /** Pins the measurement plot of a block without a curve (a series fit, a Boltzmann plot), to compare runs. */
+  private pinPlot(p: Extract<ViewPayload, { kind: 'problem' }>): void {
+    if (!p.plot) return;
+    const rest = this.plotPins.filter((r) => !(r.uri === p.uri && r.line === p.line));
+    const id = p.id ?? `block at line ${p.line + 1}`;
+    this.plotPins = [...rest, { key: `pin-${++this.pinCount}`, id, uri: p.uri, line: p.line, plot: p.plot }].slice(
+      -MAX_PINS,
+    );
+    this.send();
   }
 
   /** Pins a snapshot of the shown run (replacing an older pin of the same block). */

@@ -92,6 +92,7 @@ export {
   type ExportPngMessage,
   type HostToView,
   type PinMessage,
+  type PinnedPlot,
   type PinnedRun,
   type ReadyMessage,
   type RenderMessage,

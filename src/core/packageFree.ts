@@ -28,6 +28,7 @@ export {
   type OpenRunMessage,
   type HostToView,
   type PinMessage,
+  type PinnedPlot,
   type PinnedRun,
   type ReadyMessage,
   type RenderMessage,

@@ -3,8 +3,8 @@
  * as readonly discriminated unions shared by both sides, with validators
  * that each side applies on arrival: a message that fails them is dropped.
  */
-import type { CurvePayload, ViewPayload } from './payload';
-import { isCurvePayload, isViewPayload } from './payloadCheck';
+import type { CurvePayload, MeasurementPlot, ViewPayload } from './payload';
+import { isCurvePayload, isPlot, isViewPayload } from './payloadCheck';
 import { isArrayOf, isCount, isOneOf, isRecord, isText } from './validate';
 import { isRunChartPayload, RUN_QUANTITIES, type RunChartPayload, type RunQuantity } from './runChart';
 
@@ -20,6 +20,16 @@ export interface PinnedRun {
   readonly payload: CurvePayload;
 }
 
+/** A measurement plot the user pinned (a series fit, a Boltzmann plot), drawn over the plot of the block shown. */
+export interface PinnedPlot {
+  readonly key: string;
+  /** The block's id, or its place in the note. */
+  readonly id: string;
+  readonly uri: string;
+  readonly line: number;
+  readonly plot: MeasurementPlot;
+}
+
 /** Host → view: draw this (the block under the cursor, or null for none yet) with these pinned runs. */
 export interface RenderMessage {
   readonly type: 'render';
@@ -27,6 +37,8 @@ export interface RenderMessage {
   readonly seq: number;
   readonly current: ViewPayload | null;
   readonly pinned: readonly PinnedRun[];
+  /** Pinned measurement plots (series fits, Boltzmann plots); absent for none. */
+  readonly pinnedPlots?: readonly PinnedPlot[];
   /** The runs compared (the note's blocks, or the run log's filter); absent or null for none. */
   readonly runs?: RunChartPayload | null;
 }
@@ -124,6 +136,19 @@ function isPngDataUrl(x: unknown): x is string {
   );
 }
 
+function isPinnedPlot(x: unknown): x is PinnedPlot {
+  return (
+    isRecord(x) &&
+    isText(x.key, 100) &&
+    isText(x.id, 1000) &&
+    isText(x.uri, 4000) &&
+    isCount(x.line) &&
+    x.plot !== null &&
+    x.plot !== undefined &&
+    isPlot(x.plot)
+  );
+}
+
 function isPinned(x: unknown): x is PinnedRun {
   return isRecord(x) && isText(x.key, 100) && isCurvePayload(x.payload);
 }
@@ -136,7 +161,8 @@ export function isRenderMessage(x: unknown): x is RenderMessage {
     isCount(x.seq) &&
     (x.current === null || isViewPayload(x.current)) &&
     isArrayOf(x.pinned, isPinned, 100) &&
-    (x.runs === undefined || x.runs === null || isRunChartPayload(x.runs))
+    (x.runs === undefined || x.runs === null || isRunChartPayload(x.runs)) &&
+    (x.pinnedPlots === undefined || isArrayOf(x.pinnedPlots, isPinnedPlot, 100))
   );
 }
 
