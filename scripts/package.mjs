@@ -35,7 +35,7 @@ const STAGED = [
   'syntaxes',
   'docs',
   'scripts/build.mjs',
-  'scripts/lazyNotebook.cjs',
+  'scripts/lazyNoteReader.cjs',
 ];
 /** Files a user's install cannot do without. */
 const REQUIRED = [
