@@ -113,7 +113,8 @@ function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayH
     if (!span || starts.indexOf(span.start) !== starts.lastIndexOf(span.start)) return;
     const pair = (k: number): PairLevel => ({ energy: levels[k].energy, g: levels[k].g, population: fractions[k] });
     const name = (k: number): string => levels[k].label ?? `level ${k + 1}`;
-    const parts = [`n/g = ${formatNumber(fractions[i] / level.g, short.digits)}${normalised ? ' (normalised)' : ''}`];
+    const ng = `n/g = ${formatNumber(fractions[i] / level.g, short.digits)}`;
+    const parts = [`${ng}${normalised ? ' (normalised)' : ''}`];
     let tooltip = `${name(i)}: population per degeneracy n/g = ${formatNumber(fractions[i] / level.g, o.digits)}${normalised ? ' (the populations as given, normalised to sum 1)' : ' (the populations sum to 1 as given)'}.`;
     // With two levels the pair temperature is the block's own T, already in the block hint.
     if (i > 0 && levels.length > 2) {
@@ -123,7 +124,11 @@ function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayH
       parts.push(`T(${which}) = ${pairTemperatureText(t, short)}${inverted ? ' inverted' : ''}`);
       tooltip += ` Excitation temperature of the pair ${name(i)}–${name(i - 1)} (this level and the one below): ${pairTemperatureText(t, o)}${inverted ? ', negative: the pair is inverted' : ''}.`;
     }
-    const label = fitHint(parts);
+    // The pair temperature matters more than the reminder: when both do not fit, the reminder goes (it
+    // stays on the lowest level, which has no pair, and in every tooltip).
+    const whole = parts.join(' · ');
+    const label =
+      [...whole].length <= HINT_WIDTH || parts.length === 1 ? fitHint(parts) : fitHint([ng, ...parts.slice(1)]);
     out.push({
       position: levelHintPosition(state, input.form === 'levels', span, spans),
       label,

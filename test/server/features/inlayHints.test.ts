@@ -82,6 +82,26 @@ describe('inlay hints', () => {
     ]);
   });
 
+  it('keep the pair temperature when "normalised" would crowd it out, and say it on the lowest level', () => {
+    // The demo's reference lamp: populations 1.0, 2.93e-3, 5.20e-3 (sum 1.00813) over g = 2, 2, 4.
+    // T(P1/2–ground) = 12579 cm⁻¹ · c₂ / ln[(1.0/2)/(2.93e-3/2)] = 18098.4 K / 5.8329 = 3102.8 K → "3100 K"
+    // (c₂ = hc/k = 1.438776877 cm K, CODATA 2018; three significant digits).
+    check(
+      note(
+        'levels:',
+        '  - { label: ground, energy: 0 cm-1,     g: 2, population: 1.0 }',
+        '  - { label: P1/2,   energy: 12579 cm-1, g: 2, population: 2.93e-3 }',
+        '  - { label: P3/2,   energy: 12817 cm-1, g: 4, population: 5.20e-3 }',
+      ),
+      [
+        [2, 9, 'T = 3100.4 K'],
+        [4, 64, 'n/g = 0.496 (normalised)'],
+        [5, 68, 'n/g = 0.00145 · T(P1/2–ground) = 3100 K'],
+        [6, 68, 'n/g = 0.00129 · T(P3/2–P1/2) = 2870 K'],
+      ],
+    );
+  });
+
   it('stay within 40 characters on every block of the demo notebook', () => {
     // 40 characters: what an editor of ordinary width shows after a short line (common practice, no source).
     for (const f of readdirSync('demo').filter((x) => x.endsWith('.md'))) {
