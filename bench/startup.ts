@@ -19,11 +19,21 @@ import Module from 'node:module';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { lazyNoteReader } from '../scripts/lazyNoteReader.cjs';
+import { browserDocsLink } from '../scripts/browserDocsLink.cjs';
 import { median, now } from './stats';
 
 /** One bundle: its size and its limit (KB), or null when its entry point does not exist yet. */
 export interface BundleSize {
-  readonly name: 'client' | 'note reader' | 'server' | 'webview' | 'cli' | 'language client alone';
+  readonly name:
+    | 'client'
+    | 'note reader'
+    | 'server'
+    | 'webview'
+    | 'cli'
+    | 'web extension'
+    | 'web worker server'
+    | 'notebook cell renderer'
+    | 'language client alone';
   readonly entry: string;
   readonly kb: number | null;
   readonly limitKb: number | null;
@@ -42,9 +52,15 @@ export interface BundleSize {
 const LIMITS: Record<BundleSize['name'], number | null> = {
   client: null,
   'note reader': 450,
-  server: 600,
+  // Raised from 600 KB when the trades' physics, the uncertainty budget and the full IUPAC isotope table came in.
+  server: 700,
   webview: 450,
   cli: null,
+  // The browser bundles carry the whole core (the web extension host loads one file, no lazy second bundle):
+  // held to the note reader's and the server's limits plus the browser client library they add.
+  'web extension': 850,
+  'web worker server': 700,
+  'notebook cell renderer': 450,
   'language client alone': null,
 };
 const CLIENT_OVER_FLOOR = 1.1;
@@ -53,12 +69,20 @@ const CLIENT_OVER_FLOOR = 1.1;
 const FLOOR_SOURCE =
   "import { LanguageClient } from 'vscode-languageclient/node';\nexport const floor = LanguageClient;\n";
 
-const ENTRIES: readonly { name: BundleSize['name']; entry: string; out: string; browser: boolean }[] = [
+const ENTRIES: readonly {
+  name: BundleSize['name'];
+  entry: string;
+  out: string;
+  browser: boolean | 'cjs' | 'esm';
+}[] = [
   { name: 'client', entry: 'src/client/extension.ts', out: 'extension', browser: false },
   { name: 'note reader', entry: 'src/client/noteReader.ts', out: 'noteReader', browser: false },
   { name: 'server', entry: 'src/server/index.ts', out: 'server', browser: false },
   { name: 'webview', entry: 'media/src/view.ts', out: 'media/view', browser: true },
   { name: 'cli', entry: 'src/cli/index.ts', out: 'cli', browser: false },
+  { name: 'web extension', entry: 'src/client/browser.ts', out: 'web/extension', browser: 'cjs' },
+  { name: 'web worker server', entry: 'src/server/browser.ts', out: 'web/server', browser: true },
+  { name: 'notebook cell renderer', entry: 'src/client/cellRenderer.ts', out: 'cellRenderer', browser: 'esm' },
 ];
 
 const COMMON = {
@@ -107,7 +131,16 @@ export async function measureSizes(outdir: string): Promise<BundleSize[]> {
       ...COMMON,
       entryPoints: [{ in: e.entry, out: e.out }],
       outdir,
-      ...(e.browser ? { platform: 'browser' as const, target: 'es2022', format: 'iife' as const } : NODE),
+      ...(e.browser
+        ? {
+            platform: 'browser' as const,
+            target: 'es2022',
+            format: e.browser === true ? ('iife' as const) : e.browser,
+            external: ['vscode'],
+            define: { 'process.env.NODE_ENV': '"production"' },
+            plugins: [browserDocsLink],
+          }
+        : NODE),
     });
     sizes.push({ name: e.name, entry: e.entry, kb: writeJs(result), limitKb, limitNote });
   }
@@ -156,7 +189,7 @@ export async function measureActivation(outdir: string, repetitions: number): Pr
   const load = mod._load;
   const fork = childProcess.fork;
   const stop = new Error('bench: activation reached the server fork');
-  let forkedAt = -1;
+  let forkedAt: number;
   mod._load = function (request, parent, isMain) {
     return request === 'vscode' ? vscode : load.call(this, request, parent, isMain);
   };
@@ -170,6 +203,8 @@ export async function measureActivation(outdir: string, repetitions: number): Pr
       delete require.cache[file];
       forkedAt = -1;
       const start = now();
+      // A fresh load of the built bundle each time (the cache entry was deleted above): only require() does that.
+      // eslint-disable-next-line @typescript-eslint/no-require-imports
       const ext = require(file) as { activate(ctx: unknown): Promise<unknown> };
       const context = standIn('context', {
         subscriptions: [],

@@ -3,8 +3,10 @@
 import * as esbuild from 'esbuild';
 import { existsSync } from 'node:fs';
 import lazy from './lazyNoteReader.cjs';
+import docsLink from './browserDocsLink.cjs';
 
 const { lazyNoteReader } = lazy;
+const { browserDocsLink } = docsLink;
 
 const watch = process.argv.includes('--watch');
 const production = process.argv.includes('--production');
@@ -21,8 +23,21 @@ const nodeEntries = [
   { in: 'src/client/noteReader.ts', out: 'dist/noteReader' },
 ].filter((e) => existsSync(e.in));
 
-/** Browser-side bundles for the webview. */
+/** Browser-side bundles for the webview (an IIFE page script). */
 const webEntries = [{ in: 'media/src/view.ts', out: 'dist/media/view' }].filter((e) => existsSync(e.in));
+
+/**
+ * The extension where VS Code runs in a browser: the extension (CommonJS, as
+ * the web worker extension host loads it), its language server in a web worker
+ * (an IIFE), and the notebook cell renderer (an ES module, as VS Code's
+ * renderer extension point loads it). The browser platform makes esbuild
+ * refuse any Node built-in; the server's docs link has a browser variant.
+ */
+const browserEntries = [
+  { in: 'src/client/browser.ts', out: 'dist/web/extension', format: 'cjs', external: ['vscode'] },
+  { in: 'src/server/browser.ts', out: 'dist/web/server', format: 'iife' },
+  { in: 'src/client/cellRenderer.ts', out: 'dist/cellRenderer', format: 'esm' },
+].filter((e) => existsSync(e.in));
 
 const common = {
   bundle: true,
@@ -57,6 +72,23 @@ for (const e of webEntries) {
       platform: 'browser',
       target: 'es2022',
       format: 'iife',
+    }),
+  );
+}
+
+for (const e of browserEntries) {
+  contexts.push(
+    await esbuild.context({
+      ...common,
+      entryPoints: [{ in: e.in, out: e.out }],
+      outdir: '.',
+      platform: 'browser',
+      target: 'es2022',
+      format: e.format,
+      external: e.external ?? [],
+      // The language packages read `process.env` in a few debug paths; a browser has none.
+      define: { 'process.env.NODE_ENV': production ? '"production"' : '"development"' },
+      plugins: [browserDocsLink],
     }),
   );
 }

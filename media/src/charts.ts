@@ -138,9 +138,13 @@ function options(m: ChartModel, p: Palette, legend: boolean, right: ScaleOptions
   };
 }
 
-/** The right axis of the β chart: the same scale as β, labelled at round temperatures T = 1/β (and ±∞ at β = 0). */
+/**
+ * The right axis of the β chart: the same scale as β, labelled at round temperatures T = 1/β (and ±∞ at
+ * β = 0). The β bars span β ± 2u(β), so read on this axis they span T's interval, the image of β's
+ * (skewed, exact coverage).
+ */
 function temperatureAxis(m: ChartModel, p: Palette): ScaleOptionsByType<'linear'> {
-  const a = axis('temperature T = 1/β', m.y.min, m.y.max, p, 'left');
+  const a = axis('T = 1/β (bars: 95 %)', m.y.min, m.y.max, p, 'left');
   const step = (m.y.max - m.y.min) * 1e-9;
   const betas = temperatureTicks(m.y.min, m.y.max);
   return {

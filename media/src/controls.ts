@@ -36,10 +36,10 @@ export function wireControls(
     const v = select.value;
     if ((ENERGY_AXIS_UNITS as readonly string[]).includes(v)) actions.unit(v as EnergyAxisUnit);
   });
-  on('pin-button', 'click', actions.pin);
-  on('export-png', 'click', actions.exportPng);
-  on('export-csv', 'click', actions.exportCsv);
-  on('copy-link', 'click', actions.copyImageLink);
+  on('pin-button', 'click', () => actions.pin());
+  on('export-png', 'click', () => actions.exportPng());
+  on('export-csv', 'click', () => actions.exportCsv());
+  on('copy-link', 'click', () => actions.copyImageLink());
   return {
     setUnit,
     /** Exports need a curve; pinning also works for a measurement plot (`pinnable`). */

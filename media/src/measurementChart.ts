@@ -5,21 +5,13 @@
  */
 import { Chart, type ChartDataset } from 'chart.js';
 import type { MeasurementPlot, PinnedPlot } from '../../src/core/packageFree';
+import { largestMagnitude, paddedRange } from './axisRange';
 import { shortNumber } from './numbers';
 import type { Palette } from './theme';
 
 type Scatter = Chart<'scatter'>;
 
-function range(values: readonly number[]): { min: number; max: number } {
-  let min = Math.min(...values);
-  let max = Math.max(...values);
-  if (!(max > min)) {
-    min -= 1;
-    max += 1;
-  }
-  const pad = (max - min) * 0.08;
-  return { min: min - pad, max: max + pad };
-}
+const range = paddedRange;
 
 /** The tick values of every axis, as JSON, for tests: `{"x":[…],"y":[…],"y2":[…]}`. */
 export function tickValues(chart: Chart): string {
@@ -118,7 +110,11 @@ export class MeasurementChart {
     });
     const x = range(xs);
     const y = range(ys);
-    const rmax = Math.max(1e-300, ...plot.residuals.map((r) => Math.abs(r.y))) * 1.2;
+    const rmax =
+      largestMagnitude(
+        plot.residuals.map((r) => r.y),
+        1e-300,
+      ) * 1.2;
     const axis = (title: string, min: number, max: number, position: 'left' | 'right' | 'bottom', grid: boolean) => ({
       type: 'linear' as const,
       position,

@@ -5,6 +5,7 @@
  * and the inversion region. Pure: no DOM, no chart.js.
  */
 import {
+  COVERAGE_FACTOR,
   pinsBesides,
   type CurvePayload,
   type DisplayUnit,
@@ -12,7 +13,7 @@ import {
   type PinnedRun,
 } from '../../src/core/packageFree';
 import { shortNumber, shortTemperature } from './numbers';
-import type { Palette } from './theme';
+import type { Palette } from './palette';
 
 /** A point on screen axes. */
 export interface XY {
@@ -190,7 +191,8 @@ export function viewModel(
     eBars.push({ x, y: m.entropy, dx, dy: m.uEntropy, color });
     if (m.beta !== null) {
       b.push({ role, label: p.id, points: [{ x, y: m.beta }], color, pointStyle: shape });
-      bBars.push({ x, y: m.beta, dx, dy: m.uBeta, color });
+      // The β bar is the k = 2 interval β ± 2u(β) (the contract's `interval`); the T axis reads it as T's interval.
+      bBars.push({ x, y: m.beta, dx, dy: m.uBeta === null ? null : COVERAGE_FACTOR * m.uBeta, color });
     }
   }
   const t = base.thermal;

@@ -72,7 +72,7 @@ export class Panel {
   /** No block yet. */
   showEmpty(): void {
     this.show('empty');
-    this.title.textContent = 'Energy–entropy curve';
+    this.title.textContent = 'Curve view';
     this.status.textContent = '';
     delete this.status.dataset.status;
     this.problem.replaceChildren(

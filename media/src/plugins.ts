@@ -35,6 +35,8 @@ export interface DeficitOptions {
 }
 
 declare module 'chart.js' {
+  // The type parameter must keep Chart.js's own name and arity for the declaration to merge.
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
   interface PluginOptionsByType<TType extends ChartType> {
     inversion?: InversionOptions;
     errorBars?: ErrorBarOptions;
@@ -110,7 +112,7 @@ export const errorBarsPlugin: Plugin = {
   id: 'errorBars',
   afterDatasetsDraw(chart, _args, options) {
     const o = options as unknown as ErrorBarOptions;
-    if (!Array.isArray(o.bars)) return;
+    if (!Array.isArray(o.bars as unknown)) return;
     const { ctx, chartArea: a } = chart;
     const { x, y } = scales(chart);
     ctx.save();
@@ -127,16 +129,22 @@ export const errorBarsPlugin: Plugin = {
       if (bar.dx !== null && bar.dx > 0) {
         const l = x.getPixelForValue(bar.x - bar.dx);
         const r = x.getPixelForValue(bar.x + bar.dx);
-        (ctx.moveTo(l, py), ctx.lineTo(r, py));
-        (ctx.moveTo(l, py - cap), ctx.lineTo(l, py + cap));
-        (ctx.moveTo(r, py - cap), ctx.lineTo(r, py + cap));
+        ctx.moveTo(l, py);
+        ctx.lineTo(r, py);
+        ctx.moveTo(l, py - cap);
+        ctx.lineTo(l, py + cap);
+        ctx.moveTo(r, py - cap);
+        ctx.lineTo(r, py + cap);
       }
       if (bar.dy !== null && bar.dy > 0) {
         const t = y.getPixelForValue(bar.y + bar.dy);
         const b = y.getPixelForValue(bar.y - bar.dy);
-        (ctx.moveTo(px, t), ctx.lineTo(px, b));
-        (ctx.moveTo(px - cap, t), ctx.lineTo(px + cap, t));
-        (ctx.moveTo(px - cap, b), ctx.lineTo(px + cap, b));
+        ctx.moveTo(px, t);
+        ctx.lineTo(px, b);
+        ctx.moveTo(px - cap, t);
+        ctx.lineTo(px + cap, t);
+        ctx.moveTo(px - cap, b);
+        ctx.lineTo(px + cap, b);
       }
       ctx.stroke();
     }

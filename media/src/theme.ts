@@ -5,25 +5,9 @@
  * `vscode-high-contrast`, `vscode-high-contrast-light`) and the variables.
  */
 
-/** Resolved theme colours for canvas drawing. */
-export interface Palette {
-  readonly background: string;
-  readonly foreground: string;
-  readonly muted: string;
-  readonly grid: string;
-  readonly curve: string;
-  readonly finiteN: string;
-  readonly measured: string;
-  readonly lattice: string;
-  readonly inversion: string;
-  readonly saturation: string;
-  /** Colours of pinned runs, in order. */
-  readonly pins: readonly string[];
-  readonly fontFamily: string;
-  readonly fontSize: number;
-  /** True in high-contrast themes: thicker lines, no transparency tricks. */
-  readonly highContrast: boolean;
-}
+import type { Palette } from './palette';
+
+export type { Palette } from './palette';
 
 /** The first of the variables that is set, else the fallback (itself a variable's value). */
 function read(style: CSSStyleDeclaration, names: readonly string[], fallback: string): string {

@@ -1,10 +1,17 @@
 /** The output formats of `boltzmark report`: a table for people, JSON (the contract), CSV and Markdown. */
 import {
+  csvText,
+  markdownCode,
+  markdownText,
+  terminalText,
   measurementShort,
   betaText,
   enhancementText,
   fractionText,
-  temperatureText,
+  linesCsv,
+  withoutSymbol,
+  polarizationText,
+  temperatureIntervalText,
   type ReportEntry,
   type BlockReport,
   DEFAULT_DISPLAY,
@@ -13,18 +20,20 @@ import {
 /** A block with its report entry, for the formatters. */
 export interface Row {
   readonly entry: ReportEntry;
-  readonly block: BlockReport;
+  /** Null for a file that could not be read (its entry says why). */
+  readonly block: BlockReport | null;
 }
 
 /** The table's header; each row has one cell per heading. */
 const TABLE_HEAD = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
 
 /**
- * How a narrow table makes room, step by step: leave out β (T says the same), then P_th (a reference
+ * How a narrow table makes room, step by step: move what follows T's value (its 95 % interval, kT) to an
+ * indented line under the row, leave out β (T says the same), then P_th (a reference
  * value), then move ε and the measurement results to an indented line under their row, then shorten
  * long places and ids. Nothing but β and P_th is ever left out.
  */
-const NARROWING = ['beta', 'thermal', 'below', 'shorten'] as const;
+const NARROWING = ['interval', 'beta', 'thermal', 'below', 'shorten'] as const;
 /** Default width of the table when there is no terminal to ask: an ordinary terminal's 100 columns. */
 export const DEFAULT_TABLE_WIDTH = 100;
 
@@ -72,22 +81,34 @@ export function formatTable(
   o: TableOptions = { width: DEFAULT_TABLE_WIDTH, wide: false },
 ): string {
   if (rows.length === 0) return 'No levels blocks found.\n';
-  const body = tableCells(rows, true);
-  // The last column holds the measurement results; without any it is not printed at all.
-  let keep = TABLE_HEAD.map((_, i) => i).filter((i) => i !== 8 || body.some((r) => r[8] !== ''));
+  // Note text (file names, ids, messages quoting the note) without control characters: no escape sequences.
+  const body = tableCells(rows, true).map((r) => r.map(terminalText));
+  // P, P_th, ε and the measurement results are not printed when no row has a value there (emission
+  // lines and radio transitions have no polarization): a column of dashes says nothing.
+  let keep = TABLE_HEAD.map((_, i) => i).filter((i) => i < 5 || body.some((r) => r[i] !== '—' && r[i] !== ''));
+  // A loop, not Math.max(...cells): a report of a few hundred thousand blocks would overflow the stack.
   const widthsOf = (cells: string[][], cols: number[]): number[] =>
-    cols.map((i) => Math.max(textWidth(TABLE_HEAD[i]), ...cells.map((r) => textWidth(r[i]))));
+    cols.map((i) => cells.reduce((w, r) => Math.max(w, textWidth(r[i])), textWidth(TABLE_HEAD[i])));
   const total = (cells: string[][], cols: number[]): number =>
     widthsOf(cells, cols).reduce((a, b) => a + b, 0) + 2 * (cols.length - 1);
   let cells = body;
   const dropped: string[] = [];
   let below = false;
+  // T's interval and kT, when moved under the row (the `interval` step).
+  let tailsOfT: string[] = cells.map(() => '');
   if (!o.wide) {
     for (const step of NARROWING) {
       const excess = total(cells, keep) - o.width;
       if (excess <= 0) break;
-      if (step === 'beta' || step === 'thermal') {
+      if (step === 'interval') {
+        tailsOfT = cells.map((r) => {
+          const at = r[3].indexOf(' (');
+          return at < 0 ? '' : r[3].slice(at + 1);
+        });
+        cells = cells.map((r) => r.map((c, i) => (i === 3 && c.includes(' (') ? c.slice(0, c.indexOf(' (')) : c)));
+      } else if (step === 'beta' || step === 'thermal') {
         const col = step === 'beta' ? 4 : 6;
+        if (!keep.includes(col)) continue;
         keep = keep.filter((k) => k !== col);
         dropped.push(TABLE_HEAD[col]);
       } else if (step === 'below') {
@@ -111,10 +132,13 @@ export function formatTable(
   const out = [line(TABLE_HEAD), line(TABLE_HEAD.map((_, i) => '-'.repeat(widths[keep.indexOf(i)] ?? 0)))];
   rows.forEach(({ entry }, i) => {
     out.push(line(cells[i]));
-    const extra = [cells[i][7] !== '—' ? `ε = ${cells[i][7]}` : '', cells[i][8]].filter((x) => x !== '');
-    if (below && extra.length) out.push(`    ${extra.join(' · ')}`);
+    const extra = [
+      tailsOfT[i] !== '' ? `T ${tailsOfT[i]}` : '',
+      ...(below ? [cells[i][7] !== '—' ? `ε = ${cells[i][7]}` : '', cells[i][8]] : []),
+    ].filter((x) => x !== '');
+    if (extra.length) out.push(`    ${extra.join(' · ')}`);
     for (const d of entry.diagnostics) {
-      const text = `    ${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code}: ${d.message}`;
+      const text = terminalText(`    ${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
       out.push(...(o.wide ? [text] : wrap(text, o.width, '        ')));
     }
   });
@@ -157,85 +181,120 @@ const CSV_HEAD = [
   'threshold_gain_per_cm',
   'errors',
   'warnings',
+  'beta_low_95',
+  'beta_high_95',
+  'temperature_low_95',
+  'temperature_high_95',
+  'polarization_low_95',
+  'polarization_high_95',
 ];
 
-function csvCell(v: string | number | null): string {
-  if (v === null) return '';
-  const s = String(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** CSV (RFC 4180) with full-precision numbers and empty cells for unknowns. */
+/** CSV through the core's writer (RFC 4180, formula-guarded), full-precision numbers, empty cells for unknowns. */
 export function formatCsv(rows: readonly Row[]): string {
-  const lines = [CSV_HEAD.join(',')];
-  for (const { entry: e } of rows) {
-    lines.push(
-      [
-        e.file,
-        e.line,
-        e.id,
-        e.status,
-        e.beta?.value ?? null,
-        e.beta?.uncertainty ?? null,
-        e.temperature?.value ?? null,
-        e.temperature?.uncertainty ?? null,
-        e.polarization?.value ?? null,
-        e.polarization?.uncertainty ?? null,
-        e.thermalPolarization,
-        e.enhancement,
-        e.enhancementUncertainty,
-        e.entropy,
-        e.timeConstant?.value ?? null,
-        e.timeConstant?.uncertainty ?? null,
-        e.gainCoefficient,
-        e.gainCoefficientUncertainty,
-        e.singlePassGain,
-        e.singlePassGainUncertainty,
-        e.thresholdGain,
-        e.diagnostics.filter((d) => d.severity === 'error').length,
-        e.diagnostics.filter((d) => d.severity === 'warning').length,
-      ]
-        .map(csvCell)
-        .join(','),
-    );
-  }
-  return lines.join('\r\n') + '\r\n';
+  return csvText([
+    CSV_HEAD,
+    ...rows.map(({ entry: e }) => [
+      e.file,
+      e.line,
+      e.id,
+      e.status,
+      e.beta?.value ?? null,
+      e.beta?.uncertainty ?? null,
+      e.temperature?.value ?? null,
+      e.temperature?.uncertainty ?? null,
+      e.polarization?.value ?? null,
+      e.polarization?.uncertainty ?? null,
+      e.thermalPolarization,
+      e.enhancement,
+      e.enhancementUncertainty,
+      e.entropy,
+      e.timeConstant?.value ?? null,
+      e.timeConstant?.uncertainty ?? null,
+      e.gainCoefficient,
+      e.gainCoefficientUncertainty,
+      e.singlePassGain,
+      e.singlePassGainUncertainty,
+      e.thresholdGain,
+      e.diagnostics.filter((d) => d.severity === 'error').length,
+      e.diagnostics.filter((d) => d.severity === 'warning').length,
+      e.beta?.interval?.[0] ?? null,
+      e.beta?.interval?.[1] ?? null,
+      e.temperature?.interval?.[0] ?? null,
+      e.temperature?.interval?.[1] ?? null,
+      e.polarization?.interval?.[0] ?? null,
+      e.polarization?.interval?.[1] ?? null,
+    ]),
+  ]);
 }
 
-/** Escapes text for a Markdown table cell (pipes, backslashes, HTML, line breaks). */
-function mdCell(s: string): string {
-  return s
-    .replace(/\\/g, '\\\\')
-    .replace(/\|/g, '\\|')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/[\r\n]+/g, ' ');
-}
-
-/** A Markdown results table, to paste into a summary note. */
+/**
+ * A Markdown results table, to paste into a summary note. The cells that come
+ * from the note (the file name and the block id) are literal text: the file
+ * and line in a code span that no backtick in the name can close, the id with
+ * every Markdown character escaped. The other cells are Boltzmark's own
+ * numbers and words.
+ */
 export function formatMarkdown(rows: readonly Row[]): string {
   if (rows.length === 0) return '_No levels blocks found._\n';
-  const head = TABLE_HEAD;
-  const cells = tableCells(rows, true);
+  const [head, cells] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows, true));
   const out = [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`];
-  for (const c of cells) out.push(`| \`${mdCell(c[0])}\` | ${c.slice(1).map(mdCell).join(' | ')} |`);
+  cells.forEach((c, i) => {
+    const e = rows[i]!.entry;
+    const id = e.id === null ? c[1]! : markdownText(e.id);
+    // The numbers are Boltzmark's own, but `|T| ≥ …` holds the table's cell separator.
+    const rest = c.slice(2).map((x) => x.replace(/\|/g, '\\|'));
+    out.push(`| ${markdownCode(where(e, e.line))} | ${id} | ${rest.join(' | ')} |`);
+  });
   return out.join('\n') + '\n';
+}
+
+/**
+ * Leaves out the P, P_th, ε and "also" columns when no row has a value there
+ * (emission lines and radio transitions have no polarization): a column of
+ * dashes says nothing.
+ */
+function withoutEmptyColumns(head: readonly string[], body: readonly string[][]): [string[], string[][]] {
+  const optional = new Set(['P', 'P_th', 'ε', 'also']);
+  const keep = head.map((h, i) => !optional.has(h) || body.some((r) => r[i] !== '—' && r[i] !== ''));
+  return [head.filter((_, i) => keep[i]), body.map((r) => r.filter((_, i) => keep[i]))];
+}
+
+/** The per-line plot data of every block of lines as CSV (one row per line; formula-like text guarded). */
+export function formatLinePoints(rows: readonly Row[]): string {
+  return linesCsv(
+    rows.flatMap(({ entry, block }) =>
+      block ? [{ file: entry.file, line: entry.line, id: entry.id, results: block.results }] : [],
+    ),
+  );
 }
 
 /** The cells of one row per block: where, id, status, T, β, P, P_th, ε, and the other results. */
 function tableCells(rows: readonly Row[], withUncertainty: boolean): string[][] {
   return rows.map(({ entry: e, block: b }) => {
-    const r = b.results;
+    const r = b?.results ?? null;
     return [
-      `${e.file}:${e.line}`,
+      where(e, e.line),
       e.id ?? '—',
       e.status,
-      r && (r.beta || r.limit) ? temperatureText(r).replace(/^T = /, '') : '—',
+      r && (r.beta || r.limit) ? withoutSymbol(temperatureIntervalText(r)) : '—',
       r && (r.beta || r.limit) ? betaText(r).replace(/^β = /, '').replace(/ K⁻¹$/, '') : '—',
-      r?.polarization ? fractionText(r.polarization) : '—',
-      r?.thermalPolarization != null ? fractionText(r.thermalPolarization, { ...DEFAULT_DISPLAY, digits: 3 }) : '—',
+      r?.polarization ? polarizationText(r) : '—',
+      r?.thermalPolarization != null
+        ? fractionText(
+            { value: r.thermalPolarization, uncertainty: r.uThermalPolarization },
+            { ...DEFAULT_DISPLAY, digits: 3 },
+          )
+        : '—',
       r ? enhancementText(r.enhancement, DEFAULT_DISPLAY, r.enhancementUncertainty) : '—',
       r ? (measurementShort(r, withUncertainty) ?? '') : '',
     ];
   });
+}
+
+/**
+ * Where a line of a note is, as people and CI annotations read it: `file:line`, and for a notebook cell
+ * `file, cell N:line` (the line counted in the cell, as the editor shows it there).
+ */
+export function where(e: Pick<ReportEntry, 'file' | 'cell'>, line: number): string {
+  return e.cell === null ? `${e.file}:${line}` : `${e.file}, cell ${e.cell}:${line}`;
 }

@@ -1,33 +1,132 @@
 /**
  * `boltzmark report <files|folders…>` reports every `levels` block of the
- * notes; `boltzmark check` prints their diagnostics for CI. Exit status: 0 when no block has an error, 1 when one has, 2 for a
- * usage error (unknown option, unreadable path), as the contract says.
+ * notes; `boltzmark check` prints their diagnostics for CI. Exit status: 0 when
+ * no block has an error, 1 when one has or a file could not be read (that file
+ * is reported in place of its blocks and every other file still is), 2 for a
+ * usage error (an unknown option or format, `-` given twice).
  */
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
-import { Analyzer, LineIndex, reportEntry, STATUSES, type Status } from '../core';
-import { collectFiles, readNote, UsageError } from './files';
-import { DEFAULT_TABLE_WIDTH, formatCsv, formatJson, formatMarkdown, formatTable, type Row } from './formats';
+import {
+  Analyzer,
+  decodeUtf8,
+  isNotebookPath,
+  notebookCells,
+  notebookInvalidEntry,
+  LineIndex,
+  notUtf8Diagnostic,
+  reportEntry,
+  STATUSES,
+  terminalText,
+  unreadableEntry,
+  type Status,
+} from '../core';
+// The bundler keeps only this field of package.json.
+import { version } from '../../package.json';
+import { collectNotes, UsageError } from './files';
+import {
+  DEFAULT_TABLE_WIDTH,
+  formatCsv,
+  formatJson,
+  formatLinePoints,
+  formatMarkdown,
+  formatTable,
+  where,
+  type Row,
+} from './formats';
 
-/** Where the CLI writes; the tests pass their own. */
+/** Where the CLI reads and writes; the tests pass their own. */
 export interface Io {
   readonly out: (s: string) => void;
   readonly err: (s: string) => void;
+  /** The folder relative paths are read from (names are printed as given). */
   readonly cwd: string;
   /** The terminal's width in columns, when the output is a terminal. */
   readonly columns?: number;
+  /** Standard input, read whole, for the path `-`. */
+  readonly stdin?: () => Uint8Array;
 }
 
-/** Every block of the notes under the given paths, in file then line order. */
+/** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
 function analyseAll(paths: readonly string[], io: Io): Row[] {
   const analyzer = new Analyzer();
   const rows: Row[] = [];
-  for (const file of collectFiles(paths, io.cwd)) {
-    const note = readNote(file);
-    const lines = new LineIndex(note.text);
-    for (const block of analyzer.analyzeText(note.text).blocks)
-      rows.push({ block, entry: reportEntry(note.name, block, lines) });
+  const stdin = io.stdin ?? (() => new Uint8Array(0));
+  for (const note of collectNotes(paths, io.cwd, stdin)) {
+    if ('unreadable' in note) {
+      rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
+      continue;
+    }
+    const decoded = decodeUtf8(note.bytes);
+    // A byte-order mark is not part of the note; offsets after it move back by one.
+    const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
+    const text = bom ? decoded.text.slice(1) : decoded.text;
+    const invalid = decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom }));
+    if (isNotebookPath(note.name)) {
+      rows.push(...notebookRows(analyzer, note.name, text));
+      if (invalid.length > 0)
+        io.err(
+          terminalText(
+            `boltzmark: warning: '${note.name}': the bytes at offset ${invalid[0]!.byte} are not UTF-8; they are read as U+FFFD`,
+          ) + '\n',
+        );
+      continue;
+    }
+    const lines = new LineIndex(text);
+    const blocks = analyzer.analyzeText(text).blocks;
+    // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
+    const outside: { byte: number; offset: number }[] = [];
+    let next = 0;
+    for (const block of blocks) {
+      const entry = reportEntry(note.name, block, lines);
+      while (next < invalid.length && invalid[next]!.offset < block.block.openStart) outside.push(invalid[next++]!);
+      const inside: { byte: number; offset: number }[] = [];
+      while (next < invalid.length && invalid[next]!.offset < block.block.blockEnd) inside.push(invalid[next++]!);
+      const first = inside[0];
+      rows.push({
+        block,
+        entry: first
+          ? {
+              ...entry,
+              diagnostics: [notUtf8Diagnostic(first.byte, first.offset, inside.length, lines), ...entry.diagnostics],
+            }
+          : entry,
+      });
+    }
+    // Bytes outside every block change no result, but are not replaced in silence either.
+    for (; next < invalid.length; next++) outside.push(invalid[next]!);
+    if (outside.length > 0)
+      io.err(
+        terminalText(
+          `boltzmark: warning: '${note.name}': the bytes at offset ${outside[0]!.byte} are not UTF-8` +
+            (outside.length > 1
+              ? ` (and ${outside.length - 1} more outside levels blocks)`
+              : ' (outside levels blocks)') +
+            '; they are read as U+FFFD',
+        ) + '\n',
+      );
   }
   return rows;
+}
+
+/**
+ * The rows of a Jupyter notebook: every block of its Markdown cells, each placed by its cell (1-based, among all
+ * cells) and its line in that cell; or, for a file that is not a notebook, one row with the fault.
+ */
+function notebookRows(analyzer: Analyzer, name: string, text: string): Row[] {
+  const nb = notebookCells(text);
+  if (nb.problem)
+    return [
+      {
+        block: null,
+        entry: notebookInvalidEntry(name, nb.problem.message, nb.problem.line + 1, nb.problem.column + 1),
+      },
+    ];
+  return nb.cells.flatMap((c) => {
+    const lines = new LineIndex(c.text);
+    return analyzer
+      .analyzeText(c.text)
+      .blocks.map((block) => ({ block, entry: reportEntry(name, block, lines, c.index + 1) }));
+  });
 }
 
 const hasError = (rows: readonly Row[]): boolean =>
@@ -48,7 +147,14 @@ export function report(
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
   const width = io.columns !== undefined && io.columns >= 40 ? io.columns : DEFAULT_TABLE_WIDTH;
   const table = (r: readonly Row[]): string => formatTable(r, { width, wide });
-  const formatter = { json: formatJson, csv: formatCsv, markdown: formatMarkdown, table }[format] ?? table;
+  const formatter =
+    {
+      json: formatJson,
+      csv: formatCsv,
+      'line-points': formatLinePoints,
+      markdown: formatMarkdown,
+      table,
+    }[format] ?? table;
   io.out(formatter(shown));
   return hasError(rows) ? 1 : 0;
 }
@@ -65,7 +171,7 @@ export function check(paths: readonly string[], io: Io): number {
     for (const d of entry.diagnostics) {
       if (d.severity === 'error') errors++;
       if (d.severity === 'warning') warnings++;
-      io.out(`${entry.file}:${d.line}:${d.column}: ${d.severity} ${d.code} ${d.message}\n`);
+      io.out(`${terminalText(`${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code} ${d.message}`)}\n`);
     }
   }
   io.err(`boltzmark: ${rows.length} block(s) checked, ${errors} error(s), ${warnings} warning(s)\n`);
@@ -94,6 +200,7 @@ export function main(argv: readonly string[], io: Io): number {
     .description(
       'Spin and excitation temperatures, polarization and population inversion from the levels blocks of Markdown notes.',
     )
+    .version(version, '-V, --version', 'print the version and exit')
     .exitOverride()
     .configureOutput({
       writeOut: io.out,
@@ -102,11 +209,14 @@ export function main(argv: readonly string[], io: Io): number {
     });
   program
     .command('report')
-    .description('report every levels block of the given notes (folders are searched for *.md)')
-    .argument('<paths...>', 'Markdown files or folders')
+    .description('report every levels block of the given notes (folders are searched for *.md, - reads standard input)')
+    .argument('<paths...>', 'Markdown files or folders, or - for standard input')
     .addOption(
-      new Option('-f, --format <format>', 'output format')
-        .choices(['table', 'json', 'csv', 'markdown'])
+      new Option(
+        '-f, --format <format>',
+        'output format (line-points: the plot data of every block of lines as CSV, one row per line)',
+      )
+        .choices(['table', 'json', 'csv', 'line-points', 'markdown'])
         .default('table'),
     )
     .addOption(
@@ -122,7 +232,7 @@ export function main(argv: readonly string[], io: Io): number {
   program
     .command('check')
     .description('print every diagnostic as file:line:col: severity code message; exit 1 when any is an error')
-    .argument('<paths...>', 'Markdown files or folders')
+    .argument('<paths...>', 'Markdown files or folders, or - for standard input')
     .action((paths: string[]) => {
       status = check(paths, io);
     });
@@ -134,7 +244,7 @@ export function main(argv: readonly string[], io: Io): number {
       return err.exitCode === 0 ? 0 : 2;
     }
     if (err instanceof UsageError) {
-      io.err(`boltzmark: ${err.message}\n`);
+      io.err(`boltzmark: ${terminalText(err.message)}\n`);
       return 2;
     }
     throw err;

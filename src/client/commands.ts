@@ -1,11 +1,12 @@
 /**
- * Commands of the extension. "Show Energy–Entropy Curve" opens the curve
+ * Commands of the extension. "Show Curve View" opens the curve
  * view beside the note (from the code lens, the palette or the editor title
  * bar); "Copy Block Results" puts the block's results table on the clipboard.
  */
 import * as vscode from 'vscode';
-import type { LanguageClient } from 'vscode-languageclient/node';
+import type { BaseLanguageClient as LanguageClient } from 'vscode-languageclient';
 import { ResultsMarkdownRequest } from '../shared/protocol';
+import { background } from './background';
 import { CurveView } from './curveView';
 
 /** Resolves the note and line a command acts on: its arguments, or the active editor's cursor. */
@@ -33,7 +34,12 @@ export function registerCommands(
   getClient: () => LanguageClient | undefined,
   log: vscode.LogOutputChannel,
 ): void {
-  const noBlock = (): void => void vscode.window.showInformationMessage('Place the cursor in a `levels` block first.');
+  const noBlock = (): void =>
+    background(
+      log,
+      'the no-block message',
+      vscode.window.showInformationMessage('Place the cursor in a `levels` block first.'),
+    );
   context.subscriptions.push(
     // One view for all three: the lens names what the block has (its S(E) curve, a series fit or a Boltzmann plot).
     ...['boltzmark.showCurve', 'boltzmark.showSeriesFit', 'boltzmark.showBoltzmannPlot'].map((id) =>
@@ -54,7 +60,12 @@ export function registerCommands(
     }),
     vscode.commands.registerCommand('boltzmark.restartServer', async () => {
       log.info('restarting the language server');
-      await getClient()?.restart();
+      // Stop and start: the same on both kinds of client (the Node client's restart() is this too).
+      const client = getClient();
+      if (client) {
+        await client.stop();
+        await client.start();
+      }
     }),
   );
 }

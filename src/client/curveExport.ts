@@ -35,7 +35,7 @@ export async function saveCsv(
   if (uri)
     await vscode.workspace.fs.writeFile(
       uri,
-      Buffer.from(noteReader().curveCsv([p, ...pinned], unit === 'block' ? p.unit : null), 'utf8'),
+      new TextEncoder().encode(noteReader().curveCsv([p, ...pinned], unit === 'block' ? p.unit : null)),
     );
   return uri;
 }

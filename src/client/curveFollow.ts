@@ -4,6 +4,7 @@
  * the cursor, debounced so that typing and arrowing do not flood the server.
  */
 import * as vscode from 'vscode';
+import { Debouncer } from '../shared/debouncer';
 import { CurveView } from './curveView';
 
 /** Pause after the last cursor move or keystroke before the view asks again. */
@@ -11,15 +12,13 @@ export const FOLLOW_DELAY_MS = 150;
 
 /** Registers the listeners; they do nothing while no view is open. */
 export function followCursor(): vscode.Disposable {
-  let timer: ReturnType<typeof setTimeout> | undefined;
-  const later = (editor: vscode.TextEditor): void => {
-    clearTimeout(timer);
-    timer = setTimeout(() => {
+  const follow = new Debouncer(FOLLOW_DELAY_MS);
+  const later = (editor: vscode.TextEditor): void =>
+    follow.schedule('cursor', () => {
       const view = CurveView.active;
       if (view && !editor.document.isClosed)
         view.follow({ uri: editor.document.uri.toString(), line: editor.selection.active.line });
-    }, FOLLOW_DELAY_MS);
-  };
+    });
   const subscriptions = [
     vscode.window.onDidChangeTextEditorSelection((e) => {
       if (CurveView.active && e.textEditor.document.languageId === 'markdown') later(e.textEditor);
@@ -31,5 +30,10 @@ export function followCursor(): vscode.Disposable {
         later(editor);
     }),
   ];
-  return { dispose: () => (clearTimeout(timer), subscriptions.forEach((s) => s.dispose())) };
+  return {
+    dispose: () => {
+      follow.dispose();
+      for (const s of subscriptions) s.dispose();
+    },
+  };
 }

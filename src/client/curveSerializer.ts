@@ -9,8 +9,9 @@ import { CURVE_VIEW_TYPE, CurveView, type CurveViewHost } from './curveView';
 /** Registers the serializer for the `boltzmark.curveView` panels. */
 export function registerCurveSerializer(host: CurveViewHost): vscode.Disposable {
   return vscode.window.registerWebviewPanelSerializer(CURVE_VIEW_TYPE, {
-    async deserializeWebviewPanel(panel: vscode.WebviewPanel, state: unknown) {
+    deserializeWebviewPanel(panel: vscode.WebviewPanel, state: unknown): Promise<void> {
       CurveView.revive(panel, host, state);
+      return Promise.resolve();
     },
   });
 }

@@ -1,5 +1,5 @@
 /**
- * The energy–entropy view beside the editor: one webview panel that shows
+ * The curve view beside the editor: one webview panel that shows
  * the block under the cursor (or the one a command names), with pinned runs
  * overlaid. Curve data come from the language server (`boltzmark/curveData`,
  * computed by the core); the page only draws. Messages from the page are
@@ -7,7 +7,7 @@
  * older version of the note than the editor's is asked for again.
  */
 import * as vscode from 'vscode';
-import type { LanguageClient } from 'vscode-languageclient/node';
+import type { BaseLanguageClient as LanguageClient } from 'vscode-languageclient';
 import {
   isViewState,
   isViewToHost,
@@ -22,6 +22,7 @@ import {
 } from '../core/packageFree';
 import { CurveDataRequest } from '../shared/protocol';
 import type { RunEntry, RunLog } from '../core';
+import { background } from './background';
 import { copyImageLink, saveCsv, savePng, saveRunsCsv, saveRunsPng } from './curveExport';
 import { displayOptions } from './display';
 import { noteReader } from './loadNoteReader';
@@ -95,7 +96,7 @@ export class CurveView implements vscode.Disposable {
     else {
       const panel = vscode.window.createWebviewPanel(
         CURVE_VIEW_TYPE,
-        'Energy–entropy curve',
+        'Curve view',
         { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true },
         webviewOptions(host.extensionUri),
       );
@@ -153,7 +154,7 @@ export class CurveView implements vscode.Disposable {
   follow(target: CurveTarget): void {
     if (target.uri === '') return;
     this.target = target;
-    void this.refresh(3);
+    background(this.host.log, 'curve view: refresh', this.refresh(3));
   }
 
   /** Recomputes the run comparison (its source changed) and sends it when it changed. */
@@ -228,14 +229,18 @@ export class CurveView implements vscode.Disposable {
 
   private send(): void {
     if (this.disposed) return;
-    void this.panel.webview.postMessage({
-      type: 'render',
-      seq: ++this.seq,
-      current: this.current,
-      pinned: this.pins,
-      pinnedPlots: this.plotPins,
-      runs: this.runs,
-    });
+    background(
+      this.host.log,
+      'curve view: render',
+      this.panel.webview.postMessage({
+        type: 'render',
+        seq: ++this.seq,
+        current: this.current,
+        pinned: this.pins,
+        pinnedPlots: this.plotPins,
+        runs: this.runs,
+      }),
+    );
   }
 
   private receive(m: unknown): void {
@@ -244,9 +249,10 @@ export class CurveView implements vscode.Disposable {
       this.host.log.warn('curve view: dropped a malformed message from the page');
       return;
     }
-    void this.handle(m).catch((err: Error) => {
-      this.host.log.error(`curve view: ${err.message}`);
-      void vscode.window.showErrorMessage(`Boltzmark: ${err.message}`);
+    this.handle(m).catch((err: unknown) => {
+      const message = err instanceof Error ? err.message : String(err);
+      this.host.log.error(`curve view: ${message}`);
+      background(this.host.log, 'curve view: error message', vscode.window.showErrorMessage(`Boltzmark: ${message}`));
     });
   }
 

@@ -25,7 +25,11 @@ export function fileStem(id: string): string {
 
 /** The bytes of a `data:image/png;base64,` URL (already validated by the message check). */
 export function pngBytes(dataUrl: string): Uint8Array {
-  return Buffer.from(dataUrl.slice(dataUrl.indexOf(',') + 1), 'base64');
+  // atob exists in Node.js and browsers alike (the extension also runs in a web worker, where Buffer does not).
+  const binary = atob(dataUrl.slice(dataUrl.indexOf(',') + 1));
+  const bytes = new Uint8Array(binary.length);
+  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
+  return bytes;
 }
 
 /** Escapes text for a Markdown image's alt text (brackets, backslashes, line breaks). */

@@ -6,10 +6,14 @@
 import type MarkdownIt from 'markdown-it';
 import { Analyzer, resultsHtml, type DisplayOptions } from '../core';
 
-/** Options: which fences are ours and how numbers are shown. */
+/**
+ * Options: which fences are ours and how numbers are shown, for the note
+ * being rendered: each gets markdown-it's render `env`, in which VS Code's
+ * preview passes the note as `currentDocument`, so the note's folder settings apply.
+ */
 export interface PreviewOptions {
-  readonly infoStrings: () => readonly string[];
-  readonly display: () => DisplayOptions;
+  readonly infoStrings: (env: unknown) => readonly string[];
+  readonly display: (env: unknown) => DisplayOptions;
 }
 
 /** Extends a markdown-it instance (VS Code's preview one, or any other). */
@@ -20,9 +24,9 @@ export function levelsPreview(md: MarkdownIt, options: PreviewOptions): Markdown
     const html = fence(tokens, idx, opts, env, self);
     const token = tokens[idx];
     const language = token.info.trim().split(/\s+/, 1)[0] ?? '';
-    if (language !== 'levels' && !options.infoStrings().includes(language)) return html;
+    if (language !== 'levels' && !options.infoStrings(env).includes(language)) return html;
     try {
-      return html + resultsHtml(analyzer.analyseBody(token.content), options.display());
+      return html + resultsHtml(analyzer.analyseBody(token.content), options.display(env));
     } catch {
       // The preview must render even if analysis fails; the editor shows the problem.
       return html;

@@ -7,12 +7,18 @@
  */
 import * as vscode from 'vscode';
 import type { RunEntry, RunGroup, RunLog } from '../core';
-import { measuredTemperatureText, STATUSES, type Status } from '../core/packageFree';
+import { measuredTemperatureText, STATUSES, temperatureWithInterval, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
+import { background } from './background';
 import { noteReader } from './loadNoteReader';
 import { CurveView, type CurveViewHost } from './curveView';
+import { Debouncer } from '../shared/debouncer';
 
 const MAX_FILES = 2000;
+/** Notes the run log reads: Markdown, and Jupyter notebooks (their Markdown cells). */
+const NOTE_GLOB = '**/*.{md,ipynb}';
+/** Opens a notebook at a run's cell and line (internal: the tree's items call it). */
+const OPEN_CELL_RUN = 'boltzmark._openCellRun';
 const MAX_BYTES = 5 * 1024 * 1024;
 const DEBOUNCE_MS = 300;
 
@@ -51,17 +57,30 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
       return item;
     }
     const e = node.entry;
-    const item = new vscode.TreeItem(e.id ?? `block at line ${e.line + 1}`, vscode.TreeItemCollapsibleState.None);
+    const where = e.cell === null ? `line ${e.line + 1}` : `cell ${e.cell + 1}, line ${e.line + 1}`;
+    const item = new vscode.TreeItem(e.id ?? `block at ${where}`, vscode.TreeItemCollapsibleState.None);
     const t = e.temperature ? measuredTemperatureText(e.temperature, displayOptions(vscode.Uri.parse(e.uri))) : '';
     item.description = [e.status, t, this.by === 'date' ? e.name : (e.date ?? '')].filter((x) => x !== '').join(' · ');
-    item.tooltip = `${e.name}:${e.line + 1}\n${e.status}${t ? `\n${t}` : ''}`;
+    // The tooltip has room for what the k = 2 interval says (skewed T, or only a bound when saturated).
+    const full = temperatureWithInterval(
+      e.temperature,
+      e.temperatureInterval,
+      e.temperatureBound,
+      e.status === 'saturated',
+      displayOptions(vscode.Uri.parse(e.uri)),
+    );
+    const shown = full ?? t;
+    item.tooltip = `${e.name}${e.cell === null ? '' : ` (cell ${e.cell + 1})`}:${e.line + 1}\n${e.status}${shown ? `\n${shown}` : ''}`;
     item.iconPath = new vscode.ThemeIcon(STATUS_ICONS[e.status]);
     item.contextValue = 'boltzmark.run';
-    item.command = {
-      command: 'vscode.open',
-      title: 'Open run',
-      arguments: [vscode.Uri.parse(e.uri), { selection: new vscode.Range(e.line, 0, e.line, 0) }],
-    };
+    item.command =
+      e.cell === null
+        ? {
+            command: 'vscode.open',
+            title: 'Open run',
+            arguments: [vscode.Uri.parse(e.uri), { selection: new vscode.Range(e.line, 0, e.line, 0) }],
+          }
+        : { command: OPEN_CELL_RUN, title: 'Open run', arguments: [e.uri, e.cell, e.line] };
     return item;
   }
 }
@@ -83,16 +102,18 @@ export function registerRunLog(
 ): void {
   const tree = new RunLogTree();
   const view = vscode.window.createTreeView('boltzmark.runLog', { treeDataProvider: tree, showCollapseAll: true });
-  const timers = new Map<string, ReturnType<typeof setTimeout>>();
+  const rereads = new Debouncer(DEBOUNCE_MS);
   let started = false;
 
   // The folder's name leads the path only in a workspace of several folders (VS Code's default).
   const name = (uri: vscode.Uri): string => vscode.workspace.asRelativePath(uri);
   const readOne = async (uri: vscode.Uri): Promise<void> => {
     const open = vscode.workspace.textDocuments.find((d) => d.uri.toString() === uri.toString());
+    const notebook = vscode.workspace.notebookDocuments.find((d) => d.uri.toString() === uri.toString());
     try {
       let text: string;
       if (open) text = open.getText();
+      else if (notebook) text = notebookJson(notebook);
       else {
         const stat = await vscode.workspace.fs.stat(uri);
         if (stat.size > MAX_BYTES) return;
@@ -104,40 +125,41 @@ export function registerRunLog(
       log.debug(`run log: cannot read ${uri.toString()}: ${(err as Error).message}`);
     }
   };
-  const schedule = (uri: vscode.Uri): void => {
-    const key = uri.toString();
-    clearTimeout(timers.get(key));
-    timers.set(
-      key,
-      setTimeout(() => {
-        timers.delete(key);
-        void readOne(uri);
-      }, DEBOUNCE_MS),
-    );
-  };
+  const schedule = (uri: vscode.Uri): void =>
+    rereads.schedule(uri.toString(), () => background(log, `run log: reading ${uri.toString()}`, readOne(uri)));
   const start = async (): Promise<void> => {
     if (started) return;
     started = true;
-    const files = await vscode.workspace.findFiles('**/*.md', '**/node_modules/**', MAX_FILES);
+    const files = await vscode.workspace.findFiles(NOTE_GLOB, '**/node_modules/**', MAX_FILES);
     log.info(`run log: reading ${files.length} note(s)`);
     // A few at a time, so a large workspace does not flood the extension host.
     for (let i = 0; i < files.length; i += 16) await Promise.all(files.slice(i, i + 16).map(readOne));
-    const watcher = vscode.workspace.createFileSystemWatcher('**/*.md');
+    const watcher = vscode.workspace.createFileSystemWatcher(NOTE_GLOB);
     context.subscriptions.push(
       watcher,
       watcher.onDidCreate(schedule),
       watcher.onDidChange(schedule),
       watcher.onDidDelete((uri) => tree.log.remove(uri.toString()) && tree.refresh()),
+      // Unsaved edits of an open notebook: its cells, as the notebook's JSON would hold them.
+      vscode.workspace.onDidChangeNotebookDocument((e) => schedule(e.notebook.uri)),
       vscode.workspace.onDidChangeTextDocument(
-        (e) => e.document.languageId === 'markdown' && e.document.uri.scheme !== 'output' && schedule(e.document.uri),
+        // A notebook's cells are followed through their notebook, above.
+        (e) =>
+          e.document.languageId === 'markdown' &&
+          e.document.uri.scheme !== 'output' &&
+          e.document.uri.scheme !== 'vscode-notebook-cell' &&
+          schedule(e.document.uri),
       ),
     );
   };
 
-  if (view.visible) void start();
+  // The first scan starts when the view is first shown; a failure (e.g. of the file search) is logged.
+  const startNow = (): void => background(log, 'run log: the first scan', start());
+  if (view.visible) startNow();
   context.subscriptions.push(
     view,
-    view.onDidChangeVisibility((e) => e.visible && void start()),
+    rereads,
+    view.onDidChangeVisibility((e) => e.visible && startNow()),
     vscode.workspace.onDidChangeConfiguration((e) => e.affectsConfiguration('boltzmark.display') && tree.refresh()),
     vscode.commands.registerCommand('boltzmark.runLog.filter', async () => {
       const picks = await vscode.window.showQuickPick(
@@ -145,8 +167,7 @@ export function registerRunLog(
         { canPickMany: true, title: 'Show runs with these statuses' },
       );
       if (!picks) return;
-      tree.statuses =
-        picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label as Status);
+      tree.statuses = picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label);
       view.description = tree.statuses ? tree.statuses.join(', ') : undefined;
       tree.refresh();
     }),
@@ -159,6 +180,7 @@ export function registerRunLog(
         [...tree.log.entries(tree.statuses)].sort((a, b) => (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0));
       CurveView.compare(curveHost, { kind: 'list', title, entries }, null);
     }),
+    vscode.commands.registerCommand(OPEN_CELL_RUN, openCellRun),
     vscode.commands.registerCommand('boltzmark.runLog.groupBy', () => {
       tree.by = tree.by === 'file' ? 'date' : 'file';
       tree.refresh();
@@ -176,9 +198,32 @@ export function registerRunLog(
         target,
         new TextEncoder().encode(noteReader().runLogCsv(tree.log.entries(tree.statuses))),
       );
-      void vscode.window.showInformationMessage(
-        `Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`,
+      background(
+        log,
+        'run log: the export message',
+        vscode.window.showInformationMessage(
+          `Boltzmark: run log written to ${vscode.workspace.asRelativePath(target)}`,
+        ),
       );
     }),
   );
+}
+
+/** An open notebook's cells as nbformat 4 JSON (all the run log reads of it: the Markdown cells, by index). */
+function notebookJson(notebook: vscode.NotebookDocument): string {
+  const cells = notebook.getCells().map((c) => ({
+    cell_type: c.kind === vscode.NotebookCellKind.Markup ? 'markdown' : 'code',
+    source: c.document.getText(),
+  }));
+  return JSON.stringify({ cells, nbformat: 4 });
+}
+
+/** Shows a notebook with a run's cell selected and the cursor on the run's fence. */
+async function openCellRun(uri: string, cell: number, line: number): Promise<void> {
+  const notebook = await vscode.workspace.openNotebookDocument(vscode.Uri.parse(uri));
+  if (cell >= notebook.cellCount) return;
+  await vscode.window.showNotebookDocument(notebook, { selections: [new vscode.NotebookRange(cell, cell + 1)] });
+  await vscode.window.showTextDocument(notebook.cellAt(cell).document, {
+    selection: new vscode.Range(line, 0, line, 0),
+  });
 }

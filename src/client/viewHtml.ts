@@ -4,7 +4,6 @@
  * it: the block data arrive only by postMessage and are shown with
  * `textContent`. No vscode import, so tests can build the same page.
  */
-import { randomBytes } from 'node:crypto';
 
 /** What the page needs from its host. */
 export interface ViewHtmlOptions {
@@ -18,9 +17,13 @@ export interface ViewHtmlOptions {
   readonly nonce: string;
 }
 
-/** 128 random bits from the operating system's CSPRNG, base64-encoded: a nonce for one render. */
+/**
+ * 128 random bits from the platform's CSPRNG (Web Crypto, in Node.js as in a browser), base64-encoded: a nonce
+ * for one render.
+ */
 export function newNonce(): string {
-  return randomBytes(16).toString('base64');
+  const bytes = crypto.getRandomValues(new Uint8Array(16));
+  return btoa(String.fromCharCode(...bytes));
 }
 
 /** Escapes text for an HTML attribute value or text node. */
@@ -51,11 +54,11 @@ export function viewHtml(o: ViewHtmlOptions): string {
 <meta http-equiv="Content-Security-Policy" content="${e(contentSecurityPolicy(o.cspSource, o.nonce))}">
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <link rel="stylesheet" href="${e(o.styleUri)}" nonce="${e(o.nonce)}">
-<title>Energy–entropy curve</title>
+<title>Curve view</title>
 </head>
 <body data-drawn="0" data-state="empty">
 <header>
-  <h1 id="block-title">Energy–entropy curve</h1>
+  <h1 id="block-title">Curve view</h1>
   <span id="block-status" role="status"></span>
   <div class="controls">
     <label for="unit-select">Energy in</label>

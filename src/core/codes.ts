@@ -107,7 +107,8 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     severity: 'warning',
     summary: 'A flip angle on a build-up: the correction applies to decays only.',
   },
-  'detector-unknown': { severity: 'error', summary: '`detector` is neither `energy` nor `photon`.' },
+  'detector-unknown': { severity: 'error', summary: '`detector` is neither `energy`, `photon` nor `radiometer`.' },
+  'detector-assumed': { severity: 'info', summary: 'No `detector`: energy-calibrated intensities are assumed.' },
   'lines-too-few': { severity: 'error', summary: 'Fewer than two emission lines.' },
   'lines-mixed-species': { severity: 'error', summary: 'Lines of different species in one Boltzmann plot.' },
   'line-not-mapping': { severity: 'error', summary: 'An emission line is not a mapping.' },
@@ -122,7 +123,41 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'line-a-invalid': { severity: 'error', summary: 'A transition probability ≤ 0.' },
   'line-wavelength-invalid': { severity: 'error', summary: 'A wavelength ≤ 0.' },
   'line-intensity-invalid': { severity: 'error', summary: 'An intensity ≤ 0 (its logarithm is plotted).' },
-  'line-outlier': { severity: 'warning', summary: 'A line more than 3 σ off the fitted Boltzmann line.' },
+  'line-outlier': {
+    severity: 'warning',
+    summary: 'A line more than 3 σ off the line refitted without the outliers (iterative clipping).',
+  },
+  'line-frequency-missing': { severity: 'error', summary: 'A radiometer line without its frequency.' },
+  'line-frequency-invalid': { severity: 'error', summary: 'A line frequency ≤ 0.' },
+  'intensity-unit': { severity: 'error', summary: 'An integrated brightness in a unit other than K km/s.' },
+  'optical-depth-invalid': { severity: 'error', summary: 'An optical depth ≤ 0.' },
+  'energy-implausible': {
+    severity: 'warning',
+    summary: 'An upper-level energy far above any atomic or ionic level seen in emission.',
+  },
+  'energy-span-small': {
+    severity: 'warning',
+    summary: 'The upper-level energies span less than kT: the slope, and so T, is poorly defined.',
+  },
+  'temperature-below-background': {
+    severity: 'warning',
+    summary: 'A positive excitation temperature below the background or bath temperature.',
+  },
+  'line-temperature-incomplete': {
+    severity: 'error',
+    summary: '`brightness` without `optical-depth`, or the reverse.',
+  },
+  'populations-and-line-temperature': {
+    severity: 'error',
+    summary: 'Populations or a ratio together with `brightness`/`optical-depth`.',
+  },
+  'populations-mixed-units': {
+    severity: 'error',
+    summary: 'Populations mixing number densities, column densities and plain numbers.',
+  },
+  'wavelengths-unknown': { severity: 'error', summary: '`wavelengths` is neither `air` nor `vacuum`.' },
+  'background-not-positive': { severity: 'error', summary: 'A background temperature ≤ 0 K.' },
+  'rotor-not-positive': { severity: 'error', summary: 'A rotational constant ≤ 0.' },
   'gain-cross-section-missing': { severity: 'error', summary: 'Gain keys without `cross-section`.' },
   'gain-needs-densities': { severity: 'error', summary: 'The gain needs populations as number densities (cm⁻³).' },
   'gain-value-not-positive': { severity: 'error', summary: 'A cross-section or length ≤ 0.' },
@@ -137,6 +172,19 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'note-bounded': {
     severity: 'warning',
     summary: 'The note is larger than the editor reads as you type; later blocks get no results there.',
+  },
+  // The file (command line)
+  'file-unreadable': {
+    severity: 'error',
+    summary: 'The command line could not read the file (missing, not permitted, a broken link, not a regular file).',
+  },
+  'notebook-invalid': {
+    severity: 'error',
+    summary: 'A `.ipynb` file is not a Jupyter notebook (not JSON, or no cells); its Markdown cells cannot be read.',
+  },
+  'text-encoding-invalid': {
+    severity: 'warning',
+    summary: 'Bytes of the block are not UTF-8; each bad sequence is read as U+FFFD.',
   },
 };
 

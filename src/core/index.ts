@@ -15,10 +15,26 @@ export {
 } from './analyzer/analyzer';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
-export { BLOCK_KEYS, LEVEL_KEYS, type BlockForm, type KeyDoc } from './block/schema';
-export { findFencedBlocks, bodyToDocument, type FencedBlock } from './text/fences';
+export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
+export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
+export {
+  isNotebookPath,
+  notebookCells,
+  type NotebookCell,
+  type NotebookCells,
+  type NotebookProblem,
+} from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
-export { reportEntry, type ReportEntry, type ReportDiagnostic } from './present/report';
+export {
+  notebookInvalidEntry,
+  notUtf8Diagnostic,
+  reportEntry,
+  unreadableEntry,
+  type IntervalMeasured,
+  type ReportEntry,
+  type ReportDiagnostic,
+} from './present/report';
+export { decodeUtf8, type DecodedText, type InvalidUtf8 } from './text/utf8';
 export {
   DEFAULT_DISPLAY,
   STATUS_WORDS,
@@ -27,10 +43,28 @@ export {
   enhancementText,
   fractionText,
   measuredTemperatureText,
+  polarizationText,
   shortSummary,
+  statusText,
+  temperatureSymbol,
+  temperatureIntervalText,
   temperatureText,
+  temperatureWithInterval,
+  withoutSymbol,
   type DisplayOptions,
 } from './present/summary';
+export type { LinePlot, PlotPointResult, Trade, TradeResults } from './analysis/trade';
+export { tradeRows, linePointRows, linesCsv } from './present/tradeSummary';
+export { airToVacuum, vacuumToAir, airIndex } from './physics/airWavelength';
+export { lineTemperature, linearRotorPartition, opticalDepthCorrection } from './physics/radio';
+export {
+  COVERAGE_FACTOR,
+  resultIntervals,
+  temperatureSkewed,
+  type Interval,
+  type ResultIntervals,
+} from './analysis/intervals';
+export type { BudgetLine, BudgetSource } from './analysis/budget';
 export * from './present/numbers';
 export * from './quantities/constants';
 export {
@@ -124,3 +158,5 @@ export { LINE_KEYS, SIGNAL_KEYS, SERIES_KEYS } from './block/schema';
 export { resultsHtml, type PreviewBlock } from './present/preview/resultsHtml';
 export { sparklineSvg, escapeText, escapeAttr, type SparkPoint } from './present/preview/sparkline';
 export { RunLog, runLogCsv, type RunEntry, type RunGroup } from './present/runLog';
+export { csvText, csvField, guardFormula, type CsvField } from './present/csv';
+export { markdownCode, markdownText, terminalText } from './present/literal';

@@ -10,7 +10,14 @@
  * package, so the promise above cannot quietly break.
  */
 export { STATUSES, type Status } from './types';
-export { DEFAULT_DISPLAY, measuredTemperatureText, type DisplayOptions } from './present/summary';
+export { hasLevelsBlock } from './text/fences';
+export { COVERAGE_FACTOR } from './analysis/intervals';
+export {
+  DEFAULT_DISPLAY,
+  measuredTemperatureText,
+  temperatureWithInterval,
+  type DisplayOptions,
+} from './present/summary';
 export {
   ENERGY_AXIS_UNITS,
   isHostToView,

@@ -14,29 +14,3 @@ export function noteDiagnostics(state: NoteState): Diagnostic[] {
   for (const b of state.report.blocks) for (const p of b.problems) out.push(problemToDiagnostic(state, p));
   return out;
 }
-
-/** Runs `fn` once, `delayMs` after the last of a burst of calls for the same key. */
-export class Debouncer {
-  private readonly timers = new Map<string, ReturnType<typeof setTimeout>>();
-
-  constructor(private readonly delayMs: number) {}
-
-  /** Schedules (or re-schedules) the call for `key`. */
-  schedule(key: string, fn: () => void): void {
-    this.cancel(key);
-    this.timers.set(
-      key,
-      setTimeout(() => {
-        this.timers.delete(key);
-        fn();
-      }, this.delayMs),
-    );
-  }
-
-  /** Drops a pending call. */
-  cancel(key: string): void {
-    const t = this.timers.get(key);
-    if (t) clearTimeout(t);
-    this.timers.delete(key);
-  }
-}

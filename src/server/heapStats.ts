@@ -9,6 +9,9 @@ import type { MemoryStats } from '../shared/protocol';
 export function memoryStats(): MemoryStats {
   const gc = (globalThis as { gc?: () => void }).gc;
   gc?.();
-  const m = process.memoryUsage();
+  // In a web worker there is no process: the figures are then unknown (0), never an exception.
+  const usage = (globalThis as { process?: { memoryUsage?: () => { heapUsed: number; rss: number } } }).process
+    ?.memoryUsage;
+  const m = usage ? usage() : { heapUsed: 0, rss: 0 };
   return { heapUsed: m.heapUsed, rss: m.rss, collected: typeof gc === 'function' };
 }

@@ -6,5 +6,8 @@
  */
 import { createConnection, ProposedFeatures } from 'vscode-languageserver/node';
 import { startServer } from './server';
+import { logStrayRejections } from './strayRejections';
 
-startServer(createConnection(ProposedFeatures.all));
+const connection = createConnection(ProposedFeatures.all);
+logStrayRejections(connection);
+startServer(connection);

@@ -1,12 +1,15 @@
 /**
  * The open notes and their analyses. A note is analysed lazily, once per
- * version, by one shared core Analyzer (whose per-block cache makes an edit
- * re-read only the blocks it touched).
+ * version and per set of analysis settings, by a core Analyzer shared by
+ * every note with those settings (whose per-block cache makes an edit
+ * re-read only the blocks it touched). Settings that only change how
+ * results are shown never cause a new analysis.
  */
 import type { TextDocument } from 'vscode-languageserver-textdocument';
 import { Analyzer, LineIndex, type AnalyzerLimits } from '../core';
 import type { AnalysisStats } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
+import { analysisKey } from './settingsStore';
 import type { NoteState } from './state';
 
 /**
@@ -18,35 +21,33 @@ import type { NoteState } from './state';
  */
 export const SERVER_LIMITS: AnalyzerLimits = { maxBlocks: 5_000, maxBodyChars: 2_000_000 };
 
+/** Analyzers kept at once: one per distinct set of analysis settings in use (usually one). */
+const MAX_ANALYZERS = 8;
+
 /** Builds analyzer options from the settings. */
 function analyzerFor(s: Settings): Analyzer {
   return new Analyzer({ saturationSigma: s.saturationSigma, infoStrings: s.extraInfoStrings, limits: SERVER_LIMITS });
 }
 
-/** Cache of note analyses, keyed by URI and version. */
+/** Cache of note analyses, keyed by URI, version and analysis settings. */
 export class Notes {
-  private analyzer: Analyzer;
-  private readonly states = new Map<string, NoteState>();
+  private readonly analyzers = new Map<string, Analyzer>();
+  private readonly states = new Map<string, { state: NoteState; key: string }>();
   private readonly stats = new Map<string, AnalysisStats>();
+  private readonly runs = new Map<string, number>();
 
-  constructor(private settings: Settings) {
-    this.analyzer = analyzerFor(settings);
-  }
-
-  /** The current settings. */
-  get current(): Settings {
-    return this.settings;
-  }
-
-  /** The analysis of this version of the document, computed on first use. */
-  get(doc: TextDocument): NoteState {
+  /** The analysis of this version of the document with these settings, computed on first use. */
+  get(doc: TextDocument, settings: Settings): NoteState {
+    const key = analysisKey(settings);
     const known = this.states.get(doc.uri);
-    if (known && known.version === doc.version) return known;
+    if (known && known.state.version === doc.version && known.key === key) return known.state;
     const text = doc.getText();
-    const report = this.analyzer.analyzeText(text);
+    const report = this.analyzer(key, settings).analyzeText(text);
     const state: NoteState = { uri: doc.uri, version: doc.version, text, lines: new LineIndex(text), report };
-    this.states.set(doc.uri, state);
-    this.stats.set(doc.uri, { version: doc.version, blocks: report.blocks.length, ...report.stats });
+    const runs = (this.runs.get(doc.uri) ?? 0) + 1;
+    this.runs.set(doc.uri, runs);
+    this.states.set(doc.uri, { state, key });
+    this.stats.set(doc.uri, { version: doc.version, blocks: report.blocks.length, runs, ...report.stats });
     return state;
   }
 
@@ -59,12 +60,17 @@ export class Notes {
   forget(uri: string): void {
     this.states.delete(uri);
     this.stats.delete(uri);
+    this.runs.delete(uri);
   }
 
-  /** New settings: results may change, so every cached analysis is dropped. */
-  reconfigure(settings: Settings): void {
-    this.settings = settings;
-    this.analyzer = analyzerFor(settings);
-    this.states.clear();
+  /** The analyzer for a set of analysis settings; the least recently created one goes past MAX_ANALYZERS. */
+  private analyzer(key: string, settings: Settings): Analyzer {
+    let a = this.analyzers.get(key);
+    if (!a) {
+      a = analyzerFor(settings);
+      this.analyzers.set(key, a);
+      if (this.analyzers.size > MAX_ANALYZERS) this.analyzers.delete(this.analyzers.keys().next().value!);
+    }
+    return a;
   }
 }

@@ -5,6 +5,7 @@
  */
 import {
   CodeActionKind,
+  DidChangeConfigurationNotification,
   DocumentDiagnosticReportKind,
   TextDocuments,
   TextDocumentSyncKind,
@@ -14,7 +15,10 @@ import {
   type InitializeResult,
 } from 'vscode-languageserver';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { Debouncer, noteDiagnostics } from './diagnostics';
+import { version } from '../../package.json';
+import { background, clientCaps, refreshAfter, type ClientCaps } from './clientCaps';
+import { noteDiagnostics } from './diagnostics';
+import { Debouncer } from '../shared/debouncer';
 import { CODE_ACTION_FIX_ALL, codeActions } from './features/codeActions';
 import { codeLenses, resultsMarkdown } from './features/codeLens';
 import { completion } from './features/completion';
@@ -22,11 +26,12 @@ import { curvePayload } from './features/curve';
 import { foldingRanges } from './features/folding';
 import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
-import { documentSymbols } from './features/symbols';
+import { documentSymbols, flatSymbols } from './features/symbols';
 import { Notes } from './notes';
 import { memoryStats } from './heapStats';
 import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from '../shared/protocol';
-import { DEFAULT_SETTINGS, fromSection } from '../shared/settings';
+import type { Settings } from '../shared/settings';
+import { SettingsStore, type SettingsChange } from './settingsStore';
 import { blockAt, type NoteState } from './state';
 
 /** Pause after the last keystroke before pushed diagnostics are sent. */
@@ -41,36 +46,60 @@ export function startServer(connection: Connection): void {
   console.error = connection.console.error.bind(connection.console);
 
   const documents = new TextDocuments(TextDocument);
-  const notes = new Notes(DEFAULT_SETTINGS);
+  const notes = new Notes();
   const pushes = new Debouncer(PUSH_DELAY_MS);
-  let pull = false;
-  let configurable = false;
+  let caps: ClientCaps = clientCaps(undefined);
+  const log = (message: string): void => connection.console.warn(message);
+  const changed = (change: SettingsChange): void =>
+    refreshAfter(connection, caps, change, documents, (uri) => pushes.schedule(uri, () => push(uri)));
+  let settings = new SettingsStore(null, log, changed);
+  let folders: string[] = [];
 
-  const note = (uri: string): NoteState | null => {
-    const doc = documents.get(uri);
-    return doc ? notes.get(doc) : null;
+  /** The note's analysis and settings, once its folder's settings are known; null for an unknown note. */
+  const note = async (uri: string): Promise<{ state: NoteState; settings: Settings } | null> => {
+    if (!documents.get(uri)) return null;
+    const s = await settings.get(uri);
+    const doc = documents.get(uri); // the latest version: an edit may have come in while the settings did
+    return doc ? { state: notes.get(doc, s), settings: s } : null;
   };
   /** Runs a feature for a known, not cancelled request; empty otherwise. */
-  const serve = <T>(uri: string, token: CancellationToken | undefined, empty: T, fn: (s: NoteState) => T): T => {
+  const serve = async <T>(
+    uri: string,
+    token: CancellationToken | undefined,
+    empty: T,
+    fn: (s: NoteState, settings: Settings) => T,
+  ): Promise<T> => {
     if (token?.isCancellationRequested) return empty;
-    const s = note(uri);
-    if (!s || token?.isCancellationRequested) return empty;
     try {
-      return fn(s);
+      const n = await note(uri);
+      if (!n || token?.isCancellationRequested) return empty;
+      return fn(n.state, n.settings);
     } catch (err) {
-      connection.console.error(`boltzmark: ${(err as Error).stack ?? err}`);
+      connection.console.error(`boltzmark: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`);
       return empty;
     }
   };
   const push = (uri: string): void => {
-    const s = note(uri);
-    if (s) void connection.sendDiagnostics({ uri, version: s.version, diagnostics: noteDiagnostics(s) });
+    const sent = note(uri).then((n) =>
+      n
+        ? connection.sendDiagnostics({ uri, version: n.state.version, diagnostics: noteDiagnostics(n.state) })
+        : undefined,
+    );
+    background(connection, 'publishing diagnostics', sent);
   };
 
   connection.onInitialize((params: InitializeParams): InitializeResult => {
-    pull = !!params.capabilities.textDocument?.diagnostic;
-    configurable = !!params.capabilities.workspace?.configuration;
-    if (params.initializationOptions) notes.reconfigure(fromSection(params.initializationOptions));
+    caps = clientCaps(params.capabilities);
+    settings = new SettingsStore(
+      caps.configuration
+        ? (scopeUri) => connection.workspace.getConfiguration({ scopeUri, section: 'boltzmark' }) as Promise<unknown>
+        : null,
+      log,
+      changed,
+    );
+    settings.setFallback(params.initializationOptions);
+    folders = params.workspaceFolders?.map((f) => f.uri) ?? (params.rootUri ? [params.rootUri] : []);
+    settings.setFolders(folders);
     return {
       capabilities: {
         textDocumentSync: TextDocumentSyncKind.Incremental,
@@ -81,7 +110,7 @@ export function startServer(connection: Connection): void {
         documentSymbolProvider: true,
         foldingRangeProvider: true,
         codeLensProvider: { resolveProvider: false },
-        ...(pull
+        ...(caps.pull
           ? {
               diagnosticProvider: {
                 identifier: 'boltzmark',
@@ -90,59 +119,91 @@ export function startServer(connection: Connection): void {
               },
             }
           : {}),
+        ...(caps.workspaceFolders
+          ? { workspace: { workspaceFolders: { supported: true, changeNotifications: true } } }
+          : {}),
       },
-      serverInfo: { name: 'boltzmark-lsp', version: '0.1.0' },
+      serverInfo: { name: 'boltzmark-lsp', version },
     };
   });
 
-  const loadSettings = async (): Promise<void> => {
-    if (!configurable) return;
-    const section: unknown = await connection.workspace.getConfiguration('boltzmark');
-    notes.reconfigure(fromSection(section));
-    if (pull) connection.languages.diagnostics.refresh();
-    else documents.all().forEach((d) => push(d.uri));
-    connection.languages.inlayHint.refresh();
-    connection.sendRequest('workspace/codeLens/refresh').catch(() => undefined);
+  connection.onInitialized(() => {
+    // Without a registration VS Code's client sends no configuration changes (the static
+    // `synchronize.configurationSection` it used to read is deprecated); other clients send them unasked.
+    if (caps.configurationChange)
+      background(
+        connection,
+        'registering for configuration changes',
+        connection.client.register(DidChangeConfigurationNotification.type, { section: 'boltzmark' }),
+      );
+    if (caps.workspaceFolders)
+      connection.workspace.onDidChangeWorkspaceFolders((e) => {
+        const removed = new Set(e.removed.map((f) => f.uri));
+        folders = [...folders.filter((f) => !removed.has(f)), ...e.added.map((f) => f.uri)];
+        const open = documents.all().map((d) => d.uri);
+        background(
+          connection,
+          'reading the settings of the changed folders',
+          settings.reload(open, folders).then(changed),
+        );
+      });
+  });
+  /** Asks for the settings again (or takes the pushed ones) and refreshes only what a changed value affects. */
+  const reload = async (pushed?: unknown): Promise<void> => {
+    const change = caps.configuration
+      ? await settings.reload(documents.all().map((d) => d.uri))
+      : settings.setFallback(pushed);
+    changed(change);
   };
-  connection.onInitialized(() => void loadSettings().catch((e) => connection.console.error(String(e))));
-  connection.onDidChangeConfiguration(() => void loadSettings().catch((e) => connection.console.error(String(e))));
+  connection.onDidChangeConfiguration((p) => {
+    const section = (p.settings as { boltzmark?: unknown } | null | undefined)?.boltzmark;
+    if (!caps.configuration && section === undefined) return;
+    background(connection, 'reading the changed settings', reload(section));
+  });
 
   documents.onDidChangeContent((e) => {
-    if (!pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
+    if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
   documents.onDidClose((e) => {
     pushes.cancel(e.document.uri);
     notes.forget(e.document.uri);
-    if (!pull) void connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] });
+    if (!caps.pull)
+      background(
+        connection,
+        'clearing diagnostics',
+        connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] }),
+      );
   });
 
-  connection.languages.diagnostics.on((p, token) => ({
+  connection.languages.diagnostics.on(async (p, token) => ({
     kind: DocumentDiagnosticReportKind.Full,
-    items: serve(p.textDocument.uri, token, [], noteDiagnostics),
+    items: await serve(p.textDocument.uri, token, [], noteDiagnostics),
   }));
-  connection.onHover((p, token) => serve(p.textDocument.uri, token, null, (s) => hover(s, p.position, notes.current)));
+  connection.onHover((p, token) => serve(p.textDocument.uri, token, null, (s, set) => hover(s, p.position, set)));
   connection.languages.inlayHint.on((p, token) =>
-    serve(p.textDocument.uri, token, [], (s) => inlayHints(s, p.range, notes.current)),
+    serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
   );
-  connection.onCodeAction((p, token) =>
-    serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range, notes.current)),
-  );
+  connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
   connection.onCompletion((p, token) =>
-    serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, notes.current)),
+    serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, caps.snippets)),
   );
-  connection.onDocumentSymbol((p, token) => serve(p.textDocument.uri, token, [], documentSymbols));
+  connection.onDocumentSymbol((p, token) =>
+    serve(p.textDocument.uri, token, [], (s) =>
+      caps.hierarchicalSymbols ? documentSymbols(s) : flatSymbols(s.uri, documentSymbols(s)),
+    ),
+  );
   connection.onFoldingRanges((p, token) => serve(p.textDocument.uri, token, [], foldingRanges));
   connection.onCodeLens((p, token) => serve(p.textDocument.uri, token, [], codeLenses));
   connection.onRequest(ResultsMarkdownRequest, (p, token) =>
-    serve(p.uri, token, null, (s) => {
+    serve(p.uri, token, null, (s, set) => {
       const b = blockAt(s, s.lines.offsetAt({ line: p.line, character: 0 }));
-      return b ? resultsMarkdown(s, b, notes.current) : null;
+      return b ? resultsMarkdown(s, b, set) : null;
     }),
   );
   connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
   connection.onRequest(MemoryRequest, memoryStats);
   connection.onRequest(CurveDataRequest, (p, token) =>
-    serve(p.uri, token, null, (s) => curvePayload(s, p.line, notes.current)),
+    serve(p.uri, token, null, (s, set) => curvePayload(s, p.line, set)),
   );
 
   documents.listen(connection);

@@ -6,7 +6,7 @@
 import type { Position, Range } from 'vscode-languageserver';
 import {
   DEFAULT_DISPLAY,
-  LineIndex,
+  type LineIndex,
   type BlockReport,
   type DisplayOptions,
   type DocumentReport,

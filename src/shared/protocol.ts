@@ -19,6 +19,8 @@ export const ResultsMarkdownRequest = new RequestType<BlockParams, string | null
 /** How the last analysis of a note went: blocks read afresh and reused from the cache. */
 export interface AnalysisStats {
   readonly version: number;
+  /** Whole-note analyses since the note was opened (one per version, plus one per change of analysis settings). */
+  readonly runs: number;
   readonly blocks: number;
   readonly analysed: number;
   readonly reused: number;

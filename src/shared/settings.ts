@@ -14,6 +14,11 @@ export interface SettingDef {
   readonly enumDescriptions?: readonly string[];
   readonly minimum?: number;
   readonly maximum?: number;
+  /**
+   * Where it may be set: `resource` (the default: per workspace folder, so
+   * the server reads it per note) or `window` (one value for the window).
+   */
+  readonly scope?: 'resource' | 'window';
 }
 
 /** Every setting, named `boltzmark.<area>.<feature>`. */
@@ -69,6 +74,21 @@ export const SETTING_DEFS: readonly SettingDef[] = [
     type: 'array',
     default: [],
     description: 'Extra fence info strings (besides `levels`) whose blocks Boltzmark reads, e.g. `populations`.',
+  },
+  {
+    // Read by the language client library itself (`<client id>.trace.server`), not by the server.
+    key: 'boltzmark.trace.server',
+    type: 'string',
+    default: 'off',
+    enum: ['off', 'messages', 'verbose'],
+    enumDescriptions: [
+      'No record of the messages.',
+      'The name of each request and notification between VS Code and the language server, with its timing.',
+      'Each message in full, with its parameters and result.',
+    ],
+    scope: 'window',
+    description:
+      'Record the messages between VS Code and the Boltzmark language server in the Boltzmark output channel, e.g. to report a problem.',
   },
 ];
 

@@ -66,12 +66,34 @@ describe('Markdown preview of levels blocks', () => {
 
   it('puts the measured dot on the curve for a thermal two-level block, at the right height', () => {
     // p_upper = 1/(1 + e^x) at x = ε/kT = 1 gives S/(Nk) = 0.5822031089, the curve's value there
-    // (../shared/domain.md §7; canonical two-state system, Schroeder 2000).
+    // (canonical two-state system: S/(Nk) = ln(1 + e^−x) + x/(1 + e^x), D. V. Schroeder, An Introduction to Thermal
+    // Physics, Addison Wesley Longman 2000, §2.1 and Problem 3.23; the value derived from it).
     const html = render(`\`\`\`levels\ngap: 1 K\nratio: ${Math.exp(-1)}\n\`\`\`\n`);
     const circle = /<circle cx="([\d.]+)" cy="([\d.]+)"/.exec(html)!;
     const cy = Number(circle[2]);
     // H = 48, PAD = 4, maximum S = ln 2 at the top of the plot.
     const expected = 48 - 4 - (0.5822031089 / Math.LN2) * 40;
     assert.ok(Math.abs(cy - expected) < 0.15, `cy ${cy} vs ${expected}`);
+  });
+
+  it('reads the fences and display settings for the note being rendered (markdown-it’s render env)', () => {
+    const seen: unknown[] = [];
+    const md = levelsPreview(new MarkdownIt({ html: false }), {
+      infoStrings: (env) => {
+        seen.push(env);
+        return (env as { folder?: string }).folder === 'b' ? ['populations'] : [];
+      },
+      display: (env) => ({
+        ...DEFAULT_DISPLAY,
+        temperature: (env as { folder?: string }).folder === 'b' ? 'kelvin' : 'auto',
+      }),
+    });
+    const note = '```populations\nsystem: 13C\nfield: 7.05 T\nlattice: 1.4 K\npolarization: 0.312 ± 0.010\n```\n';
+    const a = { folder: 'a' };
+    const b = { folder: 'b' };
+    assert.doesNotMatch(md.render(note, a), /boltzmark-table/);
+    // Same block as the demo's cell-B run: T = 5.61 ± 0.19 mK, here written in kelvin.
+    assert.match(md.render(note, b), /<th scope="row">T<\/th><td>0\.00561 ± 0\.00019 K<\/td>/);
+    assert.deepEqual(seen, [a, b]);
   });
 });

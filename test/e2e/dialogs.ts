@@ -64,8 +64,9 @@ export async function saveDialog(page: Page, file: string): Promise<string> {
 
 /**
  * In the open multi-select quick pick, leaves exactly the rows labelled
- * `labels` checked (each row's checkbox clicked only where its state must
- * change), then presses OK. Returns every row's label.
+ * `labels` checked (each row's checkbox toggled by a click event only where
+ * its state must change, and its new state awaited), then presses OK.
+ * Returns every row's label.
  */
 export async function pickMany(page: Page, labels: readonly string[]): Promise<string[]> {
   const widget = page.locator(WIDGET);
@@ -76,7 +77,9 @@ export async function pickMany(page: Page, labels: readonly string[]): Promise<s
     const row = widget.locator(`.quick-input-list .monaco-list-row[role="checkbox"][aria-label="${label}"]`);
     const want = String(labels.includes(label));
     if ((await row.getAttribute('aria-checked')) === want) continue;
-    await row.locator('.monaco-checkbox').click();
+    // The box gets the click event itself, with no pointer on the list: a row under the pointer shows its
+    // description in a hover below it, over the next row's box, and a real click there lands on the hover.
+    await row.locator('.monaco-checkbox').dispatchEvent('click');
     await widget.locator(`.quick-input-list .monaco-list-row[aria-label="${label}"][aria-checked="${want}"]`).waitFor();
   }
   await widget.locator('.quick-input-action .monaco-button', { hasText: /^OK$/ }).click();

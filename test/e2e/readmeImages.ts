@@ -57,7 +57,7 @@ async function images(kind: string, theme: string): Promise<void> {
     await line(page, 'T = 5.61 mK').waitFor({ timeout: 90000 });
     // Code lenses arriving late shift the lines and close a hover: wait for them first,
     // and take the picture only of a hover that is still up once its fade-in has ended.
-    await lensShown(page, 'id: cell-B run 1', 'Show Energy–Entropy Curve');
+    await lensShown(page, 'id: cell-B run 1', 'Show Curve View');
     const hover = page.locator('.monaco-hover-content', { hasText: 'cell-B run 1' }).first();
     for (let attempt = 0; ; attempt++) {
       await hoverText(page, 'id: cell-B run 1', 'cell-B', /cell-B run 1/);
@@ -69,7 +69,7 @@ async function images(kind: string, theme: string): Promise<void> {
     await dismissHover(page);
 
     // The curve view beside the note, from the block's code lens.
-    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show Energy–Entropy Curve', (ms) =>
+    const view = await clickLensAbove(page, 'id: cell-B run 1', 'Show Curve View', (ms) =>
       frameWith(page, 'body[data-state="chart"]:not([data-drawn="0"]) #block-title', 'cell-B run 1', ms),
     );
     await view.locator('#entropy-chart').waitFor();

@@ -22,7 +22,7 @@ const FILTER = NLS['boltzmark.runLog.filter.title']!;
 const EXPORT = NLS['boltzmark.runLog.exportCsv.title']!;
 const DEMO = join(host.ROOT, 'demo');
 const NOTES = readdirSync(DEMO)
-  .filter((f) => f.endsWith('.md'))
+  .filter((f) => f.endsWith('.md') || f.endsWith('.ipynb'))
   .sort();
 const TEXTS = new Map(NOTES.map((f) => [f, readFileSync(join(DEMO, f), 'utf8')]));
 /** A note the steps add to the served folder and delete again (not in demo/). */
@@ -32,7 +32,14 @@ const ADDED = 'e2e-added-note.md';
 function fencedIds(text: string): string[] {
   const ids: string[] = [];
   let inside = false;
-  for (const l of text.split('\n')) {
+  // A notebook's text is its JSON: its Markdown cells, read here with JSON.parse (not by the core's reader).
+  const markdown = text.trimStart().startsWith('{')
+    ? (JSON.parse(text) as { cells: { cell_type: string; source: string | string[] }[] }).cells
+        .filter((c) => c.cell_type === 'markdown')
+        .map((c) => (Array.isArray(c.source) ? c.source.join('') : c.source))
+        .join('\n')
+    : text;
+  for (const l of markdown.split('\n')) {
     if (!inside && /^```levels\s*$/.test(l)) inside = true;
     else if (inside && /^```\s*$/.test(l)) inside = false;
     else if (inside && l.startsWith('id: ')) ids.push(l.slice(4).trim());
@@ -51,7 +58,8 @@ function coreLog(texts: ReadonlyMap<string, string>): RunLog {
 function expectedRows(log: RunLog, statuses: readonly Status[] | null = null): TreeRow[] {
   const run = (e: RunEntry): TreeRow => ({
     level: 2,
-    label: e.id ?? `block at line ${e.line + 1}`,
+    label:
+      e.id ?? (e.cell === null ? `block at line ${e.line + 1}` : `block at cell ${e.cell + 1}, line ${e.line + 1}`),
     description: [e.status, e.temperature ? measuredTemperatureText(e.temperature) : '', e.date ?? '']
       .filter((x) => x !== '')
       .join(' · '),
@@ -167,12 +175,21 @@ export function runLogSteps(session: () => Session): void {
       'beta_uncertainty_per_K',
       'polarization',
       'polarization_uncertainty',
+      'temperature_low_95_K',
+      'temperature_high_95_K',
+      'beta_low_95_per_K',
+      'beta_high_95_per_K',
+      'polarization_low_95',
+      'polarization_high_95',
+      'cell',
     ]);
     const entries = log.entries();
     assert.equal(records.length, entries.length, 'one row per run');
     for (const e of entries) {
-      const r = records.find((x) => x.note === e.name && Number(x.line) === e.line + 1);
-      assert.ok(r, `a row for ${e.name}:${e.line + 1}`);
+      // A notebook's runs are told apart by their cell as well (1-based; empty for a Markdown note).
+      const cell = e.cell === null ? '' : String(e.cell + 1);
+      const r = records.find((x) => x.note === e.name && Number(x.line) === e.line + 1 && x.cell === cell);
+      assert.ok(r, `a row for ${e.name}:${e.line + 1}${cell ? ` in cell ${cell}` : ''}`);
       assert.equal(r.id, e.id ?? '');
       assert.equal(r.status, e.status, `the status of ${e.id}`);
       if (e.temperature)
@@ -181,6 +198,8 @@ export function runLogSteps(session: () => Session): void {
           `T of ${e.id}: ${r.temperature_K}`,
         );
       else assert.equal(r.temperature_K, '');
+      // The k = 2 interval's ends (T's is the image of β ± 2u(β)), empty without an uncertainty.
+      assert.equal(r.temperature_low_95_K, e.temperatureInterval ? String(e.temperatureInterval[0]) : '');
     }
     await shot(page, '23-run-log-csv');
   });

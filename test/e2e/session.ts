@@ -10,8 +10,12 @@ import { join } from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 
-/** Where screenshots and logs of the e2e runs go (gitignored). */
-export const OUTPUT = join(host.ROOT, 'test-output', 'e2e');
+/** Where screenshots and logs of the e2e runs go (gitignored): one folder per host. */
+export function outputDir(version: host.Version): string {
+  return join(host.ROOT, 'test-output', version === 'oldest' ? 'e2e' : `e2e-${version}`);
+}
+/** The output folder of each session's page. */
+const pageOutput = new WeakMap<Page, string>();
 
 /** A running session. */
 export interface Session {
@@ -26,6 +30,10 @@ export interface Session {
   /** Uncaught errors of the workbench page. */
   readonly pageErrors: string[];
   readonly serverLog: string;
+  /** The host it runs in. */
+  readonly version: host.Version;
+  /** Where its screenshots and logs go. */
+  readonly output: string;
   close(): Promise<void>;
 }
 
@@ -63,16 +71,20 @@ function isWebviewResource(url: string): boolean {
 /**
  * Starts a session: host ready (installed if missing), .vsix packed and
  * installed into a fresh extensions folder, server up, workbench loaded.
- * `settings` are added to the user settings (a theme, for instance).
+ * `settings` are added to the user settings (a theme, for instance);
+ * `version` picks the host (default: BOLTZMARK_VSCODE, else the oldest).
  */
 export async function startSession(options: {
   name: string;
+  version?: host.Version;
   settings?: Record<string, unknown>;
   viewport?: { width: number; height: number };
 }): Promise<Session> {
-  host.ensureHost({ echo: false });
+  const version = options.version ?? host.chosenVersion();
+  const output = outputDir(version);
+  host.ensureHost({ echo: false, version });
   const vsix = packagedVsix();
-  const run = host.makeRun('bm-e2e-');
+  const run = host.makeRun('bm-e2e-', version);
   const workspace = join(run.dir, 'demo');
   cpSync(join(host.ROOT, 'demo'), workspace, { recursive: true });
   host.writeUserSettings(run, {
@@ -83,8 +95,8 @@ export async function startSession(options: {
     ...options.settings,
   });
   const installed = host.installVsix(run, vsix);
-  mkdirSync(OUTPUT, { recursive: true });
-  const serverLog = join(OUTPUT, `${options.name}-server.log`);
+  mkdirSync(output, { recursive: true });
+  const serverLog = join(output, `${options.name}-server.log`);
   const server = await host.startServer(run, { workspace, logFile: serverLog });
   let browser: Browser | undefined;
   const close = async (): Promise<void> => {
@@ -100,6 +112,7 @@ export async function startSession(options: {
     });
     const context = await browser.newContext({ viewport: options.viewport ?? { width: 1280, height: 800 } });
     const page = await context.newPage();
+    pageOutput.set(page, output);
     page.setDefaultTimeout(30000);
     const external: string[] = [];
     const pageErrors: string[] = [];
@@ -113,7 +126,7 @@ export async function startSession(options: {
     page.on('pageerror', (e) => pageErrors.push(String(e).slice(0, 400)));
     await page.goto(server.open);
     await page.locator('.monaco-workbench').waitFor({ timeout: 90000 });
-    return { page, context, workspace, installed, external, pageErrors, serverLog, close };
+    return { page, context, workspace, installed, external, pageErrors, serverLog, version, output, close };
   } catch (err) {
     await close();
     throw err;
@@ -137,16 +150,17 @@ export function scratchFolder(session: Session): string {
   return dir;
 }
 
-/** Saves a screenshot of the whole page under test-output/e2e/. */
+/** Saves a screenshot of the whole page in its session's output folder (test-output/e2e, e2e-newest). */
 export async function shot(page: Page, name: string): Promise<string> {
-  mkdirSync(OUTPUT, { recursive: true });
-  const file = join(OUTPUT, `${name}.png`);
+  const output = pageOutput.get(page) ?? outputDir(host.chosenVersion());
+  mkdirSync(output, { recursive: true });
+  const file = join(output, `${name}.png`);
   await page.screenshot({ path: file });
   return file;
 }
 
-/** Writes a text file next to the screenshots (what a failing step saw). */
-export function note(name: string, text: string): void {
-  mkdirSync(OUTPUT, { recursive: true });
-  writeFileSync(join(OUTPUT, name), text);
+/** Writes a text file next to a session's screenshots (what a failing step saw). */
+export function note(session: Session, name: string, text: string): void {
+  mkdirSync(session.output, { recursive: true });
+  writeFileSync(join(session.output, name), text);
 }

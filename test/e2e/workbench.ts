@@ -50,12 +50,26 @@ export async function openFromExplorer(page: Page, name: string, firstLine: stri
   await row.waitFor();
   await row.dblclick();
   await page.locator('.tabs-container .tab.active', { hasText: name }).waitFor();
-  await line(page, firstLine).waitFor();
+  // The first note opened in a session may wait for the workbench to finish starting (longer in 1.139, which also
+  // starts its chat and agent host): a longer deadline, still a wait on the line.
+  await line(page, firstLine).waitFor({ timeout: 90000 });
 }
 
-/** Puts the keyboard focus in the main editor. */
+/**
+ * The element that takes the main editor's keyboard input: VS Code 1.100's
+ * `textarea.inputarea`, or, where the editor reads keys through the browser's
+ * EditContext (the default in 1.139), its `div.native-edit-context`. That
+ * editor also holds a read-only `textarea.ime-text-area`: focused, it gets the
+ * keys instead of the editor, and Undo (Ctrl+Z) there does nothing.
+ */
+export function editorInput(page: Page): Locator {
+  return editor(page).locator('.native-edit-context, textarea.inputarea').first();
+}
+
+/** Puts the keyboard focus in the main editor, and waits until the editor says it has it. */
 export async function focusEditor(page: Page): Promise<void> {
-  await editor(page).locator('textarea').first().focus();
+  await editorInput(page).focus();
+  await page.locator('.editor-instance .monaco-editor.focused').first().waitFor();
 }
 
 /** Runs a command by its exact palette title. */

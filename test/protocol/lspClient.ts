@@ -7,6 +7,8 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import {
   createMessageConnection,
+  ErrorCodes,
+  ResponseError,
   StreamMessageReader,
   StreamMessageWriter,
   type MessageConnection,
@@ -23,6 +25,16 @@ export interface LspSession {
   readonly conn: MessageConnection;
   readonly proc: ChildProcess;
   readonly pushed: Pushed;
+  /** The `initialize` result. */
+  readonly initialized: { capabilities: Record<string, unknown>; serverInfo?: { name: string; version?: string } };
+  /** Messages the server logged (`window/logMessage`), in order. */
+  readonly logs: string[];
+  /** Server-to-client requests, in the order they arrived (method and params). */
+  readonly requests: { method: string; params: unknown }[];
+  /** What the server wrote to stderr so far. */
+  stderr(): string;
+  /** Rejects if the server process exits before `close()`; race a request with it to fail fast on a crash. */
+  readonly gone: Promise<never>;
   /** Resolves when the next push for `uri` arrives (or one already matching `pred`). */
   waitForPush(uri: string, pred?: (d: Pushed extends Map<string, infer V> ? V : never) => boolean): Promise<void>;
   close(): Promise<void>;
@@ -31,9 +43,16 @@ export interface LspSession {
 /** Options: whether to announce pull diagnostics and configuration support, and the settings to answer with. */
 export interface StartOptions {
   readonly pull?: boolean;
+  /** The `boltzmark` section to answer `workspace/configuration` with: fixed, or per `scopeUri`. */
   readonly settings?: unknown;
   /** Node options for the server process, e.g. `--expose-gc`. */
   readonly execArgv?: readonly string[];
+  /** The client's capabilities as sent, replacing the defaults entirely (for the minimal clients). */
+  readonly capabilities?: Record<string, unknown>;
+  /** Server-to-client requests answered with MethodNotFound instead: the named ones, or `all`. */
+  readonly refuse?: 'all' | readonly string[];
+  readonly initializationOptions?: unknown;
+  readonly workspaceFolders?: readonly { readonly uri: string; readonly name: string }[] | null;
 }
 
 /** Spawns `node dist/server.js --stdio` and initializes it. */
@@ -62,35 +81,58 @@ export async function startLsp(opts: StartOptions = {}): Promise<LspSession> {
         w.resolve();
       }
   });
-  conn.onRequest('workspace/configuration', (p: { items: { section?: string }[] }) =>
-    p.items.map(() => opts.settings ?? {}),
-  );
-  conn.onRequest('client/registerCapability', () => null);
-  conn.onRequest('workspace/inlayHint/refresh', () => null);
-  conn.onRequest('workspace/codeLens/refresh', () => null);
-  conn.onRequest('workspace/diagnostic/refresh', () => null);
-  conn.onNotification('window/logMessage', () => undefined);
+  const logs: string[] = [];
+  const requests: { method: string; params: unknown }[] = [];
+  const refused = (method: string): boolean => opts.refuse === 'all' || (opts.refuse ?? []).includes(method);
+  const settings = opts.settings;
+  const answers: Record<string, (params: unknown) => unknown> = {
+    'workspace/configuration': (p) =>
+      (p as { items: { section?: string; scopeUri?: string }[] }).items.map((item) =>
+        typeof settings === 'function' ? (settings as (scope?: string) => unknown)(item.scopeUri) : (settings ?? {}),
+      ),
+    'client/registerCapability': () => null,
+    'workspace/inlayHint/refresh': () => null,
+    'workspace/codeLens/refresh': () => null,
+    'workspace/diagnostic/refresh': () => null,
+  };
+  // Every server-to-client request is recorded; a refused or unknown one gets MethodNotFound, as from a client without it.
+  conn.onRequest((method: string, params: unknown) => {
+    requests.push({ method, params });
+    const answer = answers[method];
+    if (!answer || refused(method)) throw new ResponseError(ErrorCodes.MethodNotFound, `Unhandled method ${method}`);
+    return answer(params);
+  });
+  conn.onNotification('window/logMessage', (p: { message: string }) => void logs.push(p.message));
   conn.listen();
-  await Promise.race([
+  const initialized = (await Promise.race([
     exited,
     conn.sendRequest('initialize', {
       processId: process.pid,
       rootUri: null,
-      capabilities: {
+      workspaceFolders: opts.workspaceFolders ?? null,
+      initializationOptions: opts.initializationOptions,
+      capabilities: opts.capabilities ?? {
         workspace: { configuration: true },
         textDocument: {
           hover: { contentFormat: ['markdown', 'plaintext'] },
+          completion: { completionItem: { snippetSupport: true } },
+          documentSymbol: { hierarchicalDocumentSymbolSupport: true },
           ...(opts.pull ? { diagnostic: { dynamicRegistration: false } } : {}),
           publishDiagnostics: { versionSupport: true },
         },
       },
     }),
-  ]);
+  ])) as LspSession['initialized'];
   await conn.sendNotification('initialized', {});
   return {
     conn,
     proc,
     pushed,
+    initialized,
+    logs,
+    requests,
+    stderr: () => stderr,
+    gone: exited,
     waitForPush(uri, pred = () => true) {
       const have = pushed.get(uri);
       if (have && pred(have)) return Promise.resolve();

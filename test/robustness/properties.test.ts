@@ -21,6 +21,7 @@ import { completion } from '../../src/server/features/completion';
 import { foldingRanges } from '../../src/server/features/folding';
 import { hover } from '../../src/server/features/hover';
 import { inlayHints } from '../../src/server/features/inlayHints';
+import type { DocumentSymbol, Position } from 'vscode-languageserver';
 import { documentSymbols } from '../../src/server/features/symbols';
 import { DEFAULT_SETTINGS } from '../../src/shared/settings';
 import { noteState } from '../server/helpers';
@@ -217,10 +218,20 @@ describe('robustness: properties of the readers and the analysis', function () {
           DEFAULT_SETTINGS,
         ))
           inside({ start: hint.position, end: hint.position });
-        for (const action of codeActions(state, range, DEFAULT_SETTINGS))
+        for (const action of codeActions(state, range))
           for (const edits of Object.values(action.edit?.changes ?? {})) for (const e of edits) inside(e.range);
-        completion(state, position, DEFAULT_SETTINGS);
-        for (const s of documentSymbols(state)) inside(s.range);
+        completion(state, position);
+        // LSP 3.17 DocumentSymbol: a name that is not empty or only white space, the selection inside the range.
+        const symbol = (s: DocumentSymbol): void => {
+          assert.ok(s.name.trim() !== '', `a blank symbol name: ${JSON.stringify(s.name)}`);
+          inside(s.range);
+          inside(s.selectionRange);
+          const before = (p: Position, q: Position): boolean =>
+            p.line < q.line || (p.line === q.line && p.character <= q.character);
+          assert.ok(before(s.range.start, s.selectionRange.start) && before(s.selectionRange.end, s.range.end));
+          (s.children ?? []).forEach(symbol);
+        };
+        documentSymbols(state).forEach(symbol);
         for (const f of foldingRanges(state)) assert.ok(f.startLine <= f.endLine && f.endLine < lines.lineCount);
         for (const l of codeLenses(state)) inside(l.range);
       }),

@@ -1,6 +1,7 @@
 import { strict as assert } from 'node:assert';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { CLIENT_ID, clientOptions } from '../../src/client/clientOptions';
 import { FORMAT_DOC_URL, codeLink } from '../../src/server/docsLink';
 import { DEFAULT_SETTINGS, fromSection, SETTING_DEFS } from '../../src/shared/settings';
 
@@ -18,8 +19,30 @@ describe('settings', () => {
       assert.deepEqual(p.default, d.default, d.key);
       assert.deepEqual(p.enum, d.enum, d.key);
       assert.equal(p.markdownDescription, d.description, d.key);
+      assert.equal(p.scope, d.scope ?? 'resource', d.key);
       assert.match(d.key, /^boltzmark\.[a-z][a-zA-Z]*\.[a-z][a-zA-Z]*$/);
     }
+  });
+
+  it('declares every setting that changes results per resource, and the protocol trace for the window', () => {
+    // The server reads resource settings per note (test/protocol/settings.test.ts); the trace is read by
+    // vscode-languageclient as `<client id>.trace.server` with the values off, messages and verbose.
+    assert.deepEqual(
+      Object.entries(props)
+        .filter(([, p]) => p.scope !== 'resource')
+        .map(([k, p]) => [k, p.scope]),
+      [['boltzmark.trace.server', 'window']],
+    );
+    assert.deepEqual(props['boltzmark.trace.server'].enum, ['off', 'messages', 'verbose']);
+    assert.equal(CLIENT_ID, 'boltzmark');
+  });
+
+  it('leaves settings to the server instead of the deprecated static synchronisation', () => {
+    const log = {} as Parameters<typeof clientOptions>[0];
+    const options = clientOptions(log);
+    assert.equal(options.synchronize, undefined);
+    assert.equal(options.outputChannel, log);
+    assert.deepEqual(options.documentSelector, [{ language: 'markdown' }]);
   });
 
   it('reads a configuration section, keeping defaults for anything missing or malformed', () => {

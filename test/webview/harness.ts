@@ -8,7 +8,6 @@ import { existsSync, readFileSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import type { HostToView } from '../../src/core';
 import { newNonce, viewHtml } from '../../src/client/viewHtml';
 import { standInScript } from './standIn';
 import type { TestTheme } from './themes';
@@ -78,7 +77,8 @@ export interface ViewPage {
   readonly page: Page;
   readonly console: string[];
   /** Posts a host → view message (as VS Code's `webview.postMessage` would). */
-  post(message: HostToView | unknown): Promise<void>;
+  /** A message as the host would post it; deliberately any value, so that tests can send malformed ones too. */
+  post(message: unknown): Promise<void>;
   /** Waits until `body[data-drawn]` reaches `n`. */
   drawn(n: number): Promise<void>;
   /** Messages the page posted to the host. */
@@ -105,6 +105,7 @@ export async function openView(browser: Browser, origin: string, theme: TestThem
       } catch (err) {
         throw new Error(
           `draw ${n} did not happen: ${(err as Error).message}\npage console:\n${consoleLines.join('\n')}`,
+          { cause: err },
         );
       }
     },

@@ -20,7 +20,7 @@ describe('curve view in high-contrast themes (headless Chromium)', function () {
   this.timeout(60000);
   const pages = usePageServer();
 
-  before(async () => {
+  before(() => {
     mkdirSync(OUT, { recursive: true });
   });
 

@@ -166,6 +166,9 @@ describe('curve view messages and controls (headless Chromium)', function () {
       'dark theme blue on the curve',
     );
     const [bg] = await pixelsAround(view.page, 'beta-chart', [[g.left + 2, g.bottom - 40]], 0);
-    assert.ok(near(bg![0]!, rgb(DARK.vars['--vscode-editor-background']!), 2), `dark background, got ${bg![0]}`);
+    assert.ok(
+      near(bg![0]!, rgb(DARK.vars['--vscode-editor-background']!), 2),
+      `dark background, got ${JSON.stringify(bg![0])}`,
+    );
   });
 });

@@ -14,7 +14,7 @@ declare const document: {
 import { LIGHT, rgb } from './themes';
 
 // Ar I lines of the NIST Atomic Spectra Database (upper-level energies, g, A; vacuum λ), with intensities
-// made at 10 000 K (relative values of ../shared/domain.md §8c) with 5 % uncertainties; the third line
+// made at 10 000 K (derived by I ∝ g A/λ · exp(−E_k/kT)) with 5 % uncertainties; the third line
 // (810.59 nm) made 50 % too bright, about 8 σ.
 const LINES = `lines:
   - { wavelength: 811.7542 nm, upper: 105462.7596 cm-1, g: 7, A: 3.3e7, intensity: 1 ± 0.05 }

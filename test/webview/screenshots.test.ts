@@ -12,7 +12,7 @@ describe('curve view screenshots (headless Chromium)', function () {
   this.timeout(60000);
   const pages = usePageServer();
 
-  before(async () => {
+  before(() => {
     mkdirSync(OUT, { recursive: true });
   });
 

@@ -13,9 +13,21 @@ import type { Measured, Problem } from '../types';
 import { fitManyLevels, measureTwoLevels, type BetaFinding } from './beta';
 import { polarizationOf, thermalPolarizationOf } from './polarization';
 import type { BlockResults } from './results';
-import { lineOutliers, measureGain, measureSeries, measureSignal } from './measurements';
+import { measureGain, measureSeries, measureSignal } from './measurements';
+import { linePlot, tradeOf, tradeResults } from './trade';
+import { lineTemperature } from '../physics/radio';
 import type { SeriesFit } from '../physics/relaxation';
 import { statusOf } from './status';
+import {
+  combined,
+  energiesLine,
+  scalarLines,
+  withBudget,
+  withoutScalarUncertainties,
+  type BudgetLine,
+  type CoreValues,
+} from './budget';
+import { resultIntervals } from './intervals';
 
 /** Settings that change results. */
 export interface AnalysisOptions {
@@ -30,28 +42,31 @@ export const DEFAULT_ANALYSIS_OPTIONS: AnalysisOptions = { saturationSigma: 2 };
 export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_ANALYSIS_OPTIONS): BlockResults {
   const problems: Problem[] = [];
   const series = measureSeries(input, problems);
-  const signal = measureSignal(input, series, problems);
-  // A referenced signal becomes the block's polarization; from there on it is a spin block like any other.
-  const effective: BlockInput = signal ? { ...input, polarization: signal.polarization } : input;
-  const finding = hasMeasurement(effective) ? findBeta(effective, problems) : NOTHING_MEASURED;
+  // The measurement's own uncertainties are propagated analytically on the input with its scalar
+  // inputs taken as exact; lattice and spacing get numerical sensitivities (analysis/budget.ts).
+  const m = measure(withoutScalarUncertainties(input), series, problems);
+  const { signal, finding, fractions } = m;
+  const lines = [measurementLine(m), ...scalarLines(input, (changed) => valuesOf(measure(changed, series, [])))];
+  const energyShare = finding.fit ? energiesLine(input) : null;
+  if (energyShare) lines.push(energyShare);
+  const beta = withBudget(finding.beta?.value ?? null, lines, 'beta');
+  const temperature = temperatureOf(beta, finding.limit);
+  const polarization = withBudget(m.polarization?.value ?? null, lines, 'polarization');
+  const thermalPolarization = m.thermalPolarization;
+  const enhancement = enhancementOf(m);
   const energies = input.levels.map((l) => l.energy);
   const g = input.levels.map((l) => l.g);
-  // Emission lines sample only the upper levels: their "fractions" are not a distribution.
-  const fractions = input.lines ? null : (finding.fractions ?? impliedFractions(energies, g, finding));
-  const beta = finding.beta;
-  const temperature = temperatureOf(beta, finding.limit);
-  const polarization = input.lines ? null : (finding.polarization ?? polarizationOf(effective, fractions));
-  const thermalPolarization = thermalPolarizationOf(input);
-  const enhancement = polarization && thermalPolarization ? polarization.value / thermalPolarization : null;
-  const uEnhancement =
-    enhancement !== null && polarization && thermalPolarization
-      ? enhancementUncertainty(input, polarization.value, polarization.uncertainty, thermalPolarization)
-      : null;
-  const outliers = lineOutliers(input, finding.fit, problems);
+  const plot = linePlot(input, problems);
+  const outliers = plot?.outliers ?? [];
   const pairs = fractions ? invertedPairs(energies, fractions, g) : NONE;
+  const status = finding === NOTHING_MEASURED ? seriesStatus(series) : statusOf(beta, finding, options.saturationSigma);
+  const trade = tradeResults(input, { beta, temperature, saturated: status === 'saturated' }, plot, problems);
   const all = finding.problems.length === 0 ? problems : [...problems, ...finding.problems];
+  const budget = lines.filter(contributes);
+  const uEnhancement = enhancement === null ? null : combined(lines, 'enhancement');
   return {
-    status: finding === NOTHING_MEASURED ? seriesStatus(series) : statusOf(beta, finding, options.saturationSigma),
+    trade,
+    status,
     series,
     signal: signal?.result ?? null,
     gain: measureGain(input),
@@ -61,8 +76,19 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     temperature,
     polarization,
     thermalPolarization,
-    enhancement: enhancement !== null && Number.isFinite(enhancement) ? enhancement : null,
-    enhancementUncertainty: enhancement !== null && Number.isFinite(enhancement) ? uEnhancement : null,
+    uThermalPolarization: thermalPolarization === null ? null : combined(lines, 'thermalPolarization'),
+    enhancement,
+    uEnhancement,
+    // One u(ε) everywhere: the budget's (every stated input, shared paths once); u(P) and u(lattice) in
+    // quadrature only where the budget has none.
+    enhancementUncertainty:
+      uEnhancement ??
+      (enhancement !== null && polarization && thermalPolarization
+        ? enhancementUncertainty(input, polarization.value, polarization.uncertainty, thermalPolarization)
+        : null),
+    intervals: resultIntervals(finding.limit ? null : beta, polarization),
+    budget: budget.length === 0 ? NONE : budget,
+    birge: birgeScaled(finding, lines),
     entropy: fractions ? gibbsEntropy(fractions, g) : null,
     fit: finding.fit,
     invertedPairs: pairs.length === 0 ? NONE : pairs,
@@ -70,6 +96,83 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     meanEnergy: fractions ? meanEnergy(fractions, energies) : null,
     problems: all.length === 0 ? NONE : all,
   };
+}
+
+/** What one evaluation of a block finds: β, the fractions, P and P_th (the referenced signal's P when there is one). */
+interface Measurement {
+  readonly signal: ReturnType<typeof measureSignal>;
+  readonly finding: BetaFinding;
+  readonly fractions: number[] | null;
+  readonly polarization: Measured | null;
+  readonly thermalPolarization: number | null;
+}
+
+/** One evaluation of the block's model: signal → P, β, fractions, P, P_th. */
+function measure(input: BlockInput, series: SeriesFit | null, problems: Problem[]): Measurement {
+  const signal = measureSignal(input, series, problems);
+  // A referenced signal becomes the block's polarization; from there on it is a spin block like any other.
+  const effective: BlockInput = signal ? { ...input, polarization: signal.polarization } : input;
+  const finding = hasMeasurement(effective) ? findBeta(effective, problems) : NOTHING_MEASURED;
+  const energies = input.levels.map((l) => l.energy);
+  const g = input.levels.map((l) => l.g);
+  // Emission lines sample only the upper levels: their "fractions" are not a distribution.
+  const fractions = input.lines ? null : (finding.fractions ?? impliedFractions(energies, g, finding));
+  // In radio astronomy "polarization" means the Stokes parameters and no bath sets an enhancement: neither is shown.
+  const radio = tradeOf(input) === 'radio';
+  const polarization = input.lines || radio ? null : (finding.polarization ?? polarizationOf(effective, fractions));
+  return { signal, finding, fractions, polarization, thermalPolarization: radio ? null : thermalPolarizationOf(input) };
+}
+
+/** ε = P/P_th, or null when either is unknown or the ratio is not finite. */
+function enhancementOf(m: Measurement): number | null {
+  const p = m.polarization;
+  const pth = m.thermalPolarization;
+  if (!p || !pth) return null;
+  const e = p.value / pth;
+  return Number.isFinite(e) ? e : null;
+}
+
+/** The values of one evaluation, for the numerical sensitivities. */
+function valuesOf(m: Measurement): CoreValues {
+  return {
+    beta: m.finding.beta?.value ?? null,
+    polarization: m.polarization?.value ?? null,
+    thermalPolarization: m.thermalPolarization,
+    enhancement: enhancementOf(m),
+  };
+}
+
+/** The measurement's own line: its analytic u(β) and u(P), and u(ε) = u(P)/|P_th| with P_th exact. */
+function measurementLine(m: Measurement): BudgetLine {
+  const finite = (x: number | null | undefined): number | null => (x != null && Number.isFinite(x) ? x : null);
+  const uP = finite(m.polarization?.uncertainty);
+  const pth = m.thermalPolarization;
+  return {
+    source: 'measurement',
+    beta: finite(m.finding.beta?.uncertainty),
+    polarization: uP,
+    thermalPolarization: null,
+    enhancement: uP !== null && pth ? finite(uP / Math.abs(pth)) : null,
+  };
+}
+
+/** True when a line adds something to some result. */
+function contributes(l: BudgetLine): boolean {
+  return [l.beta, l.polarization, l.thermalPolarization, l.enhancement].some((v) => v !== null && v > 0);
+}
+
+/**
+ * For a weighted fit with χ²/dof > 1, β with the fit's share of u(β) scaled by
+ * the Birge ratio √(χ²/dof) (R. T. Birge, Phys. Rev. 40, 207 (1932), cited from memory; common
+ * practice for inconsistent data), the other inputs' shares unchanged; null otherwise.
+ */
+function birgeScaled(f: BetaFinding, lines: readonly BudgetLine[]): BlockResults['birge'] {
+  const fit = f.fit;
+  if (!fit || !fit.weighted || !(fit.dof > 0) || !f.beta || !(fit.chi2 / fit.dof > 1)) return null;
+  const ratio = Math.sqrt(fit.chi2 / fit.dof);
+  const scaled = lines.map((l) => (l.source === 'measurement' && l.beta !== null ? { ...l, beta: l.beta * ratio } : l));
+  const u = combined(scaled, 'beta');
+  return Number.isFinite(ratio) && u !== null ? { ratio, beta: { value: f.beta.value, uncertainty: u } } : null;
 }
 
 /**
@@ -90,7 +193,7 @@ const NOTHING_MEASURED: BetaFinding = {
 };
 
 function hasMeasurement(input: BlockInput): boolean {
-  return input.polarization !== null || input.levels.some((l) => l.population !== null);
+  return input.polarization !== null || !!input.trade?.line || input.levels.some((l) => l.population !== null);
 }
 
 /**
@@ -105,6 +208,7 @@ function seriesStatus(series: SeriesFit | null): BlockResults['status'] {
 
 function findBeta(input: BlockInput, problems: Problem[]): BetaFinding {
   if (input.polarization) return fromPolarization(input, problems);
+  if (input.trade?.line) return fromBrightness(input);
   const measured = input.levels.filter((l) => l.population !== null);
   if (measured.length === 2 && input.levels.length === 2) return measureTwoLevels(input);
   return fitManyLevels(input);
@@ -142,6 +246,24 @@ function fromPolarization(input: BlockInput, problems: Problem[]): BetaFinding {
     beta = b && us !== null ? { value: b.value, uncertainty: Math.hypot(b.uncertainty ?? 0, us) } : b;
   }
   return { ...base, beta };
+}
+
+/**
+ * β of a line from its brightness temperature, optical depth and background:
+ * T = T_B/(1 − e^(−τ)) + T_bg (physics/radio.ts), β = 1/T with u(β) = u(T)/T².
+ */
+function fromBrightness(input: BlockInput): BetaFinding {
+  const line = input.trade!.line!;
+  const bg = input.trade!.background;
+  const t = lineTemperature(line.brightness, line.opticalDepth, bg);
+  // An optical depth too small for double precision makes T overflow: β is then 0 (T → ∞), not unknown.
+  const u = t.uncertainty === null ? null : t.uncertainty / (t.value * t.value);
+  const beta: Measured | null = !Number.isFinite(t.value)
+    ? { value: 0, uncertainty: null }
+    : t.value !== 0
+      ? { value: 1 / t.value, uncertainty: u !== null && Number.isFinite(u) ? u : null }
+      : null;
+  return { beta, limit: null, fit: null, fractions: null, polarization: null, problems: [] };
 }
 
 /** Fractions implied by β when only a polarization was measured. */

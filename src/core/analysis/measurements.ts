@@ -7,14 +7,18 @@
 import type { BlockInput } from '../block/input';
 import type { ReadValue } from '../block/values';
 import { thermalSpinPolarization } from '../physics/brillouin';
-import { gainCoefficient, singlePassGain, thresholdGain } from '../physics/gain';
+import {
+  gainCoefficient,
+  gainDecibels,
+  inversionDensity,
+  singlePassGain,
+  thresholdGain,
+  thresholdInversion,
+} from '../physics/gain';
 import { fitBuildup, fitDecay, type SeriesFit } from '../physics/relaxation';
 import { acquisitionFactor, referencedPolarization } from '../physics/thermalReference';
 import type { Problem } from '../types';
-import type { FitSummary, GainResult, SignalResult } from './results';
-
-/** A line more than this many standard deviations off the Boltzmann line is flagged. */
-export const LINE_OUTLIER_SIGMA = 3;
+import type { GainResult, SignalResult } from './results';
 
 /** Fits the block's time series, with warnings for a short series or a fit that did not converge. */
 export function measureSeries(input: BlockInput, problems: Problem[]): SeriesFit | null {
@@ -97,33 +101,17 @@ export function measureGain(input: BlockInput): GainResult | null {
   const variance = (up.uPopulation ?? 0) ** 2 + ((up.g / lo.g) * (lo.uPopulation ?? 0)) ** 2;
   const uG0 = variance > 0 ? gi.crossSection * Math.sqrt(variance) : null;
   const finiteOrNull = (x: number | null): number | null => (x !== null && Number.isFinite(x) ? x : null);
+  const db = gi.length !== null ? gainDecibels(g0, gi.length) : null;
+  const nth = threshold !== null ? thresholdInversion(threshold, gi.crossSection) : null;
   return {
     coefficient: g0,
     uCoefficient: finiteOrNull(uG0),
     singlePass: single !== null && Number.isFinite(single) ? single : null,
     uSinglePass: single !== null && uG0 !== null && gi.length !== null ? finiteOrNull(single * gi.length * uG0) : null,
+    singlePassDb: db !== null && Number.isFinite(db) ? db : null,
+    inversion: inversionDensity(lo.population!, up.population!, lo.g, up.g),
+    thresholdInversion: nth !== null && Number.isFinite(nth) ? nth : null,
     threshold,
     aboveThreshold: threshold === null ? null : g0 > threshold,
   };
-}
-
-/** Warns on each emission line more than {@link LINE_OUTLIER_SIGMA} standard deviations off the fitted line. */
-export function lineOutliers(input: BlockInput, fit: FitSummary | null, problems: Problem[]): number[] {
-  if (!input.lines || !fit) return [];
-  const levels = input.levels;
-  const scatter = !fit.weighted && fit.dof > 0 ? Math.sqrt(fit.chi2 / fit.dof) : null;
-  const out: number[] = [];
-  levels.forEach((l, i) => {
-    const r = fit.residuals[i];
-    const sigma = fit.weighted && l.uPopulation !== null && l.population ? l.uPopulation / l.population : scatter;
-    if (r === null || !sigma || !(Math.abs(r) > LINE_OUTLIER_SIGMA * sigma)) return;
-    out.push(i);
-    problems.push({
-      severity: 'warning',
-      code: 'line-outlier',
-      message: `This line lies ${(Math.abs(r) / sigma).toFixed(1)} σ off the Boltzmann line (more than ${LINE_OUTLIER_SIGMA} σ): self-absorption, a blend, or a wrong A or g?`,
-      span: l.span!,
-    });
-  });
-  return out;
 }

@@ -1,6 +1,9 @@
 /**
  * Polarization of the measured state and of the thermal state at the
- * block's lattice temperature. Two levels: P = (n_l − n_u)/(n_l + n_u);
+ * block's lattice temperature. Two levels: the difference per degeneracy,
+ * P = (n_l/g_l − n_u/g_u)/(n_l/g_l + n_u/g_u), which is (n_l − n_u)/(n_l + n_u)
+ * when g_l = g_u and is positive exactly when T > 0 (the contract's
+ * "Polarization of a degenerate transition (v1.2)");
  * spins: the vector polarization ⟨I_z⟩/I with the sign that is positive at
  * positive temperature; explicit schemes of three or more levels: none.
  */
@@ -16,7 +19,8 @@ export function polarizationOf(input: BlockInput, fractions: readonly number[] |
   const raw = levels.map((l) => l.population);
   if (raw.some((p) => p === null)) {
     if (!fractions || levels.length !== 2) return null;
-    return { value: fractions[0] - fractions[1], uncertainty: null };
+    const p = polarizationFromPopulations(fractions[0] / levels[0].g, fractions[1] / levels[1].g);
+    return p ? { value: p.value, uncertainty: null } : null;
   }
   const pops = raw as number[];
   if (input.spin)
@@ -25,13 +29,15 @@ export function polarizationOf(input: BlockInput, fractions: readonly number[] |
       levels.map((l) => l.uPopulation),
     );
   if (levels.length !== 2) return null;
-  return polarizationFromPopulations(pops[0], pops[1], {
-    nLower: levels[0].uPopulation,
-    nUpper: levels[1].uPopulation,
+  // Per degeneracy: n/g and u(n)/g (exact degeneracies), then the two-level formula.
+  const [lo, up] = levels;
+  return polarizationFromPopulations(pops[0] / lo.g, pops[1] / up.g, {
+    nLower: lo.uPopulation === null ? null : lo.uPopulation / lo.g,
+    nUpper: up.uPopulation === null ? null : up.uPopulation / up.g,
   });
 }
 
-/** Thermal-equilibrium polarization at `lattice` (Brillouin function for spins; Boltzmann factors with degeneracies for two levels). */
+/** Thermal-equilibrium polarization at `lattice` (Brillouin function for spins; per degeneracy, tanh(ΔE/2kT), for two levels). */
 export function thermalPolarizationOf(input: BlockInput): number | null {
   const T = input.lattice?.value;
   if (T === undefined || !(T > 0)) return null;
@@ -42,5 +48,7 @@ export function thermalPolarizationOf(input: BlockInput): number | null {
     input.levels.map((l) => l.g),
     1 / T,
   );
-  return p ? p[0] - p[1] : null;
+  if (!p) return null;
+  const [lo, up] = input.levels;
+  return polarizationFromPopulations(p[0] / lo.g, p[1] / up.g)?.value ?? null;
 }

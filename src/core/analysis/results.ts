@@ -1,6 +1,9 @@
 /** The physical results of one block, as the contract names them, plus what editors show. */
 import type { SeriesFit } from '../physics/relaxation';
 import type { Measured, Problem, Status } from '../types';
+import type { TradeResults } from './trade';
+import type { BudgetLine } from './budget';
+import type { ResultIntervals } from './intervals';
 
 /** Summary of the Boltzmann fit of a block with three or more levels. */
 export interface FitSummary {
@@ -39,6 +42,12 @@ export interface GainResult {
   readonly singlePass: number | null;
   /** u(G) = G·L·u(g₀), or null. */
   readonly uSinglePass: number | null;
+  /** The single-pass gain in decibels, 10 log₁₀ exp(g₀ L), or null without a length. */
+  readonly singlePassDb: number | null;
+  /** Inversion density ΔN = N_u − (g_u/g_l)·N_l, cm⁻³. */
+  readonly inversion: number;
+  /** Threshold inversion ΔN_th = g_th/σ, cm⁻³, or null without a threshold. */
+  readonly thresholdInversion: number | null;
   /** Threshold gain coefficient, cm⁻¹, or null without length and mirrors. */
   readonly threshold: number | null;
   readonly aboveThreshold: boolean | null;
@@ -55,9 +64,19 @@ export interface BlockResults {
   readonly temperature: Measured | null;
   readonly polarization: Measured | null;
   readonly thermalPolarization: number | null;
+  /** Standard uncertainty of P_th from the stated u(lattice) and u(spacing), or null. */
+  readonly uThermalPolarization: number | null;
   readonly enhancement: number | null;
   /** Standard uncertainty of ε from u(P) and u(lattice), or null when neither is known. */
   readonly enhancementUncertainty: number | null;
+  /** Standard uncertainty of ε from every stated input uncertainty, or null. */
+  readonly uEnhancement: number | null;
+  /** The k = 2 coverage intervals of β, T and P (analysis/intervals.ts). */
+  readonly intervals: ResultIntervals;
+  /** Each input's share of the uncertainties (GUM §5.1.3), the measurement first; empty without uncertainties. */
+  readonly budget: readonly BudgetLine[];
+  /** For a weighted fit with χ²/dof > 1: the Birge ratio √(χ²/dof) and β with the fit's u scaled by it. */
+  readonly birge: { readonly ratio: number; readonly beta: Measured } | null;
   /** Gibbs entropy S/(Nk) of the measured (or implied) distribution. */
   readonly entropy: number | null;
   readonly fit: FitSummary | null;
@@ -75,4 +94,6 @@ export interface BlockResults {
   readonly outliers: readonly number[];
   /** Warnings and notes found by the analysis (body-relative spans). */
   readonly problems: readonly Problem[];
+  /** What the block's trade adds: its words, plot data, refit, column densities. */
+  readonly trade: TradeResults;
 }

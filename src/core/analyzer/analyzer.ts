@@ -8,7 +8,7 @@ import type { BlockResults } from '../analysis/results';
 import type { BlockInput, BlockMeta } from '../block/input';
 import { interpretBody } from '../block/interpret';
 import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory } from './rescanPlan';
-import { bodyToDocument, scanFencedBlocks, type FencedBlock } from '../text/fences';
+import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
 
 /**
@@ -113,11 +113,7 @@ export class Analyzer {
 
   /** True when a fence's info string marks one of our blocks. */
   isLevelsFence(block: FencedBlock): boolean {
-    return (
-      block.language === 'levels' ||
-      this.options.infoStrings.includes(block.language) ||
-      this.options.infoStrings.includes(block.info)
-    );
+    return isLevelsInfo(block, this.options.infoStrings);
   }
 
   /**
@@ -173,7 +169,6 @@ export class Analyzer {
             line: block.openLine,
             reason: blocks.length >= maxBlocks ? 'blocks' : 'size',
           };
-          open = false;
           break;
         }
         // The body is a stretch of this version of the note; the cache keeps a copy of its own. The copy is

@@ -2,6 +2,8 @@
  * Form 1 of the contract: explicit levels, a list of
  * `{ label, energy, g, population, uncertainty }` items in any order.
  */
+import type { TreeNode } from './tree';
+import { chooseUnits, siblingsOf, type PlausibleRange, type UnitChoice } from './unitChoice';
 import { unknownKey } from './unknownKey';
 import type { Span } from '../types';
 import type { FormRead, LevelInput } from './input';
@@ -35,10 +37,22 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
     return null;
   }
   const unit = firstEnergyUnit(ctx, items) ?? 'cm-1';
+  // A bare energy is offered the units of the other levels that give it a magnitude near theirs (within 10³);
+  // the siblings are read only then, as a bare energy is rare.
+  const choose = (v: number): UnitChoice => {
+    const siblings = siblingsOf(
+      items.map((it) => {
+        const x = isMap(it) ? entries(it).find((y) => y.key === 'energy') : undefined;
+        return x ? (readText(ctx, x.value)?.text ?? '') : '';
+      }),
+      'energy',
+    );
+    return chooseUnits(v, 'energy', siblings, LEVEL_RANGE, [unit]);
+  };
   const levels: LevelInput[] = [];
   let ok = true;
   items.forEach((item, i) => {
-    const level = readLevel(ctx, item, i, unit);
+    const level = readLevel(ctx, item, i, choose);
     if (level) levels.push(level);
     else ok = false;
   });
@@ -67,7 +81,15 @@ export function readLevelsForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entr
     );
     return null;
   }
-  return { form: 'levels', levels: sorted, energyUnit: unit, spin: null, polarization: null, ratio: null, uGap: null };
+  // Two levels: the energies' uncertainties are the gap's, u(ΔE) = √(u_l² + u_u²), which the analysis carries into β and P_th.
+  const uGap = sorted.length === 2 ? gapUncertainty(sorted[0].uEnergy ?? null, sorted[1].uEnergy ?? null) : null;
+  return { form: 'levels', levels: sorted, energyUnit: unit, spin: null, polarization: null, ratio: null, uGap };
+}
+
+/** √(a² + b²) of the stated ones, or null when neither is stated. */
+function gapUncertainty(a: number | null, b: number | null): number | null {
+  if (a === null && b === null) return null;
+  return Math.hypot(a ?? 0, b ?? 0);
 }
 
 function ascendingEnergies(levels: readonly LevelInput[]): boolean {
@@ -76,7 +98,7 @@ function ascendingEnergies(levels: readonly LevelInput[]): boolean {
 }
 
 /** The unit of the first level energy written with one, offered by the "add a unit" fix. */
-function firstEnergyUnit(ctx: ReadContext, items: unknown[]): string | null {
+function firstEnergyUnit(ctx: ReadContext, items: readonly (TreeNode | null)[]): string | null {
   for (const item of items) {
     const energy = entries(item).find((x) => x.key === 'energy');
     const t = energy ? readText(ctx, energy.value) : null;
@@ -88,7 +110,15 @@ function firstEnergyUnit(ctx: ReadContext, items: unknown[]): string | null {
   return null;
 }
 
-function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): LevelInput | null {
+/** Level energies may lie anywhere; only the siblings' spread (a factor 10³ either way) judges a bare number. */
+const LEVEL_RANGE: PlausibleRange = { low: 0, high: Infinity, spread: 1e3 };
+
+function readLevel(
+  ctx: ReadContext,
+  item: TreeNode | null,
+  i: number,
+  choose: (v: number) => UnitChoice,
+): LevelInput | null {
   const span = spanOf(item);
   const subject = `levels[${i}]`;
   if (!isMap(item)) {
@@ -107,7 +137,7 @@ function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): Le
   const pe = byKey.get('population');
   if (!ee) report(ctx, 'error', 'energy-missing', `${subject}: \`energy\` is required.`, nonEmpty(span!));
   if (!pe) report(ctx, 'error', 'population-missing', `${subject}: \`population\` is required.`, nonEmpty(span!));
-  const energy = ee ? readQuantity(ctx, ee.value, 'energy', `${subject}.energy`, { suggestUnit: unit }) : null;
+  const energy = ee ? readQuantity(ctx, ee.value, 'energy', `${subject}.energy`, { unitChoice: choose }) : null;
   const g = byKey.get('g') ? readInteger(ctx, byKey.get('g')!.value, `${subject}.g`, 'degeneracy-invalid', 1) : null;
   const p0 = pe ? readPopulation(ctx, pe.value, `${subject}.population`) : null;
   const p = p0 ? withSiblingUncertainty(ctx, p0, byKey.get('uncertainty'), `${subject}.population`) : null;
@@ -116,6 +146,7 @@ function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): Le
   return {
     label: label?.text ?? null,
     energy: energy.value,
+    uEnergy: energy.uncertainty,
     g: g ? g.value : 1,
     population: p.value,
     uPopulation: p.uncertainty,
@@ -130,7 +161,7 @@ function readLevel(ctx: ReadContext, item: unknown, i: number, unit: string): Le
  * reverse them. The fix keeps every item's text and the separators between
  * items, so comments and layout survive.
  */
-function descendingNote(ctx: ReadContext, e: Entry, items: unknown[], levels: LevelInput[]): void {
+function descendingNote(ctx: ReadContext, e: Entry, items: readonly (TreeNode | null)[], levels: LevelInput[]): void {
   if (levels.length < 2 || levels.length !== items.length) return;
   for (let i = 1; i < levels.length; i++) if (!(levels[i].energy < levels[i - 1].energy)) return;
   const spans = items.map((it) => spanOf(it));

@@ -13,6 +13,8 @@ export interface LevelInput {
   readonly label: string | null;
   /** Energy E/k in kelvin. */
   readonly energy: number;
+  /** Standard uncertainty of the energy, K, when written (`levels` form), else null. */
+  readonly uEnergy?: number | null;
   readonly g: number;
   /** Population on the block's own scale, or null when not measured directly. */
   readonly population: number | null;
@@ -77,11 +79,20 @@ export interface LineInput {
   readonly intensity: number;
   readonly uIntensity: number | null;
   readonly span: Span;
+  /** True when u(I) = √I was assumed for photon counts written without ±. */
+  readonly poisson?: boolean;
+  /** Line frequency in Hz (radiometer lines), or null. */
+  readonly frequency?: number | null;
+  /** Optical depth at the line centre (radiometer lines), or null for an optically thin line. */
+  readonly opticalDepth?: number | null;
 }
 
 /** Emission lines of one species. */
 export interface LinesInput {
-  readonly detector: 'energy' | 'photon';
+  /** How intensities were measured: energy-calibrated, photon counts, or integrated brightness temperatures (K km/s). */
+  readonly detector: 'energy' | 'photon' | 'radiometer';
+  /** True when the block did not say (`energy` is then assumed). */
+  readonly detectorAssumed?: boolean;
   readonly lines: readonly LineInput[];
 }
 
@@ -94,6 +105,31 @@ export interface GainInput {
   readonly mirrors: readonly [number, number] | null;
   /** Distributed loss α in cm⁻¹ (0 when not given). */
   readonly loss: number;
+}
+
+/** A line's excitation (spin) temperature from its brightness temperature, optical depth and background. */
+export interface LineTemperatureInput {
+  /** Rayleigh–Jeans brightness temperature T_B in K, with its uncertainty. */
+  readonly brightness: ReadValue;
+  /** Optical depth τ at the line centre. */
+  readonly opticalDepth: ReadValue;
+}
+
+/**
+ * What the emission and radio trades add to a block: the wavelength medium,
+ * the background temperature, a line temperature from T_B and τ, a linear
+ * rotor's constant (for the partition function) and column densities.
+ */
+export interface TradeInput {
+  /** Medium of the block's optical wavelengths; `stated` false when the IAU convention was assumed. */
+  readonly medium: { readonly kind: 'air' | 'vacuum'; readonly stated: boolean } | null;
+  /** Background (or bath) radiation temperature in K, e.g. the 2.725 K cosmic background. */
+  readonly background: ReadValue | null;
+  readonly line: LineTemperatureInput | null;
+  /** Rotational constant B of a linear rotor as hB/k in K, or null. */
+  readonly rotor: ReadValue | null;
+  /** True when the populations are column densities (cm⁻²). */
+  readonly columns: boolean;
 }
 
 /** Everything the analysis needs from a block that read without errors. */
@@ -118,6 +154,8 @@ export interface BlockInput {
   readonly series: SeriesInput | null;
   readonly lines: LinesInput | null;
   readonly gain: GainInput | null;
+  /** The emission and radio additions; absent in blocks built before them (tests, other hosts). */
+  readonly trade?: TradeInput;
 }
 
 /** The block's label and the spans of its keys, kept even when the block has errors. */
@@ -131,5 +169,11 @@ export interface BlockMeta {
 }
 
 /** What one form's reader returns; the block reader adds the keys common to all forms. */
-export type FormRead = Omit<BlockInput, 'lattice' | 'count' | 'series' | 'signal' | 'lines' | 'gain' | 'densities'> &
-  Partial<Pick<BlockInput, 'signal' | 'lines' | 'gain' | 'densities'>>;
+export type FormRead = Omit<
+  BlockInput,
+  'lattice' | 'count' | 'series' | 'signal' | 'lines' | 'gain' | 'densities' | 'trade'
+> &
+  Partial<Pick<BlockInput, 'signal' | 'lines' | 'gain' | 'densities'>> & {
+    /** The form's share of the trade keys (medium, line temperature, columns). */
+    readonly trade?: Partial<TradeInput>;
+  };

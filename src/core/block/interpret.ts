@@ -7,9 +7,10 @@ import type { Problem, Span } from '../types';
 import { readSpinForm } from './formSpin';
 import { readLevelsForm } from './formLevels';
 import { readTransitionForm } from './formTransition';
-import type { BlockInput, BlockMeta, FormRead } from './input';
-import { BLOCK_KEY_NAMES, BLOCK_KEYS, type BlockForm, type KeyDoc } from './schema';
+import type { BlockInput, BlockMeta, FormRead, TradeInput } from './input';
+import { BLOCK_KEY_NAMES, BLOCK_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './schema';
 import { readLinesForm } from './formLines';
+import { readBackground, readRotor } from './tradeKeys';
 import { readSeries } from './series';
 import { KeySpans } from './keySpans';
 import { unknownKey } from './unknownKey';
@@ -60,7 +61,8 @@ export function interpretBody(body: string): Interpretation {
     return { meta: emptyMeta, input: null, problems };
   }
   const parsed = parseBody(body);
-  problems.push(...parsed.problems);
+  // One by one: a spread of a few hundred thousand problems (repeated keys) would overflow the stack.
+  for (const p of parsed.problems) problems.push(p);
   const doc = parsed.doc;
   if (!doc) return { meta: emptyMeta, input: null, problems };
   if (!isMap(doc.contents)) {
@@ -121,6 +123,8 @@ export function interpretBody(body: string): Interpretation {
     const count = readCount(ctx, byKey.get('count'));
     const series = byKey.has('series') ? readSeries(ctx, byKey.get('series')!) : null;
     const read = readForm(ctx, byKey, form);
+    const background = readBackground(ctx, byKey.get('background'));
+    const rotor = readRotor(ctx, byKey.get('rotational-constant'));
     if (read?.signal && !lattice) {
       report(
         ctx,
@@ -146,6 +150,16 @@ export function interpretBody(body: string): Interpretation {
         series,
         lines: read.lines ?? null,
         gain: read.gain ?? null,
+        trade:
+          read.trade?.medium || read.trade?.line || read.trade?.columns || background || rotor
+            ? {
+                medium: read.trade?.medium ?? null,
+                background,
+                line: read.trade?.line ?? null,
+                rotor,
+                columns: read.trade?.columns ?? false,
+              }
+            : NO_TRADE,
       };
     }
   }
@@ -178,6 +192,9 @@ function readCount(ctx: ReadContext, e: Entry | undefined): ReadValue | null {
   if (!e) return null;
   return readInteger(ctx, e.value, 'count', 'count-invalid', 1);
 }
+
+/** What most blocks carry for the trade keys: nothing, shared and frozen. */
+const NO_TRADE: TradeInput = Object.freeze({ medium: null, background: null, line: null, rotor: null, columns: false });
 
 const SERIES_ONLY: FormRead = {
   form: 'series',
@@ -213,7 +230,7 @@ function misplacedKeys(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>, form
         ctx,
         'warning',
         'key-not-for-form',
-        `\`${doc.key}\` belongs to ${FORM_NAMES[doc.form as BlockForm]}; it is ignored in ${FORM_NAMES[form]}.`,
+        `\`${doc.key}\` belongs to ${doc.forms ? 'blocks of lines, transitions or levels' : FORM_NAMES[doc.form as BlockForm]}; it is ignored in ${FORM_NAMES[form]}.`,
         e.keySpan,
       );
   }
@@ -234,7 +251,7 @@ const FOREIGN_KEYS: Record<BlockForm, readonly KeyDoc[]> = {
 };
 
 function foreignKeys(form: BlockForm): KeyDoc[] {
-  return BLOCK_KEYS.filter((doc) => doc.form !== 'any' && doc.form !== form && !FORM_KEYS.some(([k]) => k === doc.key));
+  return BLOCK_KEYS.filter((doc) => !keyFitsForm(doc, form) && !FORM_KEYS.some(([k]) => k === doc.key));
 }
 
 const FORM_NAMES: Record<BlockForm, string> = {

@@ -3,6 +3,8 @@
  * counts) with an optional `± u`, or absolute number densities with a unit
  * (`2.0e16 cm-3`). All are ≥ 0; only their ratios matter.
  */
+import type { TreeNode } from './tree';
+import { acceptsUnit, parseQuantity } from '../quantities/units';
 import type { Span } from '../types';
 import { readFraction, readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import { deref, isScalar, type Entry } from './yamlTree';
@@ -10,18 +12,26 @@ import { deref, isScalar, type Entry } from './yamlTree';
 const LETTER = /[a-zA-Zµ]/;
 
 /** Reads one population; reports negative values. */
-export function readPopulation(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
+export function readPopulation(ctx: ReadContext, node: TreeNode | null, subject: string): ReadValue | null {
   const n = deref(node);
   // A letter other than an exponent's `e` means a unit; text without any letter needs no closer look
   // (nor typing: a number's text has no letter but an exponent's, and the typed value is only read for text).
   const text = isScalar(n) && LETTER.test(n.source) && typeof n.value === 'string' ? n.value : '';
   const unit = LETTER.test(text) && LETTER.test(text.replace(/e[+-]?\d/gi, ''));
-  const v = unit ? readQuantity(ctx, n, 'density', subject) : readFraction(ctx, n, subject);
+  // A column density (`cm-2`, radio and absorption work) is read as such; every other unit as a number density.
+  const dim = unit && isColumn(text) ? 'column' : 'density';
+  const v = unit ? readQuantity(ctx, n, dim, subject) : readFraction(ctx, n, subject);
   if (v && v.value < 0) {
     report(ctx, 'error', 'population-negative', `${subject}: a population cannot be negative.`, v.span);
     return null;
   }
   return v;
+}
+
+/** True when the written quantity's unit is a column density (`cm-2`, `m-2`, `cm^-2`). */
+function isColumn(text: string): boolean {
+  const q = parseQuantity(text);
+  return !('problem' in q) && q.quantity.unit !== null && acceptsUnit(q.quantity.unit, 'column');
 }
 
 /** Reads the `populations` list and checks its length. */

@@ -18,7 +18,17 @@ export interface KeyDoc {
   readonly summary: string;
   /** An example value as it would be written. */
   readonly example: string;
+  /** For a key shared by some forms only: every form it belongs to (`form` is then the first). */
+  readonly forms?: readonly BlockForm[];
 }
+
+/** Whether a key belongs to a block of this form. */
+export function keyFitsForm(doc: KeyDoc, form: BlockForm): boolean {
+  return doc.form === 'any' || doc.form === form || (doc.forms?.includes(form) ?? false);
+}
+
+/** The forms that speak of lines and transitions rather than spins. */
+const LINE_FORMS: readonly BlockForm[] = ['transition', 'lines', 'levels'];
 
 /** Top-level keys of a block. */
 export const BLOCK_KEYS: readonly KeyDoc[] = [
@@ -106,7 +116,8 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
   {
     key: 'detector',
     form: 'lines',
-    summary: 'How line intensities were measured: `energy` (energy-calibrated, default) or `photon` (photon counting).',
+    summary:
+      'How line intensities were measured: `energy` (energy-calibrated, assumed when absent), `photon` (photon counting; √N uncertainties when none is written) or `radiometer` (integrated brightness temperatures in K km/s: a rotation diagram).',
     example: 'energy',
   },
   {
@@ -128,6 +139,42 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
     example: '[0.995, 0.95]',
   },
   { key: 'loss', form: 'transition', summary: 'Distributed loss α of the medium (default 0).', example: '0.01 cm-1' },
+  {
+    key: 'brightness',
+    form: 'transition',
+    summary:
+      'Brightness temperature T_B of the line (Rayleigh–Jeans), with `optical-depth`: T = T_B/(1 − e^(−τ)) + T_bg.',
+    example: '35 ± 1 K',
+  },
+  {
+    key: 'optical-depth',
+    form: 'transition',
+    summary: 'Optical depth τ at the line centre, with `brightness`.',
+    example: '0.8 ± 0.1',
+  },
+  {
+    key: 'background',
+    form: 'transition',
+    forms: LINE_FORMS,
+    summary:
+      'Background radiation temperature T_bg (the cosmic background is 2.725 K): added to a line temperature, and an excitation temperature below it is warned about.',
+    example: '2.725 K',
+  },
+  {
+    key: 'wavelengths',
+    form: 'transition',
+    forms: LINE_FORMS,
+    summary:
+      'Whether optical wavelengths are in `air` or `vacuum`; without it the IAU convention is assumed: air from 200 nm up, vacuum below.',
+    example: 'air',
+  },
+  {
+    key: 'rotational-constant',
+    form: 'transition',
+    forms: LINE_FORMS,
+    summary: 'Rotational constant B of a linear rotor: gives the partition function Q(T) and the total column density.',
+    example: '57.635968 GHz',
+  },
   {
     key: 'lattice',
     form: 'any',
@@ -195,6 +242,18 @@ export const LINE_KEYS: readonly KeyDoc[] = [
     example: 'Ar I',
   },
   { key: 'label', form: 'lines', summary: 'Name of the line.', example: 'Ar I 696.5' },
+  {
+    key: 'frequency',
+    form: 'lines',
+    summary: 'Frequency of the line (needed by `detector: radiometer`).',
+    example: '115.2712018 GHz',
+  },
+  {
+    key: 'optical-depth',
+    form: 'lines',
+    summary: 'Optical depth τ of the line (radiometer): corrects N_u by τ/(1 − e^(−τ)).',
+    example: '0.5',
+  },
 ];
 
 /** Keys of `signal:` (thermal reference). */

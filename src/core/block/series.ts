@@ -3,6 +3,7 @@
  * a hyperpolarized signal, each readout with flip angle θ leaving cos θ of the
  * magnetization) or a `buildup` fit.
  */
+import type { TreeNode } from './tree';
 import type { SeriesInput } from './input';
 import { SERIES_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
@@ -123,7 +124,7 @@ function readModel(ctx: ReadContext, m: Entry | undefined, e: Entry): 'decay' | 
 function readValues(
   ctx: ReadContext,
   e: Entry,
-  read: (node: unknown, subject: string) => ReadValue | null,
+  read: (node: TreeNode | null, subject: string) => ReadValue | null,
   subject: string,
 ): ReadValue[] | null {
   const items = readList(ctx, e.value, subject, e.valueSpan);

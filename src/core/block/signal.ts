@@ -6,6 +6,7 @@
  * PHIP and SEOP work; it assumes spectra summed over scans and signals
  * linear in receiver gain.
  */
+import type { TreeNode } from './tree';
 import type { SignalInput } from './input';
 import { readInteger, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import { entries, isMap, spanOf, type Entry } from './yamlTree';
@@ -134,7 +135,7 @@ function readPair(
   ctx: ReadContext,
   e: Entry | undefined,
   name: string,
-  read: (node: unknown, subject: string) => ReadValue | null,
+  read: (node: TreeNode | null, subject: string) => ReadValue | null,
   fallback: number | null,
   valid: (v: number) => boolean,
   why: string,

@@ -3,9 +3,11 @@
  * lists, each with its body-relative span. Problems are collected in the
  * reader's list; nothing throws.
  */
+import type { TreeNode } from './tree';
 import { isNullScalar, isScalar, isSeq, spanOf, deref } from './yamlTree';
 import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../quantities/units';
 import type { Problem, Replacement, Severity, Span } from '../types';
+import type { UnitChoice } from './unitChoice';
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
@@ -49,7 +51,7 @@ export function insideBody(span: Span, body: string): Span {
  * one character in; escapes inside quotes may shift later spans, which are
  * then clamped to the node.
  */
-function scalarSource(ctx: ReadContext, node: unknown): { text: string; base: number; span: Span } | null {
+function scalarSource(ctx: ReadContext, node: TreeNode | null): { text: string; base: number; span: Span } | null {
   if (!isScalar(node) || !node.range) return null;
   const span = spanOf(node)!;
   const raw = ctx.body.slice(span.start, span.end);
@@ -84,12 +86,17 @@ export interface QuantityOptions {
   readonly defaultUnit?: string;
   /** Unit offered by the "add a unit" fix for a bare number. */
   readonly suggestUnit?: string;
+  /**
+   * Units to offer for a bare number, judged by its magnitude (best first),
+   * with the ones ruled out named in the message; overrides `suggestUnit`.
+   */
+  readonly unitChoice?: (value: number) => UnitChoice;
 }
 
 /** Reads `"<number> [± u] <unit>"` (or a bare number) into canonical units; reports and returns null on a problem. */
 export function readQuantity(
   ctx: ReadContext,
-  node: unknown,
+  node: TreeNode | null,
   dim: Dimension,
   subject: string,
   opts: QuantityOptions = {},
@@ -114,17 +121,23 @@ export function readQuantity(
   }
   const q = parsed.quantity;
   if (q.unit === null && opts.defaultUnit === undefined) {
-    const unit = opts.suggestUnit;
+    const choice = opts.unitChoice ? opts.unitChoice(q.value) : null;
+    const units = choice ? choice.offer : opts.suggestUnit ? [opts.suggestUnit] : [];
     const end = shift(src.base, { start: q.valueSpan.end, end: q.valueSpan.end }, src.span).start;
     const at = q.uncertaintySpan ? shift(src.base, q.uncertaintySpan, src.span).end : end;
-    const fixes: Replacement[] = unit
-      ? [{ title: `Add the unit ${unit}`, span: { start: at, end: at }, newText: ` ${unit}` }]
-      : [];
+    const fixes: Replacement[] = units.map((unit) => ({
+      title: `Add the unit ${unit}`,
+      span: { start: at, end: at },
+      newText: ` ${unit}`,
+    }));
+    const ruled = choice?.ruledOut.length
+      ? ` Not offered, as the magnitude would be implausible here: ${choice.ruledOut.map((r) => `${q.value} ${r.unit}`).join(', ')}.`
+      : '';
     report(
       ctx,
       'error',
       'unit-missing',
-      `${subject}: a bare number needs a unit here, ${unit ? `such as \`${src.text.trim()} ${unit}\`` : `e.g. ${example(dim)}`} (${DIMENSION_WORDS[dim]}).`,
+      `${subject}: a bare number needs a unit here, ${units[0] ? `such as \`${src.text.trim()} ${units[0]}\`` : `e.g. ${example(dim)}`} (${DIMENSION_WORDS[dim]}).${ruled}`,
       src.span,
       fixes,
     );
@@ -169,6 +182,8 @@ function example(dim: Dimension): string {
       return '`5 deg`';
     case 'density':
       return '`2.0e16 cm-3`';
+    case 'column':
+      return '`3.1e14 cm-2`';
     case 'crossSection':
       return '`2.8e-19 cm2`';
     case 'length':
@@ -190,7 +205,7 @@ function nonEmpty(span: Span): Span {
  * by 100 (ISO 80000-1: % stands for the number 0.01). The value returned is
  * always the fraction; `unit` keeps `%` when it was written.
  */
-export function readFraction(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
+export function readFraction(ctx: ReadContext, node: TreeNode | null, subject: string): ReadValue | null {
   const n = deref(node);
   const src = scalarSource(ctx, n);
   const parsed = src ? parseQuantity(src.text) : null;
@@ -208,7 +223,7 @@ export function readFraction(ctx: ReadContext, node: unknown, subject: string): 
  * Reads a plain number, optionally with `± u` (no unit allowed). Used for
  * populations, polarization, ratios and the like.
  */
-export function readNumber(ctx: ReadContext, node: unknown, subject: string): ReadValue | null {
+export function readNumber(ctx: ReadContext, node: TreeNode | null, subject: string): ReadValue | null {
   const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src || src.text.trim() === '' || isNullScalar(n)) {
@@ -244,7 +259,7 @@ export function readNumber(ctx: ReadContext, node: unknown, subject: string): Re
 /** Reads a whole number ≥ `min`; reports `code` otherwise. */
 export function readInteger(
   ctx: ReadContext,
-  node: unknown,
+  node: TreeNode | null,
   subject: string,
   code: string,
   min: number,
@@ -265,15 +280,20 @@ export function readInteger(
 }
 
 /** Reads a scalar as text (numbers are kept as written). */
-export function readText(ctx: ReadContext, node: unknown): { text: string; span: Span } | null {
+export function readText(ctx: ReadContext, node: TreeNode | null): { text: string; span: Span } | null {
   const n = deref(node);
   const src = scalarSource(ctx, n);
   if (!src) return null;
-  return { text: isScalar(n) && n.value !== null ? String(n.value) : '', span: src.span };
+  return { text: isScalar(n) && n.value !== null ? String(n.value as string | number | boolean) : '', span: src.span };
 }
 
 /** The items of a YAML sequence, or null (with a problem) when the node is not one. */
-export function readList(ctx: ReadContext, node: unknown, subject: string, span: Span): unknown[] | null {
+export function readList(
+  ctx: ReadContext,
+  node: TreeNode | null,
+  subject: string,
+  span: Span,
+): (TreeNode | null)[] | null {
   const n = deref(node);
   if (!isSeq(n)) {
     report(

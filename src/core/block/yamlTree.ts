@@ -5,7 +5,7 @@
  * errors and our bounds come back as problems.
  */
 import {
-  Document,
+  type Document,
   isAlias as isYamlAlias,
   isMap as isYamlMap,
   isPair,
@@ -55,7 +55,7 @@ export function parseBody(body: string): YamlBody {
   try {
     const plain = plainTree(text);
     if (plain) return { doc: { contents: plain }, problems };
-    doc = parseDocument(text, YAML_OPTIONS);
+    doc = parseDocument(text, COMPOSE_OPTIONS);
   } catch (err) {
     // The parser is robust, but a bug or a stack overflow on pathological nesting must not take the note down.
     problems.push({
@@ -86,6 +86,7 @@ export function parseBody(body: string): YamlBody {
     }
     problems.push({ severity: 'error', code, message: `YAML: ${e.message}`, span });
   }
+  for (const p of duplicateKeys(doc, body)) problems.push(p);
   for (const w of doc.warnings) {
     problems.push({
       severity: 'warning',
@@ -136,6 +137,55 @@ export function valueNeedingQuotes(
   const why = indicator ? `\`${indicator[0]}\` at its start` : inner![0].trim() === '#' ? '` #`, a comment' : '`: `';
   const quoted = `"${value.replace(/\\/g, '\\\\').replace(/"/g, '\\"')}"`;
   return { key: m[2]!, span: { start, end: start + value.length }, quoted, why };
+}
+
+/**
+ * The options the composer is run with: the reader's, except that the
+ * composer does not look for duplicate keys. Its check compares each key with
+ * every earlier key of the mapping (40,000 keys took seconds), so
+ * {@link duplicateKeys} does the same check in linear time afterwards.
+ */
+export const COMPOSE_OPTIONS = { ...YAML_OPTIONS, uniqueKeys: false } as const;
+
+/**
+ * The problems the composer reports with `uniqueKeys: true` (its message, at
+ * the start of the repeated key), found in one pass with a set of the keys
+ * seen per mapping. Keys are equal as the composer compares them: scalars
+ * with `===` values (so NaN never repeats), any other key only as the same
+ * node, which two key positions never are. Plain problems rather than the
+ * package's error objects, each of which captures a stack trace: a block of
+ * 100,000 repeated keys is then read in a fraction of the time. Iterative, so
+ * deeply nested input cannot overflow the stack.
+ */
+function duplicateKeys(doc: Document.Parsed, body: string): Problem[] {
+  const found: Problem[] = [];
+  const stack: unknown[] = doc.contents ? [doc.contents] : [];
+  const visited = new Set<unknown>();
+  while (stack.length > 0) {
+    const node = stack.pop();
+    if (visited.has(node)) continue;
+    visited.add(node);
+    if (isYamlMap(node)) {
+      const seen = new Set<unknown>();
+      for (const pair of node.items) {
+        const key: unknown = pair.key;
+        if (isYamlScalar(key) && key.value === key.value) {
+          if (seen.has(key.value)) {
+            const at = key.range?.[0] ?? 0;
+            found.push({
+              severity: 'error',
+              code: 'yaml-duplicate-key',
+              message: 'YAML: Map keys must be unique',
+              span: errorSpan([at, at + 1], body),
+            });
+          } else seen.add(key.value);
+        }
+      }
+    }
+    for (const kid of children(node)) stack.push(kid);
+  }
+  // In document order, as the composer would have found them.
+  return found.sort((a, b) => a.span.start - b.span.start);
 }
 
 /**
@@ -252,13 +302,13 @@ export function treeOfDocument(doc: Document.Parsed): TreeNode | null {
 }
 
 /** Follows an alias to its anchored node; other nodes are returned as they are. */
-export function deref(node: unknown): unknown {
-  return isAlias(node) ? node.target : node;
+export function deref(node: TreeNode | null | undefined): TreeNode | null {
+  return isAlias(node) ? node.target : (node ?? null);
 }
 
 /** The span a node covers (value part, without trailing comments), or null. */
-export function spanOf(node: unknown): Span | null {
-  const r = (node as TreeNode | null | undefined)?.range;
+export function spanOf(node: TreeNode | null | undefined): Span | null {
+  const r = node?.range;
   return r ? { start: r[0], end: Math.max(r[1], r[0]) } : null;
 }
 
@@ -266,12 +316,12 @@ export function spanOf(node: unknown): Span | null {
 export interface Entry {
   readonly key: string;
   readonly keySpan: Span;
-  readonly value: unknown;
+  readonly value: TreeNode | null;
   readonly valueSpan: Span;
 }
 
 /** Entries of a YAML mapping node; non-scalar keys are skipped (the caller reports them). */
-export function entries(node: unknown): Entry[] {
+export function entries(node: TreeNode | null | undefined): Entry[] {
   const map = deref(node);
   if (!isMap(map)) return [];
   const out: Entry[] = [];
@@ -286,23 +336,23 @@ export function entries(node: unknown): Entry[] {
   return out;
 }
 
-export function isMap(node: unknown): node is TreeMap {
-  return (node as TreeNode | null | undefined)?.kind === 'map';
+export function isMap(node: TreeNode | null | undefined): node is TreeMap {
+  return node?.kind === 'map';
 }
 
-export function isSeq(node: unknown): node is TreeSeq {
-  return (node as TreeNode | null | undefined)?.kind === 'seq';
+export function isSeq(node: TreeNode | null | undefined): node is TreeSeq {
+  return node?.kind === 'seq';
 }
 
-export function isScalar(node: unknown): node is TreeScalar {
-  return (node as TreeNode | null | undefined)?.kind === 'scalar';
+export function isScalar(node: TreeNode | null | undefined): node is TreeScalar {
+  return node?.kind === 'scalar';
 }
 
-function isAlias(node: unknown): node is TreeAlias {
-  return (node as TreeNode | null | undefined)?.kind === 'alias';
+function isAlias(node: TreeNode | null | undefined): node is TreeAlias {
+  return node?.kind === 'alias';
 }
 
 /** True for a scalar whose value is YAML's null (`~`, `null`, nothing at all). */
-export function isNullScalar(node: unknown): boolean {
+export function isNullScalar(node: TreeNode | null | undefined): boolean {
   return isScalar(node) && node.isNull;
 }

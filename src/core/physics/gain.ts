@@ -7,6 +7,21 @@
  * (B. E. A. Saleh, M. C. Teich, Fundamentals of Photonics).
  */
 
+/** Inversion density ΔN = N_u − (g_u/g_l)·N_l in cm⁻³ (Siegman 1986, ch. 1, cited from memory). */
+export function inversionDensity(nLower: number, nUpper: number, gLower: number, gUpper: number): number {
+  return nUpper - (gUpper / gLower) * nLower;
+}
+
+/** Threshold inversion ΔN_th = g_th/σ in cm⁻³, from g_th in cm⁻¹ and σ in cm² (g₀ = σ·ΔN at threshold). */
+export function thresholdInversion(thresholdPerCm: number, sigma: number): number {
+  return thresholdPerCm / sigma;
+}
+
+/** A power ratio in decibels, 10 log₁₀ G; for G = exp(g₀L) this is (10/ln 10)·g₀L, exact even where exp overflows. */
+export function gainDecibels(g0: number, lengthCm: number): number {
+  return (10 / Math.LN10) * g0 * lengthCm;
+}
+
 /** g₀ in cm⁻¹ from σ (cm²) and densities (cm⁻³) with degeneracies. */
 export function gainCoefficient(sigma: number, nLower: number, nUpper: number, gLower: number, gUpper: number): number {
   return sigma * (nUpper - (gUpper / gLower) * nLower);

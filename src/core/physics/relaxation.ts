@@ -56,6 +56,16 @@ const STEP_TOLERANCE = 1e-7;
 
 type Model = (p: readonly number[], i: number) => number;
 
+/**
+ * The largest |v|, in a loop: `Math.max(...values)` passes every value as an
+ * argument and overflows the stack for a series of a few hundred thousand points.
+ */
+function maxAbs(values: readonly number[]): number {
+  let m = 0;
+  for (const v of values) m = Math.max(m, Math.abs(v));
+  return m;
+}
+
 /** Fits a decay with optional readout flip angle θ (rad, 0 < θ < π/2). */
 export function fitDecay(
   t: readonly number[],
@@ -65,8 +75,8 @@ export function fitDecay(
 ): SeriesFit | null {
   const c = flip === null ? 1 : Math.cos(flip);
   const corr = t.map((_, i) => Math.pow(c, i));
-  const tMax = Math.max(...t.map(Math.abs)) || 1;
-  const sMax = Math.max(...s.map(Math.abs)) || 1;
+  const tMax = maxAbs(t) || 1;
+  const sMax = maxAbs(s) || 1;
   const x = t.map((v) => v / tMax);
   const y = s.map((v) => v / sMax);
   const f: Model = ([a, k], i) => a * Math.exp(-x[i] / k) * corr[i];
@@ -134,8 +144,8 @@ export function fitBuildup(
   s: readonly number[],
   sigma: readonly number[] | null,
 ): SeriesFit | null {
-  const tMax = Math.max(...t.map(Math.abs)) || 1;
-  const sMax = Math.max(...s.map(Math.abs)) || 1;
+  const tMax = maxAbs(t) || 1;
+  const sMax = maxAbs(s) || 1;
   const x = t.map((v) => v / tMax);
   const y = s.map((v) => v / sMax);
   const f: Model = ([a, k, b], i) => a * (1 - Math.exp(-x[i] / k)) + b;
@@ -183,7 +193,7 @@ function solve(
   // step's normal equations weight it by 1/w², so no choice of w gives the 1/σ² of both. The σ are
   // taken relative to the smallest (the minimum does not move), so that the package's absolute
   // damping meets a problem of the same scale as an unweighted one.
-  const least = sigma ? Math.min(...sigma) : 1;
+  const least = sigma ? sigma.reduce((m, v) => Math.min(m, v), Infinity) : 1;
   const w = (i: number): number => (sigma ? sigma[i] / least : 1);
   const scaled = y.map((v, i) => v / w(i));
   const run = (start: number[], iterations: number) =>

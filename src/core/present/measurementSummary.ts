@@ -7,6 +7,7 @@ import type { BlockResults } from '../analysis/results';
 import type { BlockInput } from '../block/input';
 import { formatMeasured, formatNumber } from './numbers';
 import type { DisplayOptions } from './displayOptions';
+import { tradeRows } from './tradeSummary';
 
 /** A label and its value, as display text. */
 export type Row = readonly [string, string];
@@ -51,22 +52,28 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
     ]);
     rows.push(['P_th of the reference', formatNumber(sig.pThermal, o.digits)]);
   }
-  if (input?.lines) {
-    rows.push([
-      'Boltzmann plot',
-      `${input.lines.lines.length} lines, ${input.lines.detector === 'energy' ? 'ln(Iλ/gA)' : 'ln(I/gA)'} vs E_upper${r.outliers.length ? `, ${r.outliers.length} outlier(s)` : ''}`,
-    ]);
-  }
+  rows.push(...tradeRows(input, r, o));
   const g = r.gain;
   if (g) {
+    rows.push(['inversion ΔN = N_u − (g_u/g_l)·N_l', `${formatNumber(g.inversion, o.digits)} cm⁻³`]);
     rows.push(['gain g₀', `${formatMeasured(g.coefficient, g.uCoefficient, { digits: o.digits })} cm⁻¹`]);
-    if (g.singlePass !== null)
-      rows.push(['single-pass gain', formatMeasured(g.singlePass, g.uSinglePass, { digits: o.digits })]);
+    if (g.singlePass !== null || g.singlePassDb !== null)
+      rows.push([
+        'single-pass gain',
+        [
+          g.singlePass !== null ? `× ${formatMeasured(g.singlePass, g.uSinglePass, { digits: o.digits })}` : null,
+          g.singlePassDb !== null ? `${formatNumber(g.singlePassDb, 3)} dB` : null,
+        ]
+          .filter((x) => x !== null)
+          .join(' = '),
+      ]);
     if (g.threshold !== null)
       rows.push([
         'threshold g_th',
         `${formatNumber(g.threshold, o.digits)} cm⁻¹ (${g.aboveThreshold ? 'above threshold' : 'below threshold'})`,
       ]);
+    if (g.thresholdInversion !== null)
+      rows.push(['threshold inversion ΔN_th = g_th/σ', `${formatNumber(g.thresholdInversion, o.digits)} cm⁻³`]);
   }
   return rows;
 }

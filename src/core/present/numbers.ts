@@ -182,6 +182,38 @@ export function formatFraction(p: number, uncertainty: number | null, opts: Frac
 }
 
 /**
+ * A temperature with its coverage interval, `57 K (33 … 199 K, 95 %)`: the
+ * three numbers in one unit (chosen by the value's size, as
+ * {@link formatTemperature} chooses it), rounded where two significant digits
+ * of the interval's shorter side end (the GUM §7.2.6 rule applied to the
+ * nearer bound). An end that is a million or more of the unit is written with
+ * a power of ten. A non-finite input gives `—`.
+ */
+export function formatTemperatureInterval(
+  kelvin: number,
+  low: number,
+  high: number,
+  opts: TemperatureOptions & { readonly level?: string } = {},
+): string {
+  if (!Number.isFinite(kelvin) || !Number.isFinite(low) || !Number.isFinite(high)) return DASH;
+  const arm = Math.min(Math.abs(kelvin - low), Math.abs(high - kelvin));
+  if (!(arm > 0)) return formatTemperature(kelvin, null, opts);
+  const size = Math.abs(kelvin);
+  const [unit, factor] =
+    opts.mode === 'kelvin' || size >= 1e5 || size < 1e-9
+      ? (['K', 1] as const)
+      : (PREFIXES.find(([, f]) => size >= f) ?? PREFIXES[0]);
+  let position = leadingPower(arm / factor) - 1;
+  position = Math.max(position, leadingPower(Math.max(size / factor, arm / factor)) - 17);
+  const text = (x: number): string => {
+    const v = x / factor;
+    if (Math.abs(v) >= 1e6 || (v !== 0 && Math.abs(v) < 1e-4 && position < -6)) return numberText(v, 2, DEFAULT_LIMITS);
+    return displaySign(render(roundAt(v, position), position, v < 0));
+  };
+  return `${text(kelvin)} ${unit} (${text(low)} … ${text(high)} ${unit}, ${opts.level ?? '95 %'})`;
+}
+
+/**
  * Plain ASCII for CSV and other machine-read text: the shortest string that
  * reads back as the same double (`0.005613`, `2.4e+16`, `-3`). A non-finite
  * input gives the empty string (an empty cell); JSON writers should use null.

@@ -4,8 +4,10 @@
  * cache re-analyses only the blocks that changed). Pure data; the editor's
  * tree view and the CSV export are hosts of it.
  */
-import { Analyzer } from '../analyzer/analyzer';
+import { Analyzer, type BlockReport } from '../analyzer/analyzer';
+import { isNotebookPath, notebookCells } from '../text/jupyter';
 import type { Measured, Status } from '../types';
+import { csvText } from './csv';
 
 /** One run: a block of a note. */
 export interface RunEntry {
@@ -13,8 +15,10 @@ export interface RunEntry {
   readonly uri: string;
   /** A short name of the note for display (e.g. its workspace-relative path). */
   readonly name: string;
-  /** 0-based line of the opening fence. */
+  /** 0-based line of the opening fence (in its cell, for a notebook). */
   readonly line: number;
+  /** 0-based index of the notebook cell that holds the block (among all cells), or null in a Markdown note. */
+  readonly cell: number | null;
   readonly id: string | null;
   readonly date: string | null;
   readonly status: Status;
@@ -27,6 +31,12 @@ export interface RunEntry {
   readonly timeConstant: Measured | null;
   /** Small-signal gain coefficient g₀, cm⁻¹. */
   readonly gain: Measured | null;
+  /** The k = 2 intervals (analysis/intervals.ts); null without an uncertainty. */
+  readonly betaInterval: readonly [number, number] | null;
+  readonly temperatureInterval: readonly [number, number] | null;
+  /** When β's interval holds 0: the bound |T| ≥ this, K. */
+  readonly temperatureBound: number | null;
+  readonly polarizationInterval: readonly [number, number] | null;
 }
 
 /** A group of runs under one heading (a note, or a date). */
@@ -41,12 +51,16 @@ export class RunLog {
 
   constructor(private readonly analyzer: Analyzer = new Analyzer()) {}
 
-  /** Reads (or re-reads) one note; returns true when its runs changed. */
+  /**
+   * Reads (or re-reads) one note; returns true when its runs changed. A URI ending in `.ipynb` is read as a
+   * Jupyter notebook: each Markdown cell is a note of its own (a file that is not a notebook has no runs).
+   */
   update(uri: string, name: string, text: string): boolean {
-    const entries: RunEntry[] = this.analyzer.analyzeText(text).blocks.map((b) => ({
+    const entry = (b: BlockReport, cell: number | null): RunEntry => ({
       uri,
       name,
       line: b.block.openLine,
+      cell,
       id: b.meta.id,
       date: b.meta.date,
       status: b.status,
@@ -59,7 +73,14 @@ export class RunLog {
           : null,
       timeConstant: b.results?.series?.timeConstant ?? null,
       gain: b.results?.gain ? { value: b.results.gain.coefficient, uncertainty: b.results.gain.uCoefficient } : null,
-    }));
+      betaInterval: b.results?.intervals.beta ?? null,
+      temperatureInterval: b.results?.intervals.temperature ?? null,
+      temperatureBound: b.results?.intervals.temperatureBound ?? null,
+      polarizationInterval: b.results?.intervals.polarization ?? null,
+    });
+    const entries: RunEntry[] = isNotebookPath(uri)
+      ? notebookCells(text).cells.flatMap((c) => this.analyzer.analyzeText(c.text).blocks.map((b) => entry(b, c.index)))
+      : this.analyzer.analyzeText(text).blocks.map((b) => entry(b, null));
     const before = this.notes.get(uri);
     if (before && JSON.stringify(before) === JSON.stringify(entries)) return false;
     if (entries.length === 0 && !before) return false;
@@ -81,7 +102,9 @@ export class RunLog {
   /** All runs (optionally only some statuses), by note name then line. */
   entries(statuses: readonly Status[] | null = null): RunEntry[] {
     const all = [...this.notes.values()].flat().filter((e) => !statuses || statuses.includes(e.status));
-    return all.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : a.line - b.line));
+    return all.sort((a, b) =>
+      a.name < b.name ? -1 : a.name > b.name ? 1 : (a.cell ?? 0) - (b.cell ?? 0) || a.line - b.line,
+    );
   }
 
   /** Runs grouped by note, or by `date` (runs without a date last, under "no date"). */
@@ -110,37 +133,38 @@ const CSV_HEAD = [
   'beta_uncertainty_per_K',
   'polarization',
   'polarization_uncertainty',
+  'temperature_low_95_K',
+  'temperature_high_95_K',
+  'beta_low_95_per_K',
+  'beta_high_95_per_K',
+  'polarization_low_95',
+  'polarization_high_95',
+  'cell',
 ];
 
-function cell(v: string | number | null): string {
-  if (v === null) return '';
-  const s = String(v);
-  // A leading =, +, - or @ would make spreadsheets evaluate the cell; quote such text.
-  const safe = typeof v === 'string' && /^[=+\-@]/.test(s) ? `'${s}` : s;
-  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-}
-
-/** The run log as CSV (RFC 4180), 1-based lines, full-precision numbers. */
+/** The run log as CSV (RFC 4180, formula-guarded: `csv.ts`), 1-based lines and notebook cells, full-precision numbers. */
 export function runLogCsv(entries: readonly RunEntry[]): string {
-  const rows = [CSV_HEAD.join(',')];
-  for (const e of entries) {
-    rows.push(
-      [
-        e.name,
-        e.line + 1,
-        e.id,
-        e.date,
-        e.status,
-        e.temperature?.value ?? null,
-        e.temperature?.uncertainty ?? null,
-        e.beta?.value ?? null,
-        e.beta?.uncertainty ?? null,
-        e.polarization?.value ?? null,
-        e.polarization?.uncertainty ?? null,
-      ]
-        .map(cell)
-        .join(','),
-    );
-  }
-  return rows.join('\r\n') + '\r\n';
+  return csvText([
+    CSV_HEAD,
+    ...entries.map((e) => [
+      e.name,
+      e.line + 1,
+      e.id,
+      e.date,
+      e.status,
+      e.temperature?.value ?? null,
+      e.temperature?.uncertainty ?? null,
+      e.beta?.value ?? null,
+      e.beta?.uncertainty ?? null,
+      e.polarization?.value ?? null,
+      e.polarization?.uncertainty ?? null,
+      e.temperatureInterval?.[0] ?? null,
+      e.temperatureInterval?.[1] ?? null,
+      e.betaInterval?.[0] ?? null,
+      e.betaInterval?.[1] ?? null,
+      e.polarizationInterval?.[0] ?? null,
+      e.polarizationInterval?.[1] ?? null,
+      e.cell === null ? null : e.cell + 1,
+    ]),
+  ]);
 }

@@ -28,6 +28,7 @@ export type Dimension =
   | 'time'
   | 'angle'
   | 'density'
+  | 'column'
   | 'crossSection'
   | 'length'
   | 'attenuation'
@@ -78,7 +79,14 @@ const ENERGY: Record<string, Rule> = {
 /** Canonical spellings per dimension, in completion order, with their conversion to the canonical unit. */
 const TABLE: Record<Dimension, Record<string, Rule>> = {
   energy: ENERGY,
-  wavelengthEnergy: { ...ENERGY, nm: { scale: 1e-9, wavelength: true }, µm: { scale: 1e-6, wavelength: true } },
+  wavelengthEnergy: {
+    ...ENERGY,
+    nm: { scale: 1e-9, wavelength: true },
+    µm: { scale: 1e-6, wavelength: true },
+    Å: { scale: 1e-10, wavelength: true },
+    mm: { scale: 1e-3, wavelength: true },
+    cm: { scale: 1e-2, wavelength: true },
+  },
   field: { T: { scale: 1 }, mT: { scale: 1e-3 }, G: { scale: 1e-4 } },
   temperature: {
     K: { scale: 1 },
@@ -90,8 +98,16 @@ const TABLE: Record<Dimension, Record<string, Rule>> = {
   time: { s: { scale: 1 }, ms: { scale: 1e-3 }, min: { scale: 60 }, h: { scale: 3600 } },
   angle: { deg: { scale: Math.PI / 180 }, rad: { scale: 1 } },
   density: { 'cm-3': { scale: 1 }, 'm-3': { scale: 1e-6 } },
+  column: { 'cm-2': { scale: 1 }, 'm-2': { scale: 1e-4 } },
   crossSection: { cm2: { scale: 1 }, m2: { scale: 1e4 } },
-  length: { m: { scale: 100 }, cm: { scale: 1 }, mm: { scale: 0.1 }, µm: { scale: 1e-4 }, nm: { scale: 1e-7 } },
+  length: {
+    m: { scale: 100 },
+    cm: { scale: 1 },
+    mm: { scale: 0.1 },
+    µm: { scale: 1e-4 },
+    nm: { scale: 1e-7 },
+    Å: { scale: 1e-8 },
+  },
   attenuation: { 'cm-1': { scale: 1 }, 'm-1': { scale: 0.01 } },
   rate: { 's-1': { scale: 1 } },
 };
@@ -108,6 +124,9 @@ const ALIASES: Record<string, string> = {
   μK: 'µK',
   degC: '°C',
   'cm^-3': 'cm-3',
+  'cm^-2': 'cm-2',
+  'm^-2': 'm-2',
+  '\u212B': 'Å',
   'm^-3': 'm-3',
   'cm^2': 'cm2',
   'm^2': 'm2',
@@ -127,11 +146,17 @@ const DIMENSION_NAMES: Record<Dimension, string> = {
   time: 'a time',
   angle: 'an angle',
   density: 'a number density',
+  column: 'a column density',
   crossSection: 'a cross-section',
   length: 'a length',
   attenuation: 'an attenuation coefficient',
   rate: 'a rate (transition probability)',
 };
+
+/** True when `unit` (or one of its accepted spellings) belongs to `dim`. */
+export function acceptsUnit(unit: string, dim: Dimension): boolean {
+  return resolve(unit, dim) !== null;
+}
 
 /** Canonical units of a dimension, for completions (aliases such as `ueV` or `/cm` are accepted but not listed). */
 export function unitsFor(dim: Dimension): string[] {
@@ -314,6 +339,7 @@ export const CANONICAL_UNITS: Readonly<Record<Dimension, string>> = {
   time: 's',
   angle: 'rad',
   density: 'cm-3',
+  column: 'cm-2',
   crossSection: 'cm2',
   length: 'cm',
   attenuation: 'cm-1',
@@ -391,6 +417,9 @@ const WORDS: Record<string, string> = {
   centimeter: 'cm',
   millimetre: 'mm',
   millimeter: 'mm',
+  angstrom: 'Å',
+  angstroms: 'Å',
+  ångström: 'Å',
 };
 
 /** Rewrites `1/cm`, `cm⁻¹`, `cm**-1`, `/cm3`, `℃`, `deg C`, `seconds` … into an accepted spelling where one is meant. */

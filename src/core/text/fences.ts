@@ -97,6 +97,21 @@ function isClosingFence(text: string, start: number, end: number, open: Fence): 
   return true;
 }
 
+/**
+ * True when a fence's info string marks a `levels` block: its language is
+ * `levels`, or one of the extra info strings names its language or its whole
+ * info string.
+ */
+export function isLevelsInfo(block: Pick<FencedBlock, 'info' | 'language'>, infoStrings: readonly string[]): boolean {
+  return block.language === 'levels' || infoStrings.includes(block.language) || infoStrings.includes(block.info);
+}
+
+/** True when the note has at least one `levels` block; the scan stops at the first. O(length of the note). */
+export function hasLevelsBlock(text: string, infoStrings: readonly string[] = []): boolean {
+  for (const block of scanFencedBlocks(text)) if (isLevelsInfo(block, infoStrings)) return true;
+  return false;
+}
+
 /** Scans the note line by line; O(length of the note). */
 export function findFencedBlocks(text: string): FencedBlock[] {
   return [...scanFencedBlocks(text)];

@@ -1,15 +1,16 @@
 /**
  * CSV export of the curve view: the large-N curve, the finite-N staircase,
  * the measured point and the thermal marker of every run shown, one row per
- * point (RFC 4180, CRLF line ends, full-precision numbers, empty cells for
- * unknowns). Energies in K and, when asked, also in a display unit.
+ * point, written by the one CSV writer (`present/csv.ts`: RFC 4180, formula
+ * guarding, full-precision numbers, empty cells for unknowns). Energies in K and, when asked, also in a display unit.
  */
+import { csvText, type CsvField } from '../present/csv';
 import { formatPlainNumber } from '../present/numbers';
 import type { CurvePayload, DisplayUnit } from './payload';
 import { runChartRows, type RunChartPayload, type RunQuantity } from './runChart';
 import type { DisplayOptions } from '../present/displayOptions';
 
-type Cell = string | number | null;
+type Cell = CsvField;
 
 const HEAD = [
   'run',
@@ -24,18 +25,6 @@ const HEAD = [
   'entropy_deficit',
   'relative_entropy',
 ];
-
-/**
- * One cell: numbers in plain ASCII; text quoted when it holds a quote, comma or
- * line break, and prefixed with `'` when a spreadsheet would read it as a formula
- * (a note's id is untrusted text).
- */
-function cell(v: Cell): string {
-  if (v === null) return '';
-  if (typeof v === 'number') return formatPlainNumber(v);
-  const s = /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
 
 /** The rows of one run, with `energy_K` in the fourth column. */
 function runRows(p: CurvePayload): Cell[][] {
@@ -101,22 +90,17 @@ function runRows(p: CurvePayload): Cell[][] {
 export function curveCsv(runs: readonly CurvePayload[], unit: DisplayUnit | null = null): string {
   const extra = unit !== null && unit.kelvinPerUnit !== 1;
   const head = extra ? [...HEAD.slice(0, 4), `energy_${unit.name}`, ...HEAD.slice(4)] : HEAD;
-  const lines = [head.map(cell).join(',')];
+  const records: Cell[][] = [head];
   for (const p of runs) {
     for (const row of runRows(p)) {
       const e = row[3] as number;
-      const full = extra ? [...row.slice(0, 4), e / unit.kelvinPerUnit, ...row.slice(4)] : row;
-      lines.push(full.map(cell).join(','));
+      records.push(extra ? [...row.slice(0, 4), e / unit.kelvinPerUnit, ...row.slice(4)] : row);
     }
   }
-  return lines.join('\r\n') + '\r\n';
+  return csvText(records);
 }
 
 /** The CSV text of a run comparison for one quantity (see {@link runChartRows}). */
 export function runChartCsv(p: RunChartPayload, q: RunQuantity, o: DisplayOptions): string {
-  return (
-    runChartRows(p, q, o)
-      .map((row) => row.map(cell).join(','))
-      .join('\r\n') + '\r\n'
-  );
+  return csvText(runChartRows(p, q, o));
 }

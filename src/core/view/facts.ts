@@ -4,7 +4,13 @@
  */
 import type { BlockResults } from '../analysis/results';
 import { formatMeasured, formatNumber, formatTemperature } from '../present/numbers';
-import { betaText, fractionText, statusWords, temperatureText, type DisplayOptions } from '../present/summary';
+import {
+  betaText,
+  polarizationText,
+  statusWords,
+  temperatureIntervalText,
+  type DisplayOptions,
+} from '../present/summary';
 import type { Fact, MeasuredPoint, ThermalMarker } from './payload';
 
 /** Entropy in k per system with its uncertainty when known. */
@@ -26,10 +32,10 @@ export function blockFacts(
 ): Fact[] {
   const facts: Fact[] = [
     { label: 'status', text: statusWords(results.status, results) },
-    { label: 'temperature', text: temperatureText(results, o) },
+    { label: results.trade.temperatureName, text: temperatureIntervalText(results, o) },
     { label: 'inverse temperature', text: betaText(results, o) },
   ];
-  if (results.polarization) facts.push({ label: 'polarization', text: `P = ${fractionText(results.polarization, o)}` });
+  if (results.polarization) facts.push({ label: 'polarization', text: `P = ${polarizationText(results, o)}` });
   if (point) {
     facts.push({ label: 'entropy (measured)', text: `S/N = ${entropyText(point.entropy, point.uEntropy, o.digits)}` });
     if (point.thermalEntropy !== null) {

@@ -27,10 +27,13 @@ function boltzmannPlot(input: BlockInput, r: BlockResults): MeasurementPlot {
   const points: PlotPoint[] = [];
   const fitted: { x: number; y: number }[] = [];
   const residuals: { x: number; y: number }[] = [];
+  // A rotation diagram is drawn against E_u/k in K, as radio astronomers plot it; a Boltzmann plot against eV.
+  const radio = input.lines!.detector === 'radiometer';
+  const perUnit = radio ? 1 : KELVIN_PER_EV;
   input.levels.forEach((l, i) => {
     const n = l.population ?? 0;
     if (!(n > 0)) return;
-    const x = l.energy / KELVIN_PER_EV;
+    const x = l.energy / perUnit;
     const y = Math.log(n / l.g);
     const res = fit.residuals[i];
     points.push({
@@ -47,11 +50,11 @@ function boltzmannPlot(input: BlockInput, r: BlockResults): MeasurementPlot {
   });
   fitted.sort((a, b) => a.x - b.x);
   const ends = fitted.length >= 2 ? [fitted[0], fitted[fitted.length - 1]] : [];
-  const detector = input.lines!.detector === 'energy' ? 'ln(Iλ/gA)' : 'ln(I/gA)';
+  const detector = r.trade.plot?.ordinate ?? (input.lines!.detector === 'energy' ? 'ln(Iλ/gA)' : 'ln(I/gA)');
   return {
     kind: 'boltzmann',
-    title: `Boltzmann plot: slope −β = −1/(kT)`,
-    xTitle: 'upper-level energy E (eV)',
+    title: `${radio ? 'Rotation diagram' : 'Boltzmann plot'}: slope −β = −1/(kT)`,
+    xTitle: radio ? 'upper-level energy E_u/k (K)' : 'upper-level energy E (eV)',
     yTitle: detector,
     points,
     fit: { x: ends.map((p) => p.x), y: ends.map((p) => p.y) },

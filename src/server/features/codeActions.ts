@@ -13,7 +13,6 @@ import {
 } from 'vscode-languageserver';
 import type { BlockReport, Problem, Replacement, Severity, Span } from '../../core';
 import { codeLink } from '../docsLink';
-import type { Settings } from '../../shared/settings';
 import { toOffset, toRange, type NoteState } from '../state';
 
 /** Where each diagnostic code is explained: docs/format.md, whose section anchors are the codes. */
@@ -47,7 +46,7 @@ function insideBlock(b: BlockReport, span: Span): boolean {
 }
 
 /** Quick fixes for the problems whose span meets the range, one action per proposed replacement. */
-export function codeActions(state: NoteState, range: Range, _settings: Settings): CodeAction[] {
+export function codeActions(state: NoteState, range: Range): CodeAction[] {
   const from = toOffset(state.lines, range.start);
   const to = toOffset(state.lines, range.end);
   const actions: CodeAction[] = [];

@@ -1,5 +1,5 @@
 /**
- * Code lenses above each block: "Show Energy–Entropy Curve" and "Copy
+ * Code lenses above each block: "Show Curve View" (or the plot the block has) and "Copy
  * results". Both take the note's URI and the 0-based line of the opening
  * fence, which is how the client's commands find the block again.
  */
@@ -14,7 +14,7 @@ import { blockResultsMarkdown } from './markdown';
  * command palette (a test keeps the two equal), so a lens and its command read the same.
  */
 export const LENS_TITLES = {
-  'boltzmark.showCurve': 'Show Energy–Entropy Curve',
+  'boltzmark.showCurve': 'Show Curve View',
   'boltzmark.showSeriesFit': 'Show Series Fit',
   'boltzmark.showBoltzmannPlot': 'Show Boltzmann Plot',
   'boltzmark.copyResults': 'Copy Block Results',

@@ -17,6 +17,7 @@ import {
 } from 'vscode-languageserver';
 import {
   BLOCK_KEYS,
+  keyFitsForm,
   convert,
   formatNumber,
   LEVEL_KEYS,
@@ -29,15 +30,18 @@ import {
   type Dimension,
   type KeyDoc,
 } from '../../core';
-import type { Settings } from '../../shared/settings';
 import { blockAt, toOffset, type NoteState } from '../state';
 
-/** The completions at a position. */
-export function completion(state: NoteState, position: Position, _settings: Settings): CompletionItem[] {
+/**
+ * The completions at a position. `snippets` is false for a client without
+ * snippet support (`completionItem.snippetSupport`): the new-block templates
+ * then come as plain text with each placeholder's default.
+ */
+export function completion(state: NoteState, position: Position, snippets = true): CompletionItem[] {
   const b = blockAt(state, toOffset(state.lines, position));
   const lineText = textOfLine(state, position.line);
   const before = lineText.slice(0, position.character);
-  if (!b) return lineText.slice(position.character).trim() === '' ? snippetItems(position, before) : [];
+  if (!b) return lineText.slice(position.character).trim() === '' ? snippetItems(position, before, snippets) : [];
   const inBody = position.line > b.block.openLine && (b.block.closeLine === null || position.line < b.block.closeLine);
   if (!inBody) return [];
   const body: Body = {
@@ -174,7 +178,7 @@ function fits(doc: KeyDoc, present: ReadonlySet<string>): boolean {
   if (present.has(doc.key)) return false;
   const forms = [...present].map((k) => FORM_KEYS[k]).filter((f) => f !== undefined);
   if (forms.length === 1) {
-    if (doc.form !== 'any' && doc.form !== forms[0]) return false;
+    if (!keyFitsForm(doc, forms[0])) return false;
     // Explicit levels carry their own populations and uncertainties (populations-misplaced).
     if (forms[0] === 'levels' && (doc.key === 'populations' || doc.key === 'uncertainty')) return false;
   }
@@ -186,7 +190,7 @@ function keyItem(doc: KeyDoc, index: number, range: Range): CompletionItem {
   return {
     label: doc.key,
     kind: CompletionItemKind.Property,
-    detail: doc.form === 'any' ? 'any block' : `${doc.form} form`,
+    detail: doc.form === 'any' ? 'any block' : `${(doc.forms ?? [doc.form]).join(', ')} form`,
     documentation: { kind: MarkupKind.Markdown, value: `${doc.summary}${example}` },
     textEdit: { range, newText: `${doc.key}: ` },
     sortText: String(index).padStart(3, '0'),
@@ -259,7 +263,7 @@ function speciesItems(position: Position, before: string): CompletionItem[] | nu
         detail: `I = ${spinText(s.spin)} · γ/2π = ${gammaText(s.gamma)}`,
         documentation: {
           kind: MarkupKind.Markdown,
-          value: `${Math.round(2 * s.spin + 1)} Zeeman levels, |γ|ħB apart. Spin and γ: ${s.source}.`,
+          value: `${Math.round(2 * s.spin + 1)} Zeeman levels, |γ|ħB apart.${s.abundance === null ? '' : ` Natural abundance ${formatNumber(s.abundance, 6)} %.`} Spin and γ: ${s.source}.`,
         },
         textEdit: { range: back(position, m[1].length), newText: symbol },
         sortText: String(i).padStart(3, '0'),
@@ -381,17 +385,29 @@ const TEMPLATES: readonly { readonly label: string; readonly detail: string; rea
 ];
 
 /** Snippets for a new block, offered at a line start (optionally after a typed fence). */
-function snippetItems(position: Position, before: string): CompletionItem[] {
+function snippetItems(position: Position, before: string, snippets: boolean): CompletionItem[] {
   const m = /^ {0,3}((`{1,3}|~{1,3})?[A-Za-z-]*)$/.exec(before);
   if (!m) return [];
   const fence = m[2]?.startsWith('~') ? '~~~' : '```';
-  return TEMPLATES.map((t, i) => ({
-    label: t.label,
-    kind: CompletionItemKind.Snippet,
-    detail: t.detail,
-    insertTextFormat: InsertTextFormat.Snippet,
-    textEdit: { range: back(position, m[1].length), newText: [`${fence}levels`, ...t.body, fence].join('\n') },
-    filterText: `${m[2] ?? ''}${t.label}`,
-    sortText: String(i),
-  }));
+  return TEMPLATES.map((t, i) => {
+    const text = [`${fence}levels`, ...t.body, fence].join('\n');
+    return {
+      label: t.label,
+      kind: CompletionItemKind.Snippet,
+      detail: t.detail,
+      insertTextFormat: snippets ? InsertTextFormat.Snippet : InsertTextFormat.PlainText,
+      textEdit: { range: back(position, m[1].length), newText: snippets ? text : plainSnippet(text) },
+      filterText: `${m[2] ?? ''}${t.label}`,
+      sortText: String(i),
+    };
+  });
+}
+
+/**
+ * A snippet as plain text (LSP 3.17 snippet syntax): each placeholder
+ * `${n:default}` becomes its default, and tab stops `$n` / `${n}` vanish.
+ * The templates hold no nested placeholders, choices or escaped `$`.
+ */
+export function plainSnippet(snippet: string): string {
+  return snippet.replace(/\$\{\d+:([^}]*)\}/g, '$1').replace(/\$\{\d+\}|\$\d+/g, '');
 }

@@ -7,6 +7,7 @@
  */
 import { MarkupKind, type Hover, type Position } from 'vscode-languageserver';
 import {
+  linePointRows,
   pairTemperature,
   RESIDUAL_TOLERANCE,
   type PairLevel,
@@ -33,6 +34,7 @@ import {
 import type { Settings } from '../../shared/settings';
 import { blockAt, displayOptions, toOffset, toRange, type NoteState } from '../state';
 import { blockName, blockResultsMarkdown, escapeMarkdown, markdownTable, writtenText } from './markdown';
+import { birgeText, budgetMarkdown, degeneratePolarizationText } from './uncertainty';
 
 /** The hover at a position, or null outside every block. */
 export function hover(state: NoteState, position: Position, settings: Settings): Hover | null {
@@ -40,7 +42,11 @@ export function hover(state: NoteState, position: Position, settings: Settings):
   const b = blockAt(state, offset);
   if (!b) return null;
   const o = displayOptions(settings);
-  const found = quantityHover(state, b, offset, o) ?? levelHover(b, offset, o) ?? blockHover(state, b, o);
+  const found =
+    quantityHover(state, b, offset, o) ??
+    lineHover(b, offset, o) ??
+    levelHover(b, offset, o) ??
+    blockHover(state, b, o);
   return { contents: { kind: MarkupKind.Markdown, value: found.value }, range: toRange(state.lines, found.span) };
 }
 
@@ -60,7 +66,9 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
     return { value: parts.join('\n\n'), span };
   }
   const input = b.input;
-  if (r.polarization) {
+  const degenerate = r.polarization ? degeneratePolarizationText(b, r) : null;
+  if (degenerate) parts.push(degenerate);
+  else if (r.polarization) {
     const sign = input.spin
       ? 'P > 0 at positive spin temperature, whatever the sign of γ.'
       : 'P > 0 at positive temperature.';
@@ -74,7 +82,11 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
   // transition at kT far below its gap it is 1 and ε says nothing, so no lattice is suggested there.
   if (r.thermalPolarization === null && r.polarization && !input.lattice && input.spin)
     parts.push('Add `lattice:` to get P\\_th and ε.');
-  if (r.fit) parts.push(fitText(r.fit));
+  if (r.fit) parts.push(fitText(r.fit, input.lines ? (r.trade.plot?.ordinate ?? 'ln(I/gA)') : null));
+  const birge = birgeText(r);
+  if (birge) parts.push(birge);
+  const budget = budgetMarkdown(state, b, r);
+  if (budget) parts.push(budget);
   if (input.levels.length >= 3 && r.invertedPairs.length > 0) {
     const name = (i: number): string => escapeMarkdown(input.levels[i].label ?? `level ${i + 1}`);
     const shown = r.invertedPairs.slice(0, 6).map((p) => `${name(p.lower)} ↔ ${name(p.upper)}`);
@@ -93,14 +105,17 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
  */
 
 /** One line on the Boltzmann fit: χ² test when weighted, the 5 % residual rule otherwise (docs/format.md#status). */
-function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>): string {
+function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>, ordinate: string | null): string {
   const verdict = fit.consistent ? 'consistent with one temperature' : 'not consistent with one temperature';
+  // Lines are measured as intensities: their weights and residuals are spoken of as such.
+  const [weights, quantity] = ordinate !== null ? ['u(I)/I', ordinate] : ['u(n)/n', 'ln(n/g)'];
   if (fit.weighted) {
     const critical = fit.critical !== null ? `; 1 % critical value ${formatNumber(fit.critical, 3)}` : '';
-    return `Boltzmann fit weighted by u(n)/n: χ²/dof = ${formatNumber(fit.chi2, 3)}/${fit.dof}${critical}: ${verdict}.`;
+    return `Boltzmann fit weighted by ${weights}: χ²/dof = ${formatNumber(fit.chi2, 3)}/${fit.dof}${critical}: ${verdict}.`;
   }
-  const worst = Math.max(0, ...fit.residuals.map((x) => (x === null ? 0 : Math.abs(x))));
-  return `Boltzmann fit without uncertainties (residual rule): largest \\|Δ ln(n/g)\\| = ${formatNumber(worst, 3)}, limit ln 1.05 = ${formatNumber(RESIDUAL_TOLERANCE, 3)}: ${verdict}.`;
+  // A loop, not a spread: a series of a few hundred thousand points would overflow the stack.
+  const worst = fit.residuals.reduce<number>((w, x) => (x === null ? w : Math.max(w, Math.abs(x))), 0);
+  return `Boltzmann fit without uncertainties (residual rule): largest \\|Δ ${quantity}\\| = ${formatNumber(worst, 3)}, limit ln 1.05 = ${formatNumber(RESIDUAL_TOLERANCE, 3)}: ${verdict}.`;
 }
 
 // ---- one level ----
@@ -134,6 +149,34 @@ function levelAt(b: BlockReport, offset: number): number | null {
     return shared ? null : i;
   }
   return null;
+}
+
+/**
+ * The hover of one emission or radio line: its point on the Boltzmann plot
+ * (or rotation diagram), spoken of as intensities, not populations: E_u, the
+ * ordinate with its uncertainty (√N for photon counts), the residual and
+ * whether the line is flagged, above or below the refitted line.
+ */
+function lineHover(b: BlockReport, offset: number, o: DisplayOptions): { value: string; span: Span } | null {
+  if (!b.input?.lines || !b.results) return null;
+  const i = levelAt(b, offset);
+  if (i === null) return null;
+  const rows = linePointRows(b.results, i, o);
+  const level = b.input.levels[i];
+  if (!rows || !level.span) return null;
+  const name = escapeMarkdown(level.label ?? `line ${i + 1}`);
+  const what = b.input.lines.detector === 'radiometer' ? 'rotation diagram' : 'Boltzmann plot';
+  const title = `**${name}** · its point on the ${what} · ${blockName(b)}`;
+  const table = markdownTable(
+    ['line', 'value'],
+    rows.map(([k, v]) => [escapeMarkdown(k), escapeMarkdown(v)] as [string, string]),
+  );
+  return {
+    value: `${title}
+
+${table}`,
+    span: b.toNote(level.span),
+  };
 }
 
 /** The hover of one level: energy, g, population, n/g and the pair temperatures with its neighbours. */

@@ -98,6 +98,7 @@ function shortName(label: string | null, i: number): string {
 function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayHint[] {
   const input = b.input;
   const fractions = b.results?.fractions;
+  if (input?.lines && b.results?.trade.plot) return lineHints(state, b, o);
   if (!input || !fractions) return [];
   const short: DisplayOptions = { ...o, digits: Math.min(o.digits, 3) };
   const levels = input.levels;
@@ -136,6 +137,30 @@ function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayH
       tooltip,
     });
   });
+  return out;
+}
+
+/**
+ * One hint per emission or radio line, after its item: its distance from the
+ * fit (Δy), and for a flagged line on which side of the refitted line it lies.
+ * Lines are intensities, not populations, so no n/g is shown.
+ */
+function lineHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayHint[] {
+  const input = b.input!;
+  const plot = b.results!.trade.plot!;
+  const spans = input.levels.map((l) => (l.span ? b.toNote(l.span) : null));
+  const out: InlayHint[] = [];
+  for (const p of plot.points) {
+    const span = spans[p.index];
+    if (!span) continue;
+    const delta = `Δy = ${p.residual > 0 ? '+' : ''}${formatNumber(p.residual, Math.min(o.digits, 2))}`;
+    out.push({
+      position: levelHintPosition(state, true, span, spans),
+      label: p.flag ? `outlier, ${p.flag} · ${delta}` : delta,
+      paddingLeft: true,
+      tooltip: `${p.label ?? `line ${p.index + 1}`}: ${plot.ordinate} − fit = ${formatNumber(p.residual, o.digits)}${p.flag ? `; flagged, ${p.flag} the line refitted without the flagged lines` : ''}.`,
+    });
+  }
   return out;
 }
 

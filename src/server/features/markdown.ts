@@ -11,7 +11,10 @@ import {
   formatNumber,
   fractionText,
   statusWords,
-  temperatureText,
+  temperatureSymbol,
+  withoutSymbol,
+  polarizationText,
+  temperatureIntervalText,
   type BlockReport,
   type DisplayOptions,
   type Span,
@@ -53,10 +56,12 @@ function valuePart(text: string, symbol: string): string {
   return text.startsWith(`${symbol} `) ? text.slice(symbol.length + 1) : text;
 }
 
-/** The label of P in tables: for spins above 1/2 the vector polarization. */
+/** The label of P in tables: for spins above 1/2 the vector polarization; for a degenerate transition P per degeneracy. */
 function polarizationLabel(b: BlockReport): string {
   const spin = b.input?.spin?.species.spin ?? 0.5;
-  return spin > 0.5 ? 'P = ⟨I\\_z⟩/I' : 'P';
+  if (spin > 0.5) return 'P = ⟨I\\_z⟩/I';
+  const levels = b.input?.levels;
+  return !b.input?.spin && levels?.length === 2 && levels[0].g !== levels[1].g ? 'P per degeneracy' : 'P';
 }
 
 /**
@@ -67,17 +72,24 @@ function polarizationLabel(b: BlockReport): string {
 export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions): [string, string][] {
   const r = b.results;
   if (!r) return [];
-  const t: [string, string] = ['T', valuePart(temperatureText(r, o), 'T')];
+  // Each trade's word: spin temperature for spins, excitation temperature (T_ex) for lines and transitions;
+  // `|T| ≥ …` of a saturated block: a bare `|` would end the table cell.
+  const sym = temperatureSymbol(r);
+  const t: [string, string] = [
+    sym === 'T' ? 'T' : `T\\_ex (${r.trade.temperatureName})`,
+    withoutSymbol(temperatureIntervalText(r, o)).replace(/\|/g, '\\|'),
+  ];
   const beta: [string, string] = ['β', valuePart(betaText(r, o), 'β')];
   // A bare time series has no temperature; its rows are the fit's.
   const rows: [string, string][] =
     !r.beta && !r.limit && r.series ? [] : o.temperature === 'beta-first' ? [beta, t] : [t, beta];
-  if (r.polarization) rows.push([polarizationLabel(b), fractionText(r.polarization, o)]);
+  if (r.polarization) rows.push([polarizationLabel(b), polarizationText(r, o)]);
   const lattice = b.input?.lattice;
   if (r.thermalPolarization !== null && lattice) {
     // Three digits, as the report table prints P_th: it is a derived reference value.
     const where = escapeMarkdown(writtenText(state, b.toNote(lattice.span)));
-    rows.push([`P\\_th at ${where}`, fractionText(r.thermalPolarization, { ...o, digits: Math.min(o.digits, 3) })]);
+    const pth = { value: r.thermalPolarization, uncertainty: r.uThermalPolarization };
+    rows.push([`P\\_th at ${where}`, fractionText(pth, { ...o, digits: Math.min(o.digits, 3) })]);
   }
   if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o, r.enhancementUncertainty)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);

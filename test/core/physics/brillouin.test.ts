@@ -7,6 +7,7 @@ import {
   thermalSpinPolarization,
 } from '../../../src/core/physics/brillouin';
 import { close } from '../helpers';
+import { lookupSpecies, zeemanSpacingKelvin } from '../../../src/core/quantities/isotopes';
 
 /**
  * Independent computation: ⟨m⟩/I over m = −I … I with weights e^(m y), by direct
@@ -191,7 +192,7 @@ describe('spin polarization from populations', () => {
 
   it('returns null for fewer than two levels or invalid populations', () => {
     for (const pops of [[], [1], [0, 0], [1, -1], [1, NaN], [Infinity, 1]]) {
-      assert.equal(spinPolarizationFromPopulations(pops), null, `populations ${pops}`);
+      assert.equal(spinPolarizationFromPopulations(pops), null, `populations ${pops.join(', ')}`);
     }
     assert.equal(spinPolarizationFromPopulations([0, 0, 5])!.value, -1);
   });
@@ -257,4 +258,34 @@ describe('inverse temperature from spin polarization', () => {
       assert.equal(betaFromSpinPolarization(i, p, d), null, `I = ${i}, P = ${p}, ΔE = ${d}`);
     }
   });
+});
+
+describe('thermal polarization of spins 9/2 and 7/2 from the isotope table', () => {
+  // The direct sum over the 2I + 1 Zeeman levels is boltzmannSum above (y = ΔE/T), not the Brillouin closed form.
+  const directSum = (spin: number, spacingK: number, temperatureK: number): number =>
+    boltzmannSum(spin, spacingK / temperatureK);
+
+  // Isotopes and fields: 93Nb and 209Bi (I = 9/2), 133Cs and 59Co (I = 7/2), γ from Harris et al. 2001.
+  const cases: ReadonlyArray<readonly [string, number, number]> = [
+    ['93Nb', 9.4, 298.15],
+    ['93Nb', 14.1, 1.2],
+    ['209Bi', 9.4, 0.01],
+    ['73Ge', 7.05, 4.2],
+    ['133Cs', 9.4, 298.15],
+    ['59Co', 20, 0.005],
+  ];
+  for (const [symbol, field, t] of cases) {
+    it(`matches the direct sum over the Zeeman levels for ${symbol} at ${field} T and ${t} K`, () => {
+      const found = lookupSpecies(symbol);
+      assert.ok('species' in found);
+      const s = found.species;
+      assert.ok(s.spin === 4.5 || s.spin === 3.5, `${symbol} spin`);
+      const spacing = zeemanSpacingKelvin(s, field);
+      const expected = directSum(s.spin, spacing, t);
+      const got = thermalSpinPolarization(s.spin, spacing, t);
+      assert.ok(got !== null);
+      const rel = Math.abs(got - expected) / expected;
+      assert.ok(rel < 1e-11, `${symbol}: Brillouin ${got}, direct sum ${expected}, relative Δ ${rel.toExponential(2)}`);
+    });
+  }
 });

@@ -115,7 +115,7 @@ describe('Gibbs entropy', () => {
       ],
     ];
     for (const [p, g] of cases) {
-      assert.equal(gibbsEntropy(p, g), null, `p = ${p}, g = ${g}`);
+      assert.equal(gibbsEntropy(p, g), null, `p = ${p.join(', ')}, g = ${JSON.stringify(g)}`);
     }
   });
 });

@@ -1,29 +1,35 @@
 import { strict as assert } from 'node:assert';
-import { nelderMead } from 'fmin';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { fitBuildup, fitDecay, type SeriesFit } from '../../../src/core/physics/relaxation';
 import { close } from '../helpers';
 
 // The series fits run Levenberg–Marquardt (ml-levenberg-marquardt) from a log-linear start and stop
 // when the Gauss–Newton step at the package's result is below 1e-7 of each parameter. Every check
-// value below comes from an independent computation: a general-purpose Nelder–Mead minimiser (fmin)
-// run on the same χ² or sum of squares with all parameters free, a finite-difference Hessian of
-// that χ², or the gradient's root in 50-digit arithmetic (reference/relaxation_minimum.py, mpmath).
+// value below comes from an independent computation: the minimum of the same χ² found by variable
+// projection and golden-section search in 60-digit decimals (reference/series_minima.py, Python's
+// standard library, written to reference/series_minima.json with the inputs), a finite-difference
+// Hessian of that χ², or the gradient's root in 50-digit arithmetic (reference/relaxation_minimum.py, mpmath).
 
-const NM = { maxIterations: 40000, minErrorDelta: 1e-18, minTolerance: 1e-13 };
+/** One committed reference case: the inputs and the minimum reference/series_minima.py found. */
+interface MinimumCase {
+  readonly name: string;
+  readonly model: 'decay' | 'buildup';
+  readonly time: number[];
+  readonly signal: number[];
+  readonly flip: number | null;
+  readonly sigma: number[] | null;
+  readonly expected: { timeConstant: number; amplitude: number; offset: number | null; chi2: number };
+}
+
+const SERIES_MINIMA = (
+  JSON.parse(readFileSync(join(__dirname, 'reference', 'series_minima.json'), 'utf8')) as { cases: MinimumCase[] }
+).cases;
 
 /** χ² of the build-up model S∞(1 − e^(−t/τ)) + S₀ (σ = 1 for an unweighted fit). */
 function buildupChi2(t: number[], s: number[], sigma: number[] | null) {
   return ([a, k, b]: number[]): number =>
     s.reduce((acc, v, i) => acc + ((v - (a! * (1 - Math.exp(-t[i]! / k!)) + b!)) / (sigma ? sigma[i]! : 1)) ** 2, 0);
-}
-
-/** χ² of the decay model S₀ e^(−t/T₁) cos^(n−1) θ. */
-function decayChi2(t: number[], s: number[], flip: number, sigma: number[] | null) {
-  return ([a, k]: number[]): number =>
-    s.reduce(
-      (acc, v, i) => acc + ((v - a! * Math.exp(-t[i]! / k!) * Math.cos(flip) ** i) / (sigma ? sigma[i]! : 1)) ** 2,
-      0,
-    );
 }
 
 function converged(fit: SeriesFit | null): SeriesFit {
@@ -36,34 +42,21 @@ describe('series fits, against an independent minimiser', () => {
   // Deterministic scatter of about 1 % of the plateau, so the minimum is not at the generating values.
   const s = t.map((v, i) => 0.9 * (1 - Math.exp(-v / 400)) + 0.02 + 0.01 * Math.sin(1.7 * i + 0.3));
 
-  it('finds the least-squares build-up that Nelder–Mead finds, to its precision', () => {
-    const ours = converged(fitBuildup(t, s, null));
-    const theirs = nelderMead(buildupChi2(t, s, null), [0.8, 300, 0], NM);
-    close(ours.timeConstant.value, theirs.x[1]!, 1e-6, 'τ');
-    close(ours.amplitude.value, theirs.x[0]!, 1e-6, 'S∞');
-    close(ours.offset!.value, theirs.x[2]!, 1e-5, 'S₀');
-    // Ours is the exact minimum: Nelder–Mead can only come down to it, not below it.
-    assert.ok(ours.chi2 <= theirs.fx * (1 + 1e-9), `χ² ${ours.chi2} vs ${theirs.fx}`);
-  });
-
-  it('weights a build-up by 1/σ², as the independent χ² minimisation does', () => {
-    const sigma = t.map((_, i) => 0.002 * (1 + i));
-    const ours = converged(fitBuildup(t, s, sigma));
-    const theirs = nelderMead(buildupChi2(t, s, sigma), [0.8, 300, 0], NM);
-    close(ours.timeConstant.value, theirs.x[1]!, 1e-6, 'τ (weighted)');
-    close(ours.chi2, theirs.fx, 1e-7, 'χ² at the minimum');
-  });
-
-  it('fits a decay read with 8° pulses whose scatter puts the minimum away from the log-linear start', () => {
-    const times = [0, 5, 10, 20, 30, 45, 60, 90];
-    const flip = (8 * Math.PI) / 180;
-    // Alternating ±6 % scatter: the straight line through ln S is visibly off the least-squares curve.
-    const data = times.map((v, i) => 3 * Math.exp(-v / 25) * Math.cos(flip) ** i * (1 + 0.06 * (i % 2 === 0 ? 1 : -1)));
-    const ours = converged(fitDecay(times, data, flip, null));
-    const theirs = nelderMead(decayChi2(times, data, flip, null), [2, 20], NM);
-    close(ours.timeConstant.value, theirs.x[1]!, 1e-6, 'T₁');
-    close(ours.amplitude.value, theirs.x[0]!, 1e-6, 'S₀');
-  });
+  for (const c of SERIES_MINIMA) {
+    it(`lands on the least-squares minimum found by variable projection in 60-digit arithmetic: ${c.name}`, () => {
+      const flip = c.flip;
+      const ours = converged(
+        c.model === 'decay' ? fitDecay(c.time, c.signal, flip, c.sigma) : fitBuildup(c.time, c.signal, c.sigma),
+      );
+      const e = c.expected;
+      close(ours.timeConstant.value, e.timeConstant, 1e-6, 'time constant');
+      close(ours.amplitude.value, e.amplitude, 1e-6, 'amplitude');
+      if (e.offset !== null) close(ours.offset!.value, e.offset, 1e-5, 'offset');
+      close(ours.chi2, e.chi2, 1e-9, 'χ² at the minimum');
+      // The reference is the exact minimum to far below double precision: the fit cannot go under it.
+      assert.ok(ours.chi2 >= e.chi2 * (1 - 1e-12), `χ² ${ours.chi2} below the minimum ${e.chi2}`);
+    });
+  }
 
   it('gives the uncertainties of the curvature of χ²: u² = 2 [H⁻¹]_jj with H its Hessian (finite differences)', () => {
     // For a χ² with given σ the covariance is 2 H⁻¹ (Bevington & Robinson, ch. 8; from memory).

@@ -6,7 +6,7 @@ import {
 } from '../../../src/core/quantities/constants';
 import {
   ELECTRON,
-  SpinSpecies,
+  type SpinSpecies,
   electronWithGFactor,
   larmorFrequencyHz,
   lookupSpecies,
@@ -48,8 +48,77 @@ const IUPAC: ReadonlyArray<readonly [string, number, number]> = [
 ];
 
 describe('isotope table', () => {
-  it('lists every nucleus the format requires, then the electron', () => {
-    assert.deepEqual(speciesSymbols(), [...IUPAC.map(([s]) => s), 'electron']);
+  it('lists every nucleus the format requires, by mass number, then the electron', () => {
+    const symbols = speciesSymbols();
+    for (const [symbol] of IUPAC) assert.ok(symbols.includes(symbol), `${symbol} missing`);
+    assert.equal(symbols[symbols.length - 1], 'electron');
+    const masses = symbols.slice(0, -1).map((s) => Number.parseInt(s, 10));
+    assert.deepEqual(
+      masses,
+      [...masses].sort((a, b) => a - b),
+      'ordered by mass number',
+    );
+  });
+
+  it('holds the 120 magnetic nuclei of the IUPAC 2001 table, each with an abundance or none in nature', () => {
+    // Harris et al. 2001, Table 1: the stable nuclei with I > 0 and the long-lived ones in common use.
+    const nuclei = speciesSymbols().filter((s) => s !== 'electron');
+    assert.equal(nuclei.length, 120);
+    for (const symbol of nuclei) {
+      const s = species(symbol);
+      assert.ok(Number.isInteger(2 * s.spin) && s.spin > 0, `${symbol} spin ${s.spin}`);
+      assert.ok(s.abundance === null || (s.abundance > 0 && s.abundance <= 100), `${symbol} abundance`);
+    }
+    // Only nuclei not found in nature lack an abundance (3H and 99Tc are made, not mined).
+    assert.deepEqual(
+      nuclei.filter((s) => species(s).abundance === null),
+      ['3H', '99Tc'],
+    );
+  });
+
+  it('gives the spin-9/2 nuclei the issue names their IUPAC 2001 spin and signed gamma', () => {
+    // Harris et al. 2001, Table 1 (γ in 10⁷ rad s⁻¹ T⁻¹, natural abundance in %).
+    const nine: ReadonlyArray<readonly [string, number, number]> = [
+      ['73Ge', -0.9360303, 7.73],
+      ['83Kr', -1.0331, 11.49],
+      ['87Sr', -1.1639376, 7.0],
+      ['93Nb', 6.5674, 100],
+      ['209Bi', 4.375, 100],
+    ];
+    for (const [symbol, gamma, abundance] of nine) {
+      const s = species(symbol);
+      assert.equal(s.spin, 4.5, `${symbol} spin`);
+      assertClose(s.gamma, gamma * 1e7, 1e-12, `${symbol} γ`);
+      assert.equal(s.abundance, abundance, `${symbol} abundance`);
+    }
+  });
+
+  it('has abundances that add up to 100 % for elements whose two stable isotopes both carry a spin', () => {
+    // An element's isotopic abundances add to 100 % (Harris et al. 2001 quote them to 0.01 %–0.001 %);
+    // for these elements every stable isotope has I > 0, so the table holds the whole element.
+    const pairs: ReadonlyArray<readonly [string, string]> = [
+      ['6Li', '7Li'],
+      ['10B', '11B'],
+      ['14N', '15N'],
+      ['35Cl', '37Cl'],
+      ['63Cu', '65Cu'],
+      ['69Ga', '71Ga'],
+      ['79Br', '81Br'],
+      ['85Rb', '87Rb'],
+      ['107Ag', '109Ag'],
+      ['113In', '115In'],
+      ['121Sb', '123Sb'],
+      ['138La', '139La'],
+      ['151Eu', '153Eu'],
+      ['175Lu', '176Lu'],
+      ['185Re', '187Re'],
+      ['191Ir', '193Ir'],
+      ['203Tl', '205Tl'],
+    ];
+    for (const [a, b] of pairs) {
+      const sum = species(a).abundance! + species(b).abundance!;
+      assert.ok(Math.abs(sum - 100) < 0.01, `${a} + ${b} = ${sum} %`);
+    }
   });
 
   for (const [symbol, spin, mhzPerT] of IUPAC) {
@@ -63,10 +132,16 @@ describe('isotope table', () => {
     });
   }
 
-  it('has negative gamma for 3He, 15N, 17O, 29Si and 129Xe only among the nuclei', () => {
+  it('has negative gamma for 3He, 15N, 17O, 29Si and 129Xe among the light nuclei the format names', () => {
     // Signs of the IUPAC 2001 table (Harris et al. 2001).
-    const negative = speciesSymbols().filter((s) => s !== 'electron' && species(s).gamma < 0);
+    const negative = IUPAC.map(([s]) => s).filter((s) => species(s).gamma < 0);
     assert.deepEqual(negative, ['3He', '15N', '17O', '29Si', '129Xe']);
+  });
+
+  it('gives 40K a negative gamma, as its negative magnetic moment requires', () => {
+    // Harris et al. 2001, Table 1: μ(40K) = −1.451 μ_N, γ = −1.554 × 10⁷ rad s⁻¹ T⁻¹, I = 4.
+    assert.ok(species('40K').gamma < 0);
+    assert.equal(species('40K').spin, 4);
   });
 
   it('gives the free electron spin one half and gamma of minus the CODATA 2022 magnitude', () => {
@@ -176,13 +251,16 @@ describe('lookupSpecies', () => {
   }
 
   it('suggests an isotope of the same element for an unlisted mass number or a bare element', () => {
-    assert.deepEqual(lookupSpecies('14N'), { suggestion: '15N' });
+    assert.deepEqual(lookupSpecies('16O'), { suggestion: '17O' });
+    assert.deepEqual(lookupSpecies('238U'), { suggestion: '235U' });
+    assert.deepEqual(lookupSpecies('niobium-93'), { suggestion: '93Nb' });
+    assert.deepEqual(lookupSpecies('germanium'), { suggestion: '73Ge' });
     assert.deepEqual(lookupSpecies('Xe'), { suggestion: '129Xe' });
     assert.deepEqual(lookupSpecies('carbon'), { suggestion: '13C' });
   });
 
   it('suggests nothing for text that resembles no species', () => {
-    for (const text of ['foo', '', 'Uranium', '235U', 'neutrino', 'constructor', 'toString', '__proto__'])
+    for (const text of ['foo', '', 'Unobtainium', 'neutrino', 'constructor', 'toString', '__proto__'])
       assert.deepEqual(lookupSpecies(text), { suggestion: null }, text);
   });
 });

@@ -1,4 +1,5 @@
 import { strict as assert } from 'node:assert';
+import { parse as parseCsv } from 'csv-parse/sync';
 import { curveCsv, curveData, KELVIN_PER_WAVENUMBER, type CurvePayload } from '../../../src/core';
 import { block } from '../helpers';
 
@@ -6,24 +7,9 @@ function payload(body: string): CurvePayload {
   return curveData(block(body).report, { uri: 'file:///n.md', version: 1 }) as CurvePayload;
 }
 
-/** Parses RFC 4180 rows (quotes, doubled quotes, CRLF) — a small independent reader. */
+/** RFC 4180 records, read by csv-parse (a general-purpose reader independent of this code). */
 function parse(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let cell = '';
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') ((cell += '"'), i++);
-      else if (c === '"') quoted = false;
-      else cell += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') (row.push(cell), (cell = ''));
-    else if (c === '\r' && text[i + 1] === '\n') (row.push(cell), rows.push(row), (row = []), (cell = ''), i++);
-    else cell += c;
-  }
-  return rows;
+  return parseCsv(text) as string[][];
 }
 
 describe('curve view CSV export', () => {

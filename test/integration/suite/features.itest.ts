@@ -101,7 +101,7 @@ describe('Boltzmark through the VS Code API', () => {
       uri,
       at('id: Li inversion W-3', 'Li', 1),
     );
-    assert.match(inverted.map(markdownOf).join('\n'), /inverted: population inversion/);
+    assert.match(inverted.map(markdownOf).join('\n'), /inverted: more population per degeneracy above/);
   });
 
   it('puts the block’s results in an inlay hint at the end of its first line', async () => {
@@ -170,7 +170,7 @@ describe('Boltzmark through the VS Code API', () => {
     const lenses = await vscode.commands.executeCommand<vscode.CodeLens[]>('vscode.executeCodeLensProvider', uri);
     const fence = at('id: cell-B run 1', 'id').line - 1;
     const lens = lenses.find((l) => l.range.start.line === fence && l.command?.command === 'boltzmark.showCurve');
-    assert.ok(lens?.command, 'a "Show Energy–Entropy Curve" lens on the fence line');
+    assert.ok(lens?.command, 'a "Show Curve View" lens on the fence line');
     const isView = (t: vscode.Tab): boolean =>
       t.input instanceof vscode.TabInputWebview && t.input.viewType.includes('boltzmark.curveView');
     const opened = when(

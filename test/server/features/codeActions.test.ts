@@ -2,7 +2,6 @@ import { strict as assert } from 'node:assert';
 import type { CodeAction, TextEdit } from 'vscode-languageserver';
 import { codeActions, problemToDiagnostic } from '../../../src/server/features/codeActions';
 import { FORMAT_DOC_URL } from '../../../src/server/docsLink';
-import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
 import type { NoteState } from '../../../src/server/state';
 import { everything, note, noteState, URI, withCursor } from '../helpers';
 
@@ -21,7 +20,7 @@ function apply(state: NoteState, action: CodeAction): string {
 /** Quick fixes at the cursor: [title, diagnostic code, preferred, the note after applying it]. */
 function check(marked: string, expected: readonly (readonly [string, string, boolean, string])[]): void {
   const { state, position } = withCursor(marked);
-  const actions = codeActions(state, { start: position, end: position }, DEFAULT_SETTINGS);
+  const actions = codeActions(state, { start: position, end: position });
   assert.deepEqual(
     actions.map((a) => [a.title, String(a.diagnostics?.[0]?.code), a.isPreferred === true, apply(state, a)]),
     expected,
@@ -60,7 +59,7 @@ describe('code actions', () => {
 
   it('answer for every problem a wider range meets', () => {
     const state = noteState(note('system: C13', 'field: 9.4', 'polarization: 0.1'));
-    const actions = codeActions(state, everything(state), DEFAULT_SETTINGS);
+    const actions = codeActions(state, everything(state));
     assert.deepEqual(
       actions.map((a) => a.title),
       // With two problems of one fix each, "fix all" comes last.
@@ -75,7 +74,7 @@ describe('code actions', () => {
     const outside = { title: 'Edit the heading', span: { start: 0, end: 1 }, newText: '#' };
     const twice = { ...p, fixes: [...p.fixes!, { ...p.fixes![0], title: 'Change unit to T', newText: 'T' }, outside] };
     const changed: NoteState = { ...state, report: { ...state.report, blocks: [{ ...b, problems: [twice] }] } };
-    const actions = codeActions(changed, everything(state), DEFAULT_SETTINGS);
+    const actions = codeActions(changed, everything(state));
     assert.deepEqual(
       actions.map((a) => [a.title, a.isPreferred]),
       [
@@ -172,7 +171,7 @@ describe('typing that forgives', () => {
       '  signal: [1.0, 0.74, 0.55, 0.40]',
     );
     const { state, position } = withCursor(marked);
-    const actions = codeActions(state, { start: position, end: position }, DEFAULT_SETTINGS);
+    const actions = codeActions(state, { start: position, end: position });
     const all = actions.find((a) => /to all 3 bare numbers/.test(a.title))!;
     assert.ok(all, actions.map((a) => a.title).join('; '));
     assert.equal(
@@ -182,7 +181,7 @@ describe('typing that forgives', () => {
     const fixAll = actions.find((a) => a.kind === 'source.fixAll.boltzmark');
     assert.equal(fixAll, undefined, 'one list fix is not "all problems"');
     const two = withCursor(`${marked}\n${note('system: 1H', 'field: 9.4 MT', 'polarization: 0.001')}`);
-    const found = codeActions(two.state, { start: two.position, end: two.position }, DEFAULT_SETTINGS).find(
+    const found = codeActions(two.state, { start: two.position, end: two.position }).find(
       (a) => a.kind === 'source.fixAll.boltzmark',
     )!;
     assert.ok(found);
@@ -212,7 +211,7 @@ describe('typing that forgives', () => {
     const p = state.report.blocks[0]!.problems.find((x) => x.code === 'yaml-syntax')!;
     assert.match(p.message, /^`sample`: .*put it in quotes/);
     assert.doesNotMatch(p.message, /Unexpected scalar/);
-    const actions = codeActions(state, { start: position, end: position }, DEFAULT_SETTINGS);
+    const actions = codeActions(state, { start: position, end: position });
     const quote = actions.find((a) => a.title === 'Put the value in quotes')!;
     const fixed = apply(state, quote);
     assert.equal(fixed, note('sample: "[1-13C]pyruvic acid"', ...body));
@@ -237,7 +236,7 @@ describe('typing that forgives', () => {
       const lines = ['levels:', ...items];
       lines[line] = lines[line]!.slice(0, col) + '$0' + lines[line]!.slice(col);
       const { state, position } = withCursor(note(...lines));
-      const fix = codeActions(state, { start: position, end: position }, DEFAULT_SETTINGS).find(
+      const fix = codeActions(state, { start: position, end: position }).find(
         (a) => a.title === 'List the levels lowest energy first',
       );
       assert.ok(fix, `offered at line ${line}`);

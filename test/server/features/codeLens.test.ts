@@ -16,11 +16,11 @@ function check(text: string, expected: readonly (readonly [number, string, strin
 }
 
 describe('code lenses', () => {
-  it('put "Show Energy–Entropy Curve" and "Copy Block Results" above every block, invalid ones included', () => {
+  it('put "Show Curve View" and "Copy Block Results" above every block, invalid ones included', () => {
     check(`${note(...CONTRACT)}\n${note('system: 1H', 'field: 9.4 MT', 'polarization: 0.001')}`, [
-      [2, 'Show Energy–Entropy Curve', 'boltzmark.showCurve', [URI, 2]],
+      [2, 'Show Curve View', 'boltzmark.showCurve', [URI, 2]],
       [2, 'Copy Block Results', 'boltzmark.copyResults', [URI, 2]],
-      [12, 'Show Energy–Entropy Curve', 'boltzmark.showCurve', [URI, 12]],
+      [12, 'Show Curve View', 'boltzmark.showCurve', [URI, 12]],
       [12, 'Copy Block Results', 'boltzmark.copyResults', [URI, 12]],
     ]);
   });

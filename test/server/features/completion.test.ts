@@ -1,13 +1,12 @@
 import { strict as assert } from 'node:assert';
 import type { CompletionItem, TextEdit } from 'vscode-languageserver';
-import { completion } from '../../../src/server/features/completion';
-import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
+import { completion, plainSnippet } from '../../../src/server/features/completion';
 import { note, noteState, withCursor } from '../helpers';
 
 /** The items at the cursor marker. */
 function itemsAt(marked: string): CompletionItem[] {
   const { state, position } = withCursor(marked);
-  return completion(state, position, DEFAULT_SETTINGS);
+  return completion(state, position);
 }
 
 /** Compares the labels of the items at the cursor, in sort order. */
@@ -64,6 +63,11 @@ describe('completion', () => {
         'length',
         'mirrors',
         'loss',
+        'brightness',
+        'optical-depth',
+        'background',
+        'wavelengths',
+        'rotational-constant',
         'lattice',
         'count',
         'uncertainty',
@@ -91,6 +95,9 @@ describe('completion', () => {
       check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), [
         'id',
         'series',
+        'background',
+        'wavelengths',
+        'rotational-constant',
         'lattice',
         'count',
         'note',
@@ -105,6 +112,8 @@ describe('completion', () => {
         'uncertainty',
         'species',
         'label',
+        'frequency',
+        'optical-depth',
       ]);
     });
 
@@ -142,21 +151,18 @@ describe('completion', () => {
 
   describe('of isotopes', () => {
     it('lists the table after `system:`, by mass number, the electron last', () => {
-      check(note('system: $0'), [
-        '1H',
-        '2H',
-        '3He',
-        '7Li',
-        '13C',
-        '15N',
-        '17O',
-        '19F',
-        '23Na',
-        '29Si',
-        '31P',
-        '129Xe',
-        'electron',
-      ]);
+      const labels = itemsAt(note('system: $0')).map((i) => String(i.label));
+      // The isotope table of Harris et al. 2001 (120 magnetic nuclei), then the electron.
+      assert.equal(labels.length, 121);
+      assert.deepEqual(labels.slice(0, 4), ['1H', '2H', '3H', '3He']);
+      assert.deepEqual(labels.slice(-3), ['209Bi', '235U', 'electron']);
+      const masses = labels.slice(0, -1).map((l) => Number.parseInt(l, 10));
+      assert.deepEqual(
+        masses,
+        [...masses].sort((a, c) => a - c),
+      );
+      for (const required of ['7Li', '13C', '15N', '17O', '19F', '23Na', '29Si', '31P', '129Xe', '73Ge', '93Nb'])
+        assert.ok(labels.includes(required), required);
     });
 
     it('gives spin and signed γ/2π as detail', () => {
@@ -211,7 +217,24 @@ describe('completion', () => {
         'THz',
         'K',
       ]);
-      check(note('gap: 1064 $0'), ['J', 'eV', 'meV', 'µeV', 'cm-1', 'Hz', 'kHz', 'MHz', 'GHz', 'THz', 'K', 'nm', 'µm']);
+      check(note('gap: 1064 $0'), [
+        'J',
+        'eV',
+        'meV',
+        'µeV',
+        'cm-1',
+        'Hz',
+        'kHz',
+        'MHz',
+        'GHz',
+        'THz',
+        'K',
+        'nm',
+        'µm',
+        'Å',
+        'mm',
+        'cm',
+      ]);
       check(note('system: 1H', 'frequency: 400 $0'), [
         'Hz',
         'kHz',
@@ -265,6 +288,22 @@ describe('completion', () => {
         const b = noteState(`# Run\n\n${inserted}\n`).report.blocks[0]!;
         assert.equal(b.status, 'invalid', `${item.label} left as inserted`);
       }
+    });
+
+    it('inserts plain text with the placeholders’ defaults for a client without snippet support', () => {
+      // LSP 3.17 §Snippet syntax: `${1:run}` is a placeholder with default `run`, `$0` / `${2}` are tab stops.
+      assert.equal(plainSnippet('id: ${1:run}\ng: [${3:1}, ${4:3}]\n$0x${2}'), 'id: run\ng: [1, 3]\nx');
+      const { state, position } = withCursor('# Run 7\n\n```$0\n');
+      const items = completion(state, position, false);
+      assert.equal(items.length, 3);
+      for (const item of items) {
+        assert.equal(item.insertTextFormat, 1, 'PlainText');
+        assert.doesNotMatch(inserted(item), /\$/, item.label);
+      }
+      assert.equal(
+        inserted(items[0]),
+        '```levels\nid: run name\nsystem: isotope\nfield: field with unit\nlattice: bath temperature with unit\npolarization: measured P\n```',
+      );
     });
   });
 });

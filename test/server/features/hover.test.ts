@@ -44,7 +44,7 @@ describe('hover', () => {
       assert.equal(
         value,
         [
-          '**cell\\-B run 7** — normal: positive spin temperature, more population below',
+          '**cell\\-B run 7** — normal: positive spin temperature, more population per degeneracy below',
           '',
           '| result | value |',
           '| :-- | :-- |',
@@ -96,7 +96,7 @@ describe('hover', () => {
       check(note('gap: 10 K', 'ratio: 2.0 ± 0.04$0'), {
         range: [2, 0, 5, 3],
         includes: [
-          '— inverted: population inversion, negative spin temperature',
+          '— inverted: more population per degeneracy above, a negative excitation temperature',
           '| T | −14.43 ± 0.42 K |',
           '| P | −33.33 ± 0.89 % |',
         ],
@@ -420,5 +420,60 @@ describe('hover: what a practitioner reads', () => {
       range: [2, 0, 5, 3],
       excludes: ['lattice'],
     });
+  });
+});
+
+describe('hover: honest intervals and the uncertainty budget', () => {
+  /** The block hover's Markdown for a body (cursor on the first line's key). */
+  function blockHover(...body: string[]): string {
+    const { state, position } = withCursor(note(`$0${body[0]}`, ...body.slice(1)));
+    const h = hover(state, position, DEFAULT_SETTINGS);
+    assert.ok(h);
+    return (h.contents as { value: string }).value;
+  }
+
+  it('lists each input’s share of the uncertainties when lattice and signals both carry one', () => {
+    const value = blockHover(
+      'system: 13C',
+      'field: 3 T',
+      'lattice: 298.15 ± 3 K',
+      'signal:',
+      '  hyperpolarized: 2.41e4 ± 20',
+      '  thermal: 1.08e3 ± 1',
+      '  scans: { hyperpolarized: 1, thermal: 256 }',
+      '  flip: { hyperpolarized: 5 deg, thermal: 90 deg }',
+    );
+    assert.match(value, /Uncertainty budget/);
+    assert.match(value, /GUM JCGM 100:2008/);
+    // The lattice dominates u(P) here: 98 % of u² (u(T)/T = 1 % against the signals' 0.13 %).
+    assert.match(value, /\| `lattice` 298\\\.15 ± 3 K \| [\d.]+ \(98 %\) \| [\d.]+ \(98 %\)/);
+    assert.match(value, /\| the signals’ noise \|/);
+  });
+
+  it('shows no budget when only the measurement carries an uncertainty', () => {
+    const value = blockHover(...CONTRACT);
+    assert.doesNotMatch(value, /Uncertainty budget/);
+  });
+
+  it('escapes the bars of |T| so a saturated block keeps its table', () => {
+    const value = blockHover('gap: 1 K', 'populations: [1.00 ± 0.05, 0.98 ± 0.05]');
+    assert.match(value, /\| T \| \\\|T\\\| ≥ [\d.]+ K \(95 %\), either sign: saturated \|/);
+  });
+
+  it('names P per degeneracy for g = [1, 3] and gives the raw difference beside it', () => {
+    const value = blockHover('gap: 100 GHz', 'g: [1, 3]', 'populations: [0.4, 0.6]');
+    assert.match(value, /\| P per degeneracy \| 33\.33 % \|/);
+    assert.match(value, /raw \(n\\_l − n\\_u\)\/\(n\\_l \+ n\\_u\) is −0\.200/);
+  });
+
+  it('says which u(β) a fit with χ²/dof > 1 shows, and gives it scaled by the Birge ratio', () => {
+    const value = blockHover(
+      'levels:',
+      '  - { energy: 0 K, population: 1.0, uncertainty: 0.01 }',
+      '  - { energy: 100 K, population: 0.42, uncertainty: 0.0042 }',
+      '  - { energy: 200 K, population: 0.12, uncertainty: 0.0012 }',
+    );
+    assert.match(value, /comes from the stated uncertainties of the populations/);
+    assert.match(value, /Birge ratio √\(χ²\/dof\) = [\d.]+/);
   });
 });

@@ -107,7 +107,7 @@ describe('inlay hints', () => {
     for (const f of readdirSync('demo').filter((x) => x.endsWith('.md'))) {
       const state = noteState(readFileSync(join('demo', f), 'utf8'), DEFAULT_SETTINGS);
       for (const h of inlayHints(state, everything(state), DEFAULT_SETTINGS))
-        assert.ok([...(h.label as string)].length <= 40, `${f}: ${String(h.label)}`);
+        assert.ok([...(h.label as string)].length <= 40, `${f}: ${h.label as string}`);
     }
   });
 

@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import type { DocumentSymbol } from 'vscode-languageserver';
-import { documentSymbols } from '../../../src/server/features/symbols';
-import { CONTRACT, note, noteState } from '../helpers';
+import { documentSymbols, flatSymbols } from '../../../src/server/features/symbols';
+import { CONTRACT, note, noteState, URI } from '../helpers';
 
 /** A symbol as [name, detail, range as [line, character, line, character], selection range, children]. */
 type Flat = [string, string, number[], number[], Flat[]];
@@ -56,6 +56,47 @@ describe('document symbols', () => {
             ['down', 'E/k = 0 K · g = 1 · n/g = 0.800', [6, 4, 6, 49], [6, 4, 6, 49], []],
           ],
         ],
+      ],
+    );
+  });
+
+  it('never give a blank name: an id or level label that is empty or only spaces falls back to the line or the index', () => {
+    // LSP 3.17, DocumentSymbol.name: "must not be an empty string or a string only consisting of white spaces".
+    for (const id of ['id: ""', 'id: "   "', 'id: "\\t\\u3000"', 'id:'])
+      assert.equal(documentSymbols(noteState(note(id, 'gap: 10 K', 'ratio: 2')))[0].name, 'levels block at line 3', id);
+    const [scheme] = documentSymbols(
+      noteState(
+        note(
+          'id: scheme',
+          'levels:',
+          '  - { label: "", energy: 10 K, population: 0.2 }',
+          '  - { label: "  ", energy: 0 K, population: 0.8 }',
+        ),
+      ),
+    );
+    // Levels are numbered in energy order (the core sorts them): the 0 K level is level 1.
+    assert.deepEqual(
+      scheme.children!.map((c) => c.name),
+      ['level 2', 'level 1'],
+    );
+  });
+
+  it('flatten for a client without hierarchical symbols, each level naming its block as container', () => {
+    const state = noteState(
+      note(
+        'id: scheme',
+        'levels:',
+        '  - { label: up, energy: 10 K, population: 0.2 }',
+        '  - { label: down, energy: 0 K, population: 0.8 }',
+      ),
+    );
+    const flat = flatSymbols(URI, documentSymbols(state));
+    assert.deepEqual(
+      flat.map((s) => [s.name, s.containerName ?? null, s.location.uri, s.location.range.start.line]),
+      [
+        ['scheme', null, URI, 2],
+        ['up', 'scheme', URI, 5],
+        ['down', 'scheme', URI, 6],
       ],
     );
   });

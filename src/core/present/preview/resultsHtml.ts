@@ -12,7 +12,10 @@ import {
   enhancementText,
   fractionText,
   statusWords,
-  temperatureText,
+  temperatureSymbol,
+  withoutSymbol,
+  polarizationText,
+  temperatureIntervalText,
   type DisplayOptions,
 } from '../summary';
 import type { Problem, Status } from '../../types';
@@ -48,12 +51,22 @@ export function resultsHtml(b: PreviewBlock, o: DisplayOptions = DEFAULT_DISPLAY
 function tableRows(b: PreviewBlock, r: BlockResults, o: DisplayOptions): [string, string][] {
   const rows: [string, string][] = [];
   if (r.beta || r.limit) {
-    rows.push(['T', temperatureText(r, o).replace(/^T = /, '')]);
+    const sym = temperatureSymbol(r);
+    rows.push([
+      sym === 'T' ? 'T' : `${sym} (${r.trade.temperatureName})`,
+      withoutSymbol(temperatureIntervalText(r, o)),
+    ]);
     rows.push(['β', betaText(r, o).replace(/^β = /, '')]);
   }
-  if (r.polarization) rows.push(['P', fractionText(r.polarization, o)]);
+  if (r.polarization) rows.push(['P', polarizationText(r, o)]);
   if (r.thermalPolarization !== null)
-    rows.push(['P_th', fractionText(r.thermalPolarization, { ...o, digits: Math.min(o.digits, 3) })]);
+    rows.push([
+      'P_th',
+      fractionText(
+        { value: r.thermalPolarization, uncertainty: r.uThermalPolarization },
+        { ...o, digits: Math.min(o.digits, 3) },
+      ),
+    ]);
   if (r.enhancement !== null) rows.push(['ε', enhancementText(r.enhancement, o, r.enhancementUncertainty)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
   if (r.fit)

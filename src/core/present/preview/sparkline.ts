@@ -25,9 +25,10 @@ export function sparklineSvg(
 ): string | null {
   const curve = schemeCurve(energiesK, g, { points: 120 });
   if (!curve || curve.length < 2) return null;
-  const eMin = Math.min(...energiesK);
-  const eMax = Math.max(...energiesK);
-  const sMax = Math.max(...curve.map((p) => p.entropy));
+  // Loops rather than Math.min(...values): a spread of a few hundred thousand levels overflows the stack.
+  const eMin = energiesK.reduce((m, e) => Math.min(m, e), Infinity);
+  const eMax = energiesK.reduce((m, e) => Math.max(m, e), -Infinity);
+  const sMax = curve.reduce((m, p) => Math.max(m, p.entropy), -Infinity);
   if (!(eMax > eMin) || !(sMax > 0)) return null;
   const x = (e: number): number => PAD + ((e - eMin) / (eMax - eMin)) * (W - 2 * PAD);
   const y = (s: number): number => H - PAD - (s / sMax) * (H - 2 * PAD);

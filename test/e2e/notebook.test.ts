@@ -1,0 +1,81 @@
+import { strict as assert } from 'node:assert';
+import type { Page } from 'playwright-core';
+import * as host from '../../scripts/editorHost.cjs';
+import { shot, startSession, type Session } from './session';
+import { clean, frameWith, pattern } from './workbench';
+
+// The demo notebook (demo/optical-bench.ipynb): its second cell holds the `Xe cell run 2` block.
+const NOTEBOOK = 'optical-bench.ipynb';
+
+function notebookSteps(version: host.Version): void {
+  describe(`Boltzmark in a Jupyter notebook, in VS Code’s own notebook editor (e2e, ${host.TITLES[version]})`, function () {
+    this.timeout(120000);
+    let s: Session;
+    let page: Page;
+
+    before(async function () {
+      this.timeout(15 * 60 * 1000);
+      s = await startSession({ name: 'notebook', version });
+      page = s.page;
+      // The notebook editor is chosen from the extensions' contributions: wait until they are read (our own view's
+      // title shows then), or the file opens as JSON text.
+      await page.locator('.pane-header', { hasText: /levels run log/i }).waitFor();
+    });
+
+    afterEach(async function () {
+      if (this.currentTest?.state === 'failed' && page)
+        await shot(page, `failed-nb-${this.currentTest.title.slice(0, 40).replace(/[^\w]+/g, '-')}`).catch(
+          () => undefined,
+        );
+    });
+
+    after(async () => {
+      await s?.close();
+    });
+
+    it('shows the results table after the block in the rendered Markdown cell', async () => {
+      await page.locator(`.explorer-folders-view .monaco-list-row[aria-label="${NOTEBOOK}"]`).dblclick();
+      await page.locator('.tabs-container .tab.active', { hasText: NOTEBOOK }).waitFor();
+      const frame = await frameWith(page, '.boltzmark-results', 'Xe cell run 2');
+      const results = frame.locator('.boltzmark-results', { hasText: 'Xe cell run 2' });
+      const text = clean(await results.innerText());
+      // T = 1/β with β from P = 0.0842 of 129Xe (spin 1/2): the table's T is the core's, shown with its unit.
+      assert.match(text, /normal/);
+      assert.match(text, /T\s+7\.08 ± 0\.26 µK/);
+      assert.match(text, /P\s+8\.42 ± 0\.31 %/);
+    });
+
+    it('gives the block in a cell an inlay hint and a hover, positioned in that cell', async () => {
+      const frame = await frameWith(page, '.boltzmark-results', 'Xe cell run 2');
+      // Double-clicking the rendered cell opens it for editing, as a user would.
+      await frame.getByText('Spin-exchange run 2').dblclick();
+      const cell = page.locator('.notebook-editor .monaco-editor', { hasText: 'system: 129Xe' });
+      await cell.waitFor();
+      // The hint sits on the cell's own fence line (line 5 of the cell, not of the notebook file).
+      const fence = cell.locator('.view-line', { hasText: pattern('T = 7.08') });
+      await fence.waitFor();
+      assert.match(clean(await fence.innerText()), /```levels/, 'the hint is on the fence line of the cell');
+      const line = cell.locator('.view-line', { hasText: pattern('system: 129Xe') });
+      const box = await line.boundingBox();
+      assert.ok(box, 'the line is on screen');
+      const hover = page
+        .locator('.monaco-hover-content')
+        .filter({ hasText: /Xe cell run 2/ })
+        .first();
+      for (let attempt = 0; attempt < 5; attempt++) {
+        await page.mouse.move(box.x + 24, box.y + box.height * 6);
+        await page.mouse.move(box.x + 24, box.y + box.height / 2, { steps: 4 });
+        try {
+          await hover.waitFor({ state: 'visible', timeout: 6000 });
+          break;
+        } catch {
+          // The line can move when the hints arrive; move away and come back.
+        }
+      }
+      const text = clean(await hover.innerText());
+      assert.match(text, /7\.08 ± 0\.26 µK/);
+    });
+  });
+}
+
+for (const version of host.versionsToTest()) notebookSteps(version);
