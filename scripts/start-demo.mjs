@@ -18,6 +18,7 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
 
 const require = createRequire(import.meta.url);
 const host = require('./editorHost.cjs');
@@ -78,9 +79,7 @@ async function main() {
       console.error(`the editor host stopped (${code ?? signal}); its log: ${join(run.dir, 'server.log')}`);
       void stop(1);
     });
-    console.log(
-      `\nBoltzmark demo in VS Code ${host.vscodeVersion(args.version)}: ${server.open}\n(serving ${args.folder}; Ctrl-C stops)\n`,
-    );
+    console.log(startBanner(args.folder, server.open, host.vscodeVersion(args.version)));
   } catch (err) {
     console.error(String(err instanceof Error ? err.message : err));
     const log = join(run.dir, 'server.log');
@@ -90,7 +89,21 @@ async function main() {
   }
 }
 
-main().catch((err) => {
-  console.error(String(err instanceof Error ? err.message : err));
-  process.exit(1);
-});
+/**
+ * The line printed once the editor is up: it names the folder served (the demo only when it is the
+ * demo), so `npm start -- ~/notes` does not claim to show the demo.
+ */
+export function startBanner(folder, url, vscodeVersion) {
+  const demo = resolve(folder) === resolve(join(host.ROOT, 'demo'));
+  const what = demo ? 'the demo notebook (demo/)' : folder;
+  const editor = vscodeVersion ? `VS Code ${vscodeVersion}` : 'VS Code';
+  return `\nBoltzmark in ${editor}, serving ${what}: ${url}\n(Ctrl-C stops)\n`;
+}
+
+// Run only as the `npm start` script, not when a test imports startBanner.
+if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  main().catch((err) => {
+    console.error(String(err instanceof Error ? err.message : err));
+    process.exit(1);
+  });
+}

@@ -17,6 +17,8 @@ import {
 } from 'chart.js';
 import type { ChartModel, Series, ViewModel } from './model';
 import { shortNumber, shortTemperature } from './numbers';
+import { temperatureTicks } from './ticks';
+import { tickValues } from './measurementChart';
 import { backgroundPlugin, deficitPlugin, errorBarsPlugin, inversionPlugin } from './plugins';
 import type { Palette } from './theme';
 
@@ -34,7 +36,7 @@ Chart.register(
 );
 
 /** Width in CSS pixels given to every y axis, so the two plot areas share their left and right edges. */
-const AXIS_WIDTH = 92;
+const AXIS_WIDTH = 112;
 
 type Scatter = Chart<'scatter'>;
 
@@ -81,7 +83,8 @@ function axis(
       color: p.muted,
       callback: (v: number | string) => shortNumber(Number(v)),
       maxTicksLimit: 9,
-      includeBounds: position === 'left',
+      // Ticks only at round steps: an axis end that is not on the step would crowd its neighbour.
+      includeBounds: false,
     },
     ...(position === 'left' ? { afterFit: fixedWidth } : {}),
   } as unknown as ScaleOptionsByType<'linear'>;
@@ -136,21 +139,27 @@ function options(m: ChartModel, p: Palette, legend: boolean, right: ScaleOptions
 }
 
 /**
- * The right axis of the β chart: the same scale as β, labelled with T = 1/β in kelvin. The β bars span
- * β ± 2u(β), so read on this axis they span T's interval, the image of β's (skewed, exact coverage).
+ * The right axis of the β chart: the same scale as β, labelled at round temperatures T = 1/β (and ±∞ at
+ * β = 0). The β bars span β ± 2u(β), so read on this axis they span T's interval, the image of β's
+ * (skewed, exact coverage).
  */
-function temperatureAxis(m: ChartModel, kelvinPerUnit: number, p: Palette): ScaleOptionsByType<'linear'> {
+function temperatureAxis(m: ChartModel, p: Palette): ScaleOptionsByType<'linear'> {
   const a = axis('T = 1/β (bars: 95 %)', m.y.min, m.y.max, p, 'left');
   const step = (m.y.max - m.y.min) * 1e-9;
+  const betas = temperatureTicks(m.y.min, m.y.max);
   return {
     ...a,
     position: 'right',
     afterFit: fixedWidth,
     grid: { display: false },
+    // Ticks where T is a round number, not where β is: 1/β of a round β is rarely round.
+    afterBuildTicks: (scale: { ticks: { value: number }[] }) => {
+      scale.ticks = betas.map((value) => ({ value }));
+    },
     ticks: {
       ...a.ticks,
-      callback: (v: number | string) =>
-        Math.abs(Number(v)) <= step ? '±∞' : shortTemperature(kelvinPerUnit / Number(v)),
+      includeBounds: false,
+      callback: (v: number | string) => (Math.abs(Number(v)) <= step ? '±∞' : shortTemperature(1 / Number(v))),
     },
   } as unknown as ScaleOptionsByType<'linear'>;
 }
@@ -183,6 +192,9 @@ function describe(chart: Scatter): void {
   c.dataset.area = [a.left, a.top, a.right, a.bottom].join(',');
   c.dataset.x = [x.min, x.max].join(',');
   c.dataset.y = [y.min, y.max].join(',');
+  c.dataset.ticks = tickValues(chart as unknown as Chart);
+  const title = (chart.options.scales?.y as { title?: { text?: unknown } } | undefined)?.title?.text;
+  c.dataset.yTitle = typeof title === 'string' ? title : '';
   c.dataset.legend = chart.data.datasets
     .map((d) => d.label ?? '')
     .filter((l) => l !== '')
@@ -215,7 +227,7 @@ export class CurveCharts {
       this.beta,
       this.betaCanvas,
       model.beta,
-      options(model.beta, p, false, temperatureAxis(model.beta, model.kelvinPerUnit, p), true),
+      options(model.beta, p, false, temperatureAxis(model.beta, p), true),
       p,
     );
     describe(this.entropy);

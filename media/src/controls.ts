@@ -26,7 +26,7 @@ function on(id: string, event: string, fn: () => void): void {
 export function wireControls(
   unit: EnergyAxisUnit,
   actions: ControlActions,
-): { setUnit(u: EnergyAxisUnit): void; setDrawable(d: boolean): void } {
+): { setUnit(u: EnergyAxisUnit): void; setDrawable(d: boolean, pinnable?: boolean): void } {
   const select = document.getElementById('unit-select') as (HTMLElement & { value: string }) | null;
   const setUnit = (u: EnergyAxisUnit): void => {
     if (select && select.value !== u) select.value = u;
@@ -42,9 +42,11 @@ export function wireControls(
   on('copy-link', 'click', () => actions.copyImageLink());
   return {
     setUnit,
-    setDrawable(d: boolean) {
-      for (const id of ['pin-button', 'export-png', 'export-csv', 'copy-link'])
+    /** Exports need a curve; pinning also works for a measurement plot (`pinnable`). */
+    setDrawable(d: boolean, pinnable = d) {
+      for (const id of ['export-png', 'export-csv', 'copy-link'])
         document.getElementById(id)?.toggleAttribute('disabled', !d);
+      document.getElementById('pin-button')?.toggleAttribute('disabled', !pinnable);
     },
   };
 }

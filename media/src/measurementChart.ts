@@ -4,7 +4,7 @@
  * series with its fitted model, and the residuals on a right-hand axis.
  */
 import { Chart, type ChartDataset } from 'chart.js';
-import type { MeasurementPlot } from '../../src/core/packageFree';
+import type { MeasurementPlot, PinnedPlot } from '../../src/core/packageFree';
 import { largestMagnitude, paddedRange } from './axisRange';
 import { shortNumber } from './numbers';
 import type { Palette } from './theme';
@@ -12,6 +12,13 @@ import type { Palette } from './theme';
 type Scatter = Chart<'scatter'>;
 
 const range = paddedRange;
+
+/** The tick values of every axis, as JSON, for tests: `{"x":[…],"y":[…],"y2":[…]}`. */
+export function tickValues(chart: Chart): string {
+  const out: Record<string, number[]> = {};
+  for (const [id, scale] of Object.entries(chart.scales)) out[id] = scale.ticks.map((t) => t.value);
+  return JSON.stringify(out);
+}
 
 /** Owns the chart.js instance of the measurement plot. */
 export class MeasurementChart {
@@ -25,12 +32,12 @@ export class MeasurementChart {
   ) {}
 
   /** Shows and draws the plot, or hides the section when there is none. */
-  draw(plot: MeasurementPlot | null | undefined, p: Palette): void {
+  draw(plot: MeasurementPlot | null | undefined, p: Palette, pinned: readonly PinnedPlot[] = []): void {
     this.section.hidden = !plot;
     if (!plot) return;
     this.title.textContent = plot.title;
-    const ys = [...plot.points.map((q) => q.y), ...plot.fit.y];
-    const xs = [...plot.points.map((q) => q.x), ...plot.fit.x];
+    const ys = [...plot.points.map((q) => q.y), ...plot.fit.y, ...pinned.flatMap((r) => r.plot.points.map((q) => q.y))];
+    const xs = [...plot.points.map((q) => q.x), ...plot.fit.x, ...pinned.flatMap((r) => r.plot.points.map((q) => q.x))];
     const datasets: ChartDataset<'scatter'>[] = [
       {
         label: 'measured',
@@ -74,6 +81,33 @@ export class MeasurementChart {
         yAxisID: 'y2',
       },
     ];
+    // Each pinned run: its points and its fit in the pin's colour, labelled by its id in the legend.
+    pinned.forEach((r, i) => {
+      const color = p.pins[i % p.pins.length]!;
+      datasets.push(
+        {
+          label: r.id,
+          data: r.plot.points.map((q) => ({ x: q.x, y: q.y })),
+          borderColor: color,
+          backgroundColor: color,
+          pointRadius: 4,
+          pointStyle: 'rectRot',
+          showLine: false,
+          yAxisID: 'y',
+        },
+        {
+          label: '',
+          data: r.plot.fit.x.map((x, k) => ({ x, y: r.plot.fit.y[k]! })),
+          borderColor: color,
+          backgroundColor: color,
+          pointRadius: 0,
+          showLine: true,
+          borderWidth: 1.5,
+          borderDash: [6, 4],
+          yAxisID: 'y',
+        },
+      );
+    });
     const x = range(xs);
     const y = range(ys);
     const rmax =
@@ -88,7 +122,13 @@ export class MeasurementChart {
       max,
       title: { display: true, text: title, color: p.foreground },
       grid: { display: grid, color: p.grid, lineWidth: 0.5 },
-      ticks: { color: p.muted, callback: (v: number | string) => shortNumber(Number(v)), maxTicksLimit: 7 },
+      // Ticks at round steps only: the padded axis ends (1.04, −0.00617) would crowd their neighbours.
+      ticks: {
+        color: p.muted,
+        callback: (v: number | string) => shortNumber(Number(v)),
+        maxTicksLimit: 7,
+        includeBounds: false,
+      },
     });
     const options = {
       animation: false as const,
@@ -108,8 +148,8 @@ export class MeasurementChart {
             usePointStyle: true,
             boxWidth: 8,
             boxHeight: 8,
-            filter: (i: { datasetIndex?: number }) =>
-              i.datasetIndex === 1 ? plot.points.some((q) => q.flagged) : true,
+            filter: (i: { datasetIndex?: number; text?: string }) =>
+              i.datasetIndex === 1 ? plot.points.some((q) => q.flagged) : i.text !== '',
           },
         },
         background: { color: p.background },
@@ -131,6 +171,8 @@ export class MeasurementChart {
     this.canvas.dataset.x = [x.min, x.max].join(',');
     this.canvas.dataset.y = [y.min, y.max].join(',');
     this.canvas.dataset.kind = plot.kind;
+    this.canvas.dataset.pins = pinned.map((r) => r.id).join('\n');
+    this.canvas.dataset.ticks = tickValues(this.chart);
     this.section.dataset.drawn = String(++this.drawn);
   }
 }

@@ -1,7 +1,7 @@
 /**
  * From the payloads to what the two charts draw: points in the display unit
- * (energy E/unit = (E/k)/kelvinPerUnit, β per unit = β·kelvinPerUnit, so that
- * dS/dE = β still holds on screen), axis ranges, error bars, the deficit gap
+ * (energy E/unit = (E/k)/kelvinPerUnit; β always in K⁻¹, the unit every
+ * result and table gives it in, whatever unit the energy axis uses), axis ranges, error bars, the deficit gap
  * and the inversion region. Pure: no DOM, no chart.js.
  */
 import {
@@ -86,7 +86,7 @@ function columnPoints(xs: readonly number[], ys: readonly number[], kx: number, 
 }
 
 /** Limits of the β axis: wide enough for every marker and a readable middle of the curve. */
-function betaLimit(base: CurvePayload, pins: readonly PinnedRun[], k: number): number {
+function betaLimit(base: CurvePayload, pins: readonly PinnedRun[]): number {
   const span = base.scheme.energies[base.scheme.energies.length - 1]! - base.scheme.energies[0]!;
   let limit = 6 / span;
   for (const p of [base, ...pins.map((r) => r.payload)]) {
@@ -94,7 +94,7 @@ function betaLimit(base: CurvePayload, pins: readonly PinnedRun[], k: number): n
     if (m && m.beta !== null) limit = Math.max(limit, Math.abs(m.beta) + 2 * (m.uBeta ?? 0));
     if (p.thermal) limit = Math.max(limit, Math.abs(p.thermal.beta));
   }
-  return niceCeil(1.1 * limit * k);
+  return niceCeil(1.1 * limit);
 }
 
 /** The smallest of 1, 2, 2.5, 5 × 10ⁿ that is ≥ x > 0: an axis end that reads well. */
@@ -128,7 +128,7 @@ export function viewModel(
   b.push({
     role: 'curve',
     label: 'thermal states, large N',
-    points: columnPoints(base.curve.energy, base.curve.beta, k, k),
+    points: columnPoints(base.curve.energy, base.curve.beta, k, 1),
     color: palette.curve,
     pointStyle: 'circle',
   });
@@ -145,7 +145,7 @@ export function viewModel(
     b.push({
       role: 'finiteN',
       label,
-      points: columnPoints(f.energy, f.beta, k, k),
+      points: columnPoints(f.energy, f.beta, k, 1),
       color: palette.finiteN,
       pointStyle: 'circle',
     });
@@ -178,7 +178,7 @@ export function viewModel(
       b.push({
         role: 'pinCurve',
         label: null,
-        points: columnPoints(p.curve.energy, p.curve.beta, k, k),
+        points: columnPoints(p.curve.energy, p.curve.beta, k, 1),
         color,
         pointStyle: shape,
       });
@@ -190,9 +190,9 @@ export function viewModel(
     e.push({ role, label: p.id, points: [{ x, y: m.entropy }], color, pointStyle: shape });
     eBars.push({ x, y: m.entropy, dx, dy: m.uEntropy, color });
     if (m.beta !== null) {
-      b.push({ role, label: p.id, points: [{ x, y: m.beta * k }], color, pointStyle: shape });
+      b.push({ role, label: p.id, points: [{ x, y: m.beta }], color, pointStyle: shape });
       // The β bar is the k = 2 interval β ± 2u(β) (the contract's `interval`); the T axis reads it as T's interval.
-      bBars.push({ x, y: m.beta * k, dx, dy: m.uBeta === null ? null : COVERAGE_FACTOR * m.uBeta * k, color });
+      bBars.push({ x, y: m.beta, dx, dy: m.uBeta === null ? null : COVERAGE_FACTOR * m.uBeta, color });
     }
   }
   const t = base.thermal;
@@ -208,7 +208,7 @@ export function viewModel(
     b.push({
       role: 'lattice',
       label,
-      points: [{ x: t.energy / k, y: t.beta * k }],
+      points: [{ x: t.energy / k, y: t.beta }],
       color: palette.lattice,
       pointStyle: 'triangle',
     });
@@ -217,7 +217,7 @@ export function viewModel(
   const xMin = Math.min(...all.map((p) => p.scheme.energies[0]!)) / k;
   const xMax = Math.max(...all.map((p) => p.scheme.energies[p.scheme.energies.length - 1]!)) / k;
   const sMax = Math.max(...all.map((p) => p.maxEntropy));
-  const limit = betaLimit(base, pins, k);
+  const limit = betaLimit(base, pins);
   const xTitle = `energy per system E (${unit.label})`;
   const m = base.measured;
   const deficit: DeficitGap | null =
@@ -250,7 +250,7 @@ export function viewModel(
       y: {
         min: -limit,
         max: limit,
-        title: unit.name === 'K' ? 'inverse temperature β (K⁻¹)' : `inverse temperature β (per ${unit.label})`,
+        title: 'inverse temperature β (K⁻¹)',
       },
     },
   };

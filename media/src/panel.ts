@@ -3,7 +3,7 @@
  * notes, the first error of an invalid block, and the list of pinned runs.
  * Every string from a note is set with `textContent`, never parsed as HTML.
  */
-import type { CurvePayload, PinnedRun, ProblemPayload } from '../../src/core/packageFree';
+import type { CurvePayload, PinnedPlot, PinnedRun, ProblemPayload } from '../../src/core/packageFree';
 
 function el<K extends keyof HTMLElementTagNameMap>(
   tag: K,
@@ -56,9 +56,14 @@ export class Panel {
   showProblem(p: ProblemPayload): void {
     this.show('problem');
     this.title.textContent = p.id ?? 'block without id';
-    this.status.textContent = p.code === null ? 'nothing to draw' : 'invalid';
-    this.status.dataset.status = p.code === null ? 'empty' : 'invalid';
+    // The chip says what is drawn: a plot below when the block has one, nothing only when it has none.
+    const drawn = p.plot ? (p.plot.kind === 'series' ? 'series fit' : 'Boltzmann plot') : 'nothing to draw';
+    this.status.textContent = p.code === null ? drawn : 'invalid';
+    this.status.dataset.status = p.code === null ? (p.plot ? 'plot' : 'empty') : 'invalid';
     const code = p.code === null ? [] : [el('code', p.code, 'code')];
+    // An explanation is a note, not an error: styled and announced as one.
+    this.problem.dataset.kind = p.code === null ? 'note' : 'error';
+    this.problem.setAttribute('role', p.code === null ? 'status' : 'alert');
     this.problem.replaceChildren(el('span', p.message, 'message'), ...code);
     this.facts.replaceChildren();
     this.notes.replaceChildren();
@@ -78,18 +83,20 @@ export class Panel {
   }
 
   /** The pinned runs, each with an unpin button; `unpin` receives the run's key. */
-  showPins(pins: readonly PinnedRun[], unpin: (key: string) => void): void {
-    this.pinsSection.hidden = pins.length === 0;
+  showPins(pins: readonly PinnedRun[], plots: readonly PinnedPlot[], unpin: (key: string) => void): void {
+    this.pinsSection.hidden = pins.length === 0 && plots.length === 0;
+    const item = (key: string, id: string, detail: string): HTMLElement => {
+      const li = el('li');
+      li.dataset.key = key;
+      const button = el('vscode-button', 'Unpin') as HTMLElement;
+      button.setAttribute('secondary', '');
+      button.addEventListener('click', () => unpin(key));
+      li.append(el('span', id, 'pin-id'), el('span', ` — ${detail}`, 'pin-status'), button);
+      return li;
+    };
     this.pins.replaceChildren(
-      ...pins.map((r) => {
-        const li = el('li');
-        li.dataset.key = r.key;
-        const button = el('vscode-button', 'Unpin') as HTMLElement;
-        button.setAttribute('secondary', '');
-        button.addEventListener('click', () => unpin(r.key));
-        li.append(el('span', r.payload.id, 'pin-id'), el('span', ` — ${r.payload.status}`, 'pin-status'), button);
-        return li;
-      }),
+      ...pins.map((r) => item(r.key, r.payload.id, r.payload.status)),
+      ...plots.map((r) => item(r.key, r.id, r.plot.kind === 'series' ? 'series fit' : 'Boltzmann plot')),
     );
   }
 }

@@ -67,7 +67,13 @@ export const inversionPlugin: Plugin = {
     ctx.font = o.font;
     ctx.textBaseline = 'top';
     ctx.textAlign = 'right';
-    if (a.right - px > 40) ctx.fillText('population inversion (β < 0)', a.right - 6, a.top + 4);
+    // On the entropy chart the saturation label also sits at the top (left of the line): when the two
+    // would overlap, the inversion label moves down a line.
+    const inversionText = 'population inversion (β < 0)';
+    const lineHeight = parseFloat(o.font) * 1.3 || 16;
+    const inversionLeft = a.right - 6 - ctx.measureText(inversionText).width;
+    const clash = !o.zeroLine && inversionLeft < px;
+    if (a.right - px > 40) ctx.fillText(inversionText, a.right - 6, a.top + 4 + (clash ? lineHeight : 0));
     ctx.strokeStyle = o.line;
     ctx.lineWidth = 1.5;
     ctx.setLineDash([5, 4]);
@@ -76,9 +82,11 @@ export const inversionPlugin: Plugin = {
     ctx.lineTo(px, a.bottom);
     ctx.stroke();
     ctx.setLineDash([]);
+    // Saturation is the point where β = 0: on the β chart the label sits where the curve crosses β = 0,
+    // on the entropy chart at the top, beside the maximum of S. Its place is written on the canvas for tests.
+    let label: [number, number] = [px - 4, a.top + 4];
     ctx.textAlign = 'right';
-    ctx.textBaseline = 'bottom';
-    ctx.fillText('saturation', px - 4, a.bottom - 4);
+    ctx.textBaseline = 'top';
     if (o.zeroLine) {
       const py = y.getPixelForValue(0);
       if (py >= a.top && py <= a.bottom) {
@@ -87,9 +95,14 @@ export const inversionPlugin: Plugin = {
         ctx.lineTo(a.right, py);
         ctx.stroke();
         ctx.textAlign = 'left';
+        ctx.textBaseline = 'bottom';
         ctx.fillText('β = 0', a.left + 4, py - 3);
+        ctx.textAlign = 'right';
+        label = [px - 4, py + 3];
       }
     }
+    ctx.fillText('saturation', label[0], label[1]);
+    chart.canvas.dataset.saturationLabel = label.join(',');
     ctx.restore();
   },
 };

@@ -12,7 +12,7 @@
  * src/core/index.ts: that part depends on no package, so the bundle stays
  * free of the YAML reader and the analysis it never runs.
  */
-import type { EnergyAxisUnit, RenderMessage } from '../../src/core/packageFree';
+import { RUN_QUANTITIES, type EnergyAxisUnit, type RenderMessage, type RunQuantity } from '../../src/core/packageFree';
 import { CurveCharts } from './charts';
 import { wireControls } from './controls';
 import { composePng } from './exportImage';
@@ -20,12 +20,16 @@ import { connectHost } from './host';
 import { viewModel } from './model';
 import { MeasurementChart } from './measurementChart';
 import { Panel } from './panel';
+import { RunChart } from './runChart';
 import { onThemeChange, readPalette } from './theme';
 
 const host = connectHost();
 const saved = host.savedState();
 let unit: EnergyAxisUnit = saved?.unit ?? 'block';
 let last: RenderMessage | null = saved?.last ?? null;
+let quantity: RunQuantity = saved?.quantity ?? 'polarization';
+/** The quantity drawn: the chosen one, or the first the runs have when they lack it. */
+let shownQuantity: RunQuantity = quantity;
 /** Highest render sequence number seen since this page loaded (a restored host starts again from 0). */
 let seen = -1;
 let drawn = 0;
@@ -36,28 +40,76 @@ const measurement = new MeasurementChart(
   document.getElementById('measurement-title') as HTMLElement,
   document.getElementById('measurement-chart') as HTMLCanvasElement,
 );
+const runChart = new RunChart(
+  document.getElementById('runs') as HTMLElement,
+  document.getElementById('runs-chart') as HTMLCanvasElement,
+  (run) => host.post({ type: 'openRun', uri: run.uri, line: run.line }),
+);
+const runsEmpty = document.getElementById('runs-empty') as HTMLElement;
+const runsTitle = document.getElementById('runs-title') as HTMLElement;
+const runsSelect = document.getElementById('runs-quantity') as (HTMLElement & { value: string }) | null;
+
+/** The run comparison: the chosen result if any run has it, else the first result some run has. */
+function drawRuns(): void {
+  const runs = last?.runs ?? null;
+  const offered = RunChart.choices(runs);
+  const shown = offered.includes(quantity) ? quantity : (offered[0] ?? quantity);
+  shownQuantity = shown;
+  if (runsSelect && runsSelect.value !== shown) runsSelect.value = shown;
+  runsTitle.textContent = runs ? `Runs compared: ${runs.title}` : 'Runs compared';
+  const count = runs?.points.filter((p) => p.values[shown] !== null).length ?? 0;
+  runsEmpty.hidden = count > 0;
+  runsEmpty.textContent = count > 0 ? '' : 'None of these runs has a value for this result.';
+  runChart.draw(runs, shown, readPalette());
+}
+
+function saveState(): void {
+  host.saveState({ unit, last, quantity });
+}
+
+runsSelect?.addEventListener('change', () => {
+  const v = runsSelect.value;
+  if (!(RUN_QUANTITIES as readonly string[]).includes(v)) return;
+  quantity = v as RunQuantity;
+  saveState();
+  drawRuns();
+});
+document.getElementById('runs-png')?.addEventListener('click', () => {
+  const runs = last?.runs;
+  if (runs) host.post({ type: 'exportRunsPng', dataUrl: composePng(runChart.canvases(), runs.title, readPalette()) });
+});
+document.getElementById('runs-csv')?.addEventListener('click', () => {
+  if (last?.runs) host.post({ type: 'exportRunsCsv', quantity: shownQuantity });
+});
+
 const charts = new CurveCharts(
   document.getElementById('entropy-chart') as HTMLCanvasElement,
   document.getElementById('beta-chart') as HTMLCanvasElement,
 );
 
 function draw(): void {
+  drawRuns();
   const current = last?.current ?? null;
-  panel.showPins(last?.pinned ?? [], (key) => host.post({ type: 'unpin', key }));
-  controls.setDrawable(current?.kind === 'curve');
+  const plotPins = last?.pinnedPlots ?? [];
+  panel.showPins(last?.pinned ?? [], plotPins, (key) => host.post({ type: 'unpin', key }));
+  controls.setDrawable(current?.kind === 'curve', current?.kind === 'curve' || !!current?.plot);
   const palette = readPalette();
   // Drawn after its section is shown, so chart.js measures a laid-out canvas.
   const plot = current?.plot ?? null;
+  // Pinned plots of the same kind (series with series, Boltzmann plots with Boltzmann plots), not the block shown.
+  const overlay = plotPins.filter(
+    (p) => plot && p.plot.kind === plot.kind && !(current && p.uri === current.uri && p.line === current.line),
+  );
   if (current === null) {
     measurement.draw(null, palette);
     return panel.showEmpty();
   }
   if (current.kind === 'problem') {
     panel.showProblem(current);
-    return measurement.draw(plot, palette);
+    return measurement.draw(plot, palette, overlay);
   }
   panel.showCurve(current);
-  measurement.draw(plot, palette);
+  measurement.draw(plot, palette, overlay);
   charts.draw(viewModel(current, last?.pinned ?? [], unit, palette), palette);
   for (const c of charts.canvases())
     c.setAttribute(
@@ -75,7 +127,7 @@ function png(): string | null {
 const controls = wireControls(unit, {
   unit(u) {
     unit = u;
-    host.saveState({ unit, last });
+    saveState();
     draw();
   },
   pin: () => host.post({ type: 'pin' }),
@@ -94,12 +146,12 @@ host.listen((message) => {
   if (message.seq < seen) return; // an older render overtaken by a newer one
   seen = message.seq;
   last = message;
-  host.saveState({ unit, last });
+  saveState();
   draw();
 });
 
 onThemeChange(() => {
-  if (last?.current?.kind === 'curve') draw();
+  if (last?.current?.kind === 'curve' || last?.runs) draw();
 });
 
 draw();

@@ -24,26 +24,125 @@ export interface Row {
   readonly block: BlockReport | null;
 }
 
-/** Human table: file:line, id, status, T, β, P, P_th, ε; then each problem on its own line. */
-export function formatTable(rows: readonly Row[]): string {
+/** The table's header; each row has one cell per heading. */
+const TABLE_HEAD = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
+
+/**
+ * How a narrow table makes room, step by step: move what follows T's value (its 95 % interval, kT) to an
+ * indented line under the row, leave out β (T says the same), then P_th (a reference
+ * value), then move ε and the measurement results to an indented line under their row, then shorten
+ * long places and ids. Nothing but β and P_th is ever left out.
+ */
+const NARROWING = ['interval', 'beta', 'thermal', 'below', 'shorten'] as const;
+/** Default width of the table when there is no terminal to ask: an ordinary terminal's 100 columns. */
+export const DEFAULT_TABLE_WIDTH = 100;
+
+/** How the human table is laid out. */
+export interface TableOptions {
+  /** Widest line allowed, in characters (the terminal's width, or {@link DEFAULT_TABLE_WIDTH}). */
+  readonly width: number;
+  /** Every column, whatever the width. */
+  readonly wide: boolean;
+}
+
+const textWidth = (s: string): number => [...s].length;
+
+/** Breaks text at spaces into lines of at most `width` characters (a longer word stays whole); later lines get `indent`. */
+function wrap(text: string, width: number, indent: string): string[] {
+  const lines: string[] = [];
+  let current = '';
+  for (const word of text.split(/(?<=\S) (?=\S)/)) {
+    const next = current === '' ? word : `${current} ${word}`;
+    if (textWidth(next) <= width || current.trim() === '') current = next;
+    else {
+      lines.push(current);
+      current = indent + word;
+    }
+  }
+  lines.push(current);
+  return lines;
+}
+
+/** Shortens a cell to `max` characters with an ellipsis at the end, or at the start (`fromStart`, for paths). */
+function clip(s: string, max: number, fromStart = false): string {
+  const chars = [...s];
+  if (chars.length <= max) return s;
+  const keep = Math.max(1, max - 1);
+  return fromStart ? `…${chars.slice(chars.length - keep).join('')}` : `${chars.slice(0, keep).join('')}…`;
+}
+
+/**
+ * Human table: file:line, id, status, T, β, P, P_th, ε, and the measurement results with their
+ * uncertainties; then each problem on its own line. Unless `wide`, columns are left out (β first, then
+ * P_th, the measurement results, ε) and long places and ids shortened until a line fits `width`.
+ */
+export function formatTable(
+  rows: readonly Row[],
+  o: TableOptions = { width: DEFAULT_TABLE_WIDTH, wide: false },
+): string {
   if (rows.length === 0) return 'No levels blocks found.\n';
-  const [head, cells] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows));
   // Note text (file names, ids, messages quoting the note) without control characters: no escape sequences.
-  const body = cells.map((r) => r.map(terminalText));
-  const width = (s: string): number => [...s].length;
+  const body = tableCells(rows, true).map((r) => r.map(terminalText));
+  // P, P_th, ε and the measurement results are not printed when no row has a value there (emission
+  // lines and radio transitions have no polarization): a column of dashes says nothing.
+  let keep = TABLE_HEAD.map((_, i) => i).filter((i) => i < 5 || body.some((r) => r[i] !== '—' && r[i] !== ''));
   // A loop, not Math.max(...cells): a report of a few hundred thousand blocks would overflow the stack.
-  const widths = head.map((h, i) => body.reduce((w, r) => Math.max(w, width(r[i]!)), width(h)));
-  const line = (cells: string[]): string =>
-    cells
-      .map((c, i) => c + ' '.repeat(widths[i] - width(c)))
+  const widthsOf = (cells: string[][], cols: number[]): number[] =>
+    cols.map((i) => cells.reduce((w, r) => Math.max(w, textWidth(r[i])), textWidth(TABLE_HEAD[i])));
+  const total = (cells: string[][], cols: number[]): number =>
+    widthsOf(cells, cols).reduce((a, b) => a + b, 0) + 2 * (cols.length - 1);
+  let cells = body;
+  const dropped: string[] = [];
+  let below = false;
+  // T's interval and kT, when moved under the row (the `interval` step).
+  let tailsOfT: string[] = cells.map(() => '');
+  if (!o.wide) {
+    for (const step of NARROWING) {
+      const excess = total(cells, keep) - o.width;
+      if (excess <= 0) break;
+      if (step === 'interval') {
+        tailsOfT = cells.map((r) => {
+          const at = r[3].indexOf(' (');
+          return at < 0 ? '' : r[3].slice(at + 1);
+        });
+        cells = cells.map((r) => r.map((c, i) => (i === 3 && c.includes(' (') ? c.slice(0, c.indexOf(' (')) : c)));
+      } else if (step === 'beta' || step === 'thermal') {
+        const col = step === 'beta' ? 4 : 6;
+        if (!keep.includes(col)) continue;
+        keep = keep.filter((k) => k !== col);
+        dropped.push(TABLE_HEAD[col]);
+      } else if (step === 'below') {
+        keep = keep.filter((k) => k !== 7 && k !== 8);
+        below = true;
+      } else {
+        // The place keeps its end (file name and line), the id its beginning.
+        const [wWhere, wId] = widthsOf(cells, [0, 1]);
+        const idMax = Math.max(10, wId - Math.ceil(excess / 2));
+        const whereMax = Math.max(16, wWhere - (excess - (wId - idMax)));
+        cells = cells.map((r) => r.map((c, i) => (i === 0 ? clip(c, whereMax, true) : i === 1 ? clip(c, idMax) : c)));
+      }
+    }
+  }
+  const widths = widthsOf(cells, keep);
+  const line = (row: string[]): string =>
+    keep
+      .map((i, k) => row[i] + ' '.repeat(widths[k] - textWidth(row[i])))
       .join('  ')
       .trimEnd();
-  const out = [line(head), line(widths.map((w) => '-'.repeat(w)))];
+  const out = [line(TABLE_HEAD), line(TABLE_HEAD.map((_, i) => '-'.repeat(widths[keep.indexOf(i)] ?? 0)))];
   rows.forEach(({ entry }, i) => {
-    out.push(line(body[i]));
-    for (const d of entry.diagnostics)
-      out.push(terminalText(`    ${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code}: ${d.message}`));
+    out.push(line(cells[i]));
+    const extra = [
+      tailsOfT[i] !== '' ? `T ${tailsOfT[i]}` : '',
+      ...(below ? [cells[i][7] !== '—' ? `ε = ${cells[i][7]}` : '', cells[i][8]] : []),
+    ].filter((x) => x !== '');
+    if (extra.length) out.push(`    ${extra.join(' · ')}`);
+    for (const d of entry.diagnostics) {
+      const text = terminalText(`    ${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
+      out.push(...(o.wide ? [text] : wrap(text, o.width, '        ')));
+    }
   });
+  if (dropped.length) out.push(`(${dropped.join(', ')} left out to fit ${o.width} columns; --wide shows every column)`);
   return out.join('\n') + '\n';
 }
 
@@ -71,7 +170,15 @@ const CSV_HEAD = [
   'polarization_uncertainty',
   'thermal_polarization',
   'enhancement',
+  'enhancement_uncertainty',
   'entropy',
+  'time_constant_s',
+  'time_constant_uncertainty_s',
+  'gain_coefficient_per_cm',
+  'gain_coefficient_uncertainty_per_cm',
+  'single_pass_gain',
+  'single_pass_gain_uncertainty',
+  'threshold_gain_per_cm',
   'errors',
   'warnings',
   'beta_low_95',
@@ -99,7 +206,15 @@ export function formatCsv(rows: readonly Row[]): string {
       e.polarization?.uncertainty ?? null,
       e.thermalPolarization,
       e.enhancement,
+      e.enhancementUncertainty,
       e.entropy,
+      e.timeConstant?.value ?? null,
+      e.timeConstant?.uncertainty ?? null,
+      e.gainCoefficient,
+      e.gainCoefficientUncertainty,
+      e.singlePassGain,
+      e.singlePassGainUncertainty,
+      e.thresholdGain,
       e.diagnostics.filter((d) => d.severity === 'error').length,
       e.diagnostics.filter((d) => d.severity === 'warning').length,
       e.beta?.interval?.[0] ?? null,
@@ -121,7 +236,7 @@ export function formatCsv(rows: readonly Row[]): string {
  */
 export function formatMarkdown(rows: readonly Row[]): string {
   if (rows.length === 0) return '_No levels blocks found._\n';
-  const [head, cells] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows));
+  const [head, cells] = withoutEmptyColumns(TABLE_HEAD, tableCells(rows, true));
   const out = [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`];
   cells.forEach((c, i) => {
     const e = rows[i]!.entry;
@@ -132,8 +247,6 @@ export function formatMarkdown(rows: readonly Row[]): string {
   });
   return out.join('\n') + '\n';
 }
-
-const TABLE_HEAD = ['where', 'id', 'status', 'T', 'β (K⁻¹)', 'P', 'P_th', 'ε', 'also'];
 
 /**
  * Leaves out the P, P_th, ε and "also" columns when no row has a value there
@@ -156,7 +269,7 @@ export function formatLinePoints(rows: readonly Row[]): string {
 }
 
 /** The cells of one row per block: where, id, status, T, β, P, P_th, ε, and the other results. */
-function tableCells(rows: readonly Row[]): string[][] {
+function tableCells(rows: readonly Row[], withUncertainty: boolean): string[][] {
   return rows.map(({ entry: e, block: b }) => {
     const r = b?.results ?? null;
     return [
@@ -172,8 +285,8 @@ function tableCells(rows: readonly Row[]): string[][] {
             { ...DEFAULT_DISPLAY, digits: 3 },
           )
         : '—',
-      r ? enhancementText(r.enhancement) : '—',
-      r ? (measurementShort(r) ?? '') : '',
+      r ? enhancementText(r.enhancement, DEFAULT_DISPLAY, r.enhancementUncertainty) : '—',
+      r ? (measurementShort(r, withUncertainty) ?? '') : '',
     ];
   });
 }

@@ -23,7 +23,16 @@ import {
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
 import { collectNotes, UsageError } from './files';
-import { formatCsv, formatJson, formatLinePoints, formatMarkdown, formatTable, where, type Row } from './formats';
+import {
+  DEFAULT_TABLE_WIDTH,
+  formatCsv,
+  formatJson,
+  formatLinePoints,
+  formatMarkdown,
+  formatTable,
+  where,
+  type Row,
+} from './formats';
 
 /** Where the CLI reads and writes; the tests pass their own. */
 export interface Io {
@@ -31,6 +40,8 @@ export interface Io {
   readonly err: (s: string) => void;
   /** The folder relative paths are read from (names are printed as given). */
   readonly cwd: string;
+  /** The terminal's width in columns, when the output is a terminal. */
+  readonly columns?: number;
   /** Standard input, read whole, for the path `-`. */
   readonly stdin?: () => Uint8Array;
 }
@@ -130,17 +141,20 @@ export function report(
   format: string,
   io: Io,
   statuses: readonly Status[] | null = null,
+  wide = false,
 ): number {
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
+  const width = io.columns !== undefined && io.columns >= 40 ? io.columns : DEFAULT_TABLE_WIDTH;
+  const table = (r: readonly Row[]): string => formatTable(r, { width, wide });
   const formatter =
     {
       json: formatJson,
       csv: formatCsv,
       'line-points': formatLinePoints,
       markdown: formatMarkdown,
-      table: formatTable,
-    }[format] ?? formatTable;
+      table,
+    }[format] ?? table;
   io.out(formatter(shown));
   return hasError(rows) ? 1 : 0;
 }
@@ -166,9 +180,10 @@ export function check(paths: readonly string[], io: Io): number {
 
 /** Parses `--status inverted,non-thermal`; throws a usage error for an unknown word. */
 function parseStatuses(value: string): Status[] {
+  // Status words are matched without regard to case: `Inverted` and `NON-THERMAL` are what people type.
   const words = value
     .split(',')
-    .map((w) => w.trim())
+    .map((w) => w.trim().toLowerCase())
     .filter((w) => w !== '');
   for (const w of words) {
     if (!(STATUSES as readonly string[]).includes(w))
@@ -210,8 +225,9 @@ export function main(argv: readonly string[], io: Io): number {
         'only blocks with these statuses, comma-separated (normal, saturated, inverted, non-thermal, invalid)',
       ).argParser(parseStatuses),
     )
-    .action((paths: string[], opts: { format: string; status?: Status[] }) => {
-      status = report(paths, opts.format, io, opts.status ?? null);
+    .option('-w, --wide', 'the table with every column, however wide (default: fit the terminal, or 100 columns)')
+    .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean }) => {
+      status = report(paths, opts.format, io, opts.status ?? null, opts.wide === true);
     });
   program
     .command('check')

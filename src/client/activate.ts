@@ -51,7 +51,7 @@ export async function activateWith(context: vscode.ExtensionContext, makeClient:
       registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }),
       registerCellRendererMessaging(),
     );
-    registerRunLog(context, log);
+    registerRunLog(context, log, { extensionUri: context.extensionUri, client: () => client, log });
     await client.start();
     log.info('Boltzmark language server started');
   } catch (err) {

@@ -1,7 +1,7 @@
 /**
  * Commands of the extension. "Show Curve View" opens the curve
  * view beside the note (from the code lens, the palette or the editor title
- * bar); "Copy results" puts the block's results table on the clipboard.
+ * bar); "Copy Block Results" puts the block's results table on the clipboard.
  */
 import * as vscode from 'vscode';
 import type { BaseLanguageClient as LanguageClient } from 'vscode-languageclient';
@@ -41,14 +41,17 @@ export function registerCommands(
       vscode.window.showInformationMessage('Place the cursor in a `levels` block first.'),
     );
   context.subscriptions.push(
-    vscode.commands.registerCommand('boltzmark.showCurve', (uri?: string | vscode.Uri, line?: number) => {
-      // From the editor title bar VS Code passes the note's Uri; the code lens passes (uri, line).
-      const editor = vscode.window.activeTextEditor;
-      const fromTitle = uri instanceof vscode.Uri && editor?.document.uri.toString() === uri.toString();
-      const t = fromTitle ? target() : target(typeof uri === 'string' ? uri : undefined, line);
-      if (!t) return noBlock();
-      CurveView.show({ extensionUri: context.extensionUri, client: getClient, log }, t);
-    }),
+    // One view for all three: the lens names what the block has (its S(E) curve, a series fit or a Boltzmann plot).
+    ...['boltzmark.showCurve', 'boltzmark.showSeriesFit', 'boltzmark.showBoltzmannPlot'].map((id) =>
+      vscode.commands.registerCommand(id, (uri?: string | vscode.Uri, line?: number) => {
+        // From the editor title bar VS Code passes the note's Uri; the code lens passes (uri, line).
+        const editor = vscode.window.activeTextEditor;
+        const fromTitle = uri instanceof vscode.Uri && editor?.document.uri.toString() === uri.toString();
+        const t = fromTitle ? target() : target(typeof uri === 'string' ? uri : undefined, line);
+        if (!t) return noBlock();
+        CurveView.show({ extensionUri: context.extensionUri, client: getClient, log }, t);
+      }),
+    ),
     vscode.commands.registerCommand('boltzmark.copyResults', async (uri?: string, line?: number) => {
       const md = await results(getClient, uri, line);
       if (md === null) return noBlock();

@@ -5,16 +5,16 @@
  * note); the note itself is never changed.
  */
 import * as vscode from 'vscode';
-import type { CurvePayload, EnergyAxisUnit } from '../core';
+import type { CurvePayload, DisplayOptions, EnergyAxisUnit, RunChartPayload, RunQuantity } from '../core';
 import { noteReader } from './loadNoteReader';
 import { fileStem, imageLink, pngBytes } from './exportNames';
 
 async function saveAs(
-  note: vscode.Uri,
+  note: vscode.Uri | null,
   name: string,
   filters: Record<string, string[]>,
 ): Promise<vscode.Uri | undefined> {
-  const defaultUri = vscode.Uri.joinPath(note, '..', name);
+  const defaultUri = note ? vscode.Uri.joinPath(note, '..', name) : undefined;
   return vscode.window.showSaveDialog({ defaultUri, filters, saveLabel: 'Save' });
 }
 
@@ -47,4 +47,27 @@ export async function copyImageLink(p: CurvePayload, dataUrl: string): Promise<s
   const link = imageLink(vscode.Uri.parse(p.uri), uri, p.id);
   await vscode.env.clipboard.writeText(link);
   return link;
+}
+
+/** Asks where to save the run comparison's CSV (the quantity shown, with uncertainties) and writes it. */
+export async function saveRunsCsv(
+  runs: RunChartPayload,
+  quantity: RunQuantity,
+  note: vscode.Uri | null,
+  o: DisplayOptions,
+): Promise<vscode.Uri | undefined> {
+  const uri = await saveAs(note, `${fileStem(runs.title)}-runs-${quantity}.csv`, { CSV: ['csv'] });
+  if (uri) await vscode.workspace.fs.writeFile(uri, Buffer.from(noteReader().runChartCsv(runs, quantity, o), 'utf8'));
+  return uri;
+}
+
+/** Asks where to save the run comparison's PNG and writes it. */
+export async function saveRunsPng(
+  runs: RunChartPayload,
+  dataUrl: string,
+  note: vscode.Uri | null,
+): Promise<vscode.Uri | undefined> {
+  const uri = await saveAs(note, `${fileStem(runs.title)}-runs.png`, { 'PNG image': ['png'] });
+  if (uri) await vscode.workspace.fs.writeFile(uri, pngBytes(dataUrl));
+  return uri;
 }

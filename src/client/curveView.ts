@@ -11,15 +11,21 @@ import type { BaseLanguageClient as LanguageClient } from 'vscode-languageclient
 import {
   isViewState,
   isViewToHost,
+  payloadTitle,
   pinsBesides,
   type CurvePayload,
+  type PinnedPlot,
   type PinnedRun,
+  type RunChartPayload,
   type ViewPayload,
   type ViewToHost,
 } from '../core/packageFree';
 import { CurveDataRequest } from '../shared/protocol';
+import type { RunEntry, RunLog } from '../core';
 import { background } from './background';
-import { copyImageLink, saveCsv, savePng } from './curveExport';
+import { copyImageLink, saveCsv, savePng, saveRunsCsv, saveRunsPng } from './curveExport';
+import { displayOptions } from './display';
+import { noteReader } from './loadNoteReader';
 import { newNonce, viewHtml } from './viewHtml';
 
 /** The panel's view type (also in package.json's `onWebviewPanel:` activation event). */
@@ -33,6 +39,14 @@ export interface CurveTarget {
   readonly uri: string;
   readonly line: number;
 }
+
+/**
+ * Which runs the comparison chart shows: the blocks of the note shown (the
+ * default), or a list the run log handed over with its filter.
+ */
+export type RunsSource =
+  | { readonly kind: 'note' }
+  | { readonly kind: 'list'; readonly title: string; readonly entries: () => readonly RunEntry[] };
 
 /** What the view needs from the extension. */
 export interface CurveViewHost {
@@ -61,6 +75,11 @@ export class CurveView implements vscode.Disposable {
   private target: CurveTarget | null = null;
   private current: ViewPayload | null = null;
   private pins: PinnedRun[] = [];
+  private plotPins: PinnedPlot[] = [];
+  private runs: RunChartPayload | null = null;
+  private runsSource: RunsSource = { kind: 'note' };
+  /** The note reader's run log, kept so that its analyzer's block cache serves every refresh. */
+  private noteRuns: RunLog | null = null;
   private seq = 0;
   private request = 0;
   private pinCount = 0;
@@ -83,7 +102,18 @@ export class CurveView implements vscode.Disposable {
       );
       view = new CurveView(panel, host);
     }
+    // Asked for a block, the comparison shows that block's note again.
+    view.runsSource = { kind: 'note' };
     view.follow(target);
+    return view;
+  }
+
+  /** Opens the view (or reveals it) comparing the given runs, e.g. the run log's filtered list. */
+  static compare(host: CurveViewHost, source: RunsSource, follow: CurveTarget | null): CurveView {
+    const view = CurveView.show(host, follow ?? { uri: '', line: 0 });
+    view.runsSource = source;
+    view.updateRuns();
+    view.send();
     return view;
   }
 
@@ -94,7 +124,8 @@ export class CurveView implements vscode.Disposable {
     if (isViewState(state) && state.last) {
       const shown = state.last.current;
       view.pins = [...state.last.pinned];
-      view.pinCount = view.pins.length;
+      view.plotPins = [...(state.last.pinnedPlots ?? [])];
+      view.pinCount = view.pins.length + view.plotPins.length;
       if (shown) view.follow({ uri: shown.uri, line: shown.line });
     }
     return view;
@@ -121,8 +152,41 @@ export class CurveView implements vscode.Disposable {
 
   /** Shows the block at `target` (if there is one; otherwise keeps the block shown). */
   follow(target: CurveTarget): void {
+    if (target.uri === '') return;
     this.target = target;
     background(this.host.log, 'curve view: refresh', this.refresh(3));
+  }
+
+  /** Recomputes the run comparison (its source changed) and sends it when it changed. */
+  refreshRuns(): void {
+    if (!this.disposed && this.updateRuns()) this.send();
+  }
+
+  /**
+   * Recomputes the run comparison from its source: the shown note's blocks,
+   * read from the open document with the whole core (the note reader), or the
+   * list the run log handed over. Returns true when it changed.
+   */
+  private updateRuns(): boolean {
+    let next: RunChartPayload | null = null;
+    const src = this.runsSource;
+    if (src.kind === 'list') {
+      next = noteReader().runChartData(src.title, src.entries(), displayOptions());
+    } else if (this.target) {
+      const uri = this.target.uri;
+      const doc = vscode.workspace.textDocuments.find((d) => d.uri.toString() === uri);
+      if (doc) {
+        const reader = noteReader();
+        this.noteRuns ??= new reader.RunLog();
+        const name = vscode.workspace.asRelativePath(doc.uri);
+        this.noteRuns.update(uri, name, doc.getText());
+        const entries = this.noteRuns.entries().filter((e) => e.uri === uri);
+        next = reader.runChartData(name, entries, displayOptions(doc.uri));
+      }
+    }
+    if (JSON.stringify(next) === JSON.stringify(this.runs)) return false;
+    this.runs = next;
+    return true;
   }
 
   private html(): string {
@@ -152,9 +216,14 @@ export class CurveView implements vscode.Disposable {
     if (this.disposed || id !== this.request) return; // a newer request is on its way
     const doc = vscode.workspace.textDocuments.find((d) => d.uri.toString() === target.uri);
     if (payload && doc && payload.version < doc.version && tries > 0) return this.refresh(tries - 1);
-    if (!payload || same(payload, this.current)) return;
+    const runsChanged = this.updateRuns();
+    if (!payload || same(payload, this.current)) {
+      if (runsChanged) this.send();
+      return;
+    }
     this.current = payload;
-    if (payload.kind === 'curve') this.panel.title = `Curve: ${payload.id}`;
+    // The title follows the block shown, whatever it draws.
+    this.panel.title = payloadTitle(payload);
     this.send();
   }
 
@@ -163,7 +232,14 @@ export class CurveView implements vscode.Disposable {
     background(
       this.host.log,
       'curve view: render',
-      this.panel.webview.postMessage({ type: 'render', seq: ++this.seq, current: this.current, pinned: this.pins }),
+      this.panel.webview.postMessage({
+        type: 'render',
+        seq: ++this.seq,
+        current: this.current,
+        pinned: this.pins,
+        pinnedPlots: this.plotPins,
+        runs: this.runs,
+      }),
     );
   }
 
@@ -187,9 +263,11 @@ export class CurveView implements vscode.Disposable {
         return this.send();
       case 'pin':
         if (shown) this.pin(shown);
+        else if (this.current?.kind === 'problem' && this.current.plot) this.pinPlot(this.current);
         return;
       case 'unpin':
         this.pins = this.pins.filter((p) => p.key !== m.key);
+        this.plotPins = this.plotPins.filter((p) => p.key !== m.key);
         return this.send();
       case 'exportPng':
         if (shown) await savePng(shown, m.dataUrl);
@@ -206,7 +284,45 @@ export class CurveView implements vscode.Disposable {
         if (shown && (await copyImageLink(shown, m.dataUrl)))
           void vscode.window.setStatusBarMessage('Boltzmark: image link copied', 3000);
         return;
+      case 'openRun': {
+        // Only a run the chart shows can be opened: the page names it, the host checks it.
+        const run = this.runs?.points.find((p) => p.uri === m.uri && p.line === m.line);
+        if (!run) return;
+        const editor = await vscode.window.showTextDocument(vscode.Uri.parse(run.uri), {
+          viewColumn: vscode.ViewColumn.One,
+          selection: new vscode.Range(run.line, 0, run.line, 0),
+        });
+        editor.revealRange(
+          new vscode.Range(run.line, 0, run.line, 0),
+          vscode.TextEditorRevealType.InCenterIfOutsideViewport,
+        );
+        return;
+      }
+      case 'exportRunsCsv':
+        if (this.runs) await saveRunsCsv(this.runs, m.quantity, this.runsNote(), displayOptions());
+        return;
+      case 'exportRunsPng':
+        if (this.runs) await saveRunsPng(this.runs, m.dataUrl, this.runsNote());
+        return;
     }
+  }
+
+  /** Where the run comparison's exports are saved by default: beside the shown note, or the workspace's first folder. */
+  private runsNote(): vscode.Uri | null {
+    if (this.target) return vscode.Uri.parse(this.target.uri);
+    const folder = vscode.workspace.workspaceFolders?.[0];
+    return folder ? vscode.Uri.joinPath(folder.uri, 'runs.md') : null;
+  }
+
+  /** Pins the measurement plot of a block without a curve (a series fit, a Boltzmann plot), to compare runs. */
+  private pinPlot(p: Extract<ViewPayload, { kind: 'problem' }>): void {
+    if (!p.plot) return;
+    const rest = this.plotPins.filter((r) => !(r.uri === p.uri && r.line === p.line));
+    const id = p.id ?? `block at line ${p.line + 1}`;
+    this.plotPins = [...rest, { key: `pin-${++this.pinCount}`, id, uri: p.uri, line: p.line, plot: p.plot }].slice(
+      -MAX_PINS,
+    );
+    this.send();
   }
 
   /** Pins a snapshot of the shown run (replacing an older pin of the same block). */

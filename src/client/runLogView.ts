@@ -11,6 +11,7 @@ import { measuredTemperatureText, STATUSES, temperatureWithInterval, type Status
 import { displayOptions } from './display';
 import { background } from './background';
 import { noteReader } from './loadNoteReader';
+import { CurveView, type CurveViewHost } from './curveView';
 import { Debouncer } from '../shared/debouncer';
 
 const MAX_FILES = 2000;
@@ -39,6 +40,8 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
 
   refresh(): void {
     this.changed.fire();
+    // A run comparison of this list follows it.
+    CurveView.active?.refreshRuns();
   }
 
   getChildren(node?: Node): Node[] {
@@ -92,7 +95,11 @@ const STATUS_ICONS: Record<Status, string> = {
 };
 
 /** Registers the view, its commands and its watchers. */
-export function registerRunLog(context: vscode.ExtensionContext, log: vscode.LogOutputChannel): void {
+export function registerRunLog(
+  context: vscode.ExtensionContext,
+  log: vscode.LogOutputChannel,
+  curveHost: CurveViewHost,
+): void {
   const tree = new RunLogTree();
   const view = vscode.window.createTreeView('boltzmark.runLog', { treeDataProvider: tree, showCollapseAll: true });
   const rereads = new Debouncer(DEBOUNCE_MS);
@@ -163,6 +170,15 @@ export function registerRunLog(context: vscode.ExtensionContext, log: vscode.Log
       tree.statuses = picks.length === STATUSES.length || picks.length === 0 ? null : picks.map((p) => p.label);
       view.description = tree.statuses ? tree.statuses.join(', ') : undefined;
       tree.refresh();
+    }),
+    vscode.commands.registerCommand('boltzmark.runLog.compare', async () => {
+      await start();
+      const title = tree.statuses ? `run log (${tree.statuses.join(', ')})` : 'run log';
+      // In date order when the runs have dates, as a lab reads its log; the list's own order otherwise.
+      const key = (e: RunEntry): string => e.date ?? '\uffff';
+      const entries = (): RunEntry[] =>
+        [...tree.log.entries(tree.statuses)].sort((a, b) => (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0));
+      CurveView.compare(curveHost, { kind: 'list', title, entries }, null);
     }),
     vscode.commands.registerCommand(OPEN_CELL_RUN, openCellRun),
     vscode.commands.registerCommand('boltzmark.runLog.groupBy', () => {

@@ -82,6 +82,24 @@ export function viewHtml(o: ViewHtmlOptions): string {
     <h2 id="measurement-title">Measurement</h2>
     <div class="chart small"><canvas id="measurement-chart" role="img" aria-label="The measurement and its fit"></canvas></div>
   </section>
+  <section id="runs" hidden>
+    <div class="runs-head">
+      <h2 id="runs-title">Runs compared</h2>
+      <label for="runs-quantity">Result</label>
+      <vscode-single-select id="runs-quantity" aria-label="Result compared across the runs">
+        <vscode-option value="polarization">polarization P</vscode-option>
+        <vscode-option value="beta">inverse temperature β</vscode-option>
+        <vscode-option value="temperature">temperature T</vscode-option>
+        <vscode-option value="enhancement">enhancement ε</vscode-option>
+        <vscode-option value="timeConstant">time constant T₁ or τ</vscode-option>
+        <vscode-option value="gain">gain coefficient g₀</vscode-option>
+      </vscode-single-select>
+      <vscode-button id="runs-png" secondary title="Save the run comparison as a PNG image">Save PNG</vscode-button>
+      <vscode-button id="runs-csv" secondary title="Save the compared values and uncertainties as CSV">Save CSV</vscode-button>
+    </div>
+    <p id="runs-empty" class="note" hidden></p>
+    <div class="chart"><canvas id="runs-chart" role="img" aria-label="A result of each run against date or order"></canvas></div>
+  </section>
   <aside>
     <dl id="facts"></dl>
     <ul id="notes"></ul>

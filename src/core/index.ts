@@ -38,6 +38,7 @@ export { decodeUtf8, type DecodedText, type InvalidUtf8 } from './text/utf8';
 export {
   DEFAULT_DISPLAY,
   STATUS_WORDS,
+  statusWords,
   betaText,
   enhancementText,
   fractionText,
@@ -106,6 +107,7 @@ export type {
   ThermalMarker,
   ViewPayload,
 } from './view/payload';
+export { payloadTitle } from './view/payload';
 export { measurementPlot } from './view/measurementPlot';
 export { displayUnitFor, KELVIN_UNIT } from './view/displayUnit';
 export { measuredPoint } from './view/measuredPoint';
@@ -124,6 +126,7 @@ export {
   type ExportPngMessage,
   type HostToView,
   type PinMessage,
+  type PinnedPlot,
   type PinnedRun,
   type ReadyMessage,
   type RenderMessage,
@@ -131,7 +134,22 @@ export {
   type ViewState,
   type ViewToHost,
 } from './view/messages';
-export { curveCsv } from './view/csv';
+export { curveCsv, runChartCsv } from './view/csv';
+export {
+  dayNumber,
+  dayText,
+  isRunChartPayload,
+  RUN_QUANTITIES,
+  runChartData,
+  runChartRows,
+  runCsvColumn,
+  type RunAxis,
+  type RunChartPayload,
+  type RunPoint,
+  type RunQuantity,
+  type RunSource,
+  type RunValue,
+} from './view/runChart';
 export { measurementRows, measurementShort, type Row } from './present/measurementSummary';
 export type { SeriesFit } from './physics/relaxation';
 export type { GainResult, SignalResult } from './analysis/results';

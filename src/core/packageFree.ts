@@ -30,8 +30,12 @@ export {
   type EnergyAxisUnit,
   type ExportCsvMessage,
   type ExportPngMessage,
+  type ExportRunsCsvMessage,
+  type ExportRunsPngMessage,
+  type OpenRunMessage,
   type HostToView,
   type PinMessage,
+  type PinnedPlot,
   type PinnedRun,
   type ReadyMessage,
   type RenderMessage,
@@ -40,6 +44,7 @@ export {
   type ViewToHost,
 } from './view/messages';
 export { isCurvePayload, isProblemPayload, isViewPayload } from './view/payloadCheck';
+export { payloadTitle } from './view/payload';
 export type {
   CurveColumns,
   CurvePayload,
@@ -54,3 +59,14 @@ export type {
   ThermalMarker,
   ViewPayload,
 } from './view/payload';
+export {
+  dayNumber,
+  dayText,
+  isRunChartPayload,
+  RUN_QUANTITIES,
+  type RunAxis,
+  type RunChartPayload,
+  type RunPoint,
+  type RunQuantity,
+  type RunValue,
+} from './view/runChart';

@@ -19,6 +19,8 @@ export interface Replacement {
   readonly title: string;
   readonly span: Span;
   readonly newText: string;
+  /** Further edits applied together with this one (e.g. the same unit added to every number of a list). */
+  readonly more?: readonly { readonly span: Span; readonly newText: string }[];
 }
 
 /**

@@ -19,7 +19,7 @@ import { version } from '../../package.json';
 import { background, clientCaps, refreshAfter, type ClientCaps } from './clientCaps';
 import { noteDiagnostics } from './diagnostics';
 import { Debouncer } from '../shared/debouncer';
-import { codeActions } from './features/codeActions';
+import { CODE_ACTION_FIX_ALL, codeActions } from './features/codeActions';
 import { codeLenses, resultsMarkdown } from './features/codeLens';
 import { completion } from './features/completion';
 import { curvePayload } from './features/curve';
@@ -105,7 +105,7 @@ export function startServer(connection: Connection): void {
         textDocumentSync: TextDocumentSyncKind.Incremental,
         hoverProvider: true,
         inlayHintProvider: true,
-        codeActionProvider: { codeActionKinds: [CodeActionKind.QuickFix] },
+        codeActionProvider: { codeActionKinds: [CodeActionKind.QuickFix, CODE_ACTION_FIX_ALL] },
         completionProvider: { triggerCharacters: [' ', ':', '{', ','] },
         documentSymbolProvider: true,
         foldingRangeProvider: true,

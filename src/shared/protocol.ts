@@ -13,7 +13,7 @@ export interface BlockParams {
   readonly line: number;
 }
 
-/** The block's results as a Markdown table (for "Copy results" and the preview fallback); null when no block is there. */
+/** The block's results as a Markdown table (for "Copy Block Results" and the preview fallback); null when no block is there. */
 export const ResultsMarkdownRequest = new RequestType<BlockParams, string | null, void>('boltzmark/resultsMarkdown');
 
 /** How the last analysis of a note went: blocks read afresh and reused from the cache. */

@@ -50,7 +50,7 @@ export const SETTING_DEFS: readonly SettingDef[] = [
     default: 'percent',
     enum: ['percent', 'fraction'],
     enumDescriptions: [
-      'Polarization as a percentage (below 0.1 % as a fraction with a power of ten).',
+      'Polarization as a percentage everywhere (below 0.01 % with a power of ten, still in %).',
       'Polarization as a fraction between −1 and 1.',
     ],
     description: 'How polarizations are shown.',

@@ -5,10 +5,10 @@ import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { main } from '../../src/cli/main';
 
-function run(args: string[], cwd = process.cwd()): { code: number; out: string; err: string } {
+function run(args: string[], cwd = process.cwd(), columns?: number): { code: number; out: string; err: string } {
   let out = '';
   let err = '';
-  const code = main(args, { out: (s) => (out += s), err: (s) => (err += s), cwd });
+  const code = main(args, { out: (s) => (out += s), err: (s) => (err += s), cwd, ...(columns ? { columns } : {}) });
   return { code, out, err };
 }
 
@@ -61,7 +61,7 @@ describe('boltzmark report', () => {
   });
 
   it('prints a table with the block locations and the problems of the broken block', () => {
-    const { out } = run(['report', 'demo/polarizer-log.md']);
+    const { out } = run(['report', 'demo/polarizer-log.md', '--wide']);
     assert.match(out, /^where\s+id\s+status\s+T\s+β/m);
     assert.match(out, /demo\/polarizer-log\.md:26\s+cell-B run 1\s+normal\s+5\.61 ± 0\.19 mK/);
     assert.match(out, /demo\/polarizer-log\.md:86:13: error unit-case/);
@@ -112,13 +112,91 @@ describe('boltzmark report', () => {
   });
 });
 
+/** Widest line of a text, in characters (code points), as a terminal counts them for these scripts. */
+const widest = (text: string): number => Math.max(...text.split('\n').map((l) => [...l].length));
+
+describe('boltzmark report: a table that fits the terminal', () => {
+  it('keeps every line of the demo report within 100 columns by default and says what it left out', () => {
+    // 100 columns: the width this project takes for an ordinary terminal (common practice, no source).
+    const { out } = run(['report', 'demo']);
+    assert.ok(widest(out) <= 100, `widest line ${widest(out)}`);
+    assert.match(out, /left out to fit 100 columns; --wide shows every column/);
+    // ε and the measurement results move under their row rather than vanish: T₁ with its uncertainty.
+    assert.match(out, /^ {4}T₁ = \d+(\.\d+)? ± \d+(\.\d+)? s$/m);
+    assert.match(out, /^ {4}ε = 241\.1 ± 7\.7$/m);
+    // A skewed T keeps its value in the column; its k = 2 interval moves under the row rather than vanish.
+    assert.match(out, /^ {4}T \(8100 … 10400 K, 95 %\)/m);
+  });
+
+  it('follows the terminal width it is given, and --wide prints every column at any width', () => {
+    const narrow = run(['report', 'demo'], process.cwd(), 90).out;
+    assert.ok(widest(narrow) <= 90, `widest line ${widest(narrow)}`);
+    const broad = run(['report', 'demo'], process.cwd(), 250).out;
+    assert.match(broad, /^where\s+id\s+status\s+T\s+β \(K⁻¹\)\s+P\s+P_th\s+ε\s+also$/m);
+    const wide = run(['report', 'demo', '--wide'], process.cwd(), 80).out;
+    assert.match(wide, /^where\s+id\s+status\s+T\s+β \(K⁻¹\)\s+P\s+P_th\s+ε\s+also$/m);
+    assert.ok(widest(wide) > 100);
+  });
+
+  it('writes P and P_th in one unit per column, small values with a power of ten in %', () => {
+    const { out } = run(['report', 'demo/polarizer-log.md', '--wide']);
+    const rows = out.split('\n').filter((l) => /^demo\/polarizer-log\.md:\d+ /.test(l));
+    const cells = rows.map((l) => l.split(/ {2,}/));
+    const head = out.split('\n')[0].split(/ {2,}/);
+    for (const column of ['P', 'P_th']) {
+      const i = head.indexOf(column);
+      for (const c of cells.map((r) => r[i]).filter((c) => c !== undefined && c !== '—'))
+        assert.match(c, / %$/, `${column} cell ${c}`);
+    }
+    // 13C at 7.05 T and 298 K (the demo's reference run): P_th ≈ 8.1 × 10⁻⁶, i.e. 8.1 × 10⁻⁴ % — the
+    // thermal value from the Brillouin (tanh) form, hand-computed from γ/2π = 10.7084 MHz/T (CODATA-based
+    // value in src/core/quantities/isotopes.ts) and the exact SI h and k.
+    assert.match(out, /ref-13C Monday.*\(8\.10 ± 0\.30\) × 10⁻⁴ %/);
+  });
+
+  it('gives ε, T₁/τ, g₀, the single-pass gain and the threshold with their uncertainties in JSON and CSV', () => {
+    const entries = JSON.parse(run(['report', 'demo', '--format', 'json']).out) as Record<string, unknown>[];
+    const run7 = entries.find((e) => e.id === 'cell-B run 1')!;
+    // u(ε) = u(P)/P_th by first-order propagation (JCGM 100:2008 §5.1.2, lattice exact):
+    // 0.010 / 0.0012940 = 7.73 (P = 0.312 ± 0.010 as the demo gives it; P_th from the analysis test's source).
+    assert.ok(Math.abs((run7.enhancementUncertainty as number) - 0.01 / (run7.thermalPolarization as number)) < 1e-9);
+    assert.equal(typeof run7.enhancement, 'number');
+    const csv = run(['report', 'demo', '--format', 'csv']).out.trim().split('\r\n');
+    const head = csv[0].split(',');
+    for (const column of [
+      'enhancement_uncertainty',
+      'time_constant_s',
+      'time_constant_uncertainty_s',
+      'gain_coefficient_per_cm',
+      'gain_coefficient_uncertainty_per_cm',
+      'single_pass_gain',
+      'single_pass_gain_uncertainty',
+      'threshold_gain_per_cm',
+    ])
+      assert.ok(head.includes(column), column);
+    const decay = csv.find((l) => l.includes('run 4 decay'))!.split(',');
+    assert.ok(Number(decay[head.indexOf('time_constant_s')]) > 0);
+    assert.ok(Number(decay[head.indexOf('time_constant_uncertainty_s')]) > 0);
+    const gain = csv.find((l) => l.includes('rod 2 gain'))!.split(',');
+    assert.ok(Number(gain[head.indexOf('gain_coefficient_per_cm')]) > 0);
+    assert.ok(Number(gain[head.indexOf('threshold_gain_per_cm')]) > 0);
+  });
+
+  it('accepts status words in any case', () => {
+    const r = run(['report', 'demo', '--status', 'Inverted,NON-THERMAL', '--format', 'json']);
+    const statuses = new Set((JSON.parse(r.out) as { status: string }[]).map((e) => e.status));
+    assert.deepEqual([...statuses].sort(), ['inverted', 'non-thermal']);
+  });
+});
+
 describe('README', () => {
   it('shows the report row that the CLI really prints for its example block', () => {
     const readme = readFileSync('README.md', 'utf8');
     const body = /```levels\n([\s\S]*?)```/.exec(readme)![1];
     const dir = mkdtempSync(join(tmpdir(), 'bm-'));
     writeFileSync(join(dir, 'run7.md'), `# Run 7\n\n\`\`\`levels\n${body}\`\`\`\n`);
-    const { out } = run(['report', join(dir, 'run7.md')]);
+    // --wide: the temporary folder's long path would otherwise leave β out to fit 100 columns.
+    const { out } = run(['report', join(dir, 'run7.md'), '--wide']);
     const printed = out.split('\n')[2].replace(/^\S+/, '').trim().replace(/\s+/g, ' ');
     const shown = /^run7\.md:3\s+(.*)$/m.exec(readme)![1].trim().replace(/\s+/g, ' ');
     assert.equal(shown, printed);

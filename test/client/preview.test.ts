@@ -36,7 +36,8 @@ describe('Markdown preview of levels blocks', () => {
     assert.match(html, /<strong>cell-B run 1<\/strong>/);
     assert.match(html, /<th scope="row">T<\/th><td>5\.61 ± 0\.19 mK<\/td>/);
     assert.match(html, /<th scope="row">β<\/th><td>178\.2 ± 6\.1 K⁻¹<\/td>/);
-    assert.match(html, /<th scope="row">ε<\/th><td>241<\/td>/);
+    // u(ε) = u(P)/P_th = 0.010/0.001294 = 7.7 (JCGM 100:2008 §5.1.2).
+    assert.match(html, /<th scope="row">ε<\/th><td>241.1 ± 7.7<\/td>/);
     assert.match(html, /boltzmark-status-inverted/);
     // The broken block shows its first error instead of numbers.
     assert.match(html, /<p class="boltzmark-error"><code>[a-z-]+<\/code>/);

@@ -190,6 +190,21 @@ describe('time series', () => {
   });
 });
 
+describe('uncertainty of the enhancement', () => {
+  it('carries u(P) and u(lattice) into ε', () => {
+    // 13C at 9.4 T and 298 K: hν/kT ≈ 1.6e-5, deep in the high-temperature limit where P_th = tanh(hν/2kT)
+    // ∝ 1/T (A. Abragam, The Principles of Nuclear Magnetism, 1961, ch. I — from memory) to 1e-10, so
+    // dP_th/dT = −P_th/T and, by JCGM 100:2008 §5.1.2, u(ε)² = (u(P)/P_th)² + (ε u(T)/T)².
+    const only = block('system: 13C\nfield: 9.4 T\nlattice: 298 ± 3 K\npolarization: 0.1').report.results!;
+    close(only.enhancementUncertainty, only.enhancement! * (3 / 298), 1e-6, 'u(ε) from the lattice');
+    const both = block('system: 13C\nfield: 9.4 T\nlattice: 298 ± 3 K\npolarization: 0.1 ± 0.005').report.results!;
+    const expected = Math.hypot(0.005 / both.thermalPolarization!, both.enhancement! * (3 / 298));
+    close(both.enhancementUncertainty, expected, 1e-6, 'u(ε) from both');
+    const none = block('system: 13C\nfield: 9.4 T\nlattice: 298 K\npolarization: 0.1').report.results!;
+    assert.equal(none.enhancementUncertainty, null);
+  });
+});
+
 describe('gain of an optical transition', () => {
   it('gives g₀, single-pass gain and the threshold for Nd:YAG-like numbers', () => {
     // σ = 2.8e-19 cm² (Nd:YAG 1064 nm effective cross-section, W. Koechner, Solid-State Laser Engineering,
@@ -211,6 +226,18 @@ describe('gain of an optical transition', () => {
     ).report;
     close(r.results!.gain!.coefficient, 2.8e-19 * (8e16 - (4 / 12) * 2e16), 1e-12, 'g₀');
     assert.equal(r.results!.gain!.aboveThreshold, false);
+  });
+
+  it('propagates the densities’ uncertainties into g₀ and the single-pass gain', () => {
+    // Linear in N, so first-order propagation (JCGM 100:2008 §5.1.2) is exact:
+    // u(g₀) = σ √(u(N_u)² + (g_u/g_l)² u(N_l)²); u(G) = G L u(g₀) since G = exp(g₀ L).
+    const r = block(
+      'gap: 1064 nm\ng: [12, 4]\npopulations: [2.0e16 ± 0.1e16 cm-3, 8.0e16 ± 0.2e16 cm-3]\ncross-section: 2.8e-19 cm2\nlength: 10 cm',
+    ).report;
+    const g = r.results!.gain!;
+    const u = 2.8e-19 * Math.hypot(0.2e16, (4 / 12) * 0.1e16);
+    close(g.uCoefficient, u, 1e-9, 'u(g₀)');
+    close(g.uSinglePass, g.singlePass! * 10 * u, 1e-9, 'u(G)');
   });
 
   it('needs densities, not relative populations', () => {

@@ -47,7 +47,7 @@ async function images(kind: string, theme: string): Promise<void> {
 
     // Inlay hints: the three-level block of the pumped cell, with its pair temperatures.
     await goToLine(page, lineOf(demo('pumped-cell.md'), 'id: reference lamp L-1') + 4);
-    await line(page, 'T_pair').waitFor({ timeout: 90000 });
+    await line(page, '· T(').waitFor({ timeout: 90000 });
     await save(page, `vscode-inlay-hints-${kind}`);
 
     // Hover on a block of the polarizer log.

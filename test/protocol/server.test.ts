@@ -171,7 +171,7 @@ describe('language server over stdio', function () {
     ]);
   });
 
-  it('returns the results table of a block for "Copy results"', async () => {
+  it('returns the results table of a block for "Copy Block Results"', async () => {
     const md = await s.conn.sendRequest(ResultsMarkdownRequest, { uri: URI, line: 4 });
     assert.ok(md && /5\.61 ± 0\.19 mK/.test(md), String(md));
     assert.equal(await s.conn.sendRequest(ResultsMarkdownRequest, { uri: URI, line: 0 }), null);

@@ -1,9 +1,11 @@
 import { strict as assert } from 'node:assert';
+import { mkdirSync } from 'node:fs';
 import { openView, usePageServer, type ViewPage } from './harness';
 import { payloadOf, render } from './payloads';
 import { geometry, near, pixelsAround, toPixel, type ChartGeometry } from './pixels';
 
 /** The page's DOM as these tests touch it (the test files compile without the DOM library). */
+declare function getComputedStyle(e: never): { borderLeftColor: string };
 declare const document: {
   getElementById(
     id: string,
@@ -85,7 +87,60 @@ describe('curve view measurement plot (headless Chromium)', function () {
       before,
     );
     assert.equal((await geometryOf()).kind, 'series');
+    mkdirSync('test-output/webview', { recursive: true });
+    await view.page.locator('#measurement').screenshot({ path: 'test-output/webview/measurement-series-light.png' });
+    // Above a drawn fit the chip says what is drawn, and the explanation is a note, not an error.
+    assert.equal(await view.page.evaluate(() => document.getElementById('block-status')!.textContent), 'series fit');
+    const problem = await view.page.evaluate(() => {
+      const e = document.getElementById('problem') as unknown as {
+        dataset: Record<string, string>;
+        getAttribute(a: string): string;
+      };
+      return {
+        kind: e.dataset.kind,
+        role: e.getAttribute('role'),
+        border: getComputedStyle(e as never).borderLeftColor,
+      };
+    });
+    assert.deepEqual([problem.kind, problem.role], ['note', 'status']);
+    const error = rgb(LIGHT.vars['--vscode-inputValidation-errorBorder'] ?? LIGHT.vars['--vscode-errorForeground']!);
+    assert.notEqual(problem.border, `rgb(${error.join(', ')})`, 'not the error colour');
     await view.post(render(payloadOf('gap: 10 K\nratio: 0.5', 'plain')));
     await view.page.waitForFunction(() => document.getElementById('measurement')!.hidden === true);
+  });
+
+  it('pins a series so that another run’s fit is drawn over it, in the pin colour, and lists it', async () => {
+    const shown = payloadOf(SERIES, 'decay');
+    const other = payloadOf(
+      'id: run 3 decay\nseries:\n  model: decay\n  time: [0 s, 6 s, 12 s, 18 s, 24 s, 30 s]\n  signal: [0.8, 0.66, 0.55, 0.46, 0.38, 0.32]',
+      'decay-3',
+    );
+    const pinnedPlots = [{ key: 'pin-1', id: 'run 3 decay', uri: other.uri, line: other.line, plot: other.plot! }];
+    const before = await drawnCount();
+    await view.post({ ...render(shown), pinnedPlots });
+    await view.page.waitForFunction(
+      (n) => Number(document.getElementById('measurement')!.dataset.drawn ?? 0) > n,
+      before,
+    );
+    assert.equal(
+      await view.page.evaluate(() => document.getElementById('measurement-chart')!.dataset.pins),
+      'run 3 decay',
+    );
+    const g = await geometryOf();
+    const orange = rgb(LIGHT.vars['--vscode-charts-orange']!);
+    const at = other.plot!.points.map((q) => toPixel(g, q.x, q.y));
+    const around = await pixelsAround(view.page, 'measurement-chart', at, 2);
+    assert.ok(
+      around.filter((px) => px.some((q) => near(q, orange, 30))).length >= 4,
+      'the pinned run’s points in the first pin colour',
+    );
+    const listed = await view.page.evaluate(() => document.getElementById('pin-list')!.textContent ?? '');
+    assert.match(listed, /run 3 decay — series fit/);
+    const pinDisabled = await view.page.evaluate(() =>
+      (document.getElementById('pin-button') as unknown as { hasAttribute(a: string): boolean }).hasAttribute(
+        'disabled',
+      ),
+    );
+    assert.equal(pinDisabled, false, 'a series can be pinned');
   });
 });

@@ -63,6 +63,7 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   const trade = tradeResults(input, { beta, temperature, saturated: status === 'saturated' }, plot, problems);
   const all = finding.problems.length === 0 ? problems : [...problems, ...finding.problems];
   const budget = lines.filter(contributes);
+  const uEnhancement = enhancement === null ? null : combined(lines, 'enhancement');
   return {
     trade,
     status,
@@ -77,7 +78,14 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     thermalPolarization,
     uThermalPolarization: thermalPolarization === null ? null : combined(lines, 'thermalPolarization'),
     enhancement,
-    uEnhancement: enhancement === null ? null : combined(lines, 'enhancement'),
+    uEnhancement,
+    // One u(ε) everywhere: the budget's (every stated input, shared paths once); u(P) and u(lattice) in
+    // quadrature only where the budget has none.
+    enhancementUncertainty:
+      uEnhancement ??
+      (enhancement !== null && polarization && thermalPolarization
+        ? enhancementUncertainty(input, polarization.value, polarization.uncertainty, thermalPolarization)
+        : null),
     intervals: resultIntervals(finding.limit ? null : beta, polarization),
     budget: budget.length === 0 ? NONE : budget,
     birge: birgeScaled(finding, lines),
@@ -274,4 +282,28 @@ function temperatureOf(beta: Measured | null, limit: BetaFinding['limit']): Meas
   if (!Number.isFinite(value)) return null;
   const u = beta.uncertainty === null ? null : beta.uncertainty / (beta.value * beta.value);
   return { value, uncertainty: u !== null && Number.isFinite(u) ? u : null };
+}
+
+/**
+ * Standard uncertainty of ε = P / P_th(T_lattice) by first-order propagation
+ * (JCGM 100:2008 §5.1.2, uncorrelated inputs): u(ε)² = (u(P)/P_th)² +
+ * (P/P_th² · dP_th/dT · u(T))². dP_th/dT is a central difference of the same
+ * thermal-polarization function with a step of 10⁻⁴ T (P_th is smooth in T > 0).
+ * Null when neither P nor the lattice temperature has an uncertainty.
+ */
+export function enhancementUncertainty(input: BlockInput, p: number, uP: number | null, pTh: number): number | null {
+  const uT = input.lattice?.uncertainty ?? null;
+  const T = input.lattice?.value ?? NaN;
+  let variance = 0;
+  if (uP !== null && uP > 0) variance += (uP / pTh) ** 2;
+  if (uT !== null && uT > 0 && input.lattice) {
+    const h = T * 1e-4;
+    const at = (t: number): number | null =>
+      thermalPolarizationOf({ ...input, lattice: { ...input.lattice!, value: t } });
+    const up = at(T + h);
+    const down = at(T - h);
+    if (up !== null && down !== null) variance += ((p / pTh ** 2) * ((up - down) / (2 * h)) * uT) ** 2;
+  }
+  const u = Math.sqrt(variance);
+  return variance > 0 && Number.isFinite(u) ? u : null;
 }

@@ -96,11 +96,18 @@ export function measureGain(input: BlockInput): GainResult | null {
   const single = gi.length !== null ? singlePassGain(g0, gi.length) : null;
   const threshold =
     gi.length !== null && gi.mirrors ? thresholdGain(gi.loss, gi.mirrors[0], gi.mirrors[1], gi.length) : null;
+  // First-order propagation (JCGM 100:2008 §5.1.2) of the densities' uncertainties; σ, L and the mirrors are
+  // taken as exact (the block gives them without uncertainty).
+  const variance = (up.uPopulation ?? 0) ** 2 + ((up.g / lo.g) * (lo.uPopulation ?? 0)) ** 2;
+  const uG0 = variance > 0 ? gi.crossSection * Math.sqrt(variance) : null;
+  const finiteOrNull = (x: number | null): number | null => (x !== null && Number.isFinite(x) ? x : null);
   const db = gi.length !== null ? gainDecibels(g0, gi.length) : null;
   const nth = threshold !== null ? thresholdInversion(threshold, gi.crossSection) : null;
   return {
     coefficient: g0,
+    uCoefficient: finiteOrNull(uG0),
     singlePass: single !== null && Number.isFinite(single) ? single : null,
+    uSinglePass: single !== null && uG0 !== null && gi.length !== null ? finiteOrNull(single * gi.length * uG0) : null,
     singlePassDb: db !== null && Number.isFinite(db) ? db : null,
     inversion: inversionDensity(lo.population!, up.population!, lo.g, up.g),
     thresholdInversion: nth !== null && Number.isFinite(nth) ? nth : null,

@@ -23,7 +23,7 @@ export interface FitSummary {
 export interface SignalResult {
   /** Thermal polarization of the reference at `lattice`. */
   readonly pThermal: number;
-  /** (NS_th G_th sin θ_th n_th)/(NS_hp G_hp sin θ_hp n_hp). */
+  /** (scans_th·G_th sin θ_th n_th)/(scans_hp·G_hp sin θ_hp n_hp). */
   readonly factor: number;
   /** S_hp / S_th. */
   readonly ratio: number;
@@ -36,8 +36,12 @@ export interface SignalResult {
 export interface GainResult {
   /** Small-signal gain coefficient g₀, cm⁻¹. */
   readonly coefficient: number;
+  /** Standard uncertainty of g₀ from the densities' uncertainties, cm⁻¹, or null. */
+  readonly uCoefficient: number | null;
   /** exp(g₀ L), or null without a length. */
   readonly singlePass: number | null;
+  /** u(G) = G·L·u(g₀), or null. */
+  readonly uSinglePass: number | null;
   /** The single-pass gain in decibels, 10 log₁₀ exp(g₀ L), or null without a length. */
   readonly singlePassDb: number | null;
   /** Inversion density ΔN = N_u − (g_u/g_l)·N_l, cm⁻³. */
@@ -63,6 +67,8 @@ export interface BlockResults {
   /** Standard uncertainty of P_th from the stated u(lattice) and u(spacing), or null. */
   readonly uThermalPolarization: number | null;
   readonly enhancement: number | null;
+  /** Standard uncertainty of ε from u(P) and u(lattice), or null when neither is known. */
+  readonly enhancementUncertainty: number | null;
   /** Standard uncertainty of ε from every stated input uncertainty, or null. */
   readonly uEnhancement: number | null;
   /** The k = 2 coverage intervals of β, T and P (analysis/intervals.ts). */

@@ -290,7 +290,15 @@ function report(found: FencedBlock, c: Cached): BlockReport {
   const mapped = c.problems.map((p) => ({
     ...p,
     span: spanToNote(block, p.span),
-    ...(p.fixes ? { fixes: p.fixes.map((f) => ({ ...f, span: spanToNote(block, f.span) })) } : {}),
+    ...(p.fixes
+      ? {
+          fixes: p.fixes.map((f) => ({
+            ...f,
+            span: spanToNote(block, f.span),
+            ...(f.more ? { more: f.more.map((m) => ({ ...m, span: spanToNote(block, m.span) })) } : {}),
+          })),
+        }
+      : {}),
   }));
   const unclosed: Problem | null =
     block.closeLine !== null

@@ -175,7 +175,7 @@ function descendingNote(ctx: ReadContext, e: Entry, items: readonly (TreeNode | 
     ctx,
     'info',
     'levels-descending',
-    'The levels are listed from the highest energy down; they are read correctly, but lowest first matches the populations lists of the other forms.',
+    'These levels are listed from the top (highest energy) down. The results are right either way, since the levels are sorted by energy; the fix lists them from the bottom up, as every other list of levels here is written.',
     e.keySpan,
     [{ title: 'List the levels lowest energy first', span: { start: s[0].start, end: s[s.length - 1].end }, newText }],
   );

@@ -14,7 +14,16 @@ import {
   readPopulationList,
   withSiblingUncertainty,
 } from './populations';
-import { readList, readNumber, readQuantity, readText, report, type ReadContext, type ReadValue } from './values';
+import {
+  readFraction,
+  readList,
+  readNumber,
+  readQuantity,
+  readText,
+  report,
+  type ReadContext,
+  type ReadValue,
+} from './values';
 import type { Entry } from './yamlTree';
 
 /** Field and frequency may disagree by this fraction before a warning (the contract's 1 %). */
@@ -237,16 +246,23 @@ function readSpinMeasurement(
     const list = readPopulationList(ctx, pe, n, `${species.symbol} (spin ${spinText})`);
     return list ? { populations: list, polarization: null, signal: null } : null;
   }
-  const p0 = readNumber(ctx, pol!.value, 'polarization');
+  // A fraction (0.245) or a percentage with its sign (24.5 %, 24.5 ± 0.5 %).
+  const p0 = readFraction(ctx, pol!.value, 'polarization');
   const p = p0 ? withSiblingUncertainty(ctx, p0, byKey.get('uncertainty'), 'polarization') : null;
   if (!p) return null;
   if (Math.abs(p.value) > 1) {
+    // A bare number between 1 and 100 is most likely a percentage written without its sign.
+    const fixes =
+      p.unit === null && Math.abs(p.value) <= 100
+        ? [{ title: 'Mark it as a percentage (add %)', span: { start: p.span.end, end: p.span.end }, newText: ' %' }]
+        : [];
     report(
       ctx,
       'error',
       'polarization-range',
-      `polarization: |P| cannot exceed 1 (got ${p.value}); give a fraction, not a percentage.`,
+      `polarization: |P| cannot exceed 1 (got ${p.unit === '%' ? `${p.value * 100} %` : p.value}); write a fraction (0.245) or a percentage with its sign (24.5 %).`,
       p.span,
+      fixes,
     );
     return null;
   }

@@ -3,7 +3,7 @@
  * `mirrors`, `loss`. They need absolute populations (number densities).
  */
 import type { GainInput } from './input';
-import { readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
+import { readFraction, readList, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import type { Entry } from './yamlTree';
 
 /** Keys that make a transition block a gain calculation. */
@@ -88,14 +88,14 @@ function readMirrors(ctx: ReadContext, e: Entry): [number, number] | null {
   }
   const out: number[] = [];
   for (const [i, item] of items.entries()) {
-    const r = readNumber(ctx, item, `mirrors[${i}]`);
+    const r = readFraction(ctx, item, `mirrors[${i}]`);
     if (!r) return null;
     if (!(r.value > 0 && r.value <= 1)) {
       report(
         ctx,
         'error',
         'mirrors-invalid',
-        `mirrors[${i}]: a reflectivity lies in (0, 1] (a fraction, not a percentage).`,
+        `mirrors[${i}]: a reflectivity lies in (0, 1]: a fraction (0.995) or a percentage with its sign (99.5 %).`,
         r.span,
       );
       return null;

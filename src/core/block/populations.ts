@@ -6,7 +6,7 @@
 import type { TreeNode } from './tree';
 import { acceptsUnit, parseQuantity } from '../quantities/units';
 import type { Span } from '../types';
-import { readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
+import { readFraction, readList, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
 import { deref, isScalar, type Entry } from './yamlTree';
 
 const LETTER = /[a-zA-Zµ]/;
@@ -20,7 +20,7 @@ export function readPopulation(ctx: ReadContext, node: TreeNode | null, subject:
   const unit = LETTER.test(text) && LETTER.test(text.replace(/e[+-]?\d/gi, ''));
   // A column density (`cm-2`, radio and absorption work) is read as such; every other unit as a number density.
   const dim = unit && isColumn(text) ? 'column' : 'density';
-  const v = unit ? readQuantity(ctx, n, dim, subject) : readNumber(ctx, n, subject);
+  const v = unit ? readQuantity(ctx, n, dim, subject) : readFraction(ctx, n, subject);
   if (v && v.value < 0) {
     report(ctx, 'error', 'population-negative', `${subject}: a population cannot be negative.`, v.span);
     return null;

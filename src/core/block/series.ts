@@ -18,6 +18,7 @@ import {
   type ReadValue,
 } from './values';
 import { entries, isMap, type Entry } from './yamlTree';
+import { convert, parseQuantity } from '../quantities/units';
 
 /** Fewest points that determine each model's parameters. */
 export const SERIES_PARAMETERS = { decay: 2, buildup: 3 } as const;
@@ -29,9 +30,15 @@ export function readSeries(ctx: ReadContext, e: Entry): SeriesInput | null {
     return null;
   }
   const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
-  for (const x of byKey.values()) if (!SERIES_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(SERIES_KEYS));
+  // `time/s: [0, 6, 12]`: one unit for the whole list, written as quantity/unit the way tables head their
+  // columns (ISO 80000-1 §6.1; IUPAC Green Book §1.4); a number with its own unit still keeps it.
+  const unitKey = [...byKey.values()].find((x) => /^time\s*\/\s*\S/.test(x.key));
+  for (const x of byKey.values())
+    if (!SERIES_KEYS.includes(x.key) && x !== unitKey) unknownKey(ctx, x, new Set(SERIES_KEYS));
   const model = readModel(ctx, byKey.get('model'), e);
-  const te = byKey.get('time');
+  const listUnit = unitKey && !byKey.has('time') ? timeUnit(ctx, unitKey) : null;
+  if (unitKey && !byKey.has('time') && listUnit === null) return null;
+  const te = byKey.get('time') ?? (listUnit !== null ? unitKey : undefined);
   const se = byKey.get('signal');
   if (!te || !se) {
     report(ctx, 'error', 'series-incomplete', `series: \`${!te ? 'time' : 'signal'}\` is missing.`, e.keySpan);
@@ -40,7 +47,8 @@ export function readSeries(ctx: ReadContext, e: Entry): SeriesInput | null {
   const times = readValues(
     ctx,
     te,
-    (node, s) => readQuantity(ctx, node, 'time', s, { suggestUnit: 's' }),
+    (node, s) =>
+      readQuantity(ctx, node, 'time', s, listUnit !== null ? { defaultUnit: listUnit } : { suggestUnit: 's' }),
     'series.time',
   );
   const signals = readValues(ctx, se, (node, s) => readNumber(ctx, node, s), 'series.signal');
@@ -123,12 +131,56 @@ function readValues(
   if (!items) return null;
   const out: ReadValue[] = [];
   let ok = true;
+  const before = ctx.problems.length;
   items.forEach((item, i) => {
     const v = read(item, `${subject}[${i}]`);
     if (v) out.push(v);
     else ok = false;
   });
+  unitForWholeList(ctx, before, subject);
   return ok ? out : null;
+}
+
+/** The unit of a `time/<unit>` key, checked to be a time unit; null (with a problem on the key) otherwise. */
+function timeUnit(ctx: ReadContext, x: Entry): string | null {
+  const unit = x.key.slice(x.key.indexOf('/') + 1).trim();
+  const q = parseQuantity(`1 ${unit}`);
+  const c = 'problem' in q ? q : convert(q.quantity, 'time');
+  if ('problem' in c) {
+    report(
+      ctx,
+      'error',
+      'unit-unknown',
+      `series: \`${x.key}\` gives the times' unit after the slash; \`${unit}\` is not a time unit (s, ms, min, h).`,
+      x.keySpan,
+    );
+    return null;
+  }
+  return unit;
+}
+
+/**
+ * When several numbers of one list lack their unit, each such problem also offers to add the unit to
+ * every bare number of the list at once (one edit the user picks), besides its own.
+ */
+function unitForWholeList(ctx: ReadContext, from: number, subject: string): void {
+  const missing = ctx.problems.slice(from).filter((p) => p.code === 'unit-missing' && p.fixes?.length === 1);
+  if (missing.length < 2) return;
+  const inserts = missing.map((p) => p.fixes![0]!);
+  const unit = inserts[0]!.newText.trim();
+  if (!inserts.every((f) => f.newText === inserts[0]!.newText)) return;
+  for (let k = from; k < ctx.problems.length; k++) {
+    const p = ctx.problems[k]!;
+    if (!missing.includes(p)) continue;
+    const own = p.fixes![0]!;
+    const all = {
+      title: `Add the unit ${unit} to all ${missing.length} bare numbers of ${subject}`,
+      span: inserts[0]!.span,
+      newText: inserts[0]!.newText,
+      more: inserts.slice(1).map((f) => ({ span: f.span, newText: f.newText })),
+    };
+    ctx.problems[k] = { ...p, fixes: [all, own] };
+  }
 }
 
 function checkFlip(ctx: ReadContext, model: 'decay' | 'buildup', flip: ReadValue): boolean {

@@ -1,7 +1,7 @@
 /**
  * `signal:` — a hyperpolarized signal compared with a thermal reference:
- * P = P_th(lattice) · (S_hp/S_th) · (NS_th G_th sin θ_th n_th)/(NS_hp G_hp sin θ_hp n_hp),
- * with scans NS, linear receiver gains G, flip angles θ and relative amounts
+ * P = P_th(lattice) · (S_hp/S_th) · (scans_th·G_th sin θ_th n_th)/(scans_hp·G_hp sin θ_hp n_hp),
+ * with the numbers of scans, linear receiver gains G, flip angles θ and relative amounts
  * n each defaulting to 1 (90 deg for θ). Common practice in dissolution-DNP,
  * PHIP and SEOP work; it assumes spectra summed over scans and signals
  * linear in receiver gain.

@@ -137,7 +137,7 @@ export function readQuantity(
       ctx,
       'error',
       'unit-missing',
-      `${subject}: a bare number needs a unit here (${example(dim)}).${ruled}`,
+      `${subject}: a bare number needs a unit here, ${units[0] ? `such as \`${src.text.trim()} ${units[0]}\`` : `e.g. ${example(dim)}`} (${DIMENSION_WORDS[dim]}).${ruled}`,
       src.span,
       fixes,
     );
@@ -150,6 +150,21 @@ export function readQuantity(
   }
   return { value: c.value, uncertainty: c.uncertainty, span: src.span, unit: q.unit };
 }
+
+/** What each dimension is, in words, for messages. */
+const DIMENSION_WORDS: Readonly<Record<Dimension, string>> = {
+  energy: 'an energy',
+  wavelengthEnergy: 'an energy or a wavelength',
+  field: 'a magnetic field',
+  temperature: 'a temperature',
+  time: 'a time',
+  angle: 'an angle',
+  density: 'a number density',
+  crossSection: 'a cross-section',
+  length: 'a length',
+  attenuation: 'a loss per length',
+  rate: 'a rate',
+} as Record<Dimension, string>;
 
 function example(dim: Dimension): string {
   switch (dim) {
@@ -182,6 +197,26 @@ function example(dim: Dimension): string {
 
 function nonEmpty(span: Span): Span {
   return span.end > span.start ? span : { start: span.start, end: span.start + 1 };
+}
+
+/**
+ * Reads a fraction (a polarization, a reflectivity): a plain number, or a
+ * percentage written with `%` (`24.5 %`, `24.5 ± 0.5 %`), which is divided
+ * by 100 (ISO 80000-1: % stands for the number 0.01). The value returned is
+ * always the fraction; `unit` keeps `%` when it was written.
+ */
+export function readFraction(ctx: ReadContext, node: TreeNode | null, subject: string): ReadValue | null {
+  const n = deref(node);
+  const src = scalarSource(ctx, n);
+  const parsed = src ? parseQuantity(src.text) : null;
+  if (!src || !parsed || 'problem' in parsed || parsed.quantity.unit !== '%') return readNumber(ctx, node, subject);
+  const q = parsed.quantity;
+  return {
+    value: q.value / 100,
+    uncertainty: q.uncertainty === null ? null : q.uncertainty / 100,
+    span: src.span,
+    unit: '%',
+  };
 }
 
 /**

@@ -66,13 +66,25 @@ export function parseBody(body: string): YamlBody {
     });
     return { doc: null, problems };
   }
+  const quoted = new Set<number>();
   for (const e of doc.errors) {
-    problems.push({
-      severity: 'error',
-      code: YAML_CODES[e.code] ?? 'yaml-syntax',
-      message: `YAML: ${e.message}`,
-      span: errorSpan(e.pos, body),
-    });
+    const span = errorSpan(e.pos, body);
+    const code = YAML_CODES[e.code] ?? 'yaml-syntax';
+    const needsQuotes = code === 'yaml-syntax' ? valueNeedingQuotes(body, span.start) : null;
+    if (needsQuotes) {
+      // One plain message and one fix per line, however many errors the parser found on it.
+      if (quoted.has(needsQuotes.span.start)) continue;
+      quoted.add(needsQuotes.span.start);
+      problems.push({
+        severity: 'error',
+        code,
+        message: `\`${needsQuotes.key}\`: this text starts with or holds characters YAML reads as structure (${needsQuotes.why}); put it in quotes to keep it as text.`,
+        span: needsQuotes.span,
+        fixes: [{ title: 'Put the value in quotes', span: needsQuotes.span, newText: needsQuotes.quoted }],
+      });
+      continue;
+    }
+    problems.push({ severity: 'error', code, message: `YAML: ${e.message}`, span });
   }
   for (const p of duplicateKeys(doc, body)) problems.push(p);
   for (const w of doc.warnings) {
@@ -98,6 +110,34 @@ export function parseBody(body: string): YamlBody {
 }
 
 const NO_ALIASES = { added: 0, firstAlias: null } as const;
+
+/**
+ * The value of a `key: value` line holding the offset, when it is unquoted text that YAML cannot take
+ * as a plain scalar: it starts with a flow or other indicator (`[1-13C]pyruvic acid`, `{x} y`, `@home`,
+ * `` `x` ``, `%`, `!`, `&`, `*`, `|`, `>`) or holds `: ` or ` #` (YAML 1.2.2 §7.3.3, plain scalars). With
+ * the text the value would be as a double-quoted scalar; null for any other line.
+ */
+export function valueNeedingQuotes(
+  body: string,
+  offset: number,
+): { key: string; span: Span; quoted: string; why: string } | null {
+  const lineStart = body.lastIndexOf('\n', Math.max(0, offset - 1)) + 1;
+  const nl = body.indexOf('\n', offset);
+  const line = body.slice(lineStart, nl < 0 ? body.length : nl).replace(/\r$/, '');
+  const m = /^(\s*(?:-\s+)?)([A-Za-z_][\w./ -]*?):[ \t]+(\S.*?)[ \t]*$/.exec(line);
+  if (!m) return null;
+  const value = m[3]!;
+  if (/^["']/.test(value)) return null;
+  const indicator = /^[[\]{}@`%!&*|>,]/.exec(value);
+  const inner = /: |\s#/.exec(value);
+  // A flow collection that closes at the end of the line is a list or mapping the user meant.
+  if (!indicator && !inner) return null;
+  if (/^\[.*\]$|^\{.*\}$/.test(value)) return null;
+  const start = lineStart + m[1]!.length + m[2]!.length + line.slice(m[1]!.length + m[2]!.length).indexOf(value);
+  const why = indicator ? `\`${indicator[0]}\` at its start` : inner![0].trim() === '#' ? '` #`, a comment' : '`: `';
+  const quoted = `"${value.replace(/\\/g, '\\\\').replace(/"/g, '\\"')}"`;
+  return { key: m[2]!, span: { start, end: start + value.length }, quoted, why };
+}
 
 /**
  * The options the composer is run with: the reader's, except that the

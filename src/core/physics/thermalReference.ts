@@ -1,7 +1,7 @@
 /**
  * Polarization from a signal compared with a thermal reference (common
  * practice in hyperpolarization work; no single published source):
- * P = P_th · (S_hp/S_th) · (NS_th G_th sin θ_th n_th)/(NS_hp G_hp sin θ_hp n_hp).
+ * P = P_th · (S_hp/S_th) · (scans_th·G_th sin θ_th n_th)/(scans_hp·G_hp sin θ_hp n_hp).
  * Assumes spectra summed over scans and signals linear in receiver gain.
  */
 import type { Measured } from '../types';
@@ -14,7 +14,7 @@ export interface Acquisition {
   readonly amount: number;
 }
 
-/** The factor (NS_th G_th sin θ_th n_th)/(NS_hp G_hp sin θ_hp n_hp) that puts both spectra on one scale. */
+/** The factor (scans_th·G_th sin θ_th n_th)/(scans_hp·G_hp sin θ_hp n_hp) that puts both spectra on one scale. */
 export function acquisitionFactor(hp: Acquisition, th: Acquisition): number {
   return (th.scans * th.gain * Math.sin(th.flip) * th.amount) / (hp.scans * hp.gain * Math.sin(hp.flip) * hp.amount);
 }

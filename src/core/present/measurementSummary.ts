@@ -1,6 +1,6 @@
 /**
  * Display rows for the measurement inputs (time series, thermal reference,
- * emission lines, gain), shared by hovers, "Copy results" and the preview so
+ * emission lines, gain), shared by hovers, "Copy Block Results" and the preview so
  * every host shows the same audited numbers.
  */
 import type { BlockResults } from '../analysis/results';
@@ -30,7 +30,7 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
     const weighted = input.series.uSignals !== null;
     rows.push([
       'series fit',
-      `${input.series.times.length} points, ${weighted ? `χ²/dof = ${formatNumber(s.chi2, 3)}/${s.dof}` : `rms residual ${formatNumber(Math.sqrt(s.chi2 / Math.max(1, s.dof)), 3)}`}${s.converged ? '' : ', not converged'}`,
+      `${input.series.times.length} points, ${weighted ? `χ²/dof = ${formatNumber(s.chi2, 3)}/${s.dof}` : `residual standard error √(SSR/(n − p)) = ${formatNumber(Math.sqrt(s.chi2 / Math.max(1, s.dof)), 3)}`}${s.converged ? '' : ', not converged'}`,
     ]);
     if (s.model === 'decay' && input.series.flip !== null)
       rows.push(['readout correction', `cos^(n−1) θ, θ = ${deg(input.series.flip)}`]);
@@ -46,19 +46,22 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
     rows.push(['flip hp / th', `${deg(i.flip[0])} / ${deg(i.flip[1])}`]);
     rows.push(['gain hp / th', `${formatNumber(i.gain[0], 4)} / ${formatNumber(i.gain[1], 4)}`]);
     rows.push(['amount hp / th', `${formatNumber(i.amount[0], 4)} / ${formatNumber(i.amount[1], 4)}`]);
-    rows.push(['scale factor', `(NS·G·sin θ·n)_th / (NS·G·sin θ·n)_hp = ${formatNumber(sig.factor, o.digits)}`]);
+    rows.push([
+      'scale factor',
+      `(scans·gain·sin θ·amount)_th / (scans·gain·sin θ·amount)_hp = ${formatNumber(sig.factor, o.digits)}`,
+    ]);
     rows.push(['P_th of the reference', formatNumber(sig.pThermal, o.digits)]);
   }
   rows.push(...tradeRows(input, r, o));
   const g = r.gain;
   if (g) {
     rows.push(['inversion ΔN = N_u − (g_u/g_l)·N_l', `${formatNumber(g.inversion, o.digits)} cm⁻³`]);
-    rows.push(['gain g₀', `${formatNumber(g.coefficient, o.digits)} cm⁻¹`]);
+    rows.push(['gain g₀', `${formatMeasured(g.coefficient, g.uCoefficient, { digits: o.digits })} cm⁻¹`]);
     if (g.singlePass !== null || g.singlePassDb !== null)
       rows.push([
         'single-pass gain',
         [
-          g.singlePass !== null ? `× ${formatNumber(g.singlePass, o.digits)}` : null,
+          g.singlePass !== null ? `× ${formatMeasured(g.singlePass, g.uSinglePass, { digits: o.digits })}` : null,
           g.singlePassDb !== null ? `${formatNumber(g.singlePassDb, 3)} dB` : null,
         ]
           .filter((x) => x !== null)
@@ -75,14 +78,21 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
   return rows;
 }
 
-/** A short addition to the one-line summary, e.g. `T₁ = 22.1 s` or `g₀ = 0.0205 cm⁻¹ (above threshold)`. */
-export function measurementShort(r: BlockResults): string | null {
+/**
+ * A short addition to the one-line summary, e.g. `T₁ = 22.1 s` or `g₀ = 0.0205 cm⁻¹ (above threshold)`;
+ * with `withUncertainty` (the report table's last column) each value carries its standard uncertainty.
+ */
+export function measurementShort(r: BlockResults, withUncertainty = false): string | null {
   const parts: string[] = [];
-  if (r.series)
-    parts.push(`${r.series.model === 'decay' ? 'T₁' : 'τ'} = ${formatNumber(r.series.timeConstant.value, 3)} s`);
+  const value = (x: number, u: number | null): string =>
+    withUncertainty ? formatMeasured(x, u, { digits: 3 }) : formatNumber(x, 3);
+  if (r.series) {
+    const tc = r.series.timeConstant;
+    parts.push(`${r.series.model === 'decay' ? 'T₁' : 'τ'} = ${value(tc.value, tc.uncertainty)} s`);
+  }
   if (r.gain)
     parts.push(
-      `g₀ = ${formatNumber(r.gain.coefficient, 3)} cm⁻¹${r.gain.aboveThreshold === null ? '' : r.gain.aboveThreshold ? ' (above threshold)' : ' (below threshold)'}`,
+      `g₀ = ${value(r.gain.coefficient, r.gain.uCoefficient)} cm⁻¹${r.gain.aboveThreshold === null ? '' : r.gain.aboveThreshold ? ' (above threshold)' : ' (below threshold)'}`,
     );
   return parts.length ? parts.join(' · ') : null;
 }

@@ -174,7 +174,10 @@ export interface FractionOptions extends MeasuredOptions {
 export function formatFraction(p: number, uncertainty: number | null, opts: FractionOptions = {}): string {
   if (!Number.isFinite(p)) return DASH;
   const k = opts.percent ? 100 : 1;
-  const text = measured(p * k, uncertainty === null ? null : uncertainty * k, opts.digits ?? 4);
+  // In percent, below 0.01 % (a fraction of 10⁻⁴) the fixed form would be mostly zeros: a power of ten
+  // takes over at the same fraction in both units, so "%" and fractions switch at the same P.
+  const limits = opts.percent ? { high: DEFAULT_LIMITS.high, low: 1e-2 } : DEFAULT_LIMITS;
+  const text = measured(p * k, uncertainty === null ? null : uncertainty * k, opts.digits ?? 4, limits);
   return opts.percent ? `${text} %` : text;
 }
 

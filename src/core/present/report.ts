@@ -50,7 +50,12 @@ export interface ReportEntry {
   readonly timeConstant: Measured | null;
   /** Small-signal gain coefficient g₀, cm⁻¹ (v1.1). */
   readonly gainCoefficient: number | null;
+  /** Standard uncertainty of g₀ from the densities' uncertainties, cm⁻¹. */
+  readonly gainCoefficientUncertainty: number | null;
   readonly singlePassGain: number | null;
+  readonly singlePassGainUncertainty: number | null;
+  /** Threshold gain coefficient g_th, cm⁻¹ (needs length and mirrors). */
+  readonly thresholdGain: number | null;
   readonly aboveThreshold: boolean | null;
   readonly form: string | null;
   readonly fit: { readonly chi2: number; readonly dof: number; readonly consistent: boolean } | null;
@@ -141,7 +146,10 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex, cell
     }),
     timeConstant: r?.series ? measured(r.series.timeConstant) : null,
     gainCoefficient: finite(r?.gain?.coefficient),
+    gainCoefficientUncertainty: finite(r?.gain?.uCoefficient),
     singlePassGain: finite(r?.gain?.singlePass),
+    singlePassGainUncertainty: finite(r?.gain?.uSinglePass),
+    thresholdGain: finite(r?.gain?.threshold),
     aboveThreshold: r?.gain?.aboveThreshold ?? null,
     form: b.input?.form ?? null,
     fit: r?.fit ? { chi2: r.fit.chi2, dof: r.fit.dof, consistent: r.fit.consistent } : null,
@@ -218,7 +226,7 @@ function uncertaintyEntry(
 > {
   return {
     thermalPolarizationUncertainty: finite(r?.uThermalPolarization),
-    enhancementUncertainty: finite(r?.uEnhancement),
+    enhancementUncertainty: finite(r?.enhancementUncertainty),
     birge:
       r?.birge && r.birge.beta.uncertainty !== null
         ? { ratio: r.birge.ratio, betaUncertainty: r.birge.beta.uncertainty }
@@ -251,7 +259,10 @@ export function unreadableEntry(file: string, reason: string): ReportEntry {
     diagnostics: [{ severity: 'error', code: 'file-unreadable', message: reason, line: 1, column: 1 }],
     timeConstant: null,
     gainCoefficient: null,
+    gainCoefficientUncertainty: null,
     singlePassGain: null,
+    singlePassGainUncertainty: null,
+    thresholdGain: null,
     aboveThreshold: null,
     form: null,
     fit: null,

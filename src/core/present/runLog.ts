@@ -25,6 +25,12 @@ export interface RunEntry {
   readonly temperature: Measured | null;
   readonly beta: Measured | null;
   readonly polarization: Measured | null;
+  /** ε = P/P_th with its standard uncertainty. */
+  readonly enhancement: Measured | null;
+  /** T₁ or τ of a time series, s. */
+  readonly timeConstant: Measured | null;
+  /** Small-signal gain coefficient g₀, cm⁻¹. */
+  readonly gain: Measured | null;
   /** The k = 2 intervals (analysis/intervals.ts); null without an uncertainty. */
   readonly betaInterval: readonly [number, number] | null;
   readonly temperatureInterval: readonly [number, number] | null;
@@ -61,6 +67,12 @@ export class RunLog {
       temperature: b.results?.temperature ?? null,
       beta: b.results?.beta ?? null,
       polarization: b.results?.polarization ?? null,
+      enhancement:
+        b.results?.enhancement != null
+          ? { value: b.results.enhancement, uncertainty: b.results.enhancementUncertainty }
+          : null,
+      timeConstant: b.results?.series?.timeConstant ?? null,
+      gain: b.results?.gain ? { value: b.results.gain.coefficient, uncertainty: b.results.gain.uCoefficient } : null,
       betaInterval: b.results?.intervals.beta ?? null,
       temperatureInterval: b.results?.intervals.temperature ?? null,
       temperatureBound: b.results?.intervals.temperatureBound ?? null,

@@ -33,6 +33,19 @@ export const STATUS_WORDS: Readonly<Record<Status, string>> = {
   invalid: 'invalid: the block has an error',
 };
 
+/**
+ * The status in words for one block: {@link statusText}, except that a block
+ * without any temperature (only a time series, or only a gain) is not
+ * described by a temperature it does not have.
+ */
+export function statusWords(status: Status, r: BlockResults | null): string {
+  if (r && !r.beta && !r.limit && status === 'normal') {
+    if (r.series) return 'normal: the series was fitted; the block gives no temperature';
+    return 'normal: no temperature (no populations measured)';
+  }
+  return statusText(status, r);
+}
+
 /** The status sentence in the block's own trade's words (spin temperature for spins, excitation temperature elsewhere). */
 export function statusText(status: Status, r: BlockResults | null): string {
   const name = r?.trade.temperatureName;
@@ -157,15 +170,21 @@ export function betaText(r: BlockResults, o: DisplayOptions = DEFAULT_DISPLAY): 
 export function fractionText(m: Measured | number | null, o: DisplayOptions = DEFAULT_DISPLAY): string {
   if (m === null) return '—';
   const v = typeof m === 'number' ? { value: m, uncertainty: null } : m;
-  // Below 0.1 % a percentage hides the digits that matter (thermal nuclear polarizations are ~10⁻⁵),
-  // so small values are written as fractions with a power of ten.
-  const percent = o.percent && (v.value === 0 || Math.abs(v.value) >= 1e-3);
-  return formatFraction(v.value, v.uncertainty, { digits: o.digits, percent });
+  // One unit per setting everywhere (a column never mixes % and fractions); small values keep the unit
+  // and take a power of ten instead (thermal nuclear polarizations are ~10⁻⁵).
+  return formatFraction(v.value, v.uncertainty, { digits: o.digits, percent: o.percent });
 }
 
-/** Enhancement ε = P / P_th as shown. */
-export function enhancementText(e: number | null, o: DisplayOptions = DEFAULT_DISPLAY): string {
-  return e === null ? '—' : formatNumber(e, Math.min(o.digits, 3));
+/** Enhancement ε = P / P_th as shown, with its standard uncertainty when there is one. */
+export function enhancementText(
+  e: number | null,
+  o: DisplayOptions = DEFAULT_DISPLAY,
+  uncertainty: number | null = null,
+): string {
+  if (e === null) return '—';
+  return uncertainty !== null && uncertainty > 0
+    ? formatMeasured(e, uncertainty, { digits: o.digits })
+    : formatNumber(e, Math.min(o.digits, 3));
 }
 
 /** Short one-line form, e.g. `T = 5.61 mK · P = 31 % · ε = 241`. */

@@ -134,6 +134,8 @@ const ALIASES: Record<string, string> = {
   '/m': 'm-1',
   's^-1': 's-1',
   '/s': 's-1',
+  // The degree sign, as people write angles (`10°`, `5 °`): SI Brochure (9th ed.) Table 8 writes the degree so.
+  '°': 'deg',
 };
 
 const DIMENSION_NAMES: Record<Dimension, string> = {

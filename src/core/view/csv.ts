@@ -7,6 +7,8 @@
 import { csvText, type CsvField } from '../present/csv';
 import { formatPlainNumber } from '../present/numbers';
 import type { CurvePayload, DisplayUnit } from './payload';
+import { runChartRows, type RunChartPayload, type RunQuantity } from './runChart';
+import type { DisplayOptions } from '../present/displayOptions';
 
 type Cell = CsvField;
 
@@ -96,4 +98,9 @@ export function curveCsv(runs: readonly CurvePayload[], unit: DisplayUnit | null
     }
   }
   return csvText(records);
+}
+
+/** The CSV text of a run comparison for one quantity (see {@link runChartRows}). */
+export function runChartCsv(p: RunChartPayload, q: RunQuantity, o: DisplayOptions): string {
+  return csvText(runChartRows(p, q, o));
 }

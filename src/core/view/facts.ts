@@ -7,7 +7,7 @@ import { formatMeasured, formatNumber, formatTemperature } from '../present/numb
 import {
   betaText,
   polarizationText,
-  statusText,
+  statusWords,
   temperatureIntervalText,
   type DisplayOptions,
 } from '../present/summary';
@@ -31,7 +31,7 @@ export function blockFacts(
   o: DisplayOptions,
 ): Fact[] {
   const facts: Fact[] = [
-    { label: 'status', text: statusText(results.status, results) },
+    { label: 'status', text: statusWords(results.status, results) },
     { label: results.trade.temperatureName, text: temperatureIntervalText(results, o) },
     { label: 'inverse temperature', text: betaText(results, o) },
   ];

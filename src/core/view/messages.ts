@@ -3,9 +3,10 @@
  * as readonly discriminated unions shared by both sides, with validators
  * that each side applies on arrival: a message that fails them is dropped.
  */
-import type { CurvePayload, ViewPayload } from './payload';
-import { isCurvePayload, isViewPayload } from './payloadCheck';
+import type { CurvePayload, MeasurementPlot, ViewPayload } from './payload';
+import { isCurvePayload, isPlot, isViewPayload } from './payloadCheck';
 import { isArrayOf, isCount, isOneOf, isRecord, isText } from './validate';
+import { isRunChartPayload, RUN_QUANTITIES, type RunChartPayload, type RunQuantity } from './runChart';
 
 /** How the energy axis is shown: in the block's own unit or in kelvin. */
 export type EnergyAxisUnit = 'block' | 'K';
@@ -19,6 +20,16 @@ export interface PinnedRun {
   readonly payload: CurvePayload;
 }
 
+/** A measurement plot the user pinned (a series fit, a Boltzmann plot), drawn over the plot of the block shown. */
+export interface PinnedPlot {
+  readonly key: string;
+  /** The block's id, or its place in the note. */
+  readonly id: string;
+  readonly uri: string;
+  readonly line: number;
+  readonly plot: MeasurementPlot;
+}
+
 /** Host → view: draw this (the block under the cursor, or null for none yet) with these pinned runs. */
 export interface RenderMessage {
   readonly type: 'render';
@@ -26,6 +37,10 @@ export interface RenderMessage {
   readonly seq: number;
   readonly current: ViewPayload | null;
   readonly pinned: readonly PinnedRun[];
+  /** Pinned measurement plots (series fits, Boltzmann plots); absent for none. */
+  readonly pinnedPlots?: readonly PinnedPlot[];
+  /** The runs compared (the note's blocks, or the run log's filter); absent or null for none. */
+  readonly runs?: RunChartPayload | null;
 }
 
 /** Every host → view message. */
@@ -72,14 +87,42 @@ export interface CopyImageLinkMessage {
   readonly dataUrl: string;
 }
 
+/** View → host: open the note of a run of the comparison chart at its block. */
+export interface OpenRunMessage {
+  readonly type: 'openRun';
+  readonly uri: string;
+  /** 0-based line of the block's opening fence. */
+  readonly line: number;
+}
+/** View → host: save the run comparison as CSV, for the quantity shown. */
+export interface ExportRunsCsvMessage {
+  readonly type: 'exportRunsCsv';
+  readonly quantity: RunQuantity;
+}
+/** View → host: save the run comparison chart as a PNG. */
+export interface ExportRunsPngMessage {
+  readonly type: 'exportRunsPng';
+  readonly dataUrl: string;
+}
+
 /** Every view → host message. */
 export type ViewToHost =
-  ReadyMessage | PinMessage | UnpinMessage | ExportPngMessage | ExportCsvMessage | CopyImageLinkMessage;
+  | ReadyMessage
+  | PinMessage
+  | UnpinMessage
+  | ExportPngMessage
+  | ExportCsvMessage
+  | CopyImageLinkMessage
+  | OpenRunMessage
+  | ExportRunsCsvMessage
+  | ExportRunsPngMessage;
 
 /** What the webview keeps with `setState`, so a hidden or reloaded panel comes back as it was. */
 export interface ViewState {
   readonly unit: EnergyAxisUnit;
   readonly last: RenderMessage | null;
+  /** The quantity the run comparison shows. */
+  readonly quantity?: RunQuantity;
 }
 
 /** Longest PNG data URL accepted (64 MiB of text): a bound, not a size anyone reaches. */
@@ -90,6 +133,19 @@ const PNG_PREFIX = 'data:image/png;base64,';
 function isPngDataUrl(x: unknown): x is string {
   return (
     isText(x, MAX_DATA_URL) && x.startsWith(PNG_PREFIX) && /^[A-Za-z0-9+/]*={0,2}$/.test(x.slice(PNG_PREFIX.length))
+  );
+}
+
+function isPinnedPlot(x: unknown): x is PinnedPlot {
+  return (
+    isRecord(x) &&
+    isText(x.key, 100) &&
+    isText(x.id, 1000) &&
+    isText(x.uri, 4000) &&
+    isCount(x.line) &&
+    x.plot !== null &&
+    x.plot !== undefined &&
+    isPlot(x.plot)
   );
 }
 
@@ -104,7 +160,9 @@ export function isRenderMessage(x: unknown): x is RenderMessage {
     x.type === 'render' &&
     isCount(x.seq) &&
     (x.current === null || isViewPayload(x.current)) &&
-    isArrayOf(x.pinned, isPinned, 100)
+    isArrayOf(x.pinned, isPinned, 100) &&
+    (x.runs === undefined || x.runs === null || isRunChartPayload(x.runs)) &&
+    (x.pinnedPlots === undefined || isArrayOf(x.pinnedPlots, isPinnedPlot, 100))
   );
 }
 
@@ -127,6 +185,12 @@ export function isViewToHost(x: unknown): x is ViewToHost {
       return isPngDataUrl(x.dataUrl);
     case 'exportCsv':
       return isOneOf(x.unit, ENERGY_AXIS_UNITS);
+    case 'openRun':
+      return isText(x.uri, 4000) && isCount(x.line);
+    case 'exportRunsCsv':
+      return isOneOf(x.quantity, RUN_QUANTITIES);
+    case 'exportRunsPng':
+      return isPngDataUrl(x.dataUrl);
     default:
       return false;
   }
@@ -134,5 +198,10 @@ export function isViewToHost(x: unknown): x is ViewToHost {
 
 /** True when `x` is a well-formed {@link ViewState}. */
 export function isViewState(x: unknown): x is ViewState {
-  return isRecord(x) && isOneOf(x.unit, ENERGY_AXIS_UNITS) && (x.last === null || isRenderMessage(x.last));
+  return (
+    isRecord(x) &&
+    isOneOf(x.unit, ENERGY_AXIS_UNITS) &&
+    (x.last === null || isRenderMessage(x.last)) &&
+    (x.quantity === undefined || isOneOf(x.quantity, RUN_QUANTITIES))
+  );
 }

@@ -145,3 +145,15 @@ export interface ProblemPayload extends PayloadSource {
 
 /** One block's view data. */
 export type ViewPayload = CurvePayload | ProblemPayload;
+
+/**
+ * The panel's title for a payload, naming what it shows: `Curve: <id>`, `Series fit: <id>` or
+ * `Boltzmann plot: <id>` for a block that has only that plot, `No curve: <id>` otherwise; the block's
+ * line when it has no id. Plain text (VS Code shows a panel title as text).
+ */
+export function payloadTitle(p: ViewPayload): string {
+  const name = p.id ?? `block at line ${p.line + 1}`;
+  if (p.kind === 'curve') return `Curve: ${name}`;
+  if (p.plot) return `${p.plot.kind === 'series' ? 'Series fit' : 'Boltzmann plot'}: ${name}`;
+  return `No curve: ${name}`;
+}

@@ -346,26 +346,40 @@ function unitItems(body: Body, position: Position, before: string): CompletionIt
 
 // ---- new blocks ----
 
+/**
+ * The new-block templates. Every value is a placeholder word, never a plausible number: a template
+ * left as inserted must show errors, not quietly record a run nobody measured.
+ */
 const TEMPLATES: readonly { readonly label: string; readonly detail: string; readonly body: readonly string[] }[] = [
   {
     label: 'levels block',
     detail: 'a spin in a field, with its polarization',
-    body: ['id: ${1:run}', 'system: ${2:13C}', 'field: ${3:9.4 T}', 'lattice: ${4:1.4 K}', 'polarization: ${5:0.3}'],
+    body: [
+      'id: ${1:run name}',
+      'system: ${2:isotope}',
+      'field: ${3:field with unit}',
+      'lattice: ${4:bath temperature with unit}',
+      'polarization: ${5:measured P}',
+    ],
   },
   {
     label: 'levels block (transition)',
     detail: 'a single transition with degeneracies',
-    body: ['id: ${1:line}', 'gap: ${2:1420.405751768 MHz}', 'g: [${3:1}, ${4:3}]', 'ratio: ${5:2.99}'],
+    body: [
+      'id: ${1:line name}',
+      'gap: ${2:energy or wavelength with unit}',
+      'g: [${3:g lower}, ${4:g upper}]',
+      'ratio: ${5:n upper / n lower}',
+    ],
   },
   {
     label: 'levels block (explicit levels)',
-    detail: 'three levels with energies, degeneracies and populations',
+    detail: 'levels with energies, degeneracies and populations',
     body: [
-      'id: ${1:scheme}',
+      'id: ${1:scheme name}',
       'levels:',
-      '  - { label: ${2:ground}, energy: ${3:0 cm-1}, g: ${4:1}, population: ${5:0.70} }',
-      '  - { label: ${6:A}, energy: ${7:120 cm-1}, g: ${8:3}, population: ${9:0.25} }',
-      '  - { label: ${10:B}, energy: ${11:410 cm-1}, g: ${12:5}, population: ${13:0.05} }',
+      '  - { label: ${2:lower}, energy: ${3:energy with unit}, g: ${4:g}, population: ${5:n} }',
+      '  - { label: ${6:upper}, energy: ${7:energy with unit}, g: ${8:g}, population: ${9:n} }',
     ],
   },
 ];

@@ -78,7 +78,9 @@ function blockHover(state: NoteState, b: BlockReport, o: DisplayOptions): { valu
         : `P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; ${sign}`,
     );
   }
-  if (r.thermalPolarization === null && r.polarization && !input.lattice)
+  // A thermal polarization means something for spins in a field (P_th of the lattice); for an optical
+  // transition at kT far below its gap it is 1 and ε says nothing, so no lattice is suggested there.
+  if (r.thermalPolarization === null && r.polarization && !input.lattice && input.spin)
     parts.push('Add `lattice:` to get P\\_th and ε.');
   if (r.fit) parts.push(fitText(r.fit, input.lines ? (r.trade.plot?.ordinate ?? 'ln(I/gA)') : null));
   const birge = birgeText(r);
@@ -187,7 +189,7 @@ function levelHover(b: BlockReport, offset: number, o: DisplayOptions): { value:
   const name = (k: number): string => escapeMarkdown(levels[k].label ?? `level ${k + 1}`);
   const pair = (k: number): PairLevel => ({ energy: levels[k].energy, g: levels[k].g, population: fractions[k] });
   const rows: [string, string][] = [
-    ['E', energyText(level.energy, b.input.energyUnit, o)],
+    ['E', energyText(level.energy, b.input.energyUnit, o, b.input.form === 'levels')],
     ['g', String(level.g)],
   ];
   const share = `fraction ${formatNumber(fractions[i], o.digits)}`;
@@ -213,10 +215,34 @@ function levelHover(b: BlockReport, offset: number, o: DisplayOptions): { value:
 }
 
 /** A level energy in the block's own unit (when it converts linearly) and as E/k. */
-function energyText(kelvin: number, unit: string | null, o: DisplayOptions): string {
+function energyText(kelvin: number, unit: string | null, o: DisplayOptions, typed: boolean): string {
   const k = formatTemperature(kelvin, null, { digits: o.digits, mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto' });
   const per = unit !== null && unit !== 'K' ? kelvinPer(unit) : null;
-  return per === null ? k : `${formatNumber(kelvin / per, o.digits)} ${escapeMarkdown(prettyUnit(unit!))} = ${k}`;
+  if (per === null) return k;
+  // A typed energy (an explicit `levels` list) back in the block's unit is what the user typed: never
+  // rounded below the digits they wrote. Energies the block computes (Zeeman levels) keep the usual digits.
+  const own = kelvin / per;
+  return `${formatNumber(own, typed ? Math.max(o.digits, keptDigits(own)) : o.digits)} ${escapeMarkdown(prettyUnit(unit!))} = ${k}`;
+}
+
+/**
+ * Significant digits of a number read back from a conversion (12 digits, then trailing zeros dropped):
+ * 11502 → 5, 0.0250 → 2, 107496.4166 → 10. Enough to show a typed value as typed after E/k and back.
+ */
+export function keptDigits(x: number): number {
+  if (!Number.isFinite(x) || x === 0) return 1;
+  const mantissa = Math.abs(x).toPrecision(12).split('e')[0].replace('.', '').replace(/^0+/, '').replace(/0+$/, '');
+  return Math.max(1, mantissa.length);
+}
+
+/** Significant digits of the number a quantity was written with: `11502 cm-1` → 5, `2.80e-19 cm2` → 3. */
+export function writtenDigits(written: string): number {
+  const m = /^\s*[+-]?(\d*)(?:\.(\d*))?/.exec(written);
+  if (!m) return 1;
+  const digits = (m[1] + (m[2] ?? '')).replace(/^0+/, '');
+  // Trailing zeros of an integer (11500) are ambiguous; those after a decimal point (2.50) are significant.
+  const counted = m[2] === undefined ? digits.replace(/0+$/, '') || digits : digits;
+  return Math.max(1, counted.length);
 }
 
 /** Kelvin (E/k) per one `unit` of energy, or null when the unit is not a linear energy unit. */
@@ -287,11 +313,15 @@ function quantityHover(
   const doc = (q.key === 'energy' ? LEVEL_KEYS : BLOCK_KEYS).find((d) => d.key === q.key)?.summary ?? '';
   const head = `**${q.key}** ${escapeMarkdown(written)} — ${doc}`;
   // Every row is the canonical value times a constant factor, so the uncertainty scales with it.
+  // The row in the unit the user typed keeps every digit they typed: `energy: 11502 cm-1` shows 11502 cm⁻¹,
+  // not 11500; the other rows are conversions, shown with the usual digits.
+  const typedUnit = 'problem' in parsed || parsed.quantity.unit === null ? null : prettyUnit(parsed.quantity.unit);
   const show: Shown = (factor, unit) => {
+    const digits = unit === typedUnit ? Math.max(o.digits, writtenDigits(written)) : o.digits;
     const u = c.uncertainty === null ? null : c.uncertainty * Math.abs(factor);
     return unit === 'K'
-      ? formatTemperature(c.value * factor, u, { digits: o.digits })
-      : `${formatMeasured(c.value * factor, u, { digits: o.digits })} ${unit}`;
+      ? formatTemperature(c.value * factor, u, { digits })
+      : `${formatMeasured(c.value * factor, u, { digits })} ${unit}`;
   };
   const species = speciesOf(state, b);
   let rows: [string, string][];

@@ -50,10 +50,44 @@ function blockHint(state: NoteState, b: BlockReport, o: DisplayOptions): InlayHi
   }
   return {
     position,
-    label: shortSummary(b.results, o),
+    label: blockLabel(b, o),
     paddingLeft: true,
     tooltip: { kind: MarkupKind.Markdown, value: blockResultsMarkdown(state, b, o, true) },
   };
+}
+
+/** Longest hint, in characters: short enough not to wrap or be cut in an editor of ordinary width. */
+export const HINT_WIDTH = 40;
+
+/** Joins ` · `-separated parts, dropping trailing ones (never the first) until the label fits {@link HINT_WIDTH}. */
+export function fitHint(parts: readonly string[]): string {
+  const kept = [parts[0] ?? ''];
+  for (const p of parts.slice(1)) {
+    const next = [...kept, p].join(' · ');
+    if ([...next].length > HINT_WIDTH) break;
+    kept.push(p);
+  }
+  return kept.join(' · ');
+}
+
+/**
+ * The block's label: the short summary, except for a non-thermal scheme, whose fitted T is no
+ * temperature of the levels: it says so and whether a pair is inverted (the hover has the fit).
+ */
+function blockLabel(b: BlockReport, o: DisplayOptions): string {
+  const r = b.results!;
+  if (r.status === 'non-thermal') {
+    const n = r.invertedPairs.length;
+    return fitHint(['non-thermal, no single T', ...(n > 0 ? [n === 1 ? 'inverted pair' : `${n} pairs inverted`] : [])]);
+  }
+  return fitHint(shortSummary(r, o).split(' · '));
+}
+
+/** A level's name for a hint: its label cut to 6 characters, or its number from the bottom. */
+function shortName(label: string | null, i: number): string {
+  if (label === null) return `${i + 1}`;
+  const chars = [...label];
+  return chars.length <= 6 ? label : `${chars.slice(0, 5).join('')}…`;
 }
 
 /**
@@ -71,19 +105,31 @@ function levelHints(state: NoteState, b: BlockReport, o: DisplayOptions): InlayH
   const spans = levels.map((l) => (l.span ? b.toNote(l.span) : null));
   const starts = spans.map((s) => s?.start);
   const out: InlayHint[] = [];
+  // Normalised when the populations as written do not already sum to 1 (counts, densities, or a slip).
+  const written = levels.map((l) => l.population);
+  const sum = written.reduce<number>((a, p) => a + (p ?? NaN), 0);
+  const normalised = !(Math.abs(sum - 1) <= 1e-6);
   levels.forEach((level, i) => {
     const span = spans[i];
     if (!span || starts.indexOf(span.start) !== starts.lastIndexOf(span.start)) return;
     const pair = (k: number): PairLevel => ({ energy: levels[k].energy, g: levels[k].g, population: fractions[k] });
     const name = (k: number): string => levels[k].label ?? `level ${k + 1}`;
-    let label = `n/g = ${formatNumber(fractions[i] / level.g, short.digits)}`;
-    let tooltip = `${name(i)}: population per degeneracy n/g = ${formatNumber(fractions[i] / level.g, o.digits)} (populations normalised to 1).`;
+    const ng = `n/g = ${formatNumber(fractions[i] / level.g, short.digits)}`;
+    const parts = [`${ng}${normalised ? ' (normalised)' : ''}`];
+    let tooltip = `${name(i)}: population per degeneracy n/g = ${formatNumber(fractions[i] / level.g, o.digits)}${normalised ? ' (the populations as given, normalised to sum 1)' : ' (the populations sum to 1 as given)'}.`;
     // With two levels the pair temperature is the block's own T, already in the block hint.
     if (i > 0 && levels.length > 2) {
       const t = pairTemperature(pair(i - 1), pair(i));
-      label += ` · T_pair = ${pairTemperatureText(t, short)}`;
-      tooltip += ` Excitation temperature with the level below (${name(i - 1)}): ${pairTemperatureText(t, o)}.`;
+      const which = `${shortName(levels[i].label, i)}–${shortName(levels[i - 1].label, i - 1)}`;
+      const inverted = t.kind === 'value' && t.kelvin < 0;
+      parts.push(`T(${which}) = ${pairTemperatureText(t, short)}${inverted ? ' inverted' : ''}`);
+      tooltip += ` Excitation temperature of the pair ${name(i)}–${name(i - 1)} (this level and the one below): ${pairTemperatureText(t, o)}${inverted ? ', negative: the pair is inverted' : ''}.`;
     }
+    // The pair temperature matters more than the reminder: when both do not fit, the reminder goes (it
+    // stays on the lowest level, which has no pair, and in every tooltip).
+    const whole = parts.join(' · ');
+    const label =
+      [...whole].length <= HINT_WIDTH || parts.length === 1 ? fitHint(parts) : fitHint([ng, ...parts.slice(1)]);
     out.push({
       position: levelHintPosition(state, input.form === 'levels', span, spans),
       label,

@@ -1,5 +1,5 @@
 /**
- * Markdown building shared by hovers, inlay-hint tooltips and "Copy results":
+ * Markdown building shared by hovers, inlay-hint tooltips and "Copy Block Results":
  * escaping of user text, small tables, and the results table of a block.
  * The numbers come from the core's display functions, so every surface shows
  * the same strings as the `boltzmark report` table.
@@ -10,7 +10,7 @@ import {
   enhancementText,
   formatNumber,
   fractionText,
-  statusText,
+  statusWords,
   temperatureSymbol,
   withoutSymbol,
   polarizationText,
@@ -91,7 +91,7 @@ export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions):
     const pth = { value: r.thermalPolarization, uncertainty: r.uThermalPolarization };
     rows.push([`P\\_th at ${where}`, fractionText(pth, { ...o, digits: Math.min(o.digits, 3) })]);
   }
-  if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o)]);
+  if (r.enhancement !== null) rows.push(['ε = P/P\\_th', enhancementText(r.enhancement, o, r.enhancementUncertainty)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
   for (const [label, value] of measurementRows(b.input, r, o))
     rows.push([escapeMarkdown(label), escapeMarkdown(value)]);
@@ -106,10 +106,10 @@ export function firstError(b: BlockReport): BlockReport['problems'][number] | un
 /**
  * The compact results of a block: a title line (name and status) and the
  * results table, or for an invalid block its first error. Used by the hover
- * (with `explain`, the status in words) and by "Copy results".
+ * (with `explain`, the status in words) and by "Copy Block Results".
  */
 export function blockResultsMarkdown(state: NoteState, b: BlockReport, o: DisplayOptions, explain = false): string {
-  const title = `**${blockName(b)}** — ${explain ? statusText(b.status, b.results) : b.status}`;
+  const title = `**${blockName(b)}** — ${explain ? statusWords(b.status, b.results) : b.status}`;
   if (!b.results) {
     const e = firstError(b);
     return e ? `${title}\n\nError \`${e.code}\`: ${escapeMarkdown(e.message)}` : title;

@@ -160,6 +160,14 @@ describe('formatFraction', () => {
     assert.equal(formatFraction(8.101403e-6, null), '8.101 × 10⁻⁶');
   });
 
+  it('keeps percent for small values too, with a power of ten in the same unit', () => {
+    // Same 13C value as above, 8.101 403e-6 = 8.101 403e-4 %: the unit the setting asks for, never a bare fraction.
+    assert.equal(formatFraction(8.101403e-6, null, { percent: true }), '8.101 × 10⁻⁴ %');
+    // A saturated proton line, P = 0.0004 ± 0.0005 (example input): 0.040 ± 0.050 % (JCGM 100:2008 §7.2.6).
+    assert.equal(formatFraction(0.0004, 0.0005, { percent: true }), '0.040 ± 0.050 %');
+    assert.equal(formatFraction(2.587e-6, 1e-7, { percent: true }), '(2.59 ± 0.10) × 10⁻⁴ %');
+  });
+
   it('shows a dash for non-finite input', () => {
     for (const x of NON_FINITE) assert.equal(formatFraction(x, null, { percent: true }), '—');
   });

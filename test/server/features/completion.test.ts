@@ -1,7 +1,7 @@
 import { strict as assert } from 'node:assert';
 import type { CompletionItem, TextEdit } from 'vscode-languageserver';
 import { completion, plainSnippet } from '../../../src/server/features/completion';
-import { note, withCursor } from '../helpers';
+import { note, noteState, withCursor } from '../helpers';
 
 /** The items at the cursor marker. */
 function itemsAt(marked: string): CompletionItem[] {
@@ -273,8 +273,21 @@ describe('completion', () => {
       assert.deepEqual(spin.textEdit, {
         range: { start: { line: 2, character: 0 }, end: { line: 2, character: 3 } },
         newText:
-          '```levels\nid: ${1:run}\nsystem: ${2:13C}\nfield: ${3:9.4 T}\nlattice: ${4:1.4 K}\npolarization: ${5:0.3}\n```',
+          '```levels\nid: ${1:run name}\nsystem: ${2:isotope}\nfield: ${3:field with unit}\nlattice: ${4:bath temperature with unit}\npolarization: ${5:measured P}\n```',
       });
+    });
+
+    it('fill every template with placeholder words, so a template left as inserted records no run', () => {
+      for (const item of itemsAt('# Run 7\n\n$0\n')) {
+        const text = (item.textEdit as { newText: string }).newText;
+        const defaults = [...text.matchAll(/\$\{\d+:([^}]*)\}/g)].map((m) => m[1]!);
+        assert.ok(defaults.length > 0);
+        for (const d of defaults) assert.doesNotMatch(d, /\d/, `${item.label}: placeholder ${d} is no number`);
+        // The template as inserted (placeholders kept) must read as invalid, not as a measurement.
+        const inserted = text.replace(/\$\{\d+:([^}]*)\}/g, '$1');
+        const b = noteState(`# Run\n\n${inserted}\n`).report.blocks[0]!;
+        assert.equal(b.status, 'invalid', `${item.label} left as inserted`);
+      }
     });
 
     it('inserts plain text with the placeholders’ defaults for a client without snippet support', () => {
@@ -289,7 +302,7 @@ describe('completion', () => {
       }
       assert.equal(
         inserted(items[0]),
-        '```levels\nid: run\nsystem: 13C\nfield: 9.4 T\nlattice: 1.4 K\npolarization: 0.3\n```',
+        '```levels\nid: run name\nsystem: isotope\nfield: field with unit\nlattice: bath temperature with unit\npolarization: measured P\n```',
       );
     });
   });

@@ -52,7 +52,8 @@ describe('hover', () => {
           '| β | 178.2 ± 6.1 K⁻¹ |',
           '| P | 31.2 ± 1.0 % |',
           '| P\\_th at 1\\.4 K | 0.129 % |',
-          '| ε = P/P\\_th | 241 |',
+          // u(ε) = u(P)/P_th = 0.010 / 0.001294 = 7.7 by JCGM 100:2008 §5.1.2 (the lattice is exact here).
+          '| ε = P/P\\_th | 241.1 ± 7.7 |',
           '| S/(Nk) | 0.6437 |',
           '',
           'P = (n\\_lower − n\\_upper)/(n\\_lower + n\\_upper), levels ordered by energy; P > 0 at positive spin temperature, whatever the sign of γ.',
@@ -333,6 +334,91 @@ describe('hover', () => {
     it('is negative for an inverted pair', () => {
       const t = pairTemperature({ energy: 0, g: 1, population: 1 }, { energy: 10, g: 1, population: 2 });
       assert.ok(t.kind === 'value' && Math.abs(t.kelvin + 10 / Math.log(2)) < 1e-12, JSON.stringify(t));
+    });
+  });
+});
+
+describe('hover: what a practitioner reads', () => {
+  it('shows a level energy in the unit it was typed with every digit typed, not rounded to four', () => {
+    // 11502 cm⁻¹ typed; E/k = 11502 × 1.438776877 K = 16548.8 K (second radiation constant c₂ = hc/k, CODATA 2018).
+    check(
+      note(
+        'levels:',
+        '  - { label: x, energy: 0 cm-1, population: 0.7 }',
+        '  - { label: y, energy: 115$002 cm-1, population: 0.3 }',
+      ),
+      { range: [5, 24, 5, 34], includes: ['| E/hc | 11502 cm⁻¹ |', '| E/k | 16550 K |'] },
+    );
+    // The level's own hover, from the item's label, writes the energy back in cm⁻¹ as typed.
+    check(
+      note(
+        'levels:',
+        '  - { label: x, energy: 0 cm-1, population: 0.7 }',
+        '  - { la$0bel: y, energy: 11502 cm-1, population: 0.3 }',
+      ),
+      { range: [5, 4, 5, 53], includes: ['| E | 11502 cm⁻¹ = 16550 K |'] },
+    );
+  });
+
+  it('does not describe a block with only a time series by a temperature it does not have', () => {
+    const value = check(
+      note(
+        'id: decay only',
+        'series:',
+        '  model: decay',
+        '  time: [0 s, 10 s, 20 s, 30 s]',
+        '  signal: [1.0, 0.7$04, 0.55, 0.40]',
+      ),
+      { range: [2, 0, 8, 3], excludes: ['positive spin temperature', 'more population below'] },
+    );
+    assert.match(value, /— normal: the series was fitted; the block gives no temperature/);
+  });
+
+  it('calls the unweighted series scatter what it is, the residual standard error √(SSR/(n − p)), with its value', () => {
+    const times = [0, 10, 20, 30, 40];
+    const signal = [1.0, 0.74, 0.55, 0.4, 0.31];
+    const marked = note(
+      'series:',
+      '  model: decay',
+      `  time: [${times.map((t) => `${t} s`).join(', ')}]`,
+      `  signal: [${signal.join(', ')}]$0`,
+    );
+    const value = check(marked, { range: [2, 0, 7, 3], excludes: ['rms residual'] }).replace(/\\/g, '');
+    // Recomputed here from the fitted T₁ and S₀ the hover prints: S(t) = S₀ exp(−t/T₁), p = 2 parameters
+    // (definition of the residual standard error: e.g. NIST/SEMATECH e-Handbook of Statistical Methods §4.4.4).
+    const t1 = Number(/T₁ \(decay\) \| ([\d.]+) ± /.exec(value)![1]);
+    const s0 = Number(/\| S₀ \| ([\d.]+) ± /.exec(value)![1]);
+    const ssr = times.reduce((acc, t, i) => acc + (signal[i] - s0 * Math.exp(-t / t1)) ** 2, 0);
+    const expected = Math.sqrt(ssr / (times.length - 2));
+    const shown = Number(/residual standard error √\(SSR\/\(n − p\)\) = ([\d.]+)/.exec(value)![1]);
+    assert.ok(Math.abs(shown - expected) <= 0.05 * expected + 2e-4, `${shown} vs ${expected}`);
+  });
+
+  it('names every factor of the thermal-reference scale in plain words, the number of scans as “scans”', () => {
+    const value = check(
+      note(
+        'system: 13C',
+        'field: 3 T',
+        'lattice: 298 K',
+        'signal:',
+        '  hyperpolarized: 2.985e4',
+        '  thermal: 1.08e3',
+        '  scans: { hyperpolarized: 1, thermal: 2$056 }',
+      ),
+      { range: [2, 0, 10, 3], includes: ['scans·gain·sin θ·amount'] },
+    );
+    assert.doesNotMatch(value, /\bNS\b/);
+  });
+
+  it('suggests a lattice for P_th and ε only where a thermal polarization means something (spins)', () => {
+    check(note('system: 13C', 'field: 7.05 T', 'polarization: 0.3$01'), {
+      range: [2, 0, 6, 3],
+      includes: ['Add `lattice:` to get P\\_th and ε.'],
+    });
+    // An optical transition at 1064 nm: kT at any lab temperature is far below hν, P_th ≈ 1, ε meaningless.
+    check(note('gap: 1064 nm', 'populations: [0.7$0, 0.3]'), {
+      range: [2, 0, 5, 3],
+      excludes: ['lattice'],
     });
   });
 });

@@ -1,4 +1,6 @@
 import { strict as assert } from 'node:assert';
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { inlayHints } from '../../../src/server/features/inlayHints';
 import { DEFAULT_SETTINGS, type Settings } from '../../../src/shared/settings';
 import { CONTRACT, everything, note, noteState, settings } from '../helpers';
@@ -45,10 +47,11 @@ describe('inlay hints', () => {
   it('give each explicit level its n/g and, above the lowest, the pair temperature with the level below', () => {
     // Pair temperatures as in the hover test: 81.13 K (ground–A) and 196.8 K (A–B), shown with three digits.
     check(note(...LEVELS), [
-      [2, 9, 'T = 147 K · non-thermal'],
+      // Not one temperature: the hint does not show the fit's T as if it were one (the hover has the fit).
+      [2, 9, 'non-thermal, no single T'],
       [5, 63, 'n/g = 0.700'],
-      [6, 63, 'n/g = 0.0833 · T_pair = 81.1 K'],
-      [7, 63, 'n/g = 0.0100 · T_pair = 197 K'],
+      [6, 63, 'n/g = 0.0833 · T(A–ground) = 81.1 K'],
+      [7, 63, 'n/g = 0.0100 · T(B–A) = 197 K'],
     ]);
   });
 
@@ -62,12 +65,50 @@ describe('inlay hints', () => {
       ),
       [
         // T(a, b) = 10 K / ln(0.5/0.2) = 10.91 K; T(b, c) = 10 K / ln(0.2/0.3) = −24.66 K.
-        [2, 9, 'T = 39 K · non-thermal'],
+        [2, 9, 'non-thermal, no single T · inverted pair'],
         [4, 46, 'n/g = 0.500'],
-        [5, 47, 'n/g = 0.200 · T_pair = 10.9 K'],
-        [6, 47, 'n/g = 0.300 · T_pair = −24.7 K'],
+        [5, 47, 'n/g = 0.200 · T(b–a) = 10.9 K'],
+        [6, 47, 'n/g = 0.300 · T(c–b) = −24.7 K inverted'],
       ],
     );
+  });
+
+  it('say when n/g comes from populations normalised to sum 1', () => {
+    // Counts 600 and 400 of 1000: n/g = 0.6 and 0.4 after normalising (the sum, 1000, is not 1).
+    check(note('system: 1H', 'field: 9.4 T', 'populations: [600, 400]'), [
+      [2, 9, 'T = 47.4 mK · P = 20.0 %'],
+      [5, 17, 'n/g = 0.600 (normalised)'],
+      [5, 22, 'n/g = 0.400 (normalised)'],
+    ]);
+  });
+
+  it('keep the pair temperature when "normalised" would crowd it out, and say it on the lowest level', () => {
+    // The demo's reference lamp: populations 1.0, 2.93e-3, 5.20e-3 (sum 1.00813) over g = 2, 2, 4.
+    // T(P1/2–ground) = 12579 cm⁻¹ · c₂ / ln[(1.0/2)/(2.93e-3/2)] = 18098.4 K / 5.8329 = 3102.8 K → "3100 K"
+    // (c₂ = hc/k = 1.438776877 cm K, CODATA 2018; three significant digits).
+    check(
+      note(
+        'levels:',
+        '  - { label: ground, energy: 0 cm-1,     g: 2, population: 1.0 }',
+        '  - { label: P1/2,   energy: 12579 cm-1, g: 2, population: 2.93e-3 }',
+        '  - { label: P3/2,   energy: 12817 cm-1, g: 4, population: 5.20e-3 }',
+      ),
+      [
+        [2, 9, 'T = 3100.4 K'],
+        [4, 64, 'n/g = 0.496 (normalised)'],
+        [5, 68, 'n/g = 0.00145 · T(P1/2–ground) = 3100 K'],
+        [6, 68, 'n/g = 0.00129 · T(P3/2–P1/2) = 2870 K'],
+      ],
+    );
+  });
+
+  it('stay within 40 characters on every block of the demo notebook', () => {
+    // 40 characters: what an editor of ordinary width shows after a short line (common practice, no source).
+    for (const f of readdirSync('demo').filter((x) => x.endsWith('.md'))) {
+      const state = noteState(readFileSync(join('demo', f), 'utf8'), DEFAULT_SETTINGS);
+      for (const h of inlayHints(state, everything(state), DEFAULT_SETTINGS))
+        assert.ok([...(h.label as string)].length <= 40, `${f}: ${h.label as string}`);
+    }
   });
 
   it('put the hint of a populations list right after each value', () => {
@@ -93,8 +134,8 @@ describe('inlay hints', () => {
     check(
       text,
       [
-        [16, 63, 'n/g = 0.0833 · T_pair = 81.1 K'],
-        [17, 63, 'n/g = 0.0100 · T_pair = 197 K'],
+        [16, 63, 'n/g = 0.0833 · T(A–ground) = 81.1 K'],
+        [17, 63, 'n/g = 0.0100 · T(B–A) = 197 K'],
       ],
       DEFAULT_SETTINGS,
       range,

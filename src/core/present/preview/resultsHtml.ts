@@ -11,7 +11,7 @@ import {
   DEFAULT_DISPLAY,
   enhancementText,
   fractionText,
-  statusText,
+  statusWords,
   temperatureSymbol,
   withoutSymbol,
   polarizationText,
@@ -35,7 +35,7 @@ export function resultsHtml(b: PreviewBlock, o: DisplayOptions = DEFAULT_DISPLAY
   const error = b.problems.find((p) => p.severity === 'error');
   const status: Status = error || !b.results ? 'invalid' : b.results.status;
   const name = b.meta.id ?? 'levels block';
-  const head = `<p class="boltzmark-title"><strong>${escapeText(name)}</strong> — <span class="boltzmark-status boltzmark-status-${status}">${escapeText(statusText(status, b.results))}</span></p>`;
+  const head = `<p class="boltzmark-title"><strong>${escapeText(name)}</strong> — <span class="boltzmark-status boltzmark-status-${status}">${escapeText(statusWords(status, b.results))}</span></p>`;
   if (error || !b.results) {
     const msg = error ? `<code>${escapeText(error.code)}</code>: ${escapeText(error.message)}` : 'no results';
     return `<div class="boltzmark-results">${head}<p class="boltzmark-error">${msg}</p></div>`;
@@ -67,7 +67,7 @@ function tableRows(b: PreviewBlock, r: BlockResults, o: DisplayOptions): [string
         { ...o, digits: Math.min(o.digits, 3) },
       ),
     ]);
-  if (r.enhancement !== null) rows.push(['ε', enhancementText(r.enhancement, o)]);
+  if (r.enhancement !== null) rows.push(['ε', enhancementText(r.enhancement, o, r.enhancementUncertainty)]);
   if (r.entropy !== null) rows.push(['S/(Nk)', formatNumber(r.entropy, o.digits)]);
   if (r.fit)
     rows.push([
