@@ -47,51 +47,25 @@ const common = {
   legalComments: 'linked',
 };
 
-const contexts = [];
-for (const e of nodeEntries) {
-  contexts.push(
-    await esbuild.context({
-      ...common,
-      entryPoints: [{ in: e.in, out: e.out }],
-      outdir: '.',
-      platform: 'node',
-      target: 'node20',
-      format: 'cjs',
-      external: ['vscode'],
-      banner: e.banner ? { js: e.banner } : undefined,
-      plugins: e.plugins ?? [],
-    }),
-  );
-}
-for (const e of webEntries) {
-  contexts.push(
-    await esbuild.context({
-      ...common,
-      entryPoints: [{ in: e.in, out: e.out }],
-      outdir: '.',
-      platform: 'browser',
-      target: 'es2022',
-      format: 'iife',
-    }),
-  );
-}
+/** esbuild options per kind of bundle; each entry adds only what is its own. */
+const NODE = { platform: 'node', target: 'node20', format: 'cjs', external: ['vscode'] };
+const PAGE = { platform: 'browser', target: 'es2022', format: 'iife' };
+const BROWSER = {
+  platform: 'browser',
+  target: 'es2022',
+  // The language packages read `process.env` in a few debug paths; a browser has none.
+  define: { 'process.env.NODE_ENV': production ? '"production"' : '"development"' },
+  plugins: [browserDocsLink],
+};
 
-for (const e of browserEntries) {
-  contexts.push(
-    await esbuild.context({
-      ...common,
-      entryPoints: [{ in: e.in, out: e.out }],
-      outdir: '.',
-      platform: 'browser',
-      target: 'es2022',
-      format: e.format,
-      external: e.external ?? [],
-      // The language packages read `process.env` in a few debug paths; a browser has none.
-      define: { 'process.env.NODE_ENV': production ? '"production"' : '"development"' },
-      plugins: [browserDocsLink],
-    }),
-  );
-}
+const contexts = [];
+const builds = [
+  ...nodeEntries.map((e) => ({ ...NODE, in: e.in, out: e.out, plugins: e.plugins ?? [] })),
+  ...webEntries.map((e) => ({ ...PAGE, in: e.in, out: e.out })),
+  ...browserEntries.map((e) => ({ ...BROWSER, in: e.in, out: e.out, format: e.format, external: e.external ?? [] })),
+];
+for (const { in: entry, out, ...options } of builds)
+  contexts.push(await esbuild.context({ ...common, ...options, entryPoints: [{ in: entry, out }], outdir: '.' }));
 
 if (watch) {
   await Promise.all(contexts.map((c) => c.watch()));
