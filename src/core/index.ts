@@ -15,6 +15,7 @@ export {
 } from './analyzer/analyzer';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
+export { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from './block/externals';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {

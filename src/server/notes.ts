@@ -6,7 +6,7 @@
  * results are shown never cause a new analysis.
  */
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import { Analyzer, LineIndex, type AnalyzerLimits } from '../core';
+import { Analyzer, dependenciesHold, LineIndex, type AnalyzerLimits, type Dependency, type Externals } from '../core';
 import type { AnalysisStats } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
 import { analysisKey } from './settingsStore';
@@ -31,8 +31,17 @@ function analyzerFor(s: Settings): Analyzer {
 
 /** Cache of note analyses, keyed by URI, version and analysis settings. */
 export class Notes {
+  /**
+   * @param externalsFor the sources a note's blocks may read values from by reference (spectrum files, other
+   *   runs; see src/server/externals.ts), or null where there are none
+   */
+  constructor(private readonly externalsFor: (uri: string) => Externals | null = () => null) {}
+
   private readonly analyzers = new Map<string, Analyzer>();
-  private readonly states = new Map<string, { state: NoteState; key: string }>();
+  private readonly states = new Map<
+    string,
+    { state: NoteState; key: string; deps: readonly Dependency[]; externals: Externals | null }
+  >();
   private readonly stats = new Map<string, AnalysisStats>();
   private readonly runs = new Map<string, number>();
 
@@ -40,13 +49,20 @@ export class Notes {
   get(doc: TextDocument, settings: Settings): NoteState {
     const key = analysisKey(settings);
     const known = this.states.get(doc.uri);
-    if (known && known.state.version === doc.version && known.key === key) return known.state;
+    if (
+      known &&
+      known.state.version === doc.version &&
+      known.key === key &&
+      dependenciesHold(known.deps, doc.uri, known.externals)
+    )
+      return known.state;
     const text = doc.getText();
-    const report = this.analyzer(key, settings).analyzeText(text);
+    const externals = this.externalsFor(doc.uri);
+    const report = this.analyzer(key, settings).analyzeText(text, externals);
     const state: NoteState = { uri: doc.uri, version: doc.version, text, lines: new LineIndex(text), report };
     const runs = (this.runs.get(doc.uri) ?? 0) + 1;
     this.runs.set(doc.uri, runs);
-    this.states.set(doc.uri, { state, key });
+    this.states.set(doc.uri, { state, key, deps: allDependencies(report.blocks), externals });
     this.stats.set(doc.uri, { version: doc.version, blocks: report.blocks.length, runs, ...report.stats });
     return state;
   }
@@ -73,4 +89,11 @@ export class Notes {
     }
     return a;
   }
+}
+
+/** Every dependency of a note's blocks, each key once (most notes have none). */
+function allDependencies(blocks: readonly { readonly deps: readonly Dependency[] }[]): readonly Dependency[] {
+  const seen = new Map<string, Dependency>();
+  for (const b of blocks) for (const d of b.deps) if (!seen.has(d.key)) seen.set(d.key, d);
+  return [...seen.values()];
 }

@@ -7,6 +7,7 @@ import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from '../anal
 import type { BlockResults } from '../analysis/results';
 import type { BlockInput, BlockMeta } from '../block/input';
 import { interpretBody } from '../block/interpret';
+import { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from '../block/externals';
 import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory } from './rescanPlan';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
@@ -61,6 +62,8 @@ export interface BlockReport {
   readonly status: Status;
   /** Every problem of the block, sorted by position, with note offsets. */
   readonly problems: readonly Problem[];
+  /** What the block took from outside its text (spectrum files, other runs); empty for most blocks. */
+  readonly deps: readonly Dependency[];
   /** Maps a body-relative span (as in `meta` and `results`) to note offsets. */
   toNote(span: Span): Span;
 }
@@ -86,6 +89,9 @@ interface Cached {
   readonly results: BlockResults | null;
   /** Body-relative problems. */
   readonly problems: readonly Problem[];
+  /** What the analysis read from outside the block, and for which note (null when nothing was read). */
+  readonly deps: readonly Dependency[];
+  readonly readFor: string | null;
 }
 
 /** A fence as remembered between analyses. */
@@ -122,8 +128,13 @@ export class Analyzer {
    * the work differs: unchanged blocks come from the cache, and a note
    * analysed recently is scanned again only from its last fence before the
    * change to its first fence after it.
+   *
+   * `externals` are the note's sources for values given by reference
+   * (block/externals.ts). A block that read from them is reused only while
+   * what it read is unchanged, so calling this again with the same text
+   * after a referenced file or run changed reads exactly those blocks again.
    */
-  analyzeText(text: string): DocumentReport {
+  analyzeText(text: string, externals: Externals | null = null): DocumentReport {
     const { maxBlocks, maxBodyChars } = this.options.limits;
     const generation = ++this.generation;
     const reuse = planReuse(this.notes, text);
@@ -132,8 +143,11 @@ export class Analyzer {
     let analysed = 0;
     let bodyChars = 0;
     let bounded: Bounded | null = null;
+    // A remembered fence holds while what its block read from outside is unchanged.
+    const stillHolds = (f: Fence): boolean => !f.entry || dependenciesHold(f.entry.deps, f.entry.readFor, externals);
     // Takes one fence into the analysis; false when a bound stops it there (our blocks only).
-    const admit = (f: Fence): boolean => {
+    const admit = (given: Fence): boolean => {
+      const f = stillHolds(given) ? given : this.reread(given, externals, () => analysed++);
       if (f.report !== null) {
         bodyChars += f.report.block.body.length;
         if (blocks.length >= maxBlocks || bodyChars > maxBodyChars) {
@@ -175,9 +189,9 @@ export class Analyzer {
         // made before the lookup, so that its hash, computed once by the lookup, serves the insertion too.
         const body = ownCopy(block.body);
         let entry = this.cache.get(body);
-        if (!entry) {
+        if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
           analysed++;
-          entry = this.analyseBody(body);
+          entry = this.analyseBody(body, externals);
           this.cache.set(body, entry);
         }
         open = admit({ openStart: block.openStart, openLine: block.openLine, report: report(block, entry), entry });
@@ -188,6 +202,21 @@ export class Analyzer {
     if (this.cache.size > this.options.cacheSize) this.evict();
     const problems = bounded ? [boundedProblem(text, bounded, this.options.limits)] : [];
     return { blocks, stats: { analysed, reused: blocks.length - analysed }, bounded, problems };
+  }
+
+  /**
+   * A remembered block whose outside inputs changed, read again at the same place (the cache entry too,
+   * unless the cache already holds a reading that still holds).
+   */
+  private reread(f: Fence, externals: Externals | null, counted: () => void): Fence {
+    const body = f.entry!.body;
+    let entry = this.cache.get(body);
+    if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
+      counted();
+      entry = this.analyseBody(body, externals);
+      this.cache.set(body, entry);
+    }
+    return { openStart: f.openStart, openLine: f.openLine, report: report(f.report!.block, entry), entry };
   }
 
   /** Keeps the note just analysed in place of the version it was read from (or of the oldest note). */
@@ -209,14 +238,16 @@ export class Analyzer {
   }
 
   /** Reads and analyses one block body; never throws (an internal failure becomes a problem). */
-  analyseBody(body: string): Cached {
+  analyseBody(body: string, externals: Externals | null = null): Cached {
     try {
-      const interp = interpretBody(body);
+      const interp = interpretBody(body, externals);
       const results = interp.input ? analyse(interp.input, this.options) : null;
       const all = [...interp.problems, ...(results?.problems ?? [])];
       const problems =
         all.length > 1 ? all.sort((a, b) => a.span.start - b.span.start) : all.length === 1 ? all : NO_PROBLEMS;
-      return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems };
+      const deps = interp.deps;
+      const readFor = deps.length > 0 && externals ? externals.note : null;
+      return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems, deps, readFor };
     } catch (err) {
       const problem: Problem = {
         severity: 'error',
@@ -231,6 +262,8 @@ export class Analyzer {
         input: null,
         results: null,
         problems: [problem],
+        deps: NO_DEPENDENCIES,
+        readFor: null,
       };
     }
   }
@@ -319,6 +352,7 @@ function report(found: FencedBlock, c: Cached): BlockReport {
     results: hasError ? null : c.results,
     status,
     problems,
+    deps: c.deps,
     toNote: reportToNote,
   };
 }
