@@ -7,6 +7,7 @@ import type { SpinSpecies } from '../quantities/isotopes';
 import type { Span } from '../types';
 import type { BlockForm } from './schema';
 import type { ReadValue } from './values';
+import type { RunRef } from '../runs/types';
 
 /** One level of the scheme. */
 export interface LevelInput {
@@ -166,6 +167,8 @@ export interface BlockMeta {
   readonly keys: ReadonlyMap<string, { key: Span; value: Span }>;
   /** The block's `date` as written (free text), or null. */
   readonly date: string | null;
+  /** The runs the block refers to (`{ run: … }`), with body-relative spans; absent or empty when none. */
+  readonly refs?: readonly RunRef[];
 }
 
 /** What one form's reader returns; the block reader adds the keys common to all forms. */
