@@ -101,6 +101,13 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
     example: '',
   },
   {
+    key: 'extrapolate',
+    form: 'any',
+    summary:
+      'Carry the polarization from the time it was measured (`from`) to another (`to`) along a decay of time constant `decay` (T₁, typed or `{ run: <decay run> }`): result `polarizationAt`.',
+    example: '{ from: 42 s, to: 0 s, decay: 47.9 ± 1.2 s }',
+  },
+  {
     key: 'series',
     form: 'any',
     summary:

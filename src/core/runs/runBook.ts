@@ -433,10 +433,18 @@ export class RunBook implements RunResolver {
     return hash(parts.join('\n'));
   }
 
+  /** The notes holding a block with `id` (one entry per block), sorted: what an `id-duplicate` message says. */
   private copiesStamp(id: string): string | null {
     const list = this.byId.get(id);
     if (!list || list.length === 0) return null;
-    return hash(list.map((b) => `${b.note}:${b.place?.span.start ?? -1}:${b.place?.line ?? -1}`).join('\n'));
+    return list.length === 1
+      ? '1'
+      : hash(
+          list
+            .map((b) => b.note)
+            .sort()
+            .join('\n'),
+        );
   }
 
   /** The ids closest to `id` (for "did you mean"), nearest first, at most five. */
