@@ -34,7 +34,7 @@ export function resolveNotePath(from: string, relative: string): string {
   const uri = isUri(from);
   const rel = relative.replace(/\\/g, '/');
   let prefix = '';
-  let path = from;
+  let path: string;
   if (uri) {
     const m = /^([a-z][a-z0-9+.-]*:(?:\/\/[^/]*)?)(.*)$/i.exec(from.split(/[?#]/)[0]!)!;
     prefix = m[1]!;
