@@ -9,6 +9,7 @@ import {
   CodeLensRefreshRequest,
   DidChangeConfigurationNotification,
   DidChangeWatchedFilesNotification,
+  ResponseError,
   FileChangeType,
   WatchKind,
   DocumentDiagnosticReportKind,
@@ -33,7 +34,7 @@ import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
 import { documentSymbols, flatSymbols } from './features/symbols';
 import { Notes } from './notes';
-import { WorkspaceRuns } from './runs/workspaceRuns';
+import { WorkspaceRuns, type NoteFiles } from './runs/workspaceRuns';
 import {
   runCompletion,
   runDefinition,
@@ -56,8 +57,11 @@ const RUNS_CHANGED = '\u0000runs';
 /** Pause after the last keystroke before pushed diagnostics are sent. */
 const PUSH_DELAY_MS = 200;
 
-/** Starts serving on a connection (stdio, IPC or socket: the connection decides). */
-export function startServer(connection: Connection): void {
+/**
+ * Starts serving on a connection (stdio, IPC or socket: the connection decides). `files` reads the notes of the
+ * workspace folders that are not open (for runs by reference); without it only the open notes are indexed.
+ */
+export function startServer(connection: Connection, files: NoteFiles | null = null): void {
   // stdout may be the protocol channel: route console output to the client's log instead.
   console.log = connection.console.log.bind(connection.console);
   console.info = connection.console.info.bind(connection.console);
@@ -70,7 +74,7 @@ export function startServer(connection: Connection): void {
   const notes = new Notes((uri) => (externalParts.length > 0 ? noteExternals(uri, externalParts) : null));
   const pushes = new Debouncer(PUSH_DELAY_MS);
   // Every run of the workspace, for `{ run: … }` references; a change re-publishes the notes that used it.
-  const runs = new WorkspaceRuns(() => pushes.schedule(RUNS_CHANGED, () => republishStale()));
+  const runs = new WorkspaceRuns(() => pushes.schedule(RUNS_CHANGED, () => republishStale()), files);
   externalParts.push(runs);
   let caps: ClientCaps = clientCaps(undefined);
   const log = (message: string): void => connection.console.warn(message);
@@ -99,6 +103,8 @@ export function startServer(connection: Connection): void {
       if (!n || token?.isCancellationRequested) return empty;
       return fn(n.state, n.settings);
     } catch (err) {
+      // A refusal meant for the user (an id a rename cannot take) goes back as the request's error.
+      if (err instanceof ResponseError) throw err;
       connection.console.error(`boltzmark: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`);
       return empty;
     }
@@ -287,7 +293,7 @@ export function startServer(connection: Connection): void {
   );
   connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
   connection.onCompletion((p, token) =>
-    serve(
+    serveRuns(
       p.textDocument.uri,
       token,
       [],

@@ -11,23 +11,27 @@
  * character but the unreserved ones percent-encoded in each path segment),
  * which is also how the core spells a note a reference names.
  */
-import { promises as fs, readFileSync, statSync } from 'node:fs';
-import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { Analyzer, isInside, LineIndex, RunBook, type RunResolver } from '../../core';
 import type { ExternalPart } from '../externals';
 import { SERVER_LIMITS } from '../notes';
 
 /** Note files the index reads. */
-const NOTE_FILE = /\.(md|markdown)$/i;
-/** Folders never walked. */
-const SKIPPED_FOLDER = /^(node_modules|\.git|\.hg|\.svn)$/;
-/** A note file larger than this is not indexed (the server's own bound on a note is 2 M characters). */
-const MAX_NOTE_BYTES = 4_000_000;
-/** At most this many notes are indexed per workspace. */
-const MAX_NOTES = 50_000;
+export const NOTE_FILE = /\.(md|markdown)$/i;
 /** Files read at once while the folders are walked. */
 const READ_BATCH = 32;
+
+/**
+ * How the index reads notes that are not open: from disk where the server runs on Node.js (see
+ * diskNotes.ts); a server without a file system (in a browser) has none and indexes the open notes only.
+ */
+export interface NoteFiles {
+  /** Every note file (by URI) under a folder URI. */
+  list(folder: string): Promise<string[]>;
+  /** A note's text, or null when it is missing, too large or unreadable. */
+  read(uri: string): Promise<string | null>;
+  /** The same, at once (for a reference to a note the walk has not reached yet). */
+  readNow(uri: string): string | null;
+}
 
 /** A file URI as VS Code spells it (and as the core's note paths are spelled). */
 export function fileUri(path: string): string {
@@ -42,16 +46,6 @@ export function fileUri(path: string): string {
       .map((s) => encodeURIComponent(s).replace(/[!'()*]/g, (c) => '%' + c.charCodeAt(0).toString(16).toUpperCase()))
       .join('/')
   );
-}
-
-/** The path of a `file:` URI, or null for another scheme. */
-export function uriPath(uri: string): string | null {
-  if (!uri.startsWith('file:')) return null;
-  try {
-    return fileURLToPath(uri);
-  } catch {
-    return null;
-  }
 }
 
 /** True when the URI names a note the index reads. */
@@ -75,6 +69,7 @@ export class WorkspaceRuns implements ExternalPart {
 
   constructor(
     private readonly changed: IndexListener,
+    private readonly files: NoteFiles | null,
     analyzer: Analyzer = new Analyzer({ limits: SERVER_LIMITS }),
   ) {
     this.book = new RunBook({ analyzer, load: (note) => this.loadNow(note) });
@@ -152,7 +147,7 @@ export class WorkspaceRuns implements ExternalPart {
 
   /** Reads a note again from disk (after a file event or when it was closed). */
   private async reread(uri: string): Promise<void> {
-    const text = this.inFolders(uri) ? await readNote(uri) : null;
+    const text = this.inFolders(uri) && this.files ? await this.files.read(uri) : null;
     if (this.open.has(uri)) return; // opened meanwhile: the editor's text wins
     if (text === null) {
       if (!this.book.hasNote(uri)) return;
@@ -180,32 +175,23 @@ export class WorkspaceRuns implements ExternalPart {
 
   /** A note a reference names that the index does not hold yet (the walk is not over): read now, in the folders only. */
   private loadNow(note: string): string | null {
-    if (!this.inFolders(note) || !isNoteUri(note)) return null;
-    const path = uriPath(note);
-    if (path === null) return null;
-    try {
-      if (statSync(path).size > MAX_NOTE_BYTES) return null;
-      const text = readFileSync(path, 'utf8');
-      this.texts.set(note, { text, lines: null });
-      return text;
-    } catch {
-      return null;
-    }
+    if (!this.files || !this.inFolders(note) || !isNoteUri(note)) return null;
+    const text = this.files.readNow(note);
+    if (text !== null) this.texts.set(note, { text, lines: null });
+    return text;
   }
 
   private async walkAll(scan: number): Promise<void> {
+    const files = this.files;
+    if (!files) return;
     const found: string[] = [];
-    for (const f of this.folders) {
-      const root = uriPath(f);
-      if (root !== null) await walk(root, found);
-    }
+    for (const f of this.folders) found.push(...(await files.list(f)));
     const set: string[] = [];
     for (let i = 0; i < found.length; i += READ_BATCH) {
       if (scan !== this.scans) return; // the folders changed: a newer walk takes over
       const batch = found.slice(i, i + READ_BATCH);
-      const texts = await Promise.all(batch.map((p) => readNote(fileUri(p))));
-      batch.forEach((p, k) => {
-        const uri = fileUri(p);
+      const texts = await Promise.all(batch.map((u) => files.read(u)));
+      batch.forEach((uri, k) => {
         const text = texts[k];
         if (text === null || text === undefined || this.open.has(uri)) return;
         if (this.texts.get(uri)?.text === text && this.book.hasNote(uri)) return;
@@ -214,34 +200,5 @@ export class WorkspaceRuns implements ExternalPart {
       });
     }
     if (set.length > 0) this.changed(set);
-  }
-}
-
-/** Every note file under a folder (depth first, hidden and dependency folders skipped), at most MAX_NOTES. */
-async function walk(dir: string, out: string[]): Promise<void> {
-  let entries: import('node:fs').Dirent[];
-  try {
-    entries = await fs.readdir(dir, { withFileTypes: true });
-  } catch {
-    return;
-  }
-  for (const e of entries) {
-    if (out.length >= MAX_NOTES) return;
-    if (e.isDirectory()) {
-      if (!SKIPPED_FOLDER.test(e.name) && !e.name.startsWith('.')) await walk(join(dir, e.name), out);
-    } else if (e.isFile() && NOTE_FILE.test(e.name)) out.push(join(dir, e.name));
-  }
-}
-
-/** A note's text from disk, or null when it is missing, too large or unreadable. */
-async function readNote(uri: string): Promise<string | null> {
-  const path = uriPath(uri);
-  if (path === null) return null;
-  try {
-    const st = await fs.stat(path);
-    if (!st.isFile() || st.size > MAX_NOTE_BYTES) return null;
-    return await fs.readFile(path, 'utf8');
-  } catch {
-    return null;
   }
 }
