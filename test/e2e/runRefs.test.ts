@@ -1,0 +1,146 @@
+import { strict as assert } from 'node:assert';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import * as host from '../../scripts/editorHost.cjs';
+import { shot, startSession, type Session } from './session';
+import {
+  clean,
+  editor,
+  focusEditor,
+  line,
+  openFromExplorer,
+  runCommand,
+  waitNoProblem,
+  waitProblems,
+  wordBox,
+} from './workbench';
+
+// Runs by reference in a real VS Code: three notes of a folder written into the session's workspace (invented
+// numbers; the physics is tested in test/core/runs/physics.test.ts). The reference note is never opened
+// before F12 leads to it.
+const fence = (body: string): string => '```levels\n' + body + '\n```\n';
+const REF_NOTE =
+  '# Thermal reference\n\n' +
+  fence(`id: e2e ref Monday
+date: 2026-04-12
+system: 13C
+field: 9.4 T
+lattice: 298 K
+signal:
+  thermal: 1.08e3
+  scans: { thermal: 256 }
+  noise: { thermal: 12 }`);
+const runNote = (id: string, ref: string): string =>
+  `# ${id}\n\n` +
+  fence(`id: ${id}
+system: 13C
+field: 9.4 T
+signal:
+  hyperpolarized: 2.985e4
+  thermal: { run: ${ref} }
+  flip: { hyperpolarized: 5 deg }`);
+
+/** Clicks into a word of a view line of the main editor (its middle), putting the cursor there. */
+async function clickWord(page: Page, lineStart: string, word: string): Promise<void> {
+  let box = null;
+  for (let i = 0; i < 20 && !box; i++) {
+    box = await wordBox(page, lineStart, word);
+    if (!box) await page.waitForTimeout(250);
+  }
+  assert.ok(box, `"${word}" is on screen`);
+  await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+}
+
+function runRefSteps(version: host.Version): void {
+  describe(`Boltzmark runs by reference across notes (e2e, ${host.TITLES[version]})`, function () {
+    this.timeout(120000);
+    let s: Session;
+    let page: Page;
+
+    before(async function () {
+      this.timeout(15 * 60 * 1000);
+      s = await startSession({ name: 'runrefs', version });
+      page = s.page;
+      const dir = join(s.workspace, 'day');
+      mkdirSync(dir, { recursive: true });
+      writeFileSync(join(dir, 'reference.md'), REF_NOTE);
+      writeFileSync(join(dir, 'run-1.md'), runNote('e2e run 1', 'reference.md#e2e ref Monday'));
+      writeFileSync(join(dir, 'run-2.md'), runNote('e2e run 2', 'e2e ref Monday'));
+      await page.locator('.pane-header', { hasText: /levels run log/i }).waitFor();
+      // The folder appears in the Explorer once the file watcher saw it.
+      const folder = page.locator('.explorer-folders-view .monaco-list-row[aria-label="day"]');
+      await folder.waitFor({ timeout: 60000 });
+      await folder.click();
+    });
+
+    afterEach(async function () {
+      if (this.currentTest?.state === 'failed' && page)
+        await shot(page, `failed-refs-${this.currentTest.title.slice(0, 40).replace(/[^\w]+/g, '-')}`).catch(
+          () => undefined,
+        );
+    });
+
+    after(async () => {
+      await s?.close();
+    });
+
+    it('goes to the referenced run in another note with F12', async () => {
+      await openFromExplorer(page, 'run-1.md', '# e2e run 1');
+      await clickWord(page, '  thermal: { run: ', 'Monday');
+      await page.keyboard.press('F12');
+      await page.locator('.tabs-container .tab.active', { hasText: 'reference.md' }).waitFor();
+      // The cursor stands on the id line of the reference block (line 3 of its note).
+      await editor(page).locator('.line-numbers.active-line-number', { hasText: /^4$/ }).waitFor();
+      assert.match(clean(await line(page, 'id: ').innerText()), /id: e2e ref Monday/);
+    });
+
+    it('finds the references to the run in both notes', async () => {
+      await clickWord(page, 'id: ', 'Monday');
+      await page.keyboard.press('Shift+F12');
+      const peek = page.locator('.zone-widget .ref-tree');
+      await peek.waitFor();
+      // The peek's tree names each note with its references.
+      for (const name of ['run-1.md', 'run-2.md'])
+        await page.locator('.zone-widget .ref-tree .monaco-list-row', { hasText: name }).first().waitFor();
+      await page.keyboard.press('Escape');
+    });
+
+    it('renames the run and every reference, after the preview is accepted', async () => {
+      await clickWord(page, 'id: ', 'Monday');
+      await page.keyboard.press('F2');
+      const input = page.locator('.rename-box input, .rename-box .rename-input').first();
+      await input.waitFor();
+      await input.fill('e2e ref Mon 12 Apr');
+      // Shift+Enter asks for the preview; the edit also asks for confirmation itself.
+      await page.keyboard.press('Shift+Enter');
+      const apply = page.locator('.monaco-button', { hasText: /^Apply$/ }).first();
+      await apply.waitFor({ timeout: 30000 });
+      // Nothing changed before the preview is accepted.
+      assert.match(clean(await line(page, 'id: ').innerText()), /id: e2e ref Monday$/);
+      await apply.click();
+      await line(page, 'id: e2e ref Mon 12 Apr').waitFor();
+      await openFromExplorer(page, 'run-2.md', '# e2e run 2');
+      await line(page, 'thermal: { run: e2e ref Mon 12 Apr }').waitFor();
+      await openFromExplorer(page, 'run-1.md', '# e2e run 1');
+      await line(page, 'thermal: { run: reference.md#e2e ref Mon 12 Apr }').waitFor();
+      await runCommand(page, 'File: Save All');
+    });
+
+    it('shows an error in a referring note when the referenced block breaks', async () => {
+      await openFromExplorer(page, 'reference.md', '# Thermal reference');
+      await clickWord(page, '  thermal: ', '1.08e3');
+      // Select the whole value and replace it with text that is not a number.
+      await page.keyboard.press('Home');
+      await page.keyboard.press('Shift+End');
+      await page.keyboard.type('  thermal: lots');
+      await runCommand(page, 'View: Focus Problems (Errors, Warnings, Infos)');
+      await waitProblems(page, [['reference-invalid', 'e2e ref Mon 12 Apr']]);
+      await focusEditor(page);
+      await page.keyboard.press('Control+z');
+      await waitNoProblem(page, 'reference-invalid');
+    });
+  });
+}
+
+for (const version of host.versionsToTest()) runRefSteps(version);
