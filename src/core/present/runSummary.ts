@@ -9,7 +9,7 @@ import type { BlockResults } from '../analysis/results';
 import type { BlockInput } from '../block/input';
 import type { RunPlace } from '../runs/types';
 import type { DisplayOptions } from './displayOptions';
-import { formatFraction, formatMeasured, formatNumber } from './numbers';
+import { formatFraction, formatMeasured, formatPlainNumber } from './numbers';
 
 type Row = readonly [string, string];
 
@@ -45,7 +45,7 @@ export function thermalReferenceText(r: BlockResults): string | null {
 export function polarizationAtText(r: BlockResults, o: Pick<DisplayOptions, 'digits' | 'percent'>): string | null {
   const at = r.polarizationAt;
   if (!at) return null;
-  return `P(${formatNumber(at.time, 4)} s) = ${formatFraction(at.value, at.uncertainty, { digits: o.digits, percent: o.percent })}`;
+  return `P(${formatPlainNumber(at.time)} s) = ${formatFraction(at.value, at.uncertainty, { digits: o.digits, percent: o.percent })}`;
 }
 
 /** Rows for the referenced values and the extrapolation (hover, preview, copied results); empty when none. */
@@ -62,14 +62,14 @@ export function referenceRows(input: BlockInput | null, r: BlockResults, o: Disp
   if (at) {
     const x = input?.extrapolate ?? null;
     rows.push([
-      `P at ${formatNumber(at.time, 4)} s`,
+      `P at ${formatPlainNumber(at.time)} s`,
       formatFraction(at.value, at.uncertainty, { digits: o.digits, percent: o.percent }),
     ]);
     const t1 = `${formatMeasured(at.decay.value, at.decay.uncertainty, { digits: o.digits })} s`;
     const run = x?.decayRun
       ? ` (decay run: ${runLabel(x.decayRun.id, x.decayRun.date)}, ${runPlaceText(x.decayRun.place)})`
       : '';
-    rows.push(['extrapolation', `from ${formatNumber(at.from, 4)} s along exp((from − to)/T₁), T₁ = ${t1}${run}`]);
+    rows.push(['extrapolation', `from ${formatPlainNumber(at.from)} s along exp((from − to)/T₁), T₁ = ${t1}${run}`]);
   }
   return rows;
 }
