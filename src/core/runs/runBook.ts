@@ -116,7 +116,11 @@ export class RunBook implements RunResolver {
     this.load = options.load ?? null;
   }
 
-  /** Sets (or replaces) a note's text; the host's version wins over one read through `load`. */
+  /**
+   * Sets (or replaces) a note's text; the host's version wins over one read through `load`. A host sets a
+   * note's current text before it analyses the note with {@link externalsFor}: the book tells a block from
+   * the others (and finds the cycles through it) by its body in the note as set.
+   */
   setNote(note: string, text: string): void {
     this.drop(note);
     this.index(note, text, false);
@@ -165,6 +169,28 @@ export class RunBook implements RunResolver {
   target(from: string, ref: { readonly note: string | null; readonly id: string }): BookBlock | null {
     const r = this.locate(from, ref);
     return r.kind === 'found' ? r.block : null;
+  }
+
+  /** Every reference written in a note, in order, with note offsets. */
+  references(note: string): BookReference[] {
+    const out: BookReference[] = [];
+    for (const b of this.blocksOf(note))
+      for (const ref of b.refs)
+        out.push({ from: b, ref, span: toNote(b.block, ref.span), idSpan: toNote(b.block, ref.idSpan) });
+    return out;
+  }
+
+  /** The reference whose value holds the note offset (ends included, as a cursor sees it), or null. */
+  referenceAt(note: string, offset: number): BookReference | null {
+    for (const r of this.references(note)) if (offset >= r.span.start && offset <= r.span.end) return r;
+    return null;
+  }
+
+  /** The block whose `id` value holds the note offset (ends included), or null. */
+  idAt(note: string, offset: number): BookBlock | null {
+    for (const b of this.blocksOf(note))
+      if (b.place && offset >= b.place.span.start && offset <= b.place.span.end) return b;
+    return null;
   }
 
   /** Every reference, in every note of the book, that leads to `target`. */
