@@ -180,6 +180,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     severity: 'error',
     summary: 'The referenced block has an error (named, with where it is) and gives no value.',
   },
+  'reference-chain': {
+    severity: 'error',
+    summary: 'A run at the start of a chain of references more than 32 runs deep (named by `reference-invalid`).',
+  },
   'reference-kind': {
     severity: 'error',
     summary: 'The referenced block lacks the quantity (a thermal signal, a fitted decay).',

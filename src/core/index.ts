@@ -30,8 +30,17 @@ export {
   type RunResolver,
   type PolarizationAt,
 } from './runs/types';
-export { RunBook, type RunBookOptions, type RunExternals, type BookBlock, type BookReference } from './runs/runBook';
+export {
+  RunBook,
+  MAX_CHAIN,
+  type RunBookOptions,
+  type RunExternals,
+  type BookBlock,
+  type BookReference,
+} from './runs/runBook';
 export { splitReference, resolveNotePath, isInside } from './runs/paths';
+export { EXTRAPOLATE_KEYS } from './block/extrapolate';
+export { runLabel, runPlaceText, thermalReferenceText, polarizationAtText } from './present/runSummary';
 export { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from './block/externals';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';

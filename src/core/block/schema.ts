@@ -97,7 +97,7 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
     key: 'signal',
     form: 'spin',
     summary:
-      'Signal against a thermal reference: `hyperpolarized`, `thermal`, and optional `scans`, `flip`, `gain`, `amount`, `noise` (each `{ hyperpolarized, thermal }`).',
+      'Signal against a thermal reference: `hyperpolarized`, `thermal` (a number, or `{ run: <id> }` to take it from a thermal reference run), and optional `scans`, `flip`, `gain`, `amount`, `noise` (each `{ hyperpolarized, thermal }`). Without `hyperpolarized` the block is a thermal reference itself.',
     example: '',
   },
   {

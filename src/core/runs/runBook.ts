@@ -34,6 +34,9 @@ import {
   type RunResolver,
 } from './types';
 
+/** The longest chain of references a run may stand at the start of: each link is evaluated inside the next. */
+export const MAX_CHAIN = 32;
+
 /** The `Externals` a book hands to the analyzer for one note. */
 export interface RunExternals extends Externals {
   readonly runs: RunResolver;
@@ -109,6 +112,9 @@ export class RunBook implements RunResolver {
   private generation = 0;
   private readonly stamps = new Map<string, string | null>();
   private stampsFor = -1;
+  /** Chain lengths known since the last change: exact, or "longer than `above`". */
+  private readonly chains = new Map<BookBlock, { exact?: number; above?: number }>();
+  private chainsFor = -1;
 
   constructor(options: RunBookOptions = {}) {
     this.analyzer = options.analyzer ?? new Analyzer({ infoStrings: options.infoStrings ?? [] });
@@ -116,7 +122,11 @@ export class RunBook implements RunResolver {
     this.load = options.load ?? null;
   }
 
-  /** Sets (or replaces) a note's text; the host's version wins over one read through `load`. */
+  /**
+   * Sets (or replaces) a note's text; the host's version wins over one read through `load`. A host sets a
+   * note's current text before it analyses the note with {@link externalsFor}: the book tells a block from
+   * the others (and finds the cycles through it) by its body in the note as set.
+   */
   setNote(note: string, text: string): void {
     this.drop(note);
     this.index(note, text, false);
@@ -167,6 +177,28 @@ export class RunBook implements RunResolver {
     return r.kind === 'found' ? r.block : null;
   }
 
+  /** Every reference written in a note, in order, with note offsets. */
+  references(note: string): BookReference[] {
+    const out: BookReference[] = [];
+    for (const b of this.blocksOf(note))
+      for (const ref of b.refs)
+        out.push({ from: b, ref, span: toNote(b.block, ref.span), idSpan: toNote(b.block, ref.idSpan) });
+    return out;
+  }
+
+  /** The reference whose value holds the note offset (ends included, as a cursor sees it), or null. */
+  referenceAt(note: string, offset: number): BookReference | null {
+    for (const r of this.references(note)) if (offset >= r.span.start && offset <= r.span.end) return r;
+    return null;
+  }
+
+  /** The block whose `id` value holds the note offset (ends included), or null. */
+  idAt(note: string, offset: number): BookBlock | null {
+    for (const b of this.blocksOf(note))
+      if (b.place && offset >= b.place.span.start && offset <= b.place.span.end) return b;
+    return null;
+  }
+
   /** Every reference, in every note of the book, that leads to `target`. */
   referrers(target: BookBlock): BookReference[] {
     const out: BookReference[] = [];
@@ -186,25 +218,27 @@ export class RunBook implements RunResolver {
    * analyses and publishes again after `changed` was edited.
    */
   dependents(changed: string): string[] {
-    const targets = new Set<BookBlock>(this.blocksOf(changed));
-    const notes = new Set<string>();
-    let grew = true;
-    while (grew) {
-      grew = false;
-      for (const n of this.notes.values())
-        for (const b of n.blocks) {
-          if (targets.has(b)) continue;
-          for (const ref of b.refs) {
-            const t = this.target(n.note, ref);
-            if (t && targets.has(t)) {
-              targets.add(b);
-              notes.add(n.note);
-              grew = true;
-              break;
-            }
-          }
+    // Who refers to whom, backwards, once; then a walk from the changed note's blocks.
+    const back = new Map<BookBlock, BookBlock[]>();
+    for (const n of this.notes.values())
+      for (const b of n.blocks)
+        for (const ref of b.refs) {
+          const t = this.target(n.note, ref);
+          if (!t) continue;
+          const list = back.get(t);
+          if (list) list.push(b);
+          else back.set(t, [b]);
         }
-    }
+    const seen = new Set<BookBlock>(this.blocksOf(changed));
+    const queue = [...seen];
+    const notes = new Set<string>();
+    for (let i = 0; i < queue.length; i++)
+      for (const b of back.get(queue[i]!) ?? []) {
+        if (seen.has(b)) continue;
+        seen.add(b);
+        queue.push(b);
+        notes.add(b.note);
+      }
     notes.delete(changed);
     return [...notes];
   }
@@ -272,6 +306,30 @@ export class RunBook implements RunResolver {
     const stamp = this.closure(b);
     const memo = this.evaluated.get(b);
     if (memo && memo.stamp === stamp) return memo.facts;
+    const place = b.place ?? {
+      note: b.note,
+      span: { start: b.block.openStart, end: b.block.openEnd },
+      line: b.block.openLine,
+    };
+    if (this.chainLength(b, MAX_CHAIN + 1) > MAX_CHAIN) {
+      // Evaluated one inside the other, a longer chain could exhaust the stack: refused before it is read.
+      const facts: RunFacts = {
+        id: b.id ?? '',
+        place,
+        date: null,
+        input: null,
+        results: null,
+        status: 'invalid',
+        error: {
+          code: 'reference-chain',
+          message: `its references go more than ${MAX_CHAIN} runs deep; take a value from a run nearer its source`,
+          severity: 'error',
+          line: place.line,
+        },
+      };
+      this.evaluated.set(b, { stamp, facts });
+      return facts;
+    }
     const c = this.analyzer.analyseBody(b.block.body, this.externalsFor(b.note));
     const first = c.problems.find((p) => p.severity === 'error') ?? null;
     const error: RunError | null = first
@@ -384,6 +442,46 @@ export class RunBook implements RunResolver {
     const all = this.byId.get(ref.id);
     if (all && all.length > 0) return { kind: 'found', block: all.find((x) => x.note === from) ?? all[0]! };
     return { kind: 'unknown', among: [...this.byId.keys()] };
+  }
+
+  /**
+   * The number of runs on the longest chain of written references from `b` (b itself counts 1), or more
+   * than `bound` when it is longer than `bound`; a cycle counts as ending where it closes. Lengths are kept
+   * until the next change (exact ones, and "longer than k"), so a lattice of references is walked once per
+   * block and bound, not once per path.
+   */
+  private chainLength(b: BookBlock, bound: number): number {
+    if (this.chainsFor !== this.generation) {
+      this.chains.clear();
+      this.chainsFor = this.generation;
+    }
+    return this.chainFrom(b, bound, new Set()).length;
+  }
+
+  private chainFrom(b: BookBlock, bound: number, on: Set<BookBlock>): { length: number; cut: boolean } {
+    const known = this.chains.get(b);
+    if (known?.exact !== undefined) return { length: known.exact, cut: false };
+    if (known?.above !== undefined && known.above >= bound) return { length: bound + 1, cut: false };
+    if (bound <= 0) return { length: 1, cut: false };
+    if (on.has(b)) return { length: 0, cut: true };
+    on.add(b);
+    let longest = 0;
+    let cut = false;
+    for (const ref of b.refs) {
+      const t = this.target(b.note, ref);
+      if (!t) continue;
+      const r = this.chainFrom(t, bound - 1, on);
+      cut ||= r.cut;
+      longest = Math.max(longest, r.length);
+      if (longest >= bound) break;
+    }
+    on.delete(b);
+    const length = 1 + longest;
+    if (!cut) {
+      if (length <= bound) this.chains.set(b, { exact: length });
+      else this.chains.set(b, { above: Math.max(bound, known?.above ?? 0) });
+    }
+    return { length, cut };
   }
 
   /** The blocks on a path of written references from `start` to `goal` (start first, goal last), or null. */

@@ -205,3 +205,46 @@ signal:
     assert.deepEqual(codes(r!), ['reference-unavailable']);
   });
 });
+
+describe('runs by reference: long chains and lattices of references', () => {
+  const link = (id: string, thermal: string, decay?: string): string =>
+    fence(`id: ${id}
+system: 13C
+field: 9.4 T
+signal:
+  hyperpolarized: 100
+  thermal: { run: ${thermal} }${decay ? `\nextrapolate: { from: 1 s, to: 0 s, decay: { run: ${decay} } }` : ''}`);
+
+  it('refuses to follow a chain more than 32 runs deep, and follows one of 32', () => {
+    const n = 40;
+    let text = REF.replace('ref-13C Monday', `b${n - 1}`);
+    for (let i = n - 2; i >= 0; i--) text = link(`b${i}`, `b${i + 1}`) + text;
+    const book = new RunBook();
+    set(book, '/w/chain.md', text);
+    const blocks = analyse(book, '/w/chain.md');
+    assert.equal(blocks.length, n);
+    // b_i stands at the start of a chain of n − i runs; it can be used when that is at most 32.
+    blocks.forEach((b, i) => {
+      const refused = n - (i + 1) > 32;
+      if (i === n - 1) return assert.equal(b.status, 'normal');
+      if (refused) {
+        assert.deepEqual(codes(b), ['reference-invalid'], `b${i}`);
+        assert.match(b.problems[0]!.message, /reference-chain/);
+      } else assert.deepEqual(codes(b), [], `b${i}`);
+    });
+  });
+
+  it('walks a lattice of references (two per run, forty layers) once per run, not once per path', () => {
+    const layers = 40;
+    let text = REF.replace('ref-13C Monday', `L${layers}a`) + REF.replace('ref-13C Monday', `L${layers}b`);
+    for (let i = layers - 1; i >= 0; i--)
+      text = link(`L${i}a`, `L${i + 1}a`, `L${i + 1}b`) + link(`L${i}b`, `L${i + 1}b`, `L${i + 1}a`) + text;
+    const book = new RunBook();
+    set(book, '/w/lattice.md', text);
+    // 2⁴⁰ paths: this returns only because every run is walked a bounded number of times.
+    const blocks = analyse(book, '/w/lattice.md');
+    assert.equal(blocks.length, 2 * layers + 2);
+    assert.ok(codes(blocks[0]!).includes('reference-invalid'));
+    assert.deepEqual(book.dependents('/w/lattice.md'), []);
+  });
+});
