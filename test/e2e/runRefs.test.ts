@@ -85,10 +85,11 @@ function runRefSteps(version: host.Version): void {
       await s?.close();
     });
 
-    it('goes to the referenced run in another note with F12', async () => {
+    it('goes to the referenced run in another note (Go to Definition, F12)', async () => {
       await openFromExplorer(page, 'run-1.md', '# e2e run 1');
       await clickWord(page, '  thermal: { run: ', 'Monday');
-      await page.keyboard.press('F12');
+      // F12's own command (the browser keeps the F12 key for its developer tools).
+      await runCommand(page, 'Go to Definition');
       await page.locator('.tabs-container .tab.active', { hasText: 'reference.md' }).waitFor();
       // The cursor stands on the id line of the reference block (line 3 of its note).
       await editor(page).locator('.line-numbers.active-line-number', { hasText: /^4$/ }).waitFor();
@@ -97,7 +98,8 @@ function runRefSteps(version: host.Version): void {
 
     it('finds the references to the run in both notes', async () => {
       await clickWord(page, 'id: ', 'Monday');
-      await page.keyboard.press('Shift+F12');
+      // Shift+F12's own command.
+      await runCommand(page, 'Go to References');
       const peek = page.locator('.zone-widget .ref-tree');
       await peek.waitFor();
       // The peek's tree names each note with its references.
