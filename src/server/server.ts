@@ -173,7 +173,8 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
           ? {
               diagnosticProvider: {
                 identifier: 'boltzmark',
-                interFileDependencies: false,
+                // A note's diagnostics depend on the runs it refers to in other notes.
+                interFileDependencies: true,
                 workspaceDiagnostics: false,
               },
             }

@@ -305,4 +305,34 @@ describe('runs by reference over LSP', function () {
     assert.equal(slice(R1, links[0]!.range), '../refs/mon.md');
     assert.equal(links[0]!.target, uri('refs/mon.md') + '#L4');
   });
+
+  it('with pull diagnostics, asks the client to pull again after a referenced block changed, and the pull shows it', async () => {
+    await s.close();
+    s = await startLsp({
+      pull: true,
+      workspaceFolders: [{ uri: fileUri(dir), name: 'lab' }],
+      capabilities: {
+        workspace: { configuration: true, diagnostics: { refreshSupport: true } },
+        textDocument: { diagnostic: { dynamicRegistration: false }, publishDiagnostics: { versionSupport: true } },
+      },
+    });
+    const provider = s.initialized.capabilities.diagnosticProvider as { interFileDependencies: boolean };
+    assert.equal(provider.interFileDependencies, true);
+    await open('runs/r1.md', R1);
+    const pull = async (): Promise<string[]> =>
+      (
+        (await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: uri('runs/r1.md') } })) as {
+          items: Diag[];
+        }
+      ).items.map((d) => String(d.code));
+    await s.conn.sendRequest('workspace/symbol', { query: '' }); // the first walk of the folder is over
+    assert.deepEqual(await pull(), []);
+    const refreshes = (): number => s.requests.filter((r) => r.method === 'workspace/diagnostic/refresh').length;
+    const before = refreshes();
+    await open('refs/mon.md', MON);
+    await change('refs/mon.md', MON.replace('lattice: 298 K', 'lattice: -3 K'), 2);
+    // Waits for the request itself (the test's own timeout bounds the wait; no time is asserted).
+    while (refreshes() === before) await new Promise((r) => setTimeout(r, 20));
+    assert.ok((await pull()).includes('reference-invalid'));
+  });
 });
