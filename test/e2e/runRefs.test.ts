@@ -114,8 +114,8 @@ function runRefSteps(version: host.Version): void {
       const input = page.locator('.rename-box input, .rename-box .rename-input').first();
       await input.waitFor();
       await input.fill('e2e ref Mon 12 Apr');
-      // Shift+Enter asks for the preview; the edit also asks for confirmation itself.
-      await page.keyboard.press('Shift+Enter');
+      // Ctrl+Enter asks for the preview (the edit also asks for confirmation itself).
+      await page.keyboard.press('Control+Enter');
       const apply = page.locator('.monaco-button', { hasText: /^Apply$/ }).first();
       await apply.waitFor({ timeout: 30000 });
       // Nothing changed before the preview is accepted.
