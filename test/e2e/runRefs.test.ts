@@ -87,6 +87,9 @@ function runRefSteps(version: host.Version): void {
 
     it('goes to the referenced run in another note (Go to Definition, F12)', async () => {
       await openFromExplorer(page, 'run-1.md', '# e2e run 1');
+      // The server answers for the note (its hint on the fence, from the referenced run's numbers): the
+      // definition provider is there.
+      await line(page, 'T = 3.06').waitFor({ timeout: 90000 });
       await clickWord(page, '  thermal: { run: ', 'Monday');
       // F12's own command (the browser keeps the F12 key for its developer tools).
       await runCommand(page, 'Go to Definition');

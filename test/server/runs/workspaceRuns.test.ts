@@ -11,8 +11,8 @@ const note = (id: string): string => fence(`id: ${id}\nsystem: 13C\nfield: 9.4 T
 /** A folder of notes in memory, as the server's disk reader would give them. */
 function memoryFiles(files: Map<string, string>): NoteFiles {
   return {
-    list: async (folder) => [...files.keys()].filter((u) => u.startsWith(folder + '/')),
-    read: async (uri) => files.get(uri) ?? null,
+    list: (folder) => Promise.resolve([...files.keys()].filter((u) => u.startsWith(folder + '/'))),
+    read: (uri) => Promise.resolve(files.get(uri) ?? null),
     readNow: (uri) => files.get(uri) ?? null,
   };
 }
