@@ -156,7 +156,7 @@ describe('runs by reference over LSP', function () {
     assert.equal(noDecl.length, 3);
   });
 
-  it('renames an id and every reference to it across three notes, as one edit that asks for confirmation', async () => {
+  it('renames an id and every reference to it across three notes, as one labelled edit', async () => {
     await open('runs/r2.md', R2);
     // prepareRename refuses what is not an id or a reference.
     assert.equal(await s.conn.sendRequest('textDocument/prepareRename', at('runs/r2.md', posOf(R2, 'field'))), null);
@@ -176,13 +176,16 @@ describe('runs by reference over LSP', function () {
       ...at('runs/r2.md', posOf(R2, 'Monday')),
       newName: 'ref-13C Mon 12 Apr',
     })) as {
-      changeAnnotations: Record<string, { needsConfirmation: boolean }>;
+      changeAnnotations: Record<string, { label: string }>;
       documentChanges: {
         textDocument: { uri: string };
         edits: { range: Range; newText: string; annotationId: string }[];
       }[];
     };
-    assert.ok(Object.values(edit.changeAnnotations).every((a) => a.needsConfirmation));
+    assert.deepEqual(
+      Object.values(edit.changeAnnotations).map((a) => a.label),
+      ['Rename run "ref-13C Monday" to "ref-13C Mon 12 Apr"'],
+    );
     const byNote = new Map(edit.documentChanges.map((d) => [d.textDocument.uri.slice(fileUri(dir).length), d.edits]));
     assert.deepEqual([...byNote.keys()].sort(), ['/other/r3.md', '/refs/mon.md', '/runs/r1.md', '/runs/r2.md']);
     const texts: Record<string, string> = {

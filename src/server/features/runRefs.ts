@@ -162,7 +162,7 @@ export function badRunId(name: string): string | null {
 
 /** Options of the rename edit, from the client's capabilities. */
 export interface RenameOptions {
-  /** The client takes `documentChanges` with change annotations: the edit asks for confirmation. */
+  /** The client takes `documentChanges` with change annotations: the edit's places are labelled as one rename. */
   readonly annotations: boolean;
 }
 
@@ -201,7 +201,9 @@ export function runRename(
     changeAnnotations: {
       [annotationId]: {
         label: `Rename run "${target.id}" to "${newName}"`,
-        needsConfirmation: true,
+        // Not `needsConfirmation`: VS Code would then show every place unticked in its preview. The rename is
+        // the user's own command, applied on Enter or first shown in the refactor preview (Ctrl+Enter).
+        needsConfirmation: false,
         description: `${[...edits.values()].reduce((n, e) => n + e.length, 0)} place(s) in ${edits.size} note(s)`,
       },
     },
