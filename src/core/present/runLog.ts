@@ -60,6 +60,8 @@ export class RunLog {
   /** The Markdown notes the log holds, with their names, for reading again a note that uses a changed run. */
   private readonly texts = new Map<string, { readonly name: string; readonly text: string }>();
   private readonly book: RunBook;
+  /** How many references of the held notes name each id: a note none of whose ids is named has no users. */
+  private readonly named = new Map<string, number>();
 
   constructor(private readonly analyzer: Analyzer = new Analyzer()) {
     this.book = new RunBook({ analyzer });
@@ -72,10 +74,28 @@ export class RunLog {
   update(uri: string, name: string, text: string): boolean {
     if (isNotebookPath(uri)) return this.read(uri, name, text);
     // The notes that used this note's runs before the change, and those that use them after it.
-    const before = this.book.dependents(uri);
+    const before = this.usersOfNote(uri);
+    this.count(uri, -1);
     this.texts.set(uri, { name, text });
     this.book.setNote(uri, text);
+    this.count(uri, 1);
     return this.readAgain(uri, before);
+  }
+
+  /** Adds (or takes away) the ids a note's references name. */
+  private count(uri: string, sign: 1 | -1): void {
+    for (const b of this.book.blocksOf(uri))
+      for (const ref of b.refs) {
+        const n = (this.named.get(ref.id) ?? 0) + sign;
+        if (n > 0) this.named.set(ref.id, n);
+        else this.named.delete(ref.id);
+      }
+  }
+
+  /** The notes whose runs use a run of `uri` (none, without a walk of the book, when no reference names its ids). */
+  private usersOfNote(uri: string): readonly string[] {
+    const named = this.book.blocksOf(uri).some((b) => b.id !== null && this.named.has(b.id));
+    return named ? this.book.dependents(uri) : [];
   }
 
   /** The runs that take values from the run at `uri` whose block opens at `line`, by note name then line. */
@@ -87,7 +107,7 @@ export class RunLog {
   private readAgain(uri: string, before: readonly string[]): boolean {
     const t = this.texts.get(uri);
     let changed = t ? this.read(uri, t.name, t.text) : false;
-    for (const n of new Set([...before, ...this.book.dependents(uri)])) {
+    for (const n of new Set([...before, ...this.usersOfNote(uri)])) {
       const d = this.texts.get(n);
       if (d && this.read(n, d.name, d.text)) changed = true;
     }
@@ -139,7 +159,8 @@ export class RunLog {
 
   /** Forgets a deleted note; returns true when it or a note using its runs changed. */
   remove(uri: string): boolean {
-    const before = this.book.dependents(uri);
+    const before = this.usersOfNote(uri);
+    this.count(uri, -1);
     this.texts.delete(uri);
     this.book.deleteNote(uri);
     const had = this.notes.delete(uri);
