@@ -128,7 +128,6 @@ function runRefSteps(version: host.Version): void {
       await line(page, 'thermal: { run: e2e ref Mon 12 Apr }').waitFor();
       await openFromExplorer(page, 'run-1.md', '# e2e run 1');
       await line(page, 'thermal: { run: reference.md#e2e ref Mon 12 Apr }').waitFor();
-      await runCommand(page, 'File: Save All');
     });
 
     it('shows an error in a referring note when the referenced block breaks', async () => {
