@@ -4,16 +4,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { shot, startSession, type Session } from './session';
-import {
-  clean,
-  editor,
-  line,
-  openFromExplorer,
-  runCommand,
-  waitNoProblem,
-  waitProblems,
-  wordBox,
-} from './workbench';
+import { clean, editor, line, openFromExplorer, runCommand, waitNoProblem, waitProblems, wordBox } from './workbench';
 
 // Runs by reference in a real VS Code: three notes of a folder written into the session's workspace (invented
 // numbers; the physics is tested in test/core/runs/physics.test.ts). The reference note is never opened
@@ -42,11 +33,8 @@ signal:
 
 /** Clicks into a word of a view line of the main editor (its middle), putting the cursor there. */
 async function clickWord(page: Page, lineStart: string, word: string): Promise<void> {
-  let box = null;
-  for (let i = 0; i < 20 && !box; i++) {
-    box = await wordBox(page, lineStart, word);
-    if (!box) await page.waitForTimeout(250);
-  }
+  await line(page, lineStart).waitFor();
+  const box = await wordBox(page, lineStart, word);
   assert.ok(box, `"${word}" is on screen`);
   await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
 }
