@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { shot, startSession, type Session } from './session';
-import { clean, editor, line, openFromExplorer, runCommand, waitNoProblem, waitProblems, wordBox } from './workbench';
+import { clean, editor, goToLine, line, openFromExplorer, runCommand, waitNoProblem, waitProblems } from './workbench';
 
 // Runs by reference in a real VS Code: three notes of a folder written into the session's workspace (invented
 // numbers; the physics is tested in test/core/runs/physics.test.ts). The reference note is never opened
@@ -31,12 +31,13 @@ signal:
   thermal: { run: ${ref} }
   flip: { hyperpolarized: 5 deg }`);
 
-/** Clicks into a word of a view line of the main editor (its middle), putting the cursor there. */
-async function clickWord(page: Page, lineStart: string, word: string): Promise<void> {
-  await line(page, lineStart).waitFor();
-  const box = await wordBox(page, lineStart, word);
-  assert.ok(box, `"${word}" is on screen`);
-  await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+/** Puts the cursor into a word of a note's line (the first starting with `lineStart` that holds it). */
+async function cursorOn(page: Page, noteText: string, lineStart: string, word: string): Promise<void> {
+  const lines = noteText.split('\n');
+  const index = lines.findIndex((l) => l.startsWith(lineStart) && l.includes(word));
+  assert.ok(index >= 0, `a line starting "${lineStart}" holds "${word}"`);
+  // Go to Line puts the cursor inside the word (1-based column), wherever late code lenses have moved the line.
+  await goToLine(page, index + 1, lines[index]!.indexOf(word) + 2);
 }
 
 function runRefSteps(version: host.Version): void {
@@ -77,7 +78,7 @@ function runRefSteps(version: host.Version): void {
       // The server answers for the note (its hint on the fence, from the referenced run's numbers): the
       // definition provider is there.
       await line(page, 'T = 3.06').waitFor({ timeout: 90000 });
-      await clickWord(page, '  thermal: { run: ', 'Monday');
+      await cursorOn(page, runNote('e2e run 1', 'reference.md#e2e ref Monday'), '  thermal: { run: ', 'Monday');
       // F12's own command (the browser keeps the F12 key for its developer tools).
       await runCommand(page, 'Go to Definition');
       await page.locator('.tabs-container .tab.active', { hasText: 'reference.md' }).waitFor();
@@ -87,7 +88,7 @@ function runRefSteps(version: host.Version): void {
     });
 
     it('finds the references to the run in both notes', async () => {
-      await clickWord(page, 'id: ', 'Monday');
+      await cursorOn(page, REF_NOTE, 'id: ', 'Monday');
       // Shift+F12's own command.
       await runCommand(page, 'Go to References');
       const peek = page.locator('.zone-widget .ref-tree');
@@ -99,7 +100,7 @@ function runRefSteps(version: host.Version): void {
     });
 
     it('renames the run and every reference, after the preview is accepted', async () => {
-      await clickWord(page, 'id: ', 'Monday');
+      await cursorOn(page, REF_NOTE, 'id: ', 'Monday');
       await page.keyboard.press('F2');
       const input = page.locator('.rename-box input, .rename-box .rename-input').first();
       await input.waitFor();
@@ -121,13 +122,13 @@ function runRefSteps(version: host.Version): void {
     it('shows an error in a referring note when the referenced block breaks', async () => {
       await openFromExplorer(page, 'reference.md', '# Thermal reference');
       // The thermal signal replaced by a word: the reference block has an error, and so has each run using it.
-      await clickWord(page, '  thermal: ', '1.08e3');
+      await cursorOn(page, REF_NOTE, '  thermal: ', '1.08e3');
       await page.keyboard.press('End');
       for (let i = 0; i < '1.08e3'.length; i++) await page.keyboard.press('Backspace');
       await page.keyboard.type('lots');
       await runCommand(page, 'View: Focus Problems (Errors, Warnings, Infos)');
       await waitProblems(page, [['reference-invalid', 'cannot be used', 'number-invalid']]);
-      await clickWord(page, '  thermal: ', 'lots');
+      await cursorOn(page, REF_NOTE.replace('1.08e3', 'lots'), '  thermal: ', 'lots');
       await page.keyboard.press('End');
       for (let i = 0; i < 'lots'.length; i++) await page.keyboard.press('Backspace');
       await page.keyboard.type('1.08e3');
