@@ -66,7 +66,8 @@ export function commandBook(analyzer: Analyzer, roots: readonly string[]): RunBo
       } catch {
         return null;
       }
-      if (!inside(path, roots)) return null;
+      if (!inside(path, roots))
+        return { refused: 'it lies outside the folders given on the command line (and those of the files given)' };
       const read = readNote(note, path);
       if (!('bytes' in read)) return null;
       const text = decodeUtf8(read.bytes).text.replace(/^\uFEFF/, '');

@@ -84,6 +84,7 @@ describe('boltzmark: runs by reference', function () {
       named.entries.map((e) => e.diagnostics.map((d) => d.code)),
       [['reference-unknown']],
     );
+    assert.match(named.entries[0]!.diagnostics[0]!.message, /is not read: it lies outside the folders given/);
     // Naming the reference's folder too makes its note one that is read (and reported).
     const both = json(['runs/r1.md', 'refs'], dir);
     assert.equal(both.code, 0);

@@ -95,7 +95,9 @@ export function followRun(ctx: ReadContext, ref: RunRef, subject: string): RunFa
         ctx,
         'error',
         'reference-unknown',
-        `${subject}: the note \`${ref.note ?? ''}\` was not found (looked for ${shortNote(answer.note)}, relative to this note's folder).`,
+        answer.why
+          ? `${subject}: the note \`${ref.note ?? ''}\` is not read: ${answer.why}.`
+          : `${subject}: the note \`${ref.note ?? ''}\` was not found (looked for ${shortNote(answer.note)}, relative to this note's folder).`,
         ref.noteSpan ?? ref.span,
       );
       return null;

@@ -52,7 +52,7 @@ export interface RunBookOptions {
    * Reads a note a reference names that was not set: its text, or null when it does not exist or the host
    * may not read it (the command line reads only inside the folder tree it was given).
    */
-  readonly load?: (note: string) => string | null;
+  readonly load?: (note: string) => string | null | { readonly refused: string };
 }
 
 /** One `levels` block of a note, as indexed. */
@@ -103,9 +103,9 @@ export class RunBook implements RunResolver {
   private readonly bodies = new Map<string, BodyFacts>();
   private readonly analyzer: Analyzer;
   private readonly infoStrings: readonly string[];
-  private readonly load: ((note: string) => string | null) | null;
-  /** Notes looked for through `load` and not found (until the next change). */
-  private readonly missing = new Set<string>();
+  private readonly load: RunBookOptions['load'] | null;
+  /** Notes looked for through `load` and not found (until the next change), with why when the host refused. */
+  private readonly missing = new Map<string, string | null>();
   /** Evaluated blocks, by block, with the stamp of what they read. */
   private readonly evaluated = new WeakMap<BookBlock, { stamp: string; facts: RunFacts }>();
   /** Counts changes, to keep stamps computed since the last one. */
@@ -276,7 +276,12 @@ export class RunBook implements RunResolver {
   resolve(from: string, ref: { readonly note: string | null; readonly id: string }, at: string): RunAnswer {
     const key = runRefKey(from, ref.note, ref.id);
     const r = this.locate(from, ref);
-    if (r.kind === 'missing') return { kind: 'note-missing', note: r.note, key, stamp: this.stamp(key) };
+    if (r.kind === 'missing') {
+      const why = this.missing.get(r.note) ?? null;
+      return why === null
+        ? { kind: 'note-missing', note: r.note, key, stamp: this.stamp(key) }
+        : { kind: 'note-missing', note: r.note, why, key, stamp: this.stamp(key) };
+    }
     if (r.kind === 'unknown')
       return { kind: 'unknown', known: this.nearIds(ref.id, r.among), key, stamp: this.stamp(key) };
     const self = this.blockAt(from, at);
@@ -416,8 +421,8 @@ export class RunBook implements RunResolver {
     if (n) return n;
     if (!this.load || this.missing.has(note)) return null;
     const text = this.load(note);
-    if (text === null) {
-      this.missing.add(note);
+    if (text === null || typeof text !== 'string') {
+      this.missing.set(note, text === null ? null : text.refused);
       return null;
     }
     return this.index(note, text, true);

@@ -81,7 +81,14 @@ export type RunAnswer =
   /** The reference leads back to the referring block; `chain` lists the ids on the way, the referring one first. */
   | { readonly kind: 'cycle'; readonly chain: readonly string[]; readonly key: string; readonly stamp: string | null }
   /** The named note does not exist (or lies outside what the host may read); `note` is the path it looked for. */
-  | { readonly kind: 'note-missing'; readonly note: string; readonly key: string; readonly stamp: string | null };
+  | {
+      readonly kind: 'note-missing';
+      readonly note: string;
+      /** Why the host did not read it, when it exists but may not be read (outside the folders given). */
+      readonly why?: string;
+      readonly key: string;
+      readonly stamp: string | null;
+    };
 
 /** Other blocks of the workspace that carry the same id as the asking block (for `id-duplicate`). */
 export interface RunCopies {

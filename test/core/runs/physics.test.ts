@@ -194,6 +194,9 @@ signal:
       );
       assert.equal(r!.status, 'normal');
       assert.equal(r!.results!.polarization!.value, r!.results!.thermalPolarization);
+      // P_th(13C, 9.4 T, 298.15 K) = 8.101403e-6: Brillouin (tanh) form with IUPAC 2001 γ(13C) (Harris et al.,
+      // Pure Appl. Chem. 73, 1795 (2001)) and the exact h, k of the SI, as in test/core/measurements.test.ts.
+      close(r!.results!.polarization!.value, 8.101403e-6, 1e-6, 'P = P_th');
       close(r!.results!.temperature!.value, 298.15, 1e-9, 'T = lattice');
       assert.equal(r!.results!.signal!.thermalOnly, true);
     });
