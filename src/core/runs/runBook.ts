@@ -407,11 +407,13 @@ export class RunBook implements RunResolver {
   private bodyFacts(body: string): BodyFacts {
     const known = this.bodies.get(body);
     if (known) return known;
-    // Read without sources: only the id and the references as written are kept.
-    const m = interpretBody(body, null).meta;
+    // Read without sources: only the id and the references as written are kept. Read from (and kept under) a
+    // copy of the body: a body sliced from the note would keep that whole version of the note alive.
+    const own = ownCopy(body);
+    const m = interpretBody(own, null).meta;
     const f: BodyFacts = { id: m.id, idSpan: m.idSpan, refs: m.refs ?? [], hash: hash(body) };
     if (this.bodies.size > 50_000) this.bodies.clear();
-    this.bodies.set(body, f);
+    this.bodies.set(own, f);
     return f;
   }
 
@@ -562,6 +564,11 @@ export class RunBook implements RunResolver {
     scored.sort((a, b) => a.d - b.d || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
     return scored.slice(0, 5).map((s) => s.id);
   }
+}
+
+/** A copy of a string that shares no memory with its parent (as the analyzer's cache keeps bodies). */
+function ownCopy(s: string): string {
+  return (s + ' ').slice(0, -1);
 }
 
 /** A body-relative span as note offsets. */
