@@ -187,6 +187,10 @@ const CSV_HEAD = [
   'temperature_high_95',
   'polarization_low_95',
   'polarization_high_95',
+  'polarization_at_time_s',
+  'polarization_at',
+  'polarization_at_uncertainty',
+  'thermal_reference',
 ];
 
 /** CSV through the core's writer (RFC 4180, formula-guarded), full-precision numbers, empty cells for unknowns. */
@@ -223,6 +227,10 @@ export function formatCsv(rows: readonly Row[]): string {
       e.temperature?.interval?.[1] ?? null,
       e.polarization?.interval?.[0] ?? null,
       e.polarization?.interval?.[1] ?? null,
+      e.polarizationAt?.time ?? null,
+      e.polarizationAt?.value ?? null,
+      e.polarizationAt?.uncertainty ?? null,
+      e.thermalReference?.id ?? null,
     ]),
   ]);
 }

@@ -18,11 +18,13 @@ import {
   STATUSES,
   terminalText,
   unreadableEntry,
+  type Externals,
   type Status,
 } from '../core';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
 import { collectNotes, UsageError } from './files';
+import { bookName, bookText, commandBook, readableRoots } from './runs';
 import {
   DEFAULT_TABLE_WIDTH,
   formatCsv,
@@ -51,18 +53,25 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
   const analyzer = new Analyzer();
   const rows: Row[] = [];
   const stdin = io.stdin ?? (() => new Uint8Array(0));
-  for (const note of collectNotes(paths, io.cwd, stdin)) {
-    if ('unreadable' in note) {
-      rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
-      continue;
-    }
+  // Every note read is in one book first, so that a block may use a run of any of them (runs/runBook.ts).
+  const book = commandBook(analyzer, readableRoots(paths, io.cwd));
+  const read = collectNotes(paths, io.cwd, stdin).map((note) => {
+    if ('unreadable' in note) return { note, text: '', invalid: [] };
     const decoded = decodeUtf8(note.bytes);
     // A byte-order mark is not part of the note; offsets after it move back by one.
     const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
     const text = bom ? decoded.text.slice(1) : decoded.text;
-    const invalid = decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom }));
+    book.setNote(bookName(note.name, io.cwd), bookText(note.name, text));
+    return { note, text, invalid: decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom })) };
+  });
+  for (const { note, text, invalid } of read) {
+    if ('unreadable' in note) {
+      rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
+      continue;
+    }
+    const externals = book.externalsFor(bookName(note.name, io.cwd));
     if (isNotebookPath(note.name)) {
-      rows.push(...notebookRows(analyzer, note.name, text));
+      rows.push(...notebookRows(analyzer, note.name, text, externals));
       if (invalid.length > 0)
         io.err(
           terminalText(
@@ -72,7 +81,7 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
       continue;
     }
     const lines = new LineIndex(text);
-    const blocks = analyzer.analyzeText(text).blocks;
+    const blocks = analyzer.analyzeText(text, externals).blocks;
     // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
     const outside: { byte: number; offset: number }[] = [];
     let next = 0;
@@ -112,7 +121,7 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
  * The rows of a Jupyter notebook: every block of its Markdown cells, each placed by its cell (1-based, among all
  * cells) and its line in that cell; or, for a file that is not a notebook, one row with the fault.
  */
-function notebookRows(analyzer: Analyzer, name: string, text: string): Row[] {
+function notebookRows(analyzer: Analyzer, name: string, text: string, externals: Externals): Row[] {
   const nb = notebookCells(text);
   if (nb.problem)
     return [
@@ -124,7 +133,7 @@ function notebookRows(analyzer: Analyzer, name: string, text: string): Row[] {
   return nb.cells.flatMap((c) => {
     const lines = new LineIndex(c.text);
     return analyzer
-      .analyzeText(c.text)
+      .analyzeText(c.text, externals)
       .blocks.map((block) => ({ block, entry: reportEntry(name, block, lines, c.index + 1) }));
   });
 }

@@ -4,7 +4,7 @@
  * so the preview's security settings and HTML export keep them).
  */
 import type MarkdownIt from 'markdown-it';
-import { Analyzer, resultsHtml, type DisplayOptions } from '../core';
+import { Analyzer, resultsHtml, type DisplayOptions, type Externals } from '../core';
 
 /**
  * Options: which fences are ours and how numbers are shown, for the note
@@ -14,6 +14,11 @@ import { Analyzer, resultsHtml, type DisplayOptions } from '../core';
 export interface PreviewOptions {
   readonly infoStrings: (env: unknown) => readonly string[];
   readonly display: (env: unknown) => DisplayOptions;
+  /**
+   * The note's sources for values given by reference (other runs: `thermal: { run: … }`), or null; without
+   * it a block that refers to another run shows `reference-unavailable`.
+   */
+  readonly externals?: (env: unknown) => Externals | null;
 }
 
 /** Extends a markdown-it instance (VS Code's preview one, or any other). */
@@ -26,7 +31,9 @@ export function levelsPreview(md: MarkdownIt, options: PreviewOptions): Markdown
     const language = token.info.trim().split(/\s+/, 1)[0] ?? '';
     if (language !== 'levels' && !options.infoStrings(env).includes(language)) return html;
     try {
-      return html + resultsHtml(analyzer.analyseBody(token.content), options.display(env));
+      return (
+        html + resultsHtml(analyzer.analyseBody(token.content, options.externals?.(env) ?? null), options.display(env))
+      );
     } catch {
       // The preview must render even if analysis fails; the editor shows the problem.
       return html;

@@ -29,6 +29,8 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
   private model: RunLog | undefined;
   by: 'file' | 'date' = 'file';
   statuses: Status[] | null = null;
+  /** When set, the view lists only the runs that use this run (a thermal reference, a decay run). */
+  usersOf: RunEntry | null = null;
   private readonly changed = new vscode.EventEmitter<void>();
   readonly onDidChangeTreeData = this.changed.event;
 
@@ -45,6 +47,10 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
   }
 
   getChildren(node?: Node): Node[] {
+    if (!node && this.usersOf) {
+      const entries = this.log.users(this.usersOf.uri, this.usersOf.line);
+      return [{ kind: 'group', group: { label: `runs using ${this.usersOf.id ?? this.usersOf.name}`, entries } }];
+    }
     if (!node) return this.log.groups(this.by, this.statuses).map((group) => ({ kind: 'group', group }));
     return node.kind === 'group' ? node.group.entries.map((entry) => ({ kind: 'run', entry })) : [];
   }
@@ -181,6 +187,19 @@ export function registerRunLog(
       CurveView.compare(curveHost, { kind: 'list', title, entries }, null);
     }),
     vscode.commands.registerCommand(OPEN_CELL_RUN, openCellRun),
+    // From a run's context menu: only the runs that take values from it; the same command on nothing shows all.
+    vscode.commands.registerCommand('boltzmark.runLog.showUsers', (node?: Node) => {
+      tree.usersOf = node?.kind === 'run' ? node.entry : null;
+      view.description = tree.usersOf ? `using ${tree.usersOf.id ?? tree.usersOf.name}` : undefined;
+      void vscode.commands.executeCommand('setContext', 'boltzmark.runLog.showingUsers', tree.usersOf !== null);
+      tree.refresh();
+    }),
+    vscode.commands.registerCommand('boltzmark.runLog.showAll', () => {
+      tree.usersOf = null;
+      view.description = tree.statuses ? tree.statuses.join(', ') : undefined;
+      void vscode.commands.executeCommand('setContext', 'boltzmark.runLog.showingUsers', false);
+      tree.refresh();
+    }),
     vscode.commands.registerCommand('boltzmark.runLog.groupBy', () => {
       tree.by = tree.by === 'file' ? 'date' : 'file';
       tree.refresh();

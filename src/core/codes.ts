@@ -164,6 +164,45 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'gain-length-missing': { severity: 'warning', summary: '`mirrors` without `length`: no threshold.' },
   'mirrors-invalid': { severity: 'error', summary: 'Mirror reflectivities must be two numbers in (0, 1].' },
   'loss-negative': { severity: 'error', summary: 'A negative distributed loss.' },
+  // Runs by reference
+  'id-duplicate': { severity: 'warning', summary: 'Another block of the workspace carries the same id.' },
+  'reference-syntax': { severity: 'error', summary: 'A `{ run: … }` reference that is malformed or names no id.' },
+  'reference-unavailable': {
+    severity: 'error',
+    summary: 'A reference to another run where the host follows none (a lone text, no notes given).',
+  },
+  'reference-unknown': {
+    severity: 'error',
+    summary: 'No block has the referenced id, or the named note does not exist; the closest ids are offered.',
+  },
+  'reference-cycle': { severity: 'error', summary: 'References that lead back to the referring block.' },
+  'reference-invalid': {
+    severity: 'error',
+    summary: 'The referenced block has an error (named, with where it is) and gives no value.',
+  },
+  'reference-chain': {
+    severity: 'error',
+    summary: 'A run at the start of a chain of references more than 32 runs deep (named by `reference-invalid`).',
+  },
+  'reference-kind': {
+    severity: 'error',
+    summary: 'The referenced block lacks the quantity (a thermal signal, a fitted decay).',
+  },
+  'reference-mismatch': { severity: 'error', summary: 'A thermal reference of another isotope.' },
+  'reference-field': {
+    severity: 'warning',
+    summary: 'A thermal reference recorded at a field more than 1 % from this block’s.',
+  },
+  'reference-shadowed': {
+    severity: 'warning',
+    summary: 'A thermal-side value (or `lattice`) written next to a thermal reference by run; it is ignored.',
+  },
+  'extrapolate-incomplete': { severity: 'error', summary: '`extrapolate` lacks `from`, `to` or `decay`.' },
+  'extrapolate-decay-invalid': { severity: 'error', summary: 'A decay time constant T₁ that is not positive.' },
+  'extrapolate-no-polarization': {
+    severity: 'warning',
+    summary: '`extrapolate` on a block that gives no (finite) polarization to carry.',
+  },
   // Other keys
   'lattice-not-positive': { severity: 'error', summary: 'The lattice temperature must be above 0 K.' },
   'count-invalid': { severity: 'error', summary: '`count` must be a whole number ≥ 1.' },

@@ -15,6 +15,32 @@ export {
 } from './analyzer/analyzer';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
+export {
+  RUN_KEY_PREFIX,
+  runRefKey,
+  runCopiesKey,
+  parseRunKey,
+  type RunUse,
+  type RunRef,
+  type RunPlace,
+  type RunError,
+  type RunFacts,
+  type RunAnswer,
+  type RunCopies,
+  type RunResolver,
+  type PolarizationAt,
+} from './runs/types';
+export {
+  RunBook,
+  MAX_CHAIN,
+  type RunBookOptions,
+  type RunExternals,
+  type BookBlock,
+  type BookReference,
+} from './runs/runBook';
+export { splitReference, resolveNotePath, isInside } from './runs/paths';
+export { EXTRAPOLATE_KEYS } from './block/extrapolate';
+export { runLabel, runPlaceText, thermalReferenceText, polarizationAtText } from './present/runSummary';
 export { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from './block/externals';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';

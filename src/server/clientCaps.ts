@@ -27,6 +27,10 @@ export interface ClientCaps {
   readonly workspaceFolders: boolean;
   /** The client accepts a dynamic registration of `workspace/didChangeConfiguration`. */
   readonly configurationChange: boolean;
+  /** `workspace/didChangeWatchedFiles` with dynamic registration: the server asks for the notes' file events. */
+  readonly watchedFiles: boolean;
+  /** A workspace edit may be `documentChanges` with change annotations (a rename then asks for confirmation). */
+  readonly annotatedEdits: boolean;
   /** `workspace/{inlayHint,codeLens,diagnostic}/refresh` declared with `refreshSupport`. */
   readonly refresh: { readonly inlayHints: boolean; readonly codeLens: boolean; readonly diagnostics: boolean };
 }
@@ -41,6 +45,8 @@ export function clientCaps(c: ClientCapabilities | undefined): ClientCaps {
     configuration: w?.configuration === true,
     workspaceFolders: w?.workspaceFolders === true,
     configurationChange: w?.didChangeConfiguration?.dynamicRegistration === true,
+    watchedFiles: w?.didChangeWatchedFiles?.dynamicRegistration === true,
+    annotatedEdits: w?.workspaceEdit?.documentChanges === true && !!w?.workspaceEdit?.changeAnnotationSupport,
     refresh: {
       inlayHints: w?.inlayHint?.refreshSupport === true,
       codeLens: w?.codeLens?.refreshSupport === true,

@@ -5,9 +5,10 @@
  * from the command line (`--stdio`, `--node-ipc`, `--socket=<port>`).
  */
 import { createConnection, ProposedFeatures } from 'vscode-languageserver/node';
+import { diskNotes } from './runs/diskNotes';
 import { startServer } from './server';
 import { logStrayRejections } from './strayRejections';
 
 const connection = createConnection(ProposedFeatures.all);
 logStrayRejections(connection);
-startServer(connection);
+startServer(connection, diskNotes);

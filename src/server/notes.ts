@@ -67,6 +67,15 @@ export class Notes {
     return state;
   }
 
+  /**
+   * True when the note was analysed and something its blocks read from outside (another run, a file) has
+   * changed since: the note's diagnostics must be published again.
+   */
+  stale(uri: string): boolean {
+    const known = this.states.get(uri);
+    return !!known && !dependenciesHold(known.deps, uri, known.externals);
+  }
+
   /** Statistics of the latest analysis of a note. */
   statsOf(uri: string): AnalysisStats | null {
     return this.stats.get(uri) ?? null;

@@ -6,7 +6,12 @@
 import { noteExternals, type ExternalPart } from './externals';
 import {
   CodeActionKind,
+  CodeLensRefreshRequest,
   DidChangeConfigurationNotification,
+  DidChangeWatchedFilesNotification,
+  ResponseError,
+  FileChangeType,
+  WatchKind,
   DocumentDiagnosticReportKind,
   TextDocuments,
   TextDocumentSyncKind,
@@ -29,17 +34,34 @@ import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
 import { documentSymbols, flatSymbols } from './features/symbols';
 import { Notes } from './notes';
+import { WorkspaceRuns, type NoteFiles } from './runs/workspaceRuns';
+import {
+  runCompletion,
+  runDefinition,
+  runHover,
+  runLinks,
+  runPrepareRename,
+  runReferences,
+  runRename,
+  runSymbols,
+} from './features/runRefs';
 import { memoryStats } from './heapStats';
 import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
 import { SettingsStore, type SettingsChange } from './settingsStore';
-import { blockAt, type NoteState } from './state';
+import { blockAt, displayOptions, type NoteState } from './state';
+
+/** The debouncer's key of a change in the index of runs. */
+const RUNS_CHANGED = '\u0000runs';
 
 /** Pause after the last keystroke before pushed diagnostics are sent. */
 const PUSH_DELAY_MS = 200;
 
-/** Starts serving on a connection (stdio, IPC or socket: the connection decides). */
-export function startServer(connection: Connection): void {
+/**
+ * Starts serving on a connection (stdio, IPC or socket: the connection decides). `files` reads the notes of the
+ * workspace folders that are not open (for runs by reference); without it only the open notes are indexed.
+ */
+export function startServer(connection: Connection, files: NoteFiles | null = null): void {
   // stdout may be the protocol channel: route console output to the client's log instead.
   console.log = connection.console.log.bind(connection.console);
   console.info = connection.console.info.bind(connection.console);
@@ -51,6 +73,9 @@ export function startServer(connection: Connection): void {
   const externalParts: ExternalPart[] = [];
   const notes = new Notes((uri) => (externalParts.length > 0 ? noteExternals(uri, externalParts) : null));
   const pushes = new Debouncer(PUSH_DELAY_MS);
+  // Every run of the workspace, for `{ run: … }` references; a change re-publishes the notes that used it.
+  const runs = new WorkspaceRuns(() => pushes.schedule(RUNS_CHANGED, () => republishStale()), files);
+  externalParts.push(runs);
   let caps: ClientCaps = clientCaps(undefined);
   const log = (message: string): void => connection.console.warn(message);
   const changed = (change: SettingsChange): void =>
@@ -78,6 +103,8 @@ export function startServer(connection: Connection): void {
       if (!n || token?.isCancellationRequested) return empty;
       return fn(n.state, n.settings);
     } catch (err) {
+      // A refusal meant for the user (an id a rename cannot take) goes back as the request's error.
+      if (err instanceof ResponseError) throw err;
       connection.console.error(`boltzmark: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`);
       return empty;
     }
@@ -89,6 +116,30 @@ export function startServer(connection: Connection): void {
         : undefined,
     );
     background(connection, 'publishing diagnostics', sent);
+  };
+
+  /**
+   * After the index of runs changed: the open notes whose analysis read a run that changed are published again
+   * (pushed, or the client is asked to pull again); the others keep their analysis.
+   */
+  const republishStale = (): void => {
+    const stale = documents.all().filter((d) => notes.stale(d.uri));
+    if (stale.length === 0) return;
+    if (!caps.pull) for (const d of stale) push(d.uri);
+    else if (caps.refresh.diagnostics)
+      background(connection, 'workspace/diagnostic/refresh', connection.languages.diagnostics.refresh());
+    if (caps.refresh.codeLens)
+      background(connection, 'workspace/codeLens/refresh', connection.sendRequest(CodeLensRefreshRequest.type));
+  };
+  /** Like `serve`, once the first reading of the workspace's notes is over (for features that span notes). */
+  const serveRuns = async <T>(
+    uri: string,
+    token: CancellationToken | undefined,
+    empty: T,
+    fn: (s: NoteState, settings: Settings) => T,
+  ): Promise<T> => {
+    await runs.ready();
+    return serve(uri, token, empty, fn);
   };
 
   connection.onInitialize((params: InitializeParams): InitializeResult => {
@@ -113,11 +164,17 @@ export function startServer(connection: Connection): void {
         documentSymbolProvider: true,
         foldingRangeProvider: true,
         codeLensProvider: { resolveProvider: false },
+        definitionProvider: true,
+        referencesProvider: true,
+        renameProvider: { prepareProvider: true },
+        workspaceSymbolProvider: true,
+        documentLinkProvider: { resolveProvider: false },
         ...(caps.pull
           ? {
               diagnosticProvider: {
                 identifier: 'boltzmark',
-                interFileDependencies: false,
+                // A note's diagnostics depend on the runs it refers to in other notes.
+                interFileDependencies: true,
                 workspaceDiagnostics: false,
               },
             }
@@ -131,6 +188,19 @@ export function startServer(connection: Connection): void {
   });
 
   connection.onInitialized(() => {
+    background(connection, 'reading the notes of the workspace', runs.setFolders(folders));
+    if (caps.watchedFiles)
+      background(
+        connection,
+        'registering for file events of notes',
+        connection.client.register(DidChangeWatchedFilesNotification.type, {
+          watchers: [
+            { globPattern: '**/*.{md,markdown}' },
+            // A deleted folder takes its notes with it.
+            { globPattern: '**/*', kind: WatchKind.Delete },
+          ],
+        }),
+      );
     // Without a registration VS Code's client sends no configuration changes (the static
     // `synchronize.configurationSection` it used to read is deprecated); other clients send them unasked.
     if (caps.configurationChange)
@@ -143,6 +213,7 @@ export function startServer(connection: Connection): void {
       connection.workspace.onDidChangeWorkspaceFolders((e) => {
         const removed = new Set(e.removed.map((f) => f.uri));
         folders = [...folders.filter((f) => !removed.has(f)), ...e.added.map((f) => f.uri)];
+        background(connection, 'reading the notes of the changed folders', runs.setFolders(folders));
         const open = documents.all().map((d) => d.uri);
         background(
           connection,
@@ -165,11 +236,13 @@ export function startServer(connection: Connection): void {
   });
 
   documents.onDidChangeContent((e) => {
+    runs.edited(e.document.uri, e.document.getText());
     if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
   documents.onDidClose((e) => {
     pushes.cancel(e.document.uri);
     notes.forget(e.document.uri);
+    background(connection, 'reading a closed note again', runs.closed(e.document.uri));
     if (!caps.pull)
       background(
         connection,
@@ -182,13 +255,51 @@ export function startServer(connection: Connection): void {
     kind: DocumentDiagnosticReportKind.Full,
     items: await serve(p.textDocument.uri, token, [], noteDiagnostics),
   }));
-  connection.onHover((p, token) => serve(p.textDocument.uri, token, null, (s, set) => hover(s, p.position, set)));
+  connection.onDidChangeWatchedFiles((p) => {
+    for (const c of p.changes) {
+      const kind =
+        c.type === FileChangeType.Created ? 'created' : c.type === FileChangeType.Deleted ? 'deleted' : 'changed';
+      background(connection, `reading ${c.uri}`, runs.fileEvent(c.uri, kind));
+    }
+  });
+  connection.onHover((p, token) =>
+    serve(
+      p.textDocument.uri,
+      token,
+      null,
+      (s, set) => runHover(runs, s, p.position, displayOptions(set)) ?? hover(s, p.position, set),
+    ),
+  );
+  connection.onDefinition((p, token) =>
+    serveRuns(p.textDocument.uri, token, [], (s) => runDefinition(runs, s, p.position)),
+  );
+  connection.onReferences((p, token) =>
+    serveRuns(p.textDocument.uri, token, [], (s) => runReferences(runs, s, p.position, p.context.includeDeclaration)),
+  );
+  connection.onPrepareRename((p, token) =>
+    serveRuns(p.textDocument.uri, token, null, (s) => runPrepareRename(runs, s, p.position)),
+  );
+  connection.onRenameRequest((p, token) =>
+    serveRuns(p.textDocument.uri, token, null, (s) =>
+      runRename(runs, s, p.position, p.newName, { annotations: caps.annotatedEdits }),
+    ),
+  );
+  connection.onWorkspaceSymbol(async (p, token) => {
+    await runs.ready();
+    return token.isCancellationRequested ? [] : runSymbols(runs, p.query);
+  });
+  connection.onDocumentLinks((p, token) => serve(p.textDocument.uri, token, [], (s) => runLinks(runs, s)));
   connection.languages.inlayHint.on((p, token) =>
     serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
   );
   connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
   connection.onCompletion((p, token) =>
-    serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, caps.snippets)),
+    serveRuns(
+      p.textDocument.uri,
+      token,
+      [],
+      (s) => runCompletion(runs, s, p.position) ?? completion(s, p.position, caps.snippets),
+    ),
   );
   connection.onDocumentSymbol((p, token) =>
     serve(p.textDocument.uri, token, [], (s) =>

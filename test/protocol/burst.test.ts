@@ -1,6 +1,6 @@
 import { strict as assert } from 'node:assert';
 import { generateNote } from '../../bench/note';
-import { Analyzer, LineIndex } from '../../src/core';
+import { Analyzer, LineIndex, RunBook } from '../../src/core';
 import { SERVER_LIMITS } from '../../src/server/notes';
 import { AnalysisStatsRequest, MemoryRequest } from '../../src/shared/protocol';
 import { startLsp, type LspSession } from './lspClient';
@@ -47,10 +47,16 @@ function burst(text: string): { finalText: string; changes: { range: Range; text
   return { finalText: lines.join('\n'), changes };
 }
 
-/** The diagnostics the server must end with: those of the final text, analysed here with the server's bounds. */
+/**
+ * The diagnostics the server must end with: those of the final text, analysed here with the server's bounds and,
+ * as the server does, with the workspace's runs (this one note: its repeated ids are `id-duplicate`).
+ */
 function expectedDiagnostics(text: string): string[] {
   const lines = new LineIndex(text);
-  const report = new Analyzer({ limits: SERVER_LIMITS }).analyzeText(text);
+  const analyzer = new Analyzer({ limits: SERVER_LIMITS });
+  const book = new RunBook({ analyzer });
+  book.setNote(URI, text);
+  const report = analyzer.analyzeText(text, book.externalsFor(URI));
   const out = report.problems.map((p) => `${p.code}@${lines.positionAt(p.span.start).line}`);
   for (const b of report.blocks)
     for (const p of b.problems)

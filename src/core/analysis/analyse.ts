@@ -18,6 +18,8 @@ import { linePlot, tradeOf, tradeResults } from './trade';
 import { lineTemperature } from '../physics/radio';
 import type { SeriesFit } from '../physics/relaxation';
 import { statusOf } from './status';
+import { polarizationAtTime } from '../physics/decay';
+import type { PolarizationAt } from '../runs/types';
 import {
   combined,
   energiesLine,
@@ -64,7 +66,9 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   const all = finding.problems.length === 0 ? problems : [...problems, ...finding.problems];
   const budget = lines.filter(contributes);
   const uEnhancement = enhancement === null ? null : combined(lines, 'enhancement');
+  const polarizationAt = input.extrapolate ? extrapolated(input, polarization, problems) : null;
   return {
+    polarizationAt,
     trade,
     status,
     series,
@@ -95,6 +99,30 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     fractions,
     meanEnergy: fractions ? meanEnergy(fractions, energies) : null,
     problems: all.length === 0 ? NONE : all,
+  };
+}
+
+/** `extrapolate:` applied to the block's polarization (a warning when the block has none). */
+function extrapolated(input: BlockInput, p: Measured | null, problems: Problem[]): PolarizationAt | null {
+  const x = input.extrapolate!;
+  const at = p ? polarizationAtTime(p, x.from, x.to, x.decay) : null;
+  if (!at) {
+    problems.push({
+      severity: 'warning',
+      code: 'extrapolate-no-polarization',
+      message: p
+        ? 'extrapolate: the polarization carried to that time is not a finite number; check the times and T₁.'
+        : 'extrapolate: this block gives no polarization to carry to another time.',
+      span: x.keySpan,
+    });
+    return null;
+  }
+  return {
+    time: x.to.value,
+    value: at.value,
+    uncertainty: at.uncertainty,
+    from: x.from.value,
+    decay: { value: x.decay.value, uncertainty: x.decay.uncertainty, run: x.decayRun?.id ?? null },
   };
 }
 

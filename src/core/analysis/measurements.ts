@@ -56,7 +56,13 @@ export function measureSignal(
   const spin = input.spin;
   const T = input.lattice?.value;
   if (!sig || !spin || T === undefined) return null;
-  const pThermal = thermalSpinPolarization(spin.species.spin, spin.spacing, T);
+  // A thermal reference taken from another run: P_th at that run's own spin spacing (its field) and lattice.
+  const ref = sig.thermalRun ?? null;
+  const pThermal = thermalSpinPolarization(
+    ref ? ref.spin.species.spin : spin.species.spin,
+    ref ? ref.spin.spacing : spin.spacing,
+    T,
+  );
   let hp = sig.hyperpolarized;
   let uHp = sig.uHyperpolarized;
   if (hp === null && series) {
@@ -66,7 +72,24 @@ export function measureSignal(
     const ua = series.amplitude.uncertainty;
     uHp = ua === null ? null : off?.uncertainty != null ? Math.hypot(ua, off.uncertainty) : ua;
   }
-  if (pThermal === null || hp === null) return null;
+  if (pThermal === null) return null;
+  const run = ref ? { id: ref.id, place: ref.place, date: ref.date } : null;
+  if (hp === null) {
+    if (input.series) return null;
+    // The block is a thermal reference itself: its polarization is P_th (u from the lattice, in the budget).
+    return {
+      result: {
+        pThermal,
+        factor: 1,
+        ratio: 1,
+        hyperpolarized: sig.thermal,
+        fromSeries: false,
+        thermalOnly: true,
+        thermalRun: run,
+      },
+      polarization: { value: pThermal, uncertainty: null, span: sig.span, unit: null },
+    };
+  }
   const factor = acquisitionFactor(
     { scans: sig.scans[0], gain: sig.gain[0], flip: sig.flip[0], amount: sig.amount[0] },
     { scans: sig.scans[1], gain: sig.gain[1], flip: sig.flip[1], amount: sig.amount[1] },
@@ -82,7 +105,15 @@ export function measureSignal(
     return null;
   }
   return {
-    result: { pThermal, factor, ratio: hp / sig.thermal, hyperpolarized: hp, fromSeries: sig.hyperpolarized === null },
+    result: {
+      pThermal,
+      factor,
+      ratio: hp / sig.thermal,
+      hyperpolarized: hp,
+      fromSeries: sig.hyperpolarized === null,
+      thermalOnly: false,
+      thermalRun: run,
+    },
     polarization: { value: p.value, uncertainty: p.uncertainty, span: sig.span, unit: null },
   };
 }

@@ -4,6 +4,7 @@ import type { Measured, Problem, Status } from '../types';
 import type { TradeResults } from './trade';
 import type { BudgetLine } from './budget';
 import type { ResultIntervals } from './intervals';
+import type { PolarizationAt, RunPlace } from '../runs/types';
 
 /** Summary of the Boltzmann fit of a block with three or more levels. */
 export interface FitSummary {
@@ -30,6 +31,10 @@ export interface SignalResult {
   readonly hyperpolarized: number;
   /** True when the hyperpolarized signal is the fitted amplitude of the series. */
   readonly fromSeries: boolean;
+  /** True when the block records only a thermal signal: it is a thermal reference, P = P_th. */
+  readonly thermalOnly?: boolean;
+  /** The run the thermal reference was taken from (`thermal: { run: … }`), or null when typed in the block. */
+  readonly thermalRun?: { readonly id: string; readonly place: RunPlace; readonly date: string | null } | null;
 }
 
 /** Gain of an optical transition. */
@@ -92,6 +97,8 @@ export interface BlockResults {
   readonly gain: GainResult | null;
   /** Indices (levels order) of emission lines flagged as outliers. */
   readonly outliers: readonly number[];
+  /** The polarization carried to another time by `extrapolate:`, or null (absent in results built before it). */
+  readonly polarizationAt?: PolarizationAt | null;
   /** Warnings and notes found by the analysis (body-relative spans). */
   readonly problems: readonly Problem[];
   /** What the block's trade adds: its words, plot data, refit, column densities. */

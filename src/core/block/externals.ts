@@ -13,6 +13,8 @@
  * that used it read again.
  */
 
+import type { RunResolver } from '../runs/types';
+
 /** One thing a block's analysis read from outside the block, with the stamp it had then. */
 export interface Dependency {
   /** What was read, as the host names it (unique per host: an absolute path, a workspace run id). */
@@ -33,6 +35,8 @@ export interface Externals {
    * cached analysis that read from outside is reused only for the same note.
    */
   readonly note: string;
+  /** Other runs, for `{ run: … }` references (see runs/types.ts); absent where the host follows none. */
+  readonly runs?: RunResolver;
   /** The stamp a dependency key has now (null: not there). Asked for every dependency of a cached block on reuse. */
   stamp(key: string): string | null;
 }

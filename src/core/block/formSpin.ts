@@ -221,7 +221,7 @@ function readSpinMeasurement(
     return null;
   }
   if (sig) {
-    const signal = readSignal(ctx, sig, byKey.has('series'));
+    const signal = readSignal(ctx, sig);
     return signal ? { populations: null, polarization: null, signal } : null;
   }
   if (!pe && !pol) {

@@ -7,6 +7,7 @@ import type { SpinSpecies } from '../quantities/isotopes';
 import type { Span } from '../types';
 import type { BlockForm } from './schema';
 import type { ReadValue } from './values';
+import type { RunPlace, RunRef } from '../runs/types';
 
 /** One level of the scheme. */
 export interface LevelInput {
@@ -49,6 +50,42 @@ export interface SignalInput {
   readonly gain: readonly [number, number];
   readonly amount: readonly [number, number];
   readonly span: Span;
+  /** The run the thermal side was taken from (`thermal: { run: … }`), or null when typed here. */
+  readonly thermalRun?: ThermalRun | null;
+}
+
+/** `extrapolate:`: carry the block's polarization from `from` to `to` along a decay with time constant `decay` (T₁). */
+export interface ExtrapolateInput {
+  /** Times in s, with their spans. */
+  readonly from: ReadValue;
+  readonly to: ReadValue;
+  /** T₁ in s (typed, or the decay run's fitted T₁ with the span of the reference). */
+  readonly decay: ReadValue;
+  /** The decay run T₁ came from, or null when typed. */
+  readonly decayRun: {
+    readonly id: string;
+    readonly place: RunPlace;
+    readonly date: string | null;
+    readonly span: Span;
+  } | null;
+  /** The value's span and the key's, body-relative. */
+  readonly span: Span;
+  readonly keySpan: Span;
+}
+
+/** A thermal reference taken from another run: what it gave and where it is. */
+export interface ThermalRun {
+  readonly id: string;
+  readonly place: RunPlace;
+  /** The reference block's `date`, as written, or null. */
+  readonly date: string | null;
+  /** The reference's spin (isotope, level spacing, field): P_th is computed with it. */
+  readonly spin: SpinInput;
+  /** The reference's lattice temperature, with the span of the reference in this block. */
+  readonly lattice: ReadValue | null;
+  /** The reference value and its id part in this block (body-relative). */
+  readonly span: Span;
+  readonly idSpan: Span;
 }
 
 /** A time series of signals. */
@@ -156,6 +193,8 @@ export interface BlockInput {
   readonly gain: GainInput | null;
   /** The emission and radio additions; absent in blocks built before them (tests, other hosts). */
   readonly trade?: TradeInput;
+  /** `extrapolate:` (the polarization at another time), or absent/null. */
+  readonly extrapolate?: ExtrapolateInput | null;
 }
 
 /** The block's label and the spans of its keys, kept even when the block has errors. */
@@ -166,6 +205,8 @@ export interface BlockMeta {
   readonly keys: ReadonlyMap<string, { key: Span; value: Span }>;
   /** The block's `date` as written (free text), or null. */
   readonly date: string | null;
+  /** The runs the block refers to (`{ run: … }`), with body-relative spans; absent or empty when none. */
+  readonly refs?: readonly RunRef[];
 }
 
 /** What one form's reader returns; the block reader adds the keys common to all forms. */

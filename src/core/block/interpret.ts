@@ -8,13 +8,16 @@ import { NO_DEPENDENCIES, type Dependency, type Externals } from './externals';
 import { readSpinForm } from './formSpin';
 import { readLevelsForm } from './formLevels';
 import { readTransitionForm } from './formTransition';
-import type { BlockInput, BlockMeta, FormRead, TradeInput } from './input';
+import type { BlockInput, BlockMeta, FormRead, SpinInput, ThermalRun, TradeInput } from './input';
 import { BLOCK_KEY_NAMES, BLOCK_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './schema';
 import { readLinesForm } from './formLines';
 import { readBackground, readRotor } from './tradeKeys';
 import { readSeries } from './series';
 import { KeySpans } from './keySpans';
 import { unknownKey } from './unknownKey';
+import { readExtrapolate } from './extrapolate';
+import { shortNote } from './runRef';
+import type { RunRef } from '../runs/types';
 import {
   insideBody,
   nonEmpty,
@@ -83,7 +86,8 @@ export function interpretBody(body: string, externals: Externals | null = null):
     return { meta: emptyMeta, input: null, problems, deps: NO_DEPENDENCIES };
   }
   const deps: Dependency[] = [];
-  const ctx: ReadContext = { body, problems, externals, deps };
+  const refs: RunRef[] = [];
+  const ctx: ReadContext = { body, problems, externals, deps, refs };
   const all = entries(doc.contents);
   const byKey = new Map<string, Entry>();
   // Kept for as long as the block is cached; the spans are found again when first asked for.
@@ -101,7 +105,9 @@ export function interpretBody(body: string, externals: Externals | null = null):
     idSpan: idText?.span ?? null,
     keys,
     date: dateText && dateText.text !== '' ? dateText.text : null,
+    refs,
   };
+  if (meta.id !== null && meta.idSpan) duplicateId(ctx, meta.id, meta.idSpan);
 
   const forms: [string, BlockForm][] = [];
   for (const f of FORM_KEYS) if (byKey.has(f[0])) forms.push(f);
@@ -133,7 +139,18 @@ export function interpretBody(body: string, externals: Externals | null = null):
     const read = readForm(ctx, byKey, form);
     const background = readBackground(ctx, byKey.get('background'));
     const rotor = readRotor(ctx, byKey.get('rotational-constant'));
-    if (read?.signal && !lattice) {
+    const extrapolate = byKey.has('extrapolate') ? readExtrapolate(ctx, byKey.get('extrapolate')!) : null;
+    const thermalRun = read?.signal?.thermalRun ?? null;
+    if (thermalRun && read?.spin) sameSpin(ctx, read.spin, thermalRun);
+    if (thermalRun?.lattice && lattice)
+      report(
+        ctx,
+        'warning',
+        'reference-shadowed',
+        `lattice: the thermal reference \`${thermalRun.id}\` gives the lattice temperature (its own); this value is ignored.`,
+        byKey.get('lattice')!.keySpan,
+      );
+    if (read?.signal && !lattice && !thermalRun?.lattice) {
       report(
         ctx,
         'error',
@@ -151,7 +168,7 @@ export function interpretBody(body: string, externals: Externals | null = null):
         polarization: read.polarization,
         ratio: read.ratio,
         uGap: read.uGap,
-        lattice,
+        lattice: thermalRun?.lattice ?? lattice,
         count: count?.value ?? null,
         densities: read.densities ?? false,
         signal: read.signal ?? null,
@@ -168,11 +185,60 @@ export function interpretBody(body: string, externals: Externals | null = null):
                 columns: read.trade?.columns ?? false,
               }
             : NO_TRADE,
+        extrapolate,
       };
     }
   }
   if (countErrors(problems) > 0) input = null;
   return { meta, input, problems, deps: deps.length > 0 ? deps : NO_DEPENDENCIES };
+}
+
+/** `id-duplicate`: the id is carried by other blocks of the workspace too (asked of the host's runs). */
+function duplicateId(ctx: ReadContext, id: string, span: Span): void {
+  const runs = ctx.externals?.runs;
+  if (!runs || !ctx.externals) return;
+  const copies = runs.copies(ctx.externals.note, id, ctx.body);
+  if (ctx.deps && !ctx.deps.some((d) => d.key === copies.key)) ctx.deps.push({ key: copies.key, stamp: copies.stamp });
+  if (copies.others.length === 0) return;
+  const here = ctx.externals.note;
+  const notes = copies.others.map((p) => (p.note === here ? 'this note' : `\`${shortNote(p.note)}\``));
+  const named = [...new Set(notes)];
+  report(
+    ctx,
+    'warning',
+    'id-duplicate',
+    `id: \`${id}\` is also the id of ${copies.others.length === 1 ? 'a block' : `${copies.others.length} blocks`} in ${named.join(', ')}; ids name runs across the workspace, so give each run its own.`,
+    span,
+  );
+}
+
+/** `reference-mismatch` (another isotope) and `reference-field` (a field more than 1 % away) for a thermal reference run. */
+function sameSpin(ctx: ReadContext, spin: SpinInput, run: ThermalRun): void {
+  if (spin.species.symbol !== run.spin.species.symbol) {
+    report(
+      ctx,
+      'error',
+      'reference-mismatch',
+      `signal.thermal: the run \`${run.id}\` is a ${run.spin.species.symbol} reference; this block measures ${spin.species.symbol}.`,
+      run.span,
+    );
+    return;
+  }
+  const a = spin.field;
+  const b = run.spin.field;
+  if (a !== null && b !== null && Math.abs(a - b) > 0.01 * Math.abs(b)) {
+    report(
+      ctx,
+      'warning',
+      'reference-field',
+      `signal.thermal: the run \`${run.id}\` was recorded at ${fmtField(b)}, this block at ${fmtField(a)} (${((100 * (a - b)) / b).toFixed(1)} %); its thermal polarization is computed at its own field.`,
+      run.span,
+    );
+  }
+}
+
+function fmtField(t: number): string {
+  return `${Number(t.toPrecision(4))} T`;
 }
 
 /** The body's first line, where problems of the block as a whole point (at least one character). */

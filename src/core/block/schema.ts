@@ -97,8 +97,15 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
     key: 'signal',
     form: 'spin',
     summary:
-      'Signal against a thermal reference: `hyperpolarized`, `thermal`, and optional `scans`, `flip`, `gain`, `amount`, `noise` (each `{ hyperpolarized, thermal }`).',
+      'Signal against a thermal reference: `hyperpolarized`, `thermal` (a number, or `{ run: <id> }` to take it from a thermal reference run), and optional `scans`, `flip`, `gain`, `amount`, `noise` (each `{ hyperpolarized, thermal }`). Without `hyperpolarized` the block is a thermal reference itself.',
     example: '',
+  },
+  {
+    key: 'extrapolate',
+    form: 'any',
+    summary:
+      'Carry the polarization from the time it was measured (`from`) to another (`to`) along a decay of time constant `decay` (T₁, typed or `{ run: <decay run> }`): result `polarizationAt`.',
+    example: '{ from: 42 s, to: 0 s, decay: 47.9 ± 1.2 s }',
   },
   {
     key: 'series',

@@ -12,12 +12,14 @@ import { readInteger, readNumber, readQuantity, report, type ReadContext, type R
 import { entries, isMap, spanOf, type Entry } from './yamlTree';
 import { SIGNAL_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
+import { followRun, isRunRefNode, readRunRef } from './runRef';
+import type { ThermalRun } from './input';
 
 type Pair = readonly [number, number];
 const SIDES = ['hyperpolarized', 'thermal'] as const;
 
-/** Reads `signal:`; `fromSeries` means a time series supplies the hyperpolarized signal. */
-export function readSignal(ctx: ReadContext, e: Entry, fromSeries: boolean): SignalInput | null {
+/** Reads `signal:`; without `hyperpolarized:` a `series:` supplies it, or the block is a thermal reference. */
+export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
   if (!isMap(e.value)) {
     report(
       ctx,
@@ -43,23 +45,22 @@ export function readSignal(ctx: ReadContext, e: Entry, fromSeries: boolean): Sig
   let hp: ReadValue | null = null;
   if (hpEntry) {
     const v = readNumber(ctx, hpEntry.value, 'signal.hyperpolarized');
-    hp = v ? withNoise(ctx, v, noise?.[0] ?? null, 'signal.hyperpolarized') : null;
-  } else if (!fromSeries) {
-    report(
-      ctx,
-      'error',
-      'signal-incomplete',
-      'signal: `hyperpolarized:` is missing (or give a `series:` whose fitted amplitude is the hyperpolarized signal).',
-      e.keySpan,
-    );
+    hp = v ? withNoise(ctx, v, given(noise?.[0]), 'signal.hyperpolarized') : null;
   }
+  // Without `hyperpolarized:` and a series the block is a thermal reference itself: P = P_th.
   const thEntry = byKey.get('thermal');
   let th: ReadValue | null = null;
+  let byRun: { run: ThermalRun; sides: SignalSides } | null = null;
+  let runFailed = false;
   if (!thEntry)
     report(ctx, 'error', 'signal-incomplete', 'signal: the `thermal:` reference signal is missing.', e.keySpan);
-  else {
+  else if (isRunRefNode(thEntry.value)) {
+    byRun = thermalByRun(ctx, thEntry, byKey);
+    runFailed = byRun === null;
+    if (byRun) th = { value: byRun.sides.thermal, uncertainty: byRun.sides.uThermal, span: byRun.run.span, unit: null };
+  } else {
     const v = readNumber(ctx, thEntry.value, 'signal.thermal');
-    th = v ? withNoise(ctx, v, noise?.[1] ?? null, 'signal.thermal') : null;
+    th = v ? withNoise(ctx, v, given(noise?.[1]), 'signal.thermal') : null;
     if (th && th.value === 0) {
       report(
         ctx,
@@ -107,18 +108,96 @@ export function readSignal(ctx: ReadContext, e: Entry, fromSeries: boolean): Sig
     (v) => v > 0,
     'a relative amount must be positive',
   );
-  if ((hpEntry && !hp) || !th || !scans || !flip || !gain || !amount || (byKey.has('noise') && !noise)) return null;
+  if (runFailed || (hpEntry && !hp) || !th || !scans || !flip || !gain || !amount || (byKey.has('noise') && !noise))
+    return null;
+  const theirs = byRun?.sides;
   return {
     hyperpolarized: hp ? hp.value : null,
     uHyperpolarized: hp ? hp.uncertainty : null,
     thermal: th.value,
     uThermal: th.uncertainty,
-    scans,
-    flip,
-    gain,
-    amount,
+    scans: theirs ? [scans[0], theirs.scans] : scans,
+    flip: theirs ? [flip[0], theirs.flip] : flip,
+    gain: theirs ? [gain[0], theirs.gain] : gain,
+    amount: theirs ? [amount[0], theirs.amount] : amount,
     span: e.keySpan,
+    thermalRun: byRun?.run ?? null,
   };
+}
+
+/** The thermal side of a signal as a reference run recorded it. */
+interface SignalSides {
+  readonly thermal: number;
+  readonly uThermal: number | null;
+  readonly scans: number;
+  readonly flip: number;
+  readonly gain: number;
+  readonly amount: number;
+}
+
+/**
+ * `thermal: { run: … }`: the thermal signal, its acquisition factors and its noise come from the referenced
+ * run (and, in interpret.ts, its lattice temperature and field). Thermal sides written here as well are
+ * ignored, with a warning on each.
+ */
+function thermalByRun(
+  ctx: ReadContext,
+  thEntry: Entry,
+  byKey: ReadonlyMap<string, Entry>,
+): { run: ThermalRun; sides: SignalSides } | null {
+  const ref = readRunRef(ctx, thEntry.value, 'thermal', 'signal.thermal');
+  if (!ref) return null;
+  for (const name of ['scans', 'flip', 'gain', 'amount', 'noise']) {
+    const pair = byKey.get(name);
+    const side = pair && isMap(pair.value) ? entries(pair.value).find((x) => x.key === 'thermal') : undefined;
+    if (side)
+      report(
+        ctx,
+        'warning',
+        'reference-shadowed',
+        `signal.${name}.thermal: the thermal side comes from the run \`${ref.id}\`; this value is ignored.`,
+        side.keySpan,
+      );
+  }
+  const run = followRun(ctx, ref, 'signal.thermal');
+  if (!run) return null;
+  const sig = run.input?.signal ?? null;
+  const spin = run.input?.spin ?? null;
+  if (!sig || !spin) {
+    report(
+      ctx,
+      'error',
+      'reference-kind',
+      `signal.thermal: the run \`${run.id}\` records no thermal signal (a spin block with \`signal: { thermal: … }\`), so it cannot serve as a thermal reference.`,
+      ref.span,
+    );
+    return null;
+  }
+  const lattice = run.input?.lattice ?? null;
+  return {
+    run: {
+      id: run.id,
+      place: run.place,
+      date: run.date,
+      spin,
+      lattice: lattice ? { ...lattice, span: ref.span } : null,
+      span: ref.span,
+      idSpan: ref.idSpan,
+    },
+    sides: {
+      thermal: sig.thermal,
+      uThermal: sig.uThermal,
+      scans: sig.scans[1],
+      flip: sig.flip[1],
+      gain: sig.gain[1],
+      amount: sig.amount[1],
+    },
+  };
+}
+
+/** A side of a pair, or null when it was left out (NaN). */
+function given(x: number | undefined): number | null {
+  return x === undefined || Number.isNaN(x) ? null : x;
 }
 
 function withNoise(ctx: ReadContext, v: ReadValue, noise: number | null, subject: string): ReadValue | null {
@@ -130,7 +209,7 @@ function withNoise(ctx: ReadContext, v: ReadValue, noise: number | null, subject
   return { ...v, uncertainty: noise };
 }
 
-/** Reads `{ hyperpolarized: x, thermal: y }` with a default for each missing side (null default: both required… or absent). */
+/** Reads `{ hyperpolarized: x, thermal: y }` with a default for each missing side (null default: a missing side is NaN). */
 function readPair(
   ctx: ReadContext,
   e: Entry | undefined,
@@ -157,11 +236,8 @@ function readPair(
   for (const side of SIDES) {
     const x = byKey.get(side);
     if (!x) {
-      if (fallback === null) {
-        report(ctx, 'error', 'signal-incomplete', `signal.${name}: \`${side}\` is missing.`, e.keySpan);
-        return null;
-      }
-      out.push(fallback);
+      // Without a default (noise) a side may be left out: NaN stands for "not given".
+      out.push(fallback ?? NaN);
       continue;
     }
     const v = read(x.value, `signal.${name}.${side}`);

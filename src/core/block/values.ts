@@ -9,6 +9,7 @@ import { convert, parseQuantity, type Dimension, type QuantityProblem } from '..
 import type { Problem, Replacement, Severity, Span } from '../types';
 import type { UnitChoice } from './unitChoice';
 import type { Dependency, Externals } from './externals';
+import type { RunRef } from '../runs/types';
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
@@ -18,6 +19,8 @@ export interface ReadContext {
   readonly externals?: Externals | null;
   /** What the reader took from outside the block, for the analyzer's cache (see block/externals.ts). */
   readonly deps?: Dependency[];
+  /** The references to other runs the block makes, as read (see block/runRef.ts). */
+  readonly refs?: RunRef[];
 }
 
 /** Records that the block read `key` from outside, as it was at `stamp`. */

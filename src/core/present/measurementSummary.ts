@@ -8,6 +8,7 @@ import type { BlockInput } from '../block/input';
 import { formatMeasured, formatNumber } from './numbers';
 import type { DisplayOptions } from './displayOptions';
 import { tradeRows } from './tradeSummary';
+import { polarizationAtText, referenceRows } from './runSummary';
 
 /** A label and its value, as display text. */
 export type Row = readonly [string, string];
@@ -35,8 +36,9 @@ export function measurementRows(input: BlockInput | null, r: BlockResults, o: Di
     if (s.model === 'decay' && input.series.flip !== null)
       rows.push(['readout correction', `cos^(n−1) θ, θ = ${deg(input.series.flip)}`]);
   }
+  rows.push(...referenceRows(input, r, o));
   const sig = r.signal;
-  if (sig && input?.signal) {
+  if (sig && input?.signal && !sig.thermalOnly) {
     const i = input.signal;
     rows.push([
       'S_hp / S_th',
@@ -90,6 +92,8 @@ export function measurementShort(r: BlockResults, withUncertainty = false): stri
     const tc = r.series.timeConstant;
     parts.push(`${r.series.model === 'decay' ? 'T₁' : 'τ'} = ${value(tc.value, tc.uncertainty)} s`);
   }
+  const at = polarizationAtText(r, { digits: 3, percent: true });
+  if (at) parts.push(withUncertainty ? at : at.replace(/ ± [^ )%]+/, ''));
   if (r.gain)
     parts.push(
       `g₀ = ${value(r.gain.coefficient, r.gain.uCoefficient)} cm⁻¹${r.gain.aboveThreshold === null ? '' : r.gain.aboveThreshold ? ' (above threshold)' : ' (below threshold)'}`,

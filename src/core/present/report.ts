@@ -111,6 +111,19 @@ export interface ReportEntry {
   readonly thresholdInversion: number | null;
   /** Gain form with a length: 10 log₁₀ of the single-pass gain. */
   readonly singlePassGainDb: number | null;
+  /**
+   * `extrapolate:` (v1.2): P at `time` (s) with its standard uncertainty; Boltzmark adds `from` (s) and the
+   * `decay` time constant T₁ used (s, with the id of the decay run it came from, or null when typed).
+   */
+  readonly polarizationAt: {
+    readonly time: number;
+    readonly value: number;
+    readonly uncertainty: number | null;
+    readonly from: number;
+    readonly decay: { readonly value: number; readonly uncertainty: number | null; readonly run: string | null };
+  } | null;
+  /** The run a thermal reference was taken from (`thermal: { run: … }`), with its date, or null. */
+  readonly thermalReference: { readonly id: string; readonly date: string | null } | null;
 }
 
 const finite = (x: number | null | undefined): number | null =>
@@ -156,6 +169,26 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex, cell
     invertedPairs: r ? r.invertedPairs.map((p) => [p.lower, p.upper] as [number, number]) : [],
     ...uncertaintyEntry(r),
     ...tradeEntry(r),
+    ...runEntry(r),
+  };
+}
+
+/** The fields of values taken from other runs and of `extrapolate:` (null where they do not apply). */
+function runEntry(r: BlockReport['results']): Pick<ReportEntry, 'polarizationAt' | 'thermalReference'> {
+  const at = r?.polarizationAt;
+  const run = r?.signal?.thermalRun;
+  return {
+    polarizationAt:
+      at && Number.isFinite(at.value)
+        ? {
+            time: at.time,
+            value: at.value,
+            uncertainty: finite(at.uncertainty),
+            from: at.from,
+            decay: { value: at.decay.value, uncertainty: finite(at.decay.uncertainty), run: at.decay.run },
+          }
+        : null,
+    thermalReference: run ? { id: run.id, date: run.date } : null,
   };
 }
 
@@ -269,6 +302,7 @@ export function unreadableEntry(file: string, reason: string): ReportEntry {
     invertedPairs: [],
     ...uncertaintyEntry(null),
     ...tradeEntry(null),
+    ...runEntry(null),
   };
 }
 

@@ -5,6 +5,7 @@
  * tree view and the CSV export are hosts of it.
  */
 import { Analyzer, type BlockReport } from '../analyzer/analyzer';
+import { RunBook } from '../runs/runBook';
 import { isNotebookPath, notebookCells } from '../text/jupyter';
 import type { Measured, Status } from '../types';
 import { csvText } from './csv';
@@ -37,6 +38,11 @@ export interface RunEntry {
   /** When β's interval holds 0: the bound |T| ≥ this, K. */
   readonly temperatureBound: number | null;
   readonly polarizationInterval: readonly [number, number] | null;
+  /**
+   * The runs this one takes values from by reference (`thermal: { run: … }`, `decay: { run: … }`): each one's
+   * note and the line of its opening fence, as in its own entry. Absent or empty when it refers to none.
+   */
+  readonly uses?: readonly { readonly uri: string; readonly line: number }[];
 }
 
 /** A group of runs under one heading (a note, or a date). */
@@ -45,17 +51,78 @@ export interface RunGroup {
   readonly entries: readonly RunEntry[];
 }
 
-/** The runs of many notes. */
+/**
+ * The runs of many notes. References between runs (`{ run: … }`) are followed among the notes the log holds;
+ * when a note changes, the notes whose runs use one of its runs are read again.
+ */
 export class RunLog {
   private readonly notes = new Map<string, readonly RunEntry[]>();
+  /** The Markdown notes the log holds, with their names, for reading again a note that uses a changed run. */
+  private readonly texts = new Map<string, { readonly name: string; readonly text: string }>();
+  private readonly book: RunBook;
+  /** How many references of the held notes name each id: a note none of whose ids is named has no users. */
+  private readonly named = new Map<string, number>();
 
-  constructor(private readonly analyzer: Analyzer = new Analyzer()) {}
+  constructor(private readonly analyzer: Analyzer = new Analyzer()) {
+    this.book = new RunBook({ analyzer });
+  }
 
   /**
    * Reads (or re-reads) one note; returns true when its runs changed. A URI ending in `.ipynb` is read as a
    * Jupyter notebook: each Markdown cell is a note of its own (a file that is not a notebook has no runs).
    */
   update(uri: string, name: string, text: string): boolean {
+    if (isNotebookPath(uri)) return this.read(uri, name, text);
+    // The notes that used this note's runs before the change, and those that use them after it.
+    const before = this.usersOfNote(uri);
+    this.count(uri, -1);
+    this.texts.set(uri, { name, text });
+    this.book.setNote(uri, text);
+    this.count(uri, 1);
+    return this.readAgain(uri, before);
+  }
+
+  /** Adds (or takes away) the ids a note's references name. */
+  private count(uri: string, sign: 1 | -1): void {
+    for (const b of this.book.blocksOf(uri))
+      for (const ref of b.refs) {
+        const n = (this.named.get(ref.id) ?? 0) + sign;
+        if (n > 0) this.named.set(ref.id, n);
+        else this.named.delete(ref.id);
+      }
+  }
+
+  /** The notes whose runs use a run of `uri` (none, without a walk of the book, when no reference names its ids). */
+  private usersOfNote(uri: string): readonly string[] {
+    const named = this.book.blocksOf(uri).some((b) => b.id !== null && this.named.has(b.id));
+    return named ? this.book.dependents(uri) : [];
+  }
+
+  /** The runs that take values from the run at `uri` whose block opens at `line`, by note name then line. */
+  users(uri: string, line: number): RunEntry[] {
+    return this.entries().filter((e) => (e.uses ?? []).some((u) => u.uri === uri && u.line === line));
+  }
+
+  /** Reads the note, then every note whose runs use its runs (before or now); true when any of them changed. */
+  private readAgain(uri: string, before: readonly string[]): boolean {
+    const t = this.texts.get(uri);
+    let changed = t ? this.read(uri, t.name, t.text) : false;
+    for (const n of new Set([...before, ...this.usersOfNote(uri)])) {
+      const d = this.texts.get(n);
+      if (d && this.read(n, d.name, d.text)) changed = true;
+    }
+    return changed;
+  }
+
+  private read(uri: string, name: string, text: string): boolean {
+    const uses = (b: BlockReport): RunEntry['uses'] => {
+      const out: { uri: string; line: number }[] = [];
+      for (const ref of b.meta.refs ?? []) {
+        const t = this.book.target(uri, ref);
+        if (t) out.push({ uri: t.note, line: t.block.openLine });
+      }
+      return out;
+    };
     const entry = (b: BlockReport, cell: number | null): RunEntry => ({
       uri,
       name,
@@ -77,10 +144,11 @@ export class RunLog {
       temperatureInterval: b.results?.intervals.temperature ?? null,
       temperatureBound: b.results?.intervals.temperatureBound ?? null,
       polarizationInterval: b.results?.intervals.polarization ?? null,
+      uses: uses(b),
     });
     const entries: RunEntry[] = isNotebookPath(uri)
       ? notebookCells(text).cells.flatMap((c) => this.analyzer.analyzeText(c.text).blocks.map((b) => entry(b, c.index)))
-      : this.analyzer.analyzeText(text).blocks.map((b) => entry(b, null));
+      : this.analyzer.analyzeText(text, this.book.externalsFor(uri)).blocks.map((b) => entry(b, null));
     const before = this.notes.get(uri);
     if (before && JSON.stringify(before) === JSON.stringify(entries)) return false;
     if (entries.length === 0 && !before) return false;
@@ -89,9 +157,14 @@ export class RunLog {
     return true;
   }
 
-  /** Forgets a deleted note; returns true when it had runs. */
+  /** Forgets a deleted note; returns true when it or a note using its runs changed. */
   remove(uri: string): boolean {
-    return this.notes.delete(uri);
+    const before = this.usersOfNote(uri);
+    this.count(uri, -1);
+    this.texts.delete(uri);
+    this.book.deleteNote(uri);
+    const had = this.notes.delete(uri);
+    return this.readAgain(uri, before) || had;
   }
 
   /** How many notes hold runs. */

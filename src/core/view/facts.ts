@@ -12,6 +12,7 @@ import {
   type DisplayOptions,
 } from '../present/summary';
 import type { Fact, MeasuredPoint, ThermalMarker } from './payload';
+import { polarizationAtText, thermalReferenceText } from '../present/runSummary';
 
 /** Entropy in k per system with its uncertainty when known. */
 function entropyText(s: number, u: number | null, digits: number): string {
@@ -36,6 +37,10 @@ export function blockFacts(
     { label: 'inverse temperature', text: betaText(results, o) },
   ];
   if (results.polarization) facts.push({ label: 'polarization', text: `P = ${polarizationText(results, o)}` });
+  const at = polarizationAtText(results, o);
+  if (at) facts.push({ label: 'polarization, extrapolated', text: at });
+  const ref = thermalReferenceText(results);
+  if (ref) facts.push({ label: 'thermal reference', text: ref.replace(/^thermal reference: /, '') });
   if (point) {
     facts.push({ label: 'entropy (measured)', text: `S/N = ${entropyText(point.entropy, point.uEntropy, o.digits)}` });
     if (point.thermalEntropy !== null) {

@@ -9,6 +9,7 @@ import {
   betaText,
   enhancementText,
   formatNumber,
+  formatTemperature,
   fractionText,
   statusWords,
   temperatureSymbol,
@@ -87,7 +88,11 @@ export function resultRows(state: NoteState, b: BlockReport, o: DisplayOptions):
   const lattice = b.input?.lattice;
   if (r.thermalPolarization !== null && lattice) {
     // Three digits, as the report table prints P_th: it is a derived reference value.
-    const where = escapeMarkdown(writtenText(state, b.toNote(lattice.span)));
+    // A lattice taken from a thermal reference run is written there, not here: its value and the run's id.
+    const run = r.signal?.thermalRun;
+    const where = run
+      ? `${formatTemperature(lattice.value, lattice.uncertainty, { digits: o.digits })} of ${escapeMarkdown(run.id)}`
+      : escapeMarkdown(writtenText(state, b.toNote(lattice.span)));
     const pth = { value: r.thermalPolarization, uncertainty: r.uThermalPolarization };
     rows.push([`P\\_th at ${where}`, fractionText(pth, { ...o, digits: Math.min(o.digits, 3) })]);
   }

@@ -1,0 +1,599 @@
+/**
+ * A host-neutral book of runs: the hosts feed it note texts (the command
+ * line the notes it reads, the language server every note of the workspace,
+ * unsaved edits included) and it answers references between blocks
+ * ({@link RunResolver}), the ids of the workspace, who refers to whom, and the
+ * stamps of the dependency keys it handed out.
+ *
+ * Each note is indexed when it is set: its `levels` blocks, their ids and the
+ * references they make, read without following anything. Cycles are found on
+ * that graph of written references, before anything is evaluated, so the
+ * evaluation of a referenced block (through the analyzer, with this book as
+ * its source) always ends. A key's stamp is a hash of the bodies of every
+ * block reachable from the referenced one and of how each of their references
+ * resolved: it changes exactly when an answer could.
+ */
+import { Analyzer } from '../analyzer/analyzer';
+import type { Externals } from '../block/externals';
+import { interpretBody } from '../block/interpret';
+import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
+import { editDistance } from '../text/suggest';
+import type { Span } from '../types';
+import { resolveNotePath } from './paths';
+import {
+  parseRunKey,
+  RUN_KEY_PREFIX,
+  runCopiesKey,
+  runRefKey,
+  type RunAnswer,
+  type RunCopies,
+  type RunError,
+  type RunFacts,
+  type RunPlace,
+  type RunRef,
+  type RunResolver,
+} from './types';
+
+/** The longest chain of references a run may stand at the start of: each link is evaluated inside the next. */
+export const MAX_CHAIN = 32;
+
+/** The `Externals` a book hands to the analyzer for one note. */
+export interface RunExternals extends Externals {
+  readonly runs: RunResolver;
+}
+
+/** Options of a {@link RunBook}. */
+export interface RunBookOptions {
+  /** The analyzer that evaluates referenced blocks (shared with the host's, to share its options). */
+  readonly analyzer?: Analyzer;
+  /** Extra fence info strings read as `levels` blocks (as the analyzer's option). */
+  readonly infoStrings?: readonly string[];
+  /**
+   * Reads a note a reference names that was not set: its text, or null when it does not exist or the host
+   * may not read it (the command line reads only inside the folder tree it was given).
+   */
+  readonly load?: (note: string) => string | null | { readonly refused: string };
+}
+
+/** One `levels` block of a note, as indexed. */
+export interface BookBlock {
+  readonly note: string;
+  /** Position among the note's `levels` blocks. */
+  readonly index: number;
+  readonly block: FencedBlock;
+  readonly id: string | null;
+  /** Where the id value is, in note offsets, or null without an id. */
+  readonly place: RunPlace | null;
+  /** The references the block writes (body-relative spans). */
+  readonly refs: readonly RunRef[];
+  readonly hash: string;
+}
+
+/** A reference found in the book, with note offsets. */
+export interface BookReference {
+  /** The referring block. */
+  readonly from: BookBlock;
+  readonly ref: RunRef;
+  /** Note offsets of the whole reference value and of its id part. */
+  readonly span: Span;
+  readonly idSpan: Span;
+}
+
+interface BookNote {
+  readonly note: string;
+  readonly text: string;
+  readonly blocks: readonly BookBlock[];
+  /** True when the book read the note itself through `load` (no host set it). */
+  readonly loaded: boolean;
+}
+
+/** What a block's body gives the index (kept per body, shared by every note and version that has it). */
+interface BodyFacts {
+  readonly id: string | null;
+  readonly idSpan: Span | null;
+  readonly refs: readonly RunRef[];
+  readonly hash: string;
+}
+
+/** The book. One per host; not safe to share across threads (there are none). */
+export class RunBook implements RunResolver {
+  private readonly notes = new Map<string, BookNote>();
+  /** Run id → every block carrying it, in note order then block order. */
+  private readonly byId = new Map<string, BookBlock[]>();
+  private readonly bodies = new Map<string, BodyFacts>();
+  private readonly analyzer: Analyzer;
+  private readonly infoStrings: readonly string[];
+  private readonly load: RunBookOptions['load'] | null;
+  /** Notes looked for through `load` and not found (until the next change), with why when the host refused. */
+  private readonly missing = new Map<string, string | null>();
+  /** Evaluated blocks, by block, with the stamp of what they read. */
+  private readonly evaluated = new WeakMap<BookBlock, { stamp: string; facts: RunFacts }>();
+  /** Counts changes, to keep stamps computed since the last one. */
+  private generation = 0;
+  private readonly stamps = new Map<string, string | null>();
+  private stampsFor = -1;
+  /** Chain lengths known since the last change: exact, or "longer than `above`". */
+  private readonly chains = new Map<BookBlock, { exact?: number; above?: number }>();
+  private chainsFor = -1;
+
+  constructor(options: RunBookOptions = {}) {
+    this.analyzer = options.analyzer ?? new Analyzer({ infoStrings: options.infoStrings ?? [] });
+    this.infoStrings = options.infoStrings ?? this.analyzer.options.infoStrings;
+    this.load = options.load ?? null;
+  }
+
+  /**
+   * Sets (or replaces) a note's text; the host's version wins over one read through `load`. A host sets a
+   * note's current text before it analyses the note with {@link externalsFor}: the book tells a block from
+   * the others (and finds the cycles through it) by its body in the note as set.
+   */
+  setNote(note: string, text: string): void {
+    this.drop(note);
+    this.index(note, text, false);
+  }
+
+  /** Forgets a note (deleted, or closed and gone from the workspace). */
+  deleteNote(note: string): void {
+    this.drop(note);
+    this.changed();
+  }
+
+  /** True when the book holds the note. */
+  hasNote(note: string): boolean {
+    return this.notes.has(note);
+  }
+
+  /** The notes the book holds, set or loaded. */
+  noteNames(): string[] {
+    return [...this.notes.keys()];
+  }
+
+  /** The note's `levels` blocks as indexed (empty for an unknown note). */
+  blocksOf(note: string): readonly BookBlock[] {
+    return this.notes.get(note)?.blocks ?? [];
+  }
+
+  /** Every block that carries an id, in the order of the notes given. */
+  runs(): BookBlock[] {
+    const out: BookBlock[] = [];
+    for (const n of this.notes.values()) for (const b of n.blocks) if (b.id !== null) out.push(b);
+    return out;
+  }
+
+  /** Every block carrying `id`. */
+  blocksWithId(id: string): readonly BookBlock[] {
+    return this.byId.get(id) ?? [];
+  }
+
+  /** The block of `note` whose body is `body`, or null. */
+  blockAt(note: string, body: string): BookBlock | null {
+    for (const b of this.blocksOf(note)) if (b.block.body === body) return b;
+    return null;
+  }
+
+  /** The block a reference written in `from` leads to (null when unknown, missing or not followed). */
+  target(from: string, ref: { readonly note: string | null; readonly id: string }): BookBlock | null {
+    const r = this.locate(from, ref);
+    return r.kind === 'found' ? r.block : null;
+  }
+
+  /** Every reference written in a note, in order, with note offsets. */
+  references(note: string): BookReference[] {
+    const out: BookReference[] = [];
+    for (const b of this.blocksOf(note))
+      for (const ref of b.refs)
+        out.push({ from: b, ref, span: toNote(b.block, ref.span), idSpan: toNote(b.block, ref.idSpan) });
+    return out;
+  }
+
+  /** The reference whose value holds the note offset (ends included, as a cursor sees it), or null. */
+  referenceAt(note: string, offset: number): BookReference | null {
+    for (const r of this.references(note)) if (offset >= r.span.start && offset <= r.span.end) return r;
+    return null;
+  }
+
+  /** The block whose `id` value holds the note offset (ends included), or null. */
+  idAt(note: string, offset: number): BookBlock | null {
+    for (const b of this.blocksOf(note))
+      if (b.place && offset >= b.place.span.start && offset <= b.place.span.end) return b;
+    return null;
+  }
+
+  /** Every reference, in every note of the book, that leads to `target`. */
+  referrers(target: BookBlock): BookReference[] {
+    const out: BookReference[] = [];
+    if (target.id === null) return out;
+    for (const n of this.notes.values())
+      for (const b of n.blocks)
+        for (const ref of b.refs) {
+          if (ref.id !== target.id) continue;
+          if (this.target(n.note, ref) !== target) continue;
+          out.push({ from: b, ref, span: toNote(b.block, ref.span), idSpan: toNote(b.block, ref.idSpan) });
+        }
+    return out;
+  }
+
+  /**
+   * The notes whose blocks use `changed` (one of its blocks), directly or through other blocks: what a host
+   * analyses and publishes again after `changed` was edited.
+   */
+  dependents(changed: string): string[] {
+    // Who refers to whom, backwards, once; then a walk from the changed note's blocks.
+    const back = new Map<BookBlock, BookBlock[]>();
+    for (const n of this.notes.values())
+      for (const b of n.blocks)
+        for (const ref of b.refs) {
+          const t = this.target(n.note, ref);
+          if (!t) continue;
+          const list = back.get(t);
+          if (list) list.push(b);
+          else back.set(t, [b]);
+        }
+    const seen = new Set<BookBlock>(this.blocksOf(changed));
+    const queue = [...seen];
+    const notes = new Set<string>();
+    for (let i = 0; i < queue.length; i++)
+      for (const b of back.get(queue[i]!) ?? []) {
+        if (seen.has(b)) continue;
+        seen.add(b);
+        queue.push(b);
+        notes.add(b.note);
+      }
+    notes.delete(changed);
+    return [...notes];
+  }
+
+  /** The analyzer's sources for a note of this book. */
+  externalsFor(note: string): RunExternals {
+    return { note, runs: this, stamp: (key) => this.stamp(key) };
+  }
+
+  /** True for the dependency keys this book answers. */
+  owns(key: string): boolean {
+    return key.startsWith(RUN_KEY_PREFIX);
+  }
+
+  /** The current stamp of a key handed out by {@link resolve} or {@link copies}. */
+  stamp(key: string): string | null {
+    if (this.stampsFor !== this.generation) {
+      this.stamps.clear();
+      this.stampsFor = this.generation;
+    }
+    const known = this.stamps.get(key);
+    if (known !== undefined) return known;
+    const parsed = parseRunKey(key);
+    let stamp: string | null = null;
+    if (parsed?.kind === 'ref') {
+      const r = this.locate(parsed.from, parsed);
+      stamp = r.kind === 'found' ? this.closure(r.block) : null;
+    } else if (parsed?.kind === 'copies') {
+      stamp = this.copiesStamp(parsed.id);
+    }
+    this.stamps.set(key, stamp);
+    return stamp;
+  }
+
+  resolve(from: string, ref: { readonly note: string | null; readonly id: string }, at: string): RunAnswer {
+    const key = runRefKey(from, ref.note, ref.id);
+    const r = this.locate(from, ref);
+    if (r.kind === 'missing') {
+      const why = this.missing.get(r.note) ?? null;
+      return why === null
+        ? { kind: 'note-missing', note: r.note, key, stamp: this.stamp(key) }
+        : { kind: 'note-missing', note: r.note, why, key, stamp: this.stamp(key) };
+    }
+    if (r.kind === 'unknown')
+      return { kind: 'unknown', known: this.nearIds(ref.id, r.among), key, stamp: this.stamp(key) };
+    const self = this.blockAt(from, at);
+    if (self) {
+      const chain = this.pathTo(r.block, self);
+      if (chain)
+        return {
+          kind: 'cycle',
+          chain: [self.id ?? '?', ...chain.map((b) => b.id ?? '?')],
+          key,
+          stamp: this.stamp(key),
+        };
+    }
+    return { kind: 'found', run: this.facts(r.block), key, stamp: this.stamp(key) };
+  }
+
+  copies(from: string, id: string, at: string): RunCopies {
+    const key = runCopiesKey(id);
+    const self = this.blockAt(from, at);
+    const others: RunPlace[] = [];
+    for (const b of this.blocksWithId(id)) if (b !== self && b.place) others.push(b.place);
+    return { others, key, stamp: this.stamp(key) };
+  }
+
+  /** The run a block of the book is, as a referring block sees it (evaluated once per stamp). */
+  facts(b: BookBlock): RunFacts {
+    const stamp = this.closure(b);
+    const memo = this.evaluated.get(b);
+    if (memo && memo.stamp === stamp) return memo.facts;
+    const place = b.place ?? {
+      note: b.note,
+      span: { start: b.block.openStart, end: b.block.openEnd },
+      line: b.block.openLine,
+    };
+    if (this.chainLength(b, MAX_CHAIN + 1) > MAX_CHAIN) {
+      // Evaluated one inside the other, a longer chain could exhaust the stack: refused before it is read.
+      const facts: RunFacts = {
+        id: b.id ?? '',
+        place,
+        date: null,
+        input: null,
+        results: null,
+        status: 'invalid',
+        error: {
+          code: 'reference-chain',
+          message: `its references go more than ${MAX_CHAIN} runs deep; take a value from a run nearer its source`,
+          severity: 'error',
+          line: place.line,
+        },
+      };
+      this.evaluated.set(b, { stamp, facts });
+      return facts;
+    }
+    const c = this.analyzer.analyseBody(b.block.body, this.externalsFor(b.note));
+    const first = c.problems.find((p) => p.severity === 'error') ?? null;
+    const error: RunError | null = first
+      ? {
+          code: first.code,
+          message: first.message,
+          severity: first.severity,
+          line: lineOf(b.block, first.span.start),
+        }
+      : null;
+    const facts: RunFacts = {
+      id: b.id ?? '',
+      place: b.place ?? {
+        note: b.note,
+        span: { start: b.block.openStart, end: b.block.openEnd },
+        line: b.block.openLine,
+      },
+      date: c.meta.date,
+      input: c.input,
+      results: error ? null : c.results,
+      status: error || !c.results ? 'invalid' : c.results.status,
+      error,
+    };
+    this.evaluated.set(b, { stamp, facts });
+    return facts;
+  }
+
+  // --- inside ---
+
+  private changed(): void {
+    this.generation++;
+    this.missing.clear();
+  }
+
+  private drop(note: string): void {
+    const old = this.notes.get(note);
+    if (!old) return;
+    this.notes.delete(note);
+    for (const b of old.blocks) {
+      if (b.id === null) continue;
+      const list = this.byId.get(b.id);
+      if (!list) continue;
+      const kept = list.filter((x) => x !== b);
+      if (kept.length > 0) this.byId.set(b.id, kept);
+      else this.byId.delete(b.id);
+    }
+  }
+
+  private index(note: string, text: string, loaded: boolean): BookNote {
+    const blocks: BookBlock[] = [];
+    for (const block of scanFencedBlocks(text)) {
+      if (!isLevelsInfo(block, this.infoStrings)) continue;
+      const f = this.bodyFacts(block.body);
+      const place: RunPlace | null =
+        f.idSpan && f.id !== null ? { note, span: toNote(block, f.idSpan), line: lineOf(block, f.idSpan.start) } : null;
+      const b: BookBlock = { note, index: blocks.length, block, id: f.id, place, refs: f.refs, hash: f.hash };
+      blocks.push(b);
+      if (b.id !== null) {
+        const list = this.byId.get(b.id);
+        if (list) list.push(b);
+        else this.byId.set(b.id, [b]);
+      }
+    }
+    const n: BookNote = { note, text, blocks, loaded };
+    this.notes.set(note, n);
+    this.changed();
+    return n;
+  }
+
+  private bodyFacts(body: string): BodyFacts {
+    const known = this.bodies.get(body);
+    if (known) return known;
+    // Read without sources: only the id and the references as written are kept. Read from (and kept under) a
+    // copy of the body: a body sliced from the note would keep that whole version of the note alive.
+    const own = ownCopy(body);
+    const m = interpretBody(own, null).meta;
+    const f: BodyFacts = { id: m.id, idSpan: m.idSpan, refs: m.refs ?? [], hash: hash(body) };
+    if (this.bodies.size > 50_000) this.bodies.clear();
+    this.bodies.set(own, f);
+    return f;
+  }
+
+  /** A note of the book, read through `load` when a reference names one that was not set. */
+  private noteFor(note: string): BookNote | null {
+    const n = this.notes.get(note);
+    if (n) return n;
+    if (!this.load || this.missing.has(note)) return null;
+    const text = this.load(note);
+    if (text === null || typeof text !== 'string') {
+      this.missing.set(note, text === null ? null : text.refused);
+      return null;
+    }
+    return this.index(note, text, true);
+  }
+
+  /** Where a reference leads, without evaluating anything. */
+  private locate(
+    from: string,
+    ref: { readonly note: string | null; readonly id: string },
+  ):
+    | { kind: 'found'; block: BookBlock }
+    | { kind: 'unknown'; among: readonly string[] }
+    | { kind: 'missing'; note: string } {
+    if (ref.note !== null) {
+      const path = resolveNotePath(from, ref.note);
+      const n = this.noteFor(path);
+      if (!n) return { kind: 'missing', note: path };
+      const b = n.blocks.find((x) => x.id === ref.id);
+      if (b) return { kind: 'found', block: b };
+      return { kind: 'unknown', among: n.blocks.flatMap((x) => (x.id === null ? [] : [x.id])) };
+    }
+    const all = this.byId.get(ref.id);
+    if (all && all.length > 0) return { kind: 'found', block: all.find((x) => x.note === from) ?? all[0]! };
+    return { kind: 'unknown', among: [...this.byId.keys()] };
+  }
+
+  /**
+   * The number of runs on the longest chain of written references from `b` (b itself counts 1), or more
+   * than `bound` when it is longer than `bound`; a cycle counts as ending where it closes. Lengths are kept
+   * until the next change (exact ones, and "longer than k"), so a lattice of references is walked once per
+   * block and bound, not once per path.
+   */
+  private chainLength(b: BookBlock, bound: number): number {
+    if (this.chainsFor !== this.generation) {
+      this.chains.clear();
+      this.chainsFor = this.generation;
+    }
+    return this.chainFrom(b, bound, new Set()).length;
+  }
+
+  private chainFrom(b: BookBlock, bound: number, on: Set<BookBlock>): { length: number; cut: boolean } {
+    const known = this.chains.get(b);
+    if (known?.exact !== undefined) return { length: known.exact, cut: false };
+    if (known?.above !== undefined && known.above >= bound) return { length: bound + 1, cut: false };
+    if (bound <= 0) return { length: 1, cut: false };
+    if (on.has(b)) return { length: 0, cut: true };
+    on.add(b);
+    let longest = 0;
+    let cut = false;
+    for (const ref of b.refs) {
+      const t = this.target(b.note, ref);
+      if (!t) continue;
+      const r = this.chainFrom(t, bound - 1, on);
+      cut ||= r.cut;
+      longest = Math.max(longest, r.length);
+      if (longest >= bound) break;
+    }
+    on.delete(b);
+    const length = 1 + longest;
+    if (!cut) {
+      if (length <= bound) this.chains.set(b, { exact: length });
+      else this.chains.set(b, { above: Math.max(bound, known?.above ?? 0) });
+    }
+    return { length, cut };
+  }
+
+  /** The blocks on a path of written references from `start` to `goal` (start first, goal last), or null. */
+  private pathTo(start: BookBlock, goal: BookBlock): BookBlock[] | null {
+    const seen = new Set<BookBlock>([start]);
+    const back = new Map<BookBlock, BookBlock>();
+    const queue: BookBlock[] = [start];
+    for (let i = 0; i < queue.length; i++) {
+      const b = queue[i]!;
+      if (b === goal) {
+        const path: BookBlock[] = [b];
+        for (let at = back.get(b); at; at = back.get(at)) path.unshift(at);
+        return path;
+      }
+      for (const ref of b.refs) {
+        const t = this.target(b.note, ref);
+        if (t && !seen.has(t)) {
+          seen.add(t);
+          back.set(t, b);
+          queue.push(t);
+        }
+      }
+    }
+    return null;
+  }
+
+  /** The stamp of a block: its body and, for every block reachable from it, its body and how its references resolved. */
+  private closure(start: BookBlock): string {
+    const seen = new Set<BookBlock>([start]);
+    const queue: BookBlock[] = [start];
+    const parts: string[] = [];
+    for (let i = 0; i < queue.length; i++) {
+      const b = queue[i]!;
+      parts.push(`${b.note}#${b.id ?? b.index}:${b.hash}`);
+      for (const ref of b.refs) {
+        const r = this.locate(b.note, ref);
+        if (r.kind !== 'found') {
+          parts.push(`${ref.note ?? ''}#${ref.id}:${r.kind}`);
+          continue;
+        }
+        if (!seen.has(r.block)) {
+          seen.add(r.block);
+          queue.push(r.block);
+        }
+      }
+    }
+    return hash(parts.join('\n'));
+  }
+
+  /** The notes holding a block with `id` (one entry per block), sorted: what an `id-duplicate` message says. */
+  private copiesStamp(id: string): string | null {
+    const list = this.byId.get(id);
+    if (!list || list.length === 0) return null;
+    return list.length === 1
+      ? '1'
+      : hash(
+          list
+            .map((b) => b.note)
+            .sort()
+            .join('\n'),
+        );
+  }
+
+  /** The ids closest to `id` (for "did you mean"), nearest first, at most five. */
+  private nearIds(id: string, among: readonly string[]): string[] {
+    const bound = Math.max(2, Math.floor(id.length / 3));
+    const scored: { id: string; d: number }[] = [];
+    const lower = id.toLowerCase();
+    for (const c of new Set(among)) {
+      const d = editDistance(lower, c.toLowerCase(), bound);
+      if (d <= bound) scored.push({ id: c, d });
+    }
+    scored.sort((a, b) => a.d - b.d || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+    return scored.slice(0, 5).map((s) => s.id);
+  }
+}
+
+/** A copy of a string that shares no memory with its parent (as the analyzer's cache keeps bodies). */
+function ownCopy(s: string): string {
+  return (s + ' ').slice(0, -1);
+}
+
+/** A body-relative span as note offsets. */
+function toNote(block: FencedBlock, s: Span): Span {
+  const start = bodyToDocument(block, Math.max(0, Math.min(s.start, block.body.length)));
+  const end = bodyToDocument(block, Math.max(0, Math.min(s.end, block.body.length)));
+  return { start, end: Math.max(start, end) };
+}
+
+/** The 0-based note line of a body offset. */
+function lineOf(block: FencedBlock, bodyOffset: number): number {
+  let line = block.bodyLine;
+  const end = Math.min(bodyOffset, block.body.length);
+  for (let i = 0; i < end; i++) if (block.body.charCodeAt(i) === 10) line++;
+  return line;
+}
+
+/** A 64-bit FNV-1a hash of the text (two 32-bit halves), as hex: a stamp, not a security measure. */
+function hash(text: string): string {
+  let h1 = 0x811c9dc5;
+  let h2 = 0x01000193 ^ text.length;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    h1 = Math.imul(h1 ^ c, 0x01000193);
+    h2 = Math.imul(h2 ^ c, 0x5bd1e995) ^ (h2 >>> 15);
+  }
+  return (h1 >>> 0).toString(16).padStart(8, '0') + (h2 >>> 0).toString(16).padStart(8, '0');
+}

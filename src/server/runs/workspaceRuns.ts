@@ -1,0 +1,204 @@
+/**
+ * The workspace's runs, for runs by reference (docs/format.md, "A run by
+ * reference"): every Markdown note of the workspace folders, open or not,
+ * fed to the core's {@link RunBook}. Notes on disk are read once when the
+ * folders are known and again on each file event; an open note's unsaved
+ * text wins over its file. The book answers the `run:` dependency keys of
+ * the analyses (an {@link ExternalPart}), so a note whose referenced blocks
+ * changed is analysed again, and nothing else.
+ *
+ * Notes are named by URI, spelled as VS Code spells a file URI (every
+ * character but the unreserved ones percent-encoded in each path segment),
+ * which is also how the core spells a note a reference names.
+ */
+import { Analyzer, isInside, LineIndex, RunBook, type RunResolver } from '../../core';
+import type { ExternalPart } from '../externals';
+import { SERVER_LIMITS } from '../notes';
+
+/** Note files the index reads. */
+export const NOTE_FILE = /\.(md|markdown)$/i;
+/** Files read at once while the folders are walked. */
+const READ_BATCH = 32;
+
+/**
+ * How the index reads notes that are not open: from disk where the server runs on Node.js (see
+ * diskNotes.ts); a server without a file system (in a browser) has none and indexes the open notes only.
+ */
+export interface NoteFiles {
+  /** Every note file (by URI) under a folder URI. */
+  list(folder: string): Promise<string[]>;
+  /** A note's text, or null when it is missing, too large or unreadable. */
+  read(uri: string): Promise<string | null>;
+  /** The same, at once (for a reference to a note the walk has not reached yet). */
+  readNow(uri: string): string | null;
+}
+
+/** A file URI as VS Code spells it (and as the core's note paths are spelled). */
+export function fileUri(path: string): string {
+  let p = path.replace(/\\/g, '/');
+  if (!p.startsWith('/')) p = '/' + p;
+  // VS Code lowercases a drive letter.
+  p = p.replace(/^\/([A-Za-z]):/, (_m, d: string) => `/${d.toLowerCase()}:`);
+  return (
+    'file://' +
+    p
+      .split('/')
+      .map((s) => encodeURIComponent(s).replace(/[!'()*]/g, (c) => '%' + c.charCodeAt(0).toString(16).toUpperCase()))
+      .join('/')
+  );
+}
+
+/** True when the URI names a note the index reads. */
+export function isNoteUri(uri: string): boolean {
+  return NOTE_FILE.test(uri.split(/[?#]/)[0] ?? '');
+}
+
+/** What changed in the index: the notes set or removed. */
+export type IndexListener = (notes: readonly string[]) => void;
+
+/** The index of every run of the workspace. */
+export class WorkspaceRuns implements ExternalPart {
+  readonly book: RunBook;
+  /** Notes with an unsaved text (open in the editor): file events do not replace them. */
+  private readonly open = new Set<string>();
+  /** The text of every note of the book, for positions in notes that are not open. */
+  private readonly texts = new Map<string, { text: string; lines: LineIndex | null }>();
+  private folders: string[] = [];
+  private scanning: Promise<void> = Promise.resolve();
+  private scans = 0;
+
+  constructor(
+    private readonly changed: IndexListener,
+    private readonly files: NoteFiles | null,
+    analyzer: Analyzer = new Analyzer({ limits: SERVER_LIMITS }),
+  ) {
+    this.book = new RunBook({ analyzer, load: (note) => this.loadNow(note) });
+  }
+
+  /** The resolver the analyses of every note use. */
+  get runs(): RunResolver {
+    return this.book;
+  }
+
+  owns(key: string): boolean {
+    return this.book.owns(key);
+  }
+
+  stamp(key: string): string | null {
+    return this.book.stamp(key);
+  }
+
+  /** The text of a note of the book, or null. */
+  textOf(note: string): string | null {
+    return this.texts.get(note)?.text ?? null;
+  }
+
+  /** The line index of a note of the book, or null. */
+  linesOf(note: string): LineIndex | null {
+    const t = this.texts.get(note);
+    if (!t) return null;
+    if (!t.lines) t.lines = new LineIndex(t.text);
+    return t.lines;
+  }
+
+  /** Resolves when the latest walk of the folders is over. */
+  ready(): Promise<void> {
+    return this.scanning;
+  }
+
+  /** Sets the workspace folders (URIs) and reads every note in them; notes of removed folders are dropped. */
+  setFolders(folders: readonly string[]): Promise<void> {
+    this.folders = [...folders];
+    const scan = ++this.scans;
+    const gone = this.book.noteNames().filter((n) => !this.open.has(n) && !this.inFolders(n));
+    for (const n of gone) this.forget(n);
+    if (gone.length > 0) this.changed(gone);
+    this.scanning = this.walkAll(scan);
+    return this.scanning;
+  }
+
+  /** An open note's text (opened or edited). */
+  edited(uri: string, text: string): void {
+    this.open.add(uri);
+    if (this.texts.get(uri)?.text === text) return;
+    this.set(uri, text);
+    this.changed([uri]);
+  }
+
+  /** A note was closed: its file's text takes over (or it leaves the index when it has no file in the folders). */
+  async closed(uri: string): Promise<void> {
+    this.open.delete(uri);
+    await this.reread(uri);
+  }
+
+  /** A watched file was created, changed or deleted. */
+  async fileEvent(uri: string, kind: 'created' | 'changed' | 'deleted'): Promise<void> {
+    if (this.open.has(uri)) return;
+    if (kind === 'deleted' && !isNoteUri(uri)) {
+      // A folder was deleted: every note under it goes.
+      const gone = this.book.noteNames().filter((n) => !this.open.has(n) && isInside(n, uri));
+      for (const n of gone) this.forget(n);
+      if (gone.length > 0) this.changed(gone);
+      return;
+    }
+    if (!isNoteUri(uri)) return;
+    await this.reread(uri);
+  }
+
+  /** Reads a note again from disk (after a file event or when it was closed). */
+  private async reread(uri: string): Promise<void> {
+    const text = this.inFolders(uri) && this.files ? await this.files.read(uri) : null;
+    if (this.open.has(uri)) return; // opened meanwhile: the editor's text wins
+    if (text === null) {
+      if (!this.book.hasNote(uri)) return;
+      this.forget(uri);
+    } else {
+      if (this.texts.get(uri)?.text === text && this.book.hasNote(uri)) return;
+      this.set(uri, text);
+    }
+    this.changed([uri]);
+  }
+
+  private set(uri: string, text: string): void {
+    this.texts.set(uri, { text, lines: null });
+    this.book.setNote(uri, text);
+  }
+
+  private forget(uri: string): void {
+    this.texts.delete(uri);
+    this.book.deleteNote(uri);
+  }
+
+  private inFolders(uri: string): boolean {
+    return this.folders.some((f) => isInside(uri, f));
+  }
+
+  /** A note a reference names that the index does not hold yet (the walk is not over): read now, in the folders only. */
+  private loadNow(note: string): string | null {
+    if (!this.files || !this.inFolders(note) || !isNoteUri(note)) return null;
+    const text = this.files.readNow(note);
+    if (text !== null) this.texts.set(note, { text, lines: null });
+    return text;
+  }
+
+  private async walkAll(scan: number): Promise<void> {
+    const files = this.files;
+    if (!files) return;
+    const found: string[] = [];
+    for (const f of this.folders) found.push(...(await files.list(f)));
+    const set: string[] = [];
+    for (let i = 0; i < found.length; i += READ_BATCH) {
+      if (scan !== this.scans) return; // the folders changed: a newer walk takes over
+      const batch = found.slice(i, i + READ_BATCH);
+      const texts = await Promise.all(batch.map((u) => files.read(u)));
+      batch.forEach((uri, k) => {
+        const text = texts[k];
+        if (text === null || text === undefined || this.open.has(uri)) return;
+        if (this.texts.get(uri)?.text === text && this.book.hasNote(uri)) return;
+        this.set(uri, text);
+        set.push(uri);
+      });
+    }
+    if (set.length > 0) this.changed(set);
+  }
+}

@@ -1,0 +1,105 @@
+import { strict as assert } from 'node:assert';
+import { Analyzer, LineIndex, resolveNotePath } from '../../../src/core';
+import { badRunId, runPrepareRename, runSymbolAt } from '../../../src/server/features/runRefs';
+import { fileUri, WorkspaceRuns, type NoteFiles } from '../../../src/server/runs/workspaceRuns';
+import type { NoteState } from '../../../src/server/state';
+
+// Invented notes: only the index's bookkeeping is checked here (the LSP side is in test/protocol/runRefs.test.ts).
+const fence = (body: string): string => '```levels\n' + body + '\n```\n';
+const note = (id: string): string => fence(`id: ${id}\nsystem: 13C\nfield: 9.4 T\npolarization: 0.2`);
+
+/** A folder of notes in memory, as the server's disk reader would give them. */
+function memoryFiles(files: Map<string, string>): NoteFiles {
+  return {
+    list: (folder) => Promise.resolve([...files.keys()].filter((u) => u.startsWith(folder + '/'))),
+    read: (uri) => Promise.resolve(files.get(uri) ?? null),
+    readNow: (uri) => files.get(uri) ?? null,
+  };
+}
+
+describe('the workspace index of runs', () => {
+  const folder = 'file:///lab';
+  const a = 'file:///lab/a.md';
+  const b = 'file:///lab/sub/b.md';
+
+  it('reads every note of the folders, lets an open note win, and goes back to the file when it is closed', async () => {
+    const files = new Map([
+      [a, note('run a')],
+      [b, note('run b')],
+    ]);
+    const changed: string[][] = [];
+    const runs = new WorkspaceRuns((n) => changed.push([...n]), memoryFiles(files));
+    await runs.setFolders([folder]);
+    assert.deepEqual(
+      runs.book
+        .runs()
+        .map((x) => x.id)
+        .sort(),
+      ['run a', 'run b'],
+    );
+    runs.edited(a, note('run a edited'));
+    // A file event for an open note does not replace its unsaved text.
+    files.set(a, note('run a on disk'));
+    await runs.fileEvent(a, 'changed');
+    assert.equal(runs.book.blocksOf(a)[0]!.id, 'run a edited');
+    await runs.closed(a);
+    assert.equal(runs.book.blocksOf(a)[0]!.id, 'run a on disk');
+    // A deleted folder takes its notes with it.
+    files.delete(b);
+    await runs.fileEvent('file:///lab/sub', 'deleted');
+    assert.equal(runs.book.hasNote(b), false);
+    assert.ok(changed.some((c) => c.includes(b)));
+  });
+
+  it('reads nothing outside the workspace folders, and nothing without a file reader', async () => {
+    const files = new Map([['file:///elsewhere/x.md', note('far')]]);
+    const runs = new WorkspaceRuns(() => undefined, memoryFiles(files));
+    await runs.setFolders([folder]);
+    await runs.fileEvent('file:///elsewhere/x.md', 'created');
+    assert.equal(runs.book.hasNote('file:///elsewhere/x.md'), false);
+    const none = new WorkspaceRuns(() => undefined, null);
+    await none.setFolders([folder]);
+    assert.deepEqual(none.book.noteNames(), []);
+  });
+
+  it('spells a file URI as a reference resolved from a note of the folder does', () => {
+    const from = fileUri('/lab notes/day 1/run #1.md');
+    assert.equal(from, 'file:///lab%20notes/day%201/run%20%231.md');
+    assert.equal(resolveNotePath(from, '../refs/mon (12).md'), fileUri('/lab notes/refs/mon (12).md'));
+    assert.equal(fileUri('C:\\lab\\a.md'), 'file:///c%3A/lab/a.md');
+  });
+});
+
+describe('run ids as symbols', () => {
+  it('finds the id or the reference under a position, and refuses to rename anything else', () => {
+    const text =
+      note('ref 1') +
+      '\n' +
+      fence(
+        'id: run 2\nsystem: 13C\nfield: 9.4 T\npolarization: 0.2\nextrapolate: { from: 42 s, to: 0 s, decay: { run: ref 1 } }',
+      );
+    const uri = 'file:///lab/a.md';
+    const runs = new WorkspaceRuns(() => undefined, null);
+    runs.edited(uri, text);
+    const state: NoteState = {
+      uri,
+      version: 1,
+      text,
+      lines: new LineIndex(text),
+      report: new Analyzer().analyzeText(text),
+    };
+    const onId = runSymbolAt(runs, uri, text.indexOf('ref 1') + 2);
+    assert.equal(onId?.kind, 'id');
+    const onRef = runSymbolAt(runs, uri, text.lastIndexOf('ref 1') + 2);
+    assert.equal(onRef?.kind, 'ref');
+    assert.equal(runSymbolAt(runs, uri, text.indexOf('system')), null);
+    assert.equal(runPrepareRename(runs, state, state.lines.positionAt(text.indexOf('0.2'))), null);
+    const prep = runPrepareRename(runs, state, state.lines.positionAt(text.lastIndexOf('ref 1')));
+    assert.equal(prep?.placeholder, 'ref 1');
+  });
+
+  it('takes only a new id that reads back as the same plain value', () => {
+    assert.equal(badRunId('ref-13C Tuesday'), null);
+    for (const bad of ['', ' x', 'a: b', 'a#b', '{x}', '- x', 'two\nlines', "it's"]) assert.ok(badRunId(bad), bad);
+  });
+});
