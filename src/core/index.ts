@@ -16,6 +16,18 @@ export {
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from './block/externals';
+export {
+  SPECTRUM_MAX_BYTES,
+  type BaselineKind,
+  type Spectrum,
+  type SpectrumAnswer,
+  type SpectrumIntegral,
+  type SpectrumRead,
+  type SpectrumSource,
+  type SpectrumUse,
+} from './spectra/types';
+export { readSpectrum, spectrumBytes, SPECTRUM_EXTENSIONS, JCAMP_EXTENSIONS, TEXT_EXTENSIONS } from './spectra/read';
+export { convertX, parseXUnit, X_UNITS, type XUnit } from './spectra/axis';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {

@@ -12,6 +12,7 @@
  * changed spectrum or a changed referenced block makes exactly the blocks
  * that used it read again.
  */
+import type { SpectrumSource } from '../spectra/types';
 
 /** One thing a block's analysis read from outside the block, with the stamp it had then. */
 export interface Dependency {
@@ -35,6 +36,8 @@ export interface Externals {
   readonly note: string;
   /** The stamp a dependency key has now (null: not there). Asked for every dependency of a cached block on reuse. */
   stamp(key: string): string | null;
+  /** Spectrum files by path as written in the note (spectra/types.ts); keys `file:<absolute path or URI>`. */
+  readonly spectra?: SpectrumSource;
 }
 
 /** A dependency list shared by every block that has none (most blocks). */
