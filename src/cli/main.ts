@@ -18,11 +18,14 @@ import {
   STATUSES,
   terminalText,
   unreadableEntry,
+  SpectrumShelf,
+  type Externals,
   type Status,
 } from '../core';
+import { noteFolderOf, noteSpectra } from './spectra';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
-import { collectNotes, UsageError } from './files';
+import { collectNotes, STDIN, UsageError } from './files';
 import {
   DEFAULT_TABLE_WIDTH,
   formatCsv,
@@ -49,6 +52,8 @@ export interface Io {
 /** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
 function analyseAll(paths: readonly string[], io: Io): Row[] {
   const analyzer = new Analyzer();
+  // One shelf for the run: a spectrum file that several notes use is parsed once.
+  const shelf = new SpectrumShelf();
   const rows: Row[] = [];
   const stdin = io.stdin ?? (() => new Uint8Array(0));
   for (const note of collectNotes(paths, io.cwd, stdin)) {
@@ -56,13 +61,15 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
       rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
       continue;
     }
+    const at = noteFolderOf(note.name, io.cwd, note.name === STDIN);
+    const externals = noteSpectra(shelf, at.path, at.folder);
     const decoded = decodeUtf8(note.bytes);
     // A byte-order mark is not part of the note; offsets after it move back by one.
     const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
     const text = bom ? decoded.text.slice(1) : decoded.text;
     const invalid = decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom }));
     if (isNotebookPath(note.name)) {
-      rows.push(...notebookRows(analyzer, note.name, text));
+      rows.push(...notebookRows(analyzer, note.name, text, externals));
       if (invalid.length > 0)
         io.err(
           terminalText(
@@ -72,7 +79,7 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
       continue;
     }
     const lines = new LineIndex(text);
-    const blocks = analyzer.analyzeText(text).blocks;
+    const blocks = analyzer.analyzeText(text, externals).blocks;
     // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
     const outside: { byte: number; offset: number }[] = [];
     let next = 0;
@@ -112,7 +119,7 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
  * The rows of a Jupyter notebook: every block of its Markdown cells, each placed by its cell (1-based, among all
  * cells) and its line in that cell; or, for a file that is not a notebook, one row with the fault.
  */
-function notebookRows(analyzer: Analyzer, name: string, text: string): Row[] {
+function notebookRows(analyzer: Analyzer, name: string, text: string, externals: Externals): Row[] {
   const nb = notebookCells(text);
   if (nb.problem)
     return [
@@ -124,7 +131,7 @@ function notebookRows(analyzer: Analyzer, name: string, text: string): Row[] {
   return nb.cells.flatMap((c) => {
     const lines = new LineIndex(c.text);
     return analyzer
-      .analyzeText(c.text)
+      .analyzeText(c.text, externals)
       .blocks.map((block) => ({ block, entry: reportEntry(name, block, lines, c.index + 1) }));
   });
 }

@@ -28,6 +28,18 @@ export {
 } from './spectra/types';
 export { readSpectrum, spectrumBytes, SPECTRUM_EXTENSIONS, JCAMP_EXTENSIONS, TEXT_EXTENSIONS } from './spectra/read';
 export { convertX, parseXUnit, X_UNITS, type XUnit } from './spectra/axis';
+export {
+  DEFAULT_SHELF_BYTES,
+  fileStamp,
+  shelfSource,
+  SpectrumShelf,
+  type FileStat,
+  type Located,
+  type SyncFileAccess,
+} from './spectra/shelf';
+export { integrateRegion, noiseSigma, integralUncertainty, pointsIn, type RegionIntegral } from './spectra/integrate';
+export { FROM_FILE_MARK, spectraEntries, spectraLines, type SpectrumEntry } from './present/spectraReport';
+export { SPECTRUM_REF_KEYS } from './block/spectrumRef';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {

@@ -3,6 +3,7 @@
  * (energies in kelvin, sorted lowest first) and what was measured. Spans are
  * body-relative so the hosts can point at what the user wrote.
  */
+import type { SpectrumUse } from '../spectra/types';
 import type { SpinSpecies } from '../quantities/isotopes';
 import type { Span } from '../types';
 import type { BlockForm } from './schema';
@@ -166,6 +167,8 @@ export interface BlockMeta {
   readonly keys: ReadonlyMap<string, { key: Span; value: Span }>;
   /** The block's `date` as written (free text), or null. */
   readonly date: string | null;
+  /** The block's spectrum references in text order (block/spectrumRef.ts); absent or empty when none. */
+  readonly spectra?: readonly SpectrumUse[];
 }
 
 /** What one form's reader returns; the block reader adds the keys common to all forms. */

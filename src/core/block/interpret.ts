@@ -26,6 +26,7 @@ import {
   type ReadValue,
 } from './values';
 import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
+import { spectrumRefs } from './spectrumRef';
 
 /** What reading a block gave: its label and key spans, its input (null on errors) and its problems. */
 export interface Interpretation {
@@ -83,15 +84,16 @@ export function interpretBody(body: string, externals: Externals | null = null):
     return { meta: emptyMeta, input: null, problems, deps: NO_DEPENDENCIES };
   }
   const deps: Dependency[] = [];
-  const ctx: ReadContext = { body, problems, externals, deps };
   const all = entries(doc.contents);
   const byKey = new Map<string, Entry>();
   // Kept for as long as the block is cached; the spans are found again when first asked for.
   const keys = new KeySpans(body, keepName);
   for (const e of all) {
     byKey.set(e.key, e);
-    if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   }
+  const spectra = spectrumRefs(body, problems, byKey.get('spectrum'));
+  const ctx: ReadContext = { body, problems, externals, deps, spectra };
+  for (const e of all) if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   const idEntry = byKey.get('id');
   const idText = idEntry ? readText(ctx, idEntry.value) : null;
   const dateEntry = byKey.get('date');
@@ -101,6 +103,7 @@ export function interpretBody(body: string, externals: Externals | null = null):
     idSpan: idText?.span ?? null,
     keys,
     date: dateText && dateText.text !== '' ? dateText.text : null,
+    spectra: spectra.uses,
   };
 
   const forms: [string, BlockForm][] = [];
@@ -171,7 +174,8 @@ export function interpretBody(body: string, externals: Externals | null = null):
       };
     }
   }
-  if (countErrors(problems) > 0) input = null;
+  // A spectrum the host is still reading leaves the block without input (and without an error) until it is ready.
+  if (countErrors(problems) > 0 || spectra.pending > 0) input = null;
   return { meta, input, problems, deps: deps.length > 0 ? deps : NO_DEPENDENCIES };
 }
 

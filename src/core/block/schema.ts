@@ -101,6 +101,13 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
     example: '',
   },
   {
+    key: 'spectrum',
+    form: 'any',
+    summary:
+      'Default spectrum file (relative to the note, `/` as separator) for the block’s spectrum references `{ region: [from, to] }`.',
+    example: 'spectra/run12.jdx',
+  },
+  {
     key: 'series',
     form: 'any',
     summary:

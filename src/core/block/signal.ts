@@ -12,6 +12,7 @@ import { readInteger, readNumber, readQuantity, report, type ReadContext, type R
 import { entries, isMap, spanOf, type Entry } from './yamlTree';
 import { SIGNAL_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
+import { readNumberOrSpectrum } from './spectrumRef';
 
 type Pair = readonly [number, number];
 const SIDES = ['hyperpolarized', 'thermal'] as const;
@@ -42,7 +43,7 @@ export function readSignal(ctx: ReadContext, e: Entry, fromSeries: boolean): Sig
   const hpEntry = byKey.get('hyperpolarized');
   let hp: ReadValue | null = null;
   if (hpEntry) {
-    const v = readNumber(ctx, hpEntry.value, 'signal.hyperpolarized');
+    const v = readNumberOrSpectrum(ctx, hpEntry.value, 'signal.hyperpolarized');
     hp = v ? withNoise(ctx, v, noise?.[0] ?? null, 'signal.hyperpolarized') : null;
   } else if (!fromSeries) {
     report(
@@ -58,7 +59,7 @@ export function readSignal(ctx: ReadContext, e: Entry, fromSeries: boolean): Sig
   if (!thEntry)
     report(ctx, 'error', 'signal-incomplete', 'signal: the `thermal:` reference signal is missing.', e.keySpan);
   else {
-    const v = readNumber(ctx, thEntry.value, 'signal.thermal');
+    const v = readNumberOrSpectrum(ctx, thEntry.value, 'signal.thermal');
     th = v ? withNoise(ctx, v, noise?.[1] ?? null, 'signal.thermal') : null;
     if (th && th.value === 0) {
       report(

@@ -9,6 +9,17 @@ import { convert, parseQuantity, type Dimension, type QuantityProblem } from '..
 import type { Problem, Replacement, Severity, Span } from '../types';
 import type { UnitChoice } from './unitChoice';
 import type { Dependency, Externals } from './externals';
+import type { SpectrumUse } from '../spectra/types';
+
+/** The spectrum references a block reader meets (block/spectrumRef.ts). */
+export interface SpectrumRefs {
+  /** Every reference met, in the order of the block's text. */
+  readonly uses: SpectrumUse[];
+  /** The block-level `spectrum:` default, as written, or null. */
+  readonly fallback: { readonly text: string; readonly span: Span } | null;
+  /** References whose file the host is still reading: the block has no input until they are ready. */
+  pending: number;
+}
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
@@ -18,6 +29,8 @@ export interface ReadContext {
   readonly externals?: Externals | null;
   /** What the reader took from outside the block, for the analyzer's cache (see block/externals.ts). */
   readonly deps?: Dependency[];
+  /** The spectrum references met so far and the block's default file; absent in readers that take none. */
+  readonly spectra?: SpectrumRefs;
 }
 
 /** Records that the block read `key` from outside, as it was at `stamp`. */
@@ -32,6 +45,8 @@ export interface ReadValue {
   readonly span: Span;
   /** The unit as written, or null for a bare number. */
   readonly unit: string | null;
+  /** True when the value is a spectrum's integral (block/spectrumRef.ts) rather than a typed number. */
+  readonly fromSpectrum?: boolean;
 }
 
 /** Adds a problem to the context. */
