@@ -70,3 +70,4 @@ export {
   type RunQuantity,
   type RunValue,
 } from './view/runChart';
+export { SPECTRUM_MAX_BYTES } from './spectra/types';

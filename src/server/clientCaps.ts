@@ -27,6 +27,8 @@ export interface ClientCaps {
   readonly workspaceFolders: boolean;
   /** The client accepts a dynamic registration of `workspace/didChangeConfiguration`. */
   readonly configurationChange: boolean;
+  /** The client accepts a dynamic registration of `workspace/didChangeWatchedFiles` (it then watches the files). */
+  readonly watchedFiles: boolean;
   /** `workspace/{inlayHint,codeLens,diagnostic}/refresh` declared with `refreshSupport`. */
   readonly refresh: { readonly inlayHints: boolean; readonly codeLens: boolean; readonly diagnostics: boolean };
 }
@@ -41,6 +43,7 @@ export function clientCaps(c: ClientCapabilities | undefined): ClientCaps {
     configuration: w?.configuration === true,
     workspaceFolders: w?.workspaceFolders === true,
     configurationChange: w?.didChangeConfiguration?.dynamicRegistration === true,
+    watchedFiles: w?.didChangeWatchedFiles?.dynamicRegistration === true,
     refresh: {
       inlayHints: w?.inlayHint?.refreshSupport === true,
       codeLens: w?.codeLens?.refreshSupport === true,

@@ -12,11 +12,16 @@ export interface ExternalPart {
   /** Whether this part gave out the key (keys are prefixed by the part, e.g. `file:` or `run:`). */
   owns(key: string): boolean;
   stamp(key: string): string | null;
+  /** The part's own sources for one note (such as `spectra`), merged into the note's externals. */
+  sourcesFor?(uri: string): Omit<Partial<Externals>, 'note' | 'stamp'>;
 }
 
 /** The externals of one note, from the server's parts. */
 export function noteExternals(uri: string, parts: readonly ExternalPart[]): Externals {
+  let sources: Omit<Partial<Externals>, 'note' | 'stamp'> = {};
+  for (const p of parts) if (p.sourcesFor) sources = { ...sources, ...p.sourcesFor(uri) };
   return {
+    ...sources,
     note: uri,
     stamp(key) {
       for (const p of parts) if (p.owns(key)) return p.stamp(key);

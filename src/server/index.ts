@@ -7,7 +7,8 @@
 import { createConnection, ProposedFeatures } from 'vscode-languageserver/node';
 import { startServer } from './server';
 import { logStrayRejections } from './strayRejections';
+import { diskSpectrumAccess, listSpectrumFiles, workerParser } from './spectraNode';
 
 const connection = createConnection(ProposedFeatures.all);
 logStrayRejections(connection);
-startServer(connection);
+startServer(connection, { access: diskSpectrumAccess, parse: workerParser(), list: listSpectrumFiles });

@@ -34,12 +34,21 @@ import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownR
 import type { Settings } from '../shared/settings';
 import { SettingsStore, type SettingsChange } from './settingsStore';
 import { blockAt, type NoteState } from './state';
+import { deferredParser } from './spectra';
+import { watchSpectra, wireSpectra, type SpectrumHost } from './spectraWiring';
+import { spectrumHover } from './features/spectrumHover';
+import { spectrumLinks } from './features/spectrumLinks';
+import { spectrumFileCompletion } from './features/spectrumCompletion';
 
 /** Pause after the last keystroke before pushed diagnostics are sent. */
 const PUSH_DELAY_MS = 200;
 
-/** Starts serving on a connection (stdio, IPC or socket: the connection decides). */
-export function startServer(connection: Connection): void {
+/**
+ * Starts serving on a connection (stdio, IPC or socket: the connection decides). `spectrumHost` is how the
+ * host reads and parses spectrum files (the Node server: the disk and a worker thread); without one, files
+ * come through the client's file system and are parsed in-process after the request.
+ */
+export function startServer(connection: Connection, spectrumHost: SpectrumHost = { parse: deferredParser }): void {
   // stdout may be the protocol channel: route console output to the client's log instead.
   console.log = connection.console.log.bind(connection.console);
   console.info = connection.console.info.bind(connection.console);
@@ -57,6 +66,11 @@ export function startServer(connection: Connection): void {
     refreshAfter(connection, caps, change, documents, (uri) => pushes.schedule(uri, () => push(uri)));
   let settings = new SettingsStore(null, log, changed);
   let folders: string[] = [];
+  const spectra = wireSpectra(
+    { connection, documents, notes: () => notes, caps: () => caps, folders: () => folders, push: (uri) => push(uri) },
+    spectrumHost,
+  );
+  externalParts.push(spectra);
 
   /** The note's analysis and settings, once its folder's settings are known; null for an unknown note. */
   const note = async (uri: string): Promise<{ state: NoteState; settings: Settings } | null> => {
@@ -113,6 +127,7 @@ export function startServer(connection: Connection): void {
         documentSymbolProvider: true,
         foldingRangeProvider: true,
         codeLensProvider: { resolveProvider: false },
+        documentLinkProvider: { resolveProvider: false },
         ...(caps.pull
           ? {
               diagnosticProvider: {
@@ -131,6 +146,7 @@ export function startServer(connection: Connection): void {
   });
 
   connection.onInitialized(() => {
+    watchSpectra(connection, caps.watchedFiles);
     // Without a registration VS Code's client sends no configuration changes (the static
     // `synchronize.configurationSection` it used to read is deprecated); other clients send them unasked.
     if (caps.configurationChange)
@@ -182,14 +198,22 @@ export function startServer(connection: Connection): void {
     kind: DocumentDiagnosticReportKind.Full,
     items: await serve(p.textDocument.uri, token, [], noteDiagnostics),
   }));
-  connection.onHover((p, token) => serve(p.textDocument.uri, token, null, (s, set) => hover(s, p.position, set)));
+  connection.onHover((p, token) =>
+    serve(p.textDocument.uri, token, null, (s, set) => spectrumHover(s, p.position, set) ?? hover(s, p.position, set)),
+  );
+  connection.onDocumentLinks((p, token) => serve(p.textDocument.uri, token, [], (s) => spectrumLinks(s, folders)));
   connection.languages.inlayHint.on((p, token) =>
     serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
   );
   connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
-  connection.onCompletion((p, token) =>
-    serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, caps.snippets)),
-  );
+  connection.onCompletion(async (p, token) => {
+    const files = await spectrumFileCompletion(
+      () => serve(p.textDocument.uri, token, null, (s) => s),
+      p.position,
+      spectrumHost.list,
+    );
+    return files ?? serve(p.textDocument.uri, token, [], (s) => completion(s, p.position, caps.snippets));
+  });
   connection.onDocumentSymbol((p, token) =>
     serve(p.textDocument.uri, token, [], (s) =>
       caps.hierarchicalSymbols ? documentSymbols(s) : flatSymbols(s.uri, documentSymbols(s)),
