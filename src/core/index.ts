@@ -161,6 +161,15 @@ export {
 } from './view/messages';
 export { curveCsv, runChartCsv } from './view/csv';
 export {
+  baselineAt,
+  decimateMinMax,
+  isSpectrumTrace,
+  spectrumCsv,
+  spectrumTraces,
+  SPECTRUM_DISPLAY_POINTS,
+  type SpectrumTrace,
+} from './view/spectrumPanel';
+export {
   dayNumber,
   dayText,
   isRunChartPayload,

@@ -71,3 +71,4 @@ export {
   type RunValue,
 } from './view/runChart';
 export { SPECTRUM_MAX_BYTES } from './spectra/types';
+export { baselineAt, type SpectrumTrace } from './view/spectrumPanel';

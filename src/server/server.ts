@@ -230,7 +230,7 @@ export function startServer(connection: Connection, spectrumHost: SpectrumHost =
   connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
   connection.onRequest(MemoryRequest, memoryStats);
   connection.onRequest(CurveDataRequest, (p, token) =>
-    serve(p.uri, token, null, (s, set) => curvePayload(s, p.line, set)),
+    serve(p.uri, token, null, (s, set) => curvePayload(s, p.line, set, (key) => spectra.spectrumAtKey(key))),
   );
 
   documents.listen(connection);

@@ -242,6 +242,11 @@ export class SpectrumFiles implements ExternalPart {
     return r?.ok ? r.spectrum : null;
   }
 
+  /** The spectrum behind a dependency key (`file:<uri>`) when parsed and held, else null. */
+  spectrumAtKey(key: string): Spectrum | null {
+    return this.owns(key) ? this.spectrumAt(key.slice(SPECTRUM_KEY_PREFIX.length)) : null;
+  }
+
   /** The files known (URIs), for the watcher's events and the tests. */
   get known(): readonly string[] {
     return [...this.entries.keys()];
