@@ -171,7 +171,10 @@ describe('JCAMP-DX written by convert-to-jcamp in every encoding', () => {
   const ys = Float64Array.from(xs, (v) => 3000 * Math.exp(-((v - 550) ** 2) / (2 * 1.5 ** 2)) + 12);
   for (const enc of ['', 'FIX', 'SQZ', 'DIF', 'DIFDUP', 'PAC', 'CSV'] as const)
     it(`reads the ${enc || 'default'} encoding back point for point`, () => {
-      const text = fromJSON({ x: xs, y: ys }, { info: { xUnits: 'NANOMETERS', yUnits: 'COUNTS', title: 't' }, xyEncoding: enc });
+      const text = fromJSON(
+        { x: xs, y: ys },
+        { info: { xUnits: 'NANOMETERS', yUnits: 'COUNTS', title: 't' }, xyEncoding: enc },
+      );
       const s = spectrum(text, 'e.jdx');
       assert.equal(s.x.length, N);
       assert.equal(s.xUnit, 'nm');
