@@ -111,4 +111,18 @@ describe('boltzmark report with spectrum files', () => {
     const { out } = run(['report', join(dir, 'lab', 'good.md'), '-f', 'json'], tmpdir());
     assert.equal((JSON.parse(out) as Entry[])[0]!.spectra[0]!.integral!.value, 9);
   });
+
+  it('reads the demo note from its invented spectra, every reference followed', () => {
+    const { out } = run(['report', 'demo/spectra-run12.md', '-f', 'json'], process.cwd());
+    const entries = JSON.parse(out) as Entry[];
+    assert.deepEqual(
+      entries.map((e) => e.diagnostics.filter((d) => d.code.startsWith('spectrum')).length),
+      [0, 0],
+    );
+    assert.deepEqual(
+      entries.map((e) => e.spectra.filter((s) => s.integral !== null).length),
+      [2, 8],
+    );
+    assert.ok(entries[0]!.spectra.every((s) => s.unit === 'ppm' && s.integral!.uncertainty !== null));
+  });
 });

@@ -316,3 +316,37 @@ export function spectrumRefs(body: string, problems: Problem[], e: Entry | undef
   }
   return { uses: [], fallback: { text: t.text.trim(), span: t.span }, pending: 0 };
 }
+
+/** The group a reference's value belongs to: values compared with each other (a signal's two sides, a series, the lines). */
+function group(key: string): string {
+  return key.startsWith('signal.')
+    ? 'signal'
+    : key.startsWith('series.')
+      ? 'series'
+      : key.startsWith('lines[')
+        ? 'lines'
+        : key;
+}
+
+/**
+ * Warns where values that the block compares come from files integrated on
+ * different x units (y·Hz against y·ppm, say): their ratio would carry the
+ * units' factor. Called once the block is read.
+ */
+export function unitsAgree(ctx: ReadContext): void {
+  const first = new Map<string, { unit: string | null; file: string }>();
+  for (const u of ctx.spectra?.uses ?? []) {
+    if (!u.result) continue;
+    const g = group(u.key);
+    const seen = first.get(g);
+    if (!seen) first.set(g, { unit: u.result.unit, file: u.file });
+    else if (seen.unit !== u.result.unit)
+      report(
+        ctx,
+        'warning',
+        'spectrum-units-differ',
+        `${u.key}: this integral is in y × ${u.result.unit ?? 'no unit'} (${u.file}), the one it is compared with in y × ${seen.unit ?? 'no unit'} (${seen.file}); their ratio carries the units' factor. Give both files the same x unit.`,
+        u.span,
+      );
+  }
+}

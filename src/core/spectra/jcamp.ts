@@ -146,7 +146,8 @@ export function readJcamp(text: string): SpectrumRead {
     let input = text.replace(/^(\s*)##\s*XY\s*POINTS\s*=/gim, '$1##PEAK TABLE=');
     // JCAMP-DX separates AFFN values by blanks or commas; the package reads a comma in `(X++(Y..Y))` data as a
     // decimal point, so commas there become blanks (labels, which hold the only other commas, are left alone).
-    if (s.commas) input = input.replace(/^(?!\s*##)[^\n]*,[^\n]*$/gm, (l) => l.replace(/\$\$.*$/, '').replace(/,/g, ' '));
+    if (s.commas)
+      input = input.replace(/^(?!\s*##)[^\n]*,[^\n]*$/gm, (l) => l.replace(/\$\$.*$/, '').replace(/,/g, ' '));
     entries = convert(input, { keepRecordsRegExp: KEPT_RECORDS }).flatten;
   } catch (e) {
     return {

@@ -120,6 +120,32 @@ describe('spectrum references in a signal block', () => {
     );
   });
 
+  it('warns where the two sides are integrals over different x units', () => {
+    const jdx = [
+      '##TITLE= hz',
+      '##JCAMP-DX= 4.24',
+      '##XUNITS= HZ',
+      '##YUNITS= A',
+      '##.OBSERVE FREQUENCY= 100',
+      '##FIRSTX= 0',
+      '##LASTX= 1000',
+      '##NPOINTS= 11',
+      '##XFACTOR= 1',
+      '##YFACTOR= 1',
+      '##XYDATA=(X++(Y..Y))',
+      '0 0 0 0 1 2 3 2 1 0 0 0',
+      '##END=',
+    ].join('\n');
+    const f = new MemoryFolder().set('hz.jdx', jdx).set('ppm.csv', 'ppm,y\n0,0\n2,1\n4,3\n6,1\n8,0\n10,0\n');
+    const { report, text } = f.block(
+      `${HEAD}signal:\n  hyperpolarized: { spectrum: hz.jdx, region: [1 ppm, 9 ppm] }\n  thermal: { spectrum: ppm.csv, region: [1 ppm, 9 ppm] }`,
+    );
+    const p = report.problems.find((x) => x.code === 'spectrum-units-differ')!;
+    assert.equal(p.severity, 'warning');
+    assert.ok(at(text, p.span).startsWith('{ spectrum: ppm.csv'));
+    assert.match(p.message, /y × ppm \(ppm\.csv\).*y × Hz \(hz\.jdx\)/);
+  });
+
   it('combines a file-derived value with a typed noise only once', () => {
     const { report, text } = folder.block(
       `${HEAD}signal:\n  hyperpolarized: { spectrum: spectra/hp.csv, region: [165 ppm, 177 ppm], noise: [200 ppm, 240 ppm] }\n  thermal: 800\n  noise: { hyperpolarized: 5, thermal: 1 }`,
