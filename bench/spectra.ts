@@ -69,16 +69,12 @@ export function measureSpectra(kind: 'jcamp' | 'text', large: number, repetition
   const bigs: number[] = [];
   const smalls: number[] = [];
   for (let r = 0; r < repetitions; r++) {
-    const order = r % 2 === 0;
-    let a = 0;
-    let b = 0;
-    if (order) {
-      b = timeOnce(() => parseAndIntegrate(small, name));
-      a = timeOnce(() => parseAndIntegrate(big, name));
-    } else {
-      a = timeOnce(() => parseAndIntegrate(big, name));
-      b = timeOnce(() => parseAndIntegrate(small, name));
-    }
+    // Alternate which goes first, so neither always runs on a warmer heap.
+    const pair =
+      r % 2 === 0
+        ? [timeOnce(() => parseAndIntegrate(small, name)), timeOnce(() => parseAndIntegrate(big, name))].reverse()
+        : [timeOnce(() => parseAndIntegrate(big, name)), timeOnce(() => parseAndIntegrate(small, name))];
+    const [a, b] = pair as [number, number];
     bigs.push(a);
     smalls.push(b);
     ratios.push(a / b);

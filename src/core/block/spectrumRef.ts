@@ -102,9 +102,10 @@ function inFileUnit(
   pair: readonly [Bound, Bound],
   s: Spectrum,
   subject: string,
+  fallback: XUnit | null = null,
 ): { lo: number; hi: number; unit: XUnit | null } | null {
   // A text file without a unit of its own is read in the region's unit (its first stated one).
-  const unit = s.xUnit ?? pair[0].unit ?? pair[1].unit;
+  const unit = s.xUnit ?? fallback ?? pair[0].unit ?? pair[1].unit;
   const values: number[] = [];
   for (const b of pair) {
     if (b.unit === null || unit === null || b.unit === unit) {
@@ -245,7 +246,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
   }
   const s = answer.spectrum;
   const r = inFileUnit(ctx, region, s, `${subject}.region`);
-  const nz = noise ? inFileUnit(ctx, noise, s, `${subject}.noise`) : null;
+  const nz = noise && r ? inFileUnit(ctx, noise, s, `${subject}.noise`, r.unit) : null;
   if (!r || (noise && !nz)) {
     use(answer.key, null);
     return null;
