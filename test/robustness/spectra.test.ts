@@ -40,6 +40,12 @@ function checkRead(text: string, name: string): void {
 }
 
 describe('robustness: damaged spectrum files', () => {
+  it('starts from a file that reads (DIFDUP over two lines with the Y check value)', () => {
+    const r = readSpectrum(JCAMP, 'x.jdx');
+    assert.ok(r.ok);
+    assert.deepEqual([...r.spectrum.y], [2000, 2000, 2001, 2002, 2003, 2003, 2003, 2002, 2002, 2004]);
+  });
+
   it('reads a JCAMP-DX file with random characters inserted, deleted or replaced', () => {
     fc.assert(
       fc.property(
