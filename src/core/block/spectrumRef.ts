@@ -147,8 +147,17 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
   for (const x of byKey.values()) if (!KNOWN.has(x.key)) unknownKey(ctx, x, KNOWN);
   const fileEntry = byKey.get('spectrum');
   const own = fileEntry ? readText(ctx, fileEntry.value) : null;
-  const file =
-    own && own.text.trim() !== '' ? { text: own.text.trim(), span: own.span } : (ctx.spectra?.fallback ?? null);
+  if (fileEntry && (!own || own.text.trim() === '' || isMap(deref(fileEntry.value)) || isSeq(deref(fileEntry.value)))) {
+    report(
+      ctx,
+      'error',
+      'spectrum-reference',
+      `${subject}: \`spectrum:\` names a file, such as \`spectra/run12.jdx\`.`,
+      nonEmpty(spanOf(fileEntry.value) ?? fileEntry.keySpan),
+    );
+    return null;
+  }
+  const file = own ? { text: own.text.trim(), span: own.span } : (ctx.spectra?.fallback ?? null);
   if (!file) {
     report(
       ctx,
@@ -200,6 +209,8 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
     use(null, null);
     return null;
   }
+  // Problems of the file go on its path when the reference names it, on the reference when the block default does.
+  const fileAt = own ? file.span : span;
   const answer = source.lookup(file.text);
   if (answer.state !== 'outside') depend(ctx, answer.key, answer.stamp);
   switch (answer.state) {
@@ -209,12 +220,12 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
         'error',
         'spectrum-outside',
         `${subject}: ${file.text} lies outside ${answer.where}; it is not read.`,
-        file.span,
+        fileAt,
       );
       use(null, null);
       return null;
     case 'missing':
-      report(ctx, 'error', 'spectrum-missing', `${subject}: there is no file ${file.text}.`, file.span);
+      report(ctx, 'error', 'spectrum-missing', `${subject}: there is no file ${file.text}.`, fileAt);
       use(answer.key, null);
       return null;
     case 'large':
@@ -223,7 +234,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
         'error',
         'spectrum-large',
         `${subject}: ${file.text} has ${(answer.size / 1048576).toFixed(1)} MB, above the 64 MB a spectrum may have; it is not read.`,
-        file.span,
+        fileAt,
       );
       use(answer.key, null);
       return null;
@@ -233,7 +244,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
         'error',
         'spectrum-malformed',
         `${subject}: ${file.text}${answer.line !== null && !answer.message.startsWith('line ') ? `, line ${answer.line}` : ''}: ${answer.message}.`,
-        file.span,
+        fileAt,
       );
       use(answer.key, null);
       return null;

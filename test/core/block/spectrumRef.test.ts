@@ -225,6 +225,19 @@ describe('spectrum reference errors, each on its range', () => {
     assert.match(p.message, /no file gone\.csv/);
   });
 
+  it('spectrum-missing: on each reference when the block default names the missing file', () => {
+    const text = `# run\n\n\`\`\`levels\n${HEAD}spectrum: gone.jdx\nsignal:\n  hyperpolarized: { region: [1, 2] }\n  thermal: { region: [1, 2] }\n\`\`\`\n`;
+    const b = new Analyzer().analyzeText(text, f.externals()).blocks[0]!;
+    assert.deepEqual(
+      b.problems.filter((p) => p.code === 'spectrum-missing').map((p) => at(text, p.span)),
+      ['{ region: [1, 2] }', '{ region: [1, 2] }'],
+    );
+  });
+
+  it('spectrum-reference: a reference whose spectrum is not a path', () => {
+    assert.equal(one('{ spectrum: [a, b], region: [1, 2] }', 'spectrum-reference').at, '[a, b]');
+  });
+
   it('spectrum-missing: where the host reads no files', () => {
     const p = one('{ spectrum: ok.csv, region: [165, 177] }', 'spectrum-missing', null);
     assert.match(p.message, /cannot be read here/);
