@@ -4,7 +4,7 @@
  * dependency stamps that make a changed file read again, and a file parsed once.
  */
 import { strict as assert } from 'node:assert';
-import { Analyzer, spectraEntries, type Externals } from '../../../src/core';
+import { Analyzer, spectraEntries, spectrumUseLines, type Externals } from '../../../src/core';
 import { block, close } from '../helpers';
 import { csv, MemoryFolder } from '../spectra/helpers';
 
@@ -73,6 +73,12 @@ describe('spectrum references in a signal block', () => {
     close(r.sigma, 1 / Math.sqrt(3), 0.1, 'σ');
     close(r.uncertainty, r.sigma! * 0.05 * Math.sqrt(241), 1e-9, 'u');
     assert.ok(report.results!.polarization!.uncertainty! > 0);
+    const shown = spectrumUseLines(report.meta.spectra![0]!);
+    assert.equal(shown.length, 4);
+    assert.match(shown[0]!, /^signal\.hyperpolarized = [\d.]+ ± [\d.]+ \(y × ppm\)$/);
+    assert.equal(shown[1], '241 points in 165 … 177 ppm, linear baseline');
+    assert.match(shown[2]!, /^noise σ = 0\.5\d+ from 801 points in 200 … 240 ppm$/);
+    assert.equal(shown[3], 'file: n.csv');
   });
 
   it('converts a region in Hz to a ppm file through the JCAMP-DX observe frequency, and refuses it without one', () => {
