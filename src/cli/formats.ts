@@ -139,7 +139,11 @@ export function formatTable(
     ].filter((x) => x !== '');
     if (extra.length) out.push(`    ${extra.join(' · ')}`);
     // Values taken from spectrum files, each marked and named with its file and region.
-    if (block) for (const s of spectraLines(block.meta)) out.push(terminalText(`    ${s}`));
+    if (block)
+      for (const s of spectraLines(block.meta)) {
+        const text = terminalText(`    ${s}`);
+        out.push(...(o.wide ? [text] : wrap(text, o.width, '        ')));
+      }
     for (const d of entry.diagnostics) {
       const text = terminalText(`    ${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
       out.push(...(o.wide ? [text] : wrap(text, o.width, '        ')));

@@ -112,6 +112,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     severity: 'error',
     summary: 'A spectrum path outside the workspace (editor) or the note’s folder tree (command line); not read.',
   },
+  'spectrum-units-differ': {
+    severity: 'warning',
+    summary: 'Values the block compares are integrals over different x units (y·Hz against y·ppm).',
+  },
   'spectrum-large': { severity: 'error', summary: 'A spectrum file above 64 MB; not read.' },
   'scans-invalid': { severity: 'error', summary: 'A number of scans must be a whole number ≥ 1.' },
   'series-not-mapping': { severity: 'error', summary: '`series` is not a mapping.' },

@@ -38,7 +38,13 @@ export {
   type SyncFileAccess,
 } from './spectra/shelf';
 export { integrateRegion, noiseSigma, integralUncertainty, pointsIn, type RegionIntegral } from './spectra/integrate';
-export { FROM_FILE_MARK, spectraEntries, spectraLines, type SpectrumEntry } from './present/spectraReport';
+export {
+  FROM_FILE_MARK,
+  spectraEntries,
+  spectraLines,
+  spectrumUseLines,
+  type SpectrumEntry,
+} from './present/spectraReport';
 export { SPECTRUM_REF_KEYS } from './block/spectrumRef';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';

@@ -26,7 +26,7 @@ import {
   type ReadValue,
 } from './values';
 import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
-import { spectrumRefs } from './spectrumRef';
+import { spectrumRefs, unitsAgree } from './spectrumRef';
 
 /** What reading a block gave: its label and key spans, its input (null on errors) and its problems. */
 export interface Interpretation {
@@ -174,6 +174,7 @@ export function interpretBody(body: string, externals: Externals | null = null):
       };
     }
   }
+  unitsAgree(ctx);
   // A spectrum the host is still reading leaves the block without input (and without an error) until it is ready.
   if (countErrors(problems) > 0 || spectra.pending > 0) input = null;
   return { meta, input, problems, deps: deps.length > 0 ? deps : NO_DEPENDENCIES };

@@ -102,9 +102,10 @@ function inFileUnit(
   pair: readonly [Bound, Bound],
   s: Spectrum,
   subject: string,
+  fallback: XUnit | null = null,
 ): { lo: number; hi: number; unit: XUnit | null } | null {
   // A text file without a unit of its own is read in the region's unit (its first stated one).
-  const unit = s.xUnit ?? pair[0].unit ?? pair[1].unit;
+  const unit = s.xUnit ?? fallback ?? pair[0].unit ?? pair[1].unit;
   const values: number[] = [];
   for (const b of pair) {
     if (b.unit === null || unit === null || b.unit === unit) {
@@ -146,8 +147,17 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
   for (const x of byKey.values()) if (!KNOWN.has(x.key)) unknownKey(ctx, x, KNOWN);
   const fileEntry = byKey.get('spectrum');
   const own = fileEntry ? readText(ctx, fileEntry.value) : null;
-  const file =
-    own && own.text.trim() !== '' ? { text: own.text.trim(), span: own.span } : (ctx.spectra?.fallback ?? null);
+  if (fileEntry && (!own || own.text.trim() === '' || isMap(deref(fileEntry.value)) || isSeq(deref(fileEntry.value)))) {
+    report(
+      ctx,
+      'error',
+      'spectrum-reference',
+      `${subject}: \`spectrum:\` names a file, such as \`spectra/run12.jdx\`.`,
+      nonEmpty(spanOf(fileEntry.value) ?? fileEntry.keySpan),
+    );
+    return null;
+  }
+  const file = own ? { text: own.text.trim(), span: own.span } : (ctx.spectra?.fallback ?? null);
   if (!file) {
     report(
       ctx,
@@ -199,6 +209,8 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
     use(null, null);
     return null;
   }
+  // Problems of the file go on its path when the reference names it, on the reference when the block default does.
+  const fileAt = own ? file.span : span;
   const answer = source.lookup(file.text);
   if (answer.state !== 'outside') depend(ctx, answer.key, answer.stamp);
   switch (answer.state) {
@@ -208,12 +220,12 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
         'error',
         'spectrum-outside',
         `${subject}: ${file.text} lies outside ${answer.where}; it is not read.`,
-        file.span,
+        fileAt,
       );
       use(null, null);
       return null;
     case 'missing':
-      report(ctx, 'error', 'spectrum-missing', `${subject}: there is no file ${file.text}.`, file.span);
+      report(ctx, 'error', 'spectrum-missing', `${subject}: there is no file ${file.text}.`, fileAt);
       use(answer.key, null);
       return null;
     case 'large':
@@ -222,7 +234,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
         'error',
         'spectrum-large',
         `${subject}: ${file.text} has ${(answer.size / 1048576).toFixed(1)} MB, above the 64 MB a spectrum may have; it is not read.`,
-        file.span,
+        fileAt,
       );
       use(answer.key, null);
       return null;
@@ -232,7 +244,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
         'error',
         'spectrum-malformed',
         `${subject}: ${file.text}${answer.line !== null && !answer.message.startsWith('line ') ? `, line ${answer.line}` : ''}: ${answer.message}.`,
-        file.span,
+        fileAt,
       );
       use(answer.key, null);
       return null;
@@ -245,7 +257,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
   }
   const s = answer.spectrum;
   const r = inFileUnit(ctx, region, s, `${subject}.region`);
-  const nz = noise ? inFileUnit(ctx, noise, s, `${subject}.noise`) : null;
+  const nz = noise && r ? inFileUnit(ctx, noise, s, `${subject}.noise`, r.unit) : null;
   if (!r || (noise && !nz)) {
     use(answer.key, null);
     return null;
@@ -315,4 +327,38 @@ export function spectrumRefs(body: string, problems: Problem[], e: Entry | undef
     return { uses: [], fallback: null, pending: 0 };
   }
   return { uses: [], fallback: { text: t.text.trim(), span: t.span }, pending: 0 };
+}
+
+/** The group a reference's value belongs to: values compared with each other (a signal's two sides, a series, the lines). */
+function group(key: string): string {
+  return key.startsWith('signal.')
+    ? 'signal'
+    : key.startsWith('series.')
+      ? 'series'
+      : key.startsWith('lines[')
+        ? 'lines'
+        : key;
+}
+
+/**
+ * Warns where values that the block compares come from files integrated on
+ * different x units (y·Hz against y·ppm, say): their ratio would carry the
+ * units' factor. Called once the block is read.
+ */
+export function unitsAgree(ctx: ReadContext): void {
+  const first = new Map<string, { unit: string | null; file: string }>();
+  for (const u of ctx.spectra?.uses ?? []) {
+    if (!u.result) continue;
+    const g = group(u.key);
+    const seen = first.get(g);
+    if (!seen) first.set(g, { unit: u.result.unit, file: u.file });
+    else if (seen.unit !== u.result.unit)
+      report(
+        ctx,
+        'warning',
+        'spectrum-units-differ',
+        `${u.key}: this integral is in y × ${u.result.unit ?? 'no unit'} (${u.file}), the one it is compared with in y × ${seen.unit ?? 'no unit'} (${seen.file}); their ratio carries the units' factor. Give both files the same x unit.`,
+        u.span,
+      );
+  }
 }

@@ -1,6 +1,7 @@
 /** The `spectra` list of a block's JSON entry and the table's lines for values taken from spectrum files. */
 import type { BlockMeta } from '../block/input';
 import { formatMeasured } from './numbers';
+import type { SpectrumUse } from '../spectra/types';
 
 /** One spectrum reference as the JSON report prints it (docs/format.md, "The JSON report"). */
 export interface SpectrumEntry {
@@ -46,4 +47,25 @@ export function spectraLines(meta: BlockMeta): string[] {
 
 function num(v: number): string {
   return Number(v.toPrecision(6)).toString();
+}
+
+/**
+ * What a host shows for one reference (a hover, a tooltip), as plain lines:
+ * the integral with its uncertainty and unit, the points and region, the
+ * baseline, the noise, and the file. A reference not followed gives its file only.
+ */
+export function spectrumUseLines(u: SpectrumUse): string[] {
+  const r = u.result;
+  if (!r) return [`${u.key} from ${u.file}: not read (see the diagnostic)`];
+  const unit = r.unit ?? 'the x unit';
+  const lines = [
+    `${u.key} = ${formatMeasured(r.value, r.uncertainty)} (y × ${unit})${r.uncertainty === null ? ', no noise region given' : ''}`,
+    `${r.points} points in ${num(r.region[0])} … ${num(r.region[1])}${r.unit ? ` ${r.unit}` : ''}, ${r.baseline === 'linear' ? 'linear baseline' : 'no baseline'}`,
+  ];
+  if (r.noise && r.sigma !== null)
+    lines.push(
+      `noise σ = ${formatMeasured(r.sigma, null)} from ${r.noisePoints} points in ${num(r.noise[0])} … ${num(r.noise[1])}${r.unit ? ` ${r.unit}` : ''}`,
+    );
+  lines.push(`file: ${u.file}`);
+  return lines;
 }

@@ -38,6 +38,8 @@ interface Scan {
   /** Symbols of the NTUPLES variables whose VAR_NAME names an imaginary part. */
   readonly imaginary: Set<string>;
   readonly real: Set<string>;
+  /** True when a `(X++(Y..Y))` data line separates its AFFN values with commas. */
+  readonly commas: boolean;
 }
 
 /** Checks labels and data lines; returns the scan or the first problem with its line. */
@@ -47,6 +49,8 @@ function scan(text: string): Scan | { line: number; message: string } {
   let symbols: string[] = [];
   let varNames: string[] = [];
   let inData = false;
+  let compressed = false;
+  let commas = false;
   let expanded = 0;
   let line = 0;
   let start = 0;
@@ -64,6 +68,7 @@ function scan(text: string): Scan | { line: number; message: string } {
       inData = false;
       if (label === 'XYDATA' || label === 'XYPOINTS' || label === 'PEAKTABLE' || label === 'DATATABLE') {
         inData = true;
+        compressed = value.includes('++');
         const sym = /\(\s*[A-Z]\+\+\s*\(\s*([A-Z])\.\.\1\s*\)\s*\)/i.exec(value)?.[1] ?? null;
         tables.push({ line, symbol: sym ? sym.toUpperCase() : null });
       } else if (label === 'NTUPLES') ntuples = true;
@@ -73,6 +78,7 @@ function scan(text: string): Scan | { line: number; message: string } {
     }
     if (!inData) continue;
     const data = raw.replace(/\$\$.*$/, '');
+    if (compressed && !commas && data.includes(',')) commas = true;
     for (let i = 0; i < data.length; i++) {
       const c = data.charCodeAt(i);
       const ok =
@@ -115,7 +121,7 @@ function scan(text: string): Scan | { line: number; message: string } {
     if (/IMAG/.test(name) || (name === '' && s === 'I')) imaginary.add(s);
     else if (/REAL/.test(name) || (name === '' && s === 'R')) real.add(s);
   });
-  return { tables, ntuples, imaginary, real };
+  return { tables, ntuples, imaginary, real, commas };
 }
 
 function text1(v: unknown): string | null {
@@ -137,7 +143,11 @@ export function readJcamp(text: string): SpectrumRead {
   let entries: Entry[];
   try {
     // The package decodes `(XY..XY)` pairs under ##PEAK TABLE only; ##XYPOINTS has the same data syntax.
-    const input = text.replace(/^(\s*)##\s*XY\s*POINTS\s*=/gim, '$1##PEAK TABLE=');
+    let input = text.replace(/^(\s*)##\s*XY\s*POINTS\s*=/gim, '$1##PEAK TABLE=');
+    // JCAMP-DX separates AFFN values by blanks or commas; the package reads a comma in `(X++(Y..Y))` data as a
+    // decimal point, so commas there become blanks (labels, which hold the only other commas, are left alone).
+    if (s.commas)
+      input = input.replace(/^(?!\s*##)[^\n]*,[^\n]*$/gm, (l) => l.replace(/\$\$.*$/, '').replace(/,/g, ' '));
     entries = convert(input, { keepRecordsRegExp: KEPT_RECORDS }).flatten;
   } catch (e) {
     return {

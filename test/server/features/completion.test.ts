@@ -31,6 +31,7 @@ const SPIN_KEYS = [
   'populations',
   'polarization',
   'signal',
+  'spectrum',
   'series',
   'lattice',
   'count',
@@ -56,6 +57,7 @@ describe('completion', () => {
         'g',
         'ratio',
         'signal',
+        'spectrum',
         'series',
         'lines',
         'detector',
@@ -84,6 +86,7 @@ describe('completion', () => {
         'id',
         'frequency',
         'g-factor',
+        'spectrum',
         'series',
         'lattice',
         'count',
@@ -94,6 +97,7 @@ describe('completion', () => {
       ]);
       check(note('levels:', '  - { energy: 0 K, population: 1 }', '$0'), [
         'id',
+        'spectrum',
         'series',
         'background',
         'wavelengths',
