@@ -15,6 +15,7 @@ import { geometry, near, pixelsAround, type ChartGeometry } from './pixels';
 import { blend, LIGHT } from './themes';
 
 declare const document: {
+  body: { dataset: Record<string, string | undefined> };
   getElementById(
     id: string,
   ): { hidden: boolean; textContent: string | null; dataset: Record<string, string | undefined> } | null;
