@@ -30,7 +30,13 @@ import { inlayHints } from './features/inlayHints';
 import { documentSymbols, flatSymbols } from './features/symbols';
 import { Notes } from './notes';
 import { memoryStats } from './heapStats';
-import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from '../shared/protocol';
+import {
+  AnalysisStatsRequest,
+  CurveDataRequest,
+  MemoryRequest,
+  ResultsMarkdownRequest,
+  SpectrumStatsRequest,
+} from '../shared/protocol';
 import type { Settings } from '../shared/settings';
 import { SettingsStore, type SettingsChange } from './settingsStore';
 import { blockAt, type NoteState } from './state';
@@ -229,6 +235,7 @@ export function startServer(connection: Connection, spectrumHost: SpectrumHost =
   );
   connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
   connection.onRequest(MemoryRequest, memoryStats);
+  connection.onRequest(SpectrumStatsRequest, () => ({ files: spectra.known.length, parses: spectra.parses }));
   connection.onRequest(CurveDataRequest, (p, token) =>
     serve(p.uri, token, null, (s, set) => curvePayload(s, p.line, set, (key) => spectra.spectrumAtKey(key))),
   );

@@ -66,3 +66,12 @@ export const FileStatRequest = new RequestType<
 
 /** A file's text through the client's file system (UTF-8), or null when it cannot be read or passes 64 MB. */
 export const FileTextRequest = new RequestType<FileParams, string | null, void>('boltzmark/fileText');
+
+/** The server's spectrum files: how many it knows and how many parses it ran (tests and benchmarks: a file is parsed once). */
+export interface SpectrumStats {
+  readonly files: number;
+  readonly parses: number;
+}
+
+/** The server's spectrum file counts (client → server; used by the tests and the benchmark). */
+export const SpectrumStatsRequest = new RequestType0<SpectrumStats, void>('boltzmark/spectrumStats');

@@ -5,6 +5,8 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { startLsp, type LspSession } from './lspClient';
 import { flat } from '../server/spectraHelpers';
+import { CurveDataRequest, SpectrumStatsRequest } from '../../src/shared/protocol';
+import type { ViewPayload } from '../../src/core';
 
 // Spectrum references through the bundled server: files read from disk and parsed in its worker thread,
 // the watcher it registers, and a file renamed away and back on disk re-analysing the open note each time.
@@ -88,6 +90,18 @@ describe('protocol: spectrum files', function () {
     assert.match(v, /\| integral \| 2500 \(y × ppm\)/);
     assert.match(v, /11 points/);
     assert.deepEqual(codes(), []);
+    // Two files, each parsed once; more hovers and the curve view's payload parse nothing again.
+    assert.deepEqual(await s.conn.sendRequest(SpectrumStatsRequest), { files: 2, parses: 2 });
+    await hoverAt(8, 20);
+    const payload = (await s.conn.sendRequest(CurveDataRequest, { uri: note, line: 2 })) as ViewPayload;
+    assert.deepEqual(
+      payload.spectra!.map((t) => [t.key, t.points, t.region]),
+      [
+        ['signal.hyperpolarized', 101, [10, 20]],
+        ['signal.thermal', 101, [10, 20]],
+      ],
+    );
+    assert.deepEqual(await s.conn.sendRequest(SpectrumStatsRequest), { files: 2, parses: 2 });
   });
 
   it('a file renamed away on disk is an error on its path; renamed back, the note recovers', async () => {
