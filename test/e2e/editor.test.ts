@@ -5,6 +5,7 @@ import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { curveExportSteps } from './curveExports.steps';
 import { runLogSteps } from './runLog.steps';
+import { spectraSteps } from './spectra.steps';
 import { noteBytes, shot, startSession, type Session } from './session';
 import {
   activeTabDirty,
@@ -287,6 +288,9 @@ function editorSteps(version: host.Version): void {
       await tables.filter({ hasText: 'cell-B run 1' }).scrollIntoViewIfNeeded();
       await shot(page, '13-markdown-preview');
     });
+
+    // Spectrum references on the demo's spectra note (spectra.steps.ts).
+    spectraSteps(() => s);
 
     // The run log in the Explorer, over every demo note (runLog.steps.ts).
     runLogSteps(() => s);
