@@ -8,3 +8,5 @@
  */
 export { levelsPreview, type PreviewOptions } from './preview';
 export { RunLog, runLogCsv, curveCsv, runChartCsv, runChartData, spectrumCsv } from '../core';
+export { SpectrumFiles, deferredParser } from '../shared/spectrumFiles';
+export { SPECTRUM_EXTENSIONS } from '../core';

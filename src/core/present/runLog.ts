@@ -4,6 +4,7 @@
  * cache re-analyses only the blocks that changed). Pure data; the editor's
  * tree view and the CSV export are hosts of it.
  */
+import type { Externals } from '../block/externals';
 import { Analyzer, type BlockReport } from '../analyzer/analyzer';
 import { isNotebookPath, notebookCells } from '../text/jupyter';
 import type { Measured, Status } from '../types';
@@ -54,8 +55,9 @@ export class RunLog {
   /**
    * Reads (or re-reads) one note; returns true when its runs changed. A URI ending in `.ipynb` is read as a
    * Jupyter notebook: each Markdown cell is a note of its own (a file that is not a notebook has no runs).
+   * `externals` are the note's sources of values by reference (spectrum files), when the host has them.
    */
-  update(uri: string, name: string, text: string): boolean {
+  update(uri: string, name: string, text: string, externals: Externals | null = null): boolean {
     const entry = (b: BlockReport, cell: number | null): RunEntry => ({
       uri,
       name,
@@ -79,8 +81,10 @@ export class RunLog {
       polarizationInterval: b.results?.intervals.polarization ?? null,
     });
     const entries: RunEntry[] = isNotebookPath(uri)
-      ? notebookCells(text).cells.flatMap((c) => this.analyzer.analyzeText(c.text).blocks.map((b) => entry(b, c.index)))
-      : this.analyzer.analyzeText(text).blocks.map((b) => entry(b, null));
+      ? notebookCells(text).cells.flatMap((c) =>
+          this.analyzer.analyzeText(c.text, externals).blocks.map((b) => entry(b, c.index)),
+        )
+      : this.analyzer.analyzeText(text, externals).blocks.map((b) => entry(b, null));
     const before = this.notes.get(uri);
     if (before && JSON.stringify(before) === JSON.stringify(entries)) return false;
     if (entries.length === 0 && !before) return false;
