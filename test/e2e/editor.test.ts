@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
@@ -289,14 +289,17 @@ function editorSteps(version: host.Version): void {
       await shot(page, '13-markdown-preview');
     });
 
-    // Spectrum references on the demo's spectra note (spectra.steps.ts).
-    spectraSteps(() => s);
-
     // The run log in the Explorer, over every demo note (runLog.steps.ts).
     runLogSteps(() => s);
 
+    // Spectrum references on the demo's spectra note (spectra.steps.ts).
+    spectraSteps(() => s);
+
     it('leaves the notes’ bytes on disk unchanged and sends nothing beyond 127.0.0.1', () => {
-      const notes = readdirSync(join(host.ROOT, 'demo'));
+      // Every file of the demo, those in its folders (the spectra) too.
+      const notes = readdirSync(join(host.ROOT, 'demo'), { recursive: true })
+        .map(String)
+        .filter((f) => statSync(join(host.ROOT, 'demo', f)).isFile());
       assert.ok(notes.includes(NOTE));
       for (const name of notes) {
         const { original, now } = noteBytes(s, name);

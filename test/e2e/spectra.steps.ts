@@ -36,6 +36,8 @@ type DomNode = any;
 export function spectraSteps(session: () => Session): void {
   it('hovers a spectrum reference with the integral ± u, the points, the unit and the file', async () => {
     const { page } = session();
+    // The earlier steps leave the preview and the curve view open: start from the note alone.
+    await runCommand(page, 'View: Close All Editors');
     await openFromExplorer(page, NOTE, 'Run 12 from its spectra (invented)');
     await goToLine(page, ID + 5);
     const text = await hoverText(page, '  thermal: { spectrum', 'region', /from the spectrum/);
