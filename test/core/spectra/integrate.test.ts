@@ -6,9 +6,11 @@
 import { strict as assert } from 'node:assert';
 // @ts-expect-error -- TS1479: the package ships only as an ES module; tsx loads it from CommonJS.
 import { SpectrumGenerator } from 'spectrum-generator';
+// @ts-expect-error -- TS1479: the package ships only as an ES module; tsx loads it from CommonJS.
+import { fromJSON } from 'convert-to-jcamp';
 import { integralUncertainty, integrateRegion, noiseSigma, readSpectrum, type Spectrum } from '../../../src/core';
 import { close } from '../helpers';
-import { csv } from './helpers';
+import { csv, MemoryFolder } from './helpers';
 
 /** ∫ of a Gaussian of height h and full width at half maximum w: h·w·√(π/(4 ln 2)) (a standard integral). */
 const gaussArea = (h: number, w: number): number => h * w * Math.sqrt(Math.PI / (4 * Math.LN2));
@@ -143,5 +145,34 @@ describe('the noise and the integral uncertainty', () => {
     // standard deviation to about 4 % (1/√(2·300)), so 15 % allows both.
     close(sd, predicted, 0.15, 'spread of the integral');
     close(mean, COVERED * gaussArea(1000, 3), 0.002, 'mean integral');
+  });
+});
+
+describe('a signal block over generated files, end to end', () => {
+  it('gives P = P_th · (A_hp/A_th) · NS_th, from a DIFDUP JCAMP-DX file and a text file of known areas', () => {
+    // Hyperpolarized: a Gaussian line written by convert-to-jcamp in DIFDUP; thermal: the same
+    // line 2000 times smaller as two-column text. Both from spectrum-generator, areas h·w·√(π/(4 ln 2)).
+    const hp = generate([{ x: 171, y: 4.0e5, width: 0.4, kind: 'gaussian' }], { from: 150, to: 190, nbPoints: 8001 });
+    const th = generate([{ x: 171, y: 200, width: 0.4, kind: 'gaussian' }], { from: 150, to: 190, nbPoints: 8001 });
+    const folder = new MemoryFolder()
+      .set(
+        'hp.jdx',
+        fromJSON(
+          { x: hp.x, y: hp.y },
+          { info: { xUnits: 'PPM', yUnits: 'ARBITRARY UNITS', title: 'hp' }, xyEncoding: 'DIFDUP' },
+        ),
+      )
+      .set('th.csv', csv(th.x, th.y));
+    const { report } = folder.block(
+      'system: 13C\nfield: 9.4 T\nlattice: 298 K\nsignal:\n  hyperpolarized: { spectrum: hp.jdx, region: [165 ppm, 177 ppm] }\n  thermal: { spectrum: th.csv, region: [165 ppm, 177 ppm] }\n  scans: { hyperpolarized: 1, thermal: 16 }',
+    );
+    assert.deepEqual(report.problems, []);
+    // P_th = tanh(ħγB/(2kT)) for a spin ½; γ(¹³C) = 6.728284e7 rad s⁻¹ T⁻¹ (Harris et al., Pure Appl. Chem. 73,
+    // 1795 (2001)), ħ and k from CODATA 2018 (k exact in the SI since 2019).
+    const hbar = 1.054571817e-34;
+    const k = 1.380649e-23;
+    const pth = Math.tanh((hbar * 6.728284e7 * 9.4) / (2 * k * 298));
+    // The common-practice reference formula (docs/format.md, no source): P = P_th · (S_hp/S_th) · NS_th/NS_hp.
+    close(report.results!.polarization!.value, pth * (gaussArea(4.0e5, 0.4) / gaussArea(200, 0.4)) * 16, 2e-4, 'P');
   });
 });
