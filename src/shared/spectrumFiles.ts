@@ -186,6 +186,9 @@ function decodedUri(uri: string): string {
 export const deferredParser: SpectrumParser = (text, name) =>
   new Promise((resolve) => setTimeout(() => resolve(readSpectrum(text, name)), 0));
 
+/** Files a {@link SpectrumFiles} keeps track of at most, beside those holding a parsed spectrum. */
+export const MAX_KNOWN_FILES = 2000;
+
 /** Options of {@link SpectrumFiles}. */
 export interface SpectrumFilesOptions {
   readonly access: SpectrumFileAccess;
@@ -279,6 +282,7 @@ export class SpectrumFiles {
     const key = `${SPECTRUM_KEY_PREFIX}${at.uri}`;
     let e = this.entries.get(at.uri);
     if (!e) {
+      this.prune();
       e = { known: null, busy: false, again: false, gen: 0 };
       this.entries.set(at.uri, e);
       this.look(at.uri, at.root);
@@ -305,6 +309,21 @@ export class SpectrumFiles {
         return read.ok
           ? { state: 'ready', key, stamp, spectrum: read.spectrum }
           : { state: 'malformed', key, stamp, line: read.line, message: read.message };
+      }
+    }
+  }
+
+  /**
+   * Keeps the files known within {@link MAX_KNOWN_FILES}: typing a path looks up every prefix of it, each a file
+   * that is not there. The oldest entries that hold no spectrum go first.
+   */
+  private prune(): void {
+    if (this.entries.size < MAX_KNOWN_FILES) return;
+    for (const [uri, e] of this.entries) {
+      if (this.entries.size < MAX_KNOWN_FILES * 0.9) break;
+      if (!e.busy && e.known && e.known.kind !== 'read') {
+        this.entries.delete(uri);
+        this.roots.delete(uri);
       }
     }
   }

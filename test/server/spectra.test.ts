@@ -3,7 +3,7 @@ import { TextDocument } from 'vscode-languageserver-textdocument';
 import { readSpectrum, type SpectrumRead } from '../../src/core';
 import { noteExternals } from '../../src/server/externals';
 import { Notes } from '../../src/server/notes';
-import { locateSpectrum, SpectrumFiles, type SpectrumFileAccess } from '../../src/server/spectra';
+import { locateSpectrum, MAX_KNOWN_FILES, SpectrumFiles, type SpectrumFileAccess } from '../../src/server/spectra';
 import { noteDiagnostics } from '../../src/server/diagnostics';
 import { FakeDisk, flat } from './spectraHelpers';
 import { DEFAULT_SETTINGS } from '../../src/shared/settings';
@@ -143,6 +143,22 @@ describe('server spectrum files', () => {
       await f.settled();
       const a = f.lookup(note, 'a.csv');
       assert.equal(a.state === 'ready' && a.spectrum.y[0], 5);
+    });
+
+    it('forgets the oldest missing files past the bound (every prefix of a path being typed is one)', async () => {
+      const disk = new FakeDisk();
+      disk.put('file:///lab/day/keep.csv', flat(1));
+      const f = files(disk);
+      f.lookup(NOTE, 'keep.csv');
+      await f.settled();
+      for (let i = 0; i < 2 * MAX_KNOWN_FILES; i++) {
+        f.lookup(NOTE, `typing/${i}.csv`);
+        if (i % 100 === 99) await f.settled();
+      }
+      await f.settled();
+      assert.ok(f.known.length <= MAX_KNOWN_FILES, String(f.known.length));
+      assert.ok(f.known.includes('file:///lab/day/keep.csv'), 'a parsed file stays');
+      assert.equal(f.lookup(NOTE, 'keep.csv').state, 'ready');
     });
 
     it('refuses a file above 64 MB without reading it', async () => {
