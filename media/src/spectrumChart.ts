@@ -3,7 +3,8 @@
  * spectrum files, the spectrum of one reference (picked in the panel's
  * list), the integrated region shaded between the curve and the baseline,
  * the baseline drawn across it, and the noise region marked as a band. The
- * x axis is in the file's unit and runs right to left for ppm. Every number
+ * x axis is in the file's unit and runs right to left for ppm; it shows the
+ * region and the noise region with room around them, not the whole file. Every number
  * comes from the host (`SpectrumTrace`, decimated there); text from the note
  * or the file is shown with `textContent` only.
  *
@@ -87,6 +88,21 @@ const shadePlugin: Plugin = {
 
 Chart.register(shadePlugin);
 
+/**
+ * The stretch of x drawn: the region and the noise region with room around them (a quarter of their span and
+ * one region width each side), within the spectrum's own range, so a narrow line is not lost in a wide file.
+ */
+export function viewRange(t: Pick<SpectrumTrace, 'x' | 'region' | 'noise'>): { min: number; max: number } {
+  const first = t.x[0] ?? t.region[0];
+  const last = t.x[t.x.length - 1] ?? t.region[1];
+  const lo = Math.min(t.region[0], t.noise?.[0] ?? Infinity);
+  const hi = Math.max(t.region[1], t.noise?.[1] ?? -Infinity);
+  const room = (hi - lo) * 0.25 + (t.region[1] - t.region[0]);
+  const min = Math.max(first, lo - room);
+  const max = Math.min(last, hi + room);
+  return max > min ? { min, max } : paddedRange(t.x as number[]);
+}
+
 /** Owns the spectrum section: the list of references, the chart, the caption. */
 export class SpectrumChart {
   private chart: Scatter | null = null;
@@ -126,8 +142,10 @@ export class SpectrumChart {
     this.fillPick(t);
     const unit = t.unit ?? '';
     this.caption.textContent = `${t.key} = ${t.integralText} (y × ${unit || 'x'}) from ${t.file}: ${t.points} points in the file, ${t.x.length} drawn`;
-    const xr = paddedRange(t.x as number[]);
-    const yr = paddedRange([...t.y, t.baseline[1], t.baseline[3]]);
+    const xr = viewRange(t);
+    const ys: number[] = [t.baseline[1], t.baseline[3]];
+    for (let i = 0; i < t.x.length; i++) if (t.x[i]! >= xr.min && t.x[i]! <= xr.max) ys.push(t.y[i]!);
+    const yr = paddedRange(ys);
     const datasets: ChartDataset<'scatter'>[] = [
       {
         label: 'spectrum',
