@@ -19,6 +19,7 @@ const production = process.argv.includes('--production');
 const nodeEntries = [
   { in: 'src/cli/index.ts', out: 'dist/cli' },
   { in: 'src/server/index.ts', out: 'dist/server' },
+  { in: 'src/server/spectrumWorker.ts', out: 'dist/spectrumWorker' },
   { in: 'src/client/extension.ts', out: 'dist/extension', plugins: [lazyNoteReader] },
   { in: 'src/client/noteReader.ts', out: 'dist/noteReader' },
 ].filter((e) => existsSync(e.in));

@@ -49,6 +49,7 @@ const REQUIRED = [
   'dist/extension.js',
   'dist/noteReader.js',
   'dist/server.js',
+  'dist/spectrumWorker.js',
   'dist/web/extension.js',
   'dist/web/server.js',
   'dist/cellRenderer.js',

@@ -21,6 +21,7 @@ import { viewModel } from './model';
 import { MeasurementChart } from './measurementChart';
 import { Panel } from './panel';
 import { RunChart } from './runChart';
+import { SpectrumChart } from './spectrumChart';
 import { onThemeChange, readPalette } from './theme';
 
 const host = connectHost();
@@ -45,6 +46,26 @@ const runChart = new RunChart(
   document.getElementById('runs-chart') as HTMLCanvasElement,
   (run) => host.post({ type: 'openRun', uri: run.uri, line: run.line }),
 );
+const spectra = new SpectrumChart(
+  document.getElementById('spectra') as HTMLElement,
+  document.getElementById('spectra-pick') as HTMLElement & { value: string },
+  document.getElementById('spectra-caption') as HTMLElement,
+  document.getElementById('spectrum-chart') as HTMLCanvasElement,
+  () => spectra.draw(last?.current?.spectra, readPalette()),
+);
+document.getElementById('spectra-png')?.addEventListener('click', () => {
+  const t = spectra.shown();
+  if (t)
+    host.post({
+      type: 'exportSpectrumPng',
+      key: t.key,
+      dataUrl: composePng(spectra.canvases(), `${t.key}: ${t.file}`, readPalette()),
+    });
+});
+document.getElementById('spectra-csv')?.addEventListener('click', () => {
+  const t = spectra.shown();
+  if (t) host.post({ type: 'exportSpectrumCsv', key: t.key });
+});
 const runsEmpty = document.getElementById('runs-empty') as HTMLElement;
 const runsTitle = document.getElementById('runs-title') as HTMLElement;
 const runsSelect = document.getElementById('runs-quantity') as (HTMLElement & { value: string }) | null;
@@ -102,14 +123,17 @@ function draw(): void {
   );
   if (current === null) {
     measurement.draw(null, palette);
+    spectra.draw(undefined, palette);
     return panel.showEmpty();
   }
   if (current.kind === 'problem') {
     panel.showProblem(current);
+    spectra.draw(current.spectra, palette);
     return measurement.draw(plot, palette, overlay);
   }
   panel.showCurve(current);
   measurement.draw(plot, palette, overlay);
+  spectra.draw(current.spectra, palette);
   charts.draw(viewModel(current, last?.pinned ?? [], unit, palette), palette);
   for (const c of charts.canvases())
     c.setAttribute(
@@ -151,7 +175,7 @@ host.listen((message) => {
 });
 
 onThemeChange(() => {
-  if (last?.current?.kind === 'curve' || last?.runs) draw();
+  if (last?.current?.kind === 'curve' || last?.runs || last?.current?.spectra?.length) draw();
 });
 
 draw();

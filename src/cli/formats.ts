@@ -15,6 +15,7 @@ import {
   type ReportEntry,
   type BlockReport,
   DEFAULT_DISPLAY,
+  spectraLines,
 } from '../core';
 
 /** A block with its report entry, for the formatters. */
@@ -130,13 +131,19 @@ export function formatTable(
       .join('  ')
       .trimEnd();
   const out = [line(TABLE_HEAD), line(TABLE_HEAD.map((_, i) => '-'.repeat(widths[keep.indexOf(i)] ?? 0)))];
-  rows.forEach(({ entry }, i) => {
+  rows.forEach(({ entry, block }, i) => {
     out.push(line(cells[i]));
     const extra = [
       tailsOfT[i] !== '' ? `T ${tailsOfT[i]}` : '',
       ...(below ? [cells[i][7] !== '—' ? `ε = ${cells[i][7]}` : '', cells[i][8]] : []),
     ].filter((x) => x !== '');
     if (extra.length) out.push(`    ${extra.join(' · ')}`);
+    // Values taken from spectrum files, each marked and named with its file and region.
+    if (block)
+      for (const s of spectraLines(block.meta)) {
+        const text = terminalText(`    ${s}`);
+        out.push(...(o.wide ? [text] : wrap(text, o.width, '        ')));
+      }
     for (const d of entry.diagnostics) {
       const text = terminalText(`    ${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code}: ${d.message}`);
       out.push(...(o.wide ? [text] : wrap(text, o.width, '        ')));

@@ -6,6 +6,7 @@
  * usage error (an unknown option or format, `-` given twice).
  */
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
+import { dirname } from 'node:path';
 import {
   Analyzer,
   decodeUtf8,
@@ -18,9 +19,11 @@ import {
   STATUSES,
   terminalText,
   unreadableEntry,
+  SpectrumShelf,
   type Externals,
   type Status,
 } from '../core';
+import { noteSpectra } from './spectra';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
 import { collectNotes, UsageError } from './files';
@@ -51,10 +54,13 @@ export interface Io {
 /** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
 function analyseAll(paths: readonly string[], io: Io): Row[] {
   const analyzer = new Analyzer();
+  // One shelf for the run: a spectrum file that several notes use is parsed once.
+  const shelf = new SpectrumShelf();
   const rows: Row[] = [];
   const stdin = io.stdin ?? (() => new Uint8Array(0));
-  // Every note read is in one book first, so that a block may use a run of any of them (runs/runBook.ts).
-  const book = commandBook(analyzer, readableRoots(paths, io.cwd));
+  // Every note read is in one book first, so that a block may use a run of any of them (runs/runBook.ts); each
+  // note's spectrum files are read relative to its folder, for the blocks of the note and those it refers to.
+  const book = commandBook(analyzer, readableRoots(paths, io.cwd), (note) => noteSpectra(shelf, note, dirname(note)));
   const read = collectNotes(paths, io.cwd, stdin).map((note) => {
     if ('unreadable' in note) return { note, text: '', invalid: [] };
     const decoded = decodeUtf8(note.bytes);

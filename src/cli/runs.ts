@@ -7,7 +7,7 @@
  */
 import { realpathSync, statSync } from 'node:fs';
 import { dirname, resolve, sep } from 'node:path';
-import { decodeUtf8, isNotebookPath, notebookCells, RunBook, type Analyzer } from '../core';
+import { decodeUtf8, isNotebookPath, notebookCells, RunBook, type Analyzer, type Externals } from '../core';
 import { readNote, STDIN } from './files';
 
 /** The name a note has in the book: its absolute path (standard input: a note in the working folder). */
@@ -55,9 +55,14 @@ function inside(path: string, roots: readonly string[]): boolean {
 }
 
 /** A book for the notes of one command, reading unnamed referenced notes inside `roots` only. */
-export function commandBook(analyzer: Analyzer, roots: readonly string[]): RunBook {
+export function commandBook(
+  analyzer: Analyzer,
+  roots: readonly string[],
+  sources: ((note: string) => Externals | null) | null = null,
+): RunBook {
   return new RunBook({
     analyzer,
+    ...(sources ? { sources } : {}),
     load: (note) => {
       if (!/\.(md|markdown|ipynb)$/i.test(note)) return null;
       let path: string;

@@ -18,6 +18,7 @@ import { registerCurveSerializer } from './curveSerializer';
 import { noteReader } from './loadNoteReader';
 import { registerRunLog } from './runLogView';
 import { registerCellRendererMessaging } from './cellRendererMessaging';
+import { serveSpectrumFiles } from './spectrumFiles';
 
 /** What the extension gives VS Code's Markdown preview. */
 export interface BoltzmarkApi {
@@ -50,6 +51,7 @@ export async function activateWith(context: vscode.ExtensionContext, makeClient:
       followCursor(),
       registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }),
       registerCellRendererMessaging(),
+      ...serveSpectrumFiles(client),
     );
     registerRunLog(context, log, { extensionUri: context.extensionUri, client: () => client, log });
     await client.start();

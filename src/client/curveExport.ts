@@ -5,7 +5,14 @@
  * note); the note itself is never changed.
  */
 import * as vscode from 'vscode';
-import type { CurvePayload, DisplayOptions, EnergyAxisUnit, RunChartPayload, RunQuantity } from '../core';
+import type {
+  CurvePayload,
+  DisplayOptions,
+  EnergyAxisUnit,
+  RunChartPayload,
+  RunQuantity,
+  SpectrumTrace,
+} from '../core';
 import { noteReader } from './loadNoteReader';
 import { fileStem, imageLink, pngBytes } from './exportNames';
 
@@ -69,5 +76,23 @@ export async function saveRunsPng(
 ): Promise<vscode.Uri | undefined> {
   const uri = await saveAs(note, `${fileStem(runs.title)}-runs.png`, { 'PNG image': ['png'] });
   if (uri) await vscode.workspace.fs.writeFile(uri, pngBytes(dataUrl));
+  return uri;
+}
+
+/** Asks where to save the spectrum panel's PNG and writes it. */
+export async function saveSpectrumPng(
+  note: vscode.Uri,
+  t: SpectrumTrace,
+  dataUrl: string,
+): Promise<vscode.Uri | undefined> {
+  const uri = await saveAs(note, `${fileStem(t.key)}-spectrum.png`, { 'PNG image': ['png'] });
+  if (uri) await vscode.workspace.fs.writeFile(uri, pngBytes(dataUrl));
+  return uri;
+}
+
+/** Asks where to save the spectrum panel's CSV (the points drawn, the baseline in the region, the integral) and writes it. */
+export async function saveSpectrumCsv(note: vscode.Uri, t: SpectrumTrace): Promise<vscode.Uri | undefined> {
+  const uri = await saveAs(note, `${fileStem(t.key)}-spectrum.csv`, { CSV: ['csv'] });
+  if (uri) await vscode.workspace.fs.writeFile(uri, new TextEncoder().encode(noteReader().spectrumCsv(t)));
   return uri;
 }

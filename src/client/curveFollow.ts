@@ -29,6 +29,14 @@ export function followCursor(): vscode.Disposable {
       if (view && editor && editor.document === e.document && view.shownUri === e.document.uri.toString())
         later(editor);
     }),
+    // A spectrum file the shown block reads changed on disk: the server re-analysed the note without an edit,
+    // and its new diagnostics are the sign; ask again so the panel shows the new integral.
+    vscode.languages.onDidChangeDiagnostics((e) => {
+      const view = CurveView.active;
+      const editor = vscode.window.activeTextEditor;
+      if (!view || !editor || view.shownUri !== editor.document.uri.toString()) return;
+      if (e.uris.some((u) => u.toString() === view.shownUri)) later(editor);
+    }),
   ];
   return {
     dispose: () => {

@@ -23,7 +23,15 @@ import {
 import { CurveDataRequest } from '../shared/protocol';
 import type { RunEntry, RunLog } from '../core';
 import { background } from './background';
-import { copyImageLink, saveCsv, savePng, saveRunsCsv, saveRunsPng } from './curveExport';
+import {
+  copyImageLink,
+  saveCsv,
+  savePng,
+  saveRunsCsv,
+  saveRunsPng,
+  saveSpectrumCsv,
+  saveSpectrumPng,
+} from './curveExport';
 import { displayOptions } from './display';
 import { noteReader } from './loadNoteReader';
 import { newNonce, viewHtml } from './viewHtml';
@@ -304,6 +312,16 @@ export class CurveView implements vscode.Disposable {
       case 'exportRunsPng':
         if (this.runs) await saveRunsPng(this.runs, m.dataUrl, this.runsNote());
         return;
+      case 'exportSpectrumPng':
+      case 'exportSpectrumCsv': {
+        // Only a trace the host sent: the page names it by key, the host looks it up in what it sent.
+        const t = this.current?.spectra?.find((x) => x.key === m.key);
+        if (!t || !this.current) return;
+        const note = vscode.Uri.parse(this.current.uri);
+        if (m.type === 'exportSpectrumPng') await saveSpectrumPng(note, t, m.dataUrl);
+        else await saveSpectrumCsv(note, t);
+        return;
+      }
     }
   }
 

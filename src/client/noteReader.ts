@@ -7,4 +7,6 @@
  * bundle VS Code loads at activation down to the language client and glue.
  */
 export { levelsPreview, type PreviewOptions } from './preview';
-export { RunLog, runLogCsv, curveCsv, runChartCsv, runChartData } from '../core';
+export { RunLog, runLogCsv, curveCsv, runChartCsv, runChartData, spectrumCsv } from '../core';
+export { SpectrumFiles, deferredParser } from '../shared/spectrumFiles';
+export { SPECTRUM_EXTENSIONS } from '../core';

@@ -13,6 +13,7 @@ import { background } from './background';
 import { noteReader } from './loadNoteReader';
 import { CurveView, type CurveViewHost } from './curveView';
 import { Debouncer } from '../shared/debouncer';
+import { RunLogSpectra } from './runLogSpectra';
 
 const MAX_FILES = 2000;
 /** Notes the run log reads: Markdown, and Jupyter notebooks (their Markdown cells). */
@@ -125,7 +126,10 @@ export function registerRunLog(
         if (stat.size > MAX_BYTES) return;
         text = new TextDecoder('utf-8').decode(await vscode.workspace.fs.readFile(uri));
       }
-      if (tree.log.update(uri.toString(), name(uri), text)) tree.refresh();
+      // Only a note that names a spectrum needs the files (most do not; their reading stays as it was).
+      const externals = text.includes('spectrum') ? spectra.externals(uri.toString()) : null;
+      if (!externals) spectra.forget(uri.toString());
+      if (tree.log.update(uri.toString(), name(uri), text, externals)) tree.refresh();
     } catch (err) {
       if (tree.log.remove(uri.toString())) tree.refresh();
       log.debug(`run log: cannot read ${uri.toString()}: ${(err as Error).message}`);
@@ -133,6 +137,8 @@ export function registerRunLog(
   };
   const schedule = (uri: vscode.Uri): void =>
     rereads.schedule(uri.toString(), () => background(log, `run log: reading ${uri.toString()}`, readOne(uri)));
+  const spectra = new RunLogSpectra(schedule, log);
+  context.subscriptions.push(spectra);
   const start = async (): Promise<void> => {
     if (started) return;
     started = true;
@@ -145,7 +151,10 @@ export function registerRunLog(
       watcher,
       watcher.onDidCreate(schedule),
       watcher.onDidChange(schedule),
-      watcher.onDidDelete((uri) => tree.log.remove(uri.toString()) && tree.refresh()),
+      watcher.onDidDelete((uri) => {
+        spectra.forget(uri.toString());
+        if (tree.log.remove(uri.toString())) tree.refresh();
+      }),
       // Unsaved edits of an open notebook: its cells, as the notebook's JSON would hold them.
       vscode.workspace.onDidChangeNotebookDocument((e) => schedule(e.notebook.uri)),
       vscode.workspace.onDidChangeTextDocument(

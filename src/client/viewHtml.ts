@@ -82,6 +82,17 @@ export function viewHtml(o: ViewHtmlOptions): string {
     <h2 id="measurement-title">Measurement</h2>
     <div class="chart small"><canvas id="measurement-chart" role="img" aria-label="The measurement and its fit"></canvas></div>
   </section>
+  <section id="spectra" hidden>
+    <div class="runs-head">
+      <h2 id="spectra-title">Spectrum</h2>
+      <label for="spectra-pick">Reference</label>
+      <vscode-single-select id="spectra-pick" aria-label="The spectrum reference shown"></vscode-single-select>
+      <vscode-button id="spectra-png" secondary title="Save the spectrum chart as a PNG image">Save PNG</vscode-button>
+      <vscode-button id="spectra-csv" secondary title="Save the points drawn, the baseline and the integral as CSV">Save CSV</vscode-button>
+    </div>
+    <p id="spectra-caption" class="note"></p>
+    <div class="chart small"><canvas id="spectrum-chart" role="img" aria-label="The spectrum with the integrated region shaded"></canvas></div>
+  </section>
   <section id="runs" hidden>
     <div class="runs-head">
       <h2 id="runs-title">Runs compared</h2>

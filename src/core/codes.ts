@@ -90,6 +90,33 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'signal-factor-invalid': { severity: 'error', summary: 'A scan count, gain, amount or flip angle out of range.' },
   'signal-lattice-missing': { severity: 'error', summary: 'A thermal reference needs `lattice`, its temperature.' },
   'signal-polarization-range': { severity: 'error', summary: 'The referenced polarization comes out beyond ±1.' },
+  // Spectra by reference (block/spectrumRef.ts)
+  'spectrum-reference': {
+    severity: 'error',
+    summary: 'A spectrum reference without a file or region, or with a region, noise or baseline not written as one.',
+  },
+  'spectrum-missing': {
+    severity: 'error',
+    summary: 'The referenced spectrum file does not exist (or cannot be read here).',
+  },
+  'spectrum-malformed': {
+    severity: 'error',
+    summary: 'The referenced file is not a readable spectrum; the message gives its line.',
+  },
+  'spectrum-region': {
+    severity: 'error',
+    summary: 'A region or noise region beyond the file’s x range, or with fewer than 3 points.',
+  },
+  'spectrum-unit': { severity: 'error', summary: 'A region unit that does not convert to the file’s x unit.' },
+  'spectrum-outside': {
+    severity: 'error',
+    summary: 'A spectrum path outside the workspace (editor) or the note’s folder tree (command line); not read.',
+  },
+  'spectrum-units-differ': {
+    severity: 'warning',
+    summary: 'Values the block compares are integrals over different x units (y·Hz against y·ppm).',
+  },
+  'spectrum-large': { severity: 'error', summary: 'A spectrum file above 64 MB; not read.' },
   'scans-invalid': { severity: 'error', summary: 'A number of scans must be a whole number ≥ 1.' },
   'series-not-mapping': { severity: 'error', summary: '`series` is not a mapping.' },
   'series-incomplete': { severity: 'error', summary: '`series` lacks `model`, `time` or `signal`.' },

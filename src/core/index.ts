@@ -42,6 +42,36 @@ export { splitReference, resolveNotePath, isInside } from './runs/paths';
 export { EXTRAPOLATE_KEYS } from './block/extrapolate';
 export { runLabel, runPlaceText, thermalReferenceText, polarizationAtText } from './present/runSummary';
 export { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from './block/externals';
+export {
+  SPECTRUM_MAX_BYTES,
+  type BaselineKind,
+  type Spectrum,
+  type SpectrumAnswer,
+  type SpectrumIntegral,
+  type SpectrumRead,
+  type SpectrumSource,
+  type SpectrumUse,
+} from './spectra/types';
+export { readSpectrum, spectrumBytes, SPECTRUM_EXTENSIONS, JCAMP_EXTENSIONS, TEXT_EXTENSIONS } from './spectra/read';
+export { convertX, parseXUnit, X_UNITS, type XUnit } from './spectra/axis';
+export {
+  DEFAULT_SHELF_BYTES,
+  fileStamp,
+  shelfSource,
+  SpectrumShelf,
+  type FileStat,
+  type Located,
+  type SyncFileAccess,
+} from './spectra/shelf';
+export { integrateRegion, noiseSigma, integralUncertainty, pointsIn, type RegionIntegral } from './spectra/integrate';
+export {
+  FROM_FILE_MARK,
+  spectraEntries,
+  spectraLines,
+  spectrumUseLines,
+  type SpectrumEntry,
+} from './present/spectraReport';
+export { SPECTRUM_REF_KEYS } from './block/spectrumRef';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {
@@ -162,6 +192,15 @@ export {
   type ViewToHost,
 } from './view/messages';
 export { curveCsv, runChartCsv } from './view/csv';
+export {
+  baselineAt,
+  decimateMinMax,
+  isSpectrumTrace,
+  spectrumCsv,
+  spectrumTraces,
+  SPECTRUM_DISPLAY_POINTS,
+  type SpectrumTrace,
+} from './view/spectrumPanel';
 export {
   dayNumber,
   dayText,

@@ -70,3 +70,5 @@ export {
   type RunQuantity,
   type RunValue,
 } from './view/runChart';
+export { SPECTRUM_MAX_BYTES } from './spectra/types';
+export { baselineAt, type SpectrumTrace } from './view/spectrumPanel';

@@ -27,7 +27,7 @@ export interface ClientCaps {
   readonly workspaceFolders: boolean;
   /** The client accepts a dynamic registration of `workspace/didChangeConfiguration`. */
   readonly configurationChange: boolean;
-  /** `workspace/didChangeWatchedFiles` with dynamic registration: the server asks for the notes' file events. */
+  /** `workspace/didChangeWatchedFiles` with dynamic registration: the server asks for the file events of notes and spectra. */
   readonly watchedFiles: boolean;
   /** A workspace edit may be `documentChanges` with change annotations (a rename then asks for confirmation). */
   readonly annotatedEdits: boolean;

@@ -14,12 +14,17 @@ export interface ExternalPart {
   stamp(key: string): string | null;
   /** The part for runs (src/server/runs) gives the resolver of `{ run: … }` references. */
   readonly runs?: RunResolver;
+  /** The part's own sources for one note (such as `spectra`), merged into the note's externals. */
+  sourcesFor?(uri: string): Omit<Partial<Externals>, 'note' | 'stamp'>;
 }
 
 /** The externals of one note, from the server's parts. */
 export function noteExternals(uri: string, parts: readonly ExternalPart[]): Externals {
   const runs = parts.find((p) => p.runs)?.runs;
+  let sources: Omit<Partial<Externals>, 'note' | 'stamp'> = {};
+  for (const p of parts) if (p.sourcesFor) sources = { ...sources, ...p.sourcesFor(uri) };
   return {
+    ...sources,
     note: uri,
     ...(runs ? { runs } : {}),
     stamp(key) {

@@ -8,7 +8,11 @@ import { createConnection, ProposedFeatures } from 'vscode-languageserver/node';
 import { diskNotes } from './runs/diskNotes';
 import { startServer } from './server';
 import { logStrayRejections } from './strayRejections';
+import { diskSpectrumAccess, listSpectrumFiles, workerParser } from './spectraNode';
 
 const connection = createConnection(ProposedFeatures.all);
 logStrayRejections(connection);
-startServer(connection, diskNotes);
+startServer(connection, {
+  notes: diskNotes,
+  spectra: { access: diskSpectrumAccess, parse: workerParser(), list: listSpectrumFiles },
+});

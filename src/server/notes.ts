@@ -81,6 +81,13 @@ export class Notes {
     return this.stats.get(uri) ?? null;
   }
 
+  /** The notes whose latest analysis read any of these dependency keys (to refresh them when one changes). */
+  usersOf(keys: ReadonlySet<string>): string[] {
+    const out: string[] = [];
+    for (const [uri, known] of this.states) if (known.deps.some((d) => keys.has(d.key))) out.push(uri);
+    return out;
+  }
+
   /** Forgets a closed note. */
   forget(uri: string): void {
     this.states.delete(uri);

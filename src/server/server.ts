@@ -46,22 +46,46 @@ import {
   runSymbols,
 } from './features/runRefs';
 import { memoryStats } from './heapStats';
-import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from '../shared/protocol';
+import {
+  AnalysisStatsRequest,
+  CurveDataRequest,
+  MemoryRequest,
+  ResultsMarkdownRequest,
+  SpectrumStatsRequest,
+} from '../shared/protocol';
 import type { Settings } from '../shared/settings';
 import { SettingsStore, type SettingsChange } from './settingsStore';
 import { blockAt, displayOptions, type NoteState } from './state';
+import { deferredParser } from './spectra';
+import { SPECTRUM_GLOB, wireSpectra, type SpectrumHost } from './spectraWiring';
+import { spectrumHover } from './features/spectrumHover';
+import { spectrumLinks } from './features/spectrumLinks';
+import { spectrumFileCompletion } from './features/spectrumCompletion';
 
 /** The debouncer's key of a change in the index of runs. */
 const RUNS_CHANGED = '\u0000runs';
+
+/** What the host gives the server beyond the connection. */
+export interface ServerHost {
+  /** Reads the notes of the workspace folders that are not open (for runs by reference); without it only the open notes are indexed. */
+  readonly notes?: NoteFiles | null;
+  /**
+   * How spectrum files are read and parsed (the Node server: the disk and a worker thread); without it, files
+   * come through the client's file system and are parsed in-process after the request.
+   */
+  readonly spectra?: SpectrumHost;
+}
 
 /** Pause after the last keystroke before pushed diagnostics are sent. */
 const PUSH_DELAY_MS = 200;
 
 /**
- * Starts serving on a connection (stdio, IPC or socket: the connection decides). `files` reads the notes of the
- * workspace folders that are not open (for runs by reference); without it only the open notes are indexed.
+ * Starts serving on a connection (stdio, IPC or socket: the connection decides), with what the host can do
+ * (see {@link ServerHost}).
  */
-export function startServer(connection: Connection, files: NoteFiles | null = null): void {
+export function startServer(connection: Connection, host: ServerHost = {}): void {
+  const files = host.notes ?? null;
+  const spectrumHost: SpectrumHost = host.spectra ?? { parse: deferredParser };
   // stdout may be the protocol channel: route console output to the client's log instead.
   console.log = connection.console.log.bind(connection.console);
   console.info = connection.console.info.bind(connection.console);
@@ -74,7 +98,13 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
   const notes = new Notes((uri) => (externalParts.length > 0 ? noteExternals(uri, externalParts) : null));
   const pushes = new Debouncer(PUSH_DELAY_MS);
   // Every run of the workspace, for `{ run: … }` references; a change re-publishes the notes that used it.
-  const runs = new WorkspaceRuns(() => pushes.schedule(RUNS_CHANGED, () => republishStale()), files);
+  // A referenced block whose own values come from spectrum files reads them as its note does.
+  const runs = new WorkspaceRuns(
+    () => pushes.schedule(RUNS_CHANGED, () => republishStale()),
+    files,
+    undefined,
+    (note) => noteExternals(note, [spectra]),
+  );
   externalParts.push(runs);
   let caps: ClientCaps = clientCaps(undefined);
   const log = (message: string): void => connection.console.warn(message);
@@ -82,6 +112,11 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
     refreshAfter(connection, caps, change, documents, (uri) => pushes.schedule(uri, () => push(uri)));
   let settings = new SettingsStore(null, log, changed);
   let folders: string[] = [];
+  const spectra = wireSpectra(
+    { connection, documents, notes: () => notes, caps: () => caps, folders: () => folders, push: (uri) => push(uri) },
+    spectrumHost,
+  );
+  externalParts.push(spectra);
 
   /** The note's analysis and settings, once its folder's settings are known; null for an unknown note. */
   const note = async (uri: string): Promise<{ state: NoteState; settings: Settings } | null> => {
@@ -192,11 +227,13 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
     if (caps.watchedFiles)
       background(
         connection,
-        'registering for file events of notes',
+        'registering for file events of notes and spectrum files',
+        // One registration: the notes (runs by reference) and the spectrum files references read.
         connection.client.register(DidChangeWatchedFilesNotification.type, {
           watchers: [
             { globPattern: '**/*.{md,markdown}' },
-            // A deleted folder takes its notes with it.
+            { globPattern: SPECTRUM_GLOB },
+            // A deleted folder takes its notes and files with it.
             { globPattern: '**/*', kind: WatchKind.Delete },
           ],
         }),
@@ -255,8 +292,10 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
     kind: DocumentDiagnosticReportKind.Full,
     items: await serve(p.textDocument.uri, token, [], noteDiagnostics),
   }));
+  // One handler for every watched file (a second registration would replace the first): spectra and notes.
   connection.onDidChangeWatchedFiles((p) => {
     for (const c of p.changes) {
+      spectra.changed(c.uri);
       const kind =
         c.type === FileChangeType.Created ? 'created' : c.type === FileChangeType.Deleted ? 'deleted' : 'changed';
       background(connection, `reading ${c.uri}`, runs.fileEvent(c.uri, kind));
@@ -267,7 +306,10 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
       p.textDocument.uri,
       token,
       null,
-      (s, set) => runHover(runs, s, p.position, displayOptions(set)) ?? hover(s, p.position, set),
+      (s, set) =>
+        runHover(runs, s, p.position, displayOptions(set)) ??
+        spectrumHover(s, p.position, set) ??
+        hover(s, p.position, set),
     ),
   );
   connection.onDefinition((p, token) =>
@@ -288,19 +330,29 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
     await runs.ready();
     return token.isCancellationRequested ? [] : runSymbols(runs, p.query);
   });
-  connection.onDocumentLinks((p, token) => serve(p.textDocument.uri, token, [], (s) => runLinks(runs, s)));
+  connection.onDocumentLinks((p, token) =>
+    serve(p.textDocument.uri, token, [], (s) => [...runLinks(runs, s), ...spectrumLinks(s, folders)]),
+  );
   connection.languages.inlayHint.on((p, token) =>
     serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
   );
   connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
-  connection.onCompletion((p, token) =>
-    serveRuns(
-      p.textDocument.uri,
-      token,
-      [],
-      (s) => runCompletion(runs, s, p.position) ?? completion(s, p.position, caps.snippets),
-    ),
-  );
+  connection.onCompletion(async (p, token) => {
+    const files = await spectrumFileCompletion(
+      () => serve(p.textDocument.uri, token, null, (s) => s),
+      p.position,
+      spectrumHost.list,
+    );
+    return (
+      files ??
+      serveRuns(
+        p.textDocument.uri,
+        token,
+        [],
+        (s) => runCompletion(runs, s, p.position) ?? completion(s, p.position, caps.snippets),
+      )
+    );
+  });
   connection.onDocumentSymbol((p, token) =>
     serve(p.textDocument.uri, token, [], (s) =>
       caps.hierarchicalSymbols ? documentSymbols(s) : flatSymbols(s.uri, documentSymbols(s)),
@@ -316,8 +368,9 @@ export function startServer(connection: Connection, files: NoteFiles | null = nu
   );
   connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
   connection.onRequest(MemoryRequest, memoryStats);
+  connection.onRequest(SpectrumStatsRequest, () => ({ files: spectra.known.length, parses: spectra.parses }));
   connection.onRequest(CurveDataRequest, (p, token) =>
-    serve(p.uri, token, null, (s, set) => curvePayload(s, p.line, set)),
+    serve(p.uri, token, null, (s, set) => curvePayload(s, p.line, set, (key) => spectra.spectrumAtKey(key))),
   );
 
   documents.listen(connection);

@@ -46,3 +46,32 @@ export const MemoryRequest = new RequestType0<MemoryStats, void>('boltzmark/memo
  * measured point and markers, or its first error; null when no block is there.
  */
 export const CurveDataRequest = new RequestType<BlockParams, ViewPayload | null, void>('boltzmark/curveData');
+
+// ---- server → client ----
+
+/** A file the server asks the client about: its URI, as the server resolved a spectrum reference. */
+export interface FileParams {
+  readonly uri: string;
+}
+
+/**
+ * Size (bytes) and modification time (ms) of a regular file, through the client's file system, or null when
+ * there is none. The server asks where it cannot read the file itself (a workspace not on disk, the browser).
+ */
+export const FileStatRequest = new RequestType<
+  FileParams,
+  { readonly size: number; readonly mtime: number } | null,
+  void
+>('boltzmark/fileStat');
+
+/** A file's text through the client's file system (UTF-8), or null when it cannot be read or passes 64 MB. */
+export const FileTextRequest = new RequestType<FileParams, string | null, void>('boltzmark/fileText');
+
+/** The server's spectrum files: how many it knows and how many parses it ran (tests and benchmarks: a file is parsed once). */
+export interface SpectrumStats {
+  readonly files: number;
+  readonly parses: number;
+}
+
+/** The server's spectrum file counts (client → server; used by the tests and the benchmark). */
+export const SpectrumStatsRequest = new RequestType0<SpectrumStats, void>('boltzmark/spectrumStats');

@@ -1,10 +1,11 @@
 import { strict as assert } from 'node:assert';
-import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { curveExportSteps } from './curveExports.steps';
 import { runLogSteps } from './runLog.steps';
+import { spectraSteps } from './spectra.steps';
 import { noteBytes, shot, startSession, type Session } from './session';
 import {
   activeTabDirty,
@@ -291,8 +292,14 @@ function editorSteps(version: host.Version): void {
     // The run log in the Explorer, over every demo note (runLog.steps.ts).
     runLogSteps(() => s);
 
+    // Spectrum references on the demo's spectra note (spectra.steps.ts).
+    spectraSteps(() => s);
+
     it('leaves the notes’ bytes on disk unchanged and sends nothing beyond 127.0.0.1', () => {
-      const notes = readdirSync(join(host.ROOT, 'demo'));
+      // Every file of the demo, those in its folders (the spectra) too.
+      const notes = readdirSync(join(host.ROOT, 'demo'), { recursive: true })
+        .map(String)
+        .filter((f) => statSync(join(host.ROOT, 'demo', f)).isFile());
       assert.ok(notes.includes(NOTE));
       for (const name of notes) {
         const { original, now } = noteBytes(s, name);

@@ -9,7 +9,8 @@ import { readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Locator } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
-import { measuredTemperatureText, RunLog, STATUSES, type RunEntry, type Status } from '../../src/core';
+import { measuredTemperatureText, RunLog, SpectrumShelf, STATUSES, type RunEntry, type Status } from '../../src/core';
+import { noteSpectra } from '../../src/cli/spectra';
 import { notification, pickMany, saveDialog } from './dialogs';
 import { csvRecords, parseCsv, waitForFile } from './files';
 import { scratchFolder, shot, type Session } from './session';
@@ -50,7 +51,9 @@ function fencedIds(text: string): string[] {
 /** The core's run log of notes named as the view names them in a one-folder workspace: the path inside the folder. */
 function coreLog(texts: ReadonlyMap<string, string>): RunLog {
   const log = new RunLog();
-  for (const [file, text] of texts) log.update(file, file, text);
+  // Spectrum references read from the committed demo's files, as the extension's run log reads the served copy.
+  const shelf = new SpectrumShelf();
+  for (const [file, text] of texts) log.update(file, file, text, noteSpectra(shelf, join(DEMO, file), DEMO));
   return log;
 }
 

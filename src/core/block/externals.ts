@@ -12,6 +12,7 @@
  * changed spectrum or a changed referenced block makes exactly the blocks
  * that used it read again.
  */
+import type { SpectrumSource } from '../spectra/types';
 
 import type { RunResolver } from '../runs/types';
 
@@ -39,6 +40,8 @@ export interface Externals {
   readonly runs?: RunResolver;
   /** The stamp a dependency key has now (null: not there). Asked for every dependency of a cached block on reuse. */
   stamp(key: string): string | null;
+  /** Spectrum files by path as written in the note (spectra/types.ts); keys `file:<absolute path or URI>`. */
+  readonly spectra?: SpectrumSource;
 }
 
 /** A dependency list shared by every block that has none (most blocks). */

@@ -6,6 +6,7 @@
  * carried as an upper level with "population" n = I λ / A (or I / A), so the
  * Boltzmann fit of ln(n/g) against E serves emission data too.
  */
+import { readNumberOrSpectrum } from './spectrumRef';
 import type { TreeNode } from './tree';
 import { BOLTZMANN, KELVIN_PER_EV, KELVIN_PER_HERTZ, PLANCK, SPEED_OF_LIGHT } from '../quantities/constants';
 import { parseQuantity } from '../quantities/units';
@@ -304,7 +305,7 @@ function readIntensity(
   const v =
     detector === 'radiometer'
       ? readIntegrated(ctx, node, `${subject}.intensity`)
-      : readNumber(ctx, node, `${subject}.intensity`);
+      : readNumberOrSpectrum(ctx, node, `${subject}.intensity`);
   if (!v) return null;
   if (!(v.value > 0)) {
     report(
@@ -318,7 +319,8 @@ function readIntensity(
   }
   if (!sibling) {
     // Photon counts follow Poisson statistics: without a stated uncertainty, u(N) = √N.
-    if (detector === 'photon' && v.uncertainty === null)
+    // Not for a spectrum's integral: counts × an x unit are no count.
+    if (detector === 'photon' && v.uncertainty === null && !v.fromSpectrum)
       return { ...v, uncertainty: Math.sqrt(v.value), poisson: true };
     return { ...v, poisson: false };
   }

@@ -3,6 +3,7 @@
  * (energies in kelvin, sorted lowest first) and what was measured. Spans are
  * body-relative so the hosts can point at what the user wrote.
  */
+import type { SpectrumUse } from '../spectra/types';
 import type { SpinSpecies } from '../quantities/isotopes';
 import type { Span } from '../types';
 import type { BlockForm } from './schema';
@@ -207,6 +208,8 @@ export interface BlockMeta {
   readonly date: string | null;
   /** The runs the block refers to (`{ run: … }`), with body-relative spans; absent or empty when none. */
   readonly refs?: readonly RunRef[];
+  /** The block's spectrum references in text order (block/spectrumRef.ts); absent or empty when none. */
+  readonly spectra?: readonly SpectrumUse[];
 }
 
 /** What one form's reader returns; the block reader adds the keys common to all forms. */

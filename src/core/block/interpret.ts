@@ -29,6 +29,7 @@ import {
   type ReadValue,
 } from './values';
 import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
+import { spectrumRefs, unitsAgree } from './spectrumRef';
 
 /** What reading a block gave: its label and key spans, its input (null on errors) and its problems. */
 export interface Interpretation {
@@ -87,15 +88,16 @@ export function interpretBody(body: string, externals: Externals | null = null):
   }
   const deps: Dependency[] = [];
   const refs: RunRef[] = [];
-  const ctx: ReadContext = { body, problems, externals, deps, refs };
   const all = entries(doc.contents);
   const byKey = new Map<string, Entry>();
   // Kept for as long as the block is cached; the spans are found again when first asked for.
   const keys = new KeySpans(body, keepName);
   for (const e of all) {
     byKey.set(e.key, e);
-    if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   }
+  const spectra = spectrumRefs(body, problems, byKey.get('spectrum'));
+  const ctx: ReadContext = { body, problems, externals, deps, refs, spectra };
+  for (const e of all) if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   const idEntry = byKey.get('id');
   const idText = idEntry ? readText(ctx, idEntry.value) : null;
   const dateEntry = byKey.get('date');
@@ -106,6 +108,7 @@ export function interpretBody(body: string, externals: Externals | null = null):
     keys,
     date: dateText && dateText.text !== '' ? dateText.text : null,
     refs,
+    spectra: spectra.uses,
   };
   if (meta.id !== null && meta.idSpan) duplicateId(ctx, meta.id, meta.idSpan);
 
@@ -189,7 +192,9 @@ export function interpretBody(body: string, externals: Externals | null = null):
       };
     }
   }
-  if (countErrors(problems) > 0) input = null;
+  unitsAgree(ctx);
+  // A spectrum the host is still reading leaves the block without input (and without an error) until it is ready.
+  if (countErrors(problems) > 0 || spectra.pending > 0) input = null;
   return { meta, input, problems, deps: deps.length > 0 ? deps : NO_DEPENDENCIES };
 }
 

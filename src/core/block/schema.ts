@@ -108,6 +108,13 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
     example: '{ from: 42 s, to: 0 s, decay: 47.9 ± 1.2 s }',
   },
   {
+    key: 'spectrum',
+    form: 'any',
+    summary:
+      'Default spectrum file (relative to the note, `/` as separator) for the block’s spectrum references `{ region: [from, to] }`.',
+    example: 'spectra/run12.jdx',
+  },
+  {
     key: 'series',
     form: 'any',
     summary:

@@ -3,6 +3,7 @@
  * a hyperpolarized signal, each readout with flip angle θ leaving cos θ of the
  * magnetization) or a `buildup` fit.
  */
+import { readNumberOrSpectrum } from './spectrumRef';
 import type { TreeNode } from './tree';
 import type { SeriesInput } from './input';
 import { SERIES_KEYS } from './schema';
@@ -51,7 +52,7 @@ export function readSeries(ctx: ReadContext, e: Entry): SeriesInput | null {
       readQuantity(ctx, node, 'time', s, listUnit !== null ? { defaultUnit: listUnit } : { suggestUnit: 's' }),
     'series.time',
   );
-  const signals = readValues(ctx, se, (node, s) => readNumber(ctx, node, s), 'series.signal');
+  const signals = readValues(ctx, se, (node, s) => readNumberOrSpectrum(ctx, node, s), 'series.signal');
   const noise = byKey.get('noise') ? readNumber(ctx, byKey.get('noise')!.value, 'series.noise') : null;
   const flipEntry = byKey.get('flip');
   const flip = flipEntry ? readQuantity(ctx, flipEntry.value, 'angle', 'series.flip', { suggestUnit: 'deg' }) : null;

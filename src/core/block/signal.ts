@@ -14,6 +14,7 @@ import { SIGNAL_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
 import { followRun, isRunRefNode, readRunRef } from './runRef';
 import type { ThermalRun } from './input';
+import { readNumberOrSpectrum } from './spectrumRef';
 
 type Pair = readonly [number, number];
 const SIDES = ['hyperpolarized', 'thermal'] as const;
@@ -44,7 +45,7 @@ export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
   const hpEntry = byKey.get('hyperpolarized');
   let hp: ReadValue | null = null;
   if (hpEntry) {
-    const v = readNumber(ctx, hpEntry.value, 'signal.hyperpolarized');
+    const v = readNumberOrSpectrum(ctx, hpEntry.value, 'signal.hyperpolarized');
     hp = v ? withNoise(ctx, v, given(noise?.[0]), 'signal.hyperpolarized') : null;
   }
   // Without `hyperpolarized:` and a series the block is a thermal reference itself: P = P_th.
@@ -59,7 +60,7 @@ export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
     runFailed = byRun === null;
     if (byRun) th = { value: byRun.sides.thermal, uncertainty: byRun.sides.uThermal, span: byRun.run.span, unit: null };
   } else {
-    const v = readNumber(ctx, thEntry.value, 'signal.thermal');
+    const v = readNumberOrSpectrum(ctx, thEntry.value, 'signal.thermal');
     th = v ? withNoise(ctx, v, given(noise?.[1]), 'signal.thermal') : null;
     if (th && th.value === 0) {
       report(

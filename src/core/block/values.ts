@@ -10,6 +10,17 @@ import type { Problem, Replacement, Severity, Span } from '../types';
 import type { UnitChoice } from './unitChoice';
 import type { Dependency, Externals } from './externals';
 import type { RunRef } from '../runs/types';
+import type { SpectrumUse } from '../spectra/types';
+
+/** The spectrum references a block reader meets (block/spectrumRef.ts). */
+export interface SpectrumRefs {
+  /** Every reference met, in the order of the block's text. */
+  readonly uses: SpectrumUse[];
+  /** The block-level `spectrum:` default, as written, or null. */
+  readonly fallback: { readonly text: string; readonly span: Span } | null;
+  /** References whose file the host is still reading: the block has no input until they are ready. */
+  pending: number;
+}
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
@@ -21,6 +32,8 @@ export interface ReadContext {
   readonly deps?: Dependency[];
   /** The references to other runs the block makes, as read (see block/runRef.ts). */
   readonly refs?: RunRef[];
+  /** The spectrum references met so far and the block's default file; absent in readers that take none. */
+  readonly spectra?: SpectrumRefs;
 }
 
 /** Records that the block read `key` from outside, as it was at `stamp`. */
@@ -35,6 +48,8 @@ export interface ReadValue {
   readonly span: Span;
   /** The unit as written, or null for a bare number. */
   readonly unit: string | null;
+  /** True when the value is a spectrum's integral (block/spectrumRef.ts) rather than a typed number. */
+  readonly fromSpectrum?: boolean;
 }
 
 /** Adds a problem to the context. */

@@ -9,6 +9,7 @@
  * `inversionDensity`, `thresholdInversion` and `singlePassGainDb` are
  * Boltzmark's own extensions (added fields only: nothing is renamed or removed).
  */
+import { spectraEntries, type SpectrumEntry } from './spectraReport';
 import type { BlockReport } from '../analyzer/analyzer';
 import type { LineIndex } from '../text/lineIndex';
 import { KELVIN_PER_EV } from '../quantities/constants';
@@ -99,6 +100,8 @@ export interface ReportEntry {
   } | null;
   /** `air` or `vacuum` for blocks with optical wavelengths, and whether the block stated it. */
   readonly wavelengths: { readonly medium: 'air' | 'vacuum'; readonly stated: boolean } | null;
+  /** The block's spectrum references in text order, empty when none (v1.2). */
+  readonly spectra: readonly SpectrumEntry[];
   /** Standard uncertainty of P_th from u(lattice) and u(field/frequency/gap), or null. */
   readonly thermalPolarizationUncertainty: number | null;
   /** Standard uncertainty of ε from every stated input uncertainty, or null. */
@@ -145,6 +148,7 @@ export function reportEntry(file: string, b: BlockReport, lines: LineIndex, cell
     file,
     line: b.block.openLine + 1,
     cell,
+    spectra: spectraEntries(b.meta),
     id: b.meta.id,
     status: b.status,
     beta: r ? withInterval(r.beta, r.intervals.beta) : null,
@@ -300,6 +304,7 @@ export function unreadableEntry(file: string, reason: string): ReportEntry {
     form: null,
     fit: null,
     invertedPairs: [],
+    spectra: [],
     ...uncertaintyEntry(null),
     ...tradeEntry(null),
     ...runEntry(null),

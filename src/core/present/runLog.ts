@@ -4,6 +4,7 @@
  * cache re-analyses only the blocks that changed). Pure data; the editor's
  * tree view and the CSV export are hosts of it.
  */
+import type { Externals } from '../block/externals';
 import { Analyzer, type BlockReport } from '../analyzer/analyzer';
 import { RunBook } from '../runs/runBook';
 import { isNotebookPath, notebookCells } from '../text/jupyter';
@@ -63,15 +64,21 @@ export class RunLog {
   /** How many references of the held notes name each id: a note none of whose ids is named has no users. */
   private readonly named = new Map<string, number>();
 
+  /** Each note's other sources of values by reference (spectrum files), as its host last gave them. */
+  private readonly sources = new Map<string, Externals>();
+
   constructor(private readonly analyzer: Analyzer = new Analyzer()) {
-    this.book = new RunBook({ analyzer });
+    this.book = new RunBook({ analyzer, sources: (note) => this.sources.get(note) ?? null });
   }
 
   /**
    * Reads (or re-reads) one note; returns true when its runs changed. A URI ending in `.ipynb` is read as a
    * Jupyter notebook: each Markdown cell is a note of its own (a file that is not a notebook has no runs).
+   * `externals` are the note's sources of values by reference (spectrum files), when the host has them.
    */
-  update(uri: string, name: string, text: string): boolean {
+  update(uri: string, name: string, text: string, externals: Externals | null = null): boolean {
+    if (externals) this.sources.set(uri, externals);
+    else this.sources.delete(uri);
     if (isNotebookPath(uri)) return this.read(uri, name, text);
     // The notes that used this note's runs before the change, and those that use them after it.
     const before = this.usersOfNote(uri);
@@ -147,7 +154,9 @@ export class RunLog {
       uses: uses(b),
     });
     const entries: RunEntry[] = isNotebookPath(uri)
-      ? notebookCells(text).cells.flatMap((c) => this.analyzer.analyzeText(c.text).blocks.map((b) => entry(b, c.index)))
+      ? notebookCells(text).cells.flatMap((c) =>
+          this.analyzer.analyzeText(c.text, this.sources.get(uri) ?? null).blocks.map((b) => entry(b, c.index)),
+        )
       : this.analyzer.analyzeText(text, this.book.externalsFor(uri)).blocks.map((b) => entry(b, null));
     const before = this.notes.get(uri);
     if (before && JSON.stringify(before) === JSON.stringify(entries)) return false;
@@ -162,6 +171,7 @@ export class RunLog {
     const before = this.usersOfNote(uri);
     this.count(uri, -1);
     this.texts.delete(uri);
+    this.sources.delete(uri);
     this.book.deleteNote(uri);
     const had = this.notes.delete(uri);
     return this.readAgain(uri, before) || had;

@@ -53,6 +53,11 @@ export interface RunBookOptions {
    * may not read it (the command line reads only inside the folder tree it was given).
    */
   readonly load?: (note: string) => string | null | { readonly refused: string };
+  /**
+   * The host's other sources for a note (spectrum files), merged into {@link RunBook.externalsFor}, so that a
+   * referenced block whose own values come from a file reads them as its note does.
+   */
+  readonly sources?: (note: string) => Externals | null;
 }
 
 /** One `levels` block of a note, as indexed. */
@@ -104,6 +109,7 @@ export class RunBook implements RunResolver {
   private readonly analyzer: Analyzer;
   private readonly infoStrings: readonly string[];
   private readonly load: RunBookOptions['load'] | null;
+  private readonly sources: RunBookOptions['sources'] | null;
   /** Notes looked for through `load` and not found (until the next change), with why when the host refused. */
   private readonly missing = new Map<string, string | null>();
   /** Evaluated blocks, by block, with the stamp of what they read. */
@@ -120,6 +126,7 @@ export class RunBook implements RunResolver {
     this.analyzer = options.analyzer ?? new Analyzer({ infoStrings: options.infoStrings ?? [] });
     this.infoStrings = options.infoStrings ?? this.analyzer.options.infoStrings;
     this.load = options.load ?? null;
+    this.sources = options.sources ?? null;
   }
 
   /**
@@ -245,7 +252,14 @@ export class RunBook implements RunResolver {
 
   /** The analyzer's sources for a note of this book. */
   externalsFor(note: string): RunExternals {
-    return { note, runs: this, stamp: (key) => this.stamp(key) };
+    const other = this.sources?.(note) ?? null;
+    if (!other) return { note, runs: this, stamp: (key) => this.stamp(key) };
+    return {
+      ...other,
+      note,
+      runs: this,
+      stamp: (key) => (this.owns(key) ? this.stamp(key) : other.stamp(key)),
+    };
   }
 
   /** True for the dependency keys this book answers. */

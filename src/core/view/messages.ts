@@ -106,6 +106,18 @@ export interface ExportRunsPngMessage {
 }
 
 /** Every view → host message. */
+/** Save the spectrum panel's chart (the reference `key` shown) as PNG. */
+export interface ExportSpectrumPngMessage {
+  readonly type: 'exportSpectrumPng';
+  readonly key: string;
+  readonly dataUrl: string;
+}
+/** Save the spectrum panel's points, baseline and integral (the reference `key` shown) as CSV. */
+export interface ExportSpectrumCsvMessage {
+  readonly type: 'exportSpectrumCsv';
+  readonly key: string;
+}
+
 export type ViewToHost =
   | ReadyMessage
   | PinMessage
@@ -115,7 +127,9 @@ export type ViewToHost =
   | CopyImageLinkMessage
   | OpenRunMessage
   | ExportRunsCsvMessage
-  | ExportRunsPngMessage;
+  | ExportRunsPngMessage
+  | ExportSpectrumPngMessage
+  | ExportSpectrumCsvMessage;
 
 /** What the webview keeps with `setState`, so a hidden or reloaded panel comes back as it was. */
 export interface ViewState {
@@ -191,6 +205,10 @@ export function isViewToHost(x: unknown): x is ViewToHost {
       return isOneOf(x.quantity, RUN_QUANTITIES);
     case 'exportRunsPng':
       return isPngDataUrl(x.dataUrl);
+    case 'exportSpectrumPng':
+      return isText(x.key, 200) && isPngDataUrl(x.dataUrl);
+    case 'exportSpectrumCsv':
+      return isText(x.key, 200);
     default:
       return false;
   }

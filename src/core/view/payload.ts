@@ -5,6 +5,7 @@
  * converts energies to the display unit with {@link DisplayUnit.kelvinPerUnit}.
  */
 import type { Status } from '../types';
+import type { SpectrumTrace } from './spectrumPanel';
 
 /** Points of an S(E), β(E) curve in columns, ordered by increasing energy. */
 export interface CurveColumns {
@@ -130,6 +131,8 @@ export interface CurvePayload extends PayloadSource {
   readonly notes: readonly string[];
   /** The measurement behind the point (a series fit), or null. */
   readonly plot: MeasurementPlot | null;
+  /** The spectra the block's references integrate (view/spectrumPanel.ts); absent when it has none. */
+  readonly spectra?: readonly SpectrumTrace[];
 }
 
 /** What the view shows instead of a chart: the block's first error, or why nothing can be drawn. */
@@ -141,6 +144,8 @@ export interface ProblemPayload extends PayloadSource {
   readonly message: string;
   /** A measurement to draw although there is no S(E) curve (emission lines, a bare series), or null. */
   readonly plot: MeasurementPlot | null;
+  /** The spectra the block's references integrate, as far as they were read; absent when none. */
+  readonly spectra?: readonly SpectrumTrace[];
 }
 
 /** One block's view data. */

@@ -25,6 +25,7 @@ import {
   isRecord,
   isText,
 } from './validate';
+import { isSpectrumTraces } from './spectrumPanel';
 
 const STATUSES = ['normal', 'saturated', 'inverted', 'non-thermal'] as const;
 const LIMITS = ['zero-positive', 'zero-negative'] as const;
@@ -127,7 +128,8 @@ export function isCurvePayload(x: unknown): x is CurvePayload {
     isThermal(x.thermal) &&
     isArrayOf(x.facts, isFact, 100) &&
     isArrayOf(x.notes, (n): n is string => isText(n), 100) &&
-    isPlot(x.plot)
+    isPlot(x.plot) &&
+    isSpectrumTraces(x.spectra)
   );
 }
 
@@ -135,7 +137,11 @@ export function isCurvePayload(x: unknown): x is CurvePayload {
 export function isProblemPayload(x: unknown): x is ProblemPayload {
   if (!isRecord(x) || x.kind !== 'problem' || !isSource(x)) return false;
   return (
-    (x.id === null || isText(x.id)) && (x.code === null || isText(x.code, 200)) && isText(x.message) && isPlot(x.plot)
+    (x.id === null || isText(x.id)) &&
+    (x.code === null || isText(x.code, 200)) &&
+    isText(x.message) &&
+    isPlot(x.plot) &&
+    isSpectrumTraces(x.spectra)
   );
 }
 

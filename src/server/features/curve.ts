@@ -2,7 +2,14 @@
  * The curve view's data: finds the block at a line and lets the core build
  * its payload (curves, measured point, markers, or its first error).
  */
-import { curveData, DEFAULT_CURVE_DATA_OPTIONS, type BlockReport, type ViewPayload } from '../../core';
+import {
+  curveData,
+  DEFAULT_CURVE_DATA_OPTIONS,
+  spectrumTraces,
+  type BlockReport,
+  type Spectrum,
+  type ViewPayload,
+} from '../../core';
 import type { Settings } from '../../shared/settings';
 import { blockAt, displayOptions, type NoteState } from '../state';
 
@@ -18,13 +25,23 @@ export function blockAtLine(state: NoteState, line: number): BlockReport | undef
   return blockAt(state, start) ?? blockAt(state, Math.max(start, end - 1));
 }
 
-/** The payload of the block at `line`, or null when the line is outside every block. */
-export function curvePayload(state: NoteState, line: number, settings: Settings): ViewPayload | null {
+/**
+ * The payload of the block at `line`, or null when the line is outside every block. `spectrumFor` gives the
+ * parsed spectrum behind a reference's dependency key, for the spectrum panel (decimated here, in the server).
+ */
+export function curvePayload(
+  state: NoteState,
+  line: number,
+  settings: Settings,
+  spectrumFor: (source: string) => Spectrum | null = () => null,
+): ViewPayload | null {
   const block = blockAtLine(state, line);
   if (!block) return null;
-  return curveData(
+  const payload = curveData(
     block,
     { uri: state.uri, version: state.version },
     { ...DEFAULT_CURVE_DATA_OPTIONS, display: displayOptions(settings) },
   );
+  if (!block.meta.spectra?.length) return payload;
+  return { ...payload, spectra: spectrumTraces(block.meta.spectra, spectrumFor, settings.significantDigits) };
 }

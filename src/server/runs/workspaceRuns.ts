@@ -11,7 +11,7 @@
  * character but the unreserved ones percent-encoded in each path segment),
  * which is also how the core spells a note a reference names.
  */
-import { Analyzer, isInside, LineIndex, RunBook, type RunResolver } from '../../core';
+import { Analyzer, isInside, LineIndex, RunBook, type Externals, type RunResolver } from '../../core';
 import type { ExternalPart } from '../externals';
 import { SERVER_LIMITS } from '../notes';
 
@@ -71,8 +71,13 @@ export class WorkspaceRuns implements ExternalPart {
     private readonly changed: IndexListener,
     private readonly files: NoteFiles | null,
     analyzer: Analyzer = new Analyzer({ limits: SERVER_LIMITS }),
+    sources: ((note: string) => Externals | null) | null = null,
   ) {
-    this.book = new RunBook({ analyzer, load: (note) => this.loadNow(note) });
+    this.book = new RunBook({
+      analyzer,
+      load: (note) => this.loadNow(note),
+      ...(sources ? { sources } : {}),
+    });
   }
 
   /** The resolver the analyses of every note use. */
