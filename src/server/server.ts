@@ -34,6 +34,7 @@ import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
 import { documentSymbols, flatSymbols } from './features/symbols';
 import { Notes } from './notes';
+import { ClosedReferrers } from './runs/closedReferrers';
 import { WorkspaceRuns, type NoteFiles } from './runs/workspaceRuns';
 import {
   runCompletion,
@@ -117,6 +118,8 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     spectrumHost,
   );
   externalParts.push(spectra);
+  // Closed notes that refer to a changed run get their reference diagnostics pushed (runs/closedReferrers.ts).
+  const closedReferrers = new ClosedReferrers(runs, (uri) => noteExternals(uri, externalParts));
 
   /** The note's analysis and settings, once its folder's settings are known; null for an unknown note. */
   const note = async (uri: string): Promise<{ state: NoteState; settings: Settings } | null> => {
@@ -158,6 +161,8 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
    * (pushed, or the client is asked to pull again); the others keep their analysis.
    */
   const republishStale = (): void => {
+    for (const p of closedReferrers.update())
+      background(connection, 'publishing the diagnostics of a closed note', connection.sendDiagnostics(p));
     const stale = documents.all().filter((d) => notes.stale(d.uri));
     if (stale.length === 0) return;
     if (!caps.pull) for (const d of stale) push(d.uri);
@@ -276,10 +281,23 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     runs.edited(e.document.uri, e.document.getText());
     if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
+  documents.onDidOpen((e) => {
+    // Its own diagnostics take over from the reference diagnostics sent while it was closed.
+    if (closedReferrers.opened(e.document.uri))
+      background(
+        connection,
+        'taking back the diagnostics of a closed note',
+        connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] }),
+      );
+  });
   documents.onDidClose((e) => {
     pushes.cancel(e.document.uri);
     notes.forget(e.document.uri);
-    background(connection, 'reading a closed note again', runs.closed(e.document.uri));
+    background(
+      connection,
+      'reading a closed note again',
+      runs.closed(e.document.uri).then(() => pushes.schedule(RUNS_CHANGED, () => republishStale())),
+    );
     if (!caps.pull)
       background(
         connection,

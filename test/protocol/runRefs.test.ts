@@ -242,6 +242,30 @@ describe('runs by reference over LSP', function () {
     assert.equal(s.pushed.get(uri('cycle.md')), before, 'the note that uses no reference was not published again');
   });
 
+  it('pushes the reference diagnostics of closed referring notes when their reference breaks, and takes them back', async () => {
+    await open('refs/mon.md', MON);
+    await s.waitForPush(uri('refs/mon.md'));
+    // Closed notes whose references hold get nothing.
+    assert.equal(s.pushed.get(uri('runs/r2.md')), undefined);
+    // The reference loses its thermal signal: every note that uses it, none of them open, says so.
+    await change('refs/mon.md', MON.replace('  thermal: 1.08e3\n', ''), 2);
+    for (const rel of ['runs/r1.md', 'runs/r2.md', 'other/r3.md'])
+      await s.waitForPush(uri(rel), (d) => codes(d).includes('reference-invalid'));
+    // Only the reference diagnostics of a closed note are sent, on the reference's own line.
+    const r2 = s.pushed.get(uri('runs/r2.md'))!.diagnostics as (Diag & { range: Range })[];
+    assert.ok(r2.every((d) => /^reference-|^id-duplicate$/.test(String(d.code))));
+    assert.equal(slice(R2, r2[0]!.range).includes('ref-13C Monday'), true);
+    // Mended: the closed notes' diagnostics are taken back.
+    await change('refs/mon.md', MON, 3);
+    await s.waitForPush(uri('runs/r2.md'), (d) => codes(d).length === 0);
+    // Opened, a note's own diagnostics take over (here: none), and nothing stays from while it was closed.
+    await change('refs/mon.md', MON.replace('  thermal: 1.08e3\n', ''), 4);
+    await s.waitForPush(uri('other/r3.md'), (d) => codes(d).includes('reference-invalid'));
+    await change('refs/mon.md', MON, 5);
+    await open('other/r3.md', R3);
+    await s.waitForPush(uri('other/r3.md'), (d) => codes(d).length === 0);
+  });
+
   it('reports a referenced note deleted on disk, and follows it again when it comes back', async () => {
     await open('runs/r1.md', R1);
     await s.waitForPush(uri('runs/r1.md'));

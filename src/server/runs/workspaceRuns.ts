@@ -93,6 +93,18 @@ export class WorkspaceRuns implements ExternalPart {
     return this.book.stamp(key);
   }
 
+  /** The notes of the index that are not open in the editor and refer to another run. */
+  closedReferrers(): string[] {
+    return this.book
+      .noteNames()
+      .filter((n) => !this.open.has(n) && this.book.blocksOf(n).some((b) => b.refs.length > 0));
+  }
+
+  /** Whether the editor has the note open. */
+  isOpen(uri: string): boolean {
+    return this.open.has(uri);
+  }
+
   /** The text of a note of the book, or null. */
   textOf(note: string): string | null {
     return this.texts.get(note)?.text ?? null;
