@@ -16,7 +16,7 @@ import { displayOptions } from './display';
 import { followCursor } from './curveFollow';
 import { registerCurveSerializer } from './curveSerializer';
 import { noteReader } from './loadNoteReader';
-import { registerRunLog } from './runLogView';
+import { registerRunLog, type PreviewSources } from './runLogView';
 import { registerCellRendererMessaging } from './cellRendererMessaging';
 import { serveSpectrumFiles } from './spectrumFiles';
 
@@ -35,11 +35,14 @@ let client: BaseLanguageClient | undefined;
 
 /** Activates on the first Markdown document (or one of the commands or views). */
 export async function activateWith(context: vscode.ExtensionContext, makeClient: ClientFactory): Promise<BoltzmarkApi> {
+  // The run log's sources (other runs, spectrum files) for the preview's references, once it is registered.
+  let previewSources: PreviewSources | null = null;
   const api: BoltzmarkApi = {
     extendMarkdownIt: (md) =>
       noteReader().levelsPreview(md, {
         infoStrings: (env) => previewInfoStrings(renderedNote(env)),
         display: (env) => displayOptions(renderedNote(env)),
+        externals: (env) => previewSources?.externals(renderedNote(env)) ?? null,
       }),
   };
   const log = vscode.window.createOutputChannel('Boltzmark', { log: true });
@@ -53,7 +56,7 @@ export async function activateWith(context: vscode.ExtensionContext, makeClient:
       registerCellRendererMessaging(),
       ...serveSpectrumFiles(client),
     );
-    registerRunLog(context, log, { extensionUri: context.extensionUri, client: () => client, log });
+    previewSources = registerRunLog(context, log, { extensionUri: context.extensionUri, client: () => client, log });
     await client.start();
     log.info('Boltzmark language server started');
   } catch (err) {

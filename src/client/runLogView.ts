@@ -6,7 +6,7 @@
  * note (debounced), and unsaved edits of open notes are followed the same way.
  */
 import * as vscode from 'vscode';
-import type { RunEntry, RunGroup, RunLog } from '../core';
+import type { Externals, RunEntry, RunGroup, RunLog } from '../core';
 import { measuredTemperatureText, STATUSES, temperatureWithInterval, type Status } from '../core/packageFree';
 import { displayOptions } from './display';
 import { background } from './background';
@@ -101,12 +101,24 @@ const STATUS_ICONS: Record<Status, string> = {
   invalid: 'error',
 };
 
+/** What the run log lends the Markdown preview: the sources a note's references read from. */
+export interface PreviewSources {
+  /**
+   * The runs of the workspace's notes and the note's spectrum files, for the preview of `uri`; the first call
+   * starts the reading of the workspace, and the preview is refreshed when the log has more to give it.
+   */
+  externals(uri: vscode.Uri | undefined): Externals | null;
+}
+
+/** The debouncer's key of a refresh of the Markdown preview. */
+const PREVIEW_REFRESH = '\u0000preview';
+
 /** Registers the view, its commands and its watchers. */
 export function registerRunLog(
   context: vscode.ExtensionContext,
   log: vscode.LogOutputChannel,
   curveHost: CurveViewHost,
-): void {
+): PreviewSources {
   const tree = new RunLogTree();
   const view = vscode.window.createTreeView('boltzmark.runLog', { treeDataProvider: tree, showCollapseAll: true });
   const rereads = new Debouncer(DEBOUNCE_MS);
@@ -129,7 +141,11 @@ export function registerRunLog(
       // Only a note that names a spectrum needs the files (most do not; their reading stays as it was).
       const externals = text.includes('spectrum') ? spectra.externals(uri.toString()) : null;
       if (!externals) spectra.forget(uri.toString());
-      if (tree.log.update(uri.toString(), name(uri), text, externals)) tree.refresh();
+      if (tree.log.update(uri.toString(), name(uri), text, externals)) {
+        tree.refresh();
+        // A preview of a note that reads other runs or files may now show more.
+        if (previewAsked && (text.includes('run:') || externals)) schedulePreview();
+      }
     } catch (err) {
       if (tree.log.remove(uri.toString())) tree.refresh();
       log.debug(`run log: cannot read ${uri.toString()}: ${(err as Error).message}`);
@@ -138,6 +154,12 @@ export function registerRunLog(
   const schedule = (uri: vscode.Uri): void =>
     rereads.schedule(uri.toString(), () => background(log, `run log: reading ${uri.toString()}`, readOne(uri)));
   const spectra = new RunLogSpectra(schedule, log);
+  // The preview is refreshed (once per burst of readings) only after it asked the log for a note's sources.
+  let previewAsked = false;
+  const schedulePreview = (): void =>
+    rereads.schedule(PREVIEW_REFRESH, () =>
+      background(log, 'refreshing the Markdown preview', vscode.commands.executeCommand('markdown.preview.refresh')),
+    );
   context.subscriptions.push(spectra);
   const start = async (): Promise<void> => {
     if (started) return;
@@ -235,6 +257,18 @@ export function registerRunLog(
       );
     }),
   );
+  return {
+    externals(uri) {
+      if (!uri) return null;
+      previewAsked = true;
+      if (!started) {
+        startNow();
+        // Read now, so that a note with references finds them once the rest is read (a refresh follows).
+        schedule(uri);
+      }
+      return tree.log.externalsFor(uri.toString());
+    },
+  };
 }
 
 /** An open notebook's cells as nbformat 4 JSON (all the run log reads of it: the Markdown cells, by index). */

@@ -4,7 +4,17 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { shot, startSession, type Session } from './session';
-import { clean, editor, goToLine, line, openFromExplorer, runCommand, waitNoProblem, waitProblems } from './workbench';
+import {
+  clean,
+  editor,
+  frameWith,
+  goToLine,
+  line,
+  openFromExplorer,
+  runCommand,
+  waitNoProblem,
+  waitProblems,
+} from './workbench';
 
 // Runs by reference in a real VS Code: three notes of a folder written into the session's workspace (invented
 // numbers; the physics is tested in test/core/runs/physics.test.ts). The reference note is never opened
@@ -133,6 +143,20 @@ function runRefSteps(version: host.Version): void {
       for (let i = 0; i < 'lots'.length; i++) await page.keyboard.press('Backspace');
       await page.keyboard.type('1.08e3');
       await waitNoProblem(page, 'reference-invalid');
+    });
+
+    it('shows the referenced values in the Markdown preview of a referring note', async () => {
+      await openFromExplorer(page, 'run-2.md', '# e2e run 2');
+      await runCommand(page, 'Markdown: Open Preview to the Side');
+      // The preview follows the reference through the run log's notes, and is refreshed (a new frame) once they
+      // are read: the frame sought is the one whose table names the referenced run.
+      const preview = await frameWith(page, '.boltzmark-results', 'thermal reference');
+      const table = preview.locator('.boltzmark-results', { hasText: /thermal reference/i });
+      const text = clean(await table.innerText());
+      assert.match(text, /e2e ref Mon 12 Apr/);
+      assert.match(text, /normal/);
+      assert.doesNotMatch(text, /reference-unavailable|invalid/);
+      await shot(page, 'refs-markdown-preview');
     });
   });
 }

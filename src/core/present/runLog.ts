@@ -166,6 +166,15 @@ export class RunLog {
     return true;
   }
 
+  /**
+   * A note's sources for values by reference as the log sees them: the runs of every note it holds and the
+   * note's spectrum files as its host last gave them (for a host's other readers of the note, such as the
+   * Markdown preview).
+   */
+  externalsFor(uri: string): Externals {
+    return this.book.externalsFor(uri);
+  }
+
   /** Forgets a deleted note; returns true when it or a note using its runs changed. */
   remove(uri: string): boolean {
     const before = this.usersOfNote(uri);
