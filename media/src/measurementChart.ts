@@ -3,13 +3,12 @@
  * emission-lines block (points, flagged lines, the fitted line) or a time
  * series with its fitted model, and the residuals on a right-hand axis.
  */
-import { Chart, type ChartDataset } from 'chart.js';
+import { type Chart, type ChartDataset } from 'chart.js';
+import { drawScatter, markAxes, type Scatter } from './scatter';
 import type { MeasurementPlot, PinnedPlot } from '../../src/core/packageFree';
 import { largestMagnitude, paddedRange } from './axisRange';
 import { shortNumber } from './numbers';
 import type { Palette } from './theme';
-
-type Scatter = Chart<'scatter'>;
 
 const range = paddedRange;
 
@@ -155,21 +154,8 @@ export class MeasurementChart {
         background: { color: p.background },
       },
     };
-    if (!this.chart)
-      this.chart = new Chart(this.canvas, {
-        type: 'scatter',
-        data: { datasets },
-        options: options as never,
-      }) as unknown as Scatter;
-    else {
-      this.chart.data.datasets = datasets;
-      this.chart.options = options as never;
-      this.chart.update('none');
-    }
-    const a = this.chart.chartArea;
-    this.canvas.dataset.area = [a.left, a.top, a.right, a.bottom].join(',');
-    this.canvas.dataset.x = [x.min, x.max].join(',');
-    this.canvas.dataset.y = [y.min, y.max].join(',');
+    this.chart = drawScatter(this.canvas, this.chart, datasets, options);
+    markAxes(this.canvas, this.chart, x, y);
     this.canvas.dataset.kind = plot.kind;
     this.canvas.dataset.pins = pinned.map((r) => r.id).join('\n');
     this.canvas.dataset.ticks = tickValues(this.chart);

@@ -6,7 +6,8 @@
  * host to open the run. Everything drawn comes from the host's payload;
  * text from a note reaches the canvas only through chart.js's text drawing.
  */
-import { Chart, type ChartDataset } from 'chart.js';
+import type { ChartDataset } from 'chart.js';
+import { drawScatter, markAxes, type Scatter } from './scatter';
 import {
   dayText,
   type RunChartPayload,
@@ -18,8 +19,6 @@ import { shortNumber } from './numbers';
 import type { ErrorBar } from './model';
 import { niceStep } from './ticks';
 import type { Palette } from './theme';
-
-type Scatter = Chart<'scatter'>;
 
 /** The statuses drawn, in legend order, with a point shape each (so colour is never the only cue). */
 const STATUS_STYLE: readonly (readonly [Status, 'circle' | 'rectRot' | 'triangle' | 'rect'])[] = [
@@ -189,21 +188,8 @@ export class RunChart {
         background: { color: p.background },
       },
     };
-    if (!this.chart)
-      this.chart = new Chart(this.canvas, {
-        type: 'scatter',
-        data: { datasets },
-        options: options as never,
-      }) as unknown as Scatter;
-    else {
-      this.chart.data.datasets = datasets;
-      this.chart.options = options as never;
-      this.chart.update('none');
-    }
-    const a = this.chart.chartArea;
-    this.canvas.dataset.area = [a.left, a.top, a.right, a.bottom].join(',');
-    this.canvas.dataset.x = [x.min, x.max].join(',');
-    this.canvas.dataset.y = [y.min, y.max].join(',');
+    this.chart = drawScatter(this.canvas, this.chart, datasets, options);
+    markAxes(this.canvas, this.chart, x, y);
     this.canvas.dataset.points = String(points.length);
     this.canvas.dataset.quantity = quantity;
     this.canvas.setAttribute('aria-label', `${axis.title} of ${points.length} runs of ${runs.title}`);

@@ -13,12 +13,11 @@
  * `data-reversed`, `data-region`, `data-noise` and `data-key`.
  */
 import { Chart, type ChartDataset, type ChartType, type Plugin } from 'chart.js';
+import { drawScatter, markAxes, type Scatter } from './scatter';
 import { baselineAt, type SpectrumTrace } from '../../src/core/packageFree';
 import { paddedRange } from './axisRange';
 import { shortNumber } from './numbers';
 import type { Palette } from './theme';
-
-type Scatter = Chart<'scatter'>;
 
 /** What the shading plugin reads from `options.plugins.spectrumShade`. */
 interface ShadeOptions {
@@ -201,22 +200,9 @@ export class SpectrumChart {
         background: { color: p.background },
       },
     };
-    if (!this.chart)
-      this.chart = new Chart(this.canvas, {
-        type: 'scatter',
-        data: { datasets },
-        options: options as never,
-      }) as unknown as Scatter;
-    else {
-      this.chart.data.datasets = datasets;
-      this.chart.options = options as never;
-      this.chart.update('none');
-    }
-    const a = this.chart.chartArea;
+    this.chart = drawScatter(this.canvas, this.chart, datasets, options);
+    markAxes(this.canvas, this.chart, xr, yr);
     const d = this.canvas.dataset;
-    d.area = [a.left, a.top, a.right, a.bottom].join(',');
-    d.x = [xr.min, xr.max].join(',');
-    d.y = [yr.min, yr.max].join(',');
     d.reversed = String(t.reversed);
     d.region = t.region.join(',');
     d.noise = t.noise ? t.noise.join(',') : '';
