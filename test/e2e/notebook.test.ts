@@ -88,11 +88,21 @@ function notebookSteps(version: host.Version): void {
       await cell.locator('.codelens-decoration a', { hasText: 'Show Curve View' }).first().click();
       const view = await frameWith(page, 'body[data-drawn] #block-title', 'Xe cell run 2');
       // The next cell with a block: opened for editing, the cursor put on its id line.
-      const frame = await frameWith(page, '.boltzmark-results', 'probe pair T2');
-      // The panel opening beside the notebook re-lays the cells out: a double-click anywhere in the rendered cell
-      // opens it for editing, so its own heading is clicked where it stands, past the layout checks.
-      await frame.getByText('Tuesday: the probe transition').dblclick({ force: true });
       const other = page.locator('.notebook-editor .monaco-editor', { hasText: 'id: probe pair T2' });
+      // The panel opening beside the notebook re-lays the cells out: a double-click anywhere in the rendered cell
+      // opens it for editing, so its own heading is clicked where it stands, past the layout checks. A click that
+      // lands while the cells are still moving opens nothing (and the output frame may be made anew): the
+      // frame is found again and the double-click repeated until the cell's editor is there.
+      for (let attempt = 1; ; attempt++) {
+        const frame = await frameWith(page, '.boltzmark-results', 'probe pair T2');
+        await frame.getByText('Tuesday: the probe transition').dblclick({ force: true });
+        const opened = await other
+          .waitFor({ timeout: 10000 })
+          .then(() => true)
+          .catch(() => false);
+        if (opened) break;
+        assert.ok(attempt < 4, 'the rendered cell opens for editing on a double-click');
+      }
       await other.locator('.view-line', { hasText: pattern('id: probe pair T2') }).click();
       await view.locator('#block-title', { hasText: 'probe pair T2' }).waitFor();
     });
