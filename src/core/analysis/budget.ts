@@ -21,10 +21,11 @@ import type { Measured } from '../types';
 
 /**
  * Which input a budget line stands for: the measurement itself, the level
- * spacing (`field`, `frequency`, `gap`, or two levels' energies), `lattice`, or
- * the energies of three or more levels.
+ * spacing (`field`, `frequency`, `gap`, or two levels' energies), `lattice`,
+ * the energies of three or more levels, or the level spacing (its `field` or
+ * `frequency`) of a thermal reference taken from another run.
  */
-export type BudgetSource = 'measurement' | 'spacing' | 'lattice' | 'energies';
+export type BudgetSource = 'measurement' | 'spacing' | 'lattice' | 'energies' | 'reference-spacing';
 
 /** One input's contributions |c_i|·u(x_i) to each result; null where the result does not exist. */
 export interface BudgetLine {
@@ -74,6 +75,20 @@ function withSpacingScaled(input: BlockInput, factor: number): BlockInput {
   return { ...input, levels, spin };
 }
 
+/** The input with the spacing of its thermal reference run (`thermal: { run: … }`) scaled by `factor`. */
+function withReferenceSpacingScaled(input: BlockInput, factor: number): BlockInput {
+  const signal = input.signal;
+  const ref = signal?.thermalRun;
+  if (!signal || !ref) return input;
+  const spin = {
+    ...ref.spin,
+    spacing: ref.spin.spacing * factor,
+    frequency: ref.spin.frequency * factor,
+    field: ref.spin.field === null ? null : ref.spin.field * factor,
+  };
+  return { ...input, signal: { ...signal, thermalRun: { ...ref, spin } } };
+}
+
 /** The level spacing of a two-level or spin block, K, with its stated standard uncertainty; null when none is stated. */
 function spacingOf(input: BlockInput): { value: number; u: number } | null {
   if (input.spin) {
@@ -114,6 +129,13 @@ export function scalarLines(input: BlockInput, evaluate: (input: BlockInput) => 
     const plus = evaluate(withSpacingScaled(exact, 1 + STEP));
     const minus = evaluate(withSpacingScaled(exact, 1 - STEP));
     lines.push(lineFrom('spacing', plus, minus, spacing.value, spacing.u));
+  }
+  // A thermal reference by run: P_th is the reference's, at its own field, whose stated uncertainty enters too.
+  const ref = input.signal?.thermalRun?.spin;
+  if (ref && ref.uSpacing !== null && ref.uSpacing > 0) {
+    const plus = evaluate(withReferenceSpacingScaled(exact, 1 + STEP));
+    const minus = evaluate(withReferenceSpacingScaled(exact, 1 - STEP));
+    lines.push(lineFrom('reference-spacing', plus, minus, ref.spacing, ref.uSpacing));
   }
   const lattice = input.lattice;
   if (lattice && lattice.uncertainty !== null && lattice.uncertainty > 0 && lattice.value > 0) {

@@ -26,6 +26,8 @@ function lineName(state: NoteState, b: BlockReport, l: BudgetLine): string {
     return at ? `\`${key}\` ${escapeMarkdown(writtenText(state, b.toNote(at.value)))}` : `\`${key}\``;
   };
   if (l.source === 'lattice') return written('lattice');
+  if (l.source === 'reference-spacing')
+    return `the field of the thermal reference ${escapeMarkdown(input.signal?.thermalRun?.id ?? '')}`;
   if (l.source === 'energies' || (l.source === 'spacing' && input.form === 'levels')) return 'the level energies';
   if (l.source === 'spacing')
     return written(input.spin ? (b.meta.keys.has('frequency') ? 'frequency' : 'field') : 'gap');

@@ -119,6 +119,32 @@ describe('runs by reference: physics', () => {
     });
   });
 
+  describe("the reference's field uncertainty", () => {
+    // GUM (JCGM 100:2008) eq. (10): P = P_th(B_ref, T)·(S_hp/S_th)·factor, and at 298 K P_th is linear in B
+    // to better than 1e-9 (tanh x ≈ x for x ≈ 4e-6; high-temperature limit, common practice, no source), so
+    // B_ref's share of u(P) is P·u(B)/B and it adds in quadrature to the signals' share.
+    it('enters u(P) of a block that takes its thermal reference by run, as a budget line of its own', () => {
+      const ref = (field: string): string =>
+        fence(`id: ref field\nsystem: 13C\nfield: ${field}\nlattice: 298 K\nsignal:\n  thermal: 1.08e3 ± 12`);
+      const run = fence(
+        'id: run field\nsystem: 13C\nfield: 9.4 T\nsignal:\n  hyperpolarized: 2.985e4 ± 30\n  thermal: { run: ref field }',
+      );
+      const exact = blocksOf({ 'a.md': ref('9.4 T') + run }, 'a.md')[1]!;
+      const stated = blocksOf({ 'a.md': ref('9.4 ± 0.047 T') + run }, 'a.md')[1]!;
+      assert.deepEqual(
+        stated.problems.map((p) => p.code),
+        [],
+      );
+      const p = stated.results!.polarization!;
+      close(p.value, exact.results!.polarization!.value, 1e-12, 'the same P');
+      const line = stated.results!.budget.find((l) => l.source === 'reference-spacing');
+      assert.ok(line, 'a budget line for the reference field');
+      close(line.polarization!, p.value * (0.047 / 9.4), 1e-6, "u(P) share of the reference's field");
+      const uExact = exact.results!.polarization!.uncertainty!;
+      close(p.uncertainty!, Math.hypot(uExact, p.value * (0.047 / 9.4)), 1e-6, 'added in quadrature');
+    });
+  });
+
   describe('a thermal reference by run gives exactly what the same numbers typed in place give', () => {
     // Invented numbers; the equality is the check.
     const reference = fence(`id: ref-13C Monday
