@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { shot, startSession, type Session } from './session';
+import { hpBlock, refBlock } from '../support/runNotes';
 import {
   clean,
   editor,
@@ -19,27 +20,8 @@ import {
 // Runs by reference in a real VS Code: three notes of a folder written into the session's workspace (invented
 // numbers; the physics is tested in test/core/runs/physics.test.ts). The reference note is never opened
 // before F12 leads to it.
-const fence = (body: string): string => '```levels\n' + body + '\n```\n';
-const REF_NOTE =
-  '# Thermal reference\n\n' +
-  fence(`id: e2e ref Monday
-date: 2026-04-12
-system: 13C
-field: 9.4 T
-lattice: 298 K
-signal:
-  thermal: 1.08e3
-  scans: { thermal: 256 }
-  noise: { thermal: 12 }`);
-const runNote = (id: string, ref: string): string =>
-  `# ${id}\n\n` +
-  fence(`id: ${id}
-system: 13C
-field: 9.4 T
-signal:
-  hyperpolarized: 2.985e4
-  thermal: { run: ${ref} }
-  flip: { hyperpolarized: 5 deg }`);
+const REF_NOTE = '# Thermal reference\n\n' + refBlock('e2e ref Monday');
+const runNote = (id: string, ref: string): string => `# ${id}\n\n` + hpBlock(id, ref);
 
 /** Puts the cursor into a word of a note's line (the first starting with `lineStart` that holds it). */
 async function cursorOn(page: Page, noteText: string, lineStart: string, word: string): Promise<void> {

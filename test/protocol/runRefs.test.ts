@@ -4,29 +4,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startLsp, type LspSession } from './lspClient';
 import { fileUri } from '../../src/server/runs/workspaceRuns';
+import { fence, hpBlock, refBlock } from '../support/runNotes';
 
 // Runs by reference over LSP: a workspace folder of notes on disk, some of them open, and the server's
 // index of run ids. Invented notes: the numbers only exercise the references (the physics is tested in
 // test/core/runs/physics.test.ts).
 
-const fence = (body: string): string => '```levels\n' + body + '\n```\n';
-const REF = fence(`id: ref-13C Monday
-date: 2026-04-12
-system: 13C
-field: 9.4 T
-lattice: 298 K
-signal:
-  thermal: 1.08e3
-  scans: { thermal: 256 }
-  noise: { thermal: 12 }`);
-const hp = (id: string, ref: string): string =>
-  fence(`id: ${id}
-system: 13C
-field: 9.4 T
-signal:
-  hyperpolarized: 2.985e4
-  thermal: { run: ${ref} }
-  flip: { hyperpolarized: 5 deg }`);
+const REF = refBlock();
+const hp = (id: string, ref: string): string => hpBlock(id, ref);
 
 type Pos = { line: number; character: number };
 type Range = { start: Pos; end: Pos };

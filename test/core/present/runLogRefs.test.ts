@@ -1,25 +1,10 @@
 import { strict as assert } from 'node:assert';
 import { RunLog } from '../../../src/core';
+import { fence, hpBlock, refBlock } from '../../support/runNotes';
 
 // Invented notes: the numbers only exercise the run log's following of references.
-const fence = (body: string): string => '```levels\n' + body + '\n```\n';
-const REF = fence(`id: ref-13C Monday
-date: 2026-04-12
-system: 13C
-field: 9.4 T
-lattice: 298 K
-signal:
-  thermal: 1.08e3
-  scans: { thermal: 256 }
-  noise: { thermal: 12 }`);
-const hp = (id: string, ref: string): string =>
-  fence(`id: ${id}
-system: 13C
-field: 9.4 T
-signal:
-  hyperpolarized: 2.985e4
-  thermal: { run: ${ref} }
-  flip: { hyperpolarized: 5 deg }`);
+const REF = refBlock();
+const hp = (id: string, ref: string): string => hpBlock(id, ref);
 
 const byId = (log: RunLog, id: string) => log.entries().find((e) => e.id === id)!;
 

@@ -1,27 +1,12 @@
 import { strict as assert } from 'node:assert';
 import { Analyzer, RunBook, type BlockReport } from '../../../src/core';
+import { fence, hpBlock, refBlock } from '../../support/runNotes';
 
 // Invented notes: the numbers only exercise the reading of references (physics checks are in physics.test.ts).
-const fence = (body: string): string => '```levels\n' + body + '\n```\n';
 
-const REF = fence(`id: ref-13C Monday
-date: 2026-04-12
-system: 13C
-field: 9.4 T
-lattice: 298 K
-signal:
-  thermal: 1.08e3
-  scans: { thermal: 256 }
-  noise: { thermal: 12 }`);
+const REF = refBlock();
 
-const hp = (id: string, ref: string, extra = ''): string =>
-  fence(`id: ${id}
-system: 13C
-field: 9.4 T
-signal:
-  hyperpolarized: 2.985e4
-  thermal: { run: ${ref} }
-  flip: { hyperpolarized: 5 deg }${extra}`);
+const hp = (id: string, ref: string): string => hpBlock(id, ref);
 
 /** Sets the notes, then analyses one of them as a host does. */
 function analyse(book: RunBook, note: string, analyzer = new Analyzer()): readonly BlockReport[] {
