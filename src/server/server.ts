@@ -77,6 +77,9 @@ export interface ServerHost {
   readonly spectra?: SpectrumHost;
 }
 
+/** Longest the outline waits for the spectrum files its note's blocks are reading. */
+const OUTLINE_WAIT_MS = 3000;
+
 /** Pause after the last keystroke before pushed diagnostics are sent. */
 const PUSH_DELAY_MS = 200;
 
@@ -371,11 +374,18 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
       )
     );
   });
-  connection.onDocumentSymbol((p, token) =>
-    serve(p.textDocument.uri, token, [], (s) =>
-      caps.hierarchicalSymbols ? documentSymbols(s) : flatSymbols(s.uri, documentSymbols(s)),
-    ),
-  );
+  connection.onDocumentSymbol(async (p, token) => {
+    const symbols = () =>
+      serve(p.textDocument.uri, token, [], (s) =>
+        caps.hierarchicalSymbols ? documentSymbols(s) : flatSymbols(s.uri, documentSymbols(s)),
+      );
+    // The outline is asked for once per edit and has no refresh request: a block whose spectrum file is still
+    // being read would stay "invalid" there after the file is in. So it waits (a little) for the files the
+    // note's analysis asked for, then answers from the analysis that has them.
+    await symbols();
+    await Promise.race([spectra.settled(), new Promise((resolve) => setTimeout(resolve, OUTLINE_WAIT_MS))]);
+    return symbols();
+  });
   connection.onFoldingRanges((p, token) => serve(p.textDocument.uri, token, [], foldingRanges));
   connection.onCodeLens((p, token) => serve(p.textDocument.uri, token, [], codeLenses));
   connection.onRequest(ResultsMarkdownRequest, (p, token) =>

@@ -44,7 +44,11 @@ describe('protocol: spectrum files', function () {
       workspaceFolders: [{ uri: pathToFileURL(dir).href, name: 'lab' }],
       capabilities: {
         workspace: { didChangeWatchedFiles: { dynamicRegistration: true } },
-        textDocument: { hover: { contentFormat: ['markdown'] }, publishDiagnostics: { versionSupport: true } },
+        textDocument: {
+          hover: { contentFormat: ['markdown'] },
+          publishDiagnostics: { versionSupport: true },
+          documentSymbol: { hierarchicalDocumentSymbolSupport: true },
+        },
       },
     });
     await s.conn.sendNotification('textDocument/didOpen', {
@@ -66,6 +70,17 @@ describe('protocol: spectrum files', function () {
   };
   const codes = (): (string | number | undefined)[] =>
     ((s.pushed.get(note)?.diagnostics ?? []) as Diags).map((d) => d.code);
+
+  it('answers the outline from the analysis with the files in, even when asked while they are being read', async () => {
+    // The first request after opening: the files are not read yet. The outline has no refresh request, so
+    // an answer from the pending analysis would stay "invalid" in the editor.
+    const symbols = (await s.conn.sendRequest('textDocument/documentSymbol', { textDocument: { uri: note } })) as {
+      detail?: string;
+    }[];
+    assert.equal(symbols.length, 1);
+    assert.doesNotMatch(symbols[0]!.detail ?? '', /invalid/);
+    assert.match(symbols[0]!.detail ?? '', /T = /);
+  });
 
   it('asks the client to watch spectrum files', async () => {
     await s.waitForPush(note);
