@@ -32,7 +32,11 @@ export function levelsPreview(md: MarkdownIt, options: PreviewOptions): Markdown
     if (language !== 'levels' && !options.infoStrings(env).includes(language)) return html;
     try {
       return (
-        html + resultsHtml(analyzer.analyseBody(token.content, options.externals?.(env) ?? null), options.display(env))
+        html +
+        resultsHtml(
+          analyzer.analyseBody(token.content, refersOut(token.content) ? (options.externals?.(env) ?? null) : null),
+          options.display(env),
+        )
       );
     } catch {
       // The preview must render even if analysis fails; the editor shows the problem.
@@ -40,4 +44,9 @@ export function levelsPreview(md: MarkdownIt, options: PreviewOptions): Markdown
     }
   };
   return md;
+}
+
+/** Whether a block body may take values from outside (another run, a spectrum file): only those ask for sources. */
+function refersOut(body: string): boolean {
+  return body.includes('run:') || body.includes('spectrum');
 }

@@ -143,8 +143,9 @@ export function registerRunLog(
       if (!externals) spectra.forget(uri.toString());
       if (tree.log.update(uri.toString(), name(uri), text, externals)) {
         tree.refresh();
-        // A preview of a note that reads other runs or files may now show more.
-        if (previewAsked && (text.includes('run:') || externals)) schedulePreview();
+        // A preview of a note that reads other runs or files may now show more: the note itself, or a note
+        // it may refer to, was read.
+        if (previewed.size > 0 && (previewed.has(uri.toString()) || text.includes('id:'))) schedulePreview();
       }
     } catch (err) {
       if (tree.log.remove(uri.toString())) tree.refresh();
@@ -154,8 +155,9 @@ export function registerRunLog(
   const schedule = (uri: vscode.Uri): void =>
     rereads.schedule(uri.toString(), () => background(log, `run log: reading ${uri.toString()}`, readOne(uri)));
   const spectra = new RunLogSpectra(schedule, log);
-  // The preview is refreshed (once per burst of readings) only after it asked the log for a note's sources.
-  let previewAsked = false;
+  // The notes whose preview asked the log for sources (only blocks that refer out ask): the preview is
+  // refreshed, once per burst of readings, only while there are such notes.
+  const previewed = new Set<string>();
   const schedulePreview = (): void =>
     rereads.schedule(PREVIEW_REFRESH, () =>
       background(log, 'refreshing the Markdown preview', vscode.commands.executeCommand('markdown.preview.refresh')),
@@ -260,7 +262,7 @@ export function registerRunLog(
   return {
     externals(uri) {
       if (!uri) return null;
-      previewAsked = true;
+      previewed.add(uri.toString());
       if (!started) {
         startNow();
         // Read now, so that a note with references finds them once the rest is read (a refresh follows).
