@@ -3,6 +3,7 @@ import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { main, type Io } from '../../src/cli/main';
+import { dayRefBlock, extrapolatedRun, fence } from '../support/runNotes';
 
 // Runs by reference on the command line: references resolve across every note read; a referenced note
 // that was not named is read inside the folders given (or the folder of a file given), never outside.
@@ -29,24 +30,8 @@ const json = (args: string[], cwd: string): { code: number; entries: Entry[] } =
   return { code: r.code, entries: JSON.parse(r.out) as Entry[] };
 };
 
-const fence = (body: string): string => '```levels\n' + body + '\n```\n';
-const REF = fence(`id: ref-13C Monday
-date: 2026-04-12
-system: 13C
-field: 9.4 T
-lattice: 298.15 K
-signal:
-  thermal: 1.08e3
-  scans: { thermal: 16 }`);
-const RUN = (ref: string): string =>
-  fence(`id: run 1
-system: 13C
-field: 9.4 T
-signal:
-  hyperpolarized: 2.985e4
-  thermal: { run: ${ref} }
-  flip: { hyperpolarized: 5 deg }
-extrapolate: { from: 42 s, to: 0 s, decay: 47.9 ± 1.2 s }`);
+const REF = dayRefBlock();
+const RUN = (ref: string): string => extrapolatedRun('run 1', ref);
 
 describe('boltzmark: runs by reference', function () {
   this.timeout(60000);

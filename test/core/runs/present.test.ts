@@ -10,27 +10,11 @@ import {
   DEFAULT_DISPLAY,
   type BlockReport,
 } from '../../../src/core';
+import { dayRefBlock, extrapolatedRun } from '../../support/runNotes';
 
 // How referenced values are shown. Invented numbers: the checks are about the wording and the escaping.
-const fence = (body: string): string => '```levels\n' + body + '\n```\n';
-const REF = (id = 'ref-13C Monday'): string =>
-  fence(`id: ${id}
-date: 2026-04-12
-system: 13C
-field: 9.4 T
-lattice: 298.15 K
-signal:
-  thermal: 1.08e3
-  scans: { thermal: 16 }`);
-const RUN = (ref: string): string =>
-  fence(`id: run 7
-system: 13C
-field: 9.4 T
-signal:
-  hyperpolarized: 2.985e4
-  thermal: { run: ${ref} }
-  flip: { hyperpolarized: 5 deg }
-extrapolate: { from: 42 s, to: 0 s, decay: 47.9 ± 1.2 s }`);
+const REF = (id = 'ref-13C Monday'): string => dayRefBlock(id);
+const RUN = (ref: string): string => extrapolatedRun('run 7', ref);
 
 function analysed(ref: string, run: string): { block: BlockReport; text: string } {
   const book = new RunBook();
