@@ -13,10 +13,11 @@ export {
   type Bounded,
   type DocumentReport,
 } from './analyzer/analyzer';
+export type { TextChange } from './analyzer/rescanPlan';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
-export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
+export { findFencedBlocks, scanFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {
   isNotebookPath,
   notebookCells,

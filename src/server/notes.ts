@@ -2,32 +2,67 @@
  * The open notes and their analyses. A note is analysed lazily, once per
  * version and per set of analysis settings, by a core Analyzer shared by
  * every note with those settings (whose per-block cache makes an edit
- * re-read only the blocks it touched). Settings that only change how
- * results are shown never cause a new analysis.
+ * re-read only the blocks it touched, and whose memory of the note, with the
+ * change the document recorded, makes it scan only where the note changed).
+ * Settings that only change how results are shown never cause a new analysis.
+ *
+ * A large note is not read whole before the first answer: its blocks are
+ * read into the cache in slices of a few milliseconds that yield to every
+ * request in between ({@link Notes.prepare}), while a request about a few
+ * blocks (a hover, the hints of the visible lines) reads just those now
+ * ({@link Notes.around}). Once every block is cached the whole analysis
+ * takes the cached results, and from then on edits are incremental.
  */
-import type { TextDocument } from 'vscode-languageserver-textdocument';
-import { Analyzer, LineIndex, type AnalyzerLimits } from '../core';
+import { Analyzer, scanFencedBlocks, type AnalyzerLimits, type FencedBlock } from '../core';
 import type { AnalysisStats } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
+import type { NoteDocument } from './noteDocument';
 import { analysisKey } from './settingsStore';
 import type { NoteState } from './state';
 
 /**
- * How much of a note the server reads (docs/format.md#note-bounded): about
- * 2.5 times the 2,000-run notebook of the benchmarks, whose full analysis
- * takes a fraction of a second, so the first analysis of any note stays
- * under a couple of seconds and an edit stays instant. Past the bound the
- * note gets one `note-bounded` warning on its first line.
+ * How much of a note the server reads (docs/format.md#note-bounded): no bound
+ * on the number of blocks, which the slices below keep from blocking the
+ * editor, and one on the size of the blocks' bodies that no real note meets
+ * (100 million characters, some 200,000 blocks), past which a note is beyond
+ * what the editor should hold in memory as analyses.
  */
-export const SERVER_LIMITS: AnalyzerLimits = { maxBlocks: 5_000, maxBodyChars: 2_000_000 };
+export const SERVER_LIMITS: AnalyzerLimits = { maxBlocks: Infinity, maxBodyChars: 100_000_000 };
+
+/** Blocks kept in each analyzer's cache: more than the bounded note above holds in ordinary blocks. */
+const SERVER_CACHE_BLOCKS = 250_000;
 
 /** Analyzers kept at once: one per distinct set of analysis settings in use (usually one). */
 const MAX_ANALYZERS = 8;
 
+/** Notes with fewer `levels` fences than this are read whole at once (a fraction of a second at most). */
+const READ_AT_ONCE = 400;
+
+/** Milliseconds of reading per slice before yielding to the requests waiting. */
+const SLICE_MS = 8;
+
 /** Builds analyzer options from the settings. */
 function analyzerFor(s: Settings): Analyzer {
-  return new Analyzer({ saturationSigma: s.saturationSigma, infoStrings: s.extraInfoStrings, limits: SERVER_LIMITS });
+  return new Analyzer({
+    saturationSigma: s.saturationSigma,
+    infoStrings: s.extraInfoStrings,
+    limits: SERVER_LIMITS,
+    cacheSize: SERVER_CACHE_BLOCKS,
+  });
 }
+
+/** A note being read in slices: its fence scan, for the requests about a few blocks meanwhile. */
+interface Warming {
+  readonly version: number;
+  readonly key: string;
+  readonly text: string;
+  /** Our blocks, in order. */
+  readonly blocks: readonly FencedBlock[];
+  readonly done: Promise<void>;
+}
+
+/** Yields to the event loop: every message waiting is handled before the next slice. */
+const yieldToRequests = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
 
 /** Cache of note analyses, keyed by URI, version and analysis settings. */
 export class Notes {
@@ -35,20 +70,94 @@ export class Notes {
   private readonly states = new Map<string, { state: NoteState; key: string }>();
   private readonly stats = new Map<string, AnalysisStats>();
   private readonly runs = new Map<string, number>();
+  private readonly warming = new Map<string, Warming>();
 
   /** The analysis of this version of the document with these settings, computed on first use. */
-  get(doc: TextDocument, settings: Settings): NoteState {
+  get(doc: NoteDocument, settings: Settings): NoteState {
     const key = analysisKey(settings);
     const known = this.states.get(doc.uri);
     if (known && known.state.version === doc.version && known.key === key) return known.state;
     const text = doc.getText();
-    const report = this.analyzer(key, settings).analyzeText(text);
-    const state: NoteState = { uri: doc.uri, version: doc.version, text, lines: new LineIndex(text), report };
+    const change = known && known.key === key ? doc.change() : undefined;
+    const report = this.analyzer(key, settings).analyzeText(text, change);
+    doc.analysed(text);
+    const state: NoteState = { uri: doc.uri, version: doc.version, text, lines: doc.lines, report };
     const runs = (this.runs.get(doc.uri) ?? 0) + 1;
     this.runs.set(doc.uri, runs);
     this.states.set(doc.uri, { state, key });
     this.stats.set(doc.uri, { version: doc.version, blocks: report.blocks.length, runs, ...report.stats });
     return state;
+  }
+
+  /** True when {@link get} is quick: the note was analysed with these settings before (later versions are incremental). */
+  ready(doc: NoteDocument, settings: Settings): boolean {
+    return this.states.get(doc.uri)?.key === analysisKey(settings);
+  }
+
+  /**
+   * Resolves when {@link get} will be quick for this note: at once for a note
+   * analysed before or a small one; otherwise after its blocks are read into
+   * the cache in slices that yield to requests between them.
+   */
+  prepare(doc: NoteDocument, settings: Settings): Promise<void> {
+    if (this.ready(doc, settings)) return Promise.resolve();
+    return this.warm(doc, settings)?.done ?? Promise.resolve();
+  }
+
+  /**
+   * The analysis of the blocks that overlap the note offsets [from, to] (fence
+   * lines included), read now if need be, as a note state holding only them:
+   * what a hover or the hints of the visible lines need while a large note is
+   * still being read. The whole note's state once that is quick.
+   */
+  around(doc: NoteDocument, settings: Settings, from: number, to: number): NoteState {
+    const w = this.ready(doc, settings) ? undefined : this.warm(doc, settings);
+    if (!w) return this.get(doc, settings);
+    let lo = 0;
+    let hi = w.blocks.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (w.blocks[mid]!.blockEnd < from) lo = mid + 1;
+      else hi = mid;
+    }
+    const near: FencedBlock[] = [];
+    for (let i = lo; i < w.blocks.length && w.blocks[i]!.openStart <= to; i++) near.push(w.blocks[i]!);
+    const blocks = this.analyzer(w.key, settings).reportsOf(near);
+    return {
+      uri: doc.uri,
+      version: doc.version,
+      text: w.text,
+      lines: doc.lines,
+      report: { blocks, stats: { analysed: 0, reused: 0 }, bounded: null, problems: [] },
+    };
+  }
+
+  /** Starts (or finds) the slices that read a large note; undefined for a note small enough to read at once. */
+  private warm(doc: NoteDocument, settings: Settings): Warming | undefined {
+    const key = analysisKey(settings);
+    const current = this.warming.get(doc.uri);
+    if (current && current.version === doc.version && current.key === key) return current;
+    const analyzer = this.analyzer(key, settings);
+    const text = doc.getText();
+    const blocks: FencedBlock[] = [];
+    for (const b of scanFencedBlocks(text)) if (analyzer.isLevelsFence(b)) blocks.push(b);
+    if (blocks.length < READ_AT_ONCE) return undefined;
+    const read = async (): Promise<void> => {
+      let i = 0;
+      while (i < blocks.length) {
+        const until = performance.now() + SLICE_MS;
+        while (i < blocks.length && performance.now() < until) analyzer.warm(blocks[i++]!.body);
+        await yieldToRequests();
+        // A newer version (or other settings) took over: it has slices of its own, and the cache keeps what was read.
+        const now = this.warming.get(doc.uri);
+        if (now?.version !== doc.version || now.key !== key) return;
+      }
+      this.warming.delete(doc.uri);
+    };
+    const w: Warming = { version: doc.version, key, text, blocks, done: Promise.resolve() };
+    const started: Warming = { ...w, done: yieldToRequests().then(read) };
+    this.warming.set(doc.uri, started);
+    return started;
   }
 
   /** Statistics of the latest analysis of a note. */
@@ -61,6 +170,7 @@ export class Notes {
     this.states.delete(uri);
     this.stats.delete(uri);
     this.runs.delete(uri);
+    this.warming.delete(uri);
   }
 
   /** The analyzer for a set of analysis settings; the least recently created one goes past MAX_ANALYZERS. */

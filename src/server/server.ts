@@ -14,7 +14,6 @@ import {
   type InitializeParams,
   type InitializeResult,
 } from 'vscode-languageserver';
-import { TextDocument } from 'vscode-languageserver-textdocument';
 import { version } from '../../package.json';
 import { background, clientCaps, refreshAfter, type ClientCaps } from './clientCaps';
 import { noteDiagnostics } from './diagnostics';
@@ -28,6 +27,7 @@ import { hover } from './features/hover';
 import { inlayHints } from './features/inlayHints';
 import { documentSymbols, flatSymbols } from './features/symbols';
 import { Notes } from './notes';
+import { noteDocuments, type NoteDocument } from './noteDocument';
 import { memoryStats } from './heapStats';
 import { AnalysisStatsRequest, CurveDataRequest, MemoryRequest, ResultsMarkdownRequest } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
@@ -45,7 +45,7 @@ export function startServer(connection: Connection): void {
   console.warn = connection.console.warn.bind(connection.console);
   console.error = connection.console.error.bind(connection.console);
 
-  const documents = new TextDocuments(TextDocument);
+  const documents = new TextDocuments<NoteDocument>(noteDocuments);
   const notes = new Notes();
   const pushes = new Debouncer(PUSH_DELAY_MS);
   let caps: ClientCaps = clientCaps(undefined);
@@ -55,23 +55,38 @@ export function startServer(connection: Connection): void {
   let settings = new SettingsStore(null, log, changed);
   let folders: string[] = [];
 
-  /** The note's analysis and settings, once its folder's settings are known; null for an unknown note. */
-  const note = async (uri: string): Promise<{ state: NoteState; settings: Settings } | null> => {
+  /**
+   * The note's analysis and settings, once its folder's settings are known; null for an unknown note. With `near`
+   * (a range of lines), a note still being read in slices answers at once with the blocks in that range only;
+   * without, the answer waits for the whole note's analysis.
+   */
+  const note = async (
+    uri: string,
+    near?: { startLine: number; endLine: number },
+  ): Promise<{ state: NoteState; settings: Settings } | null> => {
     if (!documents.get(uri)) return null;
     const s = await settings.get(uri);
-    const doc = documents.get(uri); // the latest version: an edit may have come in while the settings did
+    let doc = documents.get(uri); // the latest version: an edit may have come in while the settings did
+    if (doc && near) {
+      const from = doc.lines.lineStart(near.startLine);
+      const to = doc.lines.lineEnd(near.endLine);
+      return { state: notes.around(doc, s, from, to), settings: s };
+    }
+    if (doc) await notes.prepare(doc, s);
+    doc = documents.get(uri); // and again after the slices
     return doc ? { state: notes.get(doc, s), settings: s } : null;
   };
-  /** Runs a feature for a known, not cancelled request; empty otherwise. */
+  /** Runs a feature for a known, not cancelled request; empty otherwise. `near`: see `note`. */
   const serve = async <T>(
     uri: string,
     token: CancellationToken | undefined,
     empty: T,
     fn: (s: NoteState, settings: Settings) => T,
+    near?: { startLine: number; endLine: number },
   ): Promise<T> => {
     if (token?.isCancellationRequested) return empty;
     try {
-      const n = await note(uri);
+      const n = await note(uri, near);
       if (!n || token?.isCancellationRequested) return empty;
       return fn(n.state, n.settings);
     } catch (err) {
@@ -179,9 +194,15 @@ export function startServer(connection: Connection): void {
     kind: DocumentDiagnosticReportKind.Full,
     items: await serve(p.textDocument.uri, token, [], noteDiagnostics),
   }));
-  connection.onHover((p, token) => serve(p.textDocument.uri, token, null, (s, set) => hover(s, p.position, set)));
+  const lineOf = (p: { line: number }) => ({ startLine: p.line, endLine: p.line });
+  connection.onHover((p, token) =>
+    serve(p.textDocument.uri, token, null, (s, set) => hover(s, p.position, set), lineOf(p.position)),
+  );
   connection.languages.inlayHint.on((p, token) =>
-    serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
+    serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set), {
+      startLine: p.range.start.line,
+      endLine: p.range.end.line,
+    }),
   );
   connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
   connection.onCompletion((p, token) =>

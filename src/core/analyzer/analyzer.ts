@@ -7,7 +7,7 @@ import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from '../anal
 import type { BlockResults } from '../analysis/results';
 import type { BlockInput, BlockMeta } from '../block/input';
 import { interpretBody } from '../block/interpret';
-import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory } from './rescanPlan';
+import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory, type TextChange } from './rescanPlan';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
 
@@ -121,12 +121,13 @@ export class Analyzer {
    * limits. Never throws. The result is the same as a fresh Analyzer's; only
    * the work differs: unchanged blocks come from the cache, and a note
    * analysed recently is scanned again only from its last fence before the
-   * change to its first fence after it.
+   * change to its first fence after it. A host that knows where the note
+   * changed passes it as `change`, and the two versions are not compared.
    */
-  analyzeText(text: string): DocumentReport {
+  analyzeText(text: string, change?: TextChange): DocumentReport {
     const { maxBlocks, maxBodyChars } = this.options.limits;
     const generation = ++this.generation;
-    const reuse = planReuse(this.notes, text);
+    const reuse = planReuse(this.notes, text, change);
     const fences: Fence[] = [];
     const blocks: BlockReport[] = [];
     let analysed = 0;
@@ -188,6 +189,38 @@ export class Analyzer {
     if (this.cache.size > this.options.cacheSize) this.evict();
     const problems = bounded ? [boundedProblem(text, bounded, this.options.limits)] : [];
     return { blocks, stats: { analysed, reused: blocks.length - analysed }, bounded, problems };
+  }
+
+  /**
+   * Reads one block body into the cache unless it is there, so that a later
+   * analysis of its note finds it: a host warms the cache in slices of a large
+   * note, between requests, before the note's first whole analysis. Returns
+   * whether the body was read (false: it was cached).
+   */
+  warm(body: string): boolean {
+    if (this.cache.has(body)) return false;
+    const own = ownCopy(body);
+    this.cache.set(own, this.analyseBody(own));
+    if (this.cache.size > this.options.cacheSize) this.evict();
+    return true;
+  }
+
+  /**
+   * The reports of some blocks of a note (found by the fence scan, ours only),
+   * each read now unless cached: what a host needs to answer about a few
+   * blocks of a note whose whole analysis is not done yet.
+   */
+  reportsOf(blocks: readonly FencedBlock[]): BlockReport[] {
+    return blocks.map((b) => {
+      let entry = this.cache.get(b.body);
+      if (!entry) {
+        const own = ownCopy(b.body);
+        entry = this.analyseBody(own);
+        this.cache.set(own, entry);
+      }
+      entry.used = this.generation;
+      return report(b, entry);
+    });
   }
 
   /** Keeps the note just analysed in place of the version it was read from (or of the oldest note). */
