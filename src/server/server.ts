@@ -176,6 +176,15 @@ export function startServer(connection: Connection): void {
     background(connection, 'reading the changed settings', reload(section));
   });
 
+  // A note is read from the moment it opens, in slices that yield to requests (notes.ts), not at its first request.
+  documents.onDidOpen((e) => {
+    const uri = e.document.uri;
+    const read = settings.get(uri).then((s) => {
+      const doc = documents.get(uri);
+      return doc ? notes.prepare(doc, s) : undefined;
+    });
+    background(connection, 'reading the opened note', read);
+  });
   documents.onDidChangeContent((e) => {
     if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
