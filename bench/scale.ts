@@ -25,6 +25,8 @@ export interface SizeFigures {
   readonly blocks: number;
   readonly megabytes: number;
   readonly edit: { readonly p50: number; readonly p95: number };
+  /** Blocks in the server's whole analysis of the note (every one: no cap). */
+  readonly servedBlocks: number;
   readonly openMs: number;
   /** From `didOpen` sent to a no-op answered after it: the note's transfer and the server taking it. */
   readonly takenMs: number;
@@ -75,18 +77,37 @@ export async function measureSize(blocks: number, samples: number): Promise<Size
     });
     await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: warmUri } });
     await s.conn.sendNotification('textDocument/didClose', { textDocument: { uri: warmUri } });
-    const t0 = now();
-    await s.conn.sendNotification('textDocument/didOpen', {
-      textDocument: { uri: URI, languageId: 'markdown', version: 1, text: note },
-    });
-    // A no-op answered: the server has taken the note (its transfer, parse and line index are behind us).
-    await s.conn.sendRequest(AnalysisStatsRequest, { uri: URI });
-    const takenMs = now() - t0;
-    const t1 = now();
-    await hover(middle.block.bodyLine);
-    const firstHoverMs = now() - t1;
+    // Three opens of the note under three names, each a note this server has not analysed: the first hover after
+    // each (the median of three is reported), and for the first, from `didOpen` to its complete diagnostics. The
+    // later two find the block bodies cached by the first, which saves the reading of one block, a twentieth of a
+    // millisecond, for the hover; the open figure is the first's, read from nothing.
+    const firstHovers: number[] = [];
+    let openMs = NaN;
+    let takenMs = NaN;
+    for (const uri of ['file:///bench/copy1.md', 'file:///bench/copy2.md', URI]) {
+      const t0 = now();
+      await s.conn.sendNotification('textDocument/didOpen', {
+        textDocument: { uri, languageId: 'markdown', version: 1, text: note },
+      });
+      // A no-op answered: the server has taken the note (its transfer, parse, line index and fence scan).
+      await s.conn.sendRequest(AnalysisStatsRequest, { uri });
+      if (uri !== URI) takenMs = now() - t0;
+      const t = now();
+      await s.conn.sendRequest('textDocument/hover', {
+        textDocument: { uri },
+        position: { line: middle.block.bodyLine, character: 1 },
+      });
+      firstHovers.push(now() - t);
+      if (uri === URI) continue;
+      if (Number.isNaN(openMs)) {
+        await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri } });
+        openMs = now() - t0;
+      }
+      await s.conn.sendNotification('textDocument/didClose', { textDocument: { uri } });
+    }
+    const firstHoverMs = median(firstHovers);
     await diagnostics();
-    const openMs = now() - t0;
+    const servedBlocks = (await s.conn.sendRequest(AnalysisStatsRequest, { uri: URI }))?.blocks ?? 0;
     const warm: number[] = [];
     for (let i = 0; i < 9; i++) {
       const t = now();
@@ -118,6 +139,7 @@ export async function measureSize(blocks: number, samples: number): Promise<Size
       blocks: report.blocks.length,
       megabytes: note.length / 1e6,
       edit: { p50: quantile(edits, 0.5), p95: quantile(edits, 0.95) },
+      servedBlocks,
       openMs,
       takenMs,
       firstHoverMs,

@@ -12,7 +12,7 @@
  */
 import type { TextDocument, TextDocumentContentChangeEvent } from 'vscode-languageserver-textdocument';
 import type { Range } from 'vscode-languageserver';
-import { LineIndex, type TextChange } from '../core';
+import { LineIndex, scanFencedBlocks, type FencedBlock, type TextChange } from '../core';
 
 /** An open note. */
 export class NoteDocument implements TextDocument {
@@ -29,6 +29,21 @@ export class NoteDocument implements TextDocument {
   ) {
     this.text = content;
     this.index = new LineIndex(content);
+  }
+
+  /** Every fenced block of the current text, found once per version on first use (see {@link fences}). */
+  private scanned: { version: number; blocks: readonly FencedBlock[] } | null = null;
+
+  /**
+   * Every fenced block of the current text, in order (any info string: the
+   * scan does not depend on settings). The server takes it when the note
+   * opens, so that a request about one block of a large note, before the
+   * note's whole analysis, finds that block at once.
+   */
+  fences(): readonly FencedBlock[] {
+    if (this.scanned?.version !== this.version)
+      this.scanned = { version: this.version, blocks: [...scanFencedBlocks(this.text)] };
+    return this.scanned.blocks;
   }
 
   /** The line index of the current text. */

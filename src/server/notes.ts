@@ -13,7 +13,7 @@
  * ({@link Notes.around}). Once every block is cached the whole analysis
  * takes the cached results, and from then on edits are incremental.
  */
-import { Analyzer, scanFencedBlocks, type AnalyzerLimits, type FencedBlock } from '../core';
+import { Analyzer, type AnalyzerLimits, type FencedBlock } from '../core';
 import type { AnalysisStats } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
 import type { NoteDocument } from './noteDocument';
@@ -38,8 +38,8 @@ const MAX_ANALYZERS = 8;
 /** Notes with fewer `levels` fences than this are read whole at once (a fraction of a second at most). */
 const READ_AT_ONCE = 400;
 
-/** Milliseconds of reading per slice before yielding to the requests waiting. */
-const SLICE_MS = 8;
+/** Milliseconds of reading per slice before yielding to the requests waiting: what a request may wait at most. */
+const SLICE_MS = 2;
 
 /** Builds analyzer options from the settings. */
 function analyzerFor(s: Settings): Analyzer {
@@ -140,7 +140,7 @@ export class Notes {
     const analyzer = this.analyzer(key, settings);
     const text = doc.getText();
     const blocks: FencedBlock[] = [];
-    for (const b of scanFencedBlocks(text)) if (analyzer.isLevelsFence(b)) blocks.push(b);
+    for (const b of doc.fences()) if (analyzer.isLevelsFence(b)) blocks.push(b);
     if (blocks.length < READ_AT_ONCE) return undefined;
     const read = async (): Promise<void> => {
       let i = 0;

@@ -179,6 +179,7 @@ export function startServer(connection: Connection): void {
   // A note is read from the moment it opens, in slices that yield to requests (notes.ts), not at its first request.
   documents.onDidOpen((e) => {
     const uri = e.document.uri;
+    e.document.fences(); // found now, while the note is taken, so that a first request finds its block at once
     const read = settings.get(uri).then((s) => {
       const doc = documents.get(uri);
       return doc ? notes.prepare(doc, s) : undefined;

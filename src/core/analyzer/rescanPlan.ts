@@ -70,7 +70,9 @@ export function planReuse<R, E>(
 ): Reuse<R, E> | null {
   let best: Reuse<R, E> | null = null;
   let bestShared = 0;
-  const known = change ? memories.find((m) => m.text.length === change.previous.length && m.text === change.previous) : undefined;
+  const known = change
+    ? memories.find((m) => m.text.length === change.previous.length && m.text === change.previous)
+    : undefined;
   for (const memory of known ? [known] : memories) {
     const old = memory.text;
     const hinted = memory === known && change !== undefined;
