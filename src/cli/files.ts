@@ -160,6 +160,16 @@ class Collector {
  * (for `-`, which may be given once). Throws only {@link UsageError}.
  */
 export function collectNotes(paths: readonly string[], cwd: string, stdin: () => Uint8Array): Note[] {
+  return [...eachNote(paths, cwd, stdin)];
+}
+
+/**
+ * The same notes, each read only when it is asked for: the folders are walked
+ * first (names only), then one note's bytes at a time, so that a report of
+ * many notes holds one note in memory, not all of them. Usage errors are
+ * thrown before the first note is given.
+ */
+export function eachNote(paths: readonly string[], cwd: string, stdin: () => Uint8Array): Iterable<Note> {
   if (paths.filter((p) => p === STDIN).length > 1)
     throw new UsageError(`'${STDIN}' (standard input) can be given once`);
   const c = new Collector(cwd);
@@ -167,7 +177,9 @@ export function collectNotes(paths: readonly string[], cwd: string, stdin: () =>
     if (p === STDIN) c.notes.push({ name: STDIN, bytes: stdin() });
     else c.add(p);
   }
-  return c.notes.map((n) => ('path' in n ? readNote(n.name.split('\\').join('/'), n.path) : n));
+  return (function* () {
+    for (const n of c.notes) yield 'path' in n ? readNote(n.name.split('\\').join('/'), n.path) : n;
+  })();
 }
 
 /**

@@ -146,6 +146,12 @@ export function formatTable(
   return out.join('\n') + '\n';
 }
 
+/** One entry as it stands inside {@link formatJson}'s array: indented by two, without the separator. */
+export function jsonElement(entry: Row['entry']): string {
+  const inArray = JSON.stringify([entry], null, 2);
+  return inArray.slice(2, -2); // drops "[\n" and "\n]"
+}
+
 /** The JSON array of the contract, two-space indented. */
 export function formatJson(rows: readonly Row[]): string {
   return (

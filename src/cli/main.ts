@@ -22,11 +22,12 @@ import {
 } from '../core';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
-import { collectNotes, UsageError } from './files';
+import { eachNote, UsageError, type Note } from './files';
 import {
   DEFAULT_TABLE_WIDTH,
   formatCsv,
   formatJson,
+  jsonElement,
   formatLinePoints,
   formatMarkdown,
   formatTable,
@@ -46,15 +47,33 @@ export interface Io {
   readonly stdin?: () => Uint8Array;
 }
 
+/**
+ * Blocks kept in the command line's cache: enough for the repeated bodies of
+ * one notebook, few enough that a report over thousands of notes keeps a
+ * bounded heap (the notes are read one at a time, see {@link eachNoteRows}).
+ */
+const CLI_CACHE_BLOCKS = 2_000;
+
 /** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
 function analyseAll(paths: readonly string[], io: Io): Row[] {
-  const analyzer = new Analyzer();
   const rows: Row[] = [];
+  for (const r of eachNoteRows(paths, io)) rows.push(...r);
+  return rows;
+}
+
+/**
+ * The rows of one note at a time, in file order: a note is read, analysed and
+ * given to the caller before the next is read, so nothing but the caller's
+ * own output needs to outlive it.
+ */
+function* eachNoteRows(paths: readonly string[], io: Io): Generator<Row[]> {
+  const analyzer = new Analyzer({ cacheSize: CLI_CACHE_BLOCKS });
   const stdin = io.stdin ?? (() => new Uint8Array(0));
-  for (const note of collectNotes(paths, io.cwd, stdin)) {
+  const rowsOf = (note: Note): Row[] => {
+    const rows: Row[] = [];
     if ('unreadable' in note) {
       rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
-      continue;
+      return rows;
     }
     const decoded = decodeUtf8(note.bytes);
     // A byte-order mark is not part of the note; offsets after it move back by one.
@@ -69,7 +88,7 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
             `boltzmark: warning: '${note.name}': the bytes at offset ${invalid[0]!.byte} are not UTF-8; they are read as U+FFFD`,
           ) + '\n',
         );
-      continue;
+      return rows;
     }
     const lines = new LineIndex(text);
     const blocks = analyzer.analyzeText(text).blocks;
@@ -104,8 +123,9 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
             '; they are read as U+FFFD',
         ) + '\n',
       );
-  }
-  return rows;
+    return rows;
+  };
+  for (const note of eachNote(paths, io.cwd, stdin)) yield rowsOf(note);
 }
 
 /**
@@ -143,6 +163,7 @@ export function report(
   statuses: readonly Status[] | null = null,
   wide = false,
 ): number {
+  if (format === 'json') return reportJsonStream(paths, io, statuses);
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
   const width = io.columns !== undefined && io.columns >= 40 ? io.columns : DEFAULT_TABLE_WIDTH;
@@ -157,6 +178,26 @@ export function report(
     }[format] ?? table;
   io.out(formatter(shown));
   return hasError(rows) ? 1 : 0;
+}
+
+/**
+ * The JSON report written note by note, as each is analysed: the same bytes
+ * as {@link formatJson} of every row, but no note's rows outlive its turn, so
+ * the memory of a report over any number of notes stays that of one note.
+ */
+function reportJsonStream(paths: readonly string[], io: Io, statuses: readonly Status[] | null): number {
+  let error = false;
+  let first = true;
+  for (const rows of eachNoteRows(paths, io)) {
+    if (!error && hasError(rows)) error = true;
+    for (const r of rows) {
+      if (statuses && !statuses.includes(r.entry.status)) continue;
+      io.out((first ? '[\n' : ',\n') + jsonElement(r.entry));
+      first = false;
+    }
+  }
+  io.out(first ? '[]\n' : '\n]\n');
+  return error ? 1 : 0;
 }
 
 /**
