@@ -14,6 +14,8 @@ import { measureCore } from './core';
 import { measureCurves } from './curves';
 import { measureLsp } from './lsp';
 import { measureScale } from './scale';
+import { measureCli } from './cli';
+import { measureWorkspace } from './workspace';
 import { measureActivation, measureSizes, tempBundles } from './startup';
 
 /** One line of the table. */
@@ -176,6 +178,55 @@ async function main(): Promise<number> {
     target: '—',
     holds: null,
     data: { bytes: perBlock },
+  });
+
+  log('command line over 1,000 notes of 20 blocks …');
+  const cli = measureCli(3);
+  figures.push({
+    figure: `CLI report --format json ÷ fence-and-parseDocument floor, CPU (${cli.notes} notes × ${cli.blocksPerNote} blocks, fresh processes)`,
+    value: `${f(cli.cpuRatio, 2)} (${f(cli.cliCpuMs)} ms ÷ ${f(cli.floorCpuMs)} ms)`,
+    target: '≤ 1.3',
+    holds: cli.cpuRatio <= 1.3,
+    data: { ratio: cli.cpuRatio, cliCpuMs: cli.cliCpuMs, floorCpuMs: cli.floorCpuMs },
+  });
+  figures.push({
+    figure: 'CLI report ÷ single-threaded floor, wall time',
+    value: `${f(cli.wallRatio, 2)} (${f(cli.cliWallMs)} ms ÷ ${f(cli.floorWallMs)} ms)`,
+    target: '≤ 0.8',
+    holds: cli.wallRatio <= 0.8,
+    data: { ratio: cli.wallRatio, cliWallMs: cli.cliWallMs, floorWallMs: cli.floorWallMs },
+  });
+  if (cli.peakRssSmall !== null && cli.peakRssLarge !== null)
+    figures.push({
+      figure: 'CLI peak memory, 1,000 ÷ 250 notes',
+      value: `${f(cli.peakRssLarge / cli.peakRssSmall, 2)} (${f(cli.peakRssLarge / 2 ** 20)} MB ÷ ${f(cli.peakRssSmall / 2 ** 20)} MB)`,
+      target: '≤ 1.5 (flat)',
+      holds: cli.peakRssLarge / cli.peakRssSmall <= 1.5,
+      data: { ratio: cli.peakRssLarge / cli.peakRssSmall, largeBytes: cli.peakRssLarge, smallBytes: cli.peakRssSmall },
+    });
+
+  log('run log over a workspace of 10,000 notes (200,000 runs) …');
+  const ws = measureWorkspace(10_000, 20);
+  figures.push({
+    figure: `Run log, ${ws.notes.toLocaleString('en-US')} notes (${ws.runs.toLocaleString('en-US')} runs): first listing / every note read`,
+    value: `${f(ws.firstListingMs)} ms / ${f(ws.allMs / 1000, 1)} s`,
+    target: '—',
+    holds: null,
+    data: { firstListingMs: ws.firstListingMs, allMs: ws.allMs, runs: ws.runs },
+  });
+  figures.push({
+    figure: 'Run log memory (heap after a full collection), per run',
+    value: `${f(ws.heapBytes / 2 ** 20)} MB, ${f(ws.heapBytes / ws.runs / 1024, 2)} KB per run`,
+    target: '—',
+    holds: null,
+    data: { heapBytes: ws.heapBytes, perRun: ws.heapBytes / ws.runs },
+  });
+  figures.push({
+    figure: 'Run log, one changed note re-read and listed again ÷ reading every note',
+    value: `${f(ws.changedNoteMs / ws.allMs, 4)} (${f(ws.changedNoteMs, 1)} ms)`,
+    target: `≤ ${f(10 / ws.notes, 4)} (ten notes' share)`,
+    holds: ws.changedNoteMs / ws.allMs <= 10 / ws.notes,
+    data: { ratio: ws.changedNoteMs / ws.allMs, ms: ws.changedNoteMs },
   });
 
   log('curves …');

@@ -32,7 +32,7 @@ describe('boltzmark report --format json, written note by note', () => {
       assert.equal(code, 1, 'the broken note still fails the run');
       const entries = JSON.parse(out) as { file: string }[];
       assert.equal(entries.length, 6, 'no note lost to the one that failed');
-      assert.equal(chunks.length, 7, 'one write per entry and one to close the array');
+      assert.equal(chunks.length, 7, 'one write per note and one to close the array');
       assert.equal(out, formatJson(entries.map((entry) => ({ block: null, entry }) as never)));
     } finally {
       rmSync(dir, { recursive: true, force: true });
