@@ -91,8 +91,11 @@ export class NoteDocument implements TextDocument {
   update(changes: readonly TextDocumentContentChangeEvent[], version: number): void {
     for (const c of changes) {
       if ('range' in c) {
-        const start = this.index.offsetAt(c.range.start);
-        const end = Math.max(start, this.index.offsetAt(c.range.end));
+        // A range given end first is read start first, as the protocol library's document reads it.
+        const a = this.index.offsetAt(c.range.start);
+        const b = this.index.offsetAt(c.range.end);
+        const start = Math.min(a, b);
+        const end = Math.max(a, b);
         const oldLength = this.text.length;
         this.text = this.text.slice(0, start) + c.text + this.text.slice(end);
         this.index = this.index.edit(start, end, c.text.length, this.text);

@@ -61,8 +61,13 @@ interface Warming {
   readonly done: Promise<void>;
 }
 
-/** Yields to the event loop: every message waiting is handled before the next slice. */
-const yieldToRequests = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
+/**
+ * Yields to the event loop: every message waiting is handled before the next slice. `setImmediate` in Node.js;
+ * the browser server (a web worker) has none, and takes a zero timeout.
+ */
+const later: (f: () => void) => unknown =
+  typeof setImmediate === 'function' ? setImmediate : (f: () => void) => setTimeout(f, 0);
+const yieldToRequests = (): Promise<void> => new Promise((resolve) => void later(resolve));
 
 /** Cache of note analyses, keyed by URI, version and analysis settings. */
 export class Notes {
