@@ -48,11 +48,12 @@ export interface Io {
 }
 
 /**
- * Blocks kept in the command line's cache: enough for the repeated bodies of
- * one notebook, few enough that a report over thousands of notes keeps a
- * bounded heap (the notes are read one at a time, see {@link eachNoteRows}).
+ * Blocks kept in the command line's cache between notes: none. Each note is
+ * analysed once, so a body cached for a later note is worth less than the
+ * collector's work of keeping it: the cache is emptied after each note (and
+ * with it the memory of earlier notes), and the heap holds one note's work.
  */
-const CLI_CACHE_BLOCKS = 2_000;
+const CLI_CACHE_BLOCKS = 0;
 
 /** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
 function analyseAll(paths: readonly string[], io: Io): Row[] {
