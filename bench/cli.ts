@@ -3,8 +3,8 @@
  * json` over a generated folder of 1,000 notes of 20 blocks, in a fresh
  * process, against the floor script bench/cliFloor.mjs (walk, read, find the
  * fences, `parseDocument` each body) in a fresh process too. CPU time of the
- * whole process (every thread) from bench/cpuOnExit.cjs; wall time measured
- * here. The notes are written to a temporary folder and removed after.
+ * whole process (every thread) from bench/cpuOnExit.cjs, with `--workers 1`;
+ * wall time measured here, with the default (one worker thread per core). The notes are written to a temporary folder and removed after.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -71,20 +71,26 @@ export function measureCli(repetitions: number, extraArgs: readonly string[] = [
   const dir = writeNotes(notes, blocksPerNote);
   const small = writeNotes(250, blocksPerNote);
   try {
+    // CPU on one thread (`--workers 1`); wall time as the command runs by default (one thread per core).
+    const single = ['dist/cli.js', 'report', dir, '--format', 'json', '--workers', '1', ...extraArgs];
     const cli = ['dist/cli.js', 'report', dir, '--format', 'json', ...extraArgs];
     const floor = [join(__dirname, 'cliFloor.mjs'), dir];
     const ratios: number[] = [];
     const wallRatios: number[] = [];
     const c: Run[] = [];
+    const cw: Run[] = [];
     const fl: Run[] = [];
     for (let i = 0; i < repetitions; i++) {
-      // Alternating which goes first.
-      const pair = i % 2 === 0 ? [runNode(cli), runNode(floor)] : [runNode(floor), runNode(cli)].reverse();
-      const [a, b] = pair as [Run, Run];
+      // The order turns round each repetition.
+      const order = [0, 1, 2].map((k) => (k + i) % 3);
+      const runs: Run[] = [];
+      for (const k of order) runs[k] = runNode([single, cli, floor][k]!);
+      const [a, w, b] = runs as [Run, Run, Run];
       c.push(a);
+      cw.push(w);
       fl.push(b);
       ratios.push(a.cpuMs / b.cpuMs);
-      wallRatios.push(a.wallMs / b.wallMs);
+      wallRatios.push(w.wallMs / b.wallMs);
     }
     return {
       notes,
@@ -92,11 +98,11 @@ export function measureCli(repetitions: number, extraArgs: readonly string[] = [
       cliCpuMs: median(c.map((x) => x.cpuMs)),
       floorCpuMs: median(fl.map((x) => x.cpuMs)),
       cpuRatio: median(ratios),
-      cliWallMs: median(c.map((x) => x.wallMs)),
+      cliWallMs: median(cw.map((x) => x.wallMs)),
       floorWallMs: median(fl.map((x) => x.wallMs)),
       wallRatio: median(wallRatios),
-      peakRssSmall: peakRss(['dist/cli.js', 'report', small, '--format', 'json', ...extraArgs]),
-      peakRssLarge: peakRss(cli),
+      peakRssSmall: peakRss(['dist/cli.js', 'report', small, '--format', 'json', '--workers', '1', ...extraArgs]),
+      peakRssLarge: peakRss(single),
     };
   } finally {
     rmSync(dir, { recursive: true, force: true });

@@ -170,6 +170,24 @@ export function collectNotes(paths: readonly string[], cwd: string, stdin: () =>
  * thrown before the first note is given.
  */
 export function eachNote(paths: readonly string[], cwd: string, stdin: () => Uint8Array): Iterable<Note> {
+  const listed = listNotes(paths, cwd, stdin);
+  return (function* () {
+    for (const n of listed) yield 'path' in n ? readNote(n.name, n.path) : n;
+  })();
+}
+
+/** A note listed but not read yet: its printed name and its path. */
+export interface ListedNote {
+  readonly name: string;
+  readonly path: string;
+}
+
+/**
+ * The notes in order, listed but not read (a note on standard input, or one
+ * already known to be unreadable, comes whole): what {@link eachNote} reads one
+ * by one, and what the report's worker threads share out.
+ */
+export function listNotes(paths: readonly string[], cwd: string, stdin: () => Uint8Array): (Note | ListedNote)[] {
   if (paths.filter((p) => p === STDIN).length > 1)
     throw new UsageError(`'${STDIN}' (standard input) can be given once`);
   const c = new Collector(cwd);
@@ -177,9 +195,7 @@ export function eachNote(paths: readonly string[], cwd: string, stdin: () => Uin
     if (p === STDIN) c.notes.push({ name: STDIN, bytes: stdin() });
     else c.add(p);
   }
-  return (function* () {
-    for (const n of c.notes) yield 'path' in n ? readNote(n.name.split('\\').join('/'), n.path) : n;
-  })();
+  return c.notes.map((n) => ('path' in n ? { name: n.name.split('\\').join('/'), path: n.path } : n));
 }
 
 /**

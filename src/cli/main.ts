@@ -22,7 +22,8 @@ import {
 } from '../core';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
-import { eachNote, UsageError, type Note } from './files';
+import { eachNote, listNotes, readNote, UsageError, type ListedNote, type Note } from './files';
+import { reportJsonParallel } from './parallel';
 import {
   DEFAULT_TABLE_WIDTH,
   formatCsv,
@@ -45,6 +46,68 @@ export interface Io {
   readonly columns?: number;
   /** Standard input, read whole, for the path `-`. */
   readonly stdin?: () => Uint8Array;
+  /** Worker threads for the JSON report when `--workers` is not given (the command sets the number of cores). */
+  readonly workers?: number;
+  /** The script the worker threads run (the command's own bundle); without it the report stays on this thread. */
+  readonly workerScript?: string;
+}
+
+/** The rows of one note (one row for an unreadable one); warnings about its bytes go to `io.err`. */
+export function noteRows(analyzer: Analyzer, note: Note, io: Pick<Io, 'err'>): Row[] {
+  const rows: Row[] = [];
+  if ('unreadable' in note) {
+    rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
+    return rows;
+  }
+  const decoded = decodeUtf8(note.bytes);
+  // A byte-order mark is not part of the note; offsets after it move back by one.
+  const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  const text = bom ? decoded.text.slice(1) : decoded.text;
+  const invalid = decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom }));
+  if (isNotebookPath(note.name)) {
+    rows.push(...notebookRows(analyzer, note.name, text));
+    if (invalid.length > 0)
+      io.err(
+        terminalText(
+          `boltzmark: warning: '${note.name}': the bytes at offset ${invalid[0]!.byte} are not UTF-8; they are read as U+FFFD`,
+        ) + '\n',
+      );
+    return rows;
+  }
+  const lines = new LineIndex(text);
+  const blocks = analyzer.analyzeText(text).blocks;
+  // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
+  const outside: { byte: number; offset: number }[] = [];
+  let next = 0;
+  for (const block of blocks) {
+    const entry = reportEntry(note.name, block, lines);
+    while (next < invalid.length && invalid[next]!.offset < block.block.openStart) outside.push(invalid[next++]!);
+    const inside: { byte: number; offset: number }[] = [];
+    while (next < invalid.length && invalid[next]!.offset < block.block.blockEnd) inside.push(invalid[next++]!);
+    const first = inside[0];
+    rows.push({
+      block,
+      entry: first
+        ? {
+            ...entry,
+            diagnostics: [notUtf8Diagnostic(first.byte, first.offset, inside.length, lines), ...entry.diagnostics],
+          }
+        : entry,
+    });
+  }
+  // Bytes outside every block change no result, but are not replaced in silence either.
+  for (; next < invalid.length; next++) outside.push(invalid[next]!);
+  if (outside.length > 0)
+    io.err(
+      terminalText(
+        `boltzmark: warning: '${note.name}': the bytes at offset ${outside[0]!.byte} are not UTF-8` +
+          (outside.length > 1
+            ? ` (and ${outside.length - 1} more outside levels blocks)`
+            : ' (outside levels blocks)') +
+          '; they are read as U+FFFD',
+      ) + '\n',
+    );
+  return rows;
 }
 
 /**
@@ -53,7 +116,10 @@ export interface Io {
  * collector's work of keeping it: the cache is emptied after each note (and
  * with it the memory of earlier notes), and the heap holds one note's work.
  */
-const CLI_CACHE_BLOCKS = 0;
+export const CLI_CACHE_BLOCKS = 0;
+
+/** Notes from which the JSON report is shared out to worker threads. */
+const PARALLEL_FROM = 32;
 
 /** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
 function analyseAll(paths: readonly string[], io: Io): Row[] {
@@ -67,66 +133,13 @@ function analyseAll(paths: readonly string[], io: Io): Row[] {
  * given to the caller before the next is read, so nothing but the caller's
  * own output needs to outlive it.
  */
-function* eachNoteRows(paths: readonly string[], io: Io): Generator<Row[]> {
+function* eachNoteRows(paths: readonly string[], io: Io, listed?: readonly (Note | ListedNote)[]): Generator<Row[]> {
   const analyzer = new Analyzer({ cacheSize: CLI_CACHE_BLOCKS });
   const stdin = io.stdin ?? (() => new Uint8Array(0));
-  const rowsOf = (note: Note): Row[] => {
-    const rows: Row[] = [];
-    if ('unreadable' in note) {
-      rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
-      return rows;
-    }
-    const decoded = decodeUtf8(note.bytes);
-    // A byte-order mark is not part of the note; offsets after it move back by one.
-    const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
-    const text = bom ? decoded.text.slice(1) : decoded.text;
-    const invalid = decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom }));
-    if (isNotebookPath(note.name)) {
-      rows.push(...notebookRows(analyzer, note.name, text));
-      if (invalid.length > 0)
-        io.err(
-          terminalText(
-            `boltzmark: warning: '${note.name}': the bytes at offset ${invalid[0]!.byte} are not UTF-8; they are read as U+FFFD`,
-          ) + '\n',
-        );
-      return rows;
-    }
-    const lines = new LineIndex(text);
-    const blocks = analyzer.analyzeText(text).blocks;
-    // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
-    const outside: { byte: number; offset: number }[] = [];
-    let next = 0;
-    for (const block of blocks) {
-      const entry = reportEntry(note.name, block, lines);
-      while (next < invalid.length && invalid[next]!.offset < block.block.openStart) outside.push(invalid[next++]!);
-      const inside: { byte: number; offset: number }[] = [];
-      while (next < invalid.length && invalid[next]!.offset < block.block.blockEnd) inside.push(invalid[next++]!);
-      const first = inside[0];
-      rows.push({
-        block,
-        entry: first
-          ? {
-              ...entry,
-              diagnostics: [notUtf8Diagnostic(first.byte, first.offset, inside.length, lines), ...entry.diagnostics],
-            }
-          : entry,
-      });
-    }
-    // Bytes outside every block change no result, but are not replaced in silence either.
-    for (; next < invalid.length; next++) outside.push(invalid[next]!);
-    if (outside.length > 0)
-      io.err(
-        terminalText(
-          `boltzmark: warning: '${note.name}': the bytes at offset ${outside[0]!.byte} are not UTF-8` +
-            (outside.length > 1
-              ? ` (and ${outside.length - 1} more outside levels blocks)`
-              : ' (outside levels blocks)') +
-            '; they are read as U+FFFD',
-        ) + '\n',
-      );
-    return rows;
-  };
-  for (const note of eachNote(paths, io.cwd, stdin)) yield rowsOf(note);
+  // Notes already listed (standard input then read, once) are read from the list.
+  const notes = listed ? listed.map((n) => ('path' in n ? () => readNote(n.name, n.path) : () => n)) : null;
+  if (notes) for (const read of notes) yield noteRows(analyzer, read(), io);
+  else for (const note of eachNote(paths, io.cwd, stdin)) yield noteRows(analyzer, note, io);
 }
 
 /**
@@ -163,7 +176,14 @@ export function report(
   io: Io,
   statuses: readonly Status[] | null = null,
   wide = false,
-): number {
+  workers = io.workers ?? 1,
+): number | Promise<number> {
+  if (format === 'json' && workers > 1 && io.workerScript) {
+    const listed = listNotes(paths, io.cwd, io.stdin ?? (() => new Uint8Array(0)));
+    // A thread costs its start (loading this script again): worth it from a few dozen notes on.
+    if (listed.length >= PARALLEL_FROM) return reportJsonParallel(listed, io, statuses, workers, io.workerScript);
+    return reportJsonStream(paths, io, statuses, listed);
+  }
   if (format === 'json') return reportJsonStream(paths, io, statuses);
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
@@ -186,10 +206,15 @@ export function report(
  * as {@link formatJson} of every row, but no note's rows outlive its turn, so
  * the memory of a report over any number of notes stays that of one note.
  */
-function reportJsonStream(paths: readonly string[], io: Io, statuses: readonly Status[] | null): number {
+function reportJsonStream(
+  paths: readonly string[],
+  io: Io,
+  statuses: readonly Status[] | null,
+  listed?: readonly (Note | ListedNote)[],
+): number {
   let error = false;
   let first = true;
-  for (const rows of eachNoteRows(paths, io)) {
+  for (const rows of eachNoteRows(paths, io, listed)) {
     if (!error && hasError(rows)) error = true;
     // One write per note: a write per entry costs more in the stream than the entries' own formatting.
     let chunk = '';
@@ -237,9 +262,37 @@ function parseStatuses(value: string): Status[] {
   return words as Status[];
 }
 
-/** Parses the arguments (without `node` and the script) and runs; returns the exit status. */
+/** Parses `--workers 4`: a whole number from 1 to 256. */
+function parseCount(value: string): number {
+  const n = Number(value);
+  if (!Number.isInteger(n) || n < 1 || n > 256) throw new InvalidArgumentError('a whole number from 1 to 256');
+  return n;
+}
+
+/**
+ * Parses the arguments (without `node` and the script) and runs on this thread only; returns the exit status.
+ * The tests call this; the command calls {@link start}.
+ */
 export function main(argv: readonly string[], io: Io): number {
-  let status = 0;
+  const { out, err, cwd, columns, stdin } = io;
+  const status = start(argv, {
+    out,
+    err,
+    cwd,
+    ...(columns !== undefined ? { columns } : {}),
+    ...(stdin ? { stdin } : {}),
+  });
+  // Without a worker script nothing runs on another thread, so the status is known now.
+  if (typeof status !== 'number') throw new Error('boltzmark: a report on worker threads needs a worker script');
+  return status;
+}
+
+/**
+ * Parses the arguments (without `node` and the script) and runs; returns the exit status, or a promise of it when
+ * the JSON report runs on worker threads.
+ */
+export function start(argv: readonly string[], io: Io): number | Promise<number> {
+  let status: number | Promise<number> = 0;
   const program = new Command()
     .name('boltzmark')
     .description(
@@ -271,8 +324,14 @@ export function main(argv: readonly string[], io: Io): number {
       ).argParser(parseStatuses),
     )
     .option('-w, --wide', 'the table with every column, however wide (default: fit the terminal, or 100 columns)')
-    .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean }) => {
-      status = report(paths, opts.format, io, opts.status ?? null, opts.wide === true);
+    .addOption(
+      new Option(
+        '--workers <count>',
+        'threads that analyse notes for the JSON report (default: one per core)',
+      ).argParser(parseCount),
+    )
+    .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean; workers?: number }) => {
+      status = report(paths, opts.format, io, opts.status ?? null, opts.wide === true, opts.workers ?? io.workers ?? 1);
     });
   program
     .command('check')
