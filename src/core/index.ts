@@ -16,6 +16,7 @@ export {
 export type { TextChange } from './analyzer/rescanPlan';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
+export { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from './block/externals';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
 export { findFencedBlocks, scanFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {

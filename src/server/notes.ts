@@ -13,7 +13,14 @@
  * ({@link Notes.around}). Once every block is cached the whole analysis
  * takes the cached results, and from then on edits are incremental.
  */
-import { Analyzer, type AnalyzerLimits, type FencedBlock } from '../core';
+import {
+  Analyzer,
+  dependenciesHold,
+  type AnalyzerLimits,
+  type Dependency,
+  type Externals,
+  type FencedBlock,
+} from '../core';
 import type { AnalysisStats } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
 import type { NoteDocument } from './noteDocument';
@@ -71,8 +78,17 @@ const yieldToRequests = (): Promise<void> => new Promise((resolve) => void later
 
 /** Cache of note analyses, keyed by URI, version and analysis settings. */
 export class Notes {
+  /**
+   * @param externalsFor the sources a note's blocks may read values from by reference (spectrum files, other
+   *   runs; see src/server/externals.ts), or null where there are none
+   */
+  constructor(private readonly externalsFor: (uri: string) => Externals | null = () => null) {}
+
   private readonly analyzers = new Map<string, Analyzer>();
-  private readonly states = new Map<string, { state: NoteState; key: string }>();
+  private readonly states = new Map<
+    string,
+    { state: NoteState; key: string; deps: readonly Dependency[]; externals: Externals | null }
+  >();
   private readonly stats = new Map<string, AnalysisStats>();
   private readonly runs = new Map<string, number>();
   private readonly warming = new Map<string, Warming>();
@@ -81,15 +97,22 @@ export class Notes {
   get(doc: NoteDocument, settings: Settings): NoteState {
     const key = analysisKey(settings);
     const known = this.states.get(doc.uri);
-    if (known && known.state.version === doc.version && known.key === key) return known.state;
+    if (
+      known &&
+      known.state.version === doc.version &&
+      known.key === key &&
+      dependenciesHold(known.deps, doc.uri, known.externals)
+    )
+      return known.state;
     const text = doc.getText();
+    const externals = this.externalsFor(doc.uri);
     const change = known && known.key === key ? doc.change() : undefined;
-    const report = this.analyzer(key, settings).analyzeText(text, change);
+    const report = this.analyzer(key, settings).analyzeText(text, externals, change);
     doc.analysed(text);
     const state: NoteState = { uri: doc.uri, version: doc.version, text, lines: doc.lines, report };
     const runs = (this.runs.get(doc.uri) ?? 0) + 1;
     this.runs.set(doc.uri, runs);
-    this.states.set(doc.uri, { state, key });
+    this.states.set(doc.uri, { state, key, deps: allDependencies(report.blocks), externals });
     this.stats.set(doc.uri, { version: doc.version, blocks: report.blocks.length, runs, ...report.stats });
     return state;
   }
@@ -127,7 +150,7 @@ export class Notes {
     }
     const near: FencedBlock[] = [];
     for (let i = lo; i < w.blocks.length && w.blocks[i]!.openStart <= to; i++) near.push(w.blocks[i]!);
-    const blocks = this.analyzer(w.key, settings).reportsOf(near);
+    const blocks = this.analyzer(w.key, settings).reportsOf(near, this.externalsFor(doc.uri));
     return {
       uri: doc.uri,
       version: doc.version,
@@ -151,7 +174,8 @@ export class Notes {
       let i = 0;
       while (i < blocks.length) {
         const until = performance.now() + SLICE_MS;
-        while (i < blocks.length && performance.now() < until) analyzer.warm(blocks[i++]!.body);
+        const externals = this.externalsFor(doc.uri);
+        while (i < blocks.length && performance.now() < until) analyzer.warm(blocks[i++]!.body, externals);
         await yieldToRequests();
         // A newer version (or other settings) took over: it has slices of its own, and the cache keeps what was read.
         const now = this.warming.get(doc.uri);
@@ -188,4 +212,11 @@ export class Notes {
     }
     return a;
   }
+}
+
+/** Every dependency of a note's blocks, each key once (most notes have none). */
+function allDependencies(blocks: readonly { readonly deps: readonly Dependency[] }[]): readonly Dependency[] {
+  const seen = new Map<string, Dependency>();
+  for (const b of blocks) for (const d of b.deps) if (!seen.has(d.key)) seen.set(d.key, d);
+  return [...seen.values()];
 }

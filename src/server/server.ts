@@ -3,6 +3,7 @@
  * find the note, return empty when it is unknown, stop when cancelled,
  * delegate to the feature, return. No logic lives here.
  */
+import { noteExternals, type ExternalPart } from './externals';
 import {
   CodeActionKind,
   DidChangeConfigurationNotification,
@@ -46,7 +47,9 @@ export function startServer(connection: Connection): void {
   console.error = connection.console.error.bind(connection.console);
 
   const documents = new TextDocuments<NoteDocument>(noteDocuments);
-  const notes = new Notes();
+  // The sources values by reference come from (spectrum files, other runs); each adds its part.
+  const externalParts: ExternalPart[] = [];
+  const notes = new Notes((uri) => (externalParts.length > 0 ? noteExternals(uri, externalParts) : null));
   const pushes = new Debouncer(PUSH_DELAY_MS);
   let caps: ClientCaps = clientCaps(undefined);
   const log = (message: string): void => connection.console.warn(message);

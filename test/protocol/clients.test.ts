@@ -1,30 +1,13 @@
 import { strict as assert } from 'node:assert';
+import { LAB_NOTE_LINES, LAB_NOTE_URI } from './labNote';
 import { startLsp, type LspSession, type StartOptions } from './lspClient';
 
 // Minimal language clients, each missing something an editor may lack, as
 // other editors than VS Code are: the server must serve every one of them
 // (hover, inlay hints, diagnostics, completion) and must never die of a
 // request the client does not answer.
-const NOTE = [
-  '# Lab note', // 0
-  '',
-  '```levels', // 2
-  'id: cell-B run 7', // 3
-  'system: 13C', // 4
-  'field: 7.05 T', // 5
-  'lattice: 1.4 K', // 6
-  'polarization: 0.312 ± 0.010', // 7
-  '```', // 8
-  '',
-  '```levels', // 10
-  'id: hurried', // 11
-  'system: 1H', // 12
-  'field: 9.4 MT', // 13
-  'polarization: 0.001', // 14
-  '```', // 15
-  '',
-].join('\n');
-const URI = 'file:///notes/lab.md';
+const NOTE = LAB_NOTE_LINES.join('\n');
+const URI = LAB_NOTE_URI;
 
 /** Everything optional that LSP 3.17 lets a client declare and that the server might use. */
 const EVERY_CAPABILITY = {

@@ -1,27 +1,12 @@
 import { strict as assert } from 'node:assert';
+import { LAB_NOTE_LINES, LAB_NOTE_URI } from './labNote';
 import { startLsp, type LspSession } from './lspClient';
 import { AnalysisStatsRequest, ResultsMarkdownRequest } from '../../src/shared/protocol';
 
 // These tests spawn the bundled server (dist/server.js, built by `npm test`)
 // over stdio and speak LSP to it with vscode-jsonrpc, as another editor would.
 const NOTE = [
-  '# Lab note', // 0
-  '',
-  '```levels', // 2
-  'id: cell-B run 7', // 3
-  'system: 13C', // 4
-  'field: 7.05 T', // 5
-  'lattice: 1.4 K', // 6
-  'polarization: 0.312 ± 0.010', // 7
-  '```', // 8
-  '',
-  '```levels', // 10
-  'id: hurried', // 11
-  'system: 1H', // 12
-  'field: 9.4 MT', // 13
-  'polarization: 0.001', // 14
-  '```', // 15
-  '',
+  ...LAB_NOTE_LINES,
   '```levels', // 17
   'id: flipped', // 18
   'gap: 10 K', // 19
@@ -29,7 +14,7 @@ const NOTE = [
   '```', // 21
   '',
 ].join('\n');
-const URI = 'file:///notes/lab.md';
+const URI = LAB_NOTE_URI;
 
 type Diag = {
   range: { start: { line: number; character: number }; end: { line: number; character: number } };

@@ -7,6 +7,7 @@ import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from '../anal
 import type { BlockResults } from '../analysis/results';
 import type { BlockInput, BlockMeta } from '../block/input';
 import { interpretBody } from '../block/interpret';
+import { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from '../block/externals';
 import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory, type TextChange } from './rescanPlan';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
@@ -61,6 +62,8 @@ export interface BlockReport {
   readonly status: Status;
   /** Every problem of the block, sorted by position, with note offsets. */
   readonly problems: readonly Problem[];
+  /** What the block took from outside its text (spectrum files, other runs); empty for most blocks. */
+  readonly deps: readonly Dependency[];
   /** Maps a body-relative span (as in `meta` and `results`) to note offsets. */
   toNote(span: Span): Span;
 }
@@ -86,6 +89,9 @@ interface Cached {
   readonly results: BlockResults | null;
   /** Body-relative problems. */
   readonly problems: readonly Problem[];
+  /** What the analysis read from outside the block, and for which note (null when nothing was read). */
+  readonly deps: readonly Dependency[];
+  readonly readFor: string | null;
 }
 
 /** A fence as remembered between analyses. */
@@ -121,10 +127,17 @@ export class Analyzer {
    * limits. Never throws. The result is the same as a fresh Analyzer's; only
    * the work differs: unchanged blocks come from the cache, and a note
    * analysed recently is scanned again only from its last fence before the
-   * change to its first fence after it. A host that knows where the note
-   * changed passes it as `change`, and the two versions are not compared.
+   * change to its first fence after it.
+   *
+   * `externals` are the note's sources for values given by reference
+   * (block/externals.ts). A block that read from them is reused only while
+   * what it read is unchanged, so calling this again with the same text
+   * after a referenced file or run changed reads exactly those blocks again.
+   *
+   * A host that knows where the note changed since its last analysis passes
+   * it as `change`, and the two versions are not compared.
    */
-  analyzeText(text: string, change?: TextChange): DocumentReport {
+  analyzeText(text: string, externals: Externals | null = null, change?: TextChange): DocumentReport {
     const { maxBlocks, maxBodyChars } = this.options.limits;
     const generation = ++this.generation;
     const reuse = planReuse(this.notes, text, change);
@@ -133,8 +146,11 @@ export class Analyzer {
     let analysed = 0;
     let bodyChars = 0;
     let bounded: Bounded | null = null;
+    // A remembered fence holds while what its block read from outside is unchanged.
+    const stillHolds = (f: Fence): boolean => !f.entry || dependenciesHold(f.entry.deps, f.entry.readFor, externals);
     // Takes one fence into the analysis; false when a bound stops it there (our blocks only).
-    const admit = (f: Fence): boolean => {
+    const admit = (given: Fence): boolean => {
+      const f = stillHolds(given) ? given : this.reread(given, externals, () => analysed++);
       if (f.report !== null) {
         bodyChars += f.report.block.body.length;
         if (blocks.length >= maxBlocks || bodyChars > maxBodyChars) {
@@ -176,9 +192,9 @@ export class Analyzer {
         // made before the lookup, so that its hash, computed once by the lookup, serves the insertion too.
         const body = ownCopy(block.body);
         let entry = this.cache.get(body);
-        if (!entry) {
+        if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
           analysed++;
-          entry = this.analyseBody(body);
+          entry = this.analyseBody(body, externals);
           this.cache.set(body, entry);
         }
         open = admit({ openStart: block.openStart, openLine: block.openLine, report: report(block, entry), entry });
@@ -195,12 +211,14 @@ export class Analyzer {
    * Reads one block body into the cache unless it is there, so that a later
    * analysis of its note finds it: a host warms the cache in slices of a large
    * note, between requests, before the note's first whole analysis. Returns
-   * whether the body was read (false: it was cached).
+   * whether the body was read (false: it was cached, and what it read from
+   * `externals` still holds).
    */
-  warm(body: string): boolean {
-    if (this.cache.has(body)) return false;
+  warm(body: string, externals: Externals | null = null): boolean {
+    const known = this.cache.get(body);
+    if (known && dependenciesHold(known.deps, known.readFor, externals)) return false;
     const own = ownCopy(body);
-    this.cache.set(own, this.analyseBody(own));
+    this.cache.set(own, this.analyseBody(own, externals));
     if (this.cache.size > this.options.cacheSize) this.evict();
     return true;
   }
@@ -210,17 +228,32 @@ export class Analyzer {
    * each read now unless cached: what a host needs to answer about a few
    * blocks of a note whose whole analysis is not done yet.
    */
-  reportsOf(blocks: readonly FencedBlock[]): BlockReport[] {
+  reportsOf(blocks: readonly FencedBlock[], externals: Externals | null = null): BlockReport[] {
     return blocks.map((b) => {
       let entry = this.cache.get(b.body);
-      if (!entry) {
+      if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
         const own = ownCopy(b.body);
-        entry = this.analyseBody(own);
+        entry = this.analyseBody(own, externals);
         this.cache.set(own, entry);
       }
       entry.used = this.generation;
       return report(b, entry);
     });
+  }
+
+  /**
+   * A remembered block whose outside inputs changed, read again at the same place (the cache entry too,
+   * unless the cache already holds a reading that still holds).
+   */
+  private reread(f: Fence, externals: Externals | null, counted: () => void): Fence {
+    const body = f.entry!.body;
+    let entry = this.cache.get(body);
+    if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
+      counted();
+      entry = this.analyseBody(body, externals);
+      this.cache.set(body, entry);
+    }
+    return { openStart: f.openStart, openLine: f.openLine, report: report(f.report!.block, entry), entry };
   }
 
   /** Keeps the note just analysed in place of the version it was read from (or of the oldest note). */
@@ -242,14 +275,16 @@ export class Analyzer {
   }
 
   /** Reads and analyses one block body; never throws (an internal failure becomes a problem). */
-  analyseBody(body: string): Cached {
+  analyseBody(body: string, externals: Externals | null = null): Cached {
     try {
-      const interp = interpretBody(body);
+      const interp = interpretBody(body, externals);
       const results = interp.input ? analyse(interp.input, this.options) : null;
       const all = [...interp.problems, ...(results?.problems ?? [])];
       const problems =
         all.length > 1 ? all.sort((a, b) => a.span.start - b.span.start) : all.length === 1 ? all : NO_PROBLEMS;
-      return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems };
+      const deps = interp.deps;
+      const readFor = deps.length > 0 && externals ? externals.note : null;
+      return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems, deps, readFor };
     } catch (err) {
       const problem: Problem = {
         severity: 'error',
@@ -264,6 +299,8 @@ export class Analyzer {
         input: null,
         results: null,
         problems: [problem],
+        deps: NO_DEPENDENCIES,
+        readFor: null,
       };
     }
   }
@@ -352,6 +389,7 @@ function report(found: FencedBlock, c: Cached): BlockReport {
     results: hasError ? null : c.results,
     status,
     problems,
+    deps: c.deps,
     toNote: reportToNote,
   };
 }

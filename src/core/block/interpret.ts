@@ -4,6 +4,7 @@
  * is null when any error was found, so the analysis only sees clean data.
  */
 import type { Problem, Span } from '../types';
+import { NO_DEPENDENCIES, type Dependency, type Externals } from './externals';
 import { readSpinForm } from './formSpin';
 import { readLevelsForm } from './formLevels';
 import { readTransitionForm } from './formTransition';
@@ -31,6 +32,8 @@ export interface Interpretation {
   readonly meta: BlockMeta;
   readonly input: BlockInput | null;
   readonly problems: Problem[];
+  /** What the block took from outside its text (spectrum files, other runs), with the stamps read. */
+  readonly deps: readonly Dependency[];
 }
 
 /** Each schema key name, to keep that string rather than the parser's copy. */
@@ -47,8 +50,12 @@ const FORM_KEYS: readonly [string, BlockForm][] = [
   ['lines', 'lines'],
 ];
 
-/** Reads one block body (the text between the fences). Never throws. */
-export function interpretBody(body: string): Interpretation {
+/**
+ * Reads one block body (the text between the fences). Never throws. Values
+ * given by reference are taken from `externals` (see block/externals.ts);
+ * without it, such a reference is reported as one that cannot be followed.
+ */
+export function interpretBody(body: string, externals: Externals | null = null): Interpretation {
   const problems: Problem[] = [];
   const emptyMeta: BlockMeta = { id: null, idSpan: null, keys: new Map(), date: null };
   if (!/\S/.test(body)) {
@@ -58,13 +65,13 @@ export function interpretBody(body: string): Interpretation {
       message: 'The block is empty: describe the levels with `levels:`, `system:` + `field:`, or `gap:`.',
       span: firstLine(body),
     });
-    return { meta: emptyMeta, input: null, problems };
+    return { meta: emptyMeta, input: null, problems, deps: NO_DEPENDENCIES };
   }
   const parsed = parseBody(body);
   // One by one: a spread of a few hundred thousand problems (repeated keys) would overflow the stack.
   for (const p of parsed.problems) problems.push(p);
   const doc = parsed.doc;
-  if (!doc) return { meta: emptyMeta, input: null, problems };
+  if (!doc) return { meta: emptyMeta, input: null, problems, deps: NO_DEPENDENCIES };
   if (!isMap(doc.contents)) {
     const span = spanOf(doc.contents) ?? firstLine(body);
     problems.push({
@@ -73,9 +80,10 @@ export function interpretBody(body: string): Interpretation {
       message: 'The block must be a YAML mapping of `key: value` lines.',
       span: insideBody(nonEmpty(span), body),
     });
-    return { meta: emptyMeta, input: null, problems };
+    return { meta: emptyMeta, input: null, problems, deps: NO_DEPENDENCIES };
   }
-  const ctx: ReadContext = { body, problems };
+  const deps: Dependency[] = [];
+  const ctx: ReadContext = { body, problems, externals, deps };
   const all = entries(doc.contents);
   const byKey = new Map<string, Entry>();
   // Kept for as long as the block is cached; the spans are found again when first asked for.
@@ -164,7 +172,7 @@ export function interpretBody(body: string): Interpretation {
     }
   }
   if (countErrors(problems) > 0) input = null;
-  return { meta, input, problems };
+  return { meta, input, problems, deps: deps.length > 0 ? deps : NO_DEPENDENCIES };
 }
 
 /** The body's first line, where problems of the block as a whole point (at least one character). */

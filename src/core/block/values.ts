@@ -8,11 +8,21 @@ import { isNullScalar, isScalar, isSeq, spanOf, deref } from './yamlTree';
 import { convert, parseQuantity, type Dimension, type QuantityProblem } from '../quantities/units';
 import type { Problem, Replacement, Severity, Span } from '../types';
 import type { UnitChoice } from './unitChoice';
+import type { Dependency, Externals } from './externals';
 
 /** What a block reader carries while it walks the YAML. */
 export interface ReadContext {
   readonly body: string;
   readonly problems: Problem[];
+  /** The host's sources for values given by reference (spectrum files, other runs); absent where there are none. */
+  readonly externals?: Externals | null;
+  /** What the reader took from outside the block, for the analyzer's cache (see block/externals.ts). */
+  readonly deps?: Dependency[];
+}
+
+/** Records that the block read `key` from outside, as it was at `stamp`. */
+export function depend(ctx: ReadContext, key: string, stamp: string | null): void {
+  if (ctx.deps && !ctx.deps.some((d) => d.key === key)) ctx.deps.push({ key, stamp });
 }
 
 /** A number read from the block, in canonical units, with where it was written. */

@@ -38,7 +38,7 @@ describe('Analyzer: the change a host passes', () => {
             const inserted = ins.join('');
             const oldLength = text.length;
             text = text.slice(0, start) + inserted + text.slice(end);
-            const hinted = a.analyzeText(text, { previous, prefix: start, suffix: oldLength - end });
+            const hinted = a.analyzeText(text, null, { previous, prefix: start, suffix: oldLength - end });
             previous = text;
             assert.deepEqual(summary(hinted), summary(new Analyzer().analyzeText(text)));
           }
@@ -54,7 +54,7 @@ describe('Analyzer: the change a host passes', () => {
     a.analyzeText(text);
     const edited = text.replace('id: run 2', 'id: run 9');
     // A wrong claim about a text never analysed: the analyzer must not trust it.
-    const r = a.analyzeText(edited, { previous: 'something else', prefix: edited.length, suffix: 0 });
+    const r = a.analyzeText(edited, null, { previous: 'something else', prefix: edited.length, suffix: 0 });
     assert.deepEqual(summary(r), summary(new Analyzer().analyzeText(edited)));
   });
 
