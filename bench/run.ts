@@ -13,6 +13,9 @@ import { measureBlockSize } from './blockSize';
 import { measureCore } from './core';
 import { measureCurves } from './curves';
 import { measureLsp } from './lsp';
+import { measureScale } from './scale';
+import { measureCli } from './cli';
+import { measureWorkspace } from './workspace';
 import { measureRunRefs } from './runRefs';
 import { measureSpectra } from './spectra';
 import { measureSpectrumHover } from './spectrumHover';
@@ -146,6 +149,121 @@ async function main(): Promise<number> {
     holds: null,
     data: { ms: lsp.startMs },
   });
+
+  log('language server on notes of 250, 4,000 and 16,000 blocks …');
+  const scale = await measureScale(Math.max(40, 2 * reps));
+  const [small, mid, large] = [scale[0]!, scale[1]!, scale[2]!];
+  for (const x of scale)
+    figures.push({
+      figure: `Edit → fresh diagnostics, ${x.blocks.toLocaleString('en-US')} blocks (${f(x.megabytes)} MB), p50 / p95`,
+      value: `${f(x.edit.p50, 2)} / ${f(x.edit.p95, 2)} ms`,
+      target: '—',
+      holds: null,
+      data: { ...x.edit, blocks: x.blocks },
+    });
+  const editRatio = large.edit.p95 / small.edit.p95;
+  figures.push({
+    figure: `Edit → fresh diagnostics p95, ${large.blocks.toLocaleString('en-US')} ÷ ${small.blocks} blocks`,
+    value: f(editRatio, 2),
+    target: '≤ 2',
+    holds: editRatio <= 2,
+    data: { ratio: editRatio },
+  });
+  figures.push({
+    figure: `Blocks the server analyses in a ${large.blocks.toLocaleString('en-US')}-block note (no cap)`,
+    value: large.servedBlocks.toLocaleString('en-US'),
+    target: `= ${large.blocks.toLocaleString('en-US')}`,
+    holds: large.servedBlocks === large.blocks,
+    data: { blocks: large.servedBlocks },
+  });
+  figures.push({
+    figure: `Open → complete diagnostics, ${large.blocks.toLocaleString('en-US')} blocks (of which the note taken)`,
+    value: `${f(large.openMs)} ms (${f(large.takenMs)} ms)`,
+    target: '—',
+    holds: null,
+    data: { ms: large.openMs, takenMs: large.takenMs },
+  });
+  const hoverBound = 2 * large.warmHoverMs + large.oneBlockMs;
+  figures.push({
+    figure: `First hover after open ÷ (2 × warm hover + one block), ${large.blocks.toLocaleString('en-US')} blocks`,
+    value: `${f(large.firstHoverMs / hoverBound, 2)} (${f(large.firstHoverMs, 2)} ms; warm ${f(large.warmHoverMs, 2)} ms, block ${f(large.oneBlockMs, 3)} ms)`,
+    target: '≤ 1',
+    holds: large.firstHoverMs <= hoverBound,
+    data: {
+      ratio: large.firstHoverMs / hoverBound,
+      firstMs: large.firstHoverMs,
+      warmMs: large.warmHoverMs,
+      blockMs: large.oneBlockMs,
+    },
+  });
+  if (large.peakRssBytes !== null && mid.peakRssBytes !== null) {
+    const memRatio = large.peakRssBytes / mid.peakRssBytes;
+    figures.push({
+      figure: `Server peak memory, ${large.blocks.toLocaleString('en-US')} ÷ ${mid.blocks.toLocaleString('en-US')} blocks`,
+      value: `${f(memRatio, 2)} (${f(large.peakRssBytes / 2 ** 20)} MB ÷ ${f(mid.peakRssBytes / 2 ** 20)} MB)`,
+      target: '≤ 2',
+      holds: memRatio <= 2,
+      data: { ratio: memRatio, largeBytes: large.peakRssBytes, midBytes: mid.peakRssBytes },
+    });
+  }
+  const perBlock = (large.heapBytes - small.heapBytes) / (large.blocks - small.blocks);
+  figures.push({
+    figure: 'Server heap per block (after a full collection, 16,000 − 250 blocks)',
+    value: `${f(perBlock / 1024, 2)} KB`,
+    target: '—',
+    holds: null,
+    data: { bytes: perBlock },
+  });
+
+  log('command line over 1,000 notes of 20 blocks …');
+  const cli = measureCli(3);
+  figures.push({
+    figure: `CLI report --format json ÷ fence-and-parseDocument floor, CPU (${cli.notes} notes × ${cli.blocksPerNote} blocks, fresh processes)`,
+    value: `${f(cli.cpuRatio, 2)} (${f(cli.cliCpuMs)} ms ÷ ${f(cli.floorCpuMs)} ms)`,
+    target: '≤ 1.3',
+    holds: cli.cpuRatio <= 1.3,
+    data: { ratio: cli.cpuRatio, cliCpuMs: cli.cliCpuMs, floorCpuMs: cli.floorCpuMs },
+  });
+  figures.push({
+    figure: 'CLI report (one worker thread per core) ÷ single-threaded floor, wall time',
+    value: `${f(cli.wallRatio, 2)} (${f(cli.cliWallMs)} ms ÷ ${f(cli.floorWallMs)} ms)`,
+    target: '≤ 0.8',
+    holds: cli.wallRatio <= 0.8,
+    data: { ratio: cli.wallRatio, cliWallMs: cli.cliWallMs, floorWallMs: cli.floorWallMs },
+  });
+  if (cli.peakRssSmall !== null && cli.peakRssLarge !== null)
+    figures.push({
+      figure: 'CLI peak memory (one thread), 1,000 ÷ 250 notes',
+      value: `${f(cli.peakRssLarge / cli.peakRssSmall, 2)} (${f(cli.peakRssLarge / 2 ** 20)} MB ÷ ${f(cli.peakRssSmall / 2 ** 20)} MB)`,
+      target: '≤ 1.5 (flat)',
+      holds: cli.peakRssLarge / cli.peakRssSmall <= 1.5,
+      data: { ratio: cli.peakRssLarge / cli.peakRssSmall, largeBytes: cli.peakRssLarge, smallBytes: cli.peakRssSmall },
+    });
+
+  log('run log over a workspace of 10,000 notes (200,000 runs) …');
+  const ws = measureWorkspace(10_000, 20);
+  figures.push({
+    figure: `Run log, ${ws.notes.toLocaleString('en-US')} notes (${ws.runs.toLocaleString('en-US')} runs): first listing / every note read`,
+    value: `${f(ws.firstListingMs)} ms / ${f(ws.allMs / 1000, 1)} s`,
+    target: '—',
+    holds: null,
+    data: { firstListingMs: ws.firstListingMs, allMs: ws.allMs, runs: ws.runs },
+  });
+  figures.push({
+    figure: 'Run log memory (heap after a full collection), per run',
+    value: `${f(ws.heapBytes / 2 ** 20)} MB, ${f(ws.heapBytes / ws.runs / 1024, 2)} KB per run`,
+    target: '—',
+    holds: null,
+    data: { heapBytes: ws.heapBytes, perRun: ws.heapBytes / ws.runs },
+  });
+  figures.push({
+    figure: 'Run log, one changed note: re-read (that note only) / the whole listing grouped again',
+    value: `${f(ws.changedNoteMs, 2)} ms / ${f(ws.relistMs, 1)} ms (reading every note: ${f(ws.allMs / ws.notes, 2)} ms a note)`,
+    target: '—',
+    holds: null,
+    data: { ms: ws.changedNoteMs, relistMs: ws.relistMs, perNoteMs: ws.allMs / ws.notes },
+  });
+
 
   log('language server: edit → hover on a block using a 1 M-point spectrum …');
   const sh = await measureSpectrumHover(1_000_000, Math.max(20, reps));

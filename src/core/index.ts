@@ -13,6 +13,7 @@ export {
   type Bounded,
   type DocumentReport,
 } from './analyzer/analyzer';
+export type { TextChange } from './analyzer/rescanPlan';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export {
@@ -73,7 +74,7 @@ export {
 } from './present/spectraReport';
 export { SPECTRUM_REF_KEYS } from './block/spectrumRef';
 export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from './block/schema';
-export { findFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
+export { findFencedBlocks, scanFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {
   isNotebookPath,
   notebookCells,

@@ -70,7 +70,7 @@ export function refreshAfter(
   connection: Connection,
   caps: ClientCaps,
   change: SettingsChange,
-  documents: TextDocuments<TextDocument>,
+  documents: Pick<TextDocuments<TextDocument>, 'all'>,
   push: (uri: string) => void,
 ): void {
   if (change.analysis) {

@@ -20,7 +20,6 @@ import {
   type InitializeParams,
   type InitializeResult,
 } from 'vscode-languageserver';
-import { TextDocument } from 'vscode-languageserver-textdocument';
 import { version } from '../../package.json';
 import { background, clientCaps, refreshAfter, type ClientCaps } from './clientCaps';
 import { noteDiagnostics } from './diagnostics';
@@ -46,6 +45,7 @@ import {
   runRename,
   runSymbols,
 } from './features/runRefs';
+import { noteDocuments, type NoteDocument } from './noteDocument';
 import { memoryStats } from './heapStats';
 import {
   AnalysisStatsRequest,
@@ -96,7 +96,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
   console.warn = connection.console.warn.bind(connection.console);
   console.error = connection.console.error.bind(connection.console);
 
-  const documents = new TextDocuments(TextDocument);
+  const documents = new TextDocuments<NoteDocument>(noteDocuments);
   // The sources values by reference come from (spectrum files, other runs); each adds its part.
   const externalParts: ExternalPart[] = [];
   const notes = new Notes((uri) => (externalParts.length > 0 ? noteExternals(uri, externalParts) : null));
@@ -124,23 +124,38 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
   // Closed notes that refer to a changed run get their reference diagnostics pushed (runs/closedReferrers.ts).
   const closedReferrers = new ClosedReferrers(runs, (uri) => noteExternals(uri, externalParts));
 
-  /** The note's analysis and settings, once its folder's settings are known; null for an unknown note. */
-  const note = async (uri: string): Promise<{ state: NoteState; settings: Settings } | null> => {
+  /**
+   * The note's analysis and settings, once its folder's settings are known; null for an unknown note. With `near`
+   * (a range of lines), a note still being read in slices answers at once with the blocks in that range only;
+   * without, the answer waits for the whole note's analysis.
+   */
+  const note = async (
+    uri: string,
+    near?: { startLine: number; endLine: number },
+  ): Promise<{ state: NoteState; settings: Settings } | null> => {
     if (!documents.get(uri)) return null;
     const s = await settings.get(uri);
-    const doc = documents.get(uri); // the latest version: an edit may have come in while the settings did
+    let doc = documents.get(uri); // the latest version: an edit may have come in while the settings did
+    if (doc && near) {
+      const from = doc.lines.lineStart(near.startLine);
+      const to = doc.lines.lineEnd(near.endLine);
+      return { state: notes.around(doc, s, from, to), settings: s };
+    }
+    if (doc) await notes.prepare(doc, s);
+    doc = documents.get(uri); // and again after the slices
     return doc ? { state: notes.get(doc, s), settings: s } : null;
   };
-  /** Runs a feature for a known, not cancelled request; empty otherwise. */
+  /** Runs a feature for a known, not cancelled request; empty otherwise. `near`: see `note`. */
   const serve = async <T>(
     uri: string,
     token: CancellationToken | undefined,
     empty: T,
     fn: (s: NoteState, settings: Settings) => T,
+    near?: { startLine: number; endLine: number },
   ): Promise<T> => {
     if (token?.isCancellationRequested) return empty;
     try {
-      const n = await note(uri);
+      const n = await note(uri, near);
       if (!n || token?.isCancellationRequested) return empty;
       return fn(n.state, n.settings);
     } catch (err) {
@@ -280,18 +295,26 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     background(connection, 'reading the changed settings', reload(section));
   });
 
-  documents.onDidChangeContent((e) => {
-    runs.edited(e.document.uri, e.document.getText());
-    if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
-  });
+  // A note is read from the moment it opens, in slices that yield to requests (notes.ts), not at its first request.
   documents.onDidOpen((e) => {
+    const uri = e.document.uri;
+    e.document.fences(); // found now, while the note is taken, so that a first request finds its block at once
+    const read = settings.get(uri).then((s) => {
+      const doc = documents.get(uri);
+      return doc ? notes.prepare(doc, s) : undefined;
+    });
+    background(connection, 'reading the opened note', read);
     // Its own diagnostics take over from the reference diagnostics sent while it was closed.
-    if (closedReferrers.opened(e.document.uri))
+    if (closedReferrers.opened(uri))
       background(
         connection,
         'taking back the diagnostics of a closed note',
-        connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] }),
+        connection.sendDiagnostics({ uri, diagnostics: [] }),
       );
+  });
+  documents.onDidChangeContent((e) => {
+    runs.edited(e.document.uri, e.document.getText());
+    if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
   documents.onDidClose((e) => {
     pushes.cancel(e.document.uri);
@@ -313,6 +336,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     kind: DocumentDiagnosticReportKind.Full,
     items: await serve(p.textDocument.uri, token, [], noteDiagnostics),
   }));
+  const lineOf = (p: { line: number }) => ({ startLine: p.line, endLine: p.line });
   // One handler for every watched file (a second registration would replace the first): spectra and notes.
   connection.onDidChangeWatchedFiles((p) => {
     for (const c of p.changes) {
@@ -331,6 +355,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
         runHover(runs, s, p.position, displayOptions(set)) ??
         spectrumHover(s, p.position, set) ??
         hover(s, p.position, set),
+      lineOf(p.position),
     ),
   );
   connection.onDefinition((p, token) =>
@@ -355,7 +380,10 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     serve(p.textDocument.uri, token, [], (s) => [...runLinks(runs, s), ...spectrumLinks(s, folders)]),
   );
   connection.languages.inlayHint.on((p, token) =>
-    serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set)),
+    serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set), {
+      startLine: p.range.start.line,
+      endLine: p.range.end.line,
+    }),
   );
   connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
   connection.onCompletion(async (p, token) => {

@@ -8,7 +8,7 @@ import type { BlockResults } from '../analysis/results';
 import type { BlockInput, BlockMeta } from '../block/input';
 import { interpretBody } from '../block/interpret';
 import { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from '../block/externals';
-import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory } from './rescanPlan';
+import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory, type TextChange } from './rescanPlan';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
 
@@ -133,11 +133,14 @@ export class Analyzer {
    * (block/externals.ts). A block that read from them is reused only while
    * what it read is unchanged, so calling this again with the same text
    * after a referenced file or run changed reads exactly those blocks again.
+   *
+   * A host that knows where the note changed since its last analysis passes
+   * it as `change`, and the two versions are not compared.
    */
-  analyzeText(text: string, externals: Externals | null = null): DocumentReport {
+  analyzeText(text: string, externals: Externals | null = null, change?: TextChange): DocumentReport {
     const { maxBlocks, maxBodyChars } = this.options.limits;
     const generation = ++this.generation;
-    const reuse = planReuse(this.notes, text);
+    const reuse = planReuse(this.notes, text, change);
     const fences: Fence[] = [];
     const blocks: BlockReport[] = [];
     let analysed = 0;
@@ -202,6 +205,40 @@ export class Analyzer {
     if (this.cache.size > this.options.cacheSize) this.evict();
     const problems = bounded ? [boundedProblem(text, bounded, this.options.limits)] : [];
     return { blocks, stats: { analysed, reused: blocks.length - analysed }, bounded, problems };
+  }
+
+  /**
+   * Reads one block body into the cache unless it is there, so that a later
+   * analysis of its note finds it: a host warms the cache in slices of a large
+   * note, between requests, before the note's first whole analysis. Returns
+   * whether the body was read (false: it was cached, and what it read from
+   * `externals` still holds).
+   */
+  warm(body: string, externals: Externals | null = null): boolean {
+    const known = this.cache.get(body);
+    if (known && dependenciesHold(known.deps, known.readFor, externals)) return false;
+    const own = ownCopy(body);
+    this.cache.set(own, this.analyseBody(own, externals));
+    if (this.cache.size > this.options.cacheSize) this.evict();
+    return true;
+  }
+
+  /**
+   * The reports of some blocks of a note (found by the fence scan, ours only),
+   * each read now unless cached: what a host needs to answer about a few
+   * blocks of a note whose whole analysis is not done yet.
+   */
+  reportsOf(blocks: readonly FencedBlock[], externals: Externals | null = null): BlockReport[] {
+    return blocks.map((b) => {
+      let entry = this.cache.get(b.body);
+      if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
+        const own = ownCopy(b.body);
+        entry = this.analyseBody(own, externals);
+        this.cache.set(own, entry);
+      }
+      entry.used = this.generation;
+      return report(b, entry);
+    });
   }
 
   /**

@@ -46,16 +46,44 @@ export interface Reuse<R, E> {
   readonly same: boolean;
 }
 
-/** The remembered note that shares the most text with `text`, and how much of its scan is still good; null when none shares anything. */
-export function planReuse<R, E>(memories: readonly NoteMemory<R, E>[], text: string): Reuse<R, E> | null {
+/**
+ * What a host that applied the edits itself knows about a new text: it
+ * agrees with `previous` (the text of an earlier analysis) in at least its
+ * first `prefix` and its last `suffix` characters. Smaller numbers than the
+ * true ones are safe (more is read again); larger ones are not.
+ */
+export interface TextChange {
+  readonly previous: string;
+  readonly prefix: number;
+  readonly suffix: number;
+}
+
+/**
+ * The remembered note that shares the most text with `text`, and how much of its scan is still good; null when none
+ * shares anything. With a `change` whose previous text is remembered, the shared ends are taken from it and the texts
+ * are not compared at all, so the plan costs nothing that grows with the note.
+ */
+export function planReuse<R, E>(
+  memories: readonly NoteMemory<R, E>[],
+  text: string,
+  change?: TextChange,
+): Reuse<R, E> | null {
   let best: Reuse<R, E> | null = null;
   let bestShared = 0;
-  for (const memory of memories) {
+  const known = change
+    ? memories.find((m) => m.text.length === change.previous.length && m.text === change.previous)
+    : undefined;
+  for (const memory of known ? [known] : memories) {
     const old = memory.text;
-    const prefix = commonPrefix(old, text);
+    const hinted = memory === known && change !== undefined;
+    const prefix = hinted ? Math.max(0, Math.min(change.prefix, old.length, text.length)) : commonPrefix(old, text);
     // An unchanged note is taken over whole, unless a bound stopped its analysis (then the scan resumes at its last fence).
     const same = prefix === old.length && prefix === text.length && memory.complete;
-    const suffix = same ? 0 : commonSuffix(old, text, prefix);
+    const suffix = same
+      ? 0
+      : hinted
+        ? Math.max(0, Math.min(change.suffix, old.length - prefix, text.length - prefix))
+        : commonSuffix(old, text, prefix);
     if (prefix + suffix <= bestShared && !same) continue;
     // The last fence that opens strictly before the first changed character: its line, and the one
     // before it, read the same in both versions, so the old scan was at a line start outside any block.

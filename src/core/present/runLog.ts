@@ -193,10 +193,24 @@ export class RunLog {
 
   /** All runs (optionally only some statuses), by note name then line. */
   entries(statuses: readonly Status[] | null = null): RunEntry[] {
-    const all = [...this.notes.values()].flat().filter((e) => !statuses || statuses.includes(e.status));
-    return all.sort((a, b) =>
-      a.name < b.name ? -1 : a.name > b.name ? 1 : (a.cell ?? 0) - (b.cell ?? 0) || a.line - b.line,
-    );
+    // Each note's runs are in cell then line order already (the analysis returns them so): only the notes are
+    // sorted, by name, which costs the number of notes, not of runs. Notes of one name (two folders) are merged.
+    const byName = new Map<string, (readonly RunEntry[])[]>();
+    for (const runs of this.notes.values()) {
+      const name = runs[0]!.name;
+      const list = byName.get(name);
+      if (list) list.push(runs);
+      else byName.set(name, [runs]);
+    }
+    const names = [...byName.keys()].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+    const out: RunEntry[] = [];
+    for (const name of names) {
+      const lists = byName.get(name)!;
+      const runs =
+        lists.length === 1 ? lists[0]! : lists.flat().sort((a, b) => (a.cell ?? 0) - (b.cell ?? 0) || a.line - b.line);
+      for (const e of runs) if (!statuses || statuses.includes(e.status)) out.push(e);
+    }
+    return out;
   }
 
   /** Runs grouped by note, or by `date` (runs without a date last, under "no date"). */
@@ -204,7 +218,9 @@ export class RunLog {
     const map = new Map<string, RunEntry[]>();
     for (const e of this.entries(statuses)) {
       const key = by === 'file' ? e.name : (e.date ?? '');
-      map.set(key, [...(map.get(key) ?? []), e]);
+      const group = map.get(key);
+      if (group) group.push(e);
+      else map.set(key, [e]);
     }
     const keys = [...map.keys()].sort((a, b) =>
       by === 'date' ? (a === '' ? 1 : b === '' ? -1 : a < b ? 1 : a > b ? -1 : 0) : a < b ? -1 : 1,
