@@ -42,7 +42,14 @@ export {
 export { splitReference, resolveNotePath, isInside } from './runs/paths';
 export { EXTRAPOLATE_KEYS } from './block/extrapolate';
 export { runLabel, runPlaceText, thermalReferenceText, polarizationAtText } from './present/runSummary';
-export { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from './block/externals';
+export {
+  dependenciesHold,
+  mayHaveChanged,
+  NO_DEPENDENCIES,
+  type Dependency,
+  type Externals,
+  type KeyChanges,
+} from './block/externals';
 export {
   SPECTRUM_MAX_BYTES,
   type BaselineKind,
@@ -83,6 +90,7 @@ export {
   type NotebookProblem,
 } from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
+export { NoteText, type TextLines, type TextSource } from './text/noteText';
 export {
   notebookInvalidEntry,
   notUtf8Diagnostic,

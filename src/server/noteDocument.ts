@@ -6,20 +6,19 @@
  * `TextDocuments`), whose update rebuilds its line table and whose text
  * the server would then have to index again.
  *
- * The text after an edit is `before + inserted + after`, which the engine
- * keeps as a rope until something reads it character by character; the line
- * index is edited in place of being rebuilt (core/text/lineIndex.ts).
+ * The text is kept in pieces with their line starts (core/text/noteText.ts):
+ * an edit rebuilds the few pieces it touched, and the whole text is made as
+ * one string only when something asks for it.
  */
 import type { TextDocument, TextDocumentContentChangeEvent } from 'vscode-languageserver-textdocument';
 import type { Range } from 'vscode-languageserver';
-import { LineIndex, scanFencedBlocks, type FencedBlock, type TextChange } from '../core';
+import { NoteText, scanFencedBlocks, type FencedBlock, type TextChange } from '../core';
 
 /** An open note. */
 export class NoteDocument implements TextDocument {
-  private text: string;
-  private index: LineIndex;
-  /** The text of the last analysis and how much of it the current text still shares at each end; null: unknown. */
-  private since: { previous: string; prefix: number; suffix: number } | null = null;
+  private text: NoteText;
+  /** The latest edits, oldest first: the text each was made to and the stretch it left alone at each end. */
+  private edits: { readonly before: NoteText; readonly prefix: number; readonly suffix: number }[] = [];
 
   constructor(
     readonly uri: string,
@@ -27,8 +26,7 @@ export class NoteDocument implements TextDocument {
     public version: number,
     content: string,
   ) {
-    this.text = content;
-    this.index = new LineIndex(content);
+    this.text = NoteText.of(content);
   }
 
   /** Every fenced block of the current text, found once per version on first use (see {@link fences}). */
@@ -42,49 +40,54 @@ export class NoteDocument implements TextDocument {
    */
   fences(): readonly FencedBlock[] {
     if (this.scanned?.version !== this.version)
-      this.scanned = { version: this.version, blocks: [...scanFencedBlocks(this.text)] };
+      this.scanned = { version: this.version, blocks: [...scanFencedBlocks(this.text.toString())] };
     return this.scanned.blocks;
   }
 
-  /** The line index of the current text. */
-  get lines(): LineIndex {
-    return this.index;
+  /** The current text, in pieces, with its line index. */
+  get lines(): NoteText {
+    return this.text;
+  }
+
+  /** The current text, in pieces (an edit makes a new one; this one never changes). */
+  get pieces(): NoteText {
+    return this.text;
   }
 
   get lineCount(): number {
-    return this.index.lineCount;
+    return this.text.lineCount;
   }
 
   getText(range?: Range): string {
-    if (!range) return this.text;
-    const start = this.index.offsetAt(range.start);
-    const end = this.index.offsetAt(range.end);
+    if (!range) return this.text.toString();
+    const start = this.text.offsetAt(range.start);
+    const end = this.text.offsetAt(range.end);
     return this.text.slice(start, Math.max(start, end));
   }
 
   positionAt(offset: number): { line: number; character: number } {
-    return this.index.positionAt(offset);
+    return this.text.positionAt(offset);
   }
 
   offsetAt(position: { line: number; character: number }): number {
-    return this.index.offsetAt(position);
+    return this.text.offsetAt(position);
   }
 
   getLineRange(line: number): Range {
     if (line < 0) return { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } };
-    if (line >= this.index.lineCount) {
-      const end = this.index.positionAt(this.text.length);
+    if (line >= this.text.lineCount) {
+      const end = this.text.positionAt(this.text.length);
       return { start: end, end };
     }
     return {
       start: { line, character: 0 },
-      end: { line, character: this.index.lineEnd(line) - this.index.lineStart(line) },
+      end: { line, character: this.text.lineEnd(line) - this.text.lineStart(line) },
     };
   }
 
   getEOLCharacters(line: number): string {
-    if (line < 0 || line >= this.index.lineCount - 1) return '';
-    return this.text.slice(this.index.lineEnd(line), this.index.lineStart(line + 1));
+    if (line < 0 || line >= this.text.lineCount - 1) return '';
+    return this.text.slice(this.text.lineEnd(line), this.text.lineStart(line + 1));
   }
 
   /** Applies the changes of one `didChange`, in order. */
@@ -92,38 +95,43 @@ export class NoteDocument implements TextDocument {
     for (const c of changes) {
       if ('range' in c) {
         // A range given end first is read start first, as the protocol library's document reads it.
-        const a = this.index.offsetAt(c.range.start);
-        const b = this.index.offsetAt(c.range.end);
+        const a = this.text.offsetAt(c.range.start);
+        const b = this.text.offsetAt(c.range.end);
         const start = Math.min(a, b);
         const end = Math.max(a, b);
-        const oldLength = this.text.length;
-        this.text = this.text.slice(0, start) + c.text + this.text.slice(end);
-        this.index = this.index.edit(start, end, c.text.length, this.text);
-        if (this.since)
-          this.since = {
-            previous: this.since.previous,
-            prefix: Math.min(this.since.prefix, start),
-            suffix: Math.min(this.since.suffix, oldLength - end),
-          };
+        const before = this.text;
+        this.text = before.edit(start, end, c.text);
+        this.edits.push({ before, prefix: start, suffix: before.length - end });
+        if (this.edits.length > EDITS_KEPT) this.edits.shift();
       } else {
-        this.text = c.text;
-        this.index = new LineIndex(c.text);
-        this.since = null;
+        this.text = NoteText.of(c.text);
+        this.edits = [];
       }
     }
     this.version = version;
   }
 
-  /** What changed since the text last given to {@link analysed}, for the analyzer; undefined when unknown. */
-  change(): TextChange | undefined {
-    return this.since ?? undefined;
-  }
-
-  /** Records that `text` (the current text) was just analysed: later changes are counted from it. */
-  analysed(text: string): void {
-    this.since = { previous: text, prefix: text.length, suffix: text.length };
+  /**
+   * What changed between an earlier version of the text and the current one (how much they share at each
+   * end), for a reader that remembers its reading of `previous`; undefined when `previous` is not among the
+   * latest versions.
+   */
+  changeSince(previous: NoteText): TextChange | undefined {
+    if (previous === this.text) return { previous, prefix: previous.length, suffix: previous.length };
+    let prefix = Infinity;
+    let suffix = Infinity;
+    for (let i = this.edits.length - 1; i >= 0; i--) {
+      const e = this.edits[i]!;
+      prefix = Math.min(prefix, e.prefix);
+      suffix = Math.min(suffix, e.suffix);
+      if (e.before === previous) return { previous, prefix, suffix };
+    }
+    return undefined;
   }
 }
+
+/** Edits remembered for {@link NoteDocument.changeSince}: more than come in between two readings of a note. */
+const EDITS_KEPT = 64;
 
 /** The configuration `TextDocuments` builds and updates its documents with. */
 export const noteDocuments = {

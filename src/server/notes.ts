@@ -20,6 +20,7 @@ import {
   type Dependency,
   type Externals,
   type FencedBlock,
+  type NoteText,
 } from '../core';
 import type { AnalysisStats } from '../shared/protocol';
 import type { Settings } from '../shared/settings';
@@ -77,6 +78,20 @@ const later: (f: () => void) => unknown =
   typeof setImmediate === 'function' ? setImmediate : (f: () => void) => setTimeout(f, 0);
 const yieldToRequests = (): Promise<void> => new Promise((resolve) => void later(resolve));
 
+/** A note's latest analysis, with what it read from outside. */
+interface Known {
+  readonly state: NoteState;
+  /** The analysis settings' key. */
+  readonly key: string;
+  /** The text analysed (the document tells the change since it). */
+  readonly text: NoteText;
+  /** Every dependency of its blocks; null until first asked for. */
+  deps: readonly Dependency[] | null;
+  readonly externals: Externals | null;
+  /** The sources' change token when the analysis began (Externals.changes), or null. */
+  readonly token: string | null;
+}
+
 /** Cache of note analyses, keyed by URI, version and analysis settings. */
 export class Notes {
   /**
@@ -86,10 +101,7 @@ export class Notes {
   constructor(private readonly externalsFor: (uri: string) => Externals | null = () => null) {}
 
   private readonly analyzers = new Map<string, Analyzer>();
-  private readonly states = new Map<
-    string,
-    { state: NoteState; key: string; deps: readonly Dependency[]; externals: Externals | null }
-  >();
+  private readonly states = new Map<string, Known>();
   private readonly stats = new Map<string, AnalysisStats>();
   private readonly runs = new Map<string, number>();
   private readonly warming = new Map<string, Warming>();
@@ -99,24 +111,35 @@ export class Notes {
     const doc = noteDocument(given);
     const key = analysisKey(settings);
     const known = this.states.get(doc.uri);
-    if (
-      known &&
-      known.state.version === doc.version &&
-      known.key === key &&
-      dependenciesHold(known.deps, doc.uri, known.externals)
-    )
+    if (known && known.state.version === doc.version && known.key === key && this.holds(doc.uri, known))
       return known.state;
-    const text = doc.getText();
+    const text = doc.pieces;
     const externals = this.externalsFor(doc.uri);
-    const change = known && known.key === key ? doc.change() : undefined;
+    // The change since the version analysed last: the analyzer reads the note again only around it.
+    const change = known && known.key === key ? doc.changeSince(known.text) : undefined;
+    const token = externals?.changes?.() ?? null;
     const report = this.analyzer(key, settings).analyzeText(text, externals, change);
-    doc.analysed(text);
-    const state: NoteState = { uri: doc.uri, version: doc.version, text, lines: doc.lines, report };
+    const state: NoteState = { uri: doc.uri, version: doc.version, text, lines: text, report };
     const runs = (this.runs.get(doc.uri) ?? 0) + 1;
     this.runs.set(doc.uri, runs);
-    this.states.set(doc.uri, { state, key, deps: allDependencies(report.blocks), externals });
+    this.states.set(doc.uri, { state, key, text, deps: null, externals, token });
     this.stats.set(doc.uri, { version: doc.version, blocks: report.blocks.length, runs, ...report.stats });
     return state;
+  }
+
+  /**
+   * True when what the note's analysis read from outside is unchanged: at once when the sources' change token
+   * is the one of the analysis, otherwise by asking for every stamp (the dependencies gathered on first need).
+   */
+  private holds(uri: string, known: Known): boolean {
+    if (known.token !== null && known.externals?.changes?.() === known.token) return true;
+    return dependenciesHold(this.depsOf(known), uri, known.externals);
+  }
+
+  /** Every dependency of a note's blocks, each key once, gathered when first asked for. */
+  private depsOf(known: Known): readonly Dependency[] {
+    known.deps ??= allDependencies(known.state.report.blocks);
+    return known.deps;
   }
 
   /**
@@ -125,7 +148,7 @@ export class Notes {
    */
   stale(uri: string): boolean {
     const known = this.states.get(uri);
-    return !!known && !dependenciesHold(known.deps, uri, known.externals);
+    return !!known && !this.holds(uri, known);
   }
 
   /** True when {@link get} is quick: the note was analysed with these settings before (later versions are incremental). */
@@ -168,7 +191,7 @@ export class Notes {
     return {
       uri: doc.uri,
       version: doc.version,
-      text: w.text,
+      text: doc.pieces,
       lines: doc.lines,
       report: { blocks, stats: { analysed: 0, reused: 0 }, bounded: null, problems: [] },
     };
@@ -211,7 +234,7 @@ export class Notes {
   /** The notes whose latest analysis read any of these dependency keys (to refresh them when one changes). */
   usersOf(keys: ReadonlySet<string>): string[] {
     const out: string[] = [];
-    for (const [uri, known] of this.states) if (known.deps.some((d) => keys.has(d.key))) out.push(uri);
+    for (const [uri, known] of this.states) if (this.depsOf(known).some((d) => keys.has(d.key))) out.push(uri);
     return out;
   }
 

@@ -313,7 +313,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
       );
   });
   documents.onDidChangeContent((e) => {
-    runs.edited(e.document.uri, e.document.getText());
+    runs.edited(e.document.uri, e.document.pieces, (previous) => e.document.changeSince(previous));
     if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
   documents.onDidClose((e) => {

@@ -6,7 +6,8 @@
 import type { Position, Range } from 'vscode-languageserver';
 import {
   DEFAULT_DISPLAY,
-  type LineIndex,
+  type TextLines,
+  type TextSource,
   type BlockReport,
   type DisplayOptions,
   type DocumentReport,
@@ -18,18 +19,19 @@ import type { Settings } from '../shared/settings';
 export interface NoteState {
   readonly uri: string;
   readonly version: number;
-  readonly text: string;
-  readonly lines: LineIndex;
+  /** The note's text: a string, or the server's text in pieces (read it by `slice`). */
+  readonly text: TextSource;
+  readonly lines: TextLines;
   readonly report: DocumentReport;
 }
 
 /** LSP range of a span of note offsets. */
-export function toRange(lines: LineIndex, span: Span): Range {
+export function toRange(lines: TextLines, span: Span): Range {
   return { start: lines.positionAt(span.start), end: lines.positionAt(span.end) };
 }
 
 /** Note offset of an LSP position. */
-export function toOffset(lines: LineIndex, pos: Position): number {
+export function toOffset(lines: TextLines, pos: Position): number {
   return lines.offsetAt(pos);
 }
 

@@ -211,10 +211,24 @@ export class SpectrumFiles {
   parses = 0;
   /** Looks in progress, for {@link settled}. */
   private inFlight = 0;
+  /** Counts every change of what {@link stamp} may answer (see {@link changes}). */
+  private version = 0;
   private waiters: (() => void)[] = [];
 
   constructor(private readonly options: SpectrumFilesOptions) {
     this.shelf = new SpectrumShelf(options.maxBytes);
+  }
+
+  /** A count that moves whenever a file's stamp may have changed. */
+  changes(): number {
+    return this.version;
+  }
+
+  /** Since `since`: nothing, or any file (the blocks that read one are few; each asks for its file's stamp). */
+  changedSince(since: number): { readonly none: boolean; has(key: string): boolean } {
+    return since === this.version
+      ? { none: true, has: () => false }
+      : { none: false, has: (key) => key.startsWith(SPECTRUM_KEY_PREFIX) };
   }
 
   owns(key: string): boolean {
@@ -285,6 +299,7 @@ export class SpectrumFiles {
       this.prune();
       e = { known: null, busy: false, again: false, gen: 0 };
       this.entries.set(at.uri, e);
+      this.version++;
       this.look(at.uri, at.root);
     }
     const k = e.known;
@@ -302,6 +317,7 @@ export class SpectrumFiles {
           // Dropped from the shelf by the memory bound: read again.
           e.known = null;
           e.gen++;
+          this.version++;
           this.look(at.uri, at.root);
           return { state: 'pending', key, stamp: `pending:${e.gen}` };
         }
@@ -324,6 +340,7 @@ export class SpectrumFiles {
       if (!e.busy && e.known && e.known.kind !== 'read') {
         this.entries.delete(uri);
         this.roots.delete(uri);
+        this.version++;
       }
     }
   }
@@ -354,6 +371,7 @@ export class SpectrumFiles {
         return { kind: 'missing' };
       })
       .then((known) => {
+        this.version++;
         e.known = known;
         e.busy = false;
         const after = this.stampOf(e);

@@ -1,6 +1,7 @@
 import { strict as assert } from 'node:assert';
 import fc from 'fast-check';
 import { TextDocument } from 'vscode-languageserver-textdocument';
+import { NoteText } from '../../src/core';
 import { NoteDocument } from '../../src/server/noteDocument';
 
 // The reference is the document of `vscode-languageserver-textdocument` (the library the server used before):
@@ -43,18 +44,23 @@ describe('NoteDocument: incremental changes', () => {
     );
   });
 
-  it('records what changed since the last analysis: the shared prefix and suffix', () => {
+  it('tells what changed since an earlier version: the shared prefix and suffix', () => {
     const doc = new NoteDocument('u', 'markdown', 1, 'abcdef\nghij');
-    assert.equal(doc.change(), undefined, 'nothing analysed yet');
-    doc.analysed(doc.getText());
+    const first = doc.pieces;
+    assert.deepEqual(doc.changeSince(first), { previous: first, prefix: 11, suffix: 11 }, 'nothing changed yet');
     doc.update([{ range: { start: { line: 0, character: 2 }, end: { line: 0, character: 3 } }, text: 'XY' }], 2);
+    const second = doc.pieces;
     doc.update([{ range: { start: { line: 1, character: 1 }, end: { line: 1, character: 1 } }, text: 'Z' }], 3);
-    const c = doc.change()!;
-    assert.equal(c.previous, 'abcdef\nghij');
+    const c = doc.changeSince(first)!;
+    assert.equal(c.previous, first);
     assert.equal(c.prefix, 2);
     assert.equal(c.suffix, 3); // "hij" is the end both texts share
+    const d = doc.changeSince(second)!;
+    assert.equal(d.prefix, 9, 'since the second version only the "Z" changed');
+    assert.equal(d.suffix, 3);
     assert.equal(doc.getText(), 'abXYdef\ngZhij');
+    assert.equal(doc.changeSince(NoteText.of('abcdef\nghij')), undefined, 'a text it never held is unknown');
     doc.update([{ text: 'new' }], 4);
-    assert.equal(doc.change(), undefined, 'a whole-text change is compared afresh');
+    assert.equal(doc.changeSince(first), undefined, 'a whole-text change is compared afresh');
   });
 });

@@ -7,8 +7,27 @@ import { analyse, DEFAULT_ANALYSIS_OPTIONS, type AnalysisOptions } from '../anal
 import type { BlockResults } from '../analysis/results';
 import type { BlockInput, BlockMeta } from '../block/input';
 import { interpretBody } from '../block/interpret';
-import { dependenciesHold, NO_DEPENDENCIES, type Dependency, type Externals } from '../block/externals';
-import { movedBlock, planReuse, resumeAt, type FenceRecord, type NoteMemory, type TextChange } from './rescanPlan';
+import {
+  dependenciesHold,
+  mayHaveChanged,
+  NO_DEPENDENCIES,
+  type Dependency,
+  type Externals,
+  type KeyChanges,
+} from '../block/externals';
+import {
+  flatText,
+  movedBlock,
+  planReuse,
+  resumeAt,
+  type AnyText,
+  firstAtOrAfter,
+  type NoteMemory,
+  type Reuse,
+  type TextChange,
+} from './rescanPlan';
+import { scanInWindows } from './windows';
+import { shiftBlock } from './rescanPlan';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
 
@@ -77,6 +96,8 @@ export interface DocumentReport {
   readonly bounded: Bounded | null;
   /** Problems of the note as a whole (note offsets), such as `note-bounded`. */
   readonly problems: readonly Problem[];
+  /** Indices in `blocks` of the blocks that have problems, ascending (a host lists them without visiting every block). */
+  readonly withProblems?: readonly number[];
 }
 
 interface Cached {
@@ -94,8 +115,16 @@ interface Cached {
   readonly readFor: string | null;
 }
 
-/** A fence as remembered between analyses. */
-type Fence = FenceRecord<BlockReport, Cached>;
+/** What one analysis of a note made: its blocks and their cache entries, and how it ended. */
+interface Reading {
+  readonly reports: BlockReport[];
+  readonly entries: Cached[];
+  readonly complete: boolean;
+  readonly bodyChars: number;
+  readonly withProblems: readonly number[];
+  readonly analysed: number;
+  readonly bounded: Bounded | null;
+}
 
 /** How many notes an Analyzer remembers for re-reading them where they changed (a host edits a few at a time). */
 const NOTES_REMEMBERED = 4;
@@ -137,74 +166,228 @@ export class Analyzer {
    * A host that knows where the note changed since its last analysis passes
    * it as `change`, and the two versions are not compared.
    */
-  analyzeText(text: string, externals: Externals | null = null, change?: TextChange): DocumentReport {
-    const { maxBlocks, maxBodyChars } = this.options.limits;
+  analyzeText(given: AnyText, externals: Externals | null = null, change?: TextChange): DocumentReport {
     const generation = ++this.generation;
-    const reuse = planReuse(this.notes, text, change);
-    const fences: Fence[] = [];
-    const blocks: BlockReport[] = [];
+    const reuse = planReuse(this.notes, given, change);
+    // A text in pieces is read in windows around the change when a remembered version is known; otherwise whole.
+    const text: AnyText = typeof given !== 'string' && !reuse ? flatText(given) : given;
+    const token = externals?.changes?.() ?? null;
+    const memory =
+      (reuse && this.incremental(reuse, text, externals, generation)) ?? this.whole(reuse, text, externals, generation);
+    const full: NoteMemory<BlockReport, Cached> = { ...memory, text: given, note: externals?.note ?? null, token };
+    this.remember(full, reuse?.memory ?? null);
+    if (this.cache.size > this.options.cacheSize) this.evict();
+    const bounded = memory.bounded;
+    const problems = bounded ? [boundedProblem(firstLineEnd(text), bounded, this.options.limits)] : [];
+    const blocks = memory.reports;
+    return {
+      blocks,
+      stats: { analysed: memory.analysed, reused: blocks.length - memory.analysed },
+      bounded,
+      problems,
+      withProblems: memory.withProblems,
+    };
+  }
+
+  /**
+   * The analysis of a note from a version analysed just before, where the host said what changed: the
+   * blocks before the change are taken over as they are, the note is read in windows around the change, the
+   * blocks after it are the old ones (moved when the change moved them), and of these only those whose
+   * outside inputs may have changed are asked again. Nothing here visits every block unless the host cannot
+   * say which inputs changed or the length of the note moved the blocks after the change. Null when this does
+   * not apply (no hint, a bounded note, or a bound within reach): the caller reads the note whole.
+   */
+  private incremental(
+    reuse: Reuse<BlockReport, Cached>,
+    text: AnyText,
+    externals: Externals | null,
+    generation: number,
+  ): Reading | null {
+    const old = reuse.memory;
+    const { maxBlocks, maxBodyChars } = this.options.limits;
+    if (!reuse.hinted || !old.complete || old.reports.length * 2 > maxBlocks || old.bodyChars * 2 > maxBodyChars)
+      return null;
+    let analysed = 0;
+    let bodyChars = old.bodyChars;
+    const fresh: BlockReport[] = [];
+    const freshEntries: Cached[] = [];
+    let end = old.reports.length;
+    let tail: BlockReport[] = [];
+    let tailEntries: readonly Cached[] = [];
+    let shift = 0;
+    if (!reuse.same) {
+      let resume = -1;
+      let lines = 0;
+      const found =
+        typeof text === 'string'
+          ? scanFencedBlocks(text, reuse.from, reuse.line)
+          : scanInWindows(text, reuse.from, reuse.line, reuse.syncFrom);
+      for (const block of found) {
+        const r = resumeAt(reuse, block);
+        if (r >= 0) {
+          resume = r;
+          lines = block.openLine - old.reports[r]!.block.openLine;
+          break;
+        }
+        if (!this.isLevelsFence(block)) continue;
+        const entry = this.entryFor(block.body, externals, () => analysed++);
+        entry.used = generation;
+        fresh.push(report(block, entry));
+        freshEntries.push(entry);
+        bodyChars += entry.body.length;
+      }
+      end = resume >= 0 ? resume : old.reports.length;
+      for (let i = reuse.keep; i < end; i++) bodyChars -= old.entries[i]!.body.length;
+      if (resume >= 0) {
+        tailEntries = old.entries.slice(resume);
+        tail = old.reports.slice(resume);
+        // Moved by the change: each report is moved where it is (the only walk over the blocks after the change,
+        // a few additions per block). The version read before is left behind by this one: its reports are not
+        // read again (the host asks for the latest version, and the memory of the old one goes below).
+        if (reuse.delta !== 0 || lines !== 0) for (const r of tail) shiftReport(r, reuse.delta, lines);
+      }
+      shift = fresh.length - (end - reuse.keep);
+    }
+    const reports = reuse.same ? old.reports.slice() : old.reports.slice(0, reuse.keep).concat(fresh, tail);
+    const entries = reuse.same
+      ? old.entries.slice()
+      : old.entries.slice(0, reuse.keep).concat(freshEntries, tailEntries);
+    if (reports.length > maxBlocks || bodyChars > maxBodyChars) return null;
+    // The blocks with problems: the old ones before and after the change, and the new ones.
+    const withProblems: number[] = [];
+    for (const i of old.withProblems) if (i < reuse.keep) withProblems.push(i);
+    for (let i = 0; i < fresh.length; i++) if (fresh[i]!.problems.length > 0) withProblems.push(reuse.keep + i);
+    for (const i of old.withProblems) if (i >= end) withProblems.push(i + shift);
+    // The blocks taken over whose outside inputs may have changed are asked; one that changed is read again.
+    const changes: KeyChanges | null =
+      externals?.changedSince && old.token !== null && old.note === externals.note
+        ? externals.changedSince(old.token)
+        : null;
+    const freshFrom = reuse.keep;
+    const freshTo = reuse.keep + fresh.length;
+    let rechecked = false;
+    const recheck = (i: number): void => {
+      if (i >= freshFrom && i < freshTo) return;
+      const e = entries[i]!;
+      if (e.deps.length === 0 || dependenciesHold(e.deps, e.readFor, externals)) return;
+      const entry = this.entryFor(e.body, externals, () => analysed++);
+      entries[i] = entry;
+      reports[i] = report(reports[i]!.block, entry);
+      rechecked = true;
+    };
+    if (changes === null) {
+      for (let i = 0; i < entries.length; i++) recheck(i);
+    } else if (!changes.none) {
+      const offsets = externals && changes.offsetsIn ? changes.offsetsIn(externals.note) : null;
+      if (offsets) {
+        for (const o of offsets) {
+          const i = firstAtOrAfter(reports, o);
+          if (i < reports.length && reports[i]!.block.openStart === o) recheck(i);
+        }
+      } else for (let i = 0; i < entries.length; i++) if (mayHaveChanged(entries[i]!.deps, changes)) recheck(i);
+    }
+    return {
+      reports,
+      entries,
+      complete: true,
+      bodyChars,
+      withProblems: rechecked ? problemIndices(reports) : withProblems,
+      analysed,
+      bounded: null,
+    };
+  }
+
+  /** The analysis of a note read from the top, or from where a remembered version (if any) stops holding. */
+  private whole(
+    reuse: Reuse<BlockReport, Cached> | null,
+    text: AnyText,
+    externals: Externals | null,
+    generation: number,
+  ): Reading {
+    const { maxBlocks, maxBodyChars } = this.options.limits;
+    const reports: BlockReport[] = [];
+    const entries: Cached[] = [];
     let analysed = 0;
     let bodyChars = 0;
     let bounded: Bounded | null = null;
-    // A remembered fence holds while what its block read from outside is unchanged.
-    const stillHolds = (f: Fence): boolean => !f.entry || dependenciesHold(f.entry.deps, f.entry.readFor, externals);
-    // Takes one fence into the analysis; false when a bound stops it there (our blocks only).
-    const admit = (given: Fence): boolean => {
-      const f = stillHolds(given) ? given : this.reread(given, externals, () => analysed++);
-      if (f.report !== null) {
-        bodyChars += f.report.block.body.length;
-        if (blocks.length >= maxBlocks || bodyChars > maxBodyChars) {
-          bounded = { offset: f.openStart, line: f.openLine, reason: blocks.length >= maxBlocks ? 'blocks' : 'size' };
-          return false;
-        }
-        blocks.push(f.report);
+    // A remembered block holds while what it read from outside is unchanged. Its report is made again: the
+    // memory it comes from may be another note's, and a report belongs to one memory (the incremental path moves
+    // reports where they are).
+    const admit = (r: BlockReport, e: Cached): boolean => {
+      let entry = e;
+      if (!dependenciesHold(e.deps, e.readFor, externals)) entry = this.entryFor(e.body, externals, () => analysed++);
+      const report0 = report(r.block, entry);
+      bodyChars += entry.body.length;
+      if (reports.length >= maxBlocks || bodyChars > maxBodyChars) {
+        const b = report0.block;
+        bounded = { offset: b.openStart, line: b.openLine, reason: reports.length >= maxBlocks ? 'blocks' : 'size' };
+        return false;
       }
-      fences.push(f);
+      reports.push(report0);
+      entries.push(entry);
       return true;
     };
     let open = true;
-    for (let i = 0; open && reuse && i < reuse.keep; i++) open = admit(reuse.memory.fences[i]!);
+    const old = reuse?.memory;
+    for (let i = 0; open && reuse && i < reuse.keep; i++) open = admit(old!.reports[i]!, old!.entries[i]!);
     if (open && !reuse?.same) {
-      for (const block of scanFencedBlocks(text, reuse?.from ?? 0, reuse?.line ?? 0)) {
+      const found =
+        typeof text === 'string'
+          ? scanFencedBlocks(text, reuse?.from ?? 0, reuse?.line ?? 0)
+          : scanInWindows(text, reuse?.from ?? 0, reuse?.line ?? 0, reuse?.syncFrom ?? 0);
+      for (const block of found) {
         const resume = reuse ? resumeAt(reuse, block) : -1;
         if (resume >= 0) {
           // From here on the old scan holds, moved by the edit: the rest of the note is not scanned.
-          const old = reuse!.memory.fences;
-          const lines = block.openLine - old[resume]!.openLine;
-          for (let i = resume; open && i < old.length; i++) open = admit(moved(old[i]!, reuse!.delta, lines));
+          const lines = block.openLine - old!.reports[resume]!.block.openLine;
+          const delta = reuse!.delta;
+          for (let i = resume; open && i < old!.reports.length; i++) {
+            const r = old!.reports[i]!;
+            const e = old!.entries[i]!;
+            open = admit(delta === 0 && lines === 0 ? r : { ...r, block: movedBlock(r.block, delta, lines) }, e);
+          }
           break;
         }
-        if (!this.isLevelsFence(block)) {
-          fences.push({ openStart: block.openStart, openLine: block.openLine, report: null, entry: null });
-          continue;
-        }
+        if (!this.isLevelsFence(block)) continue;
         // The bound is checked on the body's length before the block is read.
-        if (blocks.length >= maxBlocks || bodyChars + block.body.length > maxBodyChars) {
+        if (reports.length >= maxBlocks || bodyChars + block.body.length > maxBodyChars) {
           bodyChars += block.body.length;
           bounded = {
             offset: block.openStart,
             line: block.openLine,
-            reason: blocks.length >= maxBlocks ? 'blocks' : 'size',
+            reason: reports.length >= maxBlocks ? 'blocks' : 'size',
           };
           break;
         }
-        // The body is a stretch of this version of the note; the cache keeps a copy of its own. The copy is
-        // made before the lookup, so that its hash, computed once by the lookup, serves the insertion too.
-        const body = ownCopy(block.body);
-        let entry = this.cache.get(body);
-        if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
-          analysed++;
-          entry = this.analyseBody(body, externals);
-          this.cache.set(body, entry);
-        }
-        open = admit({ openStart: block.openStart, openLine: block.openLine, report: report(block, entry), entry });
+        const entry = this.entryFor(block.body, externals, () => analysed++);
+        open = admit(report(block, entry), entry);
       }
     }
-    for (const f of fences) if (f.entry) f.entry.used = generation;
-    this.remember({ text, fences, complete: bounded === null }, reuse?.memory ?? null);
-    if (this.cache.size > this.options.cacheSize) this.evict();
-    const problems = bounded ? [boundedProblem(text, bounded, this.options.limits)] : [];
-    return { blocks, stats: { analysed, reused: blocks.length - analysed }, bounded, problems };
+    for (const e of entries) e.used = generation;
+    return {
+      reports,
+      entries,
+      complete: bounded === null,
+      bodyChars,
+      withProblems: problemIndices(reports),
+      analysed,
+      bounded,
+    };
+  }
+
+  /**
+   * The cache's reading of a body that holds for these sources, read now (and counted) when there is none.
+   * The body is a stretch of this version of the note; the cache keeps a copy of its own, made before the
+   * lookup, so that its hash, computed once by the lookup, serves the insertion too.
+   */
+  private entryFor(found: string, externals: Externals | null, counted: () => void): Cached {
+    const known = this.cache.get(found);
+    if (known && dependenciesHold(known.deps, known.readFor, externals)) return known;
+    counted();
+    const body = known ? known.body : ownCopy(found);
+    const entry = this.analyseBody(body, externals);
+    this.cache.set(body, entry);
+    return entry;
   }
 
   /**
@@ -239,21 +422,6 @@ export class Analyzer {
       entry.used = this.generation;
       return report(b, entry);
     });
-  }
-
-  /**
-   * A remembered block whose outside inputs changed, read again at the same place (the cache entry too,
-   * unless the cache already holds a reading that still holds).
-   */
-  private reread(f: Fence, externals: Externals | null, counted: () => void): Fence {
-    const body = f.entry!.body;
-    let entry = this.cache.get(body);
-    if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
-      counted();
-      entry = this.analyseBody(body, externals);
-      this.cache.set(body, entry);
-    }
-    return { openStart: f.openStart, openLine: f.openLine, report: report(f.report!.block, entry), entry };
   }
 
   /** Keeps the note just analysed in place of the version it was read from (or of the oldest note). */
@@ -323,18 +491,6 @@ export class Analyzer {
  */
 function ownCopy(s: string): string {
   return (s + ' ').slice(0, -1);
-}
-
-/** A remembered fence moved by an edit before it; our block's report is made again for its new place. */
-function moved(f: Fence, delta: number, lines: number): Fence {
-  if (delta === 0 && lines === 0) return f;
-  const r = f.report;
-  return {
-    openStart: f.openStart + delta,
-    openLine: f.openLine + lines,
-    report: r && report(movedBlock(r.block, delta, lines), f.entry!),
-    entry: f.entry,
-  };
 }
 
 /**
@@ -415,16 +571,46 @@ function spanToNote(block: FencedBlock, s: Span): Span {
 }
 
 /** The note-level warning of a bounded analysis, on the note's first line. */
-function boundedProblem(text: string, b: Bounded, limits: AnalyzerLimits): Problem {
+function boundedProblem(firstLine: number, b: Bounded, limits: AnalyzerLimits): Problem {
   const why =
     b.reason === 'blocks'
       ? `it has more than ${limits.maxBlocks.toLocaleString('en-US')} \`levels\` blocks`
       : `its \`levels\` blocks hold more than ${limits.maxBodyChars.toLocaleString('en-US')} characters`;
-  const firstLine = text.search(/\r|\n|$/);
   return {
     severity: 'warning',
     code: 'note-bounded',
     message: `This note is read only up to line ${b.line + 1}: ${why}, more than the editor reads as you type. Blocks from line ${b.line + 1} on get no results here; \`boltzmark report\` reads the whole note, and splitting the notebook keeps every block live.`,
     span: { start: 0, end: firstLine },
   };
+}
+
+/** Offset of the end of the text's first line (before its break). */
+function firstLineEnd(text: AnyText): number {
+  return typeof text === 'string' ? text.search(/\r|\n|$/) : text.lineEnd(0);
+}
+
+/** Indices of the reports that have problems. */
+function problemIndices(reports: readonly BlockReport[]): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < reports.length; i++) if (reports[i]!.problems.length > 0) out.push(i);
+  return out;
+}
+
+/** A report's positions moved by `delta` characters and `lines` lines, in place (see {@link Analyzer.incremental}). */
+function shiftReport(r: BlockReport, delta: number, lines: number): void {
+  shiftBlock(r.block, delta, lines);
+  for (const p of r.problems) {
+    shiftSpan(p.span, delta);
+    for (const f of p.fixes ?? []) {
+      shiftSpan(f.span, delta);
+      for (const m of f.more ?? []) shiftSpan(m.span, delta);
+    }
+  }
+}
+
+/** A span's offsets moved by `delta`, in place. */
+function shiftSpan(s: Span, delta: number): void {
+  const w = s as { start: number; end: number };
+  w.start += delta;
+  w.end += delta;
 }

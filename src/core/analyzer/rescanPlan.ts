@@ -10,32 +10,44 @@
  */
 import type { FencedBlock } from '../text/fences';
 import { commonPrefix, commonSuffix } from '../text/common';
+import type { NoteText } from '../text/noteText';
 
-/** One fence found by a scan: where it opens and, for our blocks, what was made of it. */
-export interface FenceRecord<R, E> {
-  /** Note offset and 0-based line of the opening fence line. */
-  readonly openStart: number;
-  readonly openLine: number;
-  /** Our block's report and cache entry; null for a fence of another language. */
-  readonly report: R | null;
-  readonly entry: E | null;
+/** A note's text as an analysis is given it: one string, or a host's text in pieces. */
+export type AnyText = string | NoteText;
+
+/** The text as one string (a NoteText is joined: only where the two versions must be compared). */
+export function flatText(t: AnyText): string {
+  return typeof t === 'string' ? t : t.toString();
+}
+
+/** What a remembered block must tell: where its opening fence is. */
+export interface Placed {
+  readonly block: { readonly openStart: number; readonly openLine: number };
 }
 
 /** A note as last analysed. */
-export interface NoteMemory<R, E> {
-  readonly text: string;
-  /** Every fence of the note, in order, up to where the analysis stopped. */
-  readonly fences: readonly FenceRecord<R, E>[];
-  /** False when a bound stopped the analysis, so `fences` does not reach the end of the note. */
+export interface NoteMemory<R extends Placed, E> {
+  readonly text: AnyText;
+  /** Our blocks' reports, in order, up to where the analysis stopped, and their cache entries. */
+  readonly reports: readonly R[];
+  readonly entries: readonly E[];
+  /** False when a bound stopped the analysis, so `reports` does not reach the end of the note. */
   readonly complete: boolean;
+  /** Characters of the bodies of `reports`, together. */
+  readonly bodyChars: number;
+  /** Indices in `reports` of the blocks that have problems, ascending. */
+  readonly withProblems: readonly number[];
+  /** The note the analysis read its outside sources for, and their change token then (Externals.changes). */
+  readonly note: string | null;
+  readonly token: string | null;
 }
 
 /** How to analyse a new text from a remembered version of it. */
-export interface Reuse<R, E> {
+export interface Reuse<R extends Placed, E> {
   readonly memory: NoteMemory<R, E>;
-  /** Fences taken over as they are: `memory.fences` before this index. */
+  /** Blocks taken over as they are: `memory.reports` before this index. */
   readonly keep: number;
-  /** Where the scan starts again: offset and line (of the first fence not kept, or the top of the note). */
+  /** Where the scan starts again: offset and line (of the first block not kept, or the top of the note). */
   readonly from: number;
   readonly line: number;
   /** New length minus old length. */
@@ -44,6 +56,8 @@ export interface Reuse<R, E> {
   readonly syncFrom: number;
   /** True when the whole text is unchanged. */
   readonly same: boolean;
+  /** True when the host said what changed since this very memory (a `change` whose previous text it holds). */
+  readonly hinted: boolean;
 }
 
 /**
@@ -53,7 +67,7 @@ export interface Reuse<R, E> {
  * true ones are safe (more is read again); larger ones are not.
  */
 export interface TextChange {
-  readonly previous: string;
+  readonly previous: AnyText;
   readonly prefix: number;
   readonly suffix: number;
 }
@@ -63,9 +77,9 @@ export interface TextChange {
  * shares anything. With a `change` whose previous text is remembered, the shared ends are taken from it and the texts
  * are not compared at all, so the plan costs nothing that grows with the note.
  */
-export function planReuse<R, E>(
+export function planReuse<R extends Placed, E>(
   memories: readonly NoteMemory<R, E>[],
-  text: string,
+  text: AnyText,
   change?: TextChange,
 ): Reuse<R, E> | null {
   let best: Reuse<R, E> | null = null;
@@ -76,19 +90,21 @@ export function planReuse<R, E>(
   for (const memory of known ? [known] : memories) {
     const old = memory.text;
     const hinted = memory === known && change !== undefined;
-    const prefix = hinted ? Math.max(0, Math.min(change.prefix, old.length, text.length)) : commonPrefix(old, text);
+    const prefix = hinted
+      ? Math.max(0, Math.min(change.prefix, old.length, text.length))
+      : commonPrefix(flatText(old), flatText(text));
     // An unchanged note is taken over whole, unless a bound stopped its analysis (then the scan resumes at its last fence).
     const same = prefix === old.length && prefix === text.length && memory.complete;
     const suffix = same
       ? 0
       : hinted
         ? Math.max(0, Math.min(change.suffix, old.length - prefix, text.length - prefix))
-        : commonSuffix(old, text, prefix);
+        : commonSuffix(flatText(old), flatText(text), prefix);
     if (prefix + suffix <= bestShared && !same) continue;
-    // The last fence that opens strictly before the first changed character: its line, and the one
+    // Our last block that opens strictly before the first changed character: its line, and the one
     // before it, read the same in both versions, so the old scan was at a line start outside any block.
-    const keep = same ? memory.fences.length : firstAtOrAfter(memory.fences, prefix);
-    const restart = !same && keep > 0 ? memory.fences[keep - 1]! : null;
+    const keep = same ? memory.reports.length : firstAtOrAfter(memory.reports, prefix);
+    const restart = !same && keep > 0 ? memory.reports[keep - 1]!.block : null;
     best = {
       memory,
       keep: restart ? keep - 1 : keep,
@@ -97,6 +113,7 @@ export function planReuse<R, E>(
       delta: text.length - old.length,
       syncFrom: text.length - suffix,
       same,
+      hinted,
     };
     bestShared = prefix + suffix;
     if (same) break;
@@ -104,28 +121,29 @@ export function planReuse<R, E>(
   return best;
 }
 
-/** Index of the first fence opening at or after `offset` (fences are in order). */
-function firstAtOrAfter<R, E>(fences: readonly FenceRecord<R, E>[], offset: number): number {
+/** Index of the first block opening at or after `offset` (blocks are in order). */
+export function firstAtOrAfter(blocks: readonly Placed[], offset: number): number {
   let lo = 0;
-  let hi = fences.length;
+  let hi = blocks.length;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
-    if (fences[mid]!.openStart < offset) lo = mid + 1;
+    if (blocks[mid]!.block.openStart < offset) lo = mid + 1;
     else hi = mid;
   }
   return lo;
 }
 
 /**
- * Index of the remembered fence that the new scan's `block` continues from,
+ * Index of the remembered block that the new scan's `block` continues from,
  * or -1: the block must open inside the unchanged end of the text, at the
- * place a remembered fence opened (moved by the change in length).
+ * place one of ours opened (moved by the change in length). From there on
+ * the two scans agree: both are outside every block at that line.
  */
-export function resumeAt<R, E>(reuse: Reuse<R, E>, block: FencedBlock): number {
+export function resumeAt<R extends Placed, E>(reuse: Reuse<R, E>, block: FencedBlock): number {
   if (!reuse.memory.complete || block.openStart < reuse.syncFrom) return -1;
-  const fences = reuse.memory.fences;
-  const i = firstAtOrAfter(fences, block.openStart - reuse.delta);
-  return i < fences.length && fences[i]!.openStart === block.openStart - reuse.delta ? i : -1;
+  const reports = reuse.memory.reports;
+  const i = firstAtOrAfter(reports, block.openStart - reuse.delta);
+  return i < reports.length && reports[i]!.block.openStart === block.openStart - reuse.delta ? i : -1;
 }
 
 /** A block moved by `delta` characters and `lines` lines, with the body it already has. */
@@ -141,4 +159,20 @@ export function movedBlock(b: FencedBlock, delta: number, lines: number): Fenced
     lines: b.lines.length === 0 ? b.lines : b.lines.map((l) => ({ ...l, docStart: l.docStart + delta })),
     bodyLine: b.bodyLine + lines,
   };
+}
+
+/** A block's positions moved by `delta` characters and `lines` lines, in place: for a block that only its mover holds. */
+export function shiftBlock(b: FencedBlock, delta: number, lines: number): void {
+  const w = b as {
+    -readonly [K in keyof FencedBlock]: FencedBlock[K];
+  };
+  w.openLine += lines;
+  if (w.closeLine !== null) w.closeLine += lines;
+  w.openStart += delta;
+  w.openEnd += delta;
+  w.blockEnd += delta;
+  w.bodyStart += delta;
+  w.bodyLine += lines;
+  // The line entries of an indented fence may be shared with another copy of the block: new ones.
+  if (b.lines.length > 0) w.lines = b.lines.map((l) => ({ ...l, docStart: l.docStart + delta }));
 }

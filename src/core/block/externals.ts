@@ -42,6 +42,35 @@ export interface Externals {
   stamp(key: string): string | null;
   /** Spectrum files by path as written in the note (spectra/types.ts); keys `file:<absolute path or URI>`. */
   readonly spectra?: SpectrumSource;
+  /**
+   * Optional, with {@link changedSince}: a token that stays the same only while every stamp this object
+   * answers stays the same. A host that edits a large note passes both, so that the blocks kept from the
+   * last analysis are not each asked for their stamps on every keystroke.
+   */
+  changes?(): string;
+  /** The keys whose stamps may have changed since {@link changes} gave `since`; null when that is not known. */
+  changedSince?(since: string): KeyChanges | null;
+}
+
+/** Which dependency keys may have changed (see {@link Externals.changedSince}). */
+export interface KeyChanges {
+  /** True when none may have. */
+  readonly none: boolean;
+  has(key: string): boolean;
+  /**
+   * Optional: the opening offsets (in the note's current text) of every block of `note` that read a key that
+   * may have changed, when the host knows them; the analyzer then asks only those blocks.
+   */
+  offsetsIn?(note: string): readonly number[] | null;
+}
+
+/** The dependencies among `deps` that must be asked again, given what may have changed (null: all). */
+export function mayHaveChanged(deps: readonly Dependency[], changes: KeyChanges | null): boolean {
+  if (deps.length === 0) return false;
+  if (changes === null) return true;
+  if (changes.none) return false;
+  for (const d of deps) if (changes.has(d.key)) return true;
+  return false;
 }
 
 /** A dependency list shared by every block that has none (most blocks). */

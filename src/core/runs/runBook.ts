@@ -14,7 +14,9 @@
  * resolved: it changes exactly when an answer could.
  */
 import { Analyzer } from '../analyzer/analyzer';
-import type { Externals } from '../block/externals';
+import { flatText, shiftBlock, type AnyText, type TextChange } from '../analyzer/rescanPlan';
+import { scanInWindows } from '../analyzer/windows';
+import type { Externals, KeyChanges } from '../block/externals';
 import { interpretBody } from '../block/interpret';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import { editDistance } from '../text/suggest';
@@ -86,7 +88,7 @@ export interface BookReference {
 
 interface BookNote {
   readonly note: string;
-  readonly text: string;
+  readonly text: AnyText;
   readonly blocks: readonly BookBlock[];
   /** True when the book read the note itself through `load` (no host set it). */
   readonly loaded: boolean;
@@ -114,10 +116,20 @@ export class RunBook implements RunResolver {
   private readonly missing = new Map<string, string | null>();
   /** Evaluated blocks, by block, with the stamp of what they read. */
   private readonly evaluated = new WeakMap<BookBlock, { stamp: string; facts: RunFacts }>();
-  /** Counts changes, to keep stamps computed since the last one. */
+  /** Counts changes (see {@link changes}). */
   private generation = 0;
-  private readonly stamps = new Map<string, string | null>();
-  private stampsFor = -1;
+  /** Stamps computed since the last change that could alter them: of `copies` keys, and of reference keys. */
+  private readonly copyStamps = new Map<string, string | null>();
+  private readonly refStamps = new Map<string, string | null>();
+  /** The latest changes, oldest first: the copies keys each could alter, and whether reference keys too (null: any key). */
+  private log: {
+    readonly generation: number;
+    readonly ids: ReadonlySet<string> | null;
+    readonly keys: ReadonlySet<string> | null;
+    readonly refs: boolean;
+  }[] = [];
+  /** Ids that references name, with how many references name each (a change to such a block can change their stamps). */
+  private readonly named = new Map<string, number>();
   /** Chain lengths known since the last change: exact, or "longer than `above`". */
   private readonly chains = new Map<BookBlock, { exact?: number; above?: number }>();
   private chainsFor = -1;
@@ -134,9 +146,50 @@ export class RunBook implements RunResolver {
    * note's current text before it analyses the note with {@link externalsFor}: the book tells a block from
    * the others (and finds the cycles through it) by its body in the note as set.
    */
-  setNote(note: string, text: string): void {
+  setNote(note: string, text: AnyText, change?: TextChange): void {
+    const old = this.notes.get(note);
+    if (old && !old.loaded && change && old.text === change.previous && this.reindex(old, text, change)) return;
     this.drop(note);
     this.index(note, text, false);
+  }
+
+  /**
+   * A count that moves with every change of the book; with {@link changedSince}, what a host asks to know
+   * whether the stamps it holds may be out of date without asking each one.
+   */
+  changes(): number {
+    return this.generation;
+  }
+
+  /**
+   * The keys whose stamps may have changed since the book's {@link changes} was `since`, as a test; null when
+   * that is not known (too long ago, or a change of unknown reach): then every stamp must be asked.
+   */
+  changedSince(since: number): KeyChanges | null {
+    if (since === this.generation) return NO_CHANGE;
+    const first = this.log.findIndex((e) => e.generation > since);
+    if (first < 0 || this.log[first]!.generation !== since + 1) return null;
+    const keys = new Set<string>();
+    const ids = new Set<string>();
+    let refs = false;
+    for (let i = first; i < this.log.length; i++) {
+      const e = this.log[i]!;
+      if (e.keys === null || e.ids === null) return null;
+      for (const k of e.keys) keys.add(k);
+      for (const id of e.ids) ids.add(id);
+      refs ||= e.refs;
+    }
+    return {
+      none: keys.size === 0 && !refs,
+      has: (key) => keys.has(key) || (refs && key.startsWith(RUN_KEY_PREFIX) && !key.startsWith(COPIES_KEY_START)),
+      // The blocks of a note that carry a changed id; when a referenced block changed, any reference may have.
+      offsetsIn: (note) => {
+        if (refs) return null;
+        const out: number[] = [];
+        for (const id of ids) for (const b of this.byId.get(id) ?? []) if (b.note === note) out.push(b.block.openStart);
+        return out;
+      },
+    };
   }
 
   /** Forgets a note (deleted, or closed and gone from the workspace). */
@@ -173,7 +226,12 @@ export class RunBook implements RunResolver {
   }
 
   /** The block of `note` whose body is `body`, or null. */
-  blockAt(note: string, body: string): BookBlock | null {
+  blockAt(note: string, body: string, id: string | null = null): BookBlock | null {
+    // A block with an id is among the few with that id; any other is looked for through the note.
+    if (id !== null) {
+      for (const b of this.byId.get(id) ?? []) if (b.note === note && b.block.body === body) return b;
+      return null;
+    }
     for (const b of this.blocksOf(note)) if (b.block.body === body) return b;
     return null;
   }
@@ -269,11 +327,9 @@ export class RunBook implements RunResolver {
 
   /** The current stamp of a key handed out by {@link resolve} or {@link copies}. */
   stamp(key: string): string | null {
-    if (this.stampsFor !== this.generation) {
-      this.stamps.clear();
-      this.stampsFor = this.generation;
-    }
-    const known = this.stamps.get(key);
+    const copy = this.copyStamps.get(key);
+    if (copy !== undefined) return copy;
+    const known = this.refStamps.get(key);
     if (known !== undefined) return known;
     const parsed = parseRunKey(key);
     let stamp: string | null = null;
@@ -283,7 +339,7 @@ export class RunBook implements RunResolver {
     } else if (parsed?.kind === 'copies') {
       stamp = this.copiesStamp(parsed.id);
     }
-    this.stamps.set(key, stamp);
+    (parsed?.kind === 'copies' ? this.copyStamps : this.refStamps).set(key, stamp);
     return stamp;
   }
 
@@ -314,7 +370,7 @@ export class RunBook implements RunResolver {
 
   copies(from: string, id: string, at: string): RunCopies {
     const key = runCopiesKey(id);
-    const self = this.blockAt(from, at);
+    const self = this.blockAt(from, at, id);
     const others: RunPlace[] = [];
     for (const b of this.blocksWithId(id)) if (b !== self && b.place) others.push(b.place);
     return { others, key, stamp: this.stamp(key) };
@@ -378,9 +434,139 @@ export class RunBook implements RunResolver {
 
   // --- inside ---
 
-  private changed(): void {
+  /**
+   * Records a change: of known reach (the ids whose sets of blocks changed, and whether any block's body did,
+   * which reference stamps hash) or, without `reach`, of any.
+   */
+  private changed(reach?: { readonly ids: ReadonlySet<string>; readonly refs: boolean }): void {
     this.generation++;
     this.missing.clear();
+    let keys: Set<string> | null = null;
+    if (reach) {
+      keys = new Set<string>();
+      for (const id of reach.ids) {
+        const key = runCopiesKey(id);
+        keys.add(key);
+        this.copyStamps.delete(key);
+      }
+      if (reach.refs) this.refStamps.clear();
+    } else {
+      this.copyStamps.clear();
+      this.refStamps.clear();
+    }
+    this.log.push({
+      generation: this.generation,
+      ids: reach ? reach.ids : null,
+      keys,
+      refs: reach ? reach.refs : true,
+    });
+    if (this.log.length > CHANGES_KEPT) this.log = this.log.slice(-CHANGES_KEPT);
+  }
+
+  /** Counts the ids a block's references name in (or out of) {@link named}. */
+  private name(b: BookBlock, by: 1 | -1): void {
+    for (const ref of b.refs) {
+      const n = (this.named.get(ref.id) ?? 0) + by;
+      if (n > 0) this.named.set(ref.id, n);
+      else this.named.delete(ref.id);
+    }
+  }
+
+  /**
+   * A set note's new text indexed again only where it changed: the blocks before the change are kept, the
+   * note is scanned from the last block that opens before it until a block opens, in the unchanged end, where
+   * an old one opened (moved by the change in length), and the blocks from there on are the old ones, moved.
+   * False when the change cannot be placed (the caller indexes the note afresh).
+   */
+  private reindex(old: BookNote, text: AnyText, change: TextChange): boolean {
+    const oldLength = old.text.length;
+    const prefix = Math.max(0, Math.min(change.prefix, oldLength, text.length));
+    const suffix = Math.max(0, Math.min(change.suffix, oldLength - prefix, text.length - prefix));
+    const delta = text.length - oldLength;
+    const syncFrom = text.length - suffix;
+    const blocks = old.blocks;
+    // The first old block opening at or after the change, and the one before it, where the scan starts again.
+    let k = 0;
+    let hi = blocks.length;
+    while (k < hi) {
+      const mid = (k + hi) >> 1;
+      if (blocks[mid]!.block.openStart < prefix) k = mid + 1;
+      else hi = mid;
+    }
+    const keep = Math.max(0, k - 1);
+    const from = keep < blocks.length && k > 0 ? blocks[keep]!.block.openStart : 0;
+    const line = keep < blocks.length && k > 0 ? blocks[keep]!.block.openLine : 0;
+    const fresh: BookBlock[] = blocks.slice(0, k > 0 ? keep : 0);
+    const dropped: BookBlock[] = [];
+    let resume = -1;
+    let lines = 0;
+    const found =
+      typeof text === 'string' ? scanFencedBlocks(text, from, line) : scanInWindows(text, from, line, syncFrom);
+    for (const block of found) {
+      if (block.openStart >= syncFrom) {
+        const j = openingAt(blocks, block.openStart - delta);
+        if (j >= 0) {
+          resume = j;
+          lines = block.openLine - blocks[j]!.block.openLine;
+          break;
+        }
+      }
+      if (!isLevelsInfo(block, this.infoStrings)) continue;
+      fresh.push(this.bookBlock(old.note, fresh.length, block));
+    }
+    const firstOld = k > 0 ? keep : 0;
+    const lastOld = resume >= 0 ? resume : blocks.length;
+    for (let i = firstOld; i < lastOld; i++) dropped.push(blocks[i]!);
+    const added = fresh.slice(firstOld);
+    // The ids whose sets of blocks changed (a `copies` stamp); blocks read again the same (body and id) change nothing.
+    const count = new Map<string, number>();
+    for (const b of dropped) if (b.id !== null) count.set(b.id, (count.get(b.id) ?? 0) - 1);
+    for (const b of added) if (b.id !== null) count.set(b.id, (count.get(b.id) ?? 0) + 1);
+    const ids = new Set<string>();
+    for (const [id, n] of count) if (n !== 0) ids.add(id);
+    const bodies =
+      dropped.length !== added.length || dropped.some((d, i) => d.hash !== added[i]!.hash || d.id !== added[i]!.id);
+    for (const b of dropped) this.name(b, -1);
+    for (const b of added) this.name(b, 1);
+    // A reference's stamp hashes the blocks it reaches: it may change when a block that a reference names, or
+    // one that makes references, was read again differently.
+    const refs =
+      bodies && [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id)));
+    // The blocks after the change: the old ones, moved where they are (the book alone holds them; the lists by id
+    // and everything keyed by block keep them).
+    const shift = fresh.length - resume;
+    const moved = resume >= 0 ? blocks.slice(resume) : [];
+    if (delta !== 0 || lines !== 0 || shift !== 0) for (const b of moved) moveBookBlock(b, delta, lines, shift);
+    const all = fresh.concat(moved);
+    // Each id's list keeps note order, then block order: this note's blocks with the id, dropped ones out and
+    // new ones in, sorted by their place (the lists are short: one block per id, unless duplicated).
+    const gone = new Set(dropped);
+    const touched = new Set<string>();
+    for (const b of dropped) if (b.id !== null) touched.add(b.id);
+    for (const b of added) if (b.id !== null) touched.add(b.id);
+    for (const id of touched) {
+      const list = this.byId.get(id) ?? [];
+      const at = list.findIndex((x) => x.note === old.note);
+      const mine = list.filter((x) => x.note === old.note && !gone.has(x));
+      for (const b of added) if (b.id === id) mine.push(b);
+      mine.sort((a, b) => a.index - b.index);
+      const others = list.filter((x) => x.note !== old.note);
+      const where = at < 0 ? others.length : list.slice(0, at).filter((x) => x.note !== old.note).length;
+      const next = [...others.slice(0, where), ...mine, ...others.slice(where)];
+      if (next.length > 0) this.byId.set(id, next);
+      else this.byId.delete(id);
+    }
+    this.notes.set(old.note, { note: old.note, text, blocks: all, loaded: false });
+    this.changed({ ids, refs });
+    return true;
+  }
+
+  /** A block of the index for a block found by the scan. */
+  private bookBlock(note: string, index: number, block: FencedBlock): BookBlock {
+    const f = this.bodyFacts(block.body);
+    const place: RunPlace | null =
+      f.idSpan && f.id !== null ? { note, span: toNote(block, f.idSpan), line: lineOf(block, f.idSpan.start) } : null;
+    return { note, index, block, id: f.id, place, refs: f.refs, hash: f.hash };
   }
 
   private drop(note: string): void {
@@ -388,6 +574,7 @@ export class RunBook implements RunResolver {
     if (!old) return;
     this.notes.delete(note);
     for (const b of old.blocks) {
+      this.name(b, -1);
       if (b.id === null) continue;
       const list = this.byId.get(b.id);
       if (!list) continue;
@@ -397,15 +584,13 @@ export class RunBook implements RunResolver {
     }
   }
 
-  private index(note: string, text: string, loaded: boolean): BookNote {
+  private index(note: string, text: AnyText, loaded: boolean): BookNote {
     const blocks: BookBlock[] = [];
-    for (const block of scanFencedBlocks(text)) {
+    for (const block of scanFencedBlocks(flatText(text))) {
       if (!isLevelsInfo(block, this.infoStrings)) continue;
-      const f = this.bodyFacts(block.body);
-      const place: RunPlace | null =
-        f.idSpan && f.id !== null ? { note, span: toNote(block, f.idSpan), line: lineOf(block, f.idSpan.start) } : null;
-      const b: BookBlock = { note, index: blocks.length, block, id: f.id, place, refs: f.refs, hash: f.hash };
+      const b = this.bookBlock(note, blocks.length, block);
       blocks.push(b);
+      this.name(b, 1);
       if (b.id !== null) {
         const list = this.byId.get(b.id);
         if (list) list.push(b);
@@ -610,4 +795,37 @@ function hash(text: string): string {
     h2 = Math.imul(h2 ^ c, 0x5bd1e995) ^ (h2 >>> 15);
   }
   return (h1 >>> 0).toString(16).padStart(8, '0') + (h2 >>> 0).toString(16).padStart(8, '0');
+}
+
+/** What {@link RunBook.changedSince} answers when nothing changed. */
+const NO_CHANGE: KeyChanges = { none: true, has: (): boolean => false, offsetsIn: () => [] };
+
+/** How a `copies` key starts (the other run keys are keys of references). */
+const COPIES_KEY_START = runCopiesKey('').slice(0, -3);
+
+/** Changes remembered for {@link RunBook.changedSince}. */
+const CHANGES_KEPT = 64;
+
+/** Index of the block opening at `offset`, or -1 (blocks in order). */
+function openingAt(blocks: readonly BookBlock[], offset: number): number {
+  let lo = 0;
+  let hi = blocks.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (blocks[mid]!.block.openStart < offset) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo < blocks.length && blocks[lo]!.block.openStart === offset ? lo : -1;
+}
+
+/** An indexed block moved by an edit before it, in place: its place in the note and its position among the blocks. */
+function moveBookBlock(b: BookBlock, delta: number, lines: number, shift: number): void {
+  (b as { index: number }).index += shift;
+  shiftBlock(b.block, delta, lines);
+  if (b.place) {
+    const span = b.place.span as { start: number; end: number };
+    span.start += delta;
+    span.end += delta;
+    (b.place as { line: number }).line += lines;
+  }
 }

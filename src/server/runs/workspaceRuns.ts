@@ -11,7 +11,18 @@
  * character but the unreserved ones percent-encoded in each path segment),
  * which is also how the core spells a note a reference names.
  */
-import { Analyzer, isInside, LineIndex, RunBook, type Externals, type RunResolver } from '../../core';
+import {
+  Analyzer,
+  isInside,
+  LineIndex,
+  RunBook,
+  type Externals,
+  type KeyChanges,
+  type NoteText,
+  type RunResolver,
+  type TextChange,
+  type TextLines,
+} from '../../core';
 import type { ExternalPart } from '../externals';
 import { SERVER_LIMITS } from '../notes';
 
@@ -62,7 +73,7 @@ export class WorkspaceRuns implements ExternalPart {
   /** Notes with an unsaved text (open in the editor): file events do not replace them. */
   private readonly open = new Set<string>();
   /** The text of every note of the book, for positions in notes that are not open. */
-  private readonly texts = new Map<string, { text: string; lines: LineIndex | null }>();
+  private readonly texts = new Map<string, { text: string | NoteText; lines: TextLines | null }>();
   private folders: string[] = [];
   private scanning: Promise<void> = Promise.resolve();
   private scans = 0;
@@ -93,6 +104,14 @@ export class WorkspaceRuns implements ExternalPart {
     return this.book.stamp(key);
   }
 
+  changes(): number {
+    return this.book.changes();
+  }
+
+  changedSince(since: number): KeyChanges | null {
+    return this.book.changedSince(since);
+  }
+
   /** The notes of the index that are not open in the editor and refer to another run. */
   closedReferrers(): string[] {
     return this.book
@@ -107,14 +126,15 @@ export class WorkspaceRuns implements ExternalPart {
 
   /** The text of a note of the book, or null. */
   textOf(note: string): string | null {
-    return this.texts.get(note)?.text ?? null;
+    const t = this.texts.get(note)?.text;
+    return t === undefined ? null : typeof t === 'string' ? t : t.toString();
   }
 
   /** The line index of a note of the book, or null. */
-  linesOf(note: string): LineIndex | null {
+  linesOf(note: string): TextLines | null {
     const t = this.texts.get(note);
     if (!t) return null;
-    if (!t.lines) t.lines = new LineIndex(t.text);
+    if (!t.lines) t.lines = typeof t.text === 'string' ? new LineIndex(t.text) : t.text;
     return t.lines;
   }
 
@@ -135,10 +155,14 @@ export class WorkspaceRuns implements ExternalPart {
   }
 
   /** An open note's text (opened or edited). */
-  edited(uri: string, text: string): void {
+  edited(uri: string, text: string | NoteText, changeSince?: (previous: NoteText) => TextChange | undefined): void {
     this.open.add(uri);
-    if (this.texts.get(uri)?.text === text) return;
-    this.set(uri, text);
+    const known = this.texts.get(uri)?.text;
+    if (known === text) return;
+    // An edit of the text the book holds is indexed again where it changed only (core/runs/runBook.ts).
+    const change = known !== undefined && typeof known !== 'string' && changeSince ? changeSince(known) : undefined;
+    this.texts.set(uri, { text, lines: typeof text === 'string' ? null : text });
+    this.book.setNote(uri, text, change);
     this.changed([uri]);
   }
 

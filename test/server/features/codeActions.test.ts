@@ -10,7 +10,7 @@ function apply(state: NoteState, action: CodeAction): string {
   const edits = [...(action.edit?.changes?.[URI] ?? [])] as TextEdit[];
   assert.deepEqual(Object.keys(action.edit?.changes ?? {}), [URI], 'edits touch this note only');
   edits.sort((a, b) => state.lines.offsetAt(b.range.start) - state.lines.offsetAt(a.range.start));
-  let text = state.text;
+  let text = state.text.slice();
   for (const e of edits)
     text =
       text.slice(0, state.lines.offsetAt(e.range.start)) + e.newText + text.slice(state.lines.offsetAt(e.range.end));
