@@ -6,11 +6,11 @@
  */
 import type { Diagnostic } from 'vscode-languageserver';
 import { problemToDiagnostic } from './features/codeActions';
-import type { NoteState } from './state';
+import { blocksWithProblems, type NoteState } from './state';
 
 /** All diagnostics of a note: the note's own (such as `note-bounded`) first, then block by block in position order. */
 export function noteDiagnostics(state: NoteState): Diagnostic[] {
   const out: Diagnostic[] = state.report.problems.map((p) => problemToDiagnostic(state, p));
-  for (const b of state.report.blocks) for (const p of b.problems) out.push(problemToDiagnostic(state, p));
+  for (const b of blocksWithProblems(state)) for (const p of b.problems) out.push(problemToDiagnostic(state, p));
   return out;
 }

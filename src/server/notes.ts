@@ -48,7 +48,7 @@ const MAX_ANALYZERS = 8;
 const READ_AT_ONCE = 400;
 
 /** Milliseconds of reading per slice before yielding to the requests waiting: what a request may wait at most. */
-const SLICE_MS = 2;
+const SLICE_MS = 1;
 
 /** Builds analyzer options from the settings. */
 function analyzerFor(s: Settings): Analyzer {
@@ -78,6 +78,12 @@ const later: (f: () => void) => unknown =
   typeof setImmediate === 'function' ? setImmediate : (f: () => void) => setTimeout(f, 0);
 const yieldToRequests = (): Promise<void> => new Promise((resolve) => void later(resolve));
 
+/** Milliseconds after a message during which no slice runs: the turns an answer takes to be written. */
+const QUIET_MS = 4;
+
+/** Waits a little (a timer, so that the turns of the event loop in between serve the messages). */
+const pause = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 1));
+
 /** A note's latest analysis, with what it read from outside. */
 interface Known {
   readonly state: NoteState;
@@ -105,6 +111,28 @@ export class Notes {
   private readonly stats = new Map<string, AnalysisStats>();
   private readonly runs = new Map<string, number>();
   private readonly warming = new Map<string, Warming>();
+  /** Requests about a few blocks being answered (see {@link answering}). */
+  private nearInFlight = 0;
+  /** When the latest message from the client came in (see {@link heard}). */
+  private lastMessage = -Infinity;
+
+  /** Records that a message from the client came in: the slices that read large notes wait a little. */
+  heard(): void {
+    this.lastMessage = performance.now();
+  }
+
+  /**
+   * Runs `f` (a request about a few blocks) with the slices that read large notes held back until it is over,
+   * so that it never waits behind one.
+   */
+  async answering<T>(f: () => Promise<T>): Promise<T> {
+    this.nearInFlight++;
+    try {
+      return await f();
+    } finally {
+      this.nearInFlight--;
+    }
+  }
 
   /** The analysis of this version of the document with these settings, computed on first use. */
   get(given: TextDocument, settings: Settings): NoteState {
@@ -210,6 +238,12 @@ export class Notes {
     const read = async (): Promise<void> => {
       let i = 0;
       while (i < blocks.length) {
+        // A request about a few blocks (a hover, the visible hints) is answered first: no slice while one is out,
+        // nor just after any message came in (its answer takes a few turns of the event loop to go out).
+        if (this.nearInFlight > 0 || performance.now() - this.lastMessage < QUIET_MS) {
+          await pause();
+          continue;
+        }
         const until = performance.now() + SLICE_MS;
         const externals = this.externalsFor(doc.uri);
         while (i < blocks.length && performance.now() < until) analyzer.warm(blocks[i++]!.body, externals);

@@ -153,9 +153,10 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     fn: (s: NoteState, settings: Settings) => T,
     near?: { startLine: number; endLine: number },
   ): Promise<T> => {
+    notes.heard();
     if (token?.isCancellationRequested) return empty;
     try {
-      const n = await note(uri, near);
+      const n = near ? await notes.answering(() => note(uri, near)) : await note(uri);
       if (!n || token?.isCancellationRequested) return empty;
       return fn(n.state, n.settings);
     } catch (err) {
@@ -313,6 +314,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
       );
   });
   documents.onDidChangeContent((e) => {
+    notes.heard();
     runs.edited(e.document.uri, e.document.pieces, (previous) => e.document.changeSince(previous));
     if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
@@ -422,7 +424,10 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
       return b ? resultsMarkdown(s, b, set) : null;
     }),
   );
-  connection.onRequest(AnalysisStatsRequest, (p) => notes.statsOf(p.uri));
+  connection.onRequest(AnalysisStatsRequest, (p) => {
+    notes.heard();
+    return notes.statsOf(p.uri);
+  });
   connection.onRequest(MemoryRequest, memoryStats);
   connection.onRequest(SpectrumStatsRequest, () => ({ files: spectra.known.length, parses: spectra.parses }));
   connection.onRequest(CurveDataRequest, (p, token) =>

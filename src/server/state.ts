@@ -50,6 +50,31 @@ export function blockAt(state: NoteState, offset: number): BlockReport | undefin
   return undefined;
 }
 
+/**
+ * The blocks that meet the note offsets [from, to] (fence lines included), in order: found by binary
+ * search, so a request about the visible lines of a large note reads only the blocks there.
+ */
+export function blocksBetween(state: NoteState, from: number, to: number): BlockReport[] {
+  const blocks = state.report.blocks;
+  let lo = 0;
+  let hi = blocks.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (blocks[mid]!.block.blockEnd < from) lo = mid + 1;
+    else hi = mid;
+  }
+  const out: BlockReport[] = [];
+  for (let i = lo; i < blocks.length && blocks[i]!.block.openStart <= to; i++) out.push(blocks[i]!);
+  return out;
+}
+
+/** The blocks that have problems, in order (from the analysis's list of them where it has one). */
+export function blocksWithProblems(state: NoteState): BlockReport[] {
+  const { blocks, withProblems } = state.report;
+  if (withProblems) return withProblems.map((i) => blocks[i]!);
+  return blocks.filter((b) => b.problems.length > 0);
+}
+
 /** Display options of the core from the editor settings. */
 export function displayOptions(s: Settings): DisplayOptions {
   return {

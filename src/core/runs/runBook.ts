@@ -253,15 +253,34 @@ export class RunBook implements RunResolver {
 
   /** The reference whose value holds the note offset (ends included, as a cursor sees it), or null. */
   referenceAt(note: string, offset: number): BookReference | null {
-    for (const r of this.references(note)) if (offset >= r.span.start && offset <= r.span.end) return r;
+    const b = this.blockHolding(note, offset);
+    if (!b) return null;
+    for (const ref of b.refs) {
+      const span = toNote(b.block, ref.span);
+      if (offset >= span.start && offset <= span.end)
+        return { from: b, ref, span, idSpan: toNote(b.block, ref.idSpan) };
+    }
     return null;
+  }
+
+  /** The block of a note whose fences hold an offset (ends included), found by binary search. */
+  private blockHolding(note: string, offset: number): BookBlock | null {
+    const blocks = this.blocksOf(note);
+    let lo = 0;
+    let hi = blocks.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (blocks[mid]!.block.blockEnd < offset) lo = mid + 1;
+      else hi = mid;
+    }
+    const b = blocks[lo];
+    return b && b.block.openStart <= offset ? b : null;
   }
 
   /** The block whose `id` value holds the note offset (ends included), or null. */
   idAt(note: string, offset: number): BookBlock | null {
-    for (const b of this.blocksOf(note))
-      if (b.place && offset >= b.place.span.start && offset <= b.place.span.end) return b;
-    return null;
+    const b = this.blockHolding(note, offset);
+    return b?.place && offset >= b.place.span.start && offset <= b.place.span.end ? b : null;
   }
 
   /** Every reference, in every note of the book, that leads to `target`. */

@@ -13,7 +13,7 @@ import {
 } from 'vscode-languageserver';
 import type { BlockReport, Problem, Replacement, Severity, Span } from '../../core';
 import { codeLink } from '../docsLink';
-import { toOffset, toRange, type NoteState } from '../state';
+import { blocksBetween, blocksWithProblems, toOffset, toRange, type NoteState } from '../state';
 
 /** Where each diagnostic code is explained: docs/format.md, whose section anchors are the codes. */
 
@@ -50,7 +50,7 @@ export function codeActions(state: NoteState, range: Range): CodeAction[] {
   const from = toOffset(state.lines, range.start);
   const to = toOffset(state.lines, range.end);
   const actions: CodeAction[] = [];
-  for (const b of state.report.blocks) {
+  for (const b of blocksBetween(state, from, to)) {
     if (!touches({ start: b.block.openStart, end: b.block.blockEnd }, from, to)) continue;
     for (const p of b.problems) {
       const fixes = (p.fixes ?? []).filter(
@@ -94,7 +94,7 @@ export function fixAll(state: NoteState): CodeAction | null {
   const chosen: TextEdit[] = [];
   const taken: Span[] = [];
   let fixed = 0;
-  for (const b of state.report.blocks) {
+  for (const b of blocksWithProblems(state)) {
     for (const p of b.problems) {
       const fixes = p.fixes ?? [];
       // One fix, or a list-wide one offered first (the unit for every bare number of a list).

@@ -7,7 +7,7 @@
 import { MarkupKind, type InlayHint, type Position, type Range } from 'vscode-languageserver';
 import { formatNumber, shortSummary, type BlockReport, type DisplayOptions } from '../../core';
 import type { Settings } from '../../shared/settings';
-import { displayOptions, type NoteState } from '../state';
+import { blocksBetween, displayOptions, type NoteState } from '../state';
 import { pairTemperature, type PairLevel } from '../../core';
 import { pairTemperatureText } from './hover';
 import { blockResultsMarkdown, firstError } from './markdown';
@@ -17,7 +17,9 @@ export function inlayHints(state: NoteState, range: Range, settings: Settings): 
   if (!settings.inlayHints) return [];
   const o = displayOptions(settings);
   const hints: InlayHint[] = [];
-  for (const b of state.report.blocks) {
+  const from = state.lines.lineStart(range.start.line);
+  const to = state.lines.lineEnd(range.end.line);
+  for (const b of blocksBetween(state, from, to)) {
     const first = state.lines.positionAt(b.block.openStart).line;
     const last = state.lines.positionAt(b.block.blockEnd).line;
     if (last < range.start.line || first > range.end.line) continue;
