@@ -27,7 +27,7 @@ export function noteExternals(uri: string, parts: readonly ExternalPart[]): Exte
   const runs = parts.find((p) => p.runs)?.runs;
   let sources: Omit<Partial<Externals>, 'note' | 'stamp' | 'changes' | 'changedSince'> = {};
   for (const p of parts) if (p.sourcesFor) sources = { ...sources, ...p.sourcesFor(uri) };
-  const counted = parts.every((p) => p.changes && p.changedSince);
+  const counted = parts.every((p) => typeof p.changes === 'function' && typeof p.changedSince === 'function');
   return {
     ...sources,
     note: uri,

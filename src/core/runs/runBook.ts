@@ -354,7 +354,13 @@ export class RunBook implements RunResolver {
     let stamp: string | null = null;
     if (parsed?.kind === 'ref') {
       const r = this.locate(parsed.from, parsed);
-      stamp = r.kind === 'found' ? this.closure(r.block) : null;
+      // An unknown id's answer names the closest ids: it changes with them.
+      stamp =
+        r.kind === 'found'
+          ? this.closure(r.block)
+          : r.kind === 'unknown'
+            ? hash('unknown\n' + this.nearIds(parsed.id, r.among).join('\n'))
+            : null;
     } else if (parsed?.kind === 'copies') {
       stamp = this.copiesStamp(parsed.id);
     }
@@ -549,13 +555,22 @@ export class RunBook implements RunResolver {
     for (const b of added) this.name(b, 1);
     // A reference's stamp hashes the blocks it reaches: it may change when a block that a reference names, or
     // one that makes references, was read again differently.
-    const refs =
-      bodies && [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id)));
     // The blocks after the change: the old ones, moved where they are (the book alone holds them; the lists by id
     // and everything keyed by block keep them).
     const shift = fresh.length - resume;
     const moved = resume >= 0 ? blocks.slice(resume) : [];
     if (delta !== 0 || lines !== 0 || shift !== 0) for (const b of moved) moveBookBlock(b, delta, lines, shift);
+    // A reference's stamp hashes the blocks it reaches, with their lines (what a referring block says of a broken
+    // run names the line where it is) and, for an unknown id, the closest ids. So it may change when a block that a
+    // reference names or that makes references was read again differently, when an id came or went, or when
+    // blocks moved to other lines; none of this can matter where no reference is written.
+    const refs =
+      this.named.size + dropped.reduce((n, b) => n + b.refs.length, 0) > 0 &&
+      (lines !== 0 ||
+        shift !== 0 ||
+        (bodies &&
+          (ids.size > 0 ||
+            [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id))))));
     const all = fresh.concat(moved);
     // Each id's list keeps note order, then block order: this note's blocks with the id, dropped ones out and
     // new ones in, sorted by their place (the lists are short: one block per id, unless duplicated).
@@ -740,7 +755,8 @@ export class RunBook implements RunResolver {
     const parts: string[] = [];
     for (let i = 0; i < queue.length; i++) {
       const b = queue[i]!;
-      parts.push(`${b.note}#${b.id ?? b.index}:${b.hash}`);
+      // The line too: what a referring block says of a broken run names the line where it is.
+      parts.push(`${b.note}#${b.id ?? b.index}:${b.hash}@${b.block.openLine}`);
       for (const ref of b.refs) {
         const r = this.locate(b.note, ref);
         if (r.kind !== 'found') {
