@@ -151,7 +151,7 @@ async function main(): Promise<number> {
   });
 
   log('language server on notes of 250, 4,000 and 16,000 blocks …');
-  const scale = await measureScale(Math.max(40, 2 * reps));
+  const scale = await measureScale(Math.max(100, 4 * reps));
   const [small, mid, large] = [scale[0]!, scale[1]!, scale[2]!];
   for (const x of scale)
     figures.push({
@@ -263,7 +263,6 @@ async function main(): Promise<number> {
     holds: null,
     data: { ms: ws.changedNoteMs, relistMs: ws.relistMs, perNoteMs: ws.allMs / ws.notes },
   });
-
 
   log('language server: edit → hover on a block using a 1 M-point spectrum …');
   const sh = await measureSpectrumHover(1_000_000, Math.max(20, reps));

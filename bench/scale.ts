@@ -2,9 +2,11 @@
  * The language server on notes of growing size (issue 18), each in a fresh
  * server process spawned over stdio as an editor would:
  *
- * - edit → fresh diagnostics: one character of one block changed, then the
- *   pulled diagnostics of that version; p50 / p95 per size, and the p95 on
- *   the largest note over the p95 on the smallest;
+ * - edit → fresh diagnostics: one character typed at the end of a block's
+ *   id line (and, the next time, taken back: the note's length changes with
+ *   every edit, as with typing), then the pulled diagnostics of that version;
+ *   p50 / p95 per size, and the p95 on the largest note over the p95 on the
+ *   smallest;
  * - open: from `didOpen` to the complete diagnostics of the note;
  * - first hover right after `didOpen` (on a block in the middle of the note,
  *   before its whole analysis), against a warm hover plus the reading of
@@ -117,17 +119,21 @@ export async function measureSize(blocks: number, samples: number): Promise<Size
     let version = 1;
     const edits: number[] = [];
     for (let i = 0; i < samples; i++) {
-      const b = report.blocks[(i * 97 + 13) % report.blocks.length]!;
+      // Pairs of edits in one block: a character typed at the end of its id line, then taken back.
+      const b = report.blocks[(Math.floor(i / 2) * 97 + 13) % report.blocks.length]!;
       const idLine = b.block.bodyLine;
-      const character = lines.lineEnd(idLine) - lines.lineStart(idLine) - 1;
+      const character = lines.lineEnd(idLine) - lines.lineStart(idLine);
+      const typed = i % 2 === 0;
       version++;
       const t = now();
       await s.conn.sendNotification('textDocument/didChange', {
         textDocument: { uri: URI, version },
         contentChanges: [
           {
-            range: { start: { line: idLine, character }, end: { line: idLine, character: character + 1 } },
-            text: String(version % 10),
+            range: typed
+              ? { start: { line: idLine, character }, end: { line: idLine, character } }
+              : { start: { line: idLine, character }, end: { line: idLine, character: character + 1 } },
+            text: typed ? String(version % 10) : '',
           },
         ],
       });
