@@ -115,7 +115,7 @@ export class RunBook implements RunResolver {
   /** Notes looked for through `load` and not found (until the next change), with why when the host refused. */
   private readonly missing = new Map<string, string | null>();
   /** Evaluated blocks, by block, with the stamp of what they read. */
-  private readonly evaluated = new WeakMap<BookBlock, { stamp: string; facts: RunFacts }>();
+  private readonly evaluated = new WeakMap<BookBlock, { stamp: string; facts: RunFacts; line: number }>();
   /** Counts changes (see {@link changes}). */
   private generation = 0;
   /** Stamps computed since the last change that could alter them: of `copies` keys, and of reference keys. */
@@ -355,9 +355,10 @@ export class RunBook implements RunResolver {
     if (parsed?.kind === 'ref') {
       const r = this.locate(parsed.from, parsed);
       // An unknown id's answer names the closest ids: it changes with them.
+      // What a referring block says of a broken run names the line where it breaks: that line is in the stamp.
       stamp =
         r.kind === 'found'
-          ? this.closure(r.block)
+          ? this.closure(r.block) + this.brokenLine(r.block)
           : r.kind === 'unknown'
             ? hash('unknown\n' + this.nearIds(parsed.id, r.among).join('\n'))
             : null;
@@ -405,7 +406,8 @@ export class RunBook implements RunResolver {
   facts(b: BookBlock): RunFacts {
     const stamp = this.closure(b);
     const memo = this.evaluated.get(b);
-    if (memo && memo.stamp === stamp) return memo.facts;
+    // The facts name lines: a block moved by an edit above it is evaluated again.
+    if (memo && memo.stamp === stamp && memo.line === b.block.openLine) return memo.facts;
     const place = b.place ?? {
       note: b.note,
       span: { start: b.block.openStart, end: b.block.openEnd },
@@ -427,7 +429,7 @@ export class RunBook implements RunResolver {
           line: place.line,
         },
       };
-      this.evaluated.set(b, { stamp, facts });
+      this.evaluated.set(b, { stamp, facts, line: b.block.openLine });
       return facts;
     }
     const c = this.analyzer.analyseBody(b.block.body, this.externalsFor(b.note));
@@ -453,7 +455,7 @@ export class RunBook implements RunResolver {
       status: error || !c.results ? 'invalid' : c.results.status,
       error,
     };
-    this.evaluated.set(b, { stamp, facts });
+    this.evaluated.set(b, { stamp, facts, line: b.block.openLine });
     return facts;
   }
 
@@ -560,17 +562,17 @@ export class RunBook implements RunResolver {
     const shift = fresh.length - resume;
     const moved = resume >= 0 ? blocks.slice(resume) : [];
     if (delta !== 0 || lines !== 0 || shift !== 0) for (const b of moved) moveBookBlock(b, delta, lines, shift);
-    // A reference's stamp hashes the blocks it reaches, with their lines (what a referring block says of a broken
-    // run names the line where it is) and, for an unknown id, the closest ids. So it may change when a block that a
-    // reference names or that makes references was read again differently, when an id came or went, or when
-    // blocks moved to other lines; none of this can matter where no reference is written.
+    // A reference's stamp hashes the blocks it reaches and, for an unknown id, the closest ids, and for a broken
+    // run the line where it breaks. So it may change when a block that a reference names or that makes references
+    // was read again differently, when an id came or went, or when a named broken run moved to other lines; none
+    // of this can matter where no reference is written.
+    const named = this.named.size + dropped.reduce((n, b) => n + b.refs.length, 0) > 0;
     const refs =
-      this.named.size + dropped.reduce((n, b) => n + b.refs.length, 0) > 0 &&
-      (lines !== 0 ||
-        shift !== 0 ||
-        (bodies &&
-          (ids.size > 0 ||
-            [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id))))));
+      named &&
+      ((bodies &&
+        (ids.size > 0 ||
+          [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id))))) ||
+        (lines !== 0 && moved.some((b) => b.id !== null && this.named.has(b.id) && this.brokenLine(b) !== '')));
     const all = fresh.concat(moved);
     // Each id's list keeps note order, then block order: this note's blocks with the id, dropped ones out and
     // new ones in, sorted by their place (the lists are short: one block per id, unless duplicated).
@@ -593,6 +595,15 @@ export class RunBook implements RunResolver {
     this.notes.set(old.note, { note: old.note, text, blocks: all, loaded: false });
     this.changed({ ids, refs });
     return true;
+  }
+
+  /** For a run evaluated as broken, `@` and the line where it breaks; '' otherwise (or not evaluated yet). */
+  private brokenLine(b: BookBlock): string {
+    const memo = this.evaluated.get(b);
+    const f = memo?.facts;
+    if (!memo || !f || (f.results && !f.error)) return '';
+    // The error's line is as evaluated; the place moves with the block.
+    return `@${f.error ? f.error.line + b.block.openLine - memo.line : f.place.line}`;
   }
 
   /** A block of the index for a block found by the scan. */
@@ -755,8 +766,7 @@ export class RunBook implements RunResolver {
     const parts: string[] = [];
     for (let i = 0; i < queue.length; i++) {
       const b = queue[i]!;
-      // The line too: what a referring block says of a broken run names the line where it is.
-      parts.push(`${b.note}#${b.id ?? b.index}:${b.hash}@${b.block.openLine}`);
+      parts.push(`${b.note}#${b.id ?? b.index}:${b.hash}`);
       for (const ref of b.refs) {
         const r = this.locate(b.note, ref);
         if (r.kind !== 'found') {
