@@ -13,7 +13,7 @@ export {
   type Bounded,
   type DocumentReport,
 } from './analyzer/analyzer';
-export type { TextChange } from './analyzer/rescanPlan';
+export { movedBlock, type TextChange } from './analyzer/rescanPlan';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export {

@@ -15,6 +15,7 @@
  */
 import {
   Analyzer,
+  movedBlock,
   dependenciesHold,
   type AnalyzerLimits,
   type Dependency,
@@ -62,10 +63,11 @@ function analyzerFor(s: Settings): Analyzer {
 
 /** A note being read in slices: its fence scan, for the requests about a few blocks meanwhile. */
 interface Warming {
+  /** The version whose fences were found, and its text. */
   readonly version: number;
+  readonly text: NoteText;
   readonly key: string;
-  readonly text: string;
-  /** Our blocks, in order. */
+  /** Every fenced block of that version, in order (ours are told apart as they are read). */
   readonly blocks: readonly FencedBlock[];
   readonly done: Promise<void>;
 }
@@ -206,16 +208,35 @@ export class Notes {
     const doc = noteDocument(given);
     const w = this.ready(doc, settings) ? undefined : this.warm(doc, settings);
     if (!w) return this.get(doc, settings);
+    // The fences were found in the version the note opened with; an edit since moved those after it, and those
+    // it touched are not known until the whole note is read (a request there waits for that).
+    let shift = { delta: 0, lines: 0 };
+    let [a, b] = [from, to];
+    if (w.version !== doc.version) {
+      const change = doc.changeSince(w.text);
+      const delta = doc.pieces.length - w.text.length;
+      if (!change) return this.get(doc, settings);
+      if (to < change.prefix) shift = { delta: 0, lines: 0 };
+      else if (from >= doc.pieces.length - change.suffix) {
+        shift = { delta, lines: doc.pieces.lineCount - w.text.lineCount };
+        [a, b] = [from - delta, to - delta];
+      } else return this.get(doc, settings);
+    }
+    const analyzer = this.analyzer(w.key, settings);
     let lo = 0;
     let hi = w.blocks.length;
     while (lo < hi) {
       const mid = (lo + hi) >> 1;
-      if (w.blocks[mid]!.blockEnd < from) lo = mid + 1;
+      if (w.blocks[mid]!.blockEnd < a) lo = mid + 1;
       else hi = mid;
     }
     const near: FencedBlock[] = [];
-    for (let i = lo; i < w.blocks.length && w.blocks[i]!.openStart <= to; i++) near.push(w.blocks[i]!);
-    const blocks = this.analyzer(w.key, settings).reportsOf(near, this.externalsFor(doc.uri));
+    for (let i = lo; i < w.blocks.length && w.blocks[i]!.openStart <= b; i++) {
+      const f = w.blocks[i]!;
+      if (analyzer.isLevelsFence(f))
+        near.push(shift.delta === 0 && shift.lines === 0 ? f : movedBlock(f, shift.delta, shift.lines));
+    }
+    const blocks = analyzer.reportsOf(near, this.externalsFor(doc.uri));
     return {
       uri: doc.uri,
       version: doc.version,
@@ -228,12 +249,12 @@ export class Notes {
   /** Starts (or finds) the slices that read a large note; undefined for a note small enough to read at once. */
   private warm(doc: NoteDocument, settings: Settings): Warming | undefined {
     const key = analysisKey(settings);
+    // One reading per note and settings: an edit while it goes on does not start it again (the cache is by
+    // body, so what it reads serves every version).
     const current = this.warming.get(doc.uri);
-    if (current && current.version === doc.version && current.key === key) return current;
+    if (current && current.key === key) return current;
     const analyzer = this.analyzer(key, settings);
-    const text = doc.getText();
-    const blocks: FencedBlock[] = [];
-    for (const b of doc.fences()) if (analyzer.isLevelsFence(b)) blocks.push(b);
+    const blocks = doc.fences();
     if (blocks.length < READ_AT_ONCE) return undefined;
     const read = async (): Promise<void> => {
       let i = 0;
@@ -246,15 +267,17 @@ export class Notes {
         }
         const until = performance.now() + SLICE_MS;
         const externals = this.externalsFor(doc.uri);
-        while (i < blocks.length && performance.now() < until) analyzer.warm(blocks[i++]!.body, externals);
+        while (i < blocks.length && performance.now() < until) {
+          const b = blocks[i++]!;
+          if (analyzer.isLevelsFence(b)) analyzer.warm(b.body, externals);
+        }
         await yieldToRequests();
-        // A newer version (or other settings) took over: it has slices of its own, and the cache keeps what was read.
-        const now = this.warming.get(doc.uri);
-        if (now?.version !== doc.version || now.key !== key) return;
+        // Other settings took over, or the note was closed: the cache keeps what was read.
+        if (this.warming.get(doc.uri)?.key !== key) return;
       }
       this.warming.delete(doc.uri);
     };
-    const w: Warming = { version: doc.version, key, text, blocks, done: Promise.resolve() };
+    const w: Warming = { version: doc.version, text: doc.pieces, key, blocks, done: Promise.resolve() };
     const started: Warming = { ...w, done: yieldToRequests().then(read) };
     this.warming.set(doc.uri, started);
     return started;
