@@ -238,20 +238,27 @@ export class Analyzer {
       }
       end = resume >= 0 ? resume : old.reports.length;
       for (let i = reuse.keep; i < end; i++) bodyChars -= old.entries[i]!.body.length;
-      if (resume >= 0) {
-        tailEntries = old.entries.slice(resume);
-        tail = old.reports.slice(resume);
+      if (resume >= 0 && (reuse.delta !== 0 || lines !== 0)) {
         // Moved by the change: each report is moved where it is (the only walk over the blocks after the change,
         // a few additions per block). The version read before is left behind by this one: its reports are not
         // read again (the host asks for the latest version, and the memory of the old one goes below).
-        if (reuse.delta !== 0 || lines !== 0) for (const r of tail) shiftReport(r, reuse.delta, lines);
+        for (let i = resume; i < old.reports.length; i++) shiftReport(old.reports[i]!, reuse.delta, lines);
       }
       shift = fresh.length - (end - reuse.keep);
+      if (resume >= 0 && shift !== 0) {
+        tail = old.reports.slice(resume);
+        tailEntries = old.entries.slice(resume);
+      }
     }
-    const reports = reuse.same ? old.reports.slice() : old.reports.slice(0, reuse.keep).concat(fresh, tail);
-    const entries = reuse.same
-      ? old.entries.slice()
-      : old.entries.slice(0, reuse.keep).concat(freshEntries, tailEntries);
+    // One copy of the old lists with the changed stretch put in (or the new stretch between the two ends).
+    const inPlace = reuse.same || shift === 0;
+    const reports = inPlace ? old.reports.slice() : old.reports.slice(0, reuse.keep).concat(fresh, tail);
+    const entries = inPlace ? old.entries.slice() : old.entries.slice(0, reuse.keep).concat(freshEntries, tailEntries);
+    if (inPlace && !reuse.same)
+      for (let i = 0; i < fresh.length; i++) {
+        reports[reuse.keep + i] = fresh[i]!;
+        entries[reuse.keep + i] = freshEntries[i]!;
+      }
     if (reports.length > maxBlocks || bodyChars > maxBodyChars) return null;
     // The blocks with problems: the old ones before and after the change, and the new ones.
     const withProblems: number[] = [];

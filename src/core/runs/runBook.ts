@@ -523,7 +523,8 @@ export class RunBook implements RunResolver {
     const keep = Math.max(0, k - 1);
     const from = keep < blocks.length && k > 0 ? blocks[keep]!.block.openStart : 0;
     const line = keep < blocks.length && k > 0 ? blocks[keep]!.block.openLine : 0;
-    const fresh: BookBlock[] = blocks.slice(0, k > 0 ? keep : 0);
+    const head = k > 0 ? keep : 0;
+    const added: BookBlock[] = [];
     const dropped: BookBlock[] = [];
     let resume = -1;
     let lines = 0;
@@ -539,12 +540,10 @@ export class RunBook implements RunResolver {
         }
       }
       if (!isLevelsInfo(block, this.infoStrings)) continue;
-      fresh.push(this.bookBlock(old.note, fresh.length, block));
+      added.push(this.bookBlock(old.note, head + added.length, block));
     }
-    const firstOld = k > 0 ? keep : 0;
     const lastOld = resume >= 0 ? resume : blocks.length;
-    for (let i = firstOld; i < lastOld; i++) dropped.push(blocks[i]!);
-    const added = fresh.slice(firstOld);
+    for (let i = head; i < lastOld; i++) dropped.push(blocks[i]!);
     // The ids whose sets of blocks changed (a `copies` stamp); blocks read again the same (body and id) change nothing.
     const count = new Map<string, number>();
     for (const b of dropped) if (b.id !== null) count.set(b.id, (count.get(b.id) ?? 0) - 1);
@@ -555,13 +554,15 @@ export class RunBook implements RunResolver {
       dropped.length !== added.length || dropped.some((d, i) => d.hash !== added[i]!.hash || d.id !== added[i]!.id);
     for (const b of dropped) this.name(b, -1);
     for (const b of added) this.name(b, 1);
-    // A reference's stamp hashes the blocks it reaches: it may change when a block that a reference names, or
-    // one that makes references, was read again differently.
     // The blocks after the change: the old ones, moved where they are (the book alone holds them; the lists by id
-    // and everything keyed by block keep them).
-    const shift = fresh.length - resume;
-    const moved = resume >= 0 ? blocks.slice(resume) : [];
-    if (delta !== 0 || lines !== 0 || shift !== 0) for (const b of moved) moveBookBlock(b, delta, lines, shift);
+    // and everything keyed by block keep them). The new list is one copy of the old with the changed stretch put in.
+    const shift = head + added.length - lastOld;
+    const all =
+      shift === 0 ? blocks.slice() : blocks.slice(0, head).concat(added, resume >= 0 ? blocks.slice(resume) : []);
+    if (shift === 0) for (let i = 0; i < added.length; i++) all[head + i] = added[i]!;
+    const moved = resume >= 0 ? all.length - (blocks.length - resume) : all.length;
+    if (resume >= 0 && (delta !== 0 || lines !== 0 || shift !== 0))
+      for (let i = moved; i < all.length; i++) moveBookBlock(all[i]!, delta, lines, shift);
     // A reference's stamp hashes the blocks it reaches and, for an unknown id, the closest ids, and for a broken
     // run the line where it breaks. So it may change when a block that a reference names or that makes references
     // was read again differently, when an id came or went, or when a named broken run moved to other lines; none
@@ -572,8 +573,8 @@ export class RunBook implements RunResolver {
       ((bodies &&
         (ids.size > 0 ||
           [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id))))) ||
-        (lines !== 0 && moved.some((b) => b.id !== null && this.named.has(b.id) && this.brokenLine(b) !== '')));
-    const all = fresh.concat(moved);
+        (lines !== 0 &&
+          all.slice(moved).some((b) => b.id !== null && this.named.has(b.id) && this.brokenLine(b) !== '')));
     // Each id's list keeps note order, then block order: this note's blocks with the id, dropped ones out and
     // new ones in, sorted by their place (the lists are short: one block per id, unless duplicated).
     const gone = new Set(dropped);
