@@ -153,6 +153,12 @@ export function formatTable(
   return out.join('\n') + '\n';
 }
 
+/** One entry as it stands inside the JSON array of {@link formatJson} (two-space indented, no comma). */
+export function jsonElement(entry: Row['entry']): string {
+  const inArray = JSON.stringify([entry], null, 2);
+  return inArray.slice(2, -2); // drops "[\n" and "\n]"
+}
+
 /** The JSON array of the contract, two-space indented. */
 export function formatJson(rows: readonly Row[]): string {
   return (

@@ -20,19 +20,22 @@ import {
   terminalText,
   unreadableEntry,
   SpectrumShelf,
+  needRunBook,
+  scanFencedBlocks,
+  type RunBook,
   type Externals,
   type Status,
 } from '../core';
 import { noteSpectra } from './spectra';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
-import { collectNotes, UsageError } from './files';
+import { collectNotes, UsageError, type Note } from './files';
 import { bookName, bookText, commandBook, readableRoots } from './runs';
 import {
   DEFAULT_TABLE_WIDTH,
   formatCsv,
-  formatJson,
   formatLinePoints,
+  jsonElement,
   formatMarkdown,
   formatTable,
   where,
@@ -51,75 +54,115 @@ export interface Io {
   readonly stdin?: () => Uint8Array;
 }
 
-/** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
-function analyseAll(paths: readonly string[], io: Io): Row[] {
+/** One note as read: its text (a byte-order mark dropped) and where its bytes were not UTF-8. */
+interface ReadNote {
+  readonly note: Note;
+  readonly text: string;
+  readonly invalid: readonly { readonly byte: number; readonly offset: number }[];
+}
+
+/**
+ * The rows of the notes under the given paths, note by note, in file then line order (an unreadable file is one
+ * row). A block may use a run of any note read, so every note is read first; the book of runs is built only when
+ * the notes need one (a block can refer to a run, or two blocks carry one id: core/runs/plainIds.ts), since
+ * building it reads every block once more. Nothing of a note is kept once its rows are given: the analyzer's
+ * cache is emptied after each, so memory holds the notes' texts and one note's work.
+ */
+function* noteRowsOf(paths: readonly string[], io: Io): Generator<Row[]> {
   const analyzer = new Analyzer();
   // One shelf for the run: a spectrum file that several notes use is parsed once.
   const shelf = new SpectrumShelf();
-  const rows: Row[] = [];
   const stdin = io.stdin ?? (() => new Uint8Array(0));
-  // Every note read is in one book first, so that a block may use a run of any of them (runs/runBook.ts); each
-  // note's spectrum files are read relative to its folder, for the blocks of the note and those it refers to.
-  const book = commandBook(analyzer, readableRoots(paths, io.cwd), (note) => noteSpectra(shelf, note, dirname(note)));
-  const read = collectNotes(paths, io.cwd, stdin).map((note) => {
+  // Each note's spectrum files are read relative to its folder, for the blocks of the note and those it refers to.
+  const spectra = (note: string): Externals => noteSpectra(shelf, note, dirname(note));
+  const read: ReadNote[] = collectNotes(paths, io.cwd, stdin).map((note) => {
     if ('unreadable' in note) return { note, text: '', invalid: [] };
     const decoded = decodeUtf8(note.bytes);
     // A byte-order mark is not part of the note; offsets after it move back by one.
     const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
     const text = bom ? decoded.text.slice(1) : decoded.text;
-    book.setNote(bookName(note.name, io.cwd), bookText(note.name, text));
     return { note, text, invalid: decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom })) };
   });
-  for (const { note, text, invalid } of read) {
-    if ('unreadable' in note) {
-      rows.push({ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) });
-      continue;
-    }
-    const externals = book.externalsFor(bookName(note.name, io.cwd));
-    if (isNotebookPath(note.name)) {
-      rows.push(...notebookRows(analyzer, note.name, text, externals));
-      if (invalid.length > 0)
-        io.err(
-          terminalText(
-            `boltzmark: warning: '${note.name}': the bytes at offset ${invalid[0]!.byte} are not UTF-8; they are read as U+FFFD`,
-          ) + '\n',
-        );
-      continue;
-    }
-    const lines = new LineIndex(text);
-    const blocks = analyzer.analyzeText(text, externals).blocks;
-    // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
-    const outside: { byte: number; offset: number }[] = [];
-    let next = 0;
-    for (const block of blocks) {
-      const entry = reportEntry(note.name, block, lines);
-      while (next < invalid.length && invalid[next]!.offset < block.block.openStart) outside.push(invalid[next++]!);
-      const inside: { byte: number; offset: number }[] = [];
-      while (next < invalid.length && invalid[next]!.offset < block.block.blockEnd) inside.push(invalid[next++]!);
-      const first = inside[0];
-      rows.push({
-        block,
-        entry: first
-          ? {
-              ...entry,
-              diagnostics: [notUtf8Diagnostic(first.byte, first.offset, inside.length, lines), ...entry.diagnostics],
-            }
-          : entry,
-      });
-    }
-    // Bytes outside every block change no result, but are not replaced in silence either.
-    for (; next < invalid.length; next++) outside.push(invalid[next]!);
-    if (outside.length > 0)
+  const texts = read.map((r) =>
+    'unreadable' in r.note ? null : { name: r.note.name, text: bookText(r.note.name, r.text) },
+  );
+  let book: RunBook | null = null;
+  if (needRunBook(levelsBodies(analyzer, texts))) {
+    book = commandBook(analyzer, readableRoots(paths, io.cwd), spectra);
+    for (const t of texts) if (t) book.setNote(bookName(t.name, io.cwd), t.text);
+  }
+  const externalsFor = book ? (note: string): Externals => book!.externalsFor(note) : spectra;
+  for (const r of read) {
+    yield rowsOfNote(analyzer, r, io, externalsFor);
+    analyzer.clear();
+  }
+}
+
+/** The bodies of every `levels` block of the notes' texts (as the book would index them). */
+function* levelsBodies(analyzer: Analyzer, texts: readonly ({ text: string } | null)[]): Generator<string> {
+  for (const t of texts) {
+    if (!t) continue;
+    for (const block of scanFencedBlocks(t.text)) if (analyzer.isLevelsFence(block)) yield block.body;
+  }
+}
+
+/** The rows of one note read (one row for an unreadable one); warnings about its bytes go to `io.err`. */
+function rowsOfNote(analyzer: Analyzer, r: ReadNote, io: Io, externalsFor: (note: string) => Externals): Row[] {
+  const { note, text, invalid } = r;
+  if ('unreadable' in note)
+    return [{ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) }];
+  const externals = externalsFor(bookName(note.name, io.cwd));
+  const rows: Row[] = [];
+  if (isNotebookPath(note.name)) {
+    rows.push(...notebookRows(analyzer, note.name, text, externals));
+    if (invalid.length > 0)
       io.err(
         terminalText(
-          `boltzmark: warning: '${note.name}': the bytes at offset ${outside[0]!.byte} are not UTF-8` +
-            (outside.length > 1
-              ? ` (and ${outside.length - 1} more outside levels blocks)`
-              : ' (outside levels blocks)') +
-            '; they are read as U+FFFD',
+          `boltzmark: warning: '${note.name}': the bytes at offset ${invalid[0]!.byte} are not UTF-8; they are read as U+FFFD`,
         ) + '\n',
       );
+    return rows;
   }
+  const lines = new LineIndex(text);
+  const blocks = analyzer.analyzeText(text, externals).blocks;
+  // Blocks and bad sequences are both in note order: one pass pairs them (no block × sequence scan).
+  const outside: { byte: number; offset: number }[] = [];
+  let next = 0;
+  for (const block of blocks) {
+    const entry = reportEntry(note.name, block, lines);
+    while (next < invalid.length && invalid[next]!.offset < block.block.openStart) outside.push(invalid[next++]!);
+    const inside: { byte: number; offset: number }[] = [];
+    while (next < invalid.length && invalid[next]!.offset < block.block.blockEnd) inside.push(invalid[next++]!);
+    const first = inside[0];
+    rows.push({
+      block,
+      entry: first
+        ? {
+            ...entry,
+            diagnostics: [notUtf8Diagnostic(first.byte, first.offset, inside.length, lines), ...entry.diagnostics],
+          }
+        : entry,
+    });
+  }
+  // Bytes outside every block change no result, but are not replaced in silence either.
+  for (; next < invalid.length; next++) outside.push(invalid[next]!);
+  if (outside.length > 0)
+    io.err(
+      terminalText(
+        `boltzmark: warning: '${note.name}': the bytes at offset ${outside[0]!.byte} are not UTF-8` +
+          (outside.length > 1
+            ? ` (and ${outside.length - 1} more outside levels blocks)`
+            : ' (outside levels blocks)') +
+          '; they are read as U+FFFD',
+      ) + '\n',
+    );
+  return rows;
+}
+
+/** Every block of the notes under the given paths, in file then line order; an unreadable file is one row. */
+function analyseAll(paths: readonly string[], io: Io): Row[] {
+  const rows: Row[] = [];
+  for (const r of noteRowsOf(paths, io)) for (const row of r) rows.push(row);
   return rows;
 }
 
@@ -158,13 +201,13 @@ export function report(
   statuses: readonly Status[] | null = null,
   wide = false,
 ): number {
+  if (format === 'json') return reportJson(paths, io, statuses);
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
   const width = io.columns !== undefined && io.columns >= 40 ? io.columns : DEFAULT_TABLE_WIDTH;
   const table = (r: readonly Row[]): string => formatTable(r, { width, wide });
   const formatter =
     {
-      json: formatJson,
       csv: formatCsv,
       'line-points': formatLinePoints,
       markdown: formatMarkdown,
@@ -175,21 +218,44 @@ export function report(
 }
 
 /**
+ * The JSON report, written note by note as each is analysed: the same bytes as `formatJson` of every row, with
+ * nothing of a note kept once it is written.
+ */
+function reportJson(paths: readonly string[], io: Io, statuses: readonly Status[] | null): number {
+  let written = 0;
+  let error = false;
+  for (const rows of noteRowsOf(paths, io)) {
+    error ||= hasError(rows);
+    let part = '';
+    for (const r of rows) {
+      if (statuses && !statuses.includes(r.entry.status)) continue;
+      part += (written++ === 0 ? '[\n' : ',\n') + jsonElement(r.entry);
+    }
+    if (part !== '') io.out(part);
+  }
+  io.out(written === 0 ? '[]\n' : '\n]\n');
+  return error ? 1 : 0;
+}
+
+/**
  * `boltzmark check`: every diagnostic as `file:line:col: severity code message`,
  * the form compilers print, so editors and CI annotate them; exit 1 on errors.
  */
 export function check(paths: readonly string[], io: Io): number {
-  const rows = analyseAll(paths, io);
+  let blocks = 0;
   let errors = 0;
   let warnings = 0;
-  for (const { entry } of rows) {
+  for (const { entry } of (function* () {
+    for (const rows of noteRowsOf(paths, io)) yield* rows;
+  })()) {
+    blocks++;
     for (const d of entry.diagnostics) {
       if (d.severity === 'error') errors++;
       if (d.severity === 'warning') warnings++;
       io.out(`${terminalText(`${where(entry, d.line)}:${d.column}: ${d.severity} ${d.code} ${d.message}`)}\n`);
     }
   }
-  io.err(`boltzmark: ${rows.length} block(s) checked, ${errors} error(s), ${warnings} warning(s)\n`);
+  io.err(`boltzmark: ${blocks} block(s) checked, ${errors} error(s), ${warnings} warning(s)\n`);
   return errors > 0 ? 1 : 0;
 }
 

@@ -39,6 +39,7 @@ export {
   type BookBlock,
   type BookReference,
 } from './runs/runBook';
+export { needRunBook, plainFacts, type PlainFacts } from './runs/plainIds';
 export { splitReference, resolveNotePath, isInside } from './runs/paths';
 export { EXTRAPOLATE_KEYS } from './block/extrapolate';
 export { runLabel, runPlaceText, thermalReferenceText, polarizationAtText } from './present/runSummary';

@@ -1,0 +1,75 @@
+/**
+ * What a host can tell about a block's part in runs by reference from its
+ * text alone, without reading its YAML: whether it can refer to a run, and
+ * its id when the id is written the plainest way. The command line uses it
+ * to learn whether a set of notes needs a book of runs at all (a block may
+ * refer to another, or two blocks may carry one id): when no block can refer
+ * to a run and every id is known and carried once, every block reads the same
+ * without the book, and each block is read once instead of twice.
+ *
+ * Every answer errs on the safe side: a body this cannot be sure about is
+ * `unsure`, and the host then builds the book.
+ */
+
+/** What the text of one block body tells. */
+export type PlainFacts =
+  /** The body may refer to a run, or its id is not written plainly: only reading it tells. */
+  | { readonly kind: 'unsure' }
+  /** The body refers to no run; its id is `id` (null: it has none, or its reading finds none). */
+  | { readonly kind: 'plain'; readonly id: string | null };
+
+const UNSURE: PlainFacts = { kind: 'unsure' };
+
+/**
+ * A key named `run` anywhere (plain or quoted, in a block or a flow mapping), which every reference to a run
+ * is written with; escapes, anchors, aliases, tags, explicit keys, directives and document markers could hide
+ * one or change what the text means, so they make the body unsure too.
+ */
+const MAY_REFER = /run['"]?[ \t]*:|[\\&*!?%]|^(?:---|\.\.\.)/m;
+
+/** A key `id` anywhere, as a block key or inside a flow mapping. */
+const ID_KEY = /(?:^|[\s{,[])["']?id["']?[ \t]*:/gm;
+
+/** The plainest id line: `id:` at the left margin, one space or more, a value the core schema reads as text. */
+const PLAIN_ID = /^id:[ ]+([A-Za-z][A-Za-z0-9 _.+/-]*?)[ ]*$/;
+
+/** Words a YAML reader takes for null or a boolean (the core schema's and, to be safe, YAML 1.1's). */
+const NOT_TEXT = /^(?:y|yes|n|no|true|false|on|off|null|nan|inf|infinity)$/i;
+
+/** What the text of a block body tells (see {@link PlainFacts}). */
+export function plainFacts(body: string): PlainFacts {
+  if (MAY_REFER.test(body) || body.includes('\t')) return UNSURE;
+  const keys = body.match(ID_KEY);
+  if (!keys) return { kind: 'plain', id: null };
+  if (keys.length !== 1) return UNSURE;
+  const lines = body.split(/\r\n|\r|\n/);
+  const at = lines.findIndex((l) => l.startsWith('id:'));
+  if (at < 0) return UNSURE;
+  const m = PLAIN_ID.exec(lines[at]!);
+  if (!m || NOT_TEXT.test(m[1]!)) return UNSURE;
+  // A plain scalar goes on over more indented lines (blank ones between them too): the next line with text
+  // must start at the left margin, where the next key is.
+  for (let i = at + 1; i < lines.length; i++) {
+    const l = lines[i]!;
+    if (l.trim() === '') continue;
+    if (l.startsWith(' ')) return UNSURE;
+    break;
+  }
+  return { kind: 'plain', id: m[1]! };
+}
+
+/**
+ * True when the blocks (their bodies, every note's together) need a book of runs to be read as the contract
+ * says: one may refer to a run, one's id is not written plainly, or two carry the same id.
+ */
+export function needRunBook(bodies: Iterable<string>): boolean {
+  const ids = new Set<string>();
+  for (const body of bodies) {
+    const f = plainFacts(body);
+    if (f.kind === 'unsure') return true;
+    if (f.id === null) continue;
+    if (ids.has(f.id)) return true;
+    ids.add(f.id);
+  }
+  return false;
+}
