@@ -72,7 +72,7 @@ export function measureCli(repetitions: number, extraArgs: readonly string[] = [
   const small = writeNotes(250, blocksPerNote);
   try {
     // CPU on one thread (`--workers 1`); wall time as the command runs by default (one thread per core).
-    const single = ['dist/cli.js', 'report', dir, '--format', 'json', ...extraArgs];
+    const single = ['dist/cli.js', 'report', dir, '--format', 'json', '--workers', '1', ...extraArgs];
     const cli = ['dist/cli.js', 'report', dir, '--format', 'json', ...extraArgs];
     const floor = [join(__dirname, 'cliFloor.mjs'), dir];
     const ratios: number[] = [];
@@ -101,7 +101,7 @@ export function measureCli(repetitions: number, extraArgs: readonly string[] = [
       cliWallMs: median(cw.map((x) => x.wallMs)),
       floorWallMs: median(fl.map((x) => x.wallMs)),
       wallRatio: median(wallRatios),
-      peakRssSmall: peakRss(['dist/cli.js', 'report', small, '--format', 'json', ...extraArgs]),
+      peakRssSmall: peakRss(['dist/cli.js', 'report', small, '--format', 'json', '--workers', '1', ...extraArgs]),
       peakRssLarge: peakRss(single),
     };
   } finally {

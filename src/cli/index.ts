@@ -1,13 +1,29 @@
 #!/usr/bin/env node
-/** Entry point of the `boltzmark` command. */
+/** Entry point of the `boltzmark` command (and of the threads its JSON report runs on: src/cli/parallel.ts). */
 import { readFileSync } from 'node:fs';
-import { main } from './main';
+import { availableParallelism } from 'node:os';
+import { isMainThread } from 'node:worker_threads';
+import { start } from './main';
+import { serveNotes } from './parallel';
 
-process.exitCode = main(process.argv.slice(2), {
-  out: (s) => process.stdout.write(s),
-  err: (s) => process.stderr.write(s),
-  cwd: process.cwd(),
-  ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
-  // `-`: standard input, read whole (file descriptor 0).
-  stdin: () => readFileSync(0),
-});
+if (!isMainThread) serveNotes();
+else run();
+
+function run(): void {
+  const status = start(process.argv.slice(2), {
+    out: (s) => process.stdout.write(s),
+    err: (s) => process.stderr.write(s),
+    cwd: process.cwd(),
+    ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
+    // `-`: standard input, read whole (file descriptor 0).
+    stdin: () => readFileSync(0),
+    // The JSON report shares the notes out to one thread per core, each running this same script.
+    workers: availableParallelism(),
+    workerScript: __filename,
+  });
+  if (typeof status === 'number') process.exitCode = status;
+  else
+    void status.then((code) => {
+      process.exitCode = code;
+    });
+}

@@ -29,7 +29,8 @@ import {
 import { noteSpectra } from './spectra';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
-import { collectNotes, UsageError, type Note } from './files';
+import { collectNotes, UsageError } from './files';
+import { reportJsonParallel } from './parallel';
 import { bookName, bookText, commandBook, readableRoots } from './runs';
 import {
   DEFAULT_TABLE_WIDTH,
@@ -52,11 +53,18 @@ export interface Io {
   readonly columns?: number;
   /** Standard input, read whole, for the path `-`. */
   readonly stdin?: () => Uint8Array;
+  /** Threads for the JSON report when `--workers` is not given (the command sets the number of cores). */
+  readonly workers?: number;
+  /** The script the threads run (the command's own bundle); without it the report stays on this thread. */
+  readonly workerScript?: string;
 }
 
+/** Notes from which the JSON report is shared out to threads (fewer are done before threads would start). */
+const PARALLEL_FROM = 32;
+
 /** One note as read: its text (a byte-order mark dropped) and where its bytes were not UTF-8. */
-interface ReadNote {
-  readonly note: Note;
+export interface ReadNote {
+  readonly note: { readonly name: string } | { readonly name: string; readonly unreadable: string };
   readonly text: string;
   readonly invalid: readonly { readonly byte: number; readonly offset: number }[];
 }
@@ -69,6 +77,23 @@ interface ReadNote {
  * cache is emptied after each, so memory holds the notes' texts and one note's work.
  */
 function* noteRowsOf(paths: readonly string[], io: Io): Generator<Row[]> {
+  const { read, analyzer, externalsFor } = readNotes(paths, io);
+  for (const r of read) {
+    yield rowsOfNote(analyzer, r, io, externalsFor);
+    analyzer.clear();
+  }
+}
+
+/** The notes under the given paths, read, and the book of runs when they need one (see {@link noteRowsOf}). */
+function readNotes(
+  paths: readonly string[],
+  io: Io,
+): {
+  read: ReadNote[];
+  analyzer: Analyzer;
+  book: RunBook | null;
+  externalsFor: (note: string) => Externals;
+} {
   const analyzer = new Analyzer();
   // One shelf for the run: a spectrum file that several notes use is parsed once.
   const shelf = new SpectrumShelf();
@@ -78,10 +103,15 @@ function* noteRowsOf(paths: readonly string[], io: Io): Generator<Row[]> {
   const read: ReadNote[] = collectNotes(paths, io.cwd, stdin).map((note) => {
     if ('unreadable' in note) return { note, text: '', invalid: [] };
     const decoded = decodeUtf8(note.bytes);
+    // The bytes are not kept: the text is what is read from here on.
     // A byte-order mark is not part of the note; offsets after it move back by one.
     const bom = decoded.text.charCodeAt(0) === 0xfeff ? 1 : 0;
     const text = bom ? decoded.text.slice(1) : decoded.text;
-    return { note, text, invalid: decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom })) };
+    return {
+      note: { name: note.name },
+      text,
+      invalid: decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom })),
+    };
   });
   const texts = read.map((r) =>
     'unreadable' in r.note ? null : { name: r.note.name, text: bookText(r.note.name, r.text) },
@@ -92,10 +122,7 @@ function* noteRowsOf(paths: readonly string[], io: Io): Generator<Row[]> {
     for (const t of texts) if (t) book.setNote(bookName(t.name, io.cwd), t.text);
   }
   const externalsFor = book ? (note: string): Externals => book!.externalsFor(note) : spectra;
-  for (const r of read) {
-    yield rowsOfNote(analyzer, r, io, externalsFor);
-    analyzer.clear();
-  }
+  return { read, analyzer, book, externalsFor };
 }
 
 /** The bodies of every `levels` block of the notes' texts (as the book would index them). */
@@ -107,7 +134,12 @@ function* levelsBodies(analyzer: Analyzer, texts: readonly ({ text: string } | n
 }
 
 /** The rows of one note read (one row for an unreadable one); warnings about its bytes go to `io.err`. */
-function rowsOfNote(analyzer: Analyzer, r: ReadNote, io: Io, externalsFor: (note: string) => Externals): Row[] {
+export function rowsOfNote(
+  analyzer: Analyzer,
+  r: ReadNote,
+  io: Pick<Io, 'err' | 'cwd'>,
+  externalsFor: (note: string) => Externals,
+): Row[] {
   const { note, text, invalid } = r;
   if ('unreadable' in note)
     return [{ block: null, entry: unreadableEntry(note.name, `Cannot read '${note.name}': ${note.unreadable}.`) }];
@@ -200,7 +232,7 @@ export function report(
   io: Io,
   statuses: readonly Status[] | null = null,
   wide = false,
-): number {
+): number | Promise<number> {
   if (format === 'json') return reportJson(paths, io, statuses);
   const rows = analyseAll(paths, io);
   const shown = statuses ? rows.filter((r) => statuses.includes(r.entry.status)) : rows;
@@ -221,10 +253,21 @@ export function report(
  * The JSON report, written note by note as each is analysed: the same bytes as `formatJson` of every row, with
  * nothing of a note kept once it is written.
  */
-function reportJson(paths: readonly string[], io: Io, statuses: readonly Status[] | null): number {
+function reportJson(paths: readonly string[], io: Io, statuses: readonly Status[] | null): number | Promise<number> {
+  const notes = readNotes(paths, io);
+  // Notes that need no book are independent of one another: from a few dozen on they are shared out to threads.
+  const workers = io.workers ?? 1;
+  if (!notes.book && workers > 1 && io.workerScript && notes.read.length >= PARALLEL_FROM)
+    return reportJsonParallel(notes.read, io, statuses, workers, io.workerScript);
   let written = 0;
   let error = false;
-  for (const rows of noteRowsOf(paths, io)) {
+  const each = function* (): Generator<Row[]> {
+    for (const r of notes.read) {
+      yield rowsOfNote(notes.analyzer, r, io, notes.externalsFor);
+      notes.analyzer.clear();
+    }
+  };
+  for (const rows of each()) {
     error ||= hasError(rows);
     let part = '';
     for (const r of rows) {
@@ -259,6 +302,14 @@ export function check(paths: readonly string[], io: Io): number {
   return errors > 0 ? 1 : 0;
 }
 
+/** Parses `--workers 4`: a whole number from 1 to 256. */
+function parseWorkers(value: string): number {
+  const n = Number(value);
+  if (!/^\d+$/.test(value.trim()) || n < 1 || n > 256)
+    throw new InvalidArgumentError(`'${value}' is not a number of threads from 1 to 256`);
+  return n;
+}
+
 /** Parses `--status inverted,non-thermal`; throws a usage error for an unknown word. */
 function parseStatuses(value: string): Status[] {
   // Status words are matched without regard to case: `Inverted` and `NON-THERMAL` are what people type.
@@ -273,9 +324,21 @@ function parseStatuses(value: string): Status[] {
   return words as Status[];
 }
 
-/** Parses the arguments (without `node` and the script) and runs; returns the exit status. */
+/**
+ * Parses the arguments (without `node` and the script) and runs on this thread only; returns the exit status.
+ * What the tests and other hosts call; the command itself calls {@link start}.
+ */
 export function main(argv: readonly string[], io: Io): number {
-  let status = 0;
+  const { workerScript: _script, ...here } = io;
+  return start(argv, here) as number;
+}
+
+/**
+ * Parses the arguments and runs; returns the exit status, or its promise when the JSON report runs on threads
+ * (only with `io.workerScript`).
+ */
+export function start(argv: readonly string[], io: Io): number | Promise<number> {
+  let status: number | Promise<number> = 0;
   const program = new Command()
     .name('boltzmark')
     .description(
@@ -307,8 +370,15 @@ export function main(argv: readonly string[], io: Io): number {
       ).argParser(parseStatuses),
     )
     .option('-w, --wide', 'the table with every column, however wide (default: fit the terminal, or 100 columns)')
-    .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean }) => {
-      status = report(paths, opts.format, io, opts.status ?? null, opts.wide === true);
+    .addOption(
+      new Option(
+        '--workers <count>',
+        'threads the JSON report is analysed on, from 32 notes on (default: one per core; 1 keeps it on this thread)',
+      ).argParser(parseWorkers),
+    )
+    .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean; workers?: number }) => {
+      const run = opts.workers === undefined ? io : { ...io, workers: opts.workers };
+      status = report(paths, opts.format, run, opts.status ?? null, opts.wide === true);
     });
   program
     .command('check')

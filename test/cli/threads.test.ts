@@ -1,0 +1,105 @@
+import { strict as assert } from 'node:assert';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { main, start, type Io } from '../../src/cli/main';
+import { generateNote } from '../../bench/note';
+
+// The JSON report of many notes that need no book of runs is shared out to threads running the command's own
+// bundle (dist/cli.js, built before the suites run). Whatever the threads do, the report must be the bytes the
+// one-thread report writes, and a thread that fails must not lose a note. The notes are the invented benchmark
+// notebook (bench/note.ts), each with ids of its own, plus a note with an error and one with bytes that are
+// not UTF-8.
+
+const BUNDLE = resolve('dist/cli.js');
+
+/** A folder of `count` notes; the caller removes it. */
+function folder(count: number): string {
+  const dir = mkdtempSync(join(tmpdir(), 'boltzmark-threads-'));
+  const note = generateNote({ blocks: 6 });
+  for (let i = 0; i < count; i++)
+    writeFileSync(join(dir, `n${String(i).padStart(3, '0')}.md`), note.replace(/id: run /g, `id: n${i} run `));
+  writeFileSync(join(dir, 'n010b.md'), '```levels\nid: broken\npopulations: [0.5, oops]\n```\n');
+  writeFileSync(
+    join(dir, 'n020b.md'),
+    Buffer.from([0x23, 0x20, 0xff, 0x0a, ...Buffer.from('```levels\ngap: 1 K\n```\n')]),
+  );
+  return dir;
+}
+
+async function run(
+  args: string[],
+  cwd: string,
+  threads: Partial<Io>,
+): Promise<{ code: number; out: string; err: string }> {
+  let out = '';
+  let err = '';
+  const code = await start(args, { out: (s) => (out += s), err: (s) => (err += s), cwd, ...threads });
+  return { code, out, err };
+}
+
+describe('boltzmark report on threads', function () {
+  this.timeout(60_000);
+
+  it('writes the same bytes, exit status and warnings as on one thread', async () => {
+    const dir = folder(40);
+    try {
+      let out = '';
+      let err = '';
+      const code = main(['report', '.', '--format', 'json'], {
+        out: (s) => (out += s),
+        err: (s) => (err += s),
+        cwd: dir,
+      });
+      const threaded = await run(['report', '.', '--format', 'json'], dir, { workers: 3, workerScript: BUNDLE });
+      assert.equal(threaded.out, out);
+      assert.equal(threaded.err, err);
+      assert.equal(threaded.code, code);
+      assert.equal(code, 1, 'the broken note has an error');
+      assert.match(err, /not UTF-8/);
+      const filtered = await run(['report', '.', '--format', 'json', '--status', 'invalid'], dir, {
+        workers: 2,
+        workerScript: BUNDLE,
+      });
+      const entries = JSON.parse(filtered.out) as { status: string }[];
+      assert.ok(entries.length > 0 && entries.every((e) => e.status === 'invalid'));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('analyses on this thread the notes of a thread that fails, and loses none', async () => {
+    const dir = folder(40);
+    const broken = join(dir, 'thread-that-fails.js');
+    writeFileSync(broken, "throw new Error('this thread fails at once');\n");
+    try {
+      let out = '';
+      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
+      const threaded = await run(['report', '.', '--format', 'json'], dir, { workers: 2, workerScript: broken });
+      assert.equal(threaded.out, out);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('keeps notes that refer to runs on one thread, where the book of runs is', async () => {
+    const dir = folder(40);
+    writeFileSync(
+      join(dir, 'zz-uses.md'),
+      '```levels\nid: uses\nsystem: 13C\nfield: 9.4 T\nsignal:\n  hyperpolarized: 2.9e4\n  thermal: { run: n3 run 1 }\n```\n',
+    );
+    try {
+      // A thread script that would fail: the report must not need it.
+      const threaded = await run(['report', '.', '--format', 'json'], dir, {
+        workers: 2,
+        workerScript: join(dir, 'no-such-script.js'),
+      });
+      let out = '';
+      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
+      assert.equal(threaded.out, out);
+      assert.ok(!out.includes('reference-unavailable'), 'the reference is followed');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
