@@ -10,15 +10,23 @@
  * Every answer errs on the safe side: a body this cannot be sure about is
  * `unsure`, and the host then builds the book.
  */
+import type { Span } from '../types';
 
 /** What the text of one block body tells. */
 export type PlainFacts =
   /** The body may refer to a run, or its id is not written plainly: only reading it tells. */
   | { readonly kind: 'unsure' }
-  /** The body refers to no run; its id is `id` (null: it has none, or its reading finds none). */
-  | { readonly kind: 'plain'; readonly id: string | null };
+  /**
+   * The body refers to no run; its id is `id`, its value at `idSpan` (body offsets), or it has none. (A reading
+   * finds that id, or none where the YAML around it is too broken to read.)
+   */
+  | { readonly kind: 'plain'; readonly id: string | null; readonly idSpan: Span | null };
 
 const UNSURE: PlainFacts = { kind: 'unsure' };
+const NO_ID: PlainFacts = { kind: 'plain', id: null, idSpan: null };
+
+/** A line of a block mapping's first level: a plain key at the left margin and its colon. */
+const TOP_KEY = /^[A-Za-z_][A-Za-z0-9_-]*:(?:[ ]|$)/;
 
 /**
  * A key named `run` anywhere (plain or quoted, in a block or a flow mapping), which every reference to a run
@@ -40,9 +48,12 @@ const NOT_TEXT = /^(?:y|yes|n|no|true|false|on|off|null|nan|inf|infinity)$/i;
 export function plainFacts(body: string): PlainFacts {
   if (MAY_REFER.test(body) || body.includes('\t')) return UNSURE;
   const keys = body.match(ID_KEY);
-  if (!keys) return { kind: 'plain', id: null };
+  if (!keys) return NO_ID;
   if (keys.length !== 1) return UNSURE;
   const lines = body.split(/\r\n|\r|\n/);
+  // The body must be a block mapping: its first line with text (comments aside) a key at the left margin.
+  const first = lines.find((l) => l.trim() !== '' && !l.trimStart().startsWith('#'));
+  if (first === undefined || !TOP_KEY.test(first)) return UNSURE;
   const at = lines.findIndex((l) => l.startsWith('id:'));
   if (at < 0) return UNSURE;
   const m = PLAIN_ID.exec(lines[at]!);
@@ -55,7 +66,17 @@ export function plainFacts(body: string): PlainFacts {
     if (l.startsWith(' ')) return UNSURE;
     break;
   }
-  return { kind: 'plain', id: m[1]! };
+  // Where the value is: the id line's offset in the body (each line break before it is one or two characters).
+  let offset = 0;
+  for (let i = 0, seen = 0; seen < at; i++) {
+    const c = body.charCodeAt(i);
+    if (c === 10 || (c === 13 && body.charCodeAt(i + 1) !== 10)) {
+      seen++;
+      offset = i + 1;
+    }
+  }
+  const start = offset + lines[at]!.indexOf(m[1]!, 3);
+  return { kind: 'plain', id: m[1]!, idSpan: { start, end: start + m[1]!.length } };
 }
 
 /**

@@ -16,6 +16,7 @@
 import { Analyzer } from '../analyzer/analyzer';
 import { flatText, shiftBlock, type AnyText, type TextChange } from '../analyzer/rescanPlan';
 import { scanInWindows } from '../analyzer/windows';
+import { plainFacts } from './plainIds';
 import type { Externals, KeyChanges } from '../block/externals';
 import { interpretBody } from '../block/interpret';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
@@ -654,8 +655,11 @@ export class RunBook implements RunResolver {
     if (known) return known;
     // Read without sources: only the id and the references as written are kept. Read from (and kept under) a
     // copy of the body: a body sliced from the note would keep that whole version of the note alive.
+    // A body whose text alone says it refers to no run and where its id is (most bodies) is not read as YAML.
     const own = ownCopy(body);
-    const m = interpretBody(own, null).meta;
+    const plain = plainFacts(own);
+    const m =
+      plain.kind === 'plain' ? { id: plain.id, idSpan: plain.idSpan, refs: NO_REFS } : interpretBody(own, null).meta;
     const f: BodyFacts = { id: m.id, idSpan: m.idSpan, refs: m.refs ?? [], hash: hash(body) };
     if (this.bodies.size > 50_000) this.bodies.clear();
     this.bodies.set(own, f);
@@ -842,6 +846,9 @@ function hash(text: string): string {
   }
   return (h1 >>> 0).toString(16).padStart(8, '0') + (h2 >>> 0).toString(16).padStart(8, '0');
 }
+
+/** The references of a block that makes none. */
+const NO_REFS: readonly RunRef[] = Object.freeze([]);
 
 /** What {@link RunBook.changedSince} answers when nothing changed. */
 const NO_CHANGE: KeyChanges = { none: true, has: (): boolean => false, offsetsIn: () => [] };

@@ -10,10 +10,10 @@ import { hpBlock, refBlock } from '../../support/runNotes';
 // the reading finds none). Checked against the block reader itself, over generated bodies, nasty ones included.
 
 /** The reading's id and references, with a book present (so that references are read, not refused). */
-function read(body: string): { id: string | null; refs: number } {
+function read(body: string): { id: string | null; idSpan: unknown; refs: number } {
   const book = new RunBook();
   const m = interpretBody(body, book.externalsFor('/w/a.md')).meta;
-  return { id: m.id, refs: m.refs?.length ?? 0 };
+  return { id: m.id, idSpan: m.idSpan, refs: m.refs?.length ?? 0 };
 }
 
 const bodyOf = (block: string): string => block.replace(/^```levels\n/, '').replace(/\n```\n$/, '');
@@ -68,6 +68,7 @@ describe('plain ids: what the text of a block alone tells about runs by referenc
         assert.equal(r.refs, 0, `called plain but refers to a run: ${JSON.stringify(body)}`);
         assert.ok(r.id === null || r.id === f.id, `id ${JSON.stringify(r.id)} read, ${JSON.stringify(f.id)} said`);
         if (f.id === null) assert.equal(r.id, null, `an id read where none was said: ${JSON.stringify(body)}`);
+        else if (r.id !== null) assert.deepEqual(f.idSpan, r.idSpan, `the id's place: ${JSON.stringify(body)}`);
       }),
       {
         numRuns: Number(process.env.FC_RUNS_SCALE ?? 1) * 400,
@@ -77,8 +78,17 @@ describe('plain ids: what the text of a block alone tells about runs by referenc
   });
 
   it('calls the usual blocks plain, with their ids, and a referring block unsure', () => {
-    assert.deepEqual(plainFacts(bodyOf(refBlock('ref A'))), { kind: 'plain', id: 'ref A' });
-    assert.deepEqual(plainFacts('system: 13C\nfield: 9.4 T\nlattice: 298 K'), { kind: 'plain', id: null });
+    assert.deepEqual(plainFacts(bodyOf(refBlock('ref A'))), {
+      kind: 'plain',
+      id: 'ref A',
+      idSpan: { start: 4, end: 9 },
+    });
+    assert.deepEqual(plainFacts('system: 13C\nfield: 9.4 T\nlattice: 298 K'), {
+      kind: 'plain',
+      id: null,
+      idSpan: null,
+    });
+    assert.deepEqual(plainFacts('- a list\nid: x'), { kind: 'unsure' }, 'not a mapping');
     assert.deepEqual(plainFacts(bodyOf(hpBlock('run 1', 'ref A'))), { kind: 'unsure' });
     assert.deepEqual(plainFacts('id: "quoted"\nsystem: 13C'), { kind: 'unsure' });
   });
