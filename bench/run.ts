@@ -151,7 +151,7 @@ async function main(): Promise<number> {
   });
 
   log('language server on notes of 250, 4,000 and 16,000 blocks …');
-  const scale = await measureScale(Math.max(100, 4 * reps));
+  const scale = await measureScale(Math.max(200, 6 * reps));
   const [small, mid, large] = [scale[0]!, scale[1]!, scale[2]!];
   for (const x of scale)
     figures.push({
