@@ -17,8 +17,9 @@ function run(): void {
     ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
     // `-`: standard input, read whole (file descriptor 0).
     stdin: () => readFileSync(0),
-    // The JSON report shares the notes out to one thread per core, each running this same script.
-    workers: availableParallelism(),
+    // The JSON report shares the notes out to threads running this same script: one per core but one, which is
+    // left to this thread's reading and writing (on two cores, threads were slower than none: README, Performance).
+    workers: Math.max(1, availableParallelism() - 1),
     workerScript: __filename,
   });
   if (typeof status === 'number') process.exitCode = status;
