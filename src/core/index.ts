@@ -92,6 +92,7 @@ export {
 } from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { NoteText, type TextLines, type TextSource } from './text/noteText';
+export { firstAtLeast } from './text/common';
 export {
   notebookInvalidEntry,
   notUtf8Diagnostic,

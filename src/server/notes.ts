@@ -14,6 +14,7 @@
  * takes the cached results, and from then on edits are incremental.
  */
 import {
+  firstAtLeast,
   Analyzer,
   movedBlock,
   dependenciesHold,
@@ -216,22 +217,20 @@ export class Notes {
       const change = doc.changeSince(w.text);
       const delta = doc.pieces.length - w.text.length;
       if (!change) return this.get(doc, settings);
-      if (to < change.prefix) shift = { delta: 0, lines: 0 };
-      else if (from >= doc.pieces.length - change.suffix) {
+      if (to < change.prefix) {
+        // Before the change: the blocks are where they were.
+      } else if (from >= doc.pieces.length - change.suffix) {
         shift = { delta, lines: doc.pieces.lineCount - w.text.lineCount };
         [a, b] = [from - delta, to - delta];
       } else return this.get(doc, settings);
     }
     const analyzer = this.analyzer(w.key, settings);
-    let lo = 0;
-    let hi = w.blocks.length;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (w.blocks[mid]!.blockEnd < a) lo = mid + 1;
-      else hi = mid;
-    }
     const near: FencedBlock[] = [];
-    for (let i = lo; i < w.blocks.length && w.blocks[i]!.openStart <= b; i++) {
+    for (
+      let i = firstAtLeast(w.blocks, (f) => f.blockEnd, a);
+      i < w.blocks.length && w.blocks[i]!.openStart <= b;
+      i++
+    ) {
       const f = w.blocks[i]!;
       if (analyzer.isLevelsFence(f))
         near.push(shift.delta === 0 && shift.lines === 0 ? f : movedBlock(f, shift.delta, shift.lines));

@@ -5,6 +5,7 @@
  */
 import type { Position, Range } from 'vscode-languageserver';
 import {
+  firstAtLeast,
   DEFAULT_DISPLAY,
   type TextLines,
   type TextSource,
@@ -38,16 +39,8 @@ export function toOffset(lines: TextLines, pos: Position): number {
 /** The block whose fences enclose an offset (fence lines included), if any. Binary search. */
 export function blockAt(state: NoteState, offset: number): BlockReport | undefined {
   const blocks = state.report.blocks;
-  let lo = 0;
-  let hi = blocks.length - 1;
-  while (lo <= hi) {
-    const mid = (lo + hi) >> 1;
-    const b = blocks[mid].block;
-    if (offset < b.openStart) hi = mid - 1;
-    else if (offset > b.blockEnd) lo = mid + 1;
-    else return blocks[mid];
-  }
-  return undefined;
+  const b = blocks[firstAtLeast(blocks, (x) => x.block.blockEnd, offset)];
+  return b && b.block.openStart <= offset ? b : undefined;
 }
 
 /**
@@ -56,15 +49,13 @@ export function blockAt(state: NoteState, offset: number): BlockReport | undefin
  */
 export function blocksBetween(state: NoteState, from: number, to: number): BlockReport[] {
   const blocks = state.report.blocks;
-  let lo = 0;
-  let hi = blocks.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (blocks[mid]!.block.blockEnd < from) lo = mid + 1;
-    else hi = mid;
-  }
   const out: BlockReport[] = [];
-  for (let i = lo; i < blocks.length && blocks[i]!.block.openStart <= to; i++) out.push(blocks[i]!);
+  for (
+    let i = firstAtLeast(blocks, (b) => b.block.blockEnd, from);
+    i < blocks.length && blocks[i]!.block.openStart <= to;
+    i++
+  )
+    out.push(blocks[i]!);
   return out;
 }
 

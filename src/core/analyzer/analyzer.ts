@@ -27,6 +27,7 @@ import {
   type TextChange,
 } from './rescanPlan';
 import { scanInWindows } from './windows';
+import { ownCopy } from '../text/common';
 import { shiftBlock } from './rescanPlan';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
@@ -485,19 +486,6 @@ export class Analyzer {
     this.cache.clear();
     this.notes = [];
   }
-}
-
-/**
- * A copy of a string that shares no memory with the string it came from.
- * JavaScript engines keep a substring as a view into its parent (V8 does for
- * 13 characters and more), so a cached block body sliced from the note would
- * keep that whole version of the note alive for as long as it stays cached.
- * Slicing a concatenation makes the engine lay the concatenation out flat
- * first, in new memory, and the slice then views that copy: one copy of the
- * body, far cheaper than a round trip through JSON.
- */
-function ownCopy(s: string): string {
-  return (s + ' ').slice(0, -1);
 }
 
 /**

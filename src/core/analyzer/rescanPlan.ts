@@ -9,7 +9,7 @@
  * the old one moved by the change in length (and in line count).
  */
 import type { FencedBlock } from '../text/fences';
-import { commonPrefix, commonSuffix } from '../text/common';
+import { commonPrefix, commonSuffix, firstAtLeast } from '../text/common';
 import type { NoteText } from '../text/noteText';
 
 /** A note's text as an analysis is given it: one string, or a host's text in pieces. */
@@ -123,14 +123,7 @@ export function planReuse<R extends Placed, E>(
 
 /** Index of the first block opening at or after `offset` (blocks are in order). */
 export function firstAtOrAfter(blocks: readonly Placed[], offset: number): number {
-  let lo = 0;
-  let hi = blocks.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (blocks[mid]!.block.openStart < offset) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
+  return firstAtLeast(blocks, (b) => b.block.openStart, offset);
 }
 
 /**

@@ -14,7 +14,8 @@
  * resolved: it changes exactly when an answer could.
  */
 import { Analyzer } from '../analyzer/analyzer';
-import { flatText, shiftBlock, type AnyText, type TextChange } from '../analyzer/rescanPlan';
+import { firstAtOrAfter, flatText, shiftBlock, type AnyText, type TextChange } from '../analyzer/rescanPlan';
+import { firstAtLeast, ownCopy } from '../text/common';
 import { scanInWindows } from '../analyzer/windows';
 import { plainFacts } from './plainIds';
 import type { Externals, KeyChanges } from '../block/externals';
@@ -267,14 +268,7 @@ export class RunBook implements RunResolver {
   /** The block of a note whose fences hold an offset (ends included), found by binary search. */
   private blockHolding(note: string, offset: number): BookBlock | null {
     const blocks = this.blocksOf(note);
-    let lo = 0;
-    let hi = blocks.length;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (blocks[mid]!.block.blockEnd < offset) lo = mid + 1;
-      else hi = mid;
-    }
-    const b = blocks[lo];
+    const b = blocks[firstAtLeast(blocks, (x) => x.block.blockEnd, offset)];
     return b && b.block.openStart <= offset ? b : null;
   }
 
@@ -514,13 +508,7 @@ export class RunBook implements RunResolver {
     const syncFrom = text.length - suffix;
     const blocks = old.blocks;
     // The first old block opening at or after the change, and the one before it, where the scan starts again.
-    let k = 0;
-    let hi = blocks.length;
-    while (k < hi) {
-      const mid = (k + hi) >> 1;
-      if (blocks[mid]!.block.openStart < prefix) k = mid + 1;
-      else hi = mid;
-    }
+    const k = firstAtOrAfter(blocks, prefix);
     const keep = Math.max(0, k - 1);
     const from = keep < blocks.length && k > 0 ? blocks[keep]!.block.openStart : 0;
     const line = keep < blocks.length && k > 0 ? blocks[keep]!.block.openLine : 0;
@@ -815,11 +803,6 @@ export class RunBook implements RunResolver {
   }
 }
 
-/** A copy of a string that shares no memory with its parent (as the analyzer's cache keeps bodies). */
-function ownCopy(s: string): string {
-  return (s + ' ').slice(0, -1);
-}
-
 /** A body-relative span as note offsets. */
 function toNote(block: FencedBlock, s: Span): Span {
   const start = bodyToDocument(block, Math.max(0, Math.min(s.start, block.body.length)));
@@ -861,14 +844,8 @@ const CHANGES_KEPT = 64;
 
 /** Index of the block opening at `offset`, or -1 (blocks in order). */
 function openingAt(blocks: readonly BookBlock[], offset: number): number {
-  let lo = 0;
-  let hi = blocks.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (blocks[mid]!.block.openStart < offset) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo < blocks.length && blocks[lo]!.block.openStart === offset ? lo : -1;
+  const i = firstAtOrAfter(blocks, offset);
+  return i < blocks.length && blocks[i]!.block.openStart === offset ? i : -1;
 }
 
 /** An indexed block moved by an edit before it, in place: its place in the note and its position among the blocks. */

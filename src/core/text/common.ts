@@ -7,6 +7,34 @@
  * instead of a million JavaScript-level comparisons.
  */
 
+/**
+ * Index of the first item whose key is at least `value`, in items sorted by that key (binary search):
+ * the one search of every list of blocks by offset.
+ */
+export function firstAtLeast<T>(items: readonly T[], key: (item: T) => number, value: number): number {
+  let lo = 0;
+  let hi = items.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (key(items[mid]!) < value) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/**
+ * A copy of a string that shares no memory with the string it came from.
+ * JavaScript engines keep a substring as a view into its parent (V8 does for
+ * 13 characters and more), so a body or a piece sliced from a note and kept
+ * would keep that whole version of the note alive. Slicing a concatenation
+ * makes the engine lay the concatenation out flat first, in new memory, and
+ * the slice then views that copy: one copy, far cheaper than a round trip
+ * through JSON.
+ */
+export function ownCopy(s: string): string {
+  return (s + ' ').slice(0, -1);
+}
+
 /** Characters compared at once; big enough that the per-chunk cost vanishes, small enough to waste little past the change. */
 const CHUNK = 4096;
 

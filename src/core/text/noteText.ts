@@ -13,6 +13,7 @@
  * characters are UTF-16 code units, as in {@link LineIndex}, whose questions
  * this answers the same way.
  */
+import { ownCopy } from './common';
 import type { LineCol } from './lineIndex';
 
 /** Characters a piece is cut at (at the first line break from there); a rebuilt stretch is about three pieces. */
@@ -221,7 +222,7 @@ function cut(text: string): Piece[] {
       if (br !== -1) end = text.charCodeAt(br) === 13 && text.charCodeAt(br + 1) === 10 ? br + 2 : br + 1;
     }
     // A piece is a copy of its own, not a view into `text` (which would keep all of it alive).
-    const piece = end - at === text.length ? text : (text.slice(at, end) + ' ').slice(0, -1);
+    const piece = end - at === text.length ? text : ownCopy(text.slice(at, end));
     pieces.push({ text: piece, starts: lineStarts(piece) });
     at = end;
   } while (at < text.length);
