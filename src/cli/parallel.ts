@@ -14,7 +14,8 @@ import { dirname } from 'node:path';
 import { parentPort, Worker, workerData } from 'node:worker_threads';
 import { Analyzer, SpectrumShelf, type Externals, type Status } from '../core';
 import { jsonElement } from './formats';
-import { rowsOfNote, type Io, type ReadNote } from './main';
+import type { Io } from './main';
+import { rowsOfNote, type ReadNote } from './notes';
 import { noteSpectra } from './spectra';
 
 /** One note to analyse: its place in the report, the note as read, and the folder names are relative to. */
