@@ -18,6 +18,7 @@ import { firstAtOrAfter, flatText, shiftBlock, type AnyText, type TextChange } f
 import { firstAtLeast, ownCopy } from '../text/common';
 import { scanInWindows } from '../analyzer/windows';
 import { plainFacts } from './plainIds';
+import { ChangeLog, type ChangeReach } from './changeLog';
 import type { Externals, KeyChanges } from '../block/externals';
 import { interpretBody } from '../block/interpret';
 import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
@@ -118,18 +119,11 @@ export class RunBook implements RunResolver {
   private readonly missing = new Map<string, string | null>();
   /** Evaluated blocks, by block, with the stamp of what they read. */
   private readonly evaluated = new WeakMap<BookBlock, { stamp: string; facts: RunFacts; line: number }>();
-  /** Counts changes (see {@link changes}). */
-  private generation = 0;
   /** Stamps computed since the last change that could alter them: of `copies` keys, and of reference keys. */
   private readonly copyStamps = new Map<string, string | null>();
   private readonly refStamps = new Map<string, string | null>();
-  /** The latest changes, oldest first: the copies keys each could alter, and whether reference keys too (null: any key). */
-  private log: {
-    readonly generation: number;
-    readonly ids: ReadonlySet<string> | null;
-    readonly keys: ReadonlySet<string> | null;
-    readonly refs: boolean;
-  }[] = [];
+  /** The latest changes and their reach (see {@link changedSince}). */
+  private readonly log = new ChangeLog();
   /** Ids that references name, with how many references name each (a change to such a block can change their stamps). */
   private readonly named = new Map<string, number>();
   /** Chain lengths known since the last change: exact, or "longer than `above`". */
@@ -160,7 +154,7 @@ export class RunBook implements RunResolver {
    * whether the stamps it holds may be out of date without asking each one.
    */
   changes(): number {
-    return this.generation;
+    return this.log.changes;
   }
 
   /**
@@ -168,30 +162,7 @@ export class RunBook implements RunResolver {
    * that is not known (too long ago, or a change of unknown reach): then every stamp must be asked.
    */
   changedSince(since: number): KeyChanges | null {
-    if (since === this.generation) return NO_CHANGE;
-    const first = this.log.findIndex((e) => e.generation > since);
-    if (first < 0 || this.log[first]!.generation !== since + 1) return null;
-    const keys = new Set<string>();
-    const ids = new Set<string>();
-    let refs = false;
-    for (let i = first; i < this.log.length; i++) {
-      const e = this.log[i]!;
-      if (e.keys === null || e.ids === null) return null;
-      for (const k of e.keys) keys.add(k);
-      for (const id of e.ids) ids.add(id);
-      refs ||= e.refs;
-    }
-    return {
-      none: keys.size === 0 && !refs,
-      has: (key) => keys.has(key) || (refs && key.startsWith(RUN_KEY_PREFIX) && !key.startsWith(COPIES_KEY_START)),
-      // The blocks of a note that carry a changed id; when a referenced block changed, any reference may have.
-      offsetsIn: (note) => {
-        if (refs) return null;
-        const out: number[] = [];
-        for (const id of ids) for (const b of this.byId.get(id) ?? []) if (b.note === note) out.push(b.block.openStart);
-        return out;
-      },
-    };
+    return this.log.since(since, (id) => this.byId.get(id) ?? []);
   }
 
   /** Forgets a note (deleted, or closed and gone from the workspace). */
@@ -460,29 +431,16 @@ export class RunBook implements RunResolver {
    * Records a change: of known reach (the ids whose sets of blocks changed, and whether any block's body did,
    * which reference stamps hash) or, without `reach`, of any.
    */
-  private changed(reach?: { readonly ids: ReadonlySet<string>; readonly refs: boolean }): void {
-    this.generation++;
+  private changed(reach?: ChangeReach): void {
+    this.log.record(reach ?? null);
     this.missing.clear();
-    let keys: Set<string> | null = null;
     if (reach) {
-      keys = new Set<string>();
-      for (const id of reach.ids) {
-        const key = runCopiesKey(id);
-        keys.add(key);
-        this.copyStamps.delete(key);
-      }
+      for (const id of reach.ids) this.copyStamps.delete(runCopiesKey(id));
       if (reach.refs) this.refStamps.clear();
     } else {
       this.copyStamps.clear();
       this.refStamps.clear();
     }
-    this.log.push({
-      generation: this.generation,
-      ids: reach ? reach.ids : null,
-      keys,
-      refs: reach ? reach.refs : true,
-    });
-    if (this.log.length > CHANGES_KEPT) this.log = this.log.slice(-CHANGES_KEPT);
   }
 
   /** Counts the ids a block's references name in (or out of) {@link named}. */
@@ -695,9 +653,9 @@ export class RunBook implements RunResolver {
    * block and bound, not once per path.
    */
   private chainLength(b: BookBlock, bound: number): number {
-    if (this.chainsFor !== this.generation) {
+    if (this.chainsFor !== this.log.changes) {
       this.chains.clear();
-      this.chainsFor = this.generation;
+      this.chainsFor = this.log.changes;
     }
     return this.chainFrom(b, bound, new Set()).length;
   }
@@ -832,15 +790,6 @@ function hash(text: string): string {
 
 /** The references of a block that makes none. */
 const NO_REFS: readonly RunRef[] = Object.freeze([]);
-
-/** What {@link RunBook.changedSince} answers when nothing changed. */
-const NO_CHANGE: KeyChanges = { none: true, has: (): boolean => false, offsetsIn: () => [] };
-
-/** How a `copies` key starts (the other run keys are keys of references). */
-const COPIES_KEY_START = runCopiesKey('').slice(0, -3);
-
-/** Changes remembered for {@link RunBook.changedSince}. */
-const CHANGES_KEPT = 64;
 
 /** Index of the block opening at `offset`, or -1 (blocks in order). */
 function openingAt(blocks: readonly BookBlock[], offset: number): number {
