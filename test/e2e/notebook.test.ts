@@ -85,6 +85,9 @@ function notebookSteps(version: host.Version): void {
 
     it('opens the curve view from the lens in a cell, and the view follows the cursor into another cell', async () => {
       const cell = page.locator('.notebook-editor .monaco-editor', { hasText: 'system: 129Xe' });
+      // The hover of the step before may still be open over the lens: the pointer leaves it, and it closes.
+      await page.mouse.move(1, 1);
+      await page.locator('.monaco-hover').first().waitFor({ state: 'hidden' });
       await cell.locator('.codelens-decoration a', { hasText: 'Show Curve View' }).first().click();
       const view = await frameWith(page, 'body[data-drawn] #block-title', 'Xe cell run 2');
       // The next cell with a block: opened for editing, the cursor put on its id line.
