@@ -188,13 +188,14 @@ export function readNote(name: string, path: string): Note {
     const chunks: Buffer[] = [];
     let total = 0;
     for (;;) {
-      const chunk = Buffer.allocUnsafe(Math.max(65536, Math.min(st.size - total + 1, 1 << 26)));
+      // The size stated, and one byte more to see the end at once (a file that grew is read on in larger pieces).
+      const chunk = Buffer.allocUnsafe(Math.max(4096, Math.min(st.size - total + 1, 1 << 26)));
       const n = readSync(fd, chunk, 0, chunk.length, null);
       if (n === 0) break;
       chunks.push(chunk.subarray(0, n));
       total += n;
     }
-    return { name, bytes: Buffer.concat(chunks, total) };
+    return { name, bytes: chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, total) };
   } catch (err) {
     return { name, unreadable: reason(err, false) };
   } finally {

@@ -237,7 +237,7 @@ export class RunBook implements RunResolver {
   }
 
   /** The block of a note whose fences hold an offset (ends included), found by binary search. */
-  private blockHolding(note: string, offset: number): BookBlock | null {
+  blockHolding(note: string, offset: number): BookBlock | null {
     const blocks = this.blocksOf(note);
     const b = blocks[firstAtLeast(blocks, (x) => x.block.blockEnd, offset)];
     return b && b.block.openStart <= offset ? b : null;
@@ -320,6 +320,9 @@ export class RunBook implements RunResolver {
     let stamp: string | null = null;
     if (parsed?.kind === 'ref') {
       const r = this.locate(parsed.from, parsed);
+      // A run not evaluated since it was read: where it breaks is not known yet, so this stamp is not kept (the
+      // one asked once it is evaluated, as a reference to it resolves, is).
+      if (r.kind === 'found' && !this.evaluated.has(r.block)) return this.closure(r.block);
       // An unknown id's answer names the closest ids: it changes with them.
       // What a referring block says of a broken run names the line where it breaks: that line is in the stamp.
       stamp =
@@ -421,7 +424,8 @@ export class RunBook implements RunResolver {
       status: error || !c.results ? 'invalid' : c.results.status,
       error,
     };
-    this.evaluated.set(b, { stamp, facts, line: b.block.openLine });
+    // Stamped as read: the runs it reaches were evaluated with it, and the lines where they break are now known.
+    this.evaluated.set(b, { stamp: this.closure(b), facts, line: b.block.openLine });
     return facts;
   }
 
@@ -521,7 +525,14 @@ export class RunBook implements RunResolver {
         (ids.size > 0 ||
           [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id))))) ||
         (lines !== 0 &&
-          all.slice(moved).some((b) => b.id !== null && this.named.has(b.id) && this.brokenLine(b) !== '')));
+          // a named broken run moved, or was read again near the change (the same body, at another line); a
+          // named run not evaluated since it was last read again may be broken too
+          (dropped.some((b) => b.id !== null && this.named.has(b.id) && this.brokenLine(b) !== '') ||
+            all
+              .slice(moved)
+              .some(
+                (b) => b.id !== null && this.named.has(b.id) && (!this.evaluated.has(b) || this.brokenLine(b) !== ''),
+              ))));
     // Each id's list keeps note order, then block order: this note's blocks with the id, dropped ones out and
     // new ones in, sorted by their place (the lists are short: one block per id, unless duplicated).
     const gone = new Set(dropped);
@@ -710,7 +721,10 @@ export class RunBook implements RunResolver {
     return null;
   }
 
-  /** The stamp of a block: its body and, for every block reachable from it, its body and how its references resolved. */
+  /**
+   * The stamp of a block: its body and, for every block reachable from it, its body, how its references resolved
+   * and, where it is broken, the line its error names (which the messages of the blocks before it repeat).
+   */
   private closure(start: BookBlock): string {
     const seen = new Set<BookBlock>([start]);
     const queue: BookBlock[] = [start];
@@ -718,6 +732,8 @@ export class RunBook implements RunResolver {
     for (let i = 0; i < queue.length; i++) {
       const b = queue[i]!;
       parts.push(`${b.note}#${b.id ?? b.index}:${b.hash}`);
+      // A broken run further on names its line in the messages of the runs before it in the chain.
+      if (i > 0) parts.push(this.brokenLine(b));
       for (const ref of b.refs) {
         const r = this.locate(b.note, ref);
         if (r.kind !== 'found') {

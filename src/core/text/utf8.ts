@@ -22,8 +22,29 @@ export interface DecodedText {
   readonly invalid: readonly InvalidUtf8[];
 }
 
+/** What the core needs of the platform's TextDecoder (the core is typed without the DOM's or Node's types). */
+type StrictDecoder = { decode(bytes: Uint8Array): string };
+type DecoderClass = new (label: string, options: { fatal: boolean; ignoreBOM: boolean }) => StrictDecoder;
+
+/** The platform's strict decoder (Node.js and browsers), when there is one: it throws on the first bad byte. */
+const Decoder = (globalThis as { TextDecoder?: DecoderClass }).TextDecoder;
+const strict: StrictDecoder | null = Decoder ? new Decoder('utf-8', { fatal: true, ignoreBOM: true }) : null;
+
 /** Decodes the bytes (a leading byte-order mark is kept as U+FEFF; the caller decides). */
 export function decodeUtf8(bytes: Uint8Array): DecodedText {
+  // Well-formed bytes (nearly every note) are decoded natively; only others are walked here, to find the bad ones.
+  if (strict) {
+    try {
+      return { text: strict.decode(bytes), invalid: [] };
+    } catch {
+      // ill-formed: read below
+    }
+  }
+  return decodeWalking(bytes);
+}
+
+/** The decoding byte by byte, naming each ill-formed sequence. */
+export function decodeWalking(bytes: Uint8Array): DecodedText {
   const invalid: InvalidUtf8[] = [];
   const parts: string[] = [];
   let units: number[] = [];

@@ -70,15 +70,14 @@ function touches(span: Span, offset: number): boolean {
 
 /** The run id or reference at a note offset, or null. */
 export function runSymbolAt(runs: WorkspaceRuns, uri: string, offset: number): RunSymbolAt | null {
-  for (const b of runs.book.blocksOf(uri)) {
-    if (offset < b.block.openStart || offset > b.block.blockEnd) continue;
-    for (const ref of b.refs) {
-      const whole = toNote(b.block, ref.span);
-      if (touches(whole, offset)) return { kind: 'ref', from: b, ref, span: toNote(b.block, ref.idSpan), whole };
-    }
-    if (b.place && touches(b.place.span, offset)) return { kind: 'id', block: b, span: b.place.span };
-    return null;
+  // Found by binary search: a hover in a note of thousands of blocks touches a few of them.
+  const b = runs.book.blockHolding(uri, offset);
+  if (!b) return null;
+  for (const ref of b.refs) {
+    const whole = toNote(b.block, ref.span);
+    if (touches(whole, offset)) return { kind: 'ref', from: b, ref, span: toNote(b.block, ref.idSpan), whole };
   }
+  if (b.place && touches(b.place.span, offset)) return { kind: 'id', block: b, span: b.place.span };
   return null;
 }
 

@@ -40,10 +40,7 @@ function summary(r: DocumentReport): unknown {
       b.block.body,
       b.block.lines.map((l) => [l.docStart, l.bodyStart, l.stripped]),
       b.status,
-      // Known limit: after lines are inserted above a referenced run that is itself broken (and refers to a run),
-      // a referring block's message may still name the run's old line until that block is read again; the line
-      // is left out of the comparison, everything else of the message is compared.
-      b.problems.map((p) => [p.code, p.span.start, p.span.end, p.message.replace(/line \d+ of this note/g, 'line …')]),
+      b.problems.map((p) => [p.code, p.span.start, p.span.end, p.message]),
       b.results?.beta?.value ?? null,
     ]),
     withProblems: r.withProblems ?? r.blocks.flatMap((b, i) => (b.problems.length > 0 ? [i] : [])),

@@ -1,6 +1,7 @@
 import { strict as assert } from 'node:assert';
 import fc from 'fast-check';
 import { decodeUtf8 } from '../../../src/core';
+import { decodeWalking } from '../../../src/core/text/utf8';
 import { runs } from '../../robustness/seed';
 
 // The reference is the platform's TextDecoder, an implementation of the WHATWG Encoding
@@ -39,6 +40,10 @@ describe('decoding a note’s bytes as UTF-8', () => {
         const { text, invalid } = decodeUtf8(bytes);
         assert.equal(text, reference.decode(bytes));
         for (const v of invalid) assert.equal(text[v.offset], '\uFFFD');
+        // Well-formed bytes take the platform's decoder; the walk that finds the bad bytes agrees with it on all.
+        const walked = decodeWalking(bytes);
+        assert.equal(walked.text, text);
+        assert.deepEqual(walked.invalid, invalid);
       }),
       runs(3000),
     );
