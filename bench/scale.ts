@@ -12,7 +12,8 @@
  *   before its whole analysis; the median of five opens), against a warm
  *   hover (the median of 25, once the note is analysed) plus the reading of
  *   that one block as the server reads it (measured here, in this process, on
- *   a fresh Analyzer with a book of runs holding the note); all after another
+ *   a fresh Analyzer with a book of runs that has just indexed the note, so
+ *   with the caches as taking the note left them); all after another
  *   note was read and hovered in the same server, so that the compiled code
  *   of the readers and of the hover is warm as in an editor open a while;
  * - a hover 300 ms after the open, while the note is still read in slices
@@ -65,13 +66,14 @@ export async function measureSize(blocks: number, samples: number): Promise<Size
   const report = new Analyzer().analyzeText(note);
   const middle = report.blocks[Math.floor(report.blocks.length / 2)]!;
   const other = report.blocks[Math.floor(report.blocks.length / 3)]!;
-  // One block read alone, in a fresh Analyzer, as the server reads it: its id looked up among the workspace's
-  // runs (a book of runs holding the note), which the server does for every block with an id. The least a first
-  // hover on it can cost.
-  const book = new RunBook();
-  book.setNote(URI, note);
+  // One block read alone as the server reads it right after an open: in a fresh Analyzer, with a book of runs that
+  // has just indexed the note (its id is looked up among the runs, as for every block with an id), so with the
+  // processor's caches as taking the note left them. The median of five; the same body read again at once costs
+  // about a fifth of that, which is not what a first hover meets.
   const oneBlock: number[] = [];
   for (let i = 0; i < 5; i++) {
+    const book = new RunBook();
+    book.setNote(URI, note);
     const a = new Analyzer();
     const t = now();
     a.analyseBody(middle.block.body, book.externalsFor(URI));
