@@ -1,30 +1,30 @@
 /**
- * The language server on notes of growing size (issue 18), each in a fresh
- * server process spawned over stdio as an editor would:
+ * The language server on notes of growing size (issue 18), in server
+ * processes spawned over stdio as an editor would, each first warmed on
+ * another note (read whole and hovered, so that the compiled code of the
+ * readers and of the hover is warm as in an editor open a while):
  *
- * - edit → fresh diagnostics: one character typed at the end of a block's
- *   id line (and, the next time, taken back: the note's length changes with
- *   every edit, as with typing), then the pulled diagnostics of that version;
- *   p50 / p95 per size, and the p95 on the largest note over the p95 on the
- *   smallest;
- * - open: from `didOpen` to the complete diagnostics of the note;
- * - first hover right after `didOpen` (on a block in the middle of the note,
- *   before its whole analysis; the median of five opens), against a warm
- *   hover (the median of 25, once the note is analysed) plus the reading of
- *   that one block as the server reads it (measured here, in this process, on
- *   a fresh Analyzer with a book of runs that has just indexed the note, so
- *   with the caches as taking the note left them); all after another
- *   note was read and hovered in the same server, so that the compiled code
- *   of the readers and of the hover is warm as in an editor open a while;
- * - a hover 300 ms after the open, while the note is still read in slices
- *   (reported);
- * - memory: the server's peak resident set (VmHWM of /proc, Linux) and its
- *   heap after a full collection, per size; bytes per block.
+ * - in one server, the note opened once: from `didOpen` to a no-op answered
+ *   (the note taken) and to its complete diagnostics; then edit → fresh
+ *   diagnostics: one character typed at the end of a block's id line (and,
+ *   the next time, taken back: the note's length changes with every edit, as
+ *   with typing), then the pulled diagnostics of that version; p50 / p95 per
+ *   size, and the p95 on the largest note over the p95 on the smallest; the
+ *   server's peak resident set (VmHWM of /proc, Linux) and its heap after a
+ *   full collection, per size; bytes per block;
+ * - in another server, the hovers: the first hover right after `didOpen` (on
+ *   a block in the middle of the note, before its whole analysis; the median
+ *   of five opens under five names), against a warm hover (the median of 25,
+ *   once the note is analysed) plus the reading of that one block as the
+ *   server reads it (measured here, in this process, on a fresh Analyzer with
+ *   a book of runs that has just indexed the note, so with the caches as
+ *   taking the note left them); and a hover 300 ms after the open, while the
+ *   note is still read in slices (reported).
  */
 import { readFileSync } from 'node:fs';
-import { Analyzer, LineIndex, RunBook } from '../src/core';
+import { Analyzer, LineIndex, RunBook, type BlockReport, type DocumentReport } from '../src/core';
 import { AnalysisStatsRequest, MemoryRequest } from '../src/shared/protocol';
-import { startLsp } from '../test/protocol/lspClient';
+import { startLsp, type LspSession } from '../test/protocol/lspClient';
 import { generateNote } from './note';
 import { median, now, quantile } from './stats';
 
@@ -79,76 +79,23 @@ export async function measureSize(blocks: number, samples: number): Promise<Size
     a.analyseBody(middle.block.body, book.externalsFor(URI));
     oneBlock.push(now() - t);
   }
-  const s = await startLsp({
-    pull: true,
-    execArgv: ['--expose-gc'],
-  });
+  const hovers = await measureHovers(note, report, middle, other);
+  const s = await startLsp({ pull: true, execArgv: ['--expose-gc'] });
   try {
-    const hover = (line: number, uri = URI): Promise<unknown> =>
-      s.conn.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line, character: 1 } });
-    // What the server does after a note closes (its file read again, the notes that used its runs published
-    // again, after PUSH_DELAY_MS) is over before the next open: the first hover below measures the open alone.
-    const settle = async (): Promise<void> => {
-      await s.conn.sendRequest(AnalysisStatsRequest, { uri: URI });
-      await new Promise((resolve) => setTimeout(resolve, 400));
-    };
     const diagnostics = (): Promise<unknown> =>
       s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: URI } });
-    // Another note first, read whole, as an editor that has been open a while has: the engine's compiled code is
-    // then warm, and the first hover below measures the server's work, not the first compilation of the readers.
-    const warmUri = 'file:///bench/other.md';
-    const warmNote = generateNote({ blocks: 300 });
+    await warmUp(s);
+    // The note opened once in this server: from `didOpen` to a no-op answered (the note taken: its transfer,
+    // parse, pieces, fence scan and the book of runs' index of it), and to its complete diagnostics.
+    const t0 = now();
     await s.conn.sendNotification('textDocument/didOpen', {
-      textDocument: { uri: warmUri, languageId: 'markdown', version: 1, text: warmNote },
+      textDocument: { uri: URI, languageId: 'markdown', version: 1, text: note },
     });
-    await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: warmUri } });
-    // and hovered on blocks of every form, so that the hover's own code is compiled too
-    for (const b of new Analyzer().analyzeText(warmNote).blocks.slice(0, 20)) await hover(b.block.bodyLine, warmUri);
-    await s.conn.sendNotification('textDocument/didClose', { textDocument: { uri: warmUri } });
-    await settle();
-    // Five opens of the note under five names, each a note this server has not analysed: the first hover after
-    // each (the median of five is reported), and for the first, from `didOpen` to its complete diagnostics. The
-    // later ones find the block bodies cached by the first, but a block with an id is read again in each note (its
-    // id is looked up among the runs of that note), so the hover reads its block as the first did. After the later
-    // ones, a second hover 300 ms after the open, on another block, while the note is being read in slices.
-    const firstHovers: number[] = [];
-    const readingHovers: number[] = [];
-    let openMs = NaN;
-    let takenMs = NaN;
-    const copies = [1, 2, 3, 4].map((k) => `file:///bench/copy${k}.md`);
-    for (const uri of [...copies, URI]) {
-      const t0 = now();
-      await s.conn.sendNotification('textDocument/didOpen', {
-        textDocument: { uri, languageId: 'markdown', version: 1, text: note },
-      });
-      // A no-op answered: the server has taken the note (its transfer, parse, line index and fence scan).
-      await s.conn.sendRequest(AnalysisStatsRequest, { uri });
-      if (uri === copies[0]) takenMs = now() - t0;
-      const t = now();
-      await hover(middle.block.bodyLine, uri);
-      firstHovers.push(now() - t);
-      if (Number.isNaN(openMs)) {
-        await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri } });
-        openMs = now() - t0;
-      } else {
-        await new Promise((resolve) => setTimeout(resolve, 300));
-        const t2 = now();
-        await hover(other.block.bodyLine, uri);
-        readingHovers.push(now() - t2);
-      }
-      if (uri === URI) break;
-      await s.conn.sendNotification('textDocument/didClose', { textDocument: { uri } });
-      await settle();
-    }
-    const firstHoverMs = median(firstHovers);
+    await s.conn.sendRequest(AnalysisStatsRequest, { uri: URI });
+    const takenMs = now() - t0;
     await diagnostics();
+    const openMs = now() - t0;
     const servedBlocks = (await s.conn.sendRequest(AnalysisStatsRequest, { uri: URI }))?.blocks ?? 0;
-    const warm: number[] = [];
-    for (let i = 0; i < 25; i++) {
-      const t = now();
-      await hover(report.blocks[(i * 131 + 7) % report.blocks.length]!.block.bodyLine);
-      warm.push(now() - t);
-    }
     let version = 1;
     const edits: number[] = [];
     for (let i = 0; i < samples; i++) {
@@ -181,13 +128,96 @@ export async function measureSize(blocks: number, samples: number): Promise<Size
       servedBlocks,
       openMs,
       takenMs,
-      firstHoverMs,
-      readingHoverMs: median(readingHovers),
-      warmHoverMs: median(warm),
+      ...hovers,
       oneBlockMs: median(oneBlock),
       peakRssBytes: peakRss(s.proc.pid),
       heapBytes: memory.heapUsed,
     };
+  } finally {
+    await s.close();
+  }
+}
+
+/**
+ * Another note first, read whole and hovered on blocks of every form, as in an editor that has been open a while:
+ * the engine's compiled code of the readers and of the hover is then warm, and what follows measures the server's
+ * work, not its first compilation. The note is closed again and the server left to settle.
+ */
+async function warmUp(s: LspSession): Promise<void> {
+  const uri = 'file:///bench/other.md';
+  const text = generateNote({ blocks: 300 });
+  await s.conn.sendNotification('textDocument/didOpen', {
+    textDocument: { uri, languageId: 'markdown', version: 1, text },
+  });
+  await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri } });
+  for (const b of new Analyzer().analyzeText(text).blocks.slice(0, 20))
+    await s.conn.sendRequest('textDocument/hover', {
+      textDocument: { uri },
+      position: { line: b.block.bodyLine, character: 1 },
+    });
+  await s.conn.sendNotification('textDocument/didClose', { textDocument: { uri } });
+  await settle(s);
+}
+
+/**
+ * What the server does after a note closes (its file read again, the notes that used its runs published again,
+ * after PUSH_DELAY_MS) is over before the next open: the first hover after it measures that open alone.
+ */
+async function settle(s: LspSession): Promise<void> {
+  await s.conn.sendRequest(AnalysisStatsRequest, { uri: URI });
+  await new Promise((resolve) => setTimeout(resolve, 400));
+}
+
+/**
+ * The hovers, in a server of their own: five opens of the note under five names, each a note this server has not
+ * analysed, and the first hover after each (the median of five). The later ones find the block bodies cached by
+ * the earlier, but a block with an id is read again in each note (its id is looked up among the runs of that
+ * note), so the hover reads its block as the first did. After all but the first, a second hover 300 ms after the
+ * open, on another block, while the note is read in slices. The last stays open and is read whole: the warm
+ * hovers (the median of 25) are on it.
+ */
+async function measureHovers(
+  note: string,
+  report: DocumentReport,
+  middle: BlockReport,
+  other: BlockReport,
+): Promise<Pick<SizeFigures, 'firstHoverMs' | 'readingHoverMs' | 'warmHoverMs'>> {
+  const s = await startLsp({ pull: true });
+  try {
+    const hover = (line: number, uri: string): Promise<unknown> =>
+      s.conn.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line, character: 1 } });
+    await warmUp(s);
+    const firstHovers: number[] = [];
+    const readingHovers: number[] = [];
+    const copies = [1, 2, 3, 4, 5].map((k) => `file:///bench/copy${k}.md`);
+    const last = copies[copies.length - 1]!;
+    for (const uri of copies) {
+      await s.conn.sendNotification('textDocument/didOpen', {
+        textDocument: { uri, languageId: 'markdown', version: 1, text: note },
+      });
+      // A no-op answered: the server has taken the note.
+      await s.conn.sendRequest(AnalysisStatsRequest, { uri });
+      const t = now();
+      await hover(middle.block.bodyLine, uri);
+      firstHovers.push(now() - t);
+      if (uri !== copies[0]) {
+        await new Promise((resolve) => setTimeout(resolve, 300));
+        const t2 = now();
+        await hover(other.block.bodyLine, uri);
+        readingHovers.push(now() - t2);
+      }
+      if (uri === last) break;
+      await s.conn.sendNotification('textDocument/didClose', { textDocument: { uri } });
+      await settle(s);
+    }
+    await s.conn.sendRequest('textDocument/diagnostic', { textDocument: { uri: last } });
+    const warm: number[] = [];
+    for (let i = 0; i < 25; i++) {
+      const t = now();
+      await hover(report.blocks[(i * 131 + 7) % report.blocks.length]!.block.bodyLine, last);
+      warm.push(now() - t);
+    }
+    return { firstHoverMs: median(firstHovers), readingHoverMs: median(readingHovers), warmHoverMs: median(warm) };
   } finally {
     await s.close();
   }
