@@ -315,7 +315,13 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
   });
   documents.onDidChangeContent((e) => {
     notes.heard();
-    runs.edited(e.document.uri, e.document.pieces, (previous) => e.document.changeSince(previous));
+    // The fences the document found (on opening) spare the book its own scan when it indexes the note whole.
+    runs.edited(
+      e.document.uri,
+      e.document.pieces,
+      (previous) => e.document.changeSince(previous),
+      () => e.document.fences(),
+    );
     if (!caps.pull) pushes.schedule(e.document.uri, () => push(e.document.uri));
   });
   documents.onDidClose((e) => {

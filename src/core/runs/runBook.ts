@@ -140,13 +140,15 @@ export class RunBook implements RunResolver {
   /**
    * Sets (or replaces) a note's text; the host's version wins over one read through `load`. A host sets a
    * note's current text before it analyses the note with {@link externalsFor}: the book tells a block from
-   * the others (and finds the cycles through it) by its body in the note as set.
+   * the others (and finds the cycles through it) by its body in the note as set. `fences`, when the host has
+   * found them already (every fenced block of `text`, in order), spares the book its own scan of a note it
+   * indexes whole; it is asked only then.
    */
-  setNote(note: string, text: AnyText, change?: TextChange): void {
+  setNote(note: string, text: AnyText, change?: TextChange, fences?: () => readonly FencedBlock[]): void {
     const old = this.notes.get(note);
     if (old && !old.loaded && change && old.text === change.previous && this.reindex(old, text, change)) return;
     this.drop(note);
-    this.index(note, text, false);
+    this.index(note, text, false, fences);
   }
 
   /**
@@ -588,9 +590,9 @@ export class RunBook implements RunResolver {
     }
   }
 
-  private index(note: string, text: AnyText, loaded: boolean): BookNote {
+  private index(note: string, text: AnyText, loaded: boolean, fences?: () => readonly FencedBlock[]): BookNote {
     const blocks: BookBlock[] = [];
-    for (const block of scanFencedBlocks(flatText(text))) {
+    for (const block of fences ? fences() : scanFencedBlocks(flatText(text))) {
       if (!isLevelsInfo(block, this.infoStrings)) continue;
       const b = this.bookBlock(note, blocks.length, block);
       blocks.push(b);

@@ -17,6 +17,7 @@ import {
   LineIndex,
   RunBook,
   type Externals,
+  type FencedBlock,
   type KeyChanges,
   type NoteText,
   type RunResolver,
@@ -155,14 +156,19 @@ export class WorkspaceRuns implements ExternalPart {
   }
 
   /** An open note's text (opened or edited). */
-  edited(uri: string, text: string | NoteText, changeSince?: (previous: NoteText) => TextChange | undefined): void {
+  edited(
+    uri: string,
+    text: string | NoteText,
+    changeSince?: (previous: NoteText) => TextChange | undefined,
+    fences?: () => readonly FencedBlock[],
+  ): void {
     this.open.add(uri);
     const known = this.texts.get(uri)?.text;
     if (known === text) return;
     // An edit of the text the book holds is indexed again where it changed only (core/runs/runBook.ts).
     const change = known !== undefined && typeof known !== 'string' && changeSince ? changeSince(known) : undefined;
     this.texts.set(uri, { text, lines: typeof text === 'string' ? null : text });
-    this.book.setNote(uri, text, change);
+    this.book.setNote(uri, text, change, fences);
     this.changed([uri]);
   }
 

@@ -1,0 +1,197 @@
+/**
+ * The syntax of quantity strings: `"<number> [± <number>] [<unit>]"` read
+ * into a value, an uncertainty and the unit as written, with the span of
+ * each ({@link parseQuantity}); units are checked and converted in
+ * units.ts. Numbers are JS-style decimals; `NaN`, `Infinity`, overflow and
+ * decimal commas are refused with a problem, never an exception.
+ */
+import type { Replacement, Span } from '../types';
+
+/** A problem in a quantity string; spans are offsets `[start, end)` within that string. */
+export interface QuantityProblem {
+  /** `number-invalid`, `uncertainty-negative`, `unit-missing`, `unit-case`, `unit-unknown` or `unit-dimension`. */
+  readonly code: string;
+  readonly message: string;
+  readonly span: Span;
+  /** A fix the user may choose, e.g. the intended unit. */
+  readonly replacement?: Replacement;
+}
+
+/** A quantity as written (value and uncertainty not converted). */
+export interface Quantity {
+  readonly value: number;
+  /** Standard uncertainty (1 σ) in the same unit, ≥ 0, or null. */
+  readonly uncertainty: number | null;
+  readonly unit: string | null;
+  readonly valueSpan: Span;
+  readonly uncertaintySpan: Span | null;
+  readonly unitSpan: Span | null;
+}
+
+const NOT_A_NUMBER = /[+\-\u2212]?(?:nan|inf(?:inity)?)\b/iy;
+const PLUS_MINUS = /±|\+\/-|\+-/y;
+
+type Scanned = { value: number; span: Span; negative: boolean } | { problem: QuantityProblem };
+
+/** A problem of a quantity string, as the readers of quantities return it. */
+export function problem(
+  code: string,
+  message: string,
+  span: Span,
+  replacement?: Replacement,
+): { problem: QuantityProblem } {
+  return { problem: replacement ? { code, message, span, replacement } : { code, message, span } };
+}
+
+const SPACE = /\s/;
+
+/** True for a character `\s` matches; ASCII is decided by its code, the rest by the pattern. */
+function isSpace(c: number, ch: string): boolean {
+  return c < 128 ? c === 32 || (c >= 9 && c <= 13) : SPACE.test(ch);
+}
+
+function skipSpace(text: string, i: number): number {
+  while (i < text.length && isSpace(text.charCodeAt(i), text[i]!)) i++;
+  return i;
+}
+
+/** Characters a `nan` or `inf` spelling can start with (an optional sign, then n or i in any case). */
+function mayStartNotANumber(c: number): boolean {
+  return c === 43 || c === 45 || c === 0x2212 || c === 78 || c === 110 || c === 73 || c === 105;
+}
+
+function isDigit(c: number): boolean {
+  return c >= 48 && c <= 57;
+}
+
+/**
+ * End of the decimal written at `start`, or -1 when there is none: what the
+ * sticky pattern `[+−-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+−-]?\d+)?` would match
+ * there (minus signs ASCII or U+2212), found by stepping over the characters,
+ * which costs less than a regular expression on every number of every block.
+ */
+function endOfDecimal(text: string, start: number): number {
+  let i = start;
+  const sign = text.charCodeAt(i);
+  if (sign === 43 || sign === 45 || sign === 0x2212) i++;
+  const whole = i;
+  while (isDigit(text.charCodeAt(i))) i++;
+  if (text.charCodeAt(i) === 46 /* . */) {
+    let j = i + 1;
+    while (isDigit(text.charCodeAt(j))) j++;
+    // `1.` and `.5` are numbers, a point alone is not.
+    if (i === whole && j === i + 1) return -1;
+    i = j;
+  } else if (i === whole) {
+    return -1;
+  }
+  const e = text.charCodeAt(i);
+  if (e === 101 || e === 69) {
+    let k = i + 1;
+    const s = text.charCodeAt(k);
+    if (s === 43 || s === 45 || s === 0x2212) k++;
+    const digits = k;
+    while (isDigit(text.charCodeAt(k))) k++;
+    // An `e` not followed by digits is not part of the number (it starts the unit, as in `1 eV`… or `1eV`).
+    if (k > digits) i = k;
+  }
+  return i;
+}
+
+/** Reads a JS-style decimal at `start`; rejects NaN, Infinity, overflow and decimal commas. */
+function scanNumber(text: string, start: number): Scanned {
+  NOT_A_NUMBER.lastIndex = start;
+  const bad = mayStartNotANumber(text.charCodeAt(start)) ? NOT_A_NUMBER.exec(text) : null;
+  if (bad)
+    return problem('number-invalid', `\`${bad[0]}\` is not a finite number.`, { start, end: start + bad[0].length });
+  const decimalEnd = endOfDecimal(text, start);
+  if (decimalEnd < 0) {
+    const end = Math.max(start + 1, text.slice(start).search(/\s|$/) + start);
+    return problem('number-invalid', 'Expected a number such as `7.05` or `2.0e16`.', {
+      start,
+      end: Math.min(end, text.length),
+    });
+  }
+  const written = text.slice(start, decimalEnd);
+  const span = { start, end: decimalEnd };
+  const comma = text.charCodeAt(span.end) === 44 /* , */ ? /^,\d+/.exec(text.slice(span.end)) : null;
+  if (comma && !written.includes('.')) {
+    const whole = { start, end: span.end + comma[0].length };
+    return problem('number-invalid', 'Use a decimal point, not a comma.', whole, {
+      title: 'Use a decimal point',
+      span: whole,
+      newText: text.slice(whole.start, whole.end).replace(',', '.'),
+    });
+  }
+  // The Unicode minus is rare; only then is the text rewritten for Number().
+  const value = Number(
+    written.includes('\u2212') ? written.replace('\u2212', '-').replace(/([eE])\u2212/, '$1-') : written,
+  );
+  if (!Number.isFinite(value))
+    return problem('number-invalid', `\`${written}\` is out of the range of double precision.`, span);
+  const sign = written.charCodeAt(0);
+  return { value, span, negative: sign === 45 /* - */ || sign === 0x2212 };
+}
+
+/**
+ * Parses `"7.05 T"`, `"0.312 ± 0.010"`, `"0.312 +- 0.010"`, `"7.05 ± 0.01 T"`
+ * or a bare number (syntax only: the unit is not checked). Numbers are JS-style
+ * decimals (`2.0e16`, `-3.5E-4`, `.5`; the minus sign U+2212 is also read);
+ * `NaN`, `Infinity` and values overflowing double precision are `number-invalid`,
+ * a negative uncertainty is `uncertainty-negative`. Spans are offsets in `text`.
+ */
+export function parseQuantity(text: string): { quantity: Quantity } | { problem: QuantityProblem } {
+  const value = scanNumber(text, skipSpace(text, 0));
+  if ('problem' in value) return value;
+  let i = skipSpace(text, value.span.end);
+  let uncertainty: number | null = null;
+  let uncertaintySpan: Span | null = null;
+  PLUS_MINUS.lastIndex = i;
+  const c = text.charCodeAt(i);
+  const pm = c === 0xb1 || c === 43 ? PLUS_MINUS.exec(text) : null;
+  if (pm) {
+    const u = scanNumber(text, skipSpace(text, i + pm[0].length));
+    if ('problem' in u) return u;
+    if (u.negative && u.value !== 0) {
+      const fixed = text.slice(u.span.start + 1, u.span.end);
+      return problem('uncertainty-negative', 'A standard uncertainty cannot be negative.', u.span, {
+        title: `Change uncertainty to ${fixed}`,
+        span: u.span,
+        newText: fixed,
+      });
+    }
+    [uncertainty, uncertaintySpan] = [Math.abs(u.value), u.span];
+    i = skipSpace(text, u.span.end);
+  }
+  const end = text.trimEnd().length;
+  if (i >= end)
+    return {
+      quantity: { value: value.value, uncertainty, unit: null, valueSpan: value.span, uncertaintySpan, unitSpan: null },
+    };
+  const rest = text.slice(i, end);
+  if (looksNumeric(rest)) {
+    return problem('number-invalid', `Unexpected \`${rest}\` after the number.`, { start: i, end });
+  }
+  return {
+    quantity: {
+      value: value.value,
+      uncertainty,
+      unit: rest,
+      valueSpan: value.span,
+      uncertaintySpan,
+      unitSpan: { start: i, end },
+    },
+  };
+}
+
+/**
+ * True when what follows the number starts like another number or a second
+ * `±` (not a unit): a sign, a digit or a point, except `1/…` (as in `1/cm`).
+ * The first character decides in all but that one case, which the pattern checks.
+ */
+function looksNumeric(rest: string): boolean {
+  const c = rest.charCodeAt(0);
+  if (c === 0xb1 || (c === 43 && (rest.startsWith('+-') || rest.startsWith('+/-')))) return true;
+  const numeric = c === 43 || c === 45 || c === 0x2212 || c === 46 || (c >= 48 && c <= 57);
+  return numeric && !(c === 49 && /^1\s*\//.test(rest));
+}
