@@ -111,6 +111,35 @@ describe('Analyzer and book of runs: a note edited in pieces, read again only ar
     );
   });
 
+  it('names a broken run’s new line after the run was read again and then moved down', () => {
+    // Found by the property above: the run `ref A` is broken, an edit in its opening fence has the book read it
+    // again (as a new block, not yet evaluated), and a line added at the top then moves it one line down. The
+    // blocks that refer to it must name its new line, as a fresh analysis does.
+    const analyzer = new Analyzer();
+    const book = new RunBook();
+    let text = NoteText.of(base);
+    book.setNote(NOTE, text);
+    analyzer.analyzeText(text, book.externalsFor(NOTE));
+    const edit = (start: number, end: number, inserted: string): DocumentReport => {
+      const change = { previous: text, prefix: start, suffix: text.length - end };
+      text = text.edit(start, end, inserted);
+      book.setNote(NOTE, text, change);
+      return analyzer.analyzeText(text, book.externalsFor(NOTE), change);
+    };
+    const fenceA = base.indexOf('```levels\nid: ref A');
+    const dateLine = base.indexOf('date:', fenceA);
+    edit(dateLine + 3, dateLine + 6, '{ run: run 1 }   \r\n'); // `ref A` loses its form: it is broken
+    edit(fenceA + 1, fenceA + 1, ''); // an empty edit in its opening fence: read again where it is
+    const got = edit(0, 0, 'polarization: 0.2\n'); // and moved one line down
+    const lineOfA = text.toString().slice(0, text.toString().indexOf('id: ref A')).split('\n').length; // 1-based
+    const messages = got.blocks.flatMap((b) => b.problems.filter((p) => p.code === 'reference-invalid'));
+    assert.ok(messages.length >= 2, 'both runs that refer to `ref A` say it cannot be used');
+    for (const m of messages) assert.match(m.message, new RegExp(`\\(line ${lineOfA} of this note\\)\\.$`));
+    const fresh = new RunBook();
+    fresh.setNote(NOTE, text.toString());
+    assert.deepEqual(summary(got), summary(new Analyzer().analyzeText(text.toString(), fresh.externalsFor(NOTE))));
+  });
+
   it('reads only the changed block again, and the book names the blocks whose stamps changed', () => {
     // No references here: an id edit then changes the sets of blocks of two ids, nothing else.
     const plain =
