@@ -14,6 +14,7 @@ export {
   type DocumentReport,
 } from './analyzer/analyzer';
 export { movedBlock, type TextChange } from './analyzer/rescanPlan';
+export { spanToNote } from './analyzer/report';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export {
@@ -92,7 +93,7 @@ export {
 } from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { NoteText, type TextLines, type TextSource } from './text/noteText';
-export { firstAtLeast } from './text/common';
+export { blockHoldingOffset, blocksMeeting } from './text/common';
 export {
   notebookInvalidEntry,
   notUtf8Diagnostic,

@@ -14,7 +14,7 @@
  * takes the cached results, and from then on edits are incremental.
  */
 import {
-  firstAtLeast,
+  blocksMeeting,
   Analyzer,
   movedBlock,
   dependenciesHold,
@@ -231,15 +231,9 @@ export class Notes {
     }
     const analyzer = this.analyzer(w.key, settings);
     const near: FencedBlock[] = [];
-    for (
-      let i = firstAtLeast(w.blocks, (f) => f.blockEnd, a);
-      i < w.blocks.length && w.blocks[i]!.openStart <= b;
-      i++
-    ) {
-      const f = w.blocks[i]!;
+    for (const f of blocksMeeting(w.blocks, (x) => x, a, b))
       if (analyzer.isLevelsFence(f))
         near.push(shift.delta === 0 && shift.lines === 0 ? f : movedBlock(f, shift.delta, shift.lines));
-    }
     const blocks = analyzer.reportsOf(near, this.externalsFor(doc.uri));
     return {
       uri: doc.uri,

@@ -5,7 +5,8 @@
  */
 import type { Position, Range } from 'vscode-languageserver';
 import {
-  firstAtLeast,
+  blockHoldingOffset,
+  blocksMeeting,
   DEFAULT_DISPLAY,
   type TextLines,
   type TextSource,
@@ -38,9 +39,7 @@ export function toOffset(lines: TextLines, pos: Position): number {
 
 /** The block whose fences enclose an offset (fence lines included), if any. Binary search. */
 export function blockAt(state: NoteState, offset: number): BlockReport | undefined {
-  const blocks = state.report.blocks;
-  const b = blocks[firstAtLeast(blocks, (x) => x.block.blockEnd, offset)];
-  return b && b.block.openStart <= offset ? b : undefined;
+  return blockHoldingOffset(state.report.blocks, (b) => b.block, offset);
 }
 
 /**
@@ -48,15 +47,7 @@ export function blockAt(state: NoteState, offset: number): BlockReport | undefin
  * search, so a request about the visible lines of a large note reads only the blocks there.
  */
 export function blocksBetween(state: NoteState, from: number, to: number): BlockReport[] {
-  const blocks = state.report.blocks;
-  const out: BlockReport[] = [];
-  for (
-    let i = firstAtLeast(blocks, (b) => b.block.blockEnd, from);
-    i < blocks.length && blocks[i]!.block.openStart <= to;
-    i++
-  )
-    out.push(blocks[i]!);
-  return out;
+  return blocksMeeting(state.report.blocks, (b) => b.block, from, to);
 }
 
 /** The blocks that have problems, in order (from the analysis's list of them where it has one). */

@@ -78,7 +78,7 @@ function reportToNote(this: BlockReport, span: Span): Span {
 }
 
 /** A body-relative span as note offsets; clamped to the body first, so every span lands inside the block. */
-function spanToNote(block: FencedBlock, s: Span): Span {
+export function spanToNote(block: FencedBlock, s: Span): Span {
   const last = block.body.length;
   const from = Math.max(0, Math.min(s.start, last));
   const start = bodyToDocument(block, from);

@@ -14,17 +14,16 @@
  * resolved: it changes exactly when an answer could.
  */
 import { Analyzer } from '../analyzer/analyzer';
-import { firstAtOrAfter, flatText, shiftBlock, type AnyText, type TextChange } from '../analyzer/rescanPlan';
-import { firstAtLeast, ownCopy } from '../text/common';
+import { firstAtOrAfter, flatText, type AnyText, type TextChange } from '../analyzer/rescanPlan';
+import { blockHoldingOffset } from '../text/common';
+import { spanToNote } from '../analyzer/report';
 import { scanInWindows } from '../analyzer/windows';
-import { plainFacts } from './plainIds';
 import { ChangeLog, type ChangeReach } from './changeLog';
 import type { Externals, KeyChanges } from '../block/externals';
-import { interpretBody } from '../block/interpret';
-import { bodyToDocument, isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
+import { isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import { editDistance } from '../text/suggest';
-import type { Span } from '../types';
 import { resolveNotePath } from './paths';
+import { BodyReader, hash, lineOf, moveBookBlock, openingAt, type BookBlock, type BookReference } from './bookBlocks';
 import {
   parseRunKey,
   RUN_KEY_PREFIX,
@@ -35,9 +34,10 @@ import {
   type RunError,
   type RunFacts,
   type RunPlace,
-  type RunRef,
   type RunResolver,
 } from './types';
+
+export type { BookBlock, BookReference } from './bookBlocks';
 
 /** The longest chain of references a run may stand at the start of: each link is evaluated inside the next. */
 export const MAX_CHAIN = 32;
@@ -65,30 +65,6 @@ export interface RunBookOptions {
   readonly sources?: (note: string) => Externals | null;
 }
 
-/** One `levels` block of a note, as indexed. */
-export interface BookBlock {
-  readonly note: string;
-  /** Position among the note's `levels` blocks. */
-  readonly index: number;
-  readonly block: FencedBlock;
-  readonly id: string | null;
-  /** Where the id value is, in note offsets, or null without an id. */
-  readonly place: RunPlace | null;
-  /** The references the block writes (body-relative spans). */
-  readonly refs: readonly RunRef[];
-  readonly hash: string;
-}
-
-/** A reference found in the book, with note offsets. */
-export interface BookReference {
-  /** The referring block. */
-  readonly from: BookBlock;
-  readonly ref: RunRef;
-  /** Note offsets of the whole reference value and of its id part. */
-  readonly span: Span;
-  readonly idSpan: Span;
-}
-
 interface BookNote {
   readonly note: string;
   readonly text: AnyText;
@@ -97,20 +73,13 @@ interface BookNote {
   readonly loaded: boolean;
 }
 
-/** What a block's body gives the index (kept per body, shared by every note and version that has it). */
-interface BodyFacts {
-  readonly id: string | null;
-  readonly idSpan: Span | null;
-  readonly refs: readonly RunRef[];
-  readonly hash: string;
-}
-
 /** The book. One per host; not safe to share across threads (there are none). */
 export class RunBook implements RunResolver {
   private readonly notes = new Map<string, BookNote>();
   /** Run id → every block carrying it, in note order then block order. */
   private readonly byId = new Map<string, BookBlock[]>();
-  private readonly bodies = new Map<string, BodyFacts>();
+  /** What each body gives the index, read once per body. */
+  private readonly reader = new BodyReader();
   private readonly analyzer: Analyzer;
   private readonly infoStrings: readonly string[];
   private readonly load: RunBookOptions['load'] | null;
@@ -222,7 +191,7 @@ export class RunBook implements RunResolver {
     const out: BookReference[] = [];
     for (const b of this.blocksOf(note))
       for (const ref of b.refs)
-        out.push({ from: b, ref, span: toNote(b.block, ref.span), idSpan: toNote(b.block, ref.idSpan) });
+        out.push({ from: b, ref, span: spanToNote(b.block, ref.span), idSpan: spanToNote(b.block, ref.idSpan) });
     return out;
   }
 
@@ -231,18 +200,16 @@ export class RunBook implements RunResolver {
     const b = this.blockHolding(note, offset);
     if (!b) return null;
     for (const ref of b.refs) {
-      const span = toNote(b.block, ref.span);
+      const span = spanToNote(b.block, ref.span);
       if (offset >= span.start && offset <= span.end)
-        return { from: b, ref, span, idSpan: toNote(b.block, ref.idSpan) };
+        return { from: b, ref, span, idSpan: spanToNote(b.block, ref.idSpan) };
     }
     return null;
   }
 
   /** The block of a note whose fences hold an offset (ends included), found by binary search. */
   blockHolding(note: string, offset: number): BookBlock | null {
-    const blocks = this.blocksOf(note);
-    const b = blocks[firstAtLeast(blocks, (x) => x.block.blockEnd, offset)];
-    return b && b.block.openStart <= offset ? b : null;
+    return blockHoldingOffset(this.blocksOf(note), (b) => b.block, offset) ?? null;
   }
 
   /** The block whose `id` value holds the note offset (ends included), or null. */
@@ -260,7 +227,7 @@ export class RunBook implements RunResolver {
         for (const ref of b.refs) {
           if (ref.id !== target.id) continue;
           if (this.target(n.note, ref) !== target) continue;
-          out.push({ from: b, ref, span: toNote(b.block, ref.span), idSpan: toNote(b.block, ref.idSpan) });
+          out.push({ from: b, ref, span: spanToNote(b.block, ref.span), idSpan: spanToNote(b.block, ref.idSpan) });
         }
     return out;
   }
@@ -493,7 +460,7 @@ export class RunBook implements RunResolver {
         }
       }
       if (!isLevelsInfo(block, this.infoStrings)) continue;
-      added.push(this.bookBlock(old.note, head + added.length, block));
+      added.push(this.reader.bookBlock(old.note, head + added.length, block));
     }
     const lastOld = resume >= 0 ? resume : blocks.length;
     for (let i = head; i < lastOld; i++) dropped.push(blocks[i]!);
@@ -516,25 +483,7 @@ export class RunBook implements RunResolver {
     const moved = resume >= 0 ? all.length - (blocks.length - resume) : all.length;
     if (resume >= 0 && (delta !== 0 || lines !== 0 || shift !== 0))
       for (let i = moved; i < all.length; i++) moveBookBlock(all[i]!, delta, lines, shift);
-    // A reference's stamp hashes the blocks it reaches and, for an unknown id, the closest ids, and for a broken
-    // run the line where it breaks. So it may change when a block that a reference names or that makes references
-    // was read again differently, when an id came or went, or when a named broken run moved to other lines; none
-    // of this can matter where no reference is written.
-    const named = this.named.size + dropped.reduce((n, b) => n + b.refs.length, 0) > 0;
-    const refs =
-      named &&
-      ((bodies &&
-        (ids.size > 0 ||
-          [...dropped, ...added].some((b) => b.refs.length > 0 || (b.id !== null && this.named.has(b.id))))) ||
-        (lines !== 0 &&
-          // a named broken run moved, or was read again near the change (the same body, at another line); a
-          // named run not evaluated since it was last read again may be broken too
-          (dropped.some((b) => b.id !== null && this.named.has(b.id) && this.brokenLine(b) !== '') ||
-            all
-              .slice(moved)
-              .some(
-                (b) => b.id !== null && this.named.has(b.id) && (!this.evaluated.has(b) || this.brokenLine(b) !== ''),
-              ))));
+    const refs = this.referenceStampsMayChange(dropped, added, all.slice(moved), bodies, ids.size > 0, lines !== 0);
     // Each id's list keeps note order, then block order: this note's blocks with the id, dropped ones out and
     // new ones in, sorted by their place (the lists are short: one block per id, unless duplicated).
     const gone = new Set(dropped);
@@ -558,6 +507,35 @@ export class RunBook implements RunResolver {
     return true;
   }
 
+  /**
+   * True when the stamps of references may change with a re-indexed stretch of a note. A reference's stamp hashes
+   * the blocks it reaches and, for an unknown id, the closest ids, and for a broken run the line where it breaks.
+   * So it may change when a block that a reference names or that makes references was read again differently,
+   * when an id came or went, or when a named broken run moved to other lines; none of this can matter where no
+   * reference is written.
+   * @param moved the blocks after the stretch, moved where they are
+   * @param bodies whether the stretch's blocks were read again differently (bodies or ids)
+   */
+  private referenceStampsMayChange(
+    dropped: readonly BookBlock[],
+    added: readonly BookBlock[],
+    moved: readonly BookBlock[],
+    bodies: boolean,
+    idsChanged: boolean,
+    linesMoved: boolean,
+  ): boolean {
+    if (this.named.size + dropped.reduce((n, b) => n + b.refs.length, 0) === 0) return false;
+    const named = (b: BookBlock): boolean => b.id !== null && this.named.has(b.id);
+    if (bodies && (idsChanged || [...dropped, ...added].some((b) => b.refs.length > 0 || named(b)))) return true;
+    if (!linesMoved) return false;
+    // A named broken run moved, or was read again near the change (the same body, at another line); a named run
+    // not evaluated since it was last read again may be broken too.
+    return (
+      dropped.some((b) => named(b) && this.brokenLine(b) !== '') ||
+      moved.some((b) => named(b) && (!this.evaluated.has(b) || this.brokenLine(b) !== ''))
+    );
+  }
+
   /** For a run evaluated as broken, `@` and the line where it breaks; '' otherwise (or not evaluated yet). */
   private brokenLine(b: BookBlock): string {
     const memo = this.evaluated.get(b);
@@ -565,14 +543,6 @@ export class RunBook implements RunResolver {
     if (!memo || !f || (f.results && !f.error)) return '';
     // The error's line is as evaluated; the place moves with the block.
     return `@${f.error ? f.error.line + b.block.openLine - memo.line : f.place.line}`;
-  }
-
-  /** A block of the index for a block found by the scan. */
-  private bookBlock(note: string, index: number, block: FencedBlock): BookBlock {
-    const f = this.bodyFacts(block.body);
-    const place: RunPlace | null =
-      f.idSpan && f.id !== null ? { note, span: toNote(block, f.idSpan), line: lineOf(block, f.idSpan.start) } : null;
-    return { note, index, block, id: f.id, place, refs: f.refs, hash: f.hash };
   }
 
   private drop(note: string): void {
@@ -594,7 +564,7 @@ export class RunBook implements RunResolver {
     const blocks: BookBlock[] = [];
     for (const block of fences ? fences() : scanFencedBlocks(flatText(text))) {
       if (!isLevelsInfo(block, this.infoStrings)) continue;
-      const b = this.bookBlock(note, blocks.length, block);
+      const b = this.reader.bookBlock(note, blocks.length, block);
       blocks.push(b);
       this.name(b, 1);
       if (b.id !== null) {
@@ -607,22 +577,6 @@ export class RunBook implements RunResolver {
     this.notes.set(note, n);
     this.changed();
     return n;
-  }
-
-  private bodyFacts(body: string): BodyFacts {
-    const known = this.bodies.get(body);
-    if (known) return known;
-    // Read without sources: only the id and the references as written are kept. Read from (and kept under) a
-    // copy of the body: a body sliced from the note would keep that whole version of the note alive.
-    // A body whose text alone says it refers to no run and where its id is (most bodies) is not read as YAML.
-    const own = ownCopy(body);
-    const plain = plainFacts(own);
-    const m =
-      plain.kind === 'plain' ? { id: plain.id, idSpan: plain.idSpan, refs: NO_REFS } : interpretBody(own, null).meta;
-    const f: BodyFacts = { id: m.id, idSpan: m.idSpan, refs: m.refs ?? [], hash: hash(body) };
-    if (this.bodies.size > 50_000) this.bodies.clear();
-    this.bodies.set(own, f);
-    return f;
   }
 
   /** A note of the book, read through `load` when a reference names one that was not set. */
@@ -776,53 +730,5 @@ export class RunBook implements RunResolver {
     }
     scored.sort((a, b) => a.d - b.d || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
     return scored.slice(0, 5).map((s) => s.id);
-  }
-}
-
-/** A body-relative span as note offsets. */
-function toNote(block: FencedBlock, s: Span): Span {
-  const start = bodyToDocument(block, Math.max(0, Math.min(s.start, block.body.length)));
-  const end = bodyToDocument(block, Math.max(0, Math.min(s.end, block.body.length)));
-  return { start, end: Math.max(start, end) };
-}
-
-/** The 0-based note line of a body offset. */
-function lineOf(block: FencedBlock, bodyOffset: number): number {
-  let line = block.bodyLine;
-  const end = Math.min(bodyOffset, block.body.length);
-  for (let i = 0; i < end; i++) if (block.body.charCodeAt(i) === 10) line++;
-  return line;
-}
-
-/** A 64-bit FNV-1a hash of the text (two 32-bit halves), as hex: a stamp, not a security measure. */
-function hash(text: string): string {
-  let h1 = 0x811c9dc5;
-  let h2 = 0x01000193 ^ text.length;
-  for (let i = 0; i < text.length; i++) {
-    const c = text.charCodeAt(i);
-    h1 = Math.imul(h1 ^ c, 0x01000193);
-    h2 = Math.imul(h2 ^ c, 0x5bd1e995) ^ (h2 >>> 15);
-  }
-  return (h1 >>> 0).toString(16).padStart(8, '0') + (h2 >>> 0).toString(16).padStart(8, '0');
-}
-
-/** The references of a block that makes none. */
-const NO_REFS: readonly RunRef[] = Object.freeze([]);
-
-/** Index of the block opening at `offset`, or -1 (blocks in order). */
-function openingAt(blocks: readonly BookBlock[], offset: number): number {
-  const i = firstAtOrAfter(blocks, offset);
-  return i < blocks.length && blocks[i]!.block.openStart === offset ? i : -1;
-}
-
-/** An indexed block moved by an edit before it, in place: its place in the note and its position among the blocks. */
-function moveBookBlock(b: BookBlock, delta: number, lines: number, shift: number): void {
-  (b as { index: number }).index += shift;
-  shiftBlock(b.block, delta, lines);
-  if (b.place) {
-    const span = b.place.span as { start: number; end: number };
-    span.start += delta;
-    span.end += delta;
-    (b.place as { line: number }).line += lines;
   }
 }

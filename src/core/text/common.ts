@@ -22,6 +22,31 @@ export function firstAtLeast<T>(items: readonly T[], key: (item: T) => number, v
   return lo;
 }
 
+/** Where a fenced block lies in its note, fence lines included. */
+interface Extent {
+  readonly openStart: number;
+  readonly blockEnd: number;
+}
+
+/**
+ * The items whose block meets the note offsets [from, to] (ends included), in note order: found by binary search,
+ * so that a request about a few lines of a large note reads only the blocks there.
+ */
+export function blocksMeeting<T>(items: readonly T[], extent: (item: T) => Extent, from: number, to: number): T[] {
+  const out: T[] = [];
+  for (let i = firstAtLeast(items, (x) => extent(x).blockEnd, from); i < items.length; i++) {
+    if (extent(items[i]!).openStart > to) break;
+    out.push(items[i]!);
+  }
+  return out;
+}
+
+/** The item whose block holds the note offset (ends included), or undefined; by binary search. */
+export function blockHoldingOffset<T>(items: readonly T[], extent: (item: T) => Extent, offset: number): T | undefined {
+  const b = items[firstAtLeast(items, (x) => extent(x).blockEnd, offset)];
+  return b !== undefined && extent(b).openStart <= offset ? b : undefined;
+}
+
 /**
  * A copy of a string that shares no memory with the string it came from.
  * JavaScript engines keep a substring as a view into its parent (V8 does for

@@ -28,14 +28,13 @@ import {
   type WorkspaceEdit,
 } from 'vscode-languageserver';
 import {
-  bodyToDocument,
   DEFAULT_DISPLAY,
   resolveNotePath,
   shortSummary,
+  spanToNote,
   STATUS_WORDS,
   type BookBlock,
   type DisplayOptions,
-  type FencedBlock,
   type RunFacts,
   type RunRef,
   type Span,
@@ -56,13 +55,6 @@ export type RunSymbolAt =
       readonly whole: Span;
     };
 
-/** A body-relative span as note offsets. */
-function toNote(block: FencedBlock, s: Span): Span {
-  const start = bodyToDocument(block, Math.max(0, Math.min(s.start, block.body.length)));
-  const end = bodyToDocument(block, Math.max(0, Math.min(s.end, block.body.length)));
-  return { start, end: Math.max(start, end) };
-}
-
 /** True when the offset lies on the span or just after its last character (where a cursor stands after typing). */
 function touches(span: Span, offset: number): boolean {
   return offset >= span.start && offset <= span.end;
@@ -74,8 +66,8 @@ export function runSymbolAt(runs: WorkspaceRuns, uri: string, offset: number): R
   const b = runs.book.blockHolding(uri, offset);
   if (!b) return null;
   for (const ref of b.refs) {
-    const whole = toNote(b.block, ref.span);
-    if (touches(whole, offset)) return { kind: 'ref', from: b, ref, span: toNote(b.block, ref.idSpan), whole };
+    const whole = spanToNote(b.block, ref.span);
+    if (touches(whole, offset)) return { kind: 'ref', from: b, ref, span: spanToNote(b.block, ref.idSpan), whole };
   }
   if (b.place && touches(b.place.span, offset)) return { kind: 'id', block: b, span: b.place.span };
   return null;
@@ -339,7 +331,7 @@ export function runLinks(runs: WorkspaceRuns, state: NoteState): DocumentLink[] 
       const target = runs.book.target(state.uri, ref);
       const at = target?.place ? `#L${target.place.line + 1}` : '';
       out.push({
-        range: toRange(state.lines, toNote(b.block, ref.noteSpan)),
+        range: toRange(state.lines, spanToNote(b.block, ref.noteSpan)),
         target: note + at,
         tooltip: target ? `Open ${ref.id} in ${ref.note}` : `Open ${ref.note}`,
       });
