@@ -6,12 +6,53 @@ import { isMainThread } from 'node:worker_threads';
 import { start } from './main';
 import { serveNotes } from './parallel';
 
-if (!isMainThread) serveNotes();
-else run();
+/** The exit status of a command whose reader closed the pipe it wrote to: that of one stopped by SIGPIPE. */
+const READER_GONE = 128 + 13;
+
+/**
+ * What happens when the output cannot be written. A reader that stops reading (`| head`) closes the pipe: the
+ * command ends there, quietly, as commands stopped by SIGPIPE do; any other failure (a full disk) is said in one
+ * line on standard error, with exit status 1. Either way no stack trace, and nothing more is written.
+ */
+function outputFailed(err: unknown): never {
+  if ((err as NodeJS.ErrnoException | null)?.code === 'EPIPE') process.exit(READER_GONE);
+  try {
+    process.stderr.write(`boltzmark: the report could not be written: ${(err as Error).message}\n`);
+  } finally {
+    process.exit(1);
+  }
+}
 
 function run(): void {
-  const status = start(process.argv.slice(2), {
-    out: (s) => process.stdout.write(s),
+  // Writes to a pipe fail later, as an event; writes to a file fail at once, inside the report.
+  process.stdout.on('error', outputFailed);
+  // Standard error is where warnings go; a reader that closed it loses only those.
+  process.stderr.on('error', () => undefined);
+  let status: number | Promise<number>;
+  try {
+    status = startCommand();
+  } catch (err) {
+    if (
+      typeof (err as NodeJS.ErrnoException | null)?.code === 'string' &&
+      (err as { syscall?: string }).syscall === 'write'
+    )
+      outputFailed(err);
+    throw err;
+  }
+  if (typeof status === 'number') process.exitCode = status;
+  else
+    void status.then((code) => {
+      process.exitCode = code;
+    });
+}
+
+function startCommand(): number | Promise<number> {
+  return start(process.argv.slice(2), {
+    // A write that failed leaves the stream errored at once (its event comes later): the report stops there.
+    out: (s) => {
+      process.stdout.write(s);
+      if (process.stdout.errored) outputFailed(process.stdout.errored);
+    },
     err: (s) => process.stderr.write(s),
     cwd: process.cwd(),
     ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
@@ -22,9 +63,7 @@ function run(): void {
     workers: Math.max(1, availableParallelism() - 1),
     workerScript: __filename,
   });
-  if (typeof status === 'number') process.exitCode = status;
-  else
-    void status.then((code) => {
-      process.exitCode = code;
-    });
 }
+
+if (!isMainThread) serveNotes();
+else run();
