@@ -81,14 +81,16 @@ const diskAccess: SyncFileAccess = {
  */
 export function noteSpectra(shelf: SpectrumShelf, notePath: string | null, noteFolder: string): Externals {
   const folder = resolve(noteFolder);
-  const realFolder = realOrSelf(folder);
+  // Found on the first reference: most notes refer to no spectrum, and the walk of links costs a system call per
+  // folder of the path.
+  let realFolder: string | null = null;
   const locate = (written: string): Located => {
     const where = `the note's folder ${folder}`;
     if (isAbsolute(written) || /^[A-Za-z]:[\\/]/.test(written)) return { outside: where };
     const path = resolve(folder, written);
     if (!within(folder, path)) return { outside: where };
     // A link inside the tree that leads out of it is refused too; a missing file is reported as missing.
-    if (!within(realFolder, realOrSelf(path))) return { outside: where };
+    if (!within((realFolder ??= realOrSelf(folder)), realOrSelf(path))) return { outside: where };
     return { path };
   };
   return {
