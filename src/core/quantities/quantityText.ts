@@ -65,6 +65,14 @@ function isDigit(c: number): boolean {
 }
 
 /**
+ * The UTF-16 code at `i`, or -1 past the end. Reading past the end with `charCodeAt` gives NaN, which compares the
+ * same, but the engine's optimized code is thrown away the first time it happens at each place, and compiled again.
+ */
+function codeAt(text: string, i: number): number {
+  return i < text.length ? text.charCodeAt(i) : -1;
+}
+
+/**
  * End of the decimal written at `start`, or -1 when there is none: what the
  * sticky pattern `[+−-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+−-]?\d+)?` would match
  * there (minus signs ASCII or U+2212), found by stepping over the characters,
@@ -72,26 +80,26 @@ function isDigit(c: number): boolean {
  */
 function endOfDecimal(text: string, start: number): number {
   let i = start;
-  const sign = text.charCodeAt(i);
+  const sign = codeAt(text, i);
   if (sign === 43 || sign === 45 || sign === 0x2212) i++;
   const whole = i;
-  while (isDigit(text.charCodeAt(i))) i++;
-  if (text.charCodeAt(i) === 46 /* . */) {
+  while (isDigit(codeAt(text, i))) i++;
+  if (codeAt(text, i) === 46 /* . */) {
     let j = i + 1;
-    while (isDigit(text.charCodeAt(j))) j++;
+    while (isDigit(codeAt(text, j))) j++;
     // `1.` and `.5` are numbers, a point alone is not.
     if (i === whole && j === i + 1) return -1;
     i = j;
   } else if (i === whole) {
     return -1;
   }
-  const e = text.charCodeAt(i);
+  const e = codeAt(text, i);
   if (e === 101 || e === 69) {
     let k = i + 1;
-    const s = text.charCodeAt(k);
+    const s = codeAt(text, k);
     if (s === 43 || s === 45 || s === 0x2212) k++;
     const digits = k;
-    while (isDigit(text.charCodeAt(k))) k++;
+    while (isDigit(codeAt(text, k))) k++;
     // An `e` not followed by digits is not part of the number (it starts the unit, as in `1 eV`… or `1eV`).
     if (k > digits) i = k;
   }
@@ -101,7 +109,7 @@ function endOfDecimal(text: string, start: number): number {
 /** Reads a JS-style decimal at `start`; rejects NaN, Infinity, overflow and decimal commas. */
 function scanNumber(text: string, start: number): Scanned {
   NOT_A_NUMBER.lastIndex = start;
-  const bad = mayStartNotANumber(text.charCodeAt(start)) ? NOT_A_NUMBER.exec(text) : null;
+  const bad = mayStartNotANumber(codeAt(text, start)) ? NOT_A_NUMBER.exec(text) : null;
   if (bad)
     return problem('number-invalid', `\`${bad[0]}\` is not a finite number.`, { start, end: start + bad[0].length });
   const decimalEnd = endOfDecimal(text, start);
@@ -114,7 +122,7 @@ function scanNumber(text: string, start: number): Scanned {
   }
   const written = text.slice(start, decimalEnd);
   const span = { start, end: decimalEnd };
-  const comma = text.charCodeAt(span.end) === 44 /* , */ ? /^,\d+/.exec(text.slice(span.end)) : null;
+  const comma = codeAt(text, span.end) === 44 /* , */ ? /^,\d+/.exec(text.slice(span.end)) : null;
   if (comma && !written.includes('.')) {
     const whole = { start, end: span.end + comma[0].length };
     return problem('number-invalid', 'Use a decimal point, not a comma.', whole, {
@@ -147,7 +155,7 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
   let uncertainty: number | null = null;
   let uncertaintySpan: Span | null = null;
   PLUS_MINUS.lastIndex = i;
-  const c = text.charCodeAt(i);
+  const c = codeAt(text, i);
   const pm = c === 0xb1 || c === 43 ? PLUS_MINUS.exec(text) : null;
   if (pm) {
     const u = scanNumber(text, skipSpace(text, i + pm[0].length));

@@ -71,7 +71,8 @@ function openingFence(text: string, start: number, end: number): Fence | null {
   while (i < end && i - start < 4 && text.charCodeAt(i) === SPACE) i++;
   const indent = i - start;
   if (indent > 3) return null;
-  const ch = text.charCodeAt(i);
+  // Past the end of the line is no fence (and no read past the note's end, which costs the engine a recompile).
+  const ch = i < end ? text.charCodeAt(i) : -1;
   if (ch !== BACKTICK && ch !== TILDE) return null;
   let j = i;
   while (j < end && text.charCodeAt(j) === ch) j++;
