@@ -38,12 +38,13 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
   if (!species || !spin || !measured) return null;
   const n = Math.round(2 * species.spin + 1);
   const labels = levelLabels(species, n);
-  // Made at its final length: a list grown by push keeps spare room, and this one stays cached with the block.
-  const levels = new Array<LevelInput>(n);
-  for (let k = 0; k < n; k++) {
+  // Mapped from the labels (one per level): a list of exactly n without holes. A list grown by push keeps spare
+  // room, and this one stays cached with the block; one made at its length has holes, and every list mapped from it
+  // too, which the engine compiles the physics for apart from the lists without.
+  const levels = labels.map((label, k): LevelInput => {
     const pop = measured.populations?.[k] ?? null;
-    levels[k] = {
-      label: labels[k]!,
+    return {
+      label,
       energy: k * spin.spacing,
       g: 1,
       population: pop ? pop.value : null,
@@ -51,7 +52,7 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
       span: pop ? pop.span : null,
       populationSpan: pop ? pop.span : null,
     };
-  }
+  });
   return {
     form: 'spin',
     levels,

@@ -268,7 +268,9 @@ function curvature(
 ): Curvature | null {
   const m = p.length;
   const jtj = Matrix.zeros(m, m);
-  const jtr = new Array<number>(m).fill(0);
+  // A typed array: its elements are doubles from the start (a list made at its length has holes, which the engine
+  // compiles for apart from the lists without).
+  const jtr = new Float64Array(m);
   let chi2 = 0;
   for (let i = 0; i < n; i++) {
     const w = sigma ? 1 / (sigma[i]! * sigma[i]!) : 1;
