@@ -39,8 +39,8 @@ export function readSpinForm(ctx: ReadContext, byKey: ReadonlyMap<string, Entry>
   const n = Math.round(2 * species.spin + 1);
   const labels = levelLabels(species, n);
   // Mapped from the labels (one per level): a list of exactly n without holes. A list grown by push keeps spare
-  // room, and this one stays cached with the block; one made at its length has holes, and every list mapped from it
-  // too, which the engine compiles the physics for apart from the lists without.
+  // room, and this one stays cached with the block; one made at its length has holes, and the engine compiles the
+  // code that reads it apart from the lists without.
   const levels = labels.map((label, k): LevelInput => {
     const pop = measured.populations?.[k] ?? null;
     return {
