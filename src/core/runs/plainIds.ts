@@ -47,35 +47,53 @@ const NOT_TEXT = /^(?:y|yes|n|no|true|false|on|off|null|nan|inf|infinity)$/i;
 /** What the text of a block body tells (see {@link PlainFacts}). */
 export function plainFacts(body: string): PlainFacts {
   if (MAY_REFER.test(body) || body.includes('\t')) return UNSURE;
-  const keys = body.match(ID_KEY);
-  if (!keys) return NO_ID;
-  if (keys.length !== 1) return UNSURE;
-  const lines = body.split(/\r\n|\r|\n/);
-  // The body must be a block mapping: its first line with text (comments aside) a key at the left margin.
-  const first = lines.find((l) => l.trim() !== '' && !l.trimStart().startsWith('#'));
-  if (first === undefined || !TOP_KEY.test(first)) return UNSURE;
-  const at = lines.findIndex((l) => l.startsWith('id:'));
-  if (at < 0) return UNSURE;
-  const m = PLAIN_ID.exec(lines[at]!);
-  if (!m || NOT_TEXT.test(m[1]!)) return UNSURE;
-  // A plain scalar goes on over more indented lines (blank ones between them too): the next line with text
-  // must start at the left margin, where the next key is.
-  for (let i = at + 1; i < lines.length; i++) {
-    const l = lines[i]!;
-    if (l.trim() === '') continue;
-    if (l.startsWith(' ')) return UNSURE;
-    break;
-  }
-  // Where the value is: the id line's offset in the body (each line break before it is one or two characters).
-  let offset = 0;
-  for (let i = 0, seen = 0; seen < at; i++) {
-    const c = body.charCodeAt(i);
-    if (c === 10 || (c === 13 && body.charCodeAt(i + 1) !== 10)) {
-      seen++;
-      offset = i + 1;
+  // One key `id` and no second (the pattern is global: each search goes on from the last match).
+  ID_KEY.lastIndex = 0;
+  if (!ID_KEY.test(body)) return NO_ID;
+  const second = ID_KEY.test(body);
+  ID_KEY.lastIndex = 0;
+  if (second) return UNSURE;
+  // The lines are walked in place (a break is \r\n, \r or \n), without a list of them: every body of a note
+  // passes here when the command line decides whether it needs the book of runs.
+  let firstSeen = false;
+  let idLine: string | null = null;
+  let idStart = 0;
+  for (let from = 0; ;) {
+    let to = from;
+    while (to < body.length) {
+      const c = body.charCodeAt(to);
+      if (c === 10 || c === 13) break;
+      to++;
     }
+    if (!firstSeen) {
+      // The body must be a block mapping: its first line with text (comments aside) a key at the left margin.
+      const line = body.slice(from, to);
+      if (line.trim() !== '' && !line.trimStart().startsWith('#')) {
+        if (!TOP_KEY.test(line)) return UNSURE;
+        firstSeen = true;
+      }
+    }
+    if (idLine === null) {
+      if (body.startsWith('id:', from) && to - from >= 3) {
+        idLine = body.slice(from, to);
+        idStart = from;
+      }
+    } else {
+      // A plain scalar goes on over more indented lines (blank ones between them too): the next line with text
+      // must start at the left margin, where the next key is.
+      const line = body.slice(from, to);
+      if (line.trim() !== '') {
+        if (line.startsWith(' ')) return UNSURE;
+        break;
+      }
+    }
+    if (to >= body.length) break;
+    from = to + (body.charCodeAt(to) === 13 && body.charCodeAt(to + 1) === 10 ? 2 : 1);
   }
-  const start = offset + lines[at]!.indexOf(m[1]!, 3);
+  if (!firstSeen || idLine === null) return UNSURE;
+  const m = PLAIN_ID.exec(idLine);
+  if (!m || NOT_TEXT.test(m[1]!)) return UNSURE;
+  const start = idStart + idLine.indexOf(m[1]!, 3);
   return { kind: 'plain', id: m[1]!, idSpan: { start, end: start + m[1]!.length } };
 }
 
