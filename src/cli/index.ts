@@ -2,9 +2,24 @@
 /** Entry point of the `boltzmark` command (and of the threads its JSON report runs on: src/cli/parallel.ts). */
 import { readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
+import { setFlagsFromString } from 'node:v8';
 import { isMainThread } from 'node:worker_threads';
 import { start } from './main';
 import { serveNotes } from './parallel';
+
+/**
+ * The engine is asked not to inline the array builtins (`map`, `reduce`, `every`…) into the code it optimizes. An
+ * inlined `map` makes a list with holes where the builtin makes one without, so the physics, which reads lists made
+ * both ways, was compiled for one kind, thrown away at the other and compiled again: 48 such deoptimizations over a
+ * thousand notes, 7 with the builtins called, and about a tenth less CPU for the report (README, Performance). A
+ * command that runs for seconds gains more from compiling once than from the inlining. Set before any code is hot;
+ * only for the engines known to have the flag (V8 up to 13: Node.js 20 to 24), since an unknown flag is complained
+ * about on standard error.
+ */
+function tuneEngine(): void {
+  const major = Number(/^(\d+)\./.exec(process.versions.v8)?.[1]);
+  if (major >= 10 && major <= 13) setFlagsFromString('--no-turbo-inline-array-builtins');
+}
 
 /** The exit status of a command whose reader closed the pipe it wrote to: that of one stopped by SIGPIPE. */
 const READER_GONE = 128 + 13;
@@ -65,5 +80,6 @@ function startCommand(): number | Promise<number> {
   });
 }
 
+tuneEngine();
 if (!isMainThread) serveNotes();
 else run();
