@@ -223,7 +223,7 @@ async function main(): Promise<number> {
   });
 
   log('command line over 1,000 notes of 20 blocks …');
-  const cli = measureCli(3);
+  const cli = measureCli(5);
   figures.push({
     figure: `CLI report --format json ÷ fence-and-parseDocument floor, CPU (${cli.notes} notes × ${cli.blocksPerNote} blocks, fresh processes)`,
     value: `${f(cli.cpuRatio, 2)} (${f(cli.cliCpuMs)} ms ÷ ${f(cli.floorCpuMs)} ms)`,
