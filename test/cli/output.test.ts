@@ -1,9 +1,8 @@
 import { strict as assert } from 'node:assert';
 import { spawn } from 'node:child_process';
-import { closeSync, mkdtempSync, openSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { generateNote } from '../../bench/note';
+import { closeSync, openSync, rmSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { benchFolder } from '../support/benchFolder';
 
 // When the output cannot be written. `boltzmark report … | head` closes the pipe after a few lines: the command
 // must stop there, quietly, as commands stopped by SIGPIPE do (exit status 128 + 13; SIGPIPE is signal 13 in
@@ -12,15 +11,6 @@ import { generateNote } from '../../bench/note';
 // since the pipe and the exit are the process's own.
 
 const BUNDLE = resolve('dist/cli.js');
-
-/** A folder of `count` invented benchmark notes (bench/note.ts); the caller removes it. */
-function folder(count: number): string {
-  const dir = mkdtempSync(join(tmpdir(), 'boltzmark-output-'));
-  const note = generateNote({ blocks: 20 });
-  for (let i = 0; i < count; i++)
-    writeFileSync(join(dir, `n${String(i).padStart(3, '0')}.md`), note.replace(/id: run /g, `id: n${i} run `));
-  return dir;
-}
 
 /** Runs the command with its output read until `keep` bytes came, then the pipe closed; the status and stderr. */
 function readThenClose(args: string[], keep: number): Promise<{ code: number | null; err: string; got: number }> {
@@ -44,7 +34,7 @@ describe('boltzmark report when its output cannot be written', function () {
   before(() => {
     // Far more than a pipe holds (64 KiB on Linux) and than the reader takes in one read: 1,200 blocks, about
     // 1.5 KB of JSON and 250 bytes of CSV each.
-    dir = folder(60);
+    dir = benchFolder('boltzmark-output-', 60, 20);
   });
   after(() => rmSync(dir, { recursive: true, force: true }));
 

@@ -1,9 +1,8 @@
 import { strict as assert } from 'node:assert';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { main, start, type Io } from '../../src/cli/main';
-import { generateNote } from '../../bench/note';
+import { benchFolder } from '../support/benchFolder';
 
 // The JSON report of many notes that need no book of runs is shared out to threads running the command's own
 // bundle (dist/cli.js, built before the suites run). Whatever the threads do, the report must be the bytes the
@@ -13,12 +12,9 @@ import { generateNote } from '../../bench/note';
 
 const BUNDLE = resolve('dist/cli.js');
 
-/** A folder of `count` notes; the caller removes it. */
+/** A folder of `count` notes, one with an error and one with bytes that are not UTF-8; the caller removes it. */
 function folder(count: number): string {
-  const dir = mkdtempSync(join(tmpdir(), 'boltzmark-threads-'));
-  const note = generateNote({ blocks: 6 });
-  for (let i = 0; i < count; i++)
-    writeFileSync(join(dir, `n${String(i).padStart(3, '0')}.md`), note.replace(/id: run /g, `id: n${i} run `));
+  const dir = benchFolder('boltzmark-threads-', count, 6);
   writeFileSync(join(dir, 'n010b.md'), '```levels\nid: broken\npopulations: [0.5, oops]\n```\n');
   writeFileSync(
     join(dir, 'n020b.md'),

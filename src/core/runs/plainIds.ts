@@ -74,7 +74,7 @@ export function plainFacts(body: string): PlainFacts {
       }
     }
     if (idLine === null) {
-      if (body.startsWith('id:', from) && to - from >= 3) {
+      if (body.startsWith('id:', from)) {
         idLine = body.slice(from, to);
         idStart = from;
       }
