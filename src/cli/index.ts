@@ -73,8 +73,9 @@ function startCommand(): number | Promise<number> {
     ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
     // `-`: standard input, read whole (file descriptor 0).
     stdin: () => readFileSync(0),
-    // The JSON report shares the notes out to threads running this same script: one per core but one, which is
-    // left to this thread's reading and writing (on two cores, threads were slower than none: README, Performance).
+    // The JSON report shares the notes out to threads, this one among them, the others running this same script:
+    // one per core but one, as each thread's engine keeps about a core and a third busy with its compiler and
+    // collector threads (on two cores, a second thread was slower than none: README, Performance).
     workers: Math.max(1, availableParallelism() - 1),
     workerScript: __filename,
   });

@@ -33,7 +33,7 @@ export interface Io {
   readonly columns?: number;
   /** Standard input, read whole, for the path `-`. */
   readonly stdin?: () => Uint8Array;
-  /** Threads for the JSON report when `--workers` is not given (the command sets the number of cores). */
+  /** Threads for the JSON report, this one included, when `--workers` is not given (the command sets it from the cores). */
   readonly workers?: number;
   /** The script the threads run (the command's own bundle); without it the report stays on this thread. */
   readonly workerScript?: string;
@@ -190,7 +190,7 @@ export function start(argv: readonly string[], io: Io): number | Promise<number>
     .addOption(
       new Option(
         '--workers <count>',
-        'threads the JSON report is analysed on, from 32 notes on (default: one per core but one; 1 keeps it on this thread)',
+        'threads the JSON report is analysed on, this one included, from 32 notes on (default: one per core but one; 1 keeps it on this thread)',
       ).argParser(parseWorkers),
     )
     .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean; workers?: number }) => {

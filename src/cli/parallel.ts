@@ -1,11 +1,14 @@
 /**
  * The JSON report on threads, for notes that need no book of runs (each note
  * then reads the same alone as among the others): the notes, read and
- * decoded here, are handed out to the threads one at a time; each thread
- * analyses its note and sends back the note's JSON entries, which are written
- * here in the order of the files, each as soon as every note before it is
- * written. A thread that fails hands its note back, and the note is analysed
- * here instead: no note's results are lost to another's failure.
+ * decoded here, are handed out one at a time, to this thread and to the
+ * others (two at a time to each of those, so the next is there while this
+ * thread is busy); each thread analyses its note and sends back the note's
+ * JSON entries, which are written here in the order of the files, each as
+ * soon as every note before it is written. This thread starts on the first
+ * notes at once, while the others start. A thread that fails or ends hands
+ * back the notes it held, and they are analysed here instead: no note's
+ * results are lost to another's failure.
  *
  * The threads run this same script (the `boltzmark` bundle), which starts
  * {@link serveNotes} when it is not the main thread.
@@ -68,15 +71,19 @@ export function serveNotes(): void {
   port.on('message', (task: Task) => port.postMessage(analyseTask(r, task, statuses)));
 }
 
+/** Notes a thread holds at once: the next is there when it sends back the last, while this thread is busy. */
+const IN_FLIGHT = 2;
+
 /**
- * Writes the JSON report of the notes using `workers` threads running `script`; resolves with the exit status
- * (1 when any block has an error).
+ * Writes the JSON report of the notes on `threads` threads, this one among them: `threads - 1` run `script`,
+ * and this thread analyses the next note whenever it is not writing, so it works from the first moment while
+ * the others start. Resolves with the exit status (1 when any block has an error).
  */
 export function reportJsonParallel(
   notes: readonly ReadNote[],
   io: Io,
   statuses: readonly Status[] | null,
-  workers: number,
+  threads: number,
   script: string,
 ): Promise<number> {
   return new Promise((resolve) => {
@@ -89,7 +96,7 @@ export function reportJsonParallel(
     let local: Reader | null = null;
     const here = (index: number): Done =>
       analyseTask((local ??= reader()), { index, note: notes[index]!, cwd: io.cwd }, statuses);
-    const threads: Worker[] = [];
+    const others: Worker[] = [];
     const write = (): void => {
       for (let d = done.get(nextWrite); d; d = done.get(nextWrite)) {
         done.delete(nextWrite++);
@@ -105,40 +112,49 @@ export function reportJsonParallel(
       if (nextWrite === notes.length && !finished) {
         finished = true;
         io.out(first ? '[]\n' : '\n]\n');
-        for (const t of threads) void t.terminate();
+        for (const t of others) void t.terminate();
         resolve(error ? 1 : 0);
       }
     };
-    const give = (w: Worker, held: { task: number }): void => {
-      if (nextTask >= notes.length) {
-        held.task = -1;
-        return;
+    const give = (w: Worker, held: Set<number>): void => {
+      while (held.size < IN_FLIGHT && nextTask < notes.length) {
+        held.add(nextTask);
+        w.postMessage({ index: nextTask, note: notes[nextTask]!, cwd: io.cwd } satisfies Task);
+        nextTask++;
       }
-      held.task = nextTask;
-      w.postMessage({ index: nextTask, note: notes[nextTask]!, cwd: io.cwd } satisfies Task);
-      nextTask++;
     };
-    const count = Math.max(1, Math.min(workers, notes.length));
-    let alive = count;
+    const count = Math.max(0, Math.min(threads - 1, notes.length - 1));
     for (let i = 0; i < count; i++) {
       const w = new Worker(script, { workerData: { statuses } });
-      const held = { task: -1 };
-      threads.push(w);
+      const held = new Set<number>();
+      others.push(w);
       w.on('message', (d: Done) => {
+        held.delete(d.index);
         done.set(d.index, d);
         give(w, held);
         write();
       });
-      w.on('error', () => {
-        // This thread is gone: its note is analysed here, and the others carry on with the rest.
-        if (held.task >= 0) done.set(held.task, here(held.task));
-        held.task = -1;
-        // With no thread left, the notes not handed out yet are analysed here too.
-        if (--alive === 0) for (; nextTask < notes.length; nextTask++) done.set(nextTask, here(nextTask));
+      // A thread that is gone (failed, or ended) leaves the notes it held to this thread; the others carry on.
+      const lost = (): void => {
+        for (const index of held) done.set(index, here(index));
+        held.clear();
         write();
-      });
-      give(w, held);
+      };
+      w.on('error', lost);
+      w.on('exit', lost);
+      // Notes go to a thread once it runs: until then this thread takes them in order, and writes as it goes.
+      w.on('online', () => give(w, held));
     }
-    write();
+    // This thread's share: one note, then a turn of the event loop for the others' results, until none is left.
+    const step = (): void => {
+      if (finished) return;
+      if (nextTask < notes.length) {
+        const index = nextTask++;
+        done.set(index, here(index));
+        write();
+      }
+      if (nextTask < notes.length) setImmediate(step);
+    };
+    step();
   });
 }

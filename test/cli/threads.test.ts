@@ -78,6 +78,21 @@ describe('boltzmark report on threads', function () {
     }
   });
 
+  it('analyses on this thread the notes held by a thread that ends without answering', async () => {
+    const dir = folder(40);
+    // A script that listens for nothing: its thread ends as soon as it has run, holding the notes it was given.
+    const silent = join(dir, 'thread-that-ends.js');
+    writeFileSync(silent, '// this thread listens for nothing and ends\n');
+    try {
+      let out = '';
+      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
+      const threaded = await run(['report', '.', '--format', 'json'], dir, { workers: 4, workerScript: silent });
+      assert.equal(threaded.out, out);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
   it('keeps notes that refer to runs on one thread, where the book of runs is', async () => {
     const dir = folder(40);
     writeFileSync(
