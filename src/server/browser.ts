@@ -13,4 +13,8 @@ import { startServer } from './server';
  */
 const port = globalThis as never;
 
-startServer(createConnection(new BrowserMessageReader(port), new BrowserMessageWriter(port)));
+startServer(createConnection(new BrowserMessageReader(port), new BrowserMessageWriter(port)), {
+  // Each message from the client as it arrives, besides the reader's own handler.
+  onInput: (heard) =>
+    (port as { addEventListener(type: 'message', f: () => void): void }).addEventListener('message', heard),
+});

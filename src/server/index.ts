@@ -9,10 +9,13 @@ import { diskNotes } from './runs/diskNotes';
 import { startServer } from './server';
 import { logStrayRejections } from './strayRejections';
 import { diskSpectrumAccess, listSpectrumFiles, workerParser } from './spectraNode';
+import { watchInput } from './transportInput';
 
 const connection = createConnection(ProposedFeatures.all);
 logStrayRejections(connection);
 startServer(connection, {
   notes: diskNotes,
   spectra: { access: diskSpectrumAccess, parse: workerParser(), list: listSpectrumFiles },
+  // Bytes from the client as they arrive, heard before the protocol reader, which starts listening after this.
+  onInput: (heard) => void watchInput(process.argv, { stdin: process.stdin, parent: process }, heard),
 });

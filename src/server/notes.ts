@@ -51,9 +51,11 @@ const READ_AT_ONCE = 400;
 
 /**
  * Milliseconds of reading per slice before yielding to the requests waiting. A request arriving meanwhile waits
- * two or three slices, not one: its header and its content may be read in separate turns of the event loop, each
- * behind a slice, and its answer is written in a turn of its own. A quarter of a millisecond keeps that wait near
- * a millisecond; the turns in between cost the reading of the note little (bench/scale.ts).
+ * for the slice that is running. The Node server hears the client's bytes as they arrive (transportInput.ts,
+ * through {@link Notes.heard}), so the slice queued next stands aside while the request is read and answered;
+ * where the transport is not watched, a request may wait two or three slices (its header and content read in
+ * separate turns, each behind one). A quarter of a millisecond keeps either wait short; the turns in between
+ * cost the reading of the note little (bench/scale.ts).
  */
 const SLICE_MS = 0.25;
 

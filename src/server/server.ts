@@ -75,6 +75,11 @@ export interface ServerHost {
    * come through the client's file system and are parsed in-process after the request.
    */
   readonly spectra?: SpectrumHost;
+  /**
+   * Calls `heard` whenever bytes from the client arrive, before they are read as a message: the slices that read
+   * a large note then stand aside at once, not after the message is parsed and queued behind the next slice.
+   */
+  readonly onInput?: (heard: () => void) => void;
 }
 
 /** Longest the outline waits for the spectrum files its note's blocks are reading. */
@@ -100,6 +105,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
   // The sources values by reference come from (spectrum files, other runs); each adds its part.
   const externalParts: ExternalPart[] = [];
   const notes = new Notes((uri) => (externalParts.length > 0 ? noteExternals(uri, externalParts) : null));
+  host.onInput?.(() => notes.heard());
   const pushes = new Debouncer(PUSH_DELAY_MS);
   // Every run of the workspace, for `{ run: … }` references; a change re-publishes the notes that used it.
   // A referenced block whose own values come from spectrum files reads them as its note does.
