@@ -127,8 +127,11 @@ export function reportJsonParallel(
     for (let i = 0; i < count; i++) {
       const w = new Worker(script, { workerData: { statuses } });
       const held = new Set<number>();
+      let gone = false;
       others.push(w);
       w.on('message', (d: Done) => {
+        // A message that comes after the thread was given up is of a note this thread analysed in its place.
+        if (gone) return;
         held.delete(d.index);
         done.set(d.index, d);
         give(w, held);
@@ -136,6 +139,7 @@ export function reportJsonParallel(
       });
       // A thread that is gone (failed, or ended) leaves the notes it held to this thread; the others carry on.
       const lost = (): void => {
+        gone = true;
         for (const index of held) done.set(index, here(index));
         held.clear();
         write();
@@ -143,7 +147,9 @@ export function reportJsonParallel(
       w.on('error', lost);
       w.on('exit', lost);
       // Notes go to a thread once it runs: until then this thread takes them in order, and writes as it goes.
-      w.on('online', () => give(w, held));
+      w.on('online', () => {
+        if (!gone) give(w, held);
+      });
     }
     // This thread's share: one note, then a turn of the event loop for the others' results, until none is left.
     const step = (): void => {

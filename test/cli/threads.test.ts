@@ -78,6 +78,29 @@ describe('boltzmark report on threads', function () {
     }
   });
 
+  it('analyses on this thread the notes held by a thread that fails midway, and writes each note once', async () => {
+    const dir = folder(60);
+    // The command's own thread, which fails a moment after it is given its second note, holding the notes it has not answered.
+    const midway = join(dir, 'thread-that-fails-midway.js');
+    writeFileSync(
+      midway,
+      `require(${JSON.stringify(BUNDLE)});\n` +
+        "const { parentPort } = require('node:worker_threads');\n" +
+        'let n = 0;\n' +
+        "parentPort.on('message', () => { if (++n === 2) setImmediate(() => { throw new Error('fails midway'); }); });\n",
+    );
+    try {
+      let out = '';
+      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
+      for (const workers of [2, 4]) {
+        const threaded = await run(['report', '.', '--format', 'json'], dir, { workers, workerScript: midway });
+        assert.equal(threaded.out, out);
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
   it('analyses on this thread the notes held by a thread that ends without answering', async () => {
     const dir = folder(40);
     // A script that listens for nothing: its thread ends as soon as it has run, holding the notes it was given.
