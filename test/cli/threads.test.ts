@@ -34,6 +34,30 @@ async function run(
   return { code, out, err };
 }
 
+/** The JSON report of the notes of `dir` on this thread alone. */
+function oneThread(dir: string): string {
+  let out = '';
+  main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
+  return out;
+}
+
+/**
+ * With the other threads running `script` (written as `name` into a folder of `count` notes), the report is the
+ * one-thread report, byte for byte, for each number of threads.
+ */
+async function losesNone(count: number, name: string, script: string, threads: readonly number[]): Promise<void> {
+  const dir = folder(count);
+  const path = join(dir, name);
+  writeFileSync(path, script);
+  try {
+    const out = oneThread(dir);
+    for (const workers of threads)
+      assert.equal((await run(['report', '.', '--format', 'json'], dir, { workers, workerScript: path })).out, out);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 describe('boltzmark report on threads', function () {
   this.timeout(60_000);
 
@@ -64,57 +88,25 @@ describe('boltzmark report on threads', function () {
     }
   });
 
-  it('analyses on this thread the notes of a thread that fails, and loses none', async () => {
-    const dir = folder(40);
-    const broken = join(dir, 'thread-that-fails.js');
-    writeFileSync(broken, "throw new Error('this thread fails at once');\n");
-    try {
-      let out = '';
-      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
-      const threaded = await run(['report', '.', '--format', 'json'], dir, { workers: 2, workerScript: broken });
-      assert.equal(threaded.out, out);
-    } finally {
-      rmSync(dir, { recursive: true, force: true });
-    }
-  });
+  it('analyses on this thread the notes of a thread that fails, and loses none', () =>
+    losesNone(40, 'thread-that-fails.js', "throw new Error('this thread fails at once');\n", [2]));
 
-  it('analyses on this thread the notes held by a thread that fails midway, and writes each note once', async () => {
-    const dir = folder(60);
-    // The command's own thread, which fails a moment after it is given its second note, holding the notes it has not answered.
-    const midway = join(dir, 'thread-that-fails-midway.js');
-    writeFileSync(
-      midway,
+  it('analyses on this thread the notes held by a thread that fails midway, and writes each note once', () =>
+    // The command's own thread, which fails a moment after it is given its second note, holding the notes it has
+    // not answered.
+    losesNone(
+      60,
+      'thread-that-fails-midway.js',
       `require(${JSON.stringify(BUNDLE)});\n` +
         "const { parentPort } = require('node:worker_threads');\n" +
         'let n = 0;\n' +
         "parentPort.on('message', () => { if (++n === 2) setImmediate(() => { throw new Error('fails midway'); }); });\n",
-    );
-    try {
-      let out = '';
-      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
-      for (const workers of [2, 4]) {
-        const threaded = await run(['report', '.', '--format', 'json'], dir, { workers, workerScript: midway });
-        assert.equal(threaded.out, out);
-      }
-    } finally {
-      rmSync(dir, { recursive: true, force: true });
-    }
-  });
+      [2, 4],
+    ));
 
-  it('analyses on this thread the notes held by a thread that ends without answering', async () => {
-    const dir = folder(40);
+  it('analyses on this thread the notes held by a thread that ends without answering', () =>
     // A script that listens for nothing: its thread ends as soon as it has run, holding the notes it was given.
-    const silent = join(dir, 'thread-that-ends.js');
-    writeFileSync(silent, '// this thread listens for nothing and ends\n');
-    try {
-      let out = '';
-      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
-      const threaded = await run(['report', '.', '--format', 'json'], dir, { workers: 4, workerScript: silent });
-      assert.equal(threaded.out, out);
-    } finally {
-      rmSync(dir, { recursive: true, force: true });
-    }
-  });
+    losesNone(40, 'thread-that-ends.js', '// this thread listens for nothing and ends\n', [4]));
 
   it('keeps notes that refer to runs on one thread, where the book of runs is', async () => {
     const dir = folder(40);
@@ -128,8 +120,7 @@ describe('boltzmark report on threads', function () {
         workers: 2,
         workerScript: join(dir, 'no-such-script.js'),
       });
-      let out = '';
-      main(['report', '.', '--format', 'json'], { out: (s) => (out += s), err: () => undefined, cwd: dir });
+      const out = oneThread(dir);
       assert.equal(threaded.out, out);
       assert.ok(!out.includes('reference-unavailable'), 'the reference is followed');
     } finally {
