@@ -1,7 +1,10 @@
 /**
- * Wires the LSP connection to the features. Every handler has one shape:
- * find the note, return empty when it is unknown, stop when cancelled,
- * delegate to the feature, return. No logic lives here.
+ * Wires the LSP connection to the features: the client's capabilities and
+ * settings, the open notes' lifecycle, the workspace's runs and spectrum
+ * files, and `serve`, the one shape of every request about a note (find the
+ * note, return empty when it is unknown, stop when cancelled, delegate to the
+ * feature, return), whose routes are in featureRequests.ts. No logic lives
+ * here.
  */
 import { noteExternals, type ExternalPart } from './externals';
 import {
@@ -12,7 +15,6 @@ import {
   ResponseError,
   FileChangeType,
   WatchKind,
-  DocumentDiagnosticReportKind,
   TextDocuments,
   TextDocumentSyncKind,
   type CancellationToken,
@@ -24,44 +26,17 @@ import { version } from '../../package.json';
 import { background, clientCaps, refreshAfter, type ClientCaps } from './clientCaps';
 import { noteDiagnostics } from './diagnostics';
 import { Debouncer } from '../shared/debouncer';
-import { CODE_ACTION_FIX_ALL, codeActions } from './features/codeActions';
-import { codeLenses, resultsMarkdown } from './features/codeLens';
-import { completion } from './features/completion';
-import { curvePayload } from './features/curve';
-import { foldingRanges } from './features/folding';
-import { hover } from './features/hover';
-import { inlayHints } from './features/inlayHints';
-import { documentSymbols, flatSymbols } from './features/symbols';
+import { CODE_ACTION_FIX_ALL } from './features/codeActions';
+import { routeFeatures } from './featureRequests';
 import { Notes } from './notes';
 import { ClosedReferrers } from './runs/closedReferrers';
 import { WorkspaceRuns, type NoteFiles } from './runs/workspaceRuns';
-import {
-  runCompletion,
-  runDefinition,
-  runHover,
-  runLinks,
-  runPrepareRename,
-  runReferences,
-  runRename,
-  runSymbols,
-} from './features/runRefs';
 import { noteDocuments, type NoteDocument } from './noteDocument';
-import { memoryStats } from './heapStats';
-import {
-  AnalysisStatsRequest,
-  CurveDataRequest,
-  MemoryRequest,
-  ResultsMarkdownRequest,
-  SpectrumStatsRequest,
-} from '../shared/protocol';
 import type { Settings } from '../shared/settings';
 import { SettingsStore, type SettingsChange } from './settingsStore';
-import { blockAt, displayOptions, type NoteState } from './state';
+import type { NoteState } from './state';
 import { deferredParser } from './spectra';
 import { SPECTRUM_GLOB, wireSpectra, type SpectrumHost } from './spectraWiring';
-import { spectrumHover } from './features/spectrumHover';
-import { spectrumLinks } from './features/spectrumLinks';
-import { spectrumFileCompletion } from './features/spectrumCompletion';
 
 /** The debouncer's key of a change in the index of runs. */
 const RUNS_CHANGED = '\u0000runs';
@@ -81,9 +56,6 @@ export interface ServerHost {
    */
   readonly onInput?: (heard: () => void) => void;
 }
-
-/** Longest the outline waits for the spectrum files its note's blocks are reading. */
-const OUTLINE_WAIT_MS = 3000;
 
 /** Pause after the last keystroke before pushed diagnostics are sent. */
 const PUSH_DELAY_MS = 200;
@@ -346,11 +318,6 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
       );
   });
 
-  connection.languages.diagnostics.on(async (p, token) => ({
-    kind: DocumentDiagnosticReportKind.Full,
-    items: await serve(p.textDocument.uri, token, [], noteDiagnostics),
-  }));
-  const lineOf = (p: { line: number }) => ({ startLine: p.line, endLine: p.line });
   // One handler for every watched file (a second registration would replace the first): spectra and notes.
   connection.onDidChangeWatchedFiles((p) => {
     for (const c of p.changes) {
@@ -360,91 +327,16 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
       background(connection, `reading ${c.uri}`, runs.fileEvent(c.uri, kind));
     }
   });
-  connection.onHover((p, token) =>
-    serve(
-      p.textDocument.uri,
-      token,
-      null,
-      (s, set) =>
-        runHover(runs, s, p.position, displayOptions(set)) ??
-        spectrumHover(s, p.position, set) ??
-        hover(s, p.position, set),
-      lineOf(p.position),
-    ),
-  );
-  connection.onDefinition((p, token) =>
-    serveRuns(p.textDocument.uri, token, [], (s) => runDefinition(runs, s, p.position)),
-  );
-  connection.onReferences((p, token) =>
-    serveRuns(p.textDocument.uri, token, [], (s) => runReferences(runs, s, p.position, p.context.includeDeclaration)),
-  );
-  connection.onPrepareRename((p, token) =>
-    serveRuns(p.textDocument.uri, token, null, (s) => runPrepareRename(runs, s, p.position)),
-  );
-  connection.onRenameRequest((p, token) =>
-    serveRuns(p.textDocument.uri, token, null, (s) =>
-      runRename(runs, s, p.position, p.newName, { annotations: caps.annotatedEdits }),
-    ),
-  );
-  connection.onWorkspaceSymbol(async (p, token) => {
-    await runs.ready();
-    return token.isCancellationRequested ? [] : runSymbols(runs, p.query);
+  routeFeatures(connection, {
+    serve,
+    serveRuns,
+    notes,
+    runs,
+    spectra,
+    listSpectrumFiles: spectrumHost.list,
+    caps: () => caps,
+    folders: () => folders,
   });
-  connection.onDocumentLinks((p, token) =>
-    serve(p.textDocument.uri, token, [], (s) => [...runLinks(runs, s), ...spectrumLinks(s, folders)]),
-  );
-  connection.languages.inlayHint.on((p, token) =>
-    serve(p.textDocument.uri, token, [], (s, set) => inlayHints(s, p.range, set), {
-      startLine: p.range.start.line,
-      endLine: p.range.end.line,
-    }),
-  );
-  connection.onCodeAction((p, token) => serve(p.textDocument.uri, token, [], (s) => codeActions(s, p.range)));
-  connection.onCompletion(async (p, token) => {
-    const files = await spectrumFileCompletion(
-      () => serve(p.textDocument.uri, token, null, (s) => s),
-      p.position,
-      spectrumHost.list,
-    );
-    return (
-      files ??
-      serveRuns(
-        p.textDocument.uri,
-        token,
-        [],
-        (s) => runCompletion(runs, s, p.position) ?? completion(s, p.position, caps.snippets),
-      )
-    );
-  });
-  connection.onDocumentSymbol(async (p, token) => {
-    const symbols = () =>
-      serve(p.textDocument.uri, token, [], (s) =>
-        caps.hierarchicalSymbols ? documentSymbols(s) : flatSymbols(s.uri, documentSymbols(s)),
-      );
-    // The outline is asked for once per edit and has no refresh request: a block whose spectrum file is still
-    // being read would stay "invalid" there after the file is in. So it waits (a little) for the files the
-    // note's analysis asked for, then answers from the analysis that has them.
-    await symbols();
-    await Promise.race([spectra.settled(), new Promise((resolve) => setTimeout(resolve, OUTLINE_WAIT_MS))]);
-    return symbols();
-  });
-  connection.onFoldingRanges((p, token) => serve(p.textDocument.uri, token, [], foldingRanges));
-  connection.onCodeLens((p, token) => serve(p.textDocument.uri, token, [], codeLenses));
-  connection.onRequest(ResultsMarkdownRequest, (p, token) =>
-    serve(p.uri, token, null, (s, set) => {
-      const b = blockAt(s, s.lines.offsetAt({ line: p.line, character: 0 }));
-      return b ? resultsMarkdown(s, b, set) : null;
-    }),
-  );
-  connection.onRequest(AnalysisStatsRequest, (p) => {
-    notes.heard();
-    return notes.statsOf(p.uri);
-  });
-  connection.onRequest(MemoryRequest, memoryStats);
-  connection.onRequest(SpectrumStatsRequest, () => ({ files: spectra.known.length, parses: spectra.parses }));
-  connection.onRequest(CurveDataRequest, (p, token) =>
-    serve(p.uri, token, null, (s, set) => curvePayload(s, p.line, set, (key) => spectra.spectrumAtKey(key))),
-  );
 
   documents.listen(connection);
   connection.listen();
