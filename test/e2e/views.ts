@@ -56,60 +56,69 @@ export interface TreeRow {
 }
 
 /**
- * Every row of the tree in `section`, top to bottom. The list draws only the
- * rows in view, so the rows are gathered page by page with the keyboard
- * (Home, then PageDown until the last row has the focus), each page read in
- * the same look at the page as the focus; the list is left at its top.
- * Moving the focus does not open a row. A refresh of the tree can replace
- * its rows under the keyboard, dropping the focus or swallowing a key's
- * effect; when a key has no effect within 10 s the reading starts over.
+ * Every row of a tree, top to bottom. The tree draws only the rows in view,
+ * so the list is scrolled through with wheel events sent to the list itself
+ * (half a view at a time, so that no row is skipped), each step's drawn rows
+ * read at once, and the list is scrolled back to its top. Neither the
+ * keyboard focus nor the pointer is used: a quick pick closing, a
+ * notification or a hover cannot take the reading away. A step that does not
+ * move the list within 10 s (a refresh replaced its rows) starts the reading
+ * over, five times at most.
  */
 export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]> {
   await section.locator(ROWS).first().waitFor();
-  const list = await section.locator('.pane-body .monaco-list-rows').elementHandle();
+  const list = await section.locator('.pane-body .monaco-list-rows').first().elementHandle();
+  if (!list) throw new Error('the tree has no list of rows');
+  // The list's scrolling element hears the wheel on the rows (the event bubbles); `down` is in view heights.
+  const wheel = (down: number): Promise<void> =>
+    list.evaluate((el: DomNode, d: number) => {
+      const px = Math.round(d * Number(el.parentElement?.clientHeight ?? 0));
+      // Chromium's legacy wheelDeltaY is what the list reads first; deltaY is the standard's.
+      const init = { deltaY: px, wheelDeltaY: -px, deltaMode: 0, bubbles: true, cancelable: true };
+      el.dispatchEvent(new el.ownerDocument.defaultView.WheelEvent('wheel', init));
+    }, down);
+  // What is drawn: each row's index, where it is drawn and what it says.
+  const drawn = (): Promise<{ at: string; rows: (TreeRow & { index: number; last: boolean })[] }> =>
+    list.evaluate((el: DomNode) => {
+      const rows = Array.from<DomNode>(el.children).map((r) => ({
+        index: Number(r.getAttribute('data-index')),
+        last: r.getAttribute('data-last-element') === 'true',
+        level: Number(r.getAttribute('aria-level')),
+        label: String(r.querySelector('.label-name')?.textContent ?? ''),
+        description: String(r.querySelector('.label-description')?.textContent ?? ''),
+      }));
+      const at = Array.from<DomNode>(el.children)
+        .map((r) => `${r.getAttribute('data-index')}@${Math.round(r.getBoundingClientRect().top)}`)
+        .join(' ');
+      return { at, rows };
+    });
   for (let attempt = 1; ; attempt++) {
-    await section.locator('.pane-body .monaco-list').first().focus();
-    await page.keyboard.press('Home');
+    // To the top: far more than any list (the list stops at its ends).
+    await wheel(-1e4);
     const seen = new Map<number, TreeRow>();
-    // -1: wait for the first row to have the focus; else for the focus to leave row `before`.
-    let before = -1;
     for (;;) {
-      const handle = await page
-        .waitForFunction(
-          ([el, prev]: readonly [DomNode, number]) => {
-            const drawn = Array.from<DomNode>(el.children);
-            const focused = drawn.find((r) => r.classList.contains('focused'));
-            if (!focused) return false;
-            const index = Number(focused.getAttribute('data-index'));
-            if (prev === -1 ? index !== 0 : index === prev) return false;
-            const rows = drawn.map((r) => ({
-              index: Number(r.getAttribute('data-index')),
-              level: Number(r.getAttribute('aria-level')),
-              label: String(r.querySelector('.label-name')?.textContent ?? ''),
-              description: String(r.querySelector('.label-description')?.textContent ?? ''),
-            }));
-            return { focused: index, last: focused.getAttribute('data-last-element') === 'true', rows };
-          },
-          [list, before] as const,
-          { timeout: 10000 },
-        )
-        .catch(() => null);
-      // No answer: a refresh replaced the rows between a key press and its effect (the focus gone or left in place).
-      if (!handle) break;
-      const state = (await handle.jsonValue()) as {
-        focused: number;
-        last: boolean;
-        rows: (TreeRow & { index: number })[];
-      };
-      for (const { index, ...row } of state.rows) seen.set(index, row);
-      if (state.last) {
-        await page.keyboard.press('Home');
+      const now = await drawn();
+      for (const r of now.rows) seen.set(r.index, { level: r.level, label: r.label, description: r.description });
+      const last = now.rows.find((r) => r.last);
+      if (last && [...Array(last.index + 1).keys()].every((i) => seen.has(i))) {
+        await wheel(-1e4);
         return [...seen.entries()].sort((a, b) => a[0] - b[0]).map(([, row]) => row);
       }
-      before = state.focused;
-      await page.keyboard.press('PageDown');
+      await wheel(0.5);
+      const moved = await page
+        .waitForFunction(
+          ([el, before]: readonly [DomNode, string]) =>
+            Array.from<DomNode>(el.children)
+              .map((r) => `${r.getAttribute('data-index')}@${Math.round(r.getBoundingClientRect().top)}`)
+              .join(' ') !== before,
+          [list, now.at] as const,
+          { timeout: 10000 },
+        )
+        .then(() => true)
+        .catch(() => false);
+      if (!moved) break;
     }
-    if (attempt === 5) throw new Error('the tree was redrawn under the keyboard five times while being read');
+    if (attempt === 5) throw new Error('the tree did not scroll to its last row, five times over');
   }
 }
 
