@@ -55,20 +55,25 @@ export interface TreeRow {
   readonly description: string;
 }
 
+/** One row of a list as drawn: its depth in a tree (NaN in a flat list), aria-label, label and description. */
+export interface ListRow extends TreeRow {
+  readonly aria: string;
+}
+
 /**
- * Every row of a tree, top to bottom. The tree draws only the rows in view,
- * so the list is scrolled through with wheel events sent to the list itself
- * (half a view at a time, so that no row is skipped), each step's drawn rows
- * read at once, and the list is scrolled back to its top. Neither the
- * keyboard focus nor the pointer is used: a quick pick closing, a
- * notification or a hover cannot take the reading away. A step that does not
- * move the list within 10 s (a refresh replaced its rows) starts the reading
- * over, five times at most.
+ * Every row of a list (`rows`: its `.monaco-list-rows`), top to bottom. The
+ * list draws only the rows in view, so it is scrolled through with wheel
+ * events sent to the list itself (half a view at a time, so that no row is
+ * skipped), each step's drawn rows read at once, and it is scrolled back to
+ * its top. Neither the keyboard focus nor the pointer is used: a quick pick
+ * closing, a notification or a hover cannot take the reading away. A step
+ * that does not move the list within 10 s (a refresh replaced its rows)
+ * starts the reading over, five times at most.
  */
-export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]> {
-  await section.locator(ROWS).first().waitFor();
-  const list = await section.locator('.pane-body .monaco-list-rows').first().elementHandle();
-  if (!list) throw new Error('the tree has no list of rows');
+export async function listRows(page: Page, rows: Locator): Promise<ListRow[]> {
+  await rows.locator('> .monaco-list-row').first().waitFor();
+  const list = await rows.elementHandle();
+  if (!list) throw new Error('the list has no rows');
   // The list's scrolling element hears the wheel on the rows (the event bubbles); `down` is in view heights.
   const wheel = (down: number): Promise<void> =>
     list.evaluate((el: DomNode, d: number) => {
@@ -78,12 +83,13 @@ export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]>
       el.dispatchEvent(new el.ownerDocument.defaultView.WheelEvent('wheel', init));
     }, down);
   // What is drawn: each row's index, where it is drawn and what it says.
-  const drawn = (): Promise<{ at: string; rows: (TreeRow & { index: number; last: boolean })[] }> =>
+  const drawn = (): Promise<{ at: string; rows: (ListRow & { index: number; last: boolean })[] }> =>
     list.evaluate((el: DomNode) => {
       const rows = Array.from<DomNode>(el.children).map((r) => ({
         index: Number(r.getAttribute('data-index')),
         last: r.getAttribute('data-last-element') === 'true',
-        level: Number(r.getAttribute('aria-level')),
+        level: Number(r.getAttribute('aria-level') ?? NaN),
+        aria: String(r.getAttribute('aria-label') ?? ''),
         label: String(r.querySelector('.label-name')?.textContent ?? ''),
         description: String(r.querySelector('.label-description')?.textContent ?? ''),
       }));
@@ -95,10 +101,10 @@ export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]>
   for (let attempt = 1; ; attempt++) {
     // To the top: far more than any list (the list stops at its ends).
     await wheel(-1e4);
-    const seen = new Map<number, TreeRow>();
+    const seen = new Map<number, ListRow>();
     for (;;) {
       const now = await drawn();
-      for (const r of now.rows) seen.set(r.index, { level: r.level, label: r.label, description: r.description });
+      for (const { index, last: _last, ...row } of now.rows) seen.set(index, row);
       const last = now.rows.find((r) => r.last);
       if (last && [...Array(last.index + 1).keys()].every((i) => seen.has(i))) {
         await wheel(-1e4);
@@ -118,8 +124,14 @@ export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]>
         .catch(() => false);
       if (!moved) break;
     }
-    if (attempt === 5) throw new Error('the tree did not scroll to its last row, five times over');
+    if (attempt === 5) throw new Error('the list did not scroll to its last row, five times over');
   }
+}
+
+/** Every row of a side bar section's tree, top to bottom (see {@link listRows}), without the sticky-scroll copies. */
+export async function treeRows(page: Page, section: Locator): Promise<TreeRow[]> {
+  const rows = await listRows(page, section.locator('.pane-body .monaco-list-rows').first());
+  return rows.map(({ level, label, description }) => ({ level, label, description }));
 }
 
 /**

@@ -8,6 +8,7 @@
  * the no-break spaces back into spaces before comparing.
  */
 import type { Frame, Locator, Page } from 'playwright-core';
+import { listRows } from './views';
 
 // Functions given to page.evaluate() and waitForFunction() run in the browser.
 // The project compiles without the DOM library (src/ must not use it), so the
@@ -258,29 +259,9 @@ export async function waitSquiggles(page: Page, kind: 'error' | 'warning' | 'inf
   );
 }
 
-/**
- * Every row label of the Outline view. Its list draws only the rows in view,
- * so the labels are gathered page by page, from the first row to the last.
- */
+/** Every row label of the Outline view, top to bottom (its list draws only the rows in view: see `listRows`). */
 export async function outlineLabels(page: Page): Promise<string[]> {
-  const rows = page.locator('.outline-pane .monaco-list-row');
-  await rows.first().waitFor();
-  await page.locator('.outline-pane .monaco-list').first().focus();
-  await page.keyboard.press('Home');
-  await page.locator('.outline-pane .monaco-list-row.focused[data-index="0"]').waitFor();
-  const seen = new Set<string>();
-  for (;;) {
-    for (const label of await rows.evaluateAll((rs: DomNode[]) =>
-      rs.map((r) => String(r.getAttribute('aria-label') ?? '')),
-    ))
-      seen.add(label);
-    const focused = page.locator('.outline-pane .monaco-list-row.focused');
-    if ((await focused.getAttribute('data-last-element')) === 'true') break;
-    const index = await focused.getAttribute('data-index');
-    await page.keyboard.press('PageDown');
-    await page.locator(`.outline-pane .monaco-list-row.focused:not([data-index="${index}"])`).waitFor();
-  }
-  return [...seen];
+  return (await listRows(page, page.locator('.outline-pane .monaco-list-rows').first())).map((r) => r.aria);
 }
 
 /** The rows of the Problems panel, as text. */
