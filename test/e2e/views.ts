@@ -111,18 +111,10 @@ export async function listRows(page: Page, rows: Locator): Promise<ListRow[]> {
         return [...seen.entries()].sort((a, b) => a[0] - b[0]).map(([, row]) => row);
       }
       await wheel(0.5);
-      const moved = await page
-        .waitForFunction(
-          ([el, before]: readonly [DomNode, string]) =>
-            Array.from<DomNode>(el.children)
-              .map((r) => `${r.getAttribute('data-index')}@${Math.round(r.getBoundingClientRect().top)}`)
-              .join(' ') !== before,
-          [list, now.at] as const,
-          { timeout: 10000 },
-        )
-        .then(() => true)
-        .catch(() => false);
-      if (!moved) break;
+      // The list moved when any row is drawn elsewhere (the list scrolls in the page's next frames).
+      const end = Date.now() + 10000;
+      while ((await drawn()).at === now.at && Date.now() < end) await page.waitForTimeout(50);
+      if ((await drawn()).at === now.at) break;
     }
     if (attempt === 5) throw new Error('the list did not scroll to its last row, five times over');
   }
