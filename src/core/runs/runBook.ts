@@ -21,8 +21,9 @@ import { scanInWindows } from '../analyzer/windows';
 import { ChangeLog, type ChangeReach } from './changeLog';
 import type { Externals, KeyChanges } from '../block/externals';
 import { isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
-import { editDistance } from '../text/suggest';
+import { nearest } from '../text/suggest';
 import { resolveNotePath } from './paths';
+import { ChainLengths, pathTo, type Follow } from './referenceGraph';
 import { BodyReader, hash, lineOf, moveBookBlock, openingAt, type BookBlock, type BookReference } from './bookBlocks';
 import {
   parseRunKey,
@@ -95,9 +96,10 @@ export class RunBook implements RunResolver {
   private readonly log = new ChangeLog();
   /** Ids that references name, with how many references name each (a change to such a block can change their stamps). */
   private readonly named = new Map<string, number>();
-  /** Chain lengths known since the last change: exact, or "longer than `above`". */
-  private readonly chains = new Map<BookBlock, { exact?: number; above?: number }>();
-  private chainsFor = -1;
+  /** Where a written reference leads, for the walks over the graph of references. */
+  private readonly follow: Follow = (b, ref) => this.target(b.note, ref);
+  /** Chain lengths known since the last change. */
+  private readonly chains = new ChainLengths(this.follow);
 
   constructor(options: RunBookOptions = {}) {
     this.analyzer = options.analyzer ?? new Analyzer({ infoStrings: options.infoStrings ?? [] });
@@ -298,7 +300,7 @@ export class RunBook implements RunResolver {
         r.kind === 'found'
           ? this.closure(r.block) + this.brokenLine(r.block)
           : r.kind === 'unknown'
-            ? hash('unknown\n' + this.nearIds(parsed.id, r.among).join('\n'))
+            ? hash('unknown\n' + nearIds(parsed.id, r.among).join('\n'))
             : null;
     } else if (parsed?.kind === 'copies') {
       stamp = this.copiesStamp(parsed.id);
@@ -316,11 +318,10 @@ export class RunBook implements RunResolver {
         ? { kind: 'note-missing', note: r.note, key, stamp: this.stamp(key) }
         : { kind: 'note-missing', note: r.note, why, key, stamp: this.stamp(key) };
     }
-    if (r.kind === 'unknown')
-      return { kind: 'unknown', known: this.nearIds(ref.id, r.among), key, stamp: this.stamp(key) };
+    if (r.kind === 'unknown') return { kind: 'unknown', known: nearIds(ref.id, r.among), key, stamp: this.stamp(key) };
     const self = this.blockAt(from, at);
     if (self) {
-      const chain = this.pathTo(r.block, self);
+      const chain = pathTo(r.block, self, this.follow);
       if (chain)
         return {
           kind: 'cycle',
@@ -351,7 +352,7 @@ export class RunBook implements RunResolver {
       span: { start: b.block.openStart, end: b.block.openEnd },
       line: b.block.openLine,
     };
-    if (this.chainLength(b, MAX_CHAIN + 1) > MAX_CHAIN) {
+    if (this.chains.of(b, MAX_CHAIN + 1, this.log.changes) > MAX_CHAIN) {
       // Evaluated one inside the other, a longer chain could exhaust the stack: refused before it is read.
       const facts: RunFacts = {
         id: b.id ?? '',
@@ -614,70 +615,6 @@ export class RunBook implements RunResolver {
   }
 
   /**
-   * The number of runs on the longest chain of written references from `b` (b itself counts 1), or more
-   * than `bound` when it is longer than `bound`; a cycle counts as ending where it closes. Lengths are kept
-   * until the next change (exact ones, and "longer than k"), so a lattice of references is walked once per
-   * block and bound, not once per path.
-   */
-  private chainLength(b: BookBlock, bound: number): number {
-    if (this.chainsFor !== this.log.changes) {
-      this.chains.clear();
-      this.chainsFor = this.log.changes;
-    }
-    return this.chainFrom(b, bound, new Set()).length;
-  }
-
-  private chainFrom(b: BookBlock, bound: number, on: Set<BookBlock>): { length: number; cut: boolean } {
-    const known = this.chains.get(b);
-    if (known?.exact !== undefined) return { length: known.exact, cut: false };
-    if (known?.above !== undefined && known.above >= bound) return { length: bound + 1, cut: false };
-    if (bound <= 0) return { length: 1, cut: false };
-    if (on.has(b)) return { length: 0, cut: true };
-    on.add(b);
-    let longest = 0;
-    let cut = false;
-    for (const ref of b.refs) {
-      const t = this.target(b.note, ref);
-      if (!t) continue;
-      const r = this.chainFrom(t, bound - 1, on);
-      cut ||= r.cut;
-      longest = Math.max(longest, r.length);
-      if (longest >= bound) break;
-    }
-    on.delete(b);
-    const length = 1 + longest;
-    if (!cut) {
-      if (length <= bound) this.chains.set(b, { exact: length });
-      else this.chains.set(b, { above: Math.max(bound, known?.above ?? 0) });
-    }
-    return { length, cut };
-  }
-
-  /** The blocks on a path of written references from `start` to `goal` (start first, goal last), or null. */
-  private pathTo(start: BookBlock, goal: BookBlock): BookBlock[] | null {
-    const seen = new Set<BookBlock>([start]);
-    const back = new Map<BookBlock, BookBlock>();
-    const queue: BookBlock[] = [start];
-    for (let i = 0; i < queue.length; i++) {
-      const b = queue[i]!;
-      if (b === goal) {
-        const path: BookBlock[] = [b];
-        for (let at = back.get(b); at; at = back.get(at)) path.unshift(at);
-        return path;
-      }
-      for (const ref of b.refs) {
-        const t = this.target(b.note, ref);
-        if (t && !seen.has(t)) {
-          seen.add(t);
-          back.set(t, b);
-          queue.push(t);
-        }
-      }
-    }
-    return null;
-  }
-
-  /**
    * The stamp of a block: its body and, for every block reachable from it, its body, how its references resolved
    * and, where it is broken, the line its error names (which the messages of the blocks before it repeat).
    */
@@ -718,17 +655,9 @@ export class RunBook implements RunResolver {
             .join('\n'),
         );
   }
+}
 
-  /** The ids closest to `id` (for "did you mean"), nearest first, at most five. */
-  private nearIds(id: string, among: readonly string[]): string[] {
-    const bound = Math.max(2, Math.floor(id.length / 3));
-    const scored: { id: string; d: number }[] = [];
-    const lower = id.toLowerCase();
-    for (const c of new Set(among)) {
-      const d = editDistance(lower, c.toLowerCase(), bound);
-      if (d <= bound) scored.push({ id: c, d });
-    }
-    scored.sort((a, b) => a.d - b.d || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
-    return scored.slice(0, 5).map((s) => s.id);
-  }
+/** The ids closest to `id` (for "did you mean"), case aside, nearest first, at most five. */
+function nearIds(id: string, among: readonly string[]): string[] {
+  return nearest(id, new Set(among), Math.max(2, Math.floor(id.length / 3)), 5, { ignoreCase: true });
 }

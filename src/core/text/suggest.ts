@@ -74,3 +74,25 @@ export function closest(
   }
   return best;
 }
+
+/**
+ * Up to `count` candidates within `maxDistance` of `word` by {@link editDistance}, nearest first, ties in
+ * code-unit order of the candidates.
+ */
+export function nearest(
+  word: string,
+  candidates: Iterable<string>,
+  maxDistance: number,
+  count: number,
+  options: ClosestOptions = {},
+): string[] {
+  const fold = (x: string): string => (options.ignoreCase ? x.toLowerCase() : x);
+  const target = fold(word);
+  const scored: { candidate: string; d: number }[] = [];
+  for (const candidate of candidates) {
+    const d = editDistance(target, fold(candidate), maxDistance);
+    if (d <= maxDistance) scored.push({ candidate, d });
+  }
+  scored.sort((a, b) => a.d - b.d || (a.candidate < b.candidate ? -1 : a.candidate > b.candidate ? 1 : 0));
+  return scored.slice(0, count).map((s) => s.candidate);
+}

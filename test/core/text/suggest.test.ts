@@ -1,5 +1,5 @@
 import { strict as assert } from 'node:assert';
-import { closest, editDistance } from '../../../src/core/text/suggest';
+import { closest, editDistance, nearest } from '../../../src/core/text/suggest';
 
 describe('editDistance', () => {
   it('is zero for equal strings and the length of the other string when one is empty', () => {
@@ -72,5 +72,27 @@ describe('closest', () => {
   it('can compare without case and still returns the candidate as written', () => {
     assert.equal(closest('mhz', ['kHz', 'MHz'], 0, { ignoreCase: true }), 'MHz');
     assert.equal(closest('mhz', ['kHz', 'MHz'], 0), null);
+  });
+});
+
+describe('nearest', () => {
+  it('lists the candidates within the distance, nearest first, ties in code-unit order', () => {
+    // kitten→sitting is 3 edits, kitten→mitten 1 (a substitution each; from memory, the Levenshtein textbook case).
+    assert.deepEqual(nearest('kitten', ['sitting', 'mitten', 'bitten', 'kitchen', 'dog'], 3, 5), [
+      'bitten',
+      'mitten',
+      'kitchen',
+      'sitting',
+    ]);
+  });
+
+  it('keeps at most `count`, and none beyond the distance', () => {
+    assert.deepEqual(nearest('run 1', ['run 2', 'run 3', 'run 4'], 1, 2), ['run 2', 'run 3']);
+    assert.deepEqual(nearest('run 1', ['cell-B'], 2, 5), []);
+  });
+
+  it('can compare without case and returns the candidates as written', () => {
+    assert.deepEqual(nearest('CELL-B', ['cell-b', 'Cell-C'], 1, 5, { ignoreCase: true }), ['cell-b', 'Cell-C']);
+    assert.deepEqual(nearest('CELL-B', ['cell-b'], 1, 5), []);
   });
 });
