@@ -5,6 +5,7 @@
  * built-in (esbuild refuses one for the browser platform).
  */
 import { BrowserMessageReader, BrowserMessageWriter, createConnection } from 'vscode-languageserver/browser';
+import { protocolGuard } from './protocolGuard';
 import { startServer } from './server';
 
 /**
@@ -13,8 +14,15 @@ import { startServer } from './server';
  */
 const port = globalThis as never;
 
-startServer(createConnection(new BrowserMessageReader(port), new BrowserMessageWriter(port)), {
-  // Each message from the client as it arrives, besides the reader's own handler.
-  onInput: (heard) =>
-    (port as { addEventListener(type: 'message', f: () => void): void }).addEventListener('message', heard),
-});
+const guard = protocolGuard();
+startServer(
+  createConnection(new BrowserMessageReader(port), new BrowserMessageWriter(port), {
+    messageStrategy: guard.messageStrategy,
+  }),
+  {
+    guard,
+    // Each message from the client as it arrives, besides the reader's own handler.
+    onInput: (heard) =>
+      (port as { addEventListener(type: 'message', f: () => void): void }).addEventListener('message', heard),
+  },
+);

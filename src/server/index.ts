@@ -5,15 +5,18 @@
  * from the command line (`--stdio`, `--node-ipc`, `--socket=<port>`).
  */
 import { createConnection, ProposedFeatures } from 'vscode-languageserver/node';
+import { protocolGuard } from './protocolGuard';
 import { diskNotes } from './runs/diskNotes';
 import { startServer } from './server';
 import { logStrayRejections } from './strayRejections';
 import { diskSpectrumAccess, listSpectrumFiles, workerParser } from './spectraNode';
 import { watchInput } from './transportInput';
 
-const connection = createConnection(ProposedFeatures.all);
+const guard = protocolGuard();
+const connection = createConnection(ProposedFeatures.all, { messageStrategy: guard.messageStrategy });
 logStrayRejections(connection);
 startServer(connection, {
+  guard,
   notes: diskNotes,
   spectra: { access: diskSpectrumAccess, parse: workerParser(), list: listSpectrumFiles },
   // Bytes from the client as they arrive, heard before the protocol reader, which starts listening after this.

@@ -29,6 +29,7 @@ import { Debouncer } from '../shared/debouncer';
 import { CODE_ACTION_FIX_ALL } from './features/codeActions';
 import { routeFeatures } from './featureRequests';
 import { Notes } from './notes';
+import type { ProtocolGuard } from './protocolGuard';
 import { ClosedReferrers } from './runs/closedReferrers';
 import { WorkspaceRuns, type NoteFiles } from './runs/workspaceRuns';
 import { noteDocuments, type NoteDocument } from './noteDocument';
@@ -55,6 +56,11 @@ export interface ServerHost {
    * a large note then stand aside at once, not after the message is parsed and queued behind the next slice.
    */
   readonly onInput?: (heard: () => void) => void;
+  /**
+   * The protocol's rules at the door (protocolGuard.ts), given to the connection as its message strategy when it
+   * was made; attached here. Without it the connection takes every message as it comes.
+   */
+  readonly guard?: ProtocolGuard;
 }
 
 /** Pause after the last keystroke before pushed diagnostics are sent. */
@@ -72,6 +78,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
   console.info = connection.console.info.bind(connection.console);
   console.warn = connection.console.warn.bind(connection.console);
   console.error = connection.console.error.bind(connection.console);
+  host.guard?.attach(connection, (message) => connection.console.warn(message));
 
   const documents = new TextDocuments<NoteDocument>(noteDocuments);
   // The sources values by reference come from (spectrum files, other runs); each adds its part.
