@@ -20,30 +20,26 @@
  * passed on renamed to {@link REFUSED_METHOD}, whose handler throws the
  * refusal as the response's error.
  */
-import { Message, ResponseError, type MessageStrategy, type RequestMessage } from 'vscode-languageserver';
+import { ErrorCodes, Message, ResponseError, type MessageStrategy, type RequestMessage } from 'vscode-languageserver';
 
-/** The method a refused request is renamed to (see {@link attachGuard}); never one a client may call. */
+/** The method a refused request is renamed to (see {@link ProtocolGuard.attach}); never one a client may call. */
 export const REFUSED_METHOD = '$/boltzmark/refused';
-
-/** JSON-RPC and LSP error codes (LSP 3.17, "Response Message"). */
-const INVALID_REQUEST = -32600;
-const METHOD_NOT_FOUND = -32601;
-const INVALID_PARAMS = -32602;
-const SERVER_NOT_INITIALIZED = -32002;
 
 /** Why a message's parameters are not of the protocol's shape, or null when they are. */
 type Check = (params: unknown) => string | null;
 
 const isObject = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null && !Array.isArray(x);
 
-/** LSP `uinteger`: an integer from 0 to 2³¹ − 1. */
-const isUinteger = (x: unknown): boolean => Number.isInteger(x) && (x as number) >= 0 && (x as number) <= 2 ** 31 - 1;
+/** LSP `uinteger` (an integer from 0 to 2³¹ − 1), or why `x`, the field `where`, is not one. */
+function uinteger(x: unknown, where: string): string | null {
+  return Number.isInteger(x) && (x as number) >= 0 && (x as number) <= 2 ** 31 - 1
+    ? null
+    : `${where} must be a whole number from 0 to 2147483647`;
+}
 
 function position(p: unknown, where: string): string | null {
   if (!isObject(p)) return `${where} must be an object { line, character }`;
-  if (!isUinteger(p.line)) return `${where}.line must be a whole number from 0 to 2147483647`;
-  if (!isUinteger(p.character)) return `${where}.character must be a whole number from 0 to 2147483647`;
-  return null;
+  return uinteger(p.line, `${where}.line`) ?? uinteger(p.character, `${where}.character`);
 }
 
 function range(r: unknown, where: string): string | null {
@@ -55,13 +51,18 @@ function uriField(o: Record<string, unknown>, key: string, where: string): strin
   return typeof o[key] === 'string' ? null : `${where}.${key} must be a string`;
 }
 
+/** Parameters that are an object (`shape` says which), and then whatever `more` asks of them. */
+function object(shape: string, more?: (p: Record<string, unknown>) => string | null): Check {
+  return (p) => (isObject(p) ? (more?.(p) ?? null) : `the parameters must be an object${shape}`);
+}
+
 /** `{ textDocument: { uri } }`, and then whatever `more` asks of the parameters. */
 function onDocument(more?: (p: Record<string, unknown>) => string | null): Check {
-  return (p) => {
-    if (!isObject(p)) return 'the parameters must be an object';
-    if (!isObject(p.textDocument)) return 'textDocument must be an object { uri }';
-    return uriField(p.textDocument, 'uri', 'textDocument') ?? more?.(p) ?? null;
-  };
+  return object('', (p) =>
+    isObject(p.textDocument)
+      ? (uriField(p.textDocument, 'uri', 'textDocument') ?? more?.(p) ?? null)
+      : 'textDocument must be an object { uri }',
+  );
 }
 
 const atPosition = (more?: (p: Record<string, unknown>) => string | null): Check =>
@@ -71,22 +72,15 @@ const inRange = (more?: (p: Record<string, unknown>) => string | null): Check =>
   onDocument((p) => range(p.range, 'range') ?? more?.(p) ?? null);
 
 /** `{ uri, line }` of Boltzmark's block requests (src/shared/protocol.ts). */
-const blockParams: Check = (p) => {
-  if (!isObject(p)) return 'the parameters must be an object { uri, line }';
-  return uriField(p, 'uri', 'params') ?? (isUinteger(p.line) ? null : 'line must be a whole number from 0');
-};
+const blockParams = object(' { uri, line }', (p) => uriField(p, 'uri', 'params') ?? uinteger(p.line, 'line'));
 
-const anyObject: Check = (p) => (isObject(p) ? null : 'the parameters must be an object');
 const nothing: Check = () => null;
 
 /** The requests the server serves, by method. */
 const REQUESTS: Readonly<Record<string, Check>> = {
-  initialize: (p) =>
-    !isObject(p)
-      ? 'the parameters must be an object'
-      : p.capabilities !== undefined && !isObject(p.capabilities)
-        ? 'capabilities must be an object'
-        : null,
+  initialize: object('', (p) =>
+    p.capabilities === undefined || isObject(p.capabilities) ? null : 'capabilities must be an object',
+  ),
   shutdown: nothing,
   'textDocument/hover': atPosition(),
   'textDocument/completion': atPosition(),
@@ -109,16 +103,10 @@ const REQUESTS: Readonly<Record<string, Check>> = {
   'textDocument/foldingRange': onDocument(),
   'textDocument/documentLink': onDocument(),
   'textDocument/diagnostic': onDocument(),
-  'workspace/symbol': (p) =>
-    !isObject(p)
-      ? 'the parameters must be an object { query }'
-      : typeof p.query === 'string'
-        ? null
-        : 'query must be a string',
+  'workspace/symbol': object(' { query }', (p) => (typeof p.query === 'string' ? null : 'query must be a string')),
   'boltzmark/resultsMarkdown': blockParams,
   'boltzmark/curveData': blockParams,
-  'boltzmark/analysisStats': (p) =>
-    isObject(p) ? uriField(p, 'uri', 'params') : 'the parameters must be an object { uri }',
+  'boltzmark/analysisStats': object(' { uri }', (p) => uriField(p, 'uri', 'params')),
 };
 
 /** One content change of `didChange`: the whole text, or a range and its new text. */
@@ -165,7 +153,7 @@ const NOTIFICATIONS: Readonly<Record<string, Check>> = {
       if (!isObject(f) || typeof f.uri !== 'string') return 'each workspace folder must be an object { uri, name }';
     return null;
   },
-  'workspace/didChangeConfiguration': anyObject,
+  'workspace/didChangeConfiguration': object(''),
   initialized: nothing,
 };
 
@@ -200,17 +188,19 @@ export function protocolGuard(): ProtocolGuard {
     handleMessage(message, next) {
       if (Message.isRequest(message)) {
         const m = message;
-        if (m.method === REFUSED_METHOD) return next(refuse(m, METHOD_NOT_FOUND, `Unhandled method ${REFUSED_METHOD}`));
+        const no = (code: number, text: string) => next(refuse(m, code, text));
+        if (m.method === REFUSED_METHOD) return no(ErrorCodes.MethodNotFound, `Unhandled method ${REFUSED_METHOD}`);
         if (stage === 'shut-down')
-          return next(refuse(m, INVALID_REQUEST, `${m.method}: the server is shutting down (shutdown was received)`));
+          return no(ErrorCodes.InvalidRequest, `${m.method}: the server is shutting down (shutdown was received)`);
         if (stage === 'before-initialize' && m.method !== 'initialize')
-          return next(
-            refuse(m, SERVER_NOT_INITIALIZED, `${m.method}: the server is not initialized yet (send initialize first)`),
+          return no(
+            ErrorCodes.ServerNotInitialized,
+            `${m.method}: the server is not initialized yet (send initialize first)`,
           );
         if (stage === 'running' && m.method === 'initialize')
-          return next(refuse(m, INVALID_REQUEST, 'initialize: the server was initialized already'));
+          return no(ErrorCodes.InvalidRequest, 'initialize: the server was initialized already');
         const problem = REQUESTS[m.method]?.(m.params);
-        if (problem) return next(refuse(m, INVALID_PARAMS, `${m.method}: ${problem}`));
+        if (problem) return no(ErrorCodes.InvalidParams, `${m.method}: ${problem}`);
         if (m.method === 'initialize') stage = 'running';
         else if (m.method === 'shutdown') stage = 'shut-down';
         return next(m);

@@ -71,12 +71,25 @@ function hoverText(r: Reply): string {
   return (r.result as { contents?: { value?: string } } | null)?.contents?.value ?? '';
 }
 
+/** Runs `f` with a bare client, initialized first unless `initialize` is false; the server is killed after. */
+async function withClient(initialize: boolean, f: (c: ReturnType<typeof bareClient>) => Promise<void>): Promise<void> {
+  const c = bareClient();
+  try {
+    if (initialize) {
+      await c.request('initialize', INIT);
+      c.notify('initialized', {});
+    }
+    await f(c);
+  } finally {
+    c.proc.kill();
+  }
+}
+
 describe('the server’s lifecycle and parameters, to a bare client', function () {
   this.timeout(30_000);
 
-  it('refuses requests before initialize with -32002 and drops notifications; serves once initialized', async () => {
-    const c = bareClient();
-    try {
+  it('refuses requests before initialize with -32002 and drops notifications; serves once initialized', () =>
+    withClient(false, async (c) => {
       const early = await c.request('textDocument/hover', HOVER);
       assert.equal(early.error?.code, -32002);
       assert.equal(early.result, undefined);
@@ -93,16 +106,10 @@ describe('the server’s lifecycle and parameters, to a bare client', function (
       c.notify('exit');
       // Exit without shutdown: status 1.
       assert.equal(await c.exited, 1);
-    } finally {
-      c.proc.kill();
-    }
-  });
+    }));
 
-  it('answers parameters of the wrong shape with -32602 naming the field, and drops such notifications', async () => {
-    const c = bareClient();
-    try {
-      await c.request('initialize', INIT);
-      c.notify('initialized', {});
+  it('answers parameters of the wrong shape with -32602 naming the field, and drops such notifications', () =>
+    withClient(true, async (c) => {
       c.notify('textDocument/didOpen', OPEN);
       const wrong: [string, unknown, RegExp][] = [
         ['textDocument/hover', null, /the parameters must be an object/],
@@ -150,23 +157,14 @@ describe('the server’s lifecycle and parameters, to a bare client', function (
       );
       // Nothing failed inside a feature: no stack trace went to the log.
       assert.ok(!logs.some((l) => /TypeError|at .*\.js:\d+/.test(l)), logs.join('\n'));
-    } finally {
-      c.proc.kill();
-    }
-  });
+    }));
 
-  it('refuses requests after shutdown with -32600 and exits with status 0 on exit', async () => {
-    const c = bareClient();
-    try {
-      await c.request('initialize', INIT);
-      c.notify('initialized', {});
+  it('refuses requests after shutdown with -32600 and exits with status 0 on exit', () =>
+    withClient(true, async (c) => {
       assert.equal((await c.request('shutdown')).result, null);
       const late = await c.request('textDocument/hover', HOVER);
       assert.equal(late.error?.code, -32600);
       c.notify('exit');
       assert.equal(await c.exited, 0);
-    } finally {
-      c.proc.kill();
-    }
-  });
+    }));
 });
