@@ -22,6 +22,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'yaml-tab-indent': { severity: 'error', summary: 'Tabs are used for indentation, which YAML forbids.' },
   'yaml-warning': { severity: 'warning', summary: 'YAML accepted the text but warns about it.' },
   'alias-expansion': { severity: 'error', summary: 'Aliases would expand past the bound (an "alias bomb").' },
+  'nesting-too-deep': {
+    severity: 'error',
+    summary: 'Lists and mappings nest deeper than the 64 levels a block is read to.',
+  },
   'body-not-mapping': { severity: 'error', summary: 'The body must be a mapping of key: value lines.' },
   'key-unknown': { severity: 'warning', summary: 'A key the block does not know; ignored, with a suggestion.' },
   // The form

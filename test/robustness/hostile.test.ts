@@ -64,6 +64,66 @@ describe('robustness: hostile input', function () {
     });
   }
 
+  // Each shape nested `depth` deep under `note:` (the body's own mapping is one more level), and where the
+  // collection that makes it `depth` deep opens.
+  const NESTED: readonly [string, (depth: number) => string][] = [
+    ['flow lists', (d) => `note: ${'['.repeat(d)}${']'.repeat(d)}`],
+    ['flow mappings', (d) => `note: ${'{a: '.repeat(d)}1${'}'.repeat(d)}`],
+    [
+      'block mappings',
+      (d) => 'note:\n' + Array.from({ length: d }, (_, i) => `${' '.repeat(i + 1)}k${i}:`).join('\n') + ' 1',
+    ],
+    ['block lists', (d) => 'note:\n' + Array.from({ length: d }, (_, i) => `${' '.repeat(i + 1)}-`).join('\n') + ' 1'],
+  ];
+  const innermost = (body: string, d: number, shape: string): number => {
+    // The d-th collection under `note:`: the d-th `[` or `{`, or the d-th nested key or dash, which is
+    // indented d spaces on the line after the two routine lines, `note:` and d - 1 nested lines.
+    if (shape.startsWith('flow')) {
+      let at = -1;
+      for (let i = 0; i < d; i++) at = body.slice(at + 1).search(/[[{]/) + at + 1;
+      return at;
+    }
+    const before = body.split('\n').slice(0, d + 2);
+    return before.join('\n').length + 1 + d;
+  };
+  const ROUTINE = 'gap: 1 K\nratio: 0.5\n';
+
+  for (const [shape, nest] of NESTED) {
+    it(`reads ${shape} nested 63 deep under a key (64 with the body) and refuses 64, at the list or mapping past the bound`, () => {
+      const fits = only(fenced(ROUTINE + nest(63)));
+      assert.equal(fits.status, 'normal', codes(fits).join(', '));
+      // The same body through the package's composer (an anchor keeps it off the plain-body path) fits too.
+      const composed = only(fenced(ROUTINE + nest(63).replace('note:', 'note: &deep')));
+      assert.equal(composed.status, 'normal', codes(composed).join(', '));
+      const text = fenced(ROUTINE + nest(64));
+      const over = only(text);
+      assert.equal(over.status, 'invalid');
+      assert.deepEqual(codes(over), ['nesting-too-deep']);
+      const p = over.problems[0]!;
+      const bodyStart = text.indexOf(ROUTINE);
+      assert.equal(p.span.start - bodyStart, innermost(ROUTINE + nest(64), 64, shape));
+      assert.match(p.message, /64/);
+    });
+  }
+
+  it('refuses nesting from 500 to 1,000 deep the same way each time, in a fresh reader and in a warm one, and reads the blocks around it', () => {
+    // Past the bound the answer must not depend on how much stack the engine has left: once, this range was
+    // read or refused (with a stack overflow's message) depending on what the process had run before.
+    const warm = new Analyzer();
+    for (let d = 500; d <= 1000; d += 50)
+      for (const [shape, nest] of NESTED) {
+        const text = `${fenced(ROUTINE + 'id: a')}${fenced(ROUTINE + nest(d))}${fenced(ROUTINE + 'id: b')}`;
+        for (const r of [analyse(text), analyse(text, warm)]) {
+          assert.deepEqual(
+            r.blocks.map((b) => b.status),
+            ['normal', 'invalid', 'normal'],
+            `${shape} ${d}`,
+          );
+          assert.deepEqual(codes(r.blocks[1]!), ['nesting-too-deep'], `${shape} ${d}`);
+        }
+      }
+  });
+
   it('analyses a block of 100,000 levels completely when unbounded (the command line), back to the β it was made at', () => {
     const beta = 1 / 5000;
     const lines = ['id: huge', 'levels:'];

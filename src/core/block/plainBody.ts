@@ -21,6 +21,7 @@
  */
 import { CST, Document, isScalar, Parser, type ScalarTag } from 'yaml';
 import type { ScalarStyle, TreeMap, TreeNode, TreeRange, TreeScalar, TreeSeq } from './tree';
+import { MAX_NESTING } from './nesting';
 import { YAML_OPTIONS } from './yamlOptions';
 
 /** A document made with the reader's options: its schema and options are the ones the composer would use. */
@@ -46,16 +47,13 @@ function refuse(): never {
   throw NOT_PLAIN;
 }
 
-/** Nesting deeper than this is left to the composer, whose guard against deep input is tried and tested. */
-const MAX_DEPTH = 64;
-
 /**
  * The root mapping of a plain body, built from the package's syntax tree, or
  * null when the body is not plain (the caller then runs the full composer).
  */
-export function plainTree(body: string): TreeMap | null {
+export function plainTree(body: string, tokens: Iterable<CST.Token> = new Parser().parse(body)): TreeMap | null {
   let doc: CST.Document | null = null;
-  for (const token of new Parser().parse(body)) {
+  for (const token of tokens) {
     if (token.type === 'document' && !doc) doc = token;
     // Comment lines before the document are its prelude, which the composer reads without a rule to break.
     else if (!(
@@ -134,7 +132,7 @@ function separators(tokens: readonly CST.SourceToken[], from: number, to: number
 }
 
 function blockMap(bm: CST.BlockMap, depth: number): TreeMap {
-  if (depth > MAX_DEPTH) refuse();
+  if (depth >= MAX_NESTING) refuse();
   const pairs = new Pairs();
   let offset = bm.offset;
   for (const item of bm.items) {
@@ -168,7 +166,7 @@ function blockMap(bm: CST.BlockMap, depth: number): TreeMap {
 }
 
 function blockSeq(bs: CST.BlockSequence, depth: number): TreeSeq {
-  if (depth > MAX_DEPTH) refuse();
+  if (depth >= MAX_NESTING) refuse();
   const items: TreeNode[] = [];
   let offset = bs.offset;
   for (const item of bs.items) {
@@ -191,7 +189,7 @@ function blockSeq(bs: CST.BlockSequence, depth: number): TreeSeq {
 }
 
 function flow(fc: CST.FlowCollection, depth: number): TreeMap | TreeSeq {
-  if (depth > MAX_DEPTH) refuse();
+  if (depth >= MAX_NESTING) refuse();
   const isMap = fc.start.source === '{';
   if (!isMap && fc.start.source !== '[') refuse();
   const pairs = new Pairs();

@@ -12,10 +12,12 @@ import {
   isScalar as isYamlScalar,
   isSeq as isYamlSeq,
   parseDocument,
+  Parser,
   type YAMLMap,
   type YAMLSeq,
 } from 'yaml';
 import type { Problem, Span } from '../types';
+import { MAX_NESTING, tooDeep } from './nesting';
 import { plainTree } from './plainBody';
 import type { TreeAlias, TreeMap, TreeNode, TreeScalar, TreeSeq } from './tree';
 import { YAML_OPTIONS } from './yamlOptions';
@@ -53,8 +55,20 @@ export function parseBody(body: string): YamlBody {
   // YAML 1.2 counts a lone \r as a line break (§5.4) but the parser does not; \n in its place keeps every offset.
   const text = body.includes('\r') ? body.replace(/\r(?!\n)/g, '\n') : body;
   try {
-    const plain = plainTree(text);
+    const tokens = [...new Parser().parse(text)];
+    const plain = plainTree(text, tokens);
     if (plain) return { doc: { contents: plain }, problems };
+    const deep = tooDeep(tokens);
+    if (deep) {
+      const lineEnd = body.indexOf('\n', deep.offset);
+      problems.push({
+        severity: 'error',
+        code: 'nesting-too-deep',
+        message: `Lists and mappings nest more than ${MAX_NESTING} deep here; a block is read to ${MAX_NESTING} levels (a list of levels needs three), so this one is not read. Write the values at fewer levels.`,
+        span: errorSpan([deep.offset, lineEnd === -1 ? body.length : lineEnd], body),
+      });
+      return { doc: null, problems };
+    }
     doc = parseDocument(text, COMPOSE_OPTIONS);
   } catch (err) {
     // The parser is robust, but a bug or a stack overflow on pathological nesting must not take the note down.
