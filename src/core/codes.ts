@@ -161,6 +161,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'line-frequency-missing': { severity: 'error', summary: 'A radiometer line without its frequency.' },
   'line-frequency-invalid': { severity: 'error', summary: 'A line frequency ≤ 0.' },
   'intensity-unit': { severity: 'error', summary: 'An integrated brightness in a unit other than K km/s.' },
+  'absorption-too-deep': {
+    severity: 'error',
+    summary: 'A line deeper in absorption than the background allows at its optical depth: no excitation temperature.',
+  },
   'optical-depth-invalid': { severity: 'error', summary: 'An optical depth ≤ 0.' },
   'energy-implausible': {
     severity: 'warning',

@@ -125,7 +125,7 @@ export {
 export type { LinePlot, PlotPointResult, Trade, TradeResults } from './analysis/trade';
 export { tradeRows, linePointRows, linesCsv } from './present/tradeSummary';
 export { airToVacuum, vacuumToAir, airIndex } from './physics/airWavelength';
-export { lineTemperature, linearRotorPartition, opticalDepthCorrection } from './physics/radio';
+export { lineBeta, linearRotorPartition, opticalDepthCorrection, radiationTemperature } from './physics/radio';
 export {
   COVERAGE_FACTOR,
   resultIntervals,

@@ -131,29 +131,87 @@ describe('radio units and the 21-cm pair', () => {
 });
 
 describe('the temperature of a line from T_B, τ and T_bg', () => {
-  // T = T_B/(1 − e^(−τ)) + T_bg: the uniform-slab solution of radiative transfer in the Rayleigh–Jeans limit,
-  // T_B = (T_ex − T_bg)(1 − e^(−τ)) (G. B. Rybicki, A. P. Lightman, "Radiative Processes in Astrophysics",
-  // Wiley 1979, ch. 1; T. L. Wilson, K. Rohlfs, S. Hüttemeister, "Tools of Radio Astronomy", Springer; both
-  // from memory).
-  const model = (tb: number, tau: number, bg: number): number => tb / (1 - Math.exp(-tau)) + bg;
+  // The uniform-slab solution of radiative transfer with brightness temperatures on the Rayleigh–Jeans scale,
+  // T_B = (J(T_ex) − J(T_bg))(1 − e^(−τ)), J(T) = (hν/k)/(e^(hν/kT) − 1) (G. B. Rybicki, A. P. Lightman,
+  // "Radiative Processes in Astrophysics", Wiley 1979, ch. 1; T. L. Wilson, K. Rohlfs, S. Hüttemeister, "Tools of
+  // Radio Astronomy", Springer; both from memory. J is the "Rayleigh-Jeans corrected brightness temperature" of
+  // the Starlink SCUBA library, SCULIB_JNU, starlink.eao.hawaii.edu/docs/ssn72.htx/ssn72ss140.html). The test
+  // writes T_B forward from T_ex and inverts it by bisection, a route of its own; h and k are the exact SI values.
+  const H = 6.62607015e-34;
+  const K = 1.380649e-23;
+  const J = (t: number, t0: number): number => (t > 0 ? t0 / (Math.exp(t0 / t) - 1) : 0);
+  const forward = (tex: number, tau: number, bg: number, t0: number): number =>
+    (J(tex, t0) - J(bg, t0)) * (1 - Math.exp(-tau));
+  const inverse = (tb: number, tau: number, bg: number, t0: number): number => {
+    let lo = 1e-6;
+    let hi = 1e7;
+    for (let i = 0; i < 200; i++) {
+      const mid = Math.sqrt(lo * hi);
+      if (forward(mid, tau, bg, t0) < tb) lo = mid;
+      else hi = mid;
+    }
+    return Math.sqrt(lo * hi);
+  };
+  const HI = 'gap: 1420.405751768 MHz\ng: [1, 3]';
+  const CO = 'gap: 115.2712018 GHz\ng: [1, 3]'; // CO J = 1 → 0 (CDMS; from memory)
+  const T0_CO = (H * 115.2712018e9) / K;
 
   it('inverts the slab solution and propagates u(T_B), u(τ) and u(T_bg) as numerical sensitivities do', () => {
-    const r = block(
-      'gap: 1420.405751768 MHz\ng: [1, 3]\nbrightness: 35 ± 1 K\noptical-depth: 0.8 ± 0.1\nbackground: 2.725 ± 0.001 K',
-    ).report;
+    const r = block(`${HI}\nbrightness: 35 ± 1 K\noptical-depth: 0.8 ± 0.1\nbackground: 2.725 ± 0.001 K`).report;
     const t = r.results!.temperature!;
-    close(t.value, model(35, 0.8, 2.725), 1e-12, 'T');
+    const model = (tb: number, tau: number, bg: number): number => inverse(tb, tau, bg, T_STAR);
+    close(t.value, model(35, 0.8, 2.725), 1e-10, 'T');
     // GUM §5.1.2 with sensitivity coefficients by central differences (an independent route to the same law).
-    const h = 1e-6;
+    const h = 1e-5;
     const d = (f: (x: number) => number, x: number): number => (f(x + h) - f(x - h)) / (2 * h);
     const uT = Math.hypot(
       d((x) => model(x, 0.8, 2.725), 35) * 1,
       d((x) => model(35, x, 2.725), 0.8) * 0.1,
       d((x) => model(35, 0.8, x), 2.725) * 0.001,
     );
-    close(t.uncertainty, uT, 1e-6, 'u(T)');
+    close(t.uncertainty, uT, 1e-5, 'u(T)');
     assert.equal(r.results!.trade.fromBrightness, true);
     assert.equal(r.status, 'normal');
+  });
+
+  it('solves CO 1–0 exactly where the Rayleigh–Jeans shortcut is off by more than half a kelvin, and agrees with it on the 21-cm line', () => {
+    for (const tex of [10, 30, 80]) {
+      const tb = forward(tex, 1, 2.725, T0_CO);
+      const got = block(`${CO}\nbrightness: ${tb} K\noptical-depth: 1\nbackground: 2.725 K`).report;
+      close(got.results!.temperature!.value, tex, 1e-9, `CO at ${tex} K`);
+      // The shortcut T_B/(1 − e^(−τ)) + T_bg, for contrast: 9.38 K for a line at 10 K.
+      const shortcut = tb / (1 - Math.exp(-1)) + 2.725;
+      assert.ok(Math.abs(shortcut - tex) > 0.5, `shortcut ${shortcut} at ${tex} K`);
+    }
+    for (const tex of [3, 20, 100, 8000]) {
+      const tb = forward(tex, 0.5, 2.725, T_STAR);
+      const got = block(`${HI}\nbrightness: ${tb} K\noptical-depth: 0.5\nbackground: 2.725 K`).report;
+      close(got.results!.temperature!.value, tex, 1e-9, `21 cm at ${tex} K`);
+      const shortcut = tb / (1 - Math.exp(-0.5)) + 2.725;
+      assert.ok(Math.abs(shortcut - tex) < 2e-4, `shortcut ${shortcut} at ${tex} K`);
+    }
+  });
+
+  it('reads an absorption line against the background, and refuses one deeper than the background allows', () => {
+    // A cold cloud against the cosmic background: T_ex = 1.5 K below T_bg = 2.725 K gives T_B < 0.
+    const tb = forward(1.5, 2, 2.725, T0_CO);
+    assert.ok(tb < 0);
+    const cold = block(`${CO}\nbrightness: ${tb} K\noptical-depth: 2\nbackground: 2.725 K`).report;
+    close(cold.results!.temperature!.value, 1.5, 1e-9, 'T_ex');
+    assert.equal(cold.status, 'normal');
+    // At most −J(T_bg)(1 − e^(−τ)) = −0.7231 K here (J(2.725 K) = 5.5321 K/(e^2.0301 − 1) = 0.8363 K at 115 GHz,
+    // by hand); −0.8 K is deeper.
+    const floor = -J(2.725, T0_CO) * (1 - Math.exp(-2));
+    close(floor, -0.7231, 1e-3, 'the deepest absorption');
+    const p = problem(`${CO}\nbrightness: -0.8 K\noptical-depth: 2\nbackground: 2.725 K`, 'absorption-too-deep');
+    assert.equal(p.severity, 'error');
+    assert.equal(p.at, '-0.8 K');
+    assert.match(p.message, /-0\.7231 K/);
+    const deep = block(`${CO}\nbrightness: -0.8 K\noptical-depth: 2\nbackground: 2.725 K`).report;
+    assert.equal(deep.status, 'invalid');
+    assert.equal(deep.results?.temperature ?? null, null);
+    // Without a background nothing can absorb.
+    problem(`${CO}\nbrightness: -0.1 K\noptical-depth: 2`, 'absorption-too-deep');
   });
 
   it('needs both keys and refuses them beside populations', () => {

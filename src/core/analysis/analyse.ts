@@ -15,7 +15,7 @@ import { polarizationOf, thermalPolarizationOf } from './polarization';
 import type { BlockResults } from './results';
 import { measureGain, measureSeries, measureSignal } from './measurements';
 import { linePlot, tradeOf, tradeResults } from './trade';
-import { lineTemperature } from '../physics/radio';
+import { deepestAbsorption, lineBeta } from '../physics/radio';
 import type { SeriesFit } from '../physics/relaxation';
 import { statusOf } from './status';
 import { polarizationAtTime } from '../physics/decay';
@@ -277,21 +277,26 @@ function fromPolarization(input: BlockInput, problems: Problem[]): BetaFinding {
 }
 
 /**
- * β of a line from its brightness temperature, optical depth and background:
- * T = T_B/(1 − e^(−τ)) + T_bg (physics/radio.ts), β = 1/T with u(β) = u(T)/T².
+ * β of a line from its brightness temperature, optical depth and background (physics/radio.ts): the slab
+ * solution J(T_ex) = T_B/(1 − e^(−τ)) + J(T_bg) at the line's hν/k, the gap. A line deeper in absorption than
+ * the background allows has no excitation temperature: an error on `brightness`, and no β.
  */
 function fromBrightness(input: BlockInput): BetaFinding {
   const line = input.trade!.line!;
   const bg = input.trade!.background;
-  const t = lineTemperature(line.brightness, line.opticalDepth, bg);
-  // An optical depth too small for double precision makes T overflow: β is then 0 (T → ∞), not unknown.
-  const u = t.uncertainty === null ? null : t.uncertainty / (t.value * t.value);
-  const beta: Measured | null = !Number.isFinite(t.value)
-    ? { value: 0, uncertainty: null }
-    : t.value !== 0
-      ? { value: 1 / t.value, uncertainty: u !== null && Number.isFinite(u) ? u : null }
-      : null;
-  return { beta, limit: null, fit: null, fractions: null, polarization: null, problems: [] };
+  const t0 = input.levels[1]!.energy - input.levels[0]!.energy;
+  const beta = lineBeta(line.brightness, line.opticalDepth, bg, t0);
+  const problems: Problem[] = [];
+  if (!beta && t0 > 0) {
+    const floor = deepestAbsorption(line.opticalDepth.value, bg?.value ?? 0, t0);
+    problems.push({
+      severity: 'error',
+      code: 'absorption-too-deep',
+      message: `brightness: with τ = ${line.opticalDepth.value.toPrecision(3)}${bg ? ` against a background of ${bg.value.toPrecision(4)} K` : ' and no background'}, a line at any positive excitation temperature absorbs at most to ${floor.toPrecision(4)} K (T_B = (J(T_ex) − J(T_bg))(1 − e^(−τ))), so ${line.brightness.value.toPrecision(4)} K gives none. Check the signs of T_B and τ, and the background.`,
+      span: line.brightness.span,
+    });
+  }
+  return { beta, limit: null, fit: null, fractions: null, polarization: null, problems };
 }
 
 /** Fractions implied by β when only a polarization was measured. */

@@ -157,7 +157,7 @@ export const BLOCK_KEYS: readonly KeyDoc[] = [
     key: 'brightness',
     form: 'transition',
     summary:
-      'Brightness temperature T_B of the line (Rayleigh–Jeans), with `optical-depth`: T = T_B/(1 − e^(−τ)) + T_bg.',
+      'Brightness temperature T_B of the line (Rayleigh–Jeans scale), with `optical-depth`: J(T_ex) = T_B/(1 − e^(−τ)) + J(T_bg), J(T) = (hν/k)/(e^(hν/kT) − 1).',
     example: '35 ± 1 K',
   },
   {

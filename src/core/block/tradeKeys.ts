@@ -103,7 +103,7 @@ export function readOpticalDepth(ctx: ReadContext, node: TreeNode | null, subjec
 
 /**
  * `brightness:` and `optical-depth:` of a single transition: the line's
- * temperature T = T_B/(1 − e^(−τ)) + T_bg. Returns undefined on an error,
+ * excitation temperature, from J(T_ex) = T_B/(1 − e^(−τ)) + J(T_bg). Returns undefined on an error,
  * null when the block gives neither.
  */
 export function readLineTemperature(
@@ -119,7 +119,7 @@ export function readLineTemperature(
       ctx,
       'error',
       'line-temperature-incomplete',
-      `\`${has}\` needs \`${lacks}\` too: the line's temperature is T_B/(1 − e^(−τ)) + T_bg.`,
+      `\`${has}\` needs \`${lacks}\` too: the line's excitation temperature follows from J(T_ex) = T_B/(1 − e^(−τ)) + J(T_bg).`,
       (be ?? te)!.keySpan,
     );
     return undefined;

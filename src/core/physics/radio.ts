@@ -2,8 +2,10 @@
  * Radio-astronomy relations for one line or a ladder of lines.
  *
  * Sources: K. Rohlfs, T. L. Wilson, S. Hüttemeister, "Tools of Radio
- * Astronomy" (Springer; the radiative transfer of a uniform slab,
- * T_B = (T_ex − T_bg)(1 − e^(−τ)) in the Rayleigh–Jeans limit); P. F.
+ * Astronomy" (Springer; the radiative transfer of a uniform slab, with
+ * brightness temperatures in the Rayleigh–Jeans scale, T_B = c²I_ν/(2kν²):
+ * T_B = (J(T_ex) − J(T_bg))(1 − e^(−τ)), J(T) = (hν/k)/(e^(hν/kT) − 1),
+ * which is T_B = (T_ex − T_bg)(1 − e^(−τ)) when hν ≪ kT); P. F.
  * Goldsmith, W. D. Langer, ApJ 517, 209 (1999) (the rotation diagram,
  * N_u = 8πkν²W/(hc³A), its optical-depth correction C_τ = τ/(1 − e^(−τ)) and
  * N = (N_u/g_u) Q(T) e^(E_u/kT)); G. B. Rybicki, A. P. Lightman, "Radiative
@@ -25,25 +27,61 @@ export function opticalDepthCorrection(tau: number | null): number {
 }
 
 /**
- * The excitation (spin) temperature of a line from its Rayleigh–Jeans
- * brightness temperature T_B, optical depth τ and background T_bg:
- * T = T_B/(1 − e^(−τ)) + T_bg, with first-order uncertainties (GUM §5.1.2):
- * ∂T/∂T_B = 1/(1 − e^(−τ)), ∂T/∂τ = −T_B e^(−τ)/(1 − e^(−τ))², ∂T/∂T_bg = 1.
- * Domain: τ > 0; T_bg ≥ 0 (0 when none is given).
+ * The radiation temperature of a black body at T seen at a line whose
+ * photon energy is t0 = hν/k (K): J(T) = t0/(e^(t0/T) − 1), which is T − t0/2
+ * and less for T ≫ t0 (J → T, the Rayleigh–Jeans limit) and 0 at T → 0
+ * (the form and its name: Rohlfs, Wilson & Hüttemeister, from memory; the
+ * same function is the Starlink SCUBA library's SCULIB_JNU, "the
+ * Rayleigh-Jeans corrected brightness temperature"). 0 for T ≤ 0.
  */
-export function lineTemperature(
+export function radiationTemperature(t: number, t0: number): number {
+  if (!(t > 0)) return 0;
+  return t0 / Math.expm1(t0 / t);
+}
+
+/** dJ/dT = (x/(2 sinh(x/2)))² with x = t0/T: 1 in the Rayleigh–Jeans limit, 0 at T → 0 (and for T ≤ 0). */
+function radiationSlope(t: number, t0: number): number {
+  if (!(t > 0)) return 0;
+  const x = t0 / t;
+  const r = x / (2 * Math.sinh(x / 2));
+  return Number.isFinite(r) ? r * r : 0;
+}
+
+/**
+ * β = 1/T_ex of a line from its brightness temperature T_B (Rayleigh–Jeans
+ * scale), optical depth τ > 0, background T_bg (0 when none) and photon
+ * energy t0 = hν/k, all in K: the slab solution J(T_ex) = R with
+ * R = T_B/(1 − e^(−τ)) + J(T_bg), so β = ln(1 + t0/R)/t0. Its first-order
+ * uncertainty (GUM §5.1.2) from u(T_B), u(τ) and u(T_bg) through R:
+ * ∂β/∂R = −1/(R(R + t0)), ∂R/∂T_B = 1/(1 − e^(−τ)),
+ * ∂R/∂τ = −T_B e^(−τ)/(1 − e^(−τ))², ∂R/∂T_bg = dJ/dT_bg (the gap's share is
+ * the uncertainty budget's). Null when R ≤ 0: with τ > 0 a line can absorb at
+ * most J(T_bg)(1 − e^(−τ)) below the background, and a deeper one has no
+ * positive excitation temperature (a negative one would need τ < 0).
+ */
+export function lineBeta(
   brightness: Measured,
   tau: Measured,
   background: Measured | null,
-): { value: number; uncertainty: number | null } {
+  t0: number,
+): { value: number; uncertainty: number | null } | null {
   const d = -Math.expm1(-tau.value);
   const bg = background?.value ?? 0;
-  const value = brightness.value / d + bg;
+  const r = brightness.value / d + radiationTemperature(bg, t0);
+  if (!(r > 0) || !(t0 > 0)) return null;
+  const value = Math.log1p(t0 / r) / t0;
+  const dBeta = 1 / (r * (r + t0));
   const parts: number[] = [];
   if (brightness.uncertainty !== null) parts.push(brightness.uncertainty / d);
   if (tau.uncertainty !== null) parts.push((brightness.value * Math.exp(-tau.value) * tau.uncertainty) / (d * d));
-  if (background && background.uncertainty !== null) parts.push(background.uncertainty);
-  return { value, uncertainty: parts.length ? Math.hypot(...parts) : null };
+  if (background && background.uncertainty !== null) parts.push(radiationSlope(bg, t0) * background.uncertainty);
+  const u = parts.length ? dBeta * Math.hypot(...parts) : null;
+  return { value, uncertainty: u !== null && Number.isFinite(u) ? u : null };
+}
+
+/** The largest absorption (T_B < 0) a line of optical depth τ can show against T_bg: −J(T_bg)(1 − e^(−τ)), K. */
+export function deepestAbsorption(tau: number, background: number, t0: number): number {
+  return -radiationTemperature(background, t0) * -Math.expm1(-tau);
 }
 
 /**

@@ -72,7 +72,7 @@ export function tradeRows(input: BlockInput | null, r: BlockResults, o: DisplayO
     const bg = input.trade.background;
     rows.push([
       'line temperature',
-      `T_ex = T_B/(1 − e^(−τ)) + T_bg with T_B = ${formatTemperature(l.brightness.value, l.brightness.uncertainty, { digits: o.digits, mode })}, τ = ${formatMeasured(l.opticalDepth.value, l.opticalDepth.uncertainty, { digits: o.digits })}, T_bg = ${bg ? formatTemperature(bg.value, bg.uncertainty, { digits: o.digits, mode }) : '0 K (no `background:`)'}`,
+      `J(T_ex) = T_B/(1 − e^(−τ)) + J(T_bg), J(T) = (hν/k)/(e^(hν/kT) − 1), with T_B = ${formatTemperature(l.brightness.value, l.brightness.uncertainty, { digits: o.digits, mode })}, τ = ${formatMeasured(l.opticalDepth.value, l.opticalDepth.uncertainty, { digits: o.digits })}, T_bg = ${bg ? formatTemperature(bg.value, bg.uncertainty, { digits: o.digits, mode }) : '0 K (no `background:`)'}`,
     ]);
   }
   const c = t.column;
