@@ -16,6 +16,9 @@
  * @returns the distance, or `bound + 1` when it is larger than `bound`.
  */
 export function editDistance(a: string, b: string, bound = Number.POSITIVE_INFINITY): number {
+  // A string of n UTF-16 units holds n/2 to n code points: when even the nearest counts differ by more than
+  // the bound, the answer is known before either string is split (a pasted megabyte costs nothing here).
+  if (Math.max(Math.ceil(a.length / 2) - b.length, Math.ceil(b.length / 2) - a.length) > bound) return bound + 1;
   const s = Array.from(a);
   const t = Array.from(b);
   if (Math.abs(s.length - t.length) > bound) return bound + 1;

@@ -43,6 +43,27 @@ describe('editDistance', () => {
     assert.equal(editDistance('abc', 'abd', 0), 1);
   });
 
+  it('with a bound, answers as the unbounded distance capped at bound + 1, astral characters and long words too', () => {
+    // The bound is checked on lengths first, in UTF-16 units: a pair of units may be one character (😀, 𝔘), so
+    // that check must not refuse a pair whose characters are near. Words made of such characters and of plain
+    // ones, and a megabyte of text against a unit (which the check answers without splitting the text).
+    let seed = 7;
+    const next = (n: number): number => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) >> 8) % n;
+    const alphabet = ['a', 'b', 'K', 'µ', '😀', '𝔘', '°'];
+    const word = (): string => Array.from({ length: next(7) }, () => alphabet[next(alphabet.length)]).join('');
+    for (let i = 0; i < 3000; i++) {
+      const a = word();
+      const b = word();
+      const full = editDistance(a, b);
+      for (const bound of [0, 1, 2, 3, 5])
+        assert.equal(editDistance(a, b, bound), Math.min(full, bound + 1), `${a} / ${b} / ${bound}`);
+    }
+    assert.equal(editDistance('😀😀😀', 'abc', 2), 3);
+    assert.equal(editDistance('😀😀😀', 'abc', 3), 3);
+    assert.equal(editDistance('K'.repeat(1_000_000), 'kHz', 2), 3);
+    assert.equal(editDistance('mT', 'K'.repeat(1_000_000), 2), 3);
+  });
+
   it('is symmetric', () => {
     const words = ['electron', 'elektron', 'C13', '13C', 'cm^-1', 'cm-1', ''];
     for (const a of words) for (const b of words) assert.equal(editDistance(a, b), editDistance(b, a), `${a} / ${b}`);
