@@ -117,9 +117,15 @@ export function formatTable(
         below = true;
       } else {
         // The place keeps its end (file name and line), the id its beginning.
+        // Half the excess from each, as far as each can give (16 and 10 columns stay); what one cannot give, the
+        // other gives.
         const [wWhere, wId] = widthsOf(cells, [0, 1]);
-        const idMax = Math.max(10, wId - Math.ceil(excess / 2));
-        const whereMax = Math.max(16, wWhere - (excess - (wId - idMax)));
+        const canWhere = Math.max(0, wWhere - 16);
+        const canId = Math.max(0, wId - 10);
+        const cutWhere = Math.min(canWhere, Math.max(Math.floor(excess / 2), excess - canId));
+        const cutId = Math.min(canId, excess - cutWhere);
+        const idMax = wId - cutId;
+        const whereMax = wWhere - cutWhere;
         cells = cells.map((r) => r.map((c, i) => (i === 0 ? clip(c, whereMax, true) : i === 1 ? clip(c, idMax) : c)));
       }
     }

@@ -128,6 +128,30 @@ describe('boltzmark report: a table that fits the terminal', () => {
     assert.match(out, /^ {4}T \(8100 … 10400 K, 95 %\)/m);
   });
 
+  it('fits a note whose id and unit are each a pasted 100,000 characters, and keeps the id whole in JSON', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'boltzmark-huge-'));
+    const id = 'I'.repeat(100_000);
+    const unit = 'K'.repeat(100_000);
+    writeFileSync(
+      join(dir, 'pasted.md'),
+      `\`\`\`levels\nid: ${id}\ngap: 1 K\nratio: 0.5\n\`\`\`\n\n\`\`\`levels\nid: short\ngap: 1 ${unit}\nratio: 0.5\n\`\`\`\n`,
+    );
+    const { out } = run(['report', 'pasted.md'], dir);
+    assert.ok(widest(out) <= 100, `widest line ${widest(out)}`);
+    assert.match(out, /^pasted\.md:1 +I{10,}… +normal/m);
+    // The message quotes the unit's beginning, clipped to 60 characters, and still names the units it wants.
+    assert.match(out, /Unknown unit\s+`K{59}…`/);
+    assert.match(out, /cm-1/);
+    const json = JSON.parse(run(['report', 'pasted.md', '--format', 'json'], dir).out) as {
+      id: string;
+      diagnostics: { message: string }[];
+    }[];
+    assert.equal(json[0]!.id, id);
+    const message = json[1]!.diagnostics[0]!.message;
+    assert.ok(message.length < 400, `${message.length} characters`);
+    assert.ok(message.includes(`\`${'K'.repeat(59)}…\``), message);
+  });
+
   it('follows the terminal width it is given, and --wide prints every column at any width', () => {
     const narrow = run(['report', 'demo'], process.cwd(), 90).out;
     assert.ok(widest(narrow) <= 90, `widest line ${widest(narrow)}`);

@@ -5,7 +5,7 @@
  */
 import type { BlockReport, Cached } from './analyzer';
 import { shiftBlock } from './rescanPlan';
-import { ownCopy } from '../text/common';
+import { clipQuotes, ownCopy } from '../text/common';
 import { bodyToDocument, type FencedBlock } from '../text/fences';
 import type { Problem, Span, Status } from '../types';
 
@@ -31,11 +31,13 @@ export function report(found: FencedBlock, c: Cached): BlockReport {
   };
   const mapped = c.problems.map((p) => ({
     ...p,
+    message: clipQuotes(p.message),
     span: spanToNote(block, p.span),
     ...(p.fixes
       ? {
           fixes: p.fixes.map((f) => ({
             ...f,
+            title: clipQuotes(f.title),
             span: spanToNote(block, f.span),
             ...(f.more ? { more: f.more.map((m) => ({ ...m, span: spanToNote(block, m.span) })) } : {}),
           })),

@@ -10,6 +10,7 @@
 import { parseXUnit, type XUnit } from './axis';
 import type { SpectrumRead } from './types';
 import { sortedSpectrum } from './sorted';
+import { clipText } from '../text/common';
 
 const SEPARATORS = /[\s,;]+/;
 
@@ -61,7 +62,7 @@ export function readTextColumns(text: string): SpectrumRead {
       message:
         parts.length !== 2
           ? `line ${line} has ${parts.length} columns; a two-column spectrum has one x, y pair per line`
-          : `line ${line} is not a pair of finite numbers: \`${clip(trimmed)}\``,
+          : `line ${line} is not a pair of finite numbers: \`${clipText(trimmed)}\``,
     };
   }
   if (xs.length === 0)
@@ -83,8 +84,4 @@ export function unitOfName(name: string): XUnit | null {
   const n = name.trim().replace(/^["']|["']$/g, '');
   const inner = /[([]\s*([^)\]]+?)\s*[)\]]/.exec(n)?.[1] ?? (n.includes('/') ? n.slice(n.indexOf('/') + 1) : null);
   return (inner !== null ? parseXUnit(inner) : null) ?? parseXUnit(n);
-}
-
-function clip(s: string): string {
-  return s.length > 60 ? `${s.slice(0, 57)}…` : s;
 }

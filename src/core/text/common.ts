@@ -85,3 +85,29 @@ export function commonSuffix(a: string, b: string, prefix: number): number {
   while (i < n && a.charCodeAt(a.length - 1 - i) === b.charCodeAt(b.length - 1 - i)) i++;
   return i;
 }
+
+/** Characters of a note that a message quotes at most (common practice for readable messages, no source). */
+export const QUOTE_CHARS = 60;
+
+/** A message no longer than this whole, when even its quotations clipped leave it longer. */
+const MESSAGE_CHARS = 2000;
+
+/** `s` cut to at most `max` UTF-16 units, ending in `…` when cut; never inside a surrogate pair. */
+export function clipText(s: string, max = QUOTE_CHARS): string {
+  if (s.length <= max) return s;
+  let end = max - 1;
+  const last = s.charCodeAt(end - 1);
+  if (last >= 0xd800 && last <= 0xdbff) end--;
+  return `${s.slice(0, end)}…`;
+}
+
+/**
+ * A message with every stretch of the note it quotes (between backticks) clipped to {@link QUOTE_CHARS}, and
+ * the whole to {@link MESSAGE_CHARS}: a pasted megabyte in a unit or a key makes a message of a line, not of
+ * a megabyte, in the editor and in every report. A short message is returned as it is.
+ */
+export function clipQuotes(message: string): string {
+  if (message.length <= 2 * QUOTE_CHARS) return message;
+  const clipped = message.replace(/`([^`]{61,})`/g, (_, quoted: string) => `\`${clipText(quoted)}\``);
+  return clipText(clipped, MESSAGE_CHARS);
+}
