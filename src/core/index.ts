@@ -93,7 +93,7 @@ export {
 } from './text/jupyter';
 export { LineIndex, type LineCol } from './text/lineIndex';
 export { NoteText, type TextLines, type TextSource } from './text/noteText';
-export { blockHoldingOffset, blocksMeeting } from './text/common';
+export { blockHoldingOffset, blocksMeeting, clipText, NAME_CHARS } from './text/common';
 export {
   notebookInvalidEntry,
   notUtf8Diagnostic,

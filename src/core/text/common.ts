@@ -89,6 +89,9 @@ export function commonSuffix(a: string, b: string, prefix: number): number {
 /** Characters of a note that a message quotes at most (common practice for readable messages, no source). */
 export const QUOTE_CHARS = 60;
 
+/** Characters of an id or a label shown as a name (a hover's title, the outline); the reports keep it whole. */
+export const NAME_CHARS = 80;
+
 /** A message no longer than this whole, when even its quotations clipped leave it longer. */
 const MESSAGE_CHARS = 2000;
 

@@ -7,10 +7,12 @@
 import {
   measurementRows,
   betaText,
+  clipText,
   enhancementText,
   formatNumber,
   formatTemperature,
   fractionText,
+  NAME_CHARS,
   statusWords,
   temperatureSymbol,
   withoutSymbol,
@@ -46,9 +48,11 @@ export function writtenText(state: NoteState, span: Span): string {
   return /^(["']).*\1$/s.test(raw) ? raw.slice(1, -1) : raw;
 }
 
-/** How a block is named: its id (escaped), or its place in the note. */
+/** How a block is named: its id (escaped, a long one clipped), or its place in the note. */
 export function blockName(b: BlockReport): string {
-  return b.meta.id !== null ? escapeMarkdown(b.meta.id) : `levels block at line ${b.block.openLine + 1}`;
+  return b.meta.id !== null
+    ? escapeMarkdown(clipText(b.meta.id, NAME_CHARS))
+    : `levels block at line ${b.block.openLine + 1}`;
 }
 
 /** A core display string without its leading symbol: `T = 5.61 mK` → `5.61 mK`, `T → 0⁺` → `→ 0⁺`. */

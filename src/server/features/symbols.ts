@@ -3,7 +3,7 @@
  * short results as detail, and for explicit levels one child per level.
  */
 import { SymbolKind, type DocumentSymbol, type SymbolInformation } from 'vscode-languageserver';
-import { formatNumber, formatTemperature, shortSummary, type BlockReport } from '../../core';
+import { clipText, formatNumber, formatTemperature, NAME_CHARS, shortSummary, type BlockReport } from '../../core';
 import { toRange, type NoteState } from '../state';
 import { firstError } from './markdown';
 
@@ -45,10 +45,10 @@ export function flatSymbols(uri: string, symbols: readonly DocumentSymbol[], con
 /**
  * A symbol's name: the note's own text unless it is missing or blank. LSP
  * forbids empty names, and VS Code drops the whole outline over one
- * (so does a name of spaces once trimmed), so a blank id or label gets the fallback.
+ * (so does a name of spaces once trimmed), so a blank id or label gets the fallback; a long one is clipped.
  */
 export function nameOr(text: string | null | undefined, fallback: string): string {
-  return typeof text === 'string' && text.trim() !== '' ? text : fallback;
+  return typeof text === 'string' && text.trim() !== '' ? clipText(text, NAME_CHARS) : fallback;
 }
 
 /** `normal · T = 5.61 mK · P = 31.2 % · ε = 241`, or `invalid · unit-case`. */

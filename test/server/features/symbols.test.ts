@@ -1,7 +1,9 @@
 import { strict as assert } from 'node:assert';
 import type { DocumentSymbol } from 'vscode-languageserver';
+import { hover } from '../../../src/server/features/hover';
 import { documentSymbols, flatSymbols } from '../../../src/server/features/symbols';
-import { CONTRACT, note, noteState, URI } from '../helpers';
+import { DEFAULT_SETTINGS } from '../../../src/shared/settings';
+import { CONTRACT, note, noteState, URI, withCursor } from '../helpers';
 
 /** A symbol as [name, detail, range as [line, character, line, character], selection range, children]. */
 type Flat = [string, string, number[], number[], Flat[]];
@@ -21,6 +23,18 @@ describe('document symbols', () => {
     check(note(...CONTRACT), [
       ['cell-B run 7', 'normal · T = 5.61 mK · P = 31.2 % · ε = 241', [2, 0, 8, 3], [3, 4, 3, 16], []],
     ]);
+  });
+
+  it('clip an id of thousands of characters to 80 in the outline and the hover title, and keep its beginning', () => {
+    const id = `cell-B ${'x'.repeat(5000)}`;
+    const [symbol] = documentSymbols(noteState(note(`id: ${id}`, 'gap: 10 K', 'ratio: 2')));
+    assert.equal(symbol!.name.length, 80);
+    assert.equal(symbol!.name, `${id.slice(0, 79)}…`);
+    const { state, position } = withCursor(note(`id: ${id}`, 'gap: 10 K', '$0ratio: 2'));
+    const h = hover(state, position, DEFAULT_SETTINGS);
+    const title = (h!.contents as { value: string }).value.split('\n')[0]!;
+    assert.ok(title.length < 200, `${title.length} characters`);
+    assert.ok(title.startsWith('**cell\\-B xxx'), title.slice(0, 40));
   });
 
   it('name a block without an id by its line and select its fence', () => {
