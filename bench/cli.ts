@@ -4,7 +4,7 @@
  * process, against the floor script bench/cliFloor.mjs (walk, read, find the
  * fences, `parseDocument` each body) in a fresh process too. CPU time of the
  * whole process (every thread) from bench/cpuOnExit.cjs, with `--workers 1`;
- * wall time measured here, with the default (one thread per core but one). The notes are written to a temporary folder and removed after.
+ * wall time measured here, with the default (one thread per core). The notes are written to a temporary folder and removed after.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';

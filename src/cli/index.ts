@@ -24,6 +24,9 @@ function tuneEngine(): void {
 /** The exit status of a command whose reader closed the pipe it wrote to: that of one stopped by SIGPIPE. */
 const READER_GONE = 128 + 13;
 
+/** Threads the JSON report takes at most by default, on a machine of many cores. */
+const MAX_DEFAULT_WORKERS = 8;
+
 /**
  * What happens when the output cannot be written. A reader that stops reading (`| head`) closes the pipe: the
  * command ends there, quietly, as commands stopped by SIGPIPE do; any other failure (a full disk) is said in one
@@ -74,9 +77,9 @@ function startCommand(): number | Promise<number> {
     // `-`: standard input, read whole (file descriptor 0).
     stdin: () => readFileSync(0),
     // The JSON report shares the notes out to threads, this one among them, the others running this same script:
-    // one per core but one, as each thread's engine keeps about a core and a third busy with its compiler and
-    // collector threads (on two cores, a second thread was slower than none: README, Performance).
-    workers: Math.max(1, availableParallelism() - 1),
+    // one per core, at most eight, since each thread's engine compiles the same code again (about a second of
+    // CPU), which more threads than that do not win back on a folder of notes (README, Performance).
+    workers: Math.min(MAX_DEFAULT_WORKERS, availableParallelism()),
     workerScript: __filename,
   });
 }

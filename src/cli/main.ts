@@ -190,7 +190,7 @@ export function start(argv: readonly string[], io: Io): number | Promise<number>
     .addOption(
       new Option(
         '--workers <count>',
-        'threads the JSON report is analysed on, this one included, from 32 notes on (default: one per core but one; 1 keeps it on this thread)',
+        'threads the JSON report is analysed on, this one included, from 32 notes on (default: one per core, at most 8; 1 keeps it on this thread)',
       ).argParser(parseWorkers),
     )
     .action((paths: string[], opts: { format: string; status?: Status[]; wide?: boolean; workers?: number }) => {
