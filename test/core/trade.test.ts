@@ -211,7 +211,10 @@ describe('the temperature of a line from T_B, τ and T_bg', () => {
     assert.equal(deep.status, 'invalid');
     assert.equal(deep.results?.temperature ?? null, null);
     // Without a background nothing can absorb.
-    problem(`${CO}\nbrightness: -0.1 K\noptical-depth: 2`, 'absorption-too-deep');
+    assert.match(
+      problem(`${CO}\nbrightness: -0.1 K\noptical-depth: 2`, 'absorption-too-deep').message,
+      /without a background a line is seen only in emission/,
+    );
   });
 
   it('needs both keys and refuses them beside populations', () => {

@@ -289,10 +289,13 @@ function fromBrightness(input: BlockInput): BetaFinding {
   const problems: Problem[] = [];
   if (!beta && t0 > 0) {
     const floor = deepestAbsorption(line.opticalDepth.value, bg?.value ?? 0, t0);
+    const tb = line.brightness.value.toPrecision(4);
     problems.push({
       severity: 'error',
       code: 'absorption-too-deep',
-      message: `brightness: with τ = ${line.opticalDepth.value.toPrecision(3)}${bg ? ` against a background of ${bg.value.toPrecision(4)} K` : ' and no background'}, a line at any positive excitation temperature absorbs at most to ${floor.toPrecision(4)} K (T_B = (J(T_ex) − J(T_bg))(1 − e^(−τ))), so ${line.brightness.value.toPrecision(4)} K gives none. Check the signs of T_B and τ, and the background.`,
+      message: bg
+        ? `brightness: with τ = ${line.opticalDepth.value.toPrecision(3)} against a background of ${bg.value.toPrecision(4)} K, a line at any positive excitation temperature absorbs at most to ${floor.toPrecision(4)} K (T_B = (J(T_ex) − J(T_bg))(1 − e^(−τ))), so ${tb} K gives none. Check the signs of T_B and τ, and the background.`
+        : `brightness: without a background a line is seen only in emission (T_B = J(T_ex)(1 − e^(−τ)) > 0), so ${tb} K gives no excitation temperature. Give the \`background:\` the line absorbs against, or check the sign of T_B.`,
       span: line.brightness.span,
     });
   }

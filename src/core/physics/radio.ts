@@ -28,8 +28,9 @@ export function opticalDepthCorrection(tau: number | null): number {
 
 /**
  * The radiation temperature of a black body at T seen at a line whose
- * photon energy is t0 = hν/k (K): J(T) = t0/(e^(t0/T) − 1), which is T − t0/2
- * and less for T ≫ t0 (J → T, the Rayleigh–Jeans limit) and 0 at T → 0
+ * photon energy is t0 = hν/k (K): J(T) = t0/(e^(t0/T) − 1), about T − t0/2
+ * for T ≫ t0 (the Rayleigh–Jeans limit, where differences of J are those of T),
+ * and 0 at T → 0
  * (the form and its name: Rohlfs, Wilson & Hüttemeister, from memory; the
  * same function is the Starlink SCUBA library's SCULIB_JNU, "the
  * Rayleigh-Jeans corrected brightness temperature"). 0 for T ≤ 0.
