@@ -177,6 +177,8 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
       quantity: { value: value.value, uncertainty, unit: null, valueSpan: value.span, uncertaintySpan, unitSpan: null },
     };
   const rest = text.slice(i, end);
+  const power = powerOfTen(text, value, uncertaintySpan, i, end);
+  if (power) return power;
   if (looksNumeric(rest)) {
     return problem('number-invalid', `Unexpected \`${rest}\` after the number.`, { start: i, end });
   }
@@ -190,6 +192,66 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
       unitSpan: { start: i, end },
     },
   };
+}
+
+/** `× 10^3`, `x 10^-3`, `·10⁻³`, `* 10^3`, `×10³` after a number; `^3` after a bare `10`. Group 1 or 2: the power. */
+const TIMES_TEN = /^(?:[×xX*·⋅]\s*10\s*(?:\^\s*([+\-\u2212]?\d+)|([⁺⁻]?[⁰¹²³⁴⁵⁶⁷⁸⁹]+)))/;
+const BARE_TEN = /^(?:\^\s*([+\-\u2212]?\d+)|([⁺⁻]?[⁰¹²³⁴⁵⁶⁷⁸⁹]+))/;
+const SUPERSCRIPTS = '⁰¹²³⁴⁵⁶⁷⁸⁹';
+
+/**
+ * A power of ten written as in print (`1.2 × 10^3 cm-1`, `2.0 ± 0.1 × 10⁻³`, `10^16`): a `number-invalid` with a
+ * fix that writes it in e-notation (`1.2e3 cm-1`, `2.0e-3 ± 0.1e-3`, `1e16`). After `±` the power is taken as
+ * the printed `(2.0 ± 0.1) × 10⁻³` means it, for both numbers, unless the first already has its own exponent
+ * (`1.2e3 ± 0.1 × 10^3`: the uncertainty's alone). Null when what follows the number is not such a power.
+ */
+function powerOfTen(
+  text: string,
+  value: { readonly span: Span },
+  uncertaintySpan: Span | null,
+  at: number,
+  end: number,
+): { problem: QuantityProblem } | null {
+  const rest = text.slice(at, end);
+  const written = text.slice(value.span.start, value.span.end);
+  const times = TIMES_TEN.exec(rest);
+  const bare = !times && uncertaintySpan === null && /^[+\-\u2212]?10$/.test(written) ? BARE_TEN.exec(rest) : null;
+  const m = times ?? bare;
+  if (!m) return null;
+  const power = m[1] !== undefined ? Number(m[1].replace('\u2212', '-')) : Number(superscriptNumber(m[2]!));
+  const upTo = at + m[0].length;
+  let from = value.span.start;
+  let newText: string;
+  if (bare) newText = `${/^[-\u2212]/.test(written) ? '-' : ''}1e${power}`;
+  else if (uncertaintySpan && /[eE]/.test(written)) {
+    from = uncertaintySpan.start;
+    newText = withPower(text.slice(uncertaintySpan.start, uncertaintySpan.end), power);
+  } else {
+    newText = withPower(written, power);
+    if (uncertaintySpan)
+      newText += `${text.slice(value.span.end, uncertaintySpan.start)}${withPower(text.slice(uncertaintySpan.start, uncertaintySpan.end), power)}`;
+  }
+  const whole = { start: from, end: upTo };
+  return problem(
+    'number-invalid',
+    `Write the power of ten in e-notation: \`${text.slice(whole.start, whole.end)}\` is \`${newText}\` here.`,
+    whole,
+    { title: `Write ${newText}`, span: whole, newText },
+  );
+}
+
+/** A decimal as written, times 10^power, in e-notation: `1.2` → `1.2e3`, `1.2e2` → `1.2e5`, `−3` → `-3e3`. */
+function withPower(written: string, power: number): string {
+  const plain = written.replace(/\u2212/g, '-');
+  const m = /^([^eE]*)(?:[eE]([+-]?\d+))?$/.exec(plain)!;
+  return `${m[1]}e${Number(m[2] ?? 0) + power}`;
+}
+
+/** `⁻³` → `-3`. */
+function superscriptNumber(s: string): string {
+  let out = '';
+  for (const ch of s) out += ch === '⁻' ? '-' : ch === '⁺' ? '' : String(SUPERSCRIPTS.indexOf(ch));
+  return out;
 }
 
 /**

@@ -115,6 +115,16 @@ const ALIASES: Record<string, string> = {
   '/m': 'm-1',
   's^-1': 's-1',
   '/s': 's-1',
+  // With superscripts, as the SI Brochure (9th ed.) and papers print them.
+  'cm⁻¹': 'cm-1',
+  'cm⁻²': 'cm-2',
+  'cm⁻³': 'cm-3',
+  'm⁻¹': 'm-1',
+  'm⁻²': 'm-2',
+  'm⁻³': 'm-3',
+  's⁻¹': 's-1',
+  'cm²': 'cm2',
+  'm²': 'm2',
   // The degree sign, as people write angles (`10°`, `5 °`): SI Brochure (9th ed.) Table 8 writes the degree so.
   '°': 'deg',
 };
