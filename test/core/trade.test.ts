@@ -297,6 +297,16 @@ describe('column densities', () => {
     close(c.total!.value, linearRotorPartition(r.results!.temperature!.value, B_CO_K)! * 1.0e15, 1e-9, 'N total');
   });
 
+  it('reads populations written in percent as fractions on another scale, not as a unit mixed with others', () => {
+    // β = ln[(n_l/g_l)/(n_u/g_u)]/ΔE = ln(0.7/0.3)/(1 K) = 0.847 298 K⁻¹ (by hand), whichever scale.
+    for (const populations of ['[70 %, 30 %]', '[70 ± 1 %, 0.3]', '[0.7, 0.3]']) {
+      const r = block(`gap: 1 K\npopulations: ${populations}`).report;
+      assert.equal(r.status, 'normal', `${populations}: ${r.problems.map((p) => p.code).join(', ')}`);
+      close(r.results!.beta!.value, Math.log(0.7 / 0.3), 1e-12, populations);
+    }
+    problem('gap: 1064 nm\npopulations: [1e17 cm-3, 30 %]', 'populations-mixed-units');
+  });
+
   it('no longer offers cm-3 for cm-2, and refuses mixed units or column densities for a gain', () => {
     const p = problem('gap: 115.27 GHz\npopulations: [1e15 cm-2, 1e15 cm-3]', 'populations-mixed-units');
     assert.equal(p.fixes.length, 0);

@@ -52,7 +52,9 @@ export function readTransitionForm(ctx: ReadContext, byKey: ReadonlyMap<string, 
   }
   const g = readDegeneracies(ctx, byKey.get('g'));
   const measured = readTransitionMeasurement(ctx, byKey, ge);
-  const units = measured?.populations && !measured.ratio ? measured.populations.map((p) => p.unit) : [];
+  // Percentages are fractions on another scale, as plain numbers are: neither is a density.
+  const units =
+    measured?.populations && !measured.ratio ? measured.populations.map((p) => (p.unit === '%' ? null : p.unit)) : [];
   const columns = units.length > 0 && units.every((u) => u !== null && acceptsUnit(u, 'column'));
   const densities = units.length > 0 && units.every((u) => u !== null && acceptsUnit(u, 'density'));
   if (units.length > 0 && !columns && !densities && units.some((u) => u !== null)) {
