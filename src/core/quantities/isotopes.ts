@@ -322,14 +322,17 @@ function normaliseSymbol(text: string): string | null {
 
 /**
  * Finds a species by its symbol. Only the exact symbol is accepted (`13C`,
- * `electron`); any other spelling gives a suggestion: first by normalising
+ * `electron`, and `¹³C` with the mass number as a superscript, as print
+ * writes it); any other spelling gives a suggestion: first by normalising
  * (mass number first, element capitalised: `C13`, `13c`, `Xe129`, `13 C` →
  * `13C`; `Electron`, `e-` → `electron`), then by edit distance ≤ 2 on the
  * lower-cased text. Never throws.
  *
  * @returns `{ species }`, or `{ suggestion }` with the intended symbol or null.
  */
-export function lookupSpecies(text: string): { species: SpinSpecies } | { suggestion: string | null } {
+export function lookupSpecies(written: string): { species: SpinSpecies } | { suggestion: string | null } {
+  // The mass number as print writes it, a superscript before the symbol (`¹³C`, `¹²⁹Xe`), is the same isotope.
+  const text = /^\s*[⁰¹²³⁴⁵⁶⁷⁸⁹]/.test(written) ? written.replace(/[⁰¹²³⁴⁵⁶⁷⁸⁹]/g, superscriptDigit) : written;
   const exact = TABLE.get(text);
   if (exact) return { species: exact };
   const trimmed = text.trim();
@@ -353,6 +356,11 @@ export function lookupSpecies(text: string): { species: SpinSpecies } | { sugges
   if (first !== undefined) return { suggestion: first };
   const limit = trimmed.length <= 3 ? 1 : 2;
   return { suggestion: closest(normal ?? trimmed, symbols, limit, { ignoreCase: true }) };
+}
+
+/** `¹` → `1`. */
+function superscriptDigit(ch: string): string {
+  return String('⁰¹²³⁴⁵⁶⁷⁸⁹'.indexOf(ch));
 }
 
 /**

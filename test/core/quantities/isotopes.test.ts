@@ -220,6 +220,19 @@ describe('lookupSpecies', () => {
     for (const symbol of speciesSymbols()) assert.ok('species' in lookupSpecies(symbol), symbol);
   });
 
+  it('reads the mass number written as a superscript, as print writes isotopes, as the same isotope', () => {
+    const sup = (n: string): string => n.replace(/\d/g, (d) => '⁰¹²³⁴⁵⁶⁷⁸⁹'[Number(d)]!);
+    for (const symbol of speciesSymbols().filter((x) => /^\d/.test(x))) {
+      const found = lookupSpecies(sup(symbol));
+      assert.ok('species' in found, sup(symbol));
+      assert.equal(found.species.symbol, symbol);
+    }
+    // A superscript mass number of a nucleus the table lacks (12C has no spin) is suggested like the plain one.
+    assert.deepEqual(lookupSpecies('¹²C'), lookupSpecies('12C'));
+    assert.ok(!('species' in lookupSpecies('¹²C')));
+    assert.deepEqual(lookupSpecies('C¹³'), { suggestion: null });
+  });
+
   const misspellings: ReadonlyArray<readonly [string, string]> = [
     ['C13', '13C'],
     ['c13', '13C'],
