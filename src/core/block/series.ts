@@ -19,7 +19,7 @@ import {
   type ReadValue,
 } from './values';
 import { entries, isMap, type Entry } from './yamlTree';
-import { convert, parseQuantity } from '../quantities/units';
+import { convert, formatUnitList, parseQuantity } from '../quantities/units';
 
 /** Fewest points that determine each model's parameters. */
 export const SERIES_PARAMETERS = { decay: 2, buildup: 3 } as const;
@@ -152,7 +152,7 @@ function timeUnit(ctx: ReadContext, x: Entry): string | null {
       ctx,
       'error',
       'unit-unknown',
-      `series: \`${x.key}\` gives the times' unit after the slash; \`${unit}\` is not a time unit (s, ms, min, h).`,
+      `series: \`${x.key}\` gives the times' unit after the slash; \`${unit}\` is not a time unit (${formatUnitList('time')}).`,
       x.keySpan,
     );
     return null;

@@ -172,6 +172,10 @@ const CONVERSIONS: ReadonlyArray<readonly [text: string, dim: Dimension, expecte
   ['1 T', 'field', 1, 0],
   ['1 mT', 'field', 1e-3, 1e-16], // [P]
   ['1 G', 'field', 1e-4, 1e-16], // [P] 1 G = 10⁻⁴ T
+  ['1 kG', 'field', 0.1, 1e-16], // [P] 1 kG = 10³ G
+  ['50 µT', 'field', 5e-5, 1e-15], // [P]
+  ['50 uT', 'field', 5e-5, 1e-15], // [P]
+  ['50 nT', 'field', 5e-8, 1e-15], // [P]
   ['1.4 K', 'temperature', 1.4, 0],
   ['1 mK', 'temperature', 1e-3, 1e-16], // [P]
   ['1 µK', 'temperature', 1e-6, 1e-16], // [P]
@@ -183,6 +187,8 @@ const CONVERSIONS: ReadonlyArray<readonly [text: string, dim: Dimension, expecte
   ['1 s', 'time', 1, 0],
   ['1 ms', 'time', 1e-3, 1e-16], // [P]
   ['1 min', 'time', 60, 0], // [P]
+  ['1 µs', 'time', 1e-6, 1e-16], // [P]
+  ['1 ns', 'time', 1e-9, 1e-16], // [P]
   ['1 h', 'time', 3600, 0], // [P]
   ['180 deg', 'angle', Math.PI, 1e-15], // [P] 1° = π/180 rad
   ['1 rad', 'angle', 1, 0],
@@ -432,7 +438,7 @@ describe('convert', () => {
 
 describe('unit lists', () => {
   it('lists the canonical units of each dimension for completion', () => {
-    assert.deepEqual(unitsFor('field'), ['T', 'mT', 'G']);
+    assert.deepEqual(unitsFor('field'), ['T', 'mT', 'µT', 'nT', 'G', 'kG']);
     assert.deepEqual(unitsFor('temperature'), ['K', 'mK', 'µK', 'nK', '°C']);
     assert.deepEqual(unitsFor('energy'), ['J', 'eV', 'meV', 'µeV', 'cm-1', 'Hz', 'kHz', 'MHz', 'GHz', 'THz', 'K']);
     assert.deepEqual(unitsFor('wavelengthEnergy').slice(-5), ['nm', 'µm', 'Å', 'mm', 'cm']);
@@ -440,6 +446,6 @@ describe('unit lists', () => {
   });
 
   it('formats a unit list for messages', () => {
-    assert.equal(formatUnitList('time'), 's, ms, min, h');
+    assert.equal(formatUnitList('time'), 's, ms, µs, ns, min, h');
   });
 });

@@ -193,7 +193,7 @@ describe('completion', () => {
 
   describe('of units', () => {
     it('offers the field units after a field value', () => {
-      check(note('system: 13C', 'field: 9.4 $0'), ['T', 'mT', 'G']);
+      check(note('system: 13C', 'field: 9.4 $0'), ['T', 'mT', 'µT', 'nT', 'G', 'kG']);
     });
 
     it('replaces a partly typed unit', () => {
