@@ -149,7 +149,11 @@ function scanNumber(text: string, start: number): Scanned {
  * a negative uncertainty is `uncertainty-negative`. Spans are offsets in `text`.
  */
 export function parseQuantity(text: string): { quantity: Quantity } | { problem: QuantityProblem } {
-  const value = scanNumber(text, skipSpace(text, 0));
+  const start = skipSpace(text, 0);
+  // A result and its uncertainty in brackets before the unit, as the GUM writes it (JCGM 100:2008 §7.2.2):
+  // `(7.05 ± 0.01) T` is `7.05 ± 0.01 T`.
+  const bracket = codeAt(text, start) === 40; /* ( */
+  const value = scanNumber(text, bracket ? skipSpace(text, start + 1) : start);
   if ('problem' in value) return value;
   let i = skipSpace(text, value.span.end);
   let uncertainty: number | null = null;
@@ -171,13 +175,24 @@ export function parseQuantity(text: string): { quantity: Quantity } | { problem:
     [uncertainty, uncertaintySpan] = [Math.abs(u.value), u.span];
     i = skipSpace(text, u.span.end);
   }
+  if (bracket) {
+    if (codeAt(text, i) !== 41 /* ) */) {
+      const upTo = text.indexOf(')', i);
+      return problem(
+        'number-invalid',
+        'A bracket holds the number and its uncertainty, then closes before the unit: `(7.05 ± 0.01) T`.',
+        { start, end: upTo === -1 ? text.trimEnd().length : upTo + 1 },
+      );
+    }
+    i = skipSpace(text, i + 1);
+  }
   const end = text.trimEnd().length;
   if (i >= end)
     return {
       quantity: { value: value.value, uncertainty, unit: null, valueSpan: value.span, uncertaintySpan, unitSpan: null },
     };
   const rest = text.slice(i, end);
-  const power = powerOfTen(text, value, uncertaintySpan, i, end);
+  const power = powerOfTen(text, value, uncertaintySpan, i, end, bracket ? start : null);
   if (power) return power;
   if (looksNumeric(rest)) {
     return problem('number-invalid', `Unexpected \`${rest}\` after the number.`, { start: i, end });
@@ -200,10 +215,10 @@ const BARE_TEN = /^(?:\^\s*([+\-\u2212]?\d+)|([⁺⁻]?[⁰¹²³⁴⁵⁶⁷⁸
 const SUPERSCRIPTS = '⁰¹²³⁴⁵⁶⁷⁸⁹';
 
 /**
- * A power of ten written as in print (`1.2 × 10^3 cm-1`, `2.0 ± 0.1 × 10⁻³`, `10^16`): a `number-invalid` with a
- * fix that writes it in e-notation (`1.2e3 cm-1`, `2.0e-3 ± 0.1e-3`, `1e16`). After `±` the power is taken as
- * the printed `(2.0 ± 0.1) × 10⁻³` means it, for both numbers, unless the first already has its own exponent
- * (`1.2e3 ± 0.1 × 10^3`: the uncertainty's alone). Null when what follows the number is not such a power.
+ * A power of ten written as in print (`1.2 × 10^3 cm-1`, `(2.0 ± 0.1) × 10⁻³`, `10^16`): a `number-invalid`
+ * with a fix that writes it in e-notation (`1.2e3 cm-1`, `2.0e-3 ± 0.1e-3`, `1e16`). After `±` without brackets
+ * the power is taken as the bracketed form means it, for both numbers, unless the first already has its own
+ * exponent (`1.2e3 ± 0.1 × 10^3`: the uncertainty's alone). Null when what follows is not such a power.
  */
 function powerOfTen(
   text: string,
@@ -211,25 +226,28 @@ function powerOfTen(
   uncertaintySpan: Span | null,
   at: number,
   end: number,
+  bracketAt: number | null,
 ): { problem: QuantityProblem } | null {
   const rest = text.slice(at, end);
   const written = text.slice(value.span.start, value.span.end);
   const times = TIMES_TEN.exec(rest);
-  const bare = !times && uncertaintySpan === null && /^[+\-\u2212]?10$/.test(written) ? BARE_TEN.exec(rest) : null;
+  const bare =
+    !times && uncertaintySpan === null && bracketAt === null && /^[+\-\u2212]?10$/.test(written)
+      ? BARE_TEN.exec(rest)
+      : null;
   const m = times ?? bare;
   if (!m) return null;
   const power = m[1] !== undefined ? Number(m[1].replace('\u2212', '-')) : Number(superscriptNumber(m[2]!));
   const upTo = at + m[0].length;
-  let from = value.span.start;
+  let from = bracketAt ?? value.span.start;
   let newText: string;
   if (bare) newText = `${/^[-\u2212]/.test(written) ? '-' : ''}1e${power}`;
-  else if (uncertaintySpan && /[eE]/.test(written)) {
+  else if (uncertaintySpan && bracketAt === null && /[eE]/.test(written)) {
     from = uncertaintySpan.start;
     newText = withPower(text.slice(uncertaintySpan.start, uncertaintySpan.end), power);
   } else {
     newText = withPower(written, power);
-    if (uncertaintySpan)
-      newText += `${text.slice(value.span.end, uncertaintySpan.start)}${withPower(text.slice(uncertaintySpan.start, uncertaintySpan.end), power)}`;
+    if (uncertaintySpan) newText += ` ± ${withPower(text.slice(uncertaintySpan.start, uncertaintySpan.end), power)}`;
   }
   const whole = { start: from, end: upTo };
   return problem(

@@ -128,6 +128,9 @@ const ALIASES: Record<string, string> = {
   'cm^-2': 'cm-2',
   'm^-2': 'm-2',
   '\u212B': 'Å',
+  // The kelvin and degree-Celsius signs of Unicode's compatibility block, as some PDFs and keyboards give them.
+  '\u212A': 'K',
+  '\u2103': '°C',
   'm^-3': 'm-3',
   'cm^2': 'cm2',
   'm^2': 'm2',
