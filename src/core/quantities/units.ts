@@ -298,6 +298,16 @@ function unitProblem(quantity: Quantity, unit: string, dim: Dimension): { proble
   const needed = `${DIMENSION_NAMES[dim]} (${formatUnitList(dim)})`;
   const cased = resolveIgnoringCase(unit, dim);
   if (cased !== null) return fix('unit-case', `Units are case-sensitive: \`${unit}\` is not \`${cased}\`.`, cased);
+  // A remark in brackets after a good unit (`77 K (LN2)`): say where remarks go.
+  const remark = /^(\S+)\s*(\([^()]*\)|\[[^[\]]*\])$/.exec(unit);
+  const kept = remark ? resolve(remark[1]!, dim) : null;
+  if (remark && kept !== null)
+    return problem(
+      'unit-unknown',
+      `\`${remark[2]}\` after \`${remark[1]}\` is read as part of the unit. A remark goes after \`#\` (a YAML comment) or under \`note:\`.`,
+      span,
+      { title: `Change unit to ${kept}, dropping ${remark[2]}`, span, newText: kept },
+    );
   const normal = normaliseUnit(unit);
   const meant = resolve(normal, dim) ?? resolveIgnoringCase(normal, dim);
   if (meant !== null) return fix('unit-unknown', `Unknown unit \`${unit}\`; did you mean \`${meant}\`?`, meant);

@@ -272,6 +272,24 @@ describe('powers of ten written as in print', () => {
   });
 });
 
+describe('a remark in brackets after a unit', () => {
+  it('says where remarks go, with a fix that keeps the unit, and only after a unit of the right kind', () => {
+    const p = problemOf('77 K (LN2)', 'temperature');
+    assert.equal(p.code, 'unit-unknown');
+    assert.match(p.message, /`\(LN2\)` after `K` is read as part of the unit\. A remark goes after `#`/);
+    assert.deepEqual(p.span, { start: 3, end: 10 });
+    assert.deepEqual(p.replacement, {
+      title: 'Change unit to K, dropping (LN2)',
+      span: { start: 3, end: 10 },
+      newText: 'K',
+    });
+    assert.equal(problemOf('9.4 T [nominal]', 'field').replacement?.newText, 'T');
+    // Not a unit of the key's kind, or not a unit at all: the usual message.
+    assert.doesNotMatch(problemOf('77 Q (LN2)', 'temperature').message, /remark/);
+    assert.doesNotMatch(problemOf('9.4 K (x)', 'field').message, /remark/);
+  });
+});
+
 describe('units as print and PDFs write them', () => {
   it('reads cm⁻¹, cm⁻³, cm⁻², m⁻³, m⁻¹, s⁻¹, cm² and m² as their plain spellings', () => {
     const pairs: [string, string, Dimension][] = [
