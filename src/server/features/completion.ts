@@ -294,9 +294,13 @@ const CANONICAL: Partial<Record<Dimension, string>> = {
 };
 
 const NUM = String.raw`[+\-\u2212]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+\-\u2212]?\d+)?`;
-/** A number, an optional `± u`, optional spaces and the start of a unit, at the end of the text before the cursor. */
+const PM = String.raw`\s*(?:±|\+\/-|\+-)\s*`;
+/**
+ * A number with an optional `± u`, or both in brackets as the GUM writes them (`(7.05 ± 0.01)`), then optional
+ * spaces and the start of a unit, at the end of the text before the cursor.
+ */
 const AFTER_NUMBER = new RegExp(
-  String.raw`(${NUM})(?:\s*(?:±|\+\/-|\+-)\s*${NUM})?(\s*)([A-Za-zµμ°/^][^\s,\]}"'#]*|)$`,
+  String.raw`(?:\(\s*${NUM}(?:${PM}${NUM})?\s*\)|${NUM}(?:${PM}${NUM})?)(?<space>\s*)(?<partial>[A-Za-zµμ°/^][^\s,\]}"'#]*|)$`,
 );
 
 /** The key whose value the number starting at `at` belongs to: `key: 9.4`, `key: [0.4, 0.6`, or a `- 0.4` item. */
@@ -330,7 +334,7 @@ function unitItems(body: Body, position: Position, before: string): CompletionIt
   const key = m ? valueKey(body, before, m.index) : null;
   const dim = key !== null ? UNIT_KEYS[key] : undefined;
   if (!m || dim === undefined) return null;
-  const [, , space, partial] = m;
+  const { space, partial } = m.groups as { space: string; partial: string };
   // Right after the number (`1.`) the unit needs its separating space.
   const lead = space === '' ? ' ' : '';
   return unitsFor(dim).map((unit, i) => ({

@@ -196,6 +196,11 @@ describe('completion', () => {
       check(note('system: 13C', 'field: 9.4 $0'), ['T', 'mT', 'µT', 'nT', 'G', 'kG']);
     });
 
+    it('offers them after a value and its uncertainty in brackets, as the GUM writes a result', () => {
+      check(note('system: 13C', 'field: (9.4 ± 0.1) $0'), ['T', 'mT', 'µT', 'nT', 'G', 'kG']);
+      check(note('system: 13C', 'lattice: (300 +- 1) $0'), ['K', 'mK', 'µK', 'nK', '°C']);
+    });
+
     it('replaces a partly typed unit', () => {
       const mt = itemsAt(note('system: 13C', 'field: 9.4 M$0')).find((i) => i.label === 'mT');
       assert.deepEqual(mt!.textEdit, {
