@@ -9,6 +9,7 @@
  */
 import { BOHR_MAGNETON, BOLTZMANN, CODATA_EDITION, ELECTRON_GYROMAGNETIC_RATIO, HBAR } from './constants';
 import { closest } from '../text/suggest';
+import { fromSuperscript } from './quantityText';
 
 /** A particle with a spin in a magnetic field. */
 export interface SpinSpecies {
@@ -332,7 +333,7 @@ function normaliseSymbol(text: string): string | null {
  */
 export function lookupSpecies(written: string): { species: SpinSpecies } | { suggestion: string | null } {
   // The mass number as print writes it, a superscript before the symbol (`¹³C`, `¹²⁹Xe`), is the same isotope.
-  const text = /^\s*[⁰¹²³⁴⁵⁶⁷⁸⁹]/.test(written) ? written.replace(/[⁰¹²³⁴⁵⁶⁷⁸⁹]/g, superscriptDigit) : written;
+  const text = /^\s*[⁰¹²³⁴⁵⁶⁷⁸⁹]/.test(written) ? fromSuperscript(written) : written;
   const exact = TABLE.get(text);
   if (exact) return { species: exact };
   const trimmed = text.trim();
@@ -356,11 +357,6 @@ export function lookupSpecies(written: string): { species: SpinSpecies } | { sug
   if (first !== undefined) return { suggestion: first };
   const limit = trimmed.length <= 3 ? 1 : 2;
   return { suggestion: closest(normal ?? trimmed, symbols, limit, { ignoreCase: true }) };
-}
-
-/** `¹` → `1`. */
-function superscriptDigit(ch: string): string {
-  return String('⁰¹²³⁴⁵⁶⁷⁸⁹'.indexOf(ch));
 }
 
 /**

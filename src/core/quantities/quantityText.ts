@@ -237,7 +237,7 @@ function powerOfTen(
       : null;
   const m = times ?? bare;
   if (!m) return null;
-  const power = m[1] !== undefined ? Number(m[1].replace('\u2212', '-')) : Number(superscriptNumber(m[2]!));
+  const power = m[1] !== undefined ? Number(m[1].replace('\u2212', '-')) : Number(fromSuperscript(m[2]!));
   const upTo = at + m[0].length;
   let from = bracketAt ?? value.span.start;
   let newText: string;
@@ -265,10 +265,13 @@ function withPower(written: string, power: number): string {
   return `${m[1]}e${Number(m[2] ?? 0) + power}`;
 }
 
-/** `⁻³` → `-3`. */
-function superscriptNumber(s: string): string {
+/** Superscript digits and signs as plain ones: `⁻³` → `-3`, `¹²⁹Xe` → `129Xe` (other characters kept). */
+export function fromSuperscript(s: string): string {
   let out = '';
-  for (const ch of s) out += ch === '⁻' ? '-' : ch === '⁺' ? '' : String(SUPERSCRIPTS.indexOf(ch));
+  for (const ch of s) {
+    const digit = SUPERSCRIPTS.indexOf(ch);
+    out += digit >= 0 ? String(digit) : ch === '⁻' ? '-' : ch === '⁺' ? '' : ch;
+  }
   return out;
 }
 
