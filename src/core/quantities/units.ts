@@ -138,16 +138,6 @@ const ALIASES: Record<string, string> = {
   '/m': 'm-1',
   's^-1': 's-1',
   '/s': 's-1',
-  // With superscripts, as the SI Brochure (9th ed.) and papers print them.
-  'cm⁻¹': 'cm-1',
-  'cm⁻²': 'cm-2',
-  'cm⁻³': 'cm-3',
-  'm⁻¹': 'm-1',
-  'm⁻²': 'm-2',
-  'm⁻³': 'm-3',
-  's⁻¹': 's-1',
-  'cm²': 'cm2',
-  'm²': 'm2',
   // The degree sign, as people write angles (`10°`, `5 °`): SI Brochure (9th ed.) Table 8 writes the degree so.
   '°': 'deg',
 };
@@ -211,6 +201,11 @@ for (const dim of DIMENSIONS) {
   const spelled = new Map<string, string>(Object.keys(TABLE[dim]).map((u) => [u, u]));
   for (const [alias, canonical] of Object.entries(ALIASES)) {
     if (!spelled.has(alias) && Object.hasOwn(TABLE[dim], canonical)) spelled.set(alias, canonical);
+  }
+  // Each canonical unit with a power also as the SI Brochure (9th ed.) and papers print it: cm-1 as cm⁻¹, cm2 as cm².
+  for (const unit of Object.keys(TABLE[dim])) {
+    const power = /^([a-z]+)(-?)(\d)$/.exec(unit);
+    if (power) spelled.set(`${power[1]}${power[2] ? '⁻' : ''}${'⁰¹²³⁴⁵⁶⁷⁸⁹'[Number(power[3])]}`, unit);
   }
   RESOLVED[dim] = spelled;
 }

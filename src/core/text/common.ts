@@ -92,6 +92,9 @@ export const QUOTE_CHARS = 60;
 /** Characters of an id or a label shown as a name (a hover's title, the outline); the reports keep it whole. */
 export const NAME_CHARS = 80;
 
+/** A quotation between backticks longer than {@link QUOTE_CHARS}. */
+const LONG_QUOTE = new RegExp(`\`([^\`]{${QUOTE_CHARS + 1},})\``, 'g');
+
 /** A message no longer than this whole, when even its quotations clipped leave it longer. */
 const MESSAGE_CHARS = 2000;
 
@@ -111,6 +114,6 @@ export function clipText(s: string, max = QUOTE_CHARS): string {
  */
 export function clipQuotes(message: string): string {
   if (message.length <= 2 * QUOTE_CHARS) return message;
-  const clipped = message.replace(/`([^`]{61,})`/g, (_, quoted: string) => `\`${clipText(quoted)}\``);
+  const clipped = message.replace(LONG_QUOTE, (_, quoted: string) => `\`${clipText(quoted)}\``);
   return clipText(clipped, MESSAGE_CHARS);
 }
