@@ -66,3 +66,8 @@ export function displayOptions(s: Settings): DisplayOptions {
     percent: s.polarization === 'percent',
   };
 }
+
+/** The range from `length` characters before the cursor to the cursor. */
+export function back(position: Position, length: number): Range {
+  return { start: { line: position.line, character: position.character - length }, end: position };
+}

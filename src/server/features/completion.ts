@@ -2,19 +2,12 @@
  * Completions. Inside a block: keys at a key position (never one already in
  * that mapping, nor one of another form), isotope symbols after `system:`,
  * units after a number. Outside blocks, at a line start: snippets that
- * insert a new block.
+ * insert a new block (newBlocks.ts).
  *
  * The context is read from the lines' text rather than from the YAML tree:
  * while a line is being typed the block is usually not valid YAML.
  */
-import {
-  CompletionItemKind,
-  InsertTextFormat,
-  MarkupKind,
-  type CompletionItem,
-  type Position,
-  type Range,
-} from 'vscode-languageserver';
+import { CompletionItemKind, MarkupKind, type CompletionItem, type Position, type Range } from 'vscode-languageserver';
 import {
   BLOCK_KEYS,
   keyFitsForm,
@@ -30,7 +23,8 @@ import {
   type Dimension,
   type KeyDoc,
 } from '../../core';
-import { blockAt, toOffset, type NoteState } from '../state';
+import { back, blockAt, toOffset, type NoteState } from '../state';
+import { snippetItems } from './newBlocks';
 
 /**
  * The completions at a position. `snippets` is false for a client without
@@ -150,11 +144,6 @@ function flowKeys(lineText: string, brace: number): Set<string> {
   const close = lineText.indexOf('}', brace);
   const inside = lineText.slice(brace + 1, close < 0 ? lineText.length : close);
   return new Set([...inside.matchAll(/(?:^|,)\s*([A-Za-z_][\w-]*)\s*:/g)].map((m) => m[1]));
-}
-
-/** The range from `length` characters before the cursor to the cursor. */
-function back(position: Position, length: number): Range {
-  return { start: { line: position.line, character: position.character - length }, end: position };
 }
 
 // ---- keys ----
@@ -346,72 +335,4 @@ function unitItems(body: Body, position: Position, before: string): CompletionIt
     // A `frequency` is written in hertz far more often than in other energy units.
     sortText: `${key === 'frequency' && unit.endsWith('Hz') ? 0 : 1}${String(i).padStart(3, '0')}`,
   }));
-}
-
-// ---- new blocks ----
-
-/**
- * The new-block templates. Every value is a placeholder word, never a plausible number: a template
- * left as inserted must show errors, not quietly record a run nobody measured.
- */
-const TEMPLATES: readonly { readonly label: string; readonly detail: string; readonly body: readonly string[] }[] = [
-  {
-    label: 'levels block',
-    detail: 'a spin in a field, with its polarization',
-    body: [
-      'id: ${1:run name}',
-      'system: ${2:isotope}',
-      'field: ${3:field with unit}',
-      'lattice: ${4:bath temperature with unit}',
-      'polarization: ${5:measured P}',
-    ],
-  },
-  {
-    label: 'levels block (transition)',
-    detail: 'a single transition with degeneracies',
-    body: [
-      'id: ${1:line name}',
-      'gap: ${2:energy or wavelength with unit}',
-      'g: [${3:g lower}, ${4:g upper}]',
-      'ratio: ${5:n upper / n lower}',
-    ],
-  },
-  {
-    label: 'levels block (explicit levels)',
-    detail: 'levels with energies, degeneracies and populations',
-    body: [
-      'id: ${1:scheme name}',
-      'levels:',
-      '  - { label: ${2:lower}, energy: ${3:energy with unit}, g: ${4:g}, population: ${5:n} }',
-      '  - { label: ${6:upper}, energy: ${7:energy with unit}, g: ${8:g}, population: ${9:n} }',
-    ],
-  },
-];
-
-/** Snippets for a new block, offered at a line start (optionally after a typed fence). */
-function snippetItems(position: Position, before: string, snippets: boolean): CompletionItem[] {
-  const m = /^ {0,3}((`{1,3}|~{1,3})?[A-Za-z-]*)$/.exec(before);
-  if (!m) return [];
-  const fence = m[2]?.startsWith('~') ? '~~~' : '```';
-  return TEMPLATES.map((t, i) => {
-    const text = [`${fence}levels`, ...t.body, fence].join('\n');
-    return {
-      label: t.label,
-      kind: CompletionItemKind.Snippet,
-      detail: t.detail,
-      insertTextFormat: snippets ? InsertTextFormat.Snippet : InsertTextFormat.PlainText,
-      textEdit: { range: back(position, m[1].length), newText: snippets ? text : plainSnippet(text) },
-      filterText: `${m[2] ?? ''}${t.label}`,
-      sortText: String(i),
-    };
-  });
-}
-
-/**
- * A snippet as plain text (LSP 3.17 snippet syntax): each placeholder
- * `${n:default}` becomes its default, and tab stops `$n` / `${n}` vanish.
- * The templates hold no nested placeholders, choices or escaped `$`.
- */
-export function plainSnippet(snippet: string): string {
-  return snippet.replace(/\$\{\d+:([^}]*)\}/g, '$1').replace(/\$\{\d+\}|\$\d+/g, '');
 }

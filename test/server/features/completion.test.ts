@@ -1,6 +1,7 @@
 import { strict as assert } from 'node:assert';
 import type { CompletionItem, TextEdit } from 'vscode-languageserver';
-import { completion, plainSnippet } from '../../../src/server/features/completion';
+import { completion } from '../../../src/server/features/completion';
+import { plainSnippet } from '../../../src/server/features/newBlocks';
 import { note, noteState, withCursor } from '../helpers';
 
 /** The items at the cursor marker. */
