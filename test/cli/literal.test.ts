@@ -138,4 +138,42 @@ describe('note text in the outputs people read', () => {
       rmSync(dir, { recursive: true, force: true });
     }
   });
+
+  it('writes no escape sequence and no text-reordering character into a CSV, line points, the table or Markdown', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'boltzmark-csv-tty-'));
+    try {
+      // ESC clears the screen, OSC 52 writes the clipboard, C1 CSI; U+202E turns `safe‮gnp.exe` into `safeexe.png` (UAX #9).
+      const id = '\u001b[2J\u001b]52;c;aGk=\u0007safe\u202egnp.exe\u009b2J\u2066x\u2069\u200b\ufeff';
+      const label = '\u001b]8;;http://evil.example\u0007L\u001b]8;;\u0007';
+      writeFileSync(
+        join(dir, 'n.md'),
+        [
+          '```levels',
+          `id: ${JSON.stringify(id)}`,
+          'detector: energy',
+          'wavelengths: vacuum',
+          'lines:',
+          `  - { label: ${JSON.stringify(label)}, wavelength: 500 nm, upper: 3.0 eV, g: 1, A: 1e7, intensity: 1000 }`,
+          '  - { label: b, wavelength: 500 nm, upper: 3.5 eV, g: 1, A: 1e7, intensity: 560 }',
+          '  - { label: c, wavelength: 500 nm, upper: 4.0 eV, g: 1, A: 1e7, intensity: 313 }',
+          '```',
+          '',
+        ].join('\n'),
+      );
+      const bidi = /[\u202a-\u202e\u2066-\u2069\u200b\ufeff]/;
+      for (const format of ['csv', 'line-points', 'table', 'markdown']) {
+        const r = run(['report', 'n.md', '--format', format], dir);
+        // A CSV ends each record with CRLF (RFC 4180); nothing else of C0, DEL or C1 may be left.
+        const out = r.out.replace(/\r\n/g, '\n');
+        assert.ok(!CONTROL.test(out), `${format}: ${JSON.stringify(out)}`);
+        assert.ok(!bidi.test(out), `${format}: ${JSON.stringify(out)}`);
+        assert.ok(
+          out.replace(/\\/g, '').includes('safegnp.exe'),
+          `${format}: the id's printable text stays: ${JSON.stringify(out)}`,
+        );
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
 });

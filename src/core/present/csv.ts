@@ -14,8 +14,12 @@
  * take as "this is text", unless the whole field is a plain decimal number
  * (`-3.5`, `+2e-7`), which a spreadsheet reads as that number and never as a
  * formula. The list of characters and the `'` are OWASP's advice ("CSV
- * Injection", owasp.org/www-community/attacks/CSV_Injection).
+ * Injection", owasp.org/www-community/attacks/CSV_Injection). Control
+ * characters other than tab, CR and LF (RFC 4180's TEXTDATA has none; ESC
+ * would drive a terminal the CSV is printed on) and the invisible characters
+ * that reorder text are removed first.
  */
+import { withoutControls } from './literal';
 import { formatPlainNumber } from './numbers';
 
 /** One field: text, a number, or null for an empty field. */
@@ -41,7 +45,7 @@ export function guardFormula(text: string): string {
 /** One field as CSV text: guarded, then quoted when RFC 4180 requires it. */
 export function csvField(value: CsvField): string {
   if (value === null) return '';
-  const text = typeof value === 'number' ? formatPlainNumber(value) : guardFormula(value);
+  const text = typeof value === 'number' ? formatPlainNumber(value) : guardFormula(withoutControls(value));
   return NEEDS_QUOTES.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 

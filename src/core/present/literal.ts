@@ -16,6 +16,30 @@
 // eslint-disable-next-line no-control-regex
 const CONTROLS = /[\u0000-\u001f\u007f-\u009f]/g;
 
+/**
+ * The invisible format characters that reorder or hide text on a display
+ * (Unicode Standard Annex #9, the bidirectional algorithm: the embeddings
+ * and overrides U+202A–U+202E, the isolates U+2066–U+2069 and the marks
+ * U+200E, U+200F, U+061C), and the zero-width space, word joiner and byte
+ * order mark (U+200B, U+2060, U+FEFF): an id written `safe\u202Egnp.exe`
+ * would show as `safeexe.png`. The zero-width joiner and non-joiner stay:
+ * scripts and emoji need them.
+ */
+const INVISIBLE = /[\u061c\u200b\u200e\u200f\u202a-\u202e\u2060\u2066-\u2069\ufeff]/g;
+
+/** Every control character but tab, LF and CR, which a CSV field may hold quoted. */
+// eslint-disable-next-line no-control-regex
+const CONTROLS_BUT_BREAKS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/g;
+
+/**
+ * Text for a file that may be printed on a terminal or opened in another
+ * program (a CSV): control characters but tab, LF and CR removed, and the
+ * invisible characters that reorder or hide text.
+ */
+export function withoutControls(text: string): string {
+  return text.replace(CONTROLS_BUT_BREAKS, '').replace(INVISIBLE, '');
+}
+
 /** Tab and line breaks, which would break a line or a table cell apart. */
 const BREAKS = /[\t\n\v\f\r\u0085\u2028\u2029]/g;
 
@@ -26,7 +50,7 @@ const BREAKS = /[\t\n\v\f\r\u0085\u2028\u2029]/g;
  * and harmless).
  */
 export function terminalText(text: string): string {
-  return text.replace(BREAKS, ' ').replace(CONTROLS, '');
+  return text.replace(BREAKS, ' ').replace(CONTROLS, '').replace(INVISIBLE, '');
 }
 
 /**

@@ -9,7 +9,8 @@ import type { PlotPointResult } from '../analysis/trade';
 import type { BlockInput } from '../block/input';
 import { KELVIN_PER_EV, KELVIN_PER_WAVENUMBER } from '../quantities/constants';
 import type { DisplayOptions } from './displayOptions';
-import { formatMeasured, formatNumber, formatPlainNumber, formatTemperature } from './numbers';
+import { formatMeasured, formatNumber, formatTemperature } from './numbers';
+import { csvText, type CsvField } from './csv';
 
 /** A label and its value, as display text. */
 export type TradeRow = readonly [string, string];
@@ -122,18 +123,6 @@ export function linePointRows(r: BlockResults, index: number, o: DisplayOptions)
   return rows;
 }
 
-/**
- * One cell of the per-line CSV: numbers in plain ASCII; text quoted when it
- * holds a quote, comma or line break, and prefixed with `'` when a
- * spreadsheet would read it as a formula (labels and ids are a note's text).
- */
-function cell(v: string | number | null): string {
-  if (v === null) return '';
-  if (typeof v === 'number') return Number.isFinite(v) ? formatPlainNumber(v) : '';
-  const s = /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 /** A block's place and its results, for {@link linesCsv}. */
 export interface LinesCsvBlock {
   readonly file: string;
@@ -161,30 +150,26 @@ export const LINES_CSV_HEAD = [
 
 /** The per-line plot data of every block of lines, one row per line (RFC 4180, CRLF). */
 export function linesCsv(blocks: readonly LinesCsvBlock[]): string {
-  const out = [LINES_CSV_HEAD.join(',')];
+  const records: CsvField[][] = [LINES_CSV_HEAD];
   for (const b of blocks) {
     const p = b.results?.trade.plot;
     if (!p) continue;
     for (const q of p.points)
-      out.push(
-        [
-          b.file,
-          b.line,
-          b.id,
-          q.label,
-          q.energy,
-          q.energy / KELVIN_PER_EV,
-          p.ordinate,
-          q.y,
-          q.uY,
-          q.residual,
-          q.flag,
-          p.intercept.value,
-          p.intercept.uncertainty,
-        ]
-          .map(cell)
-          .join(','),
-      );
+      records.push([
+        b.file,
+        b.line,
+        b.id,
+        q.label,
+        q.energy,
+        q.energy / KELVIN_PER_EV,
+        p.ordinate,
+        q.y,
+        q.uY,
+        q.residual,
+        q.flag,
+        p.intercept.value,
+        p.intercept.uncertainty,
+      ]);
   }
-  return out.join('\r\n') + '\r\n';
+  return csvText(records);
 }
