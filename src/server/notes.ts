@@ -43,6 +43,12 @@ export const SERVER_LIMITS: AnalyzerLimits = { maxBlocks: Infinity, maxBodyChars
 /** Blocks kept in each analyzer's cache: more than the bounded note above holds in ordinary blocks. */
 const SERVER_CACHE_BLOCKS = 250_000;
 
+/**
+ * Characters of block bodies each analyzer keeps besides the note analysed last (tens of MB at most): a
+ * megabyte-long body edited keystroke by keystroke leaves a megabyte behind each time.
+ */
+const SERVER_CACHE_CHARS = 16_000_000;
+
 /** Analyzers kept at once: one per distinct set of analysis settings in use (usually one). */
 const MAX_ANALYZERS = 8;
 
@@ -66,6 +72,7 @@ function analyzerFor(s: Settings): Analyzer {
     infoStrings: s.extraInfoStrings,
     limits: SERVER_LIMITS,
     cacheSize: SERVER_CACHE_BLOCKS,
+    cacheChars: SERVER_CACHE_CHARS,
   });
 }
 

@@ -53,6 +53,12 @@ export interface AnalyzerOptions extends AnalysisOptions {
   readonly infoStrings: readonly string[];
   /** Most blocks kept in the cache. */
   readonly cacheSize: number;
+  /**
+   * Most characters of block bodies kept in the cache besides those of the note analysed last: a long
+   * body edited keystroke by keystroke leaves a new body each time, which a count of blocks alone would
+   * let pile up to gigabytes.
+   */
+  readonly cacheChars: number;
   /** How much of a note is read; unbounded by default. */
   readonly limits: AnalyzerLimits;
 }
@@ -62,6 +68,7 @@ export const DEFAULT_ANALYZER_OPTIONS: AnalyzerOptions = {
   ...DEFAULT_ANALYSIS_OPTIONS,
   infoStrings: [],
   cacheSize: 20_000,
+  cacheChars: Infinity,
   limits: UNBOUNDED,
 };
 
@@ -137,6 +144,13 @@ const NOTES_REMEMBERED = 4;
  */
 export class Analyzer {
   private cache = new Map<string, Cached>();
+  /** Characters of the bodies in the cache. */
+  private cachedChars = 0;
+  /**
+   * Characters past which the cache is trimmed: the bound, or half the bound more than were left at the last
+   * trimming (which keeps the last note whole), so that reading a note larger than the bound trims rarely.
+   */
+  private evictAbove: number;
   /** The notes analysed last, most recent first. */
   private notes: NoteMemory<BlockReport, Cached>[] = [];
   /** Counts analyses, to date each cache entry's last use. */
@@ -145,6 +159,7 @@ export class Analyzer {
 
   constructor(options: Partial<AnalyzerOptions> = {}) {
     this.options = { ...DEFAULT_ANALYZER_OPTIONS, ...options };
+    this.evictAbove = this.options.cacheChars;
   }
 
   /** True when a fence's info string marks one of our blocks. */
@@ -177,7 +192,7 @@ export class Analyzer {
       (reuse && this.incremental(reuse, text, externals, generation)) ?? this.whole(reuse, text, externals, generation);
     const full: NoteMemory<BlockReport, Cached> = { ...memory, text: given, note: externals?.note ?? null, token };
     this.remember(full, reuse?.memory ?? null);
-    if (this.cache.size > this.options.cacheSize) this.evict();
+    this.evictIfFull();
     const bounded = memory.bounded;
     const problems = bounded ? [boundedProblem(firstLineEnd(text), bounded, this.options.limits)] : [];
     const blocks = memory.reports;
@@ -394,7 +409,7 @@ export class Analyzer {
     counted();
     const body = known ? known.body : ownCopy(found);
     const entry = this.analyseBody(body, externals);
-    this.cache.set(body, entry);
+    this.store(entry);
     return entry;
   }
 
@@ -408,9 +423,8 @@ export class Analyzer {
   warm(body: string, externals: Externals | null = null): boolean {
     const known = this.cache.get(body);
     if (known && dependenciesHold(known.deps, known.readFor, externals)) return false;
-    const own = ownCopy(body);
-    this.cache.set(own, this.analyseBody(own, externals));
-    if (this.cache.size > this.options.cacheSize) this.evict();
+    this.store(this.analyseBody(known ? known.body : ownCopy(body), externals));
+    this.evictIfFull();
     return true;
   }
 
@@ -420,16 +434,29 @@ export class Analyzer {
    * blocks of a note whose whole analysis is not done yet.
    */
   reportsOf(blocks: readonly FencedBlock[], externals: Externals | null = null): BlockReport[] {
-    return blocks.map((b) => {
+    const reports = blocks.map((b) => {
       let entry = this.cache.get(b.body);
       if (!entry || !dependenciesHold(entry.deps, entry.readFor, externals)) {
-        const own = ownCopy(b.body);
-        entry = this.analyseBody(own, externals);
-        this.cache.set(own, entry);
+        entry = this.analyseBody(entry ? entry.body : ownCopy(b.body), externals);
+        this.store(entry);
       }
       entry.used = this.generation;
       return report(b, entry);
     });
+    this.evictIfFull();
+    return reports;
+  }
+
+  /** Puts an entry in the cache, in place of the one of the same body if there is one, counting its characters. */
+  private store(entry: Cached): void {
+    const before = this.cache.get(entry.body);
+    if (before) this.cachedChars -= before.body.length;
+    this.cache.set(entry.body, entry);
+    this.cachedChars += entry.body.length;
+  }
+
+  private evictIfFull(): void {
+    if (this.cache.size > this.options.cacheSize || this.cachedChars > this.evictAbove) this.evict();
   }
 
   /** Keeps the note just analysed in place of the version it was read from (or of the oldest note). */
@@ -440,13 +467,25 @@ export class Analyzer {
 
   /**
    * Drops the least recently used entries, down to nine tenths of the cache
-   * size, so that eviction stays rare. The remembered notes go too: their
-   * blocks may be among those dropped, and must then be read again.
+   * size and half its characters, so that eviction stays rare. The characters
+   * of the last analysis's blocks are not counted against the bound: a note
+   * larger than it is kept whole. The remembered notes go too: their blocks
+   * may be among those dropped, and must then be read again.
    */
   private evict(): void {
     const keep = Math.floor(0.9 * this.options.cacheSize);
+    const keepChars = this.options.cacheChars / 2;
     const byAge = [...this.cache.values()].sort((a, b) => a.used - b.used);
-    for (let i = 0; i < byAge.length - keep; i++) this.cache.delete(byAge[i]!.body);
+    let current = 0;
+    for (const e of byAge) if (e.used === this.generation) current += e.body.length;
+    for (const e of byAge) {
+      const overCount = this.cache.size > keep;
+      if (!overCount && (e.used === this.generation || this.cachedChars - current <= keepChars)) break;
+      this.cache.delete(e.body);
+      this.cachedChars -= e.body.length;
+      if (e.used === this.generation) current -= e.body.length;
+    }
+    this.evictAbove = Math.max(this.options.cacheChars, this.cachedChars + this.options.cacheChars / 2);
     this.notes = [];
   }
 
@@ -489,6 +528,8 @@ export class Analyzer {
    */
   clear(): void {
     this.cache = new Map();
+    this.cachedChars = 0;
+    this.evictAbove = this.options.cacheChars;
     this.notes = [];
   }
 }

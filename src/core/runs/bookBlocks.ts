@@ -46,9 +46,18 @@ interface BodyFacts {
   readonly hash: string;
 }
 
+/**
+ * Bodies and characters kept before the store is emptied and filled again: a long body edited keystroke by
+ * keystroke leaves a new body each time, which a count alone would let pile up to gigabytes.
+ */
+const MAX_BODIES = 50_000;
+const MAX_CHARS = 32_000_000;
+
 /** Reads what each body gives the index, once per body (kept under a copy of the body, for every note and version). */
 export class BodyReader {
   private readonly bodies = new Map<string, BodyFacts>();
+  /** Characters of the bodies kept. */
+  private chars = 0;
 
   /** A block of the index for a block found by the scan. */
   bookBlock(note: string, index: number, block: FencedBlock): BookBlock {
@@ -71,8 +80,12 @@ export class BodyReader {
     const m =
       plain.kind === 'plain' ? { id: plain.id, idSpan: plain.idSpan, refs: NO_REFS } : interpretBody(own, null).meta;
     const f: BodyFacts = { id: m.id, idSpan: m.idSpan, refs: m.refs ?? [], hash: hash(body) };
-    if (this.bodies.size > 50_000) this.bodies.clear();
+    if (this.bodies.size > MAX_BODIES || this.chars > MAX_CHARS) {
+      this.bodies.clear();
+      this.chars = 0;
+    }
     this.bodies.set(own, f);
+    this.chars += own.length;
     return f;
   }
 }

@@ -31,6 +31,24 @@ describe('the analyzer of a whole note', () => {
     assert.deepEqual(b.analyzeText(note([1])).stats, { analysed: 1, reused: 0 }, 'the least recently used one went');
   });
 
+  it('bounds the characters of bodies it keeps, beside those of the note analysed last', () => {
+    // A body of 10,000 characters edited again and again leaves a new body each time; 30,000 characters are kept.
+    const long = (i: number): string =>
+      `\`\`\`levels\nid: run ${i}\ngap: 1 K\npopulations: [0.7, 0.3]\nnote: ${'y'.repeat(10_000)}\n\`\`\`\n`;
+    const a = new Analyzer({ cacheChars: 30_000 });
+    for (let i = 0; i < 50; i++) a.analyzeText(long(i));
+    assert.deepEqual(a.analyzeText(long(49)).stats, { analysed: 0, reused: 1 }, 'the last one is kept');
+    assert.deepEqual(a.analyzeText(long(0)).stats, { analysed: 1, reused: 0 }, 'an old body was let go');
+    const unbounded = new Analyzer();
+    for (let i = 0; i < 50; i++) unbounded.analyzeText(long(i));
+    assert.deepEqual(unbounded.analyzeText(long(0)).stats, { analysed: 0, reused: 1 }, 'without the bound all stay');
+    // A note larger than the bound is kept whole: analysed again, nothing is read afresh.
+    const big = [0, 1, 2, 3, 4, 5].map(long).join('\n');
+    const b = new Analyzer({ cacheChars: 30_000 });
+    b.analyzeText(big);
+    assert.deepEqual(b.analyzeText(big).stats, { analysed: 0, reused: 6 });
+  });
+
   it('stops before the first block past a bound and says where, on the first line', () => {
     const text = `# Notebook\n${note([1, 2, 3])}`;
     const r = new Analyzer({ limits: { maxBlocks: 2, maxBodyChars: Infinity } }).analyzeText(text);
