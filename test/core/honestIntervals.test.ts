@@ -15,7 +15,7 @@
 import { strict as assert } from 'node:assert';
 import { Analyzer, LineIndex, reportEntry, RunLog, runLogCsv, type BlockReport } from '../../src/core';
 import { formatCsv } from '../../src/cli/formats';
-import { formatTemperatureInterval } from '../../src/core/present/numbers';
+import { formatTemperatureInterval, lowerBoundDigits } from '../../src/core/present/numbers';
 import { temperatureIntervalText, polarizationText } from '../../src/core/present/summary';
 import { close } from './helpers';
 
@@ -170,6 +170,21 @@ describe('honest intervals (the contract v1.2) against a JCGM 101 Monte Carlo', 
       Math.abs(r.polarization!.uncertainty! / sd - 1) < 0.02,
       `u(P) ${r.polarization!.uncertainty} vs MC ${sd}`,
     );
+  });
+
+  it('never shows a bound or an interval end rounded past what is known: a lower bound is cut, interval ends round outward', () => {
+    // The shown bound must be implied by the computed one (a metrologist's rule for limits, common practice, no
+    // source): |T| ≥ 67.96 K shows as ≥ 67 K (rounding to 68 K would claim more than is known).
+    assert.equal(lowerBoundDigits(67.96, 2), 67);
+    assert.equal(lowerBoundDigits(0.0999, 2), 0.099);
+    assert.equal(lowerBoundDigits(68, 2), 68, 'an exact value stays');
+    const b = analysed('gap: 1 K\npopulations: [1.00 ± 0.05, 0.98 ± 0.05]');
+    const bound = b.results!.intervals.temperatureBound!;
+    const shown = Number(/≥ ([\d.]+) K/.exec(temperatureIntervalText(b.results!))![1]);
+    assert.ok(shown <= bound, `shown ${shown} K, computed ${bound} K`);
+    // Interval ends: low toward −∞, high toward +∞, whatever the sign.
+    assert.equal(formatTemperatureInterval(57.0, 33.38, 198.1), '57 K (33 … 199 K, 95 %)');
+    assert.equal(formatTemperatureInterval(-57.0, -198.1, -33.38), '−57 K (−199 … −33 K, 95 %)');
   });
 
   it('states the known limit near |P| = 1: the linear u(β) is about 30 % below the Monte Carlo standard deviation', () => {

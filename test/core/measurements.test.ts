@@ -203,6 +203,15 @@ describe('uncertainty of the enhancement', () => {
     const none = block('system: 13C\nfield: 9.4 T\nlattice: 298 K\npolarization: 0.1').report.results!;
     assert.equal(none.enhancementUncertainty, null);
   });
+
+  it('gives a thermal reference ε = 1 with u(ε) = 0 whatever u(lattice): P and P_th are the same quantity', () => {
+    // ε = P_th(T)/P_th(T) ≡ 1 for every T, so its sensitivity to T is zero (JCGM 100:2008 §5.1.3); treating the
+    // two as independent would give √2·u(P_th)/P_th (0.47 % here).
+    const ref = block('system: 13C\nfield: 3 T\nlattice: 298 ± 1 K\nsignal:\n  thermal: 1.08e3 ± 10').report.results!;
+    close(ref.enhancement, 1, 1e-12, 'ε of a reference');
+    assert.equal(ref.enhancementUncertainty, 0);
+    assert.ok(ref.polarization!.uncertainty! > 0, 'u(P) of the reference still carries u(lattice)');
+  });
 });
 
 describe('gain of an optical transition', () => {

@@ -84,12 +84,17 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     enhancement,
     uEnhancement,
     // One u(ε) everywhere: the budget's (every stated input, shared paths once); u(P) and u(lattice) in
-    // quadrature only where the budget has none.
+    // quadrature only where the budget has none. Budget lines whose shares all vanish mean u(ε) = 0: a
+    // thermal reference's ε = P_th/P_th is 1 whatever its lattice, not 1 ± √2·u(P_th)/P_th.
     enhancementUncertainty:
       uEnhancement ??
-      (enhancement !== null && polarization && thermalPolarization
-        ? enhancementUncertainty(input, polarization.value, polarization.uncertainty, thermalPolarization)
-        : null),
+      (enhancement === null
+        ? null
+        : lines.some((l) => l.enhancement === 0) && lines.every((l) => l.enhancement === null || l.enhancement === 0)
+          ? 0
+          : polarization && thermalPolarization
+            ? enhancementUncertainty(input, polarization.value, polarization.uncertainty, thermalPolarization)
+            : null),
     intervals: resultIntervals(finding.limit ? null : beta, polarization),
     budget: budget.length === 0 ? NONE : budget,
     birge: birgeScaled(finding, lines),

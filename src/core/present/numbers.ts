@@ -33,14 +33,34 @@ function displaySign(text: string): string {
  * thousandths), as a whole number of 10^position. Works on the shortest decimal
  * form of x, so 298.15 rounds to 298.2 although its double is 298.149 99….
  */
-function roundAt(x: number, position: number): bigint {
+function roundAt(x: number, position: number, direction: Rounding = 'nearest'): bigint {
   if (x === 0) return 0n;
   const [mantissa, exponent] = Math.abs(x).toExponential().split('e');
   const digits = mantissa.replace('.', '');
   const keep = Number(exponent) - position + 1;
-  if (keep < 0) return 0n;
+  if (keep < 0) return direction === 'outward' ? 1n : 0n;
   const kept = keep === 0 ? 0n : BigInt(digits.slice(0, keep).padEnd(keep, '0'));
+  if (direction === 'inward') return kept;
+  if (direction === 'outward') return /[1-9]/.test(digits.slice(keep)) ? kept + 1n : kept;
   return (digits[keep] ?? '0') >= '5' ? kept + 1n : kept;
+}
+
+/**
+ * How a bound is rounded for display: to the nearest, or in magnitude toward zero
+ * (`inward`) or away from it (`outward`), so that a shown bound stays true: a lower
+ * bound of a magnitude rounds inward, an interval's ends round away from its middle.
+ */
+type Rounding = 'nearest' | 'inward' | 'outward';
+
+/**
+ * A lower bound of a magnitude, x > 0, cut (never rounded up) to `digits`
+ * significant digits: `|T| ≥ 67.9 K` shows as `≥ 67 K`, not `≥ 68 K`, which
+ * would claim more than is known. The result's shortest decimal form is the cut one.
+ */
+export function lowerBoundDigits(x: number, digits: number): number {
+  if (!Number.isFinite(x) || x <= 0) return x;
+  const power = leadingPower(x) - Math.max(1, Math.floor(digits)) + 1;
+  return Number(`${roundAt(x, power, 'inward')}e${power}`);
 }
 
 /** Decimal power of the leading digit of x ≠ 0 (exact: read from the shortest decimal form). */
@@ -205,12 +225,16 @@ export function formatTemperatureInterval(
       : (PREFIXES.find(([, f]) => size >= f) ?? PREFIXES[0]);
   let position = leadingPower(arm / factor) - 1;
   position = Math.max(position, leadingPower(Math.max(size / factor, arm / factor)) - 17);
-  const text = (x: number): string => {
+  const text = (x: number, rounding: Rounding): string => {
     const v = x / factor;
     if (Math.abs(v) >= 1e6 || (v !== 0 && Math.abs(v) < 1e-4 && position < -6)) return numberText(v, 2, DEFAULT_LIMITS);
-    return displaySign(render(roundAt(v, position), position, v < 0));
+    return displaySign(render(roundAt(v, position, rounding), position, v < 0));
   };
-  return `${text(kelvin)} ${unit} (${text(low)} … ${text(high)} ${unit}, ${opts.level ?? '95 %'})`;
+  // The ends are rounded away from the middle (the low one toward −∞, the high one toward +∞), so that the
+  // interval shown holds the computed one.
+  const lowText = text(low, low < 0 ? 'outward' : 'inward');
+  const highText = text(high, high < 0 ? 'inward' : 'outward');
+  return `${text(kelvin, 'nearest')} ${unit} (${lowText} … ${highText} ${unit}, ${opts.level ?? '95 %'})`;
 }
 
 /**

@@ -12,6 +12,7 @@ import {
   formatNumber,
   formatTemperature,
   formatTemperatureInterval,
+  lowerBoundDigits,
 } from './numbers';
 import { temperatureSkewed } from '../analysis/intervals';
 import { measurementShort } from './measurementSummary';
@@ -78,7 +79,7 @@ export function temperatureText(r: BlockResults, o: DisplayOptions = DEFAULT_DIS
   if (!r.beta) return `${sym} not determined (no populations measured)`;
   const bound = r.trade.temperatureLimit;
   if (r.status === 'saturated' && bound !== null)
-    return `${sym} > ${formatTemperature(bound, null, { digits: Math.min(o.digits, 2), mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto' })} at 95 %`;
+    return `${sym} > ${formatTemperature(lowerBoundDigits(bound, Math.min(o.digits, 2)), null, { digits: Math.min(o.digits, 2), mode: o.temperature === 'kelvin' ? 'kelvin' : 'auto' })} at 95 %`;
   if (r.status === 'saturated' || !r.temperature) return `${sym} → ±∞ (saturated)`;
   const ev = r.trade.temperatureEv;
   const plasma = ev ? ` (kT = ${formatMeasured(ev.value, ev.uncertainty, { digits: o.digits })} eV)` : '';
@@ -139,7 +140,7 @@ export function temperatureWithInterval(
     return `${symbol} = ${formatTemperatureInterval(t.value, interval[0], interval[1], { digits: o.digits, mode })}`;
   }
   if (bound !== null) {
-    const at = `|${symbol}| ≥ ${formatTemperature(bound, null, { digits: 2, mode })} (95 %), either sign`;
+    const at = `|${symbol}| ≥ ${formatTemperature(lowerBoundDigits(bound, 2), null, { digits: 2, mode })} (95 %), either sign`;
     return saturated || !t
       ? `${at}: saturated`
       : `${symbol} = ${formatTemperature(t.value, null, { digits: 2, mode })}; ${at}`;

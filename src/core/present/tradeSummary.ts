@@ -9,7 +9,7 @@ import type { PlotPointResult } from '../analysis/trade';
 import type { BlockInput } from '../block/input';
 import { KELVIN_PER_EV, KELVIN_PER_WAVENUMBER } from '../quantities/constants';
 import type { DisplayOptions } from './displayOptions';
-import { formatMeasured, formatNumber, formatTemperature } from './numbers';
+import { formatMeasured, formatNumber, formatTemperature, lowerBoundDigits } from './numbers';
 import { csvText, type CsvField } from './csv';
 
 /** A label and its value, as display text. */
@@ -91,7 +91,7 @@ export function tradeRows(input: BlockInput | null, r: BlockResults, o: DisplayO
   if (t.temperatureLimit !== null)
     rows.push([
       'limit',
-      `β is zero within 2u(β): |T_ex| ≥ 1/(|β| + 2u(β)) = ${formatTemperature(t.temperatureLimit, null, { digits: 2, mode })} at about 95 % (GUM k = 2), of either sign`,
+      `β is zero within 2u(β): |T_ex| ≥ 1/(|β| + 2u(β)) = ${formatTemperature(lowerBoundDigits(t.temperatureLimit, 2), null, { digits: 2, mode })} at about 95 % (GUM k = 2), of either sign`,
     ]);
   return rows;
 }
