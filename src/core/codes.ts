@@ -26,6 +26,11 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     severity: 'error',
     summary: 'Lists and mappings nest deeper than the 64 levels a block is read to.',
   },
+  'block-large': { severity: 'error', summary: 'A block body above 500,000 characters; not read in the editor.' },
+  'problems-not-listed': {
+    severity: 'info',
+    summary: 'A block with more than 100 problems: how many more there are than those listed.',
+  },
   'body-not-mapping': { severity: 'error', summary: 'The body must be a mapping of key: value lines.' },
   'key-unknown': { severity: 'warning', summary: 'A key the block does not know; ignored, with a suggestion.' },
   // The form
@@ -81,6 +86,15 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
   'population-negative': { severity: 'error', summary: 'A negative population.' },
   'populations-zero': { severity: 'error', summary: 'All populations are zero.' },
   'population-zero-excluded': { severity: 'info', summary: 'An empty level is left out of the Boltzmann fit.' },
+  'population-zero-inconsistent': {
+    severity: 'warning',
+    summary: 'An empty level that no temperature explains: between populated levels, or too far from its 0 ± u.',
+  },
+  'uncertainty-partial': {
+    severity: 'info',
+    summary:
+      'Only some levels or lines state an uncertainty: an unweighted fit, u(β) from the stated ones and the scatter.',
+  },
   'temperature-zero': { severity: 'info', summary: 'All population in the lowest (T → 0⁺) or highest (T → 0⁻) level.' },
   // Measurement inputs (signals, series, lines, gain)
   'key-not-for-form': {

@@ -15,6 +15,7 @@ export {
 } from './analyzer/analyzer';
 export { movedBlock, type TextChange } from './analyzer/rescanPlan';
 export { spanToNote } from './analyzer/report';
+export { SERVER_BLOCK_CHARS, MAX_BLOCK_PROBLEMS } from './analyzer/blockBounds';
 export type { BlockResults, FitSummary } from './analysis/results';
 export type { BlockInput, BlockMeta, LevelInput, SpinInput } from './block/input';
 export {

@@ -16,6 +16,7 @@
 import {
   blocksMeeting,
   Analyzer,
+  SERVER_BLOCK_CHARS,
   movedBlock,
   dependenciesHold,
   type AnalyzerLimits,
@@ -36,9 +37,15 @@ import type { NoteState } from './state';
  * on the number of blocks, which the slices below keep from blocking the
  * editor, and one on the size of the blocks' bodies that no real note meets
  * (100 million characters, some 200,000 blocks), past which a note is beyond
- * what the editor should hold in memory as analyses.
+ * what the editor should hold in memory as analyses; and one on a single
+ * block's body (half a million characters), which is read in one piece that no
+ * slice can interrupt.
  */
-export const SERVER_LIMITS: AnalyzerLimits = { maxBlocks: Infinity, maxBodyChars: 100_000_000 };
+export const SERVER_LIMITS: AnalyzerLimits = {
+  maxBlocks: Infinity,
+  maxBodyChars: 100_000_000,
+  maxBlockChars: SERVER_BLOCK_CHARS,
+};
 
 /** Blocks kept in each analyzer's cache: more than the bounded note above holds in ordinary blocks. */
 const SERVER_CACHE_BLOCKS = 250_000;

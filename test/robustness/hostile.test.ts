@@ -4,7 +4,14 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { generateNote } from '../../bench/note';
-import { Analyzer, LineIndex, type BlockReport, type DocumentReport } from '../../src/core';
+import {
+  Analyzer,
+  LineIndex,
+  MAX_BLOCK_PROBLEMS,
+  SERVER_BLOCK_CHARS,
+  type BlockReport,
+  type DocumentReport,
+} from '../../src/core';
 import { SERVER_LIMITS } from '../../src/server/notes';
 import { AnalysisStatsRequest } from '../../src/shared/protocol';
 import { startLsp } from '../protocol/lspClient';
@@ -132,6 +139,73 @@ describe('robustness: hostile input', function () {
     assert.equal(b.status, 'normal', codes(b).join(', '));
     assert.equal(b.input?.levels.length, 100_000);
     assert.ok(Math.abs(b.results!.beta!.value - beta) < 1e-9 * beta, String(b.results?.beta?.value));
+  });
+
+  it('lists at most 100 problems of a block, errors first, and says how many more there are', () => {
+    // 150 unknown keys (warnings), then one error at the end of the body: the error is listed, the warnings fill up.
+    const body = [...GOOD, ...Array.from({ length: 150 }, (_, i) => `extra${i}: 1`), 'field-bad: [1'].join('\n');
+    const b = only(fenced(body));
+    assert.equal(b.status, 'invalid');
+    assert.equal(b.problems.length, MAX_BLOCK_PROBLEMS + 1);
+    const first = b.problems[0]!;
+    assert.equal(first.code, 'problems-not-listed');
+    assert.equal(first.severity, 'info');
+    const all = new Analyzer().analyzeText(fenced(body)).blocks[0]!;
+    assert.equal(all.problems.length, MAX_BLOCK_PROBLEMS + 1, 'the same from a warm reader');
+    assert.ok(
+      b.problems.some((p) => p.severity === 'error'),
+      'the error at the end is among those listed',
+    );
+    const errors = b.problems.filter((p) => p.severity === 'error').length;
+    const warnings = b.problems.filter((p) => p.severity === 'warning').length;
+    assert.equal(errors + warnings, MAX_BLOCK_PROBLEMS);
+    // The note counts what is left out: every problem above the hundred.
+    const left = Number(/has ([\d,]+) more problems?/.exec(first.message)![1]!.replace(/,/g, ''));
+    assert.ok(left >= 51, first.message);
+    const starts = b.problems.map((p) => p.span.start);
+    assert.deepEqual(
+      starts,
+      [...starts].sort((x, y) => x - y),
+      'in body order',
+    );
+    // A block with a hundred problems or fewer lists them all, without the note.
+    const few = only(fenced([...GOOD, ...Array.from({ length: 20 }, (_, i) => `extra${i}: 1`)].join('\n')));
+    assert.equal(few.problems.length, 20);
+    assert.ok(few.problems.every((p) => p.code === 'key-unknown'));
+  });
+
+  it('gives a pasted log of 50,000 broken lines a bounded list of problems', () => {
+    const body = Array.from({ length: 50_000 }, (_, i) => `key${i}: [${i}`).join('\n');
+    const b = only(`# note\n\n\`\`\`levels\n${body}\n`);
+    assert.equal(b.status, 'invalid');
+    // The unclosed fence is the note's finding, besides the body's own list.
+    const own = b.problems.filter((p) => p.code !== 'fence-unclosed');
+    assert.equal(own.length, MAX_BLOCK_PROBLEMS + 1, `${b.problems.length} problems`);
+    assert.match(b.problems.find((p) => p.code === 'problems-not-listed')!.message, /errors/);
+  });
+
+  it('does not read one block past the server bound on a body, says so on its first line, and reads the blocks around it', () => {
+    const levels = ['levels:'];
+    for (let i = 0, length = 0; length <= SERVER_BLOCK_CHARS; i++) {
+      levels.push(`  - { energy: ${i} K, population: ${Math.exp(-i / 5000)} }`);
+      length += levels[levels.length - 1]!.length + 1;
+    }
+    const huge = levels.join('\n');
+    const text = `${fenced(GOOD.join('\n'))}${fenced(huge)}${fenced(GOOD.join('\n'))}`;
+    const r = analyse(text, new Analyzer({ limits: SERVER_LIMITS }));
+    assert.deepEqual(
+      r.blocks.map((b) => b.status),
+      ['normal', 'invalid', 'normal'],
+    );
+    const big = r.blocks[1]!;
+    assert.deepEqual(codes(big), ['block-large']);
+    const lines = new LineIndex(text);
+    const at = lines.positionAt(big.problems[0]!.span.start);
+    assert.equal(at.line, lines.positionAt(text.indexOf('levels:\n  - {')).line, 'on the first line of the body');
+    assert.match(big.problems[0]!.message, /500,000/);
+    // The command line reads it whole.
+    const cli = analyse(text).blocks[1]!;
+    assert.equal(cli.status, 'normal', codes(cli).join(', '));
   });
 
   it('does not read a block past a bound on the bodies, and says why on the first line', () => {

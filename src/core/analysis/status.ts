@@ -1,6 +1,7 @@
 /**
  * The status rules of the contract (docs/format.md#status), in order:
- * `non-thermal` when three or more levels do not fit one temperature;
+ * `non-thermal` when three or more levels do not fit one temperature (the
+ * fit's consistency, which takes in the judgement of empty levels, beta.ts);
  * `saturated` when β is zero, or within `saturationSigma` standard
  * uncertainties of zero; `inverted` when β < 0; otherwise `normal`.
  * (`invalid` is decided earlier: a block with an error never gets here.)

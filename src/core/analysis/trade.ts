@@ -8,11 +8,11 @@
  * densities with a partition-function total.
  */
 import type { BlockInput } from '../block/input';
-import { weightedLineFit } from '../physics/lineFit';
+import { partlyStatedLineFit, weightedLineFit, type LineFit } from '../physics/lineFit';
 import { linearRotorPartition, totalColumn } from '../physics/radio';
 import { KELVIN_PER_EV, KELVIN_PER_HERTZ } from '../quantities/constants';
-import type { Measured, Problem, Span } from '../types';
-import { clipLine, CLIP_SIGMA } from './lineClipping';
+import type { Measured, Problem } from '../types';
+import { clipLine, CLIP_SIGMA, columnDigits, roundingFloor, roundingUncertainty } from './lineClipping';
 
 /** The trade a block speaks to, decided by what it measures. */
 export type Trade = 'spin' | 'emission' | 'radio' | 'optical' | 'levels';
@@ -109,7 +109,16 @@ export interface TradeContext {
   readonly saturated: boolean;
 }
 
-/** The plot data, the flags and the refit of a block of lines; null for other blocks. */
+/**
+ * The plot data, the flags and the refit of a block of lines; null for other blocks.
+ *
+ * The fit is weighted by u(y) = u(I)/I when every line states one; when only
+ * some do, it is the unweighted line with u(slope) and u(intercept) from the
+ * stated ones and the scatter they leave unexplained (physics/lineFit.ts,
+ * partlyStatedLineFit), as the β of the block. Outliers are judged with σ of
+ * each line at least its stated u(y) and the scatter the rounding of its
+ * written intensity and A alone gives it (analysis/lineClipping.ts).
+ */
 export function linePlot(
   input: BlockInput,
   problems: Problem[],
@@ -119,24 +128,51 @@ export function linePlot(
   const used = input.levels.map((l, i) => ({ l, i })).filter(({ l }) => (l.population ?? 0) > 0);
   const x = used.map(({ l }) => l.energy);
   const y = used.map(({ l }) => Math.log(l.population!) - Math.log(l.g));
-  const sig = used.map(({ l }) => (l.uPopulation !== null && l.uPopulation > 0 ? l.uPopulation / l.population! : NaN));
-  const weighted = sig.length > 0 && sig.every((s) => Number.isFinite(s));
-  const full = weightedLineFit(x, y, weighted ? sig : null);
+  const stated = used.map(({ l }) => {
+    const s = l.uPopulation !== null && l.uPopulation > 0 ? l.uPopulation / l.population! : NaN;
+    return Number.isFinite(s) ? s : null;
+  });
+  const weighted = stated.length > 0 && stated.every((s) => s !== null);
+  const partial = !weighted && stated.some((s) => s !== null);
+  const sig = weighted ? stated.map((s) => s!) : null;
+  const fitOf = (idx: readonly number[]): LineFit | null => {
+    const xs = idx.map((k) => x[k]!);
+    const ys = idx.map((k) => y[k]!);
+    if (partial)
+      return partlyStatedLineFit(
+        xs,
+        ys,
+        idx.map((k) => stated[k]!),
+      );
+    return weightedLineFit(xs, ys, sig ? idx.map((k) => sig[k]!) : null);
+  };
+  const all = used.map((_, k) => k);
+  const full = fitOf(all);
   if (!full) return null;
-  const clip = clipLine(x, y, weighted ? sig : null);
+  // Each point's line (levels carry their line's span), for its written numbers and its Poisson flag.
+  const byspan = new Map(lines.lines.map((li) => [`${li.span.start}:${li.span.end}`, li] as const));
+  const source = used.map(({ l }) => (l.span ? byspan.get(`${l.span.start}:${l.span.end}`) : undefined));
+  const digitsI = columnDigits(lines.lines.map((li) => li.intensity));
+  const digitsA = columnDigits(lines.lines.map((li) => li.A));
+  const rounding = roundingFloor(
+    x,
+    source.map((li) =>
+      li ? Math.hypot(roundingUncertainty(li.intensity, digitsI), roundingUncertainty(li.A, digitsA)) : 0,
+    ),
+  );
+  const floor = partial ? rounding.map((f, k) => Math.max(f, stated[k] ?? 0)) : rounding;
+  const clip = clipLine(x, y, sig, floor);
   const side = new Map<number, number>();
   clip.flagged.forEach((k, j) => side.set(used[k]!.i, clip.deviations[j]!));
-  const poissonAt = (span: Span | null): boolean =>
-    !!span && lines.lines.some((li) => li.span.start === span.start && li.span.end === span.end && li.poisson === true);
   const points: PlotPointResult[] = used.map(({ l, i }, k) => ({
     index: i,
     label: l.label,
     energy: l.energy,
     y: y[k]!,
-    uY: weighted ? sig[k]! : null,
+    uY: stated[k] ?? null,
     residual: full.residuals[k]!,
     flag: side.has(i) ? (side.get(i)! > 0 ? 'above' : 'below') : null,
-    poisson: poissonAt(l.span),
+    poisson: source[k]?.poisson === true,
   }));
   for (const [i, d] of side) {
     const l = input.levels[i]!;
@@ -147,9 +183,9 @@ export function linePlot(
       span: l.span!,
     });
   }
-  const c = clip.clean;
+  const c = clip.flagged.length > 0 ? fitOf(all.filter((k) => !clip.flagged.includes(k))) : null;
   let refit: TradeResults['refit'] = null;
-  if (c && clip.flagged.length > 0) {
+  if (c) {
     const beta: Measured = { value: -c.slope + 0, uncertainty: c.uSlope };
     const t = beta.value !== 0 ? 1 / beta.value : null;
     refit = {

@@ -26,6 +26,7 @@ import {
   type Reuse,
   type TextChange,
 } from './rescanPlan';
+import { largeBlockProblem, listedProblems } from './blockBounds';
 import { scanInWindows } from './windows';
 import { NO_PROBLEMS, problemIndices, report, shiftReport } from './report';
 import { ownCopy } from '../text/common';
@@ -42,6 +43,11 @@ export interface AnalyzerLimits {
   readonly maxBlocks: number;
   /** Most characters of `levels` block bodies read per note, all blocks together. */
   readonly maxBodyChars: number;
+  /**
+   * Most characters of one block's body that are read (no bound when absent): a longer body is not read
+   * and gets the error `block-large` (see blockBounds.ts).
+   */
+  readonly maxBlockChars?: number;
 }
 
 /** No bound: every block is read (the command line reports whole notebooks). */
@@ -492,32 +498,45 @@ export class Analyzer {
   /** Reads and analyses one block body; never throws (an internal failure becomes a problem). */
   analyseBody(body: string, externals: Externals | null = null): Cached {
     try {
+      const maxBlockChars = this.options.limits.maxBlockChars ?? Infinity;
+      if (body.length > maxBlockChars) return this.unread(body, largeBlockProblem(body, maxBlockChars));
       const interp = interpretBody(body, externals);
       const results = interp.input ? analyse(interp.input, this.options) : null;
       const all = [...interp.problems, ...(results?.problems ?? [])];
       const problems =
-        all.length > 1 ? all.sort((a, b) => a.span.start - b.span.start) : all.length === 1 ? all : NO_PROBLEMS;
+        all.length > 1
+          ? listedProblems(
+              all.sort((a, b) => a.span.start - b.span.start),
+              body,
+            )
+          : all.length === 1
+            ? all
+            : NO_PROBLEMS;
       const deps = interp.deps;
       const readFor = deps.length > 0 && externals ? externals.note : null;
       return { body, used: this.generation, meta: interp.meta, input: interp.input, results, problems, deps, readFor };
     } catch (err) {
-      const problem: Problem = {
+      return this.unread(body, {
         severity: 'error',
         code: 'internal-error',
         message: `Boltzmark failed on this block: ${(err as Error).message}. Please report it.`,
         span: { start: 0, end: Math.max(1, body.length) },
-      };
-      return {
-        body,
-        used: this.generation,
-        meta: { id: null, idSpan: null, keys: new Map(), date: null },
-        input: null,
-        results: null,
-        problems: [problem],
-        deps: NO_DEPENDENCIES,
-        readFor: null,
-      };
+      });
     }
+  }
+
+  /** A block that is not read, with the one problem that says why. */
+  private unread(body: string, problem: Problem): Cached {
+    return {
+      body,
+      used: this.generation,
+      meta: { id: null, idSpan: null, keys: new Map(), date: null },
+      input: null,
+      results: null,
+      problems: [problem],
+      deps: NO_DEPENDENCIES,
+      readFor: null,
+    };
   }
 
   /**

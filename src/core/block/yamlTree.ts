@@ -45,6 +45,24 @@ const YAML_CODES: Record<string, string> = {
 };
 
 /**
+ * Runs `f` with stack traces of new errors turned off: the parser makes an Error object per problem it
+ * finds, and a broken block pasted from a log can have one per line, whose stacks (never shown: a
+ * problem is reported by its position) cost more than the parse.
+ */
+function withoutStacks<T>(f: () => T): T {
+  // A V8 setting (Node.js, Chromium-based hosts); elsewhere the property is absent and nothing changes.
+  const engine = Error as { stackTraceLimit?: number };
+  const limit = engine.stackTraceLimit;
+  if (limit === undefined) return f();
+  engine.stackTraceLimit = 0;
+  try {
+    return f();
+  } finally {
+    engine.stackTraceLimit = limit;
+  }
+}
+
+/**
  * Parses one block body as YAML 1.2 with unique keys required. A plain body
  * (see `plainBody.ts`) is built from the parser's syntax tree alone; any other
  * goes through the package's full `parseDocument`, which reports its problems.
@@ -69,7 +87,7 @@ export function parseBody(body: string): YamlBody {
       });
       return { doc: null, problems };
     }
-    doc = parseDocument(text, COMPOSE_OPTIONS);
+    doc = withoutStacks(() => parseDocument(text, COMPOSE_OPTIONS));
   } catch (err) {
     // The parser is robust, but a bug or a stack overflow on pathological nesting must not take the note down.
     problems.push({

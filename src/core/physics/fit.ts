@@ -13,9 +13,9 @@
 
 import chisquareQuantile = require('@stdlib/stats-base-dists-chisquare-quantile');
 
-import { weightedLineFit } from './lineFit';
+import { partlyStatedLineFit, weightedLineFit } from './lineFit';
 
-export { weightedLineFit, type LineFit } from './lineFit';
+export { partlyStatedLineFit, weightedLineFit, type LineFit } from './lineFit';
 
 /**
  * Largest |residual| of ln(n/g) that still counts as consistent with one
@@ -50,10 +50,17 @@ function chi2Critical(dof: number): number {
 export interface BoltzmannFit {
   /** Inverse temperature β = −slope, K⁻¹. */
   readonly beta: number;
-  /** Standard uncertainty of β (weighted: from the stated u(n); unweighted: from the scatter); null with 2 unweighted levels. */
+  /**
+   * Standard uncertainty of β: weighted, from the stated u(n); unweighted, from the scatter; partly stated,
+   * from the stated u(n) and the scatter they leave unexplained ({@link partlyStatedLineFit}). Null with two
+   * unweighted levels and no stated uncertainty.
+   */
   readonly uBeta: number | null;
   /** Intercept of ln(n/g) at E = 0, on the scale of the given populations. */
   readonly intercept: number;
+  /** Standard uncertainty of the intercept and its covariance with the slope (= −β), same availability as uBeta. */
+  readonly uIntercept: number | null;
+  readonly covariance: number | null;
   readonly chi2: number;
   readonly dof: number;
   /** χ²/dof, null when dof = 0. */
@@ -64,6 +71,8 @@ export interface BoltzmannFit {
   /** Indices of levels with zero population, left out of the fit (the caller warns). */
   readonly excluded: number[];
   readonly weighted: boolean;
+  /** How many used levels state an uncertainty u(n) > 0: all of them when weighted, some or none otherwise. */
+  readonly stated: number;
   /** Which consistency rule was applied. */
   readonly rule: 'chi2' | 'residual';
   /** χ² quantile at 1 − CHI2_SIGNIFICANCE for `dof` (weighted fits with dof ≥ 1), else null. */
@@ -76,7 +85,11 @@ export interface BoltzmannFit {
  * Boltzmann plot: fits y_i = ln(n_i/g_i) against E_i; β = −slope and u(β) = u(slope).
  *
  * Weighting: σ_y = u(n_i)/n_i (first order, GUM §5.1.2) when every used level has
- * a positive finite u(n); otherwise the fit is unweighted.
+ * a positive finite u(n); otherwise the fit is unweighted. When only some levels
+ * state u(n), the weights of the others are unknown, so the value is still the
+ * unweighted line, but u(β) propagates the stated σ_y through it together with
+ * the scatter they leave unexplained ({@link partlyStatedLineFit}): every stated
+ * uncertainty enters (GUM §5.1.2), none is dropped for want of the others.
  * Consistency: weighted fits use a χ² test at the 1 % level — not consistent when
  * χ² > χ²-quantile(0.99, dof); unweighted fits use the residual rule — not consistent
  * when any |residual| exceeds {@link RESIDUAL_TOLERANCE}. Two levels are always consistent.
@@ -109,8 +122,16 @@ export function boltzmannFit(
     const u = uPopulations === null ? null : uPopulations[i];
     return u === null || u === undefined ? NaN : u / populations[i]!;
   });
-  const weighted = sigmas.length > 0 && sigmas.every((s) => Number.isFinite(s) && s > 0);
-  const line = weightedLineFit(x, y, weighted ? sigmas : null);
+  const stated = sigmas.filter((s) => Number.isFinite(s) && s > 0).length;
+  const weighted = sigmas.length > 0 && stated === sigmas.length;
+  const line =
+    stated > 0 && !weighted
+      ? partlyStatedLineFit(
+          x,
+          y,
+          sigmas.map((s) => (Number.isFinite(s) && s > 0 ? s : null)),
+        )
+      : weightedLineFit(x, y, weighted ? sigmas : null);
   if (line === null) return null;
   const chi2Limit = weighted && line.dof >= 1 ? chi2Critical(line.dof) : null;
   const consistent = weighted
@@ -120,6 +141,8 @@ export function boltzmannFit(
     beta: -line.slope + 0,
     uBeta: line.uSlope,
     intercept: line.intercept,
+    uIntercept: line.uIntercept,
+    covariance: line.covariance,
     chi2: line.chi2,
     dof: line.dof,
     chi2PerDof: line.dof > 0 ? line.chi2 / line.dof : null,
@@ -127,6 +150,7 @@ export function boltzmannFit(
     residuals: line.residuals,
     excluded,
     weighted,
+    stated,
     rule: weighted ? 'chi2' : 'residual',
     chi2Limit,
     consistent,

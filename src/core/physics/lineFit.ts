@@ -94,3 +94,81 @@ export function weightedLineFit(
     weighted: sigma !== null,
   };
 }
+
+/** Result of {@link partlyStatedLineFit}: an unweighted line with uncertainties that include the stated u(y). */
+export interface PartlyStatedFit extends LineFit {
+  /**
+   * The variance of y beyond the stated uncertainties that the residual
+   * scatter calls for, given to every point (0 when the stated ones explain
+   * the scatter, and with two points, which leave no scatter to judge).
+   */
+  readonly excessVariance: number;
+}
+
+/**
+ * Straight-line fit y = a + b·x when only some points state a standard
+ * uncertainty u_i of y (the others state none).
+ *
+ * Weights are unknown for the points without u, so the line itself is the
+ * unweighted least-squares line (equal weights), and its uncertainties come
+ * from the law of propagation (JCGM 100:2008 §5.1.2) applied to that linear
+ * estimator: b = Σ c_i y_i with c_i = (x_i − x̄)/S_xx, a = Σ d_i y_i with
+ * d_i = 1/n − x̄ c_i, so u²(b) = Σ c_i² V_i, u²(a) = Σ d_i² V_i and
+ * cov(a, b) = Σ c_i d_i V_i, where V_i is the variance of point i.
+ *
+ * V_i = u_i² + s₀² (u_i = 0 where none is stated): the stated uncertainty plus
+ * an excess variance s₀², common to all points, for whatever the stated ones do
+ * not cover (the additive "excess variance" model of interlaboratory
+ * evaluations, e.g. R. C. Paule, J. Mandel, J. Res. NBS 87, 377 (1982), cited
+ * from memory). s₀² is estimated by moments: for independent errors the
+ * residual sum of squares has expectation Σ(1 − h_ii)V_i with leverages
+ * h_ii = 1/n + (x_i − x̄)²/S_xx (linear-model algebra, from memory), so
+ * s₀² = max(0, (RSS − Σ(1 − h_ii)u_i²)/(n − 2)). Without stated uncertainties
+ * this is the usual s² = RSS/(n − 2) of {@link weightedLineFit}; when the
+ * stated ones explain the scatter, s₀² = 0 and only they count. Scatter the
+ * stated ones already explain is thus not counted twice. With two points
+ * (n − 2 = 0) s₀² is 0: the points without u count as exact, as in the
+ * two-level formula.
+ *
+ * Domain: as {@link weightedLineFit} unweighted; `stated` has one entry per
+ * point, null (or 0) where none is stated, else finite and > 0. Returns null
+ * otherwise.
+ */
+export function partlyStatedLineFit(
+  x: readonly number[],
+  y: readonly number[],
+  stated: ReadonlyArray<number | null>,
+): PartlyStatedFit | null {
+  const n = x.length;
+  if (stated.length !== n) return null;
+  if (!stated.every((u) => u === null || (Number.isFinite(u) && u >= 0))) return null;
+  const line = weightedLineFit(x, y, null);
+  if (!line) return null;
+  let xm = 0;
+  for (const xi of x) xm += xi / n;
+  let sxx = 0;
+  for (const xi of x) sxx += (xi - xm) * (xi - xm);
+  const v = stated.map((u) => (u === null ? 0 : u * u));
+  let explained = 0;
+  for (let i = 0; i < n; i++) explained += (1 - 1 / n - (x[i]! - xm) ** 2 / sxx) * v[i]!;
+  const s0 = line.dof > 0 ? Math.max(0, (line.chi2 - explained) / line.dof) : 0;
+  let vb = 0;
+  let va = 0;
+  let cab = 0;
+  for (let i = 0; i < n; i++) {
+    const c = (x[i]! - xm) / sxx;
+    const d = 1 / n - xm * c;
+    const vi = v[i]! + s0;
+    vb += c * c * vi;
+    va += d * d * vi;
+    cab += c * d * vi;
+  }
+  const finite = (u: number): number | null => (Number.isFinite(u) ? u : null);
+  return {
+    ...line,
+    uSlope: finite(Math.sqrt(vb)),
+    uIntercept: finite(Math.sqrt(va)),
+    covariance: finite(cab),
+    excessVariance: s0,
+  };
+}

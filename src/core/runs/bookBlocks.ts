@@ -11,7 +11,7 @@ import { ownCopy } from '../text/common';
 import { spanToNote } from '../analyzer/report';
 import type { FencedBlock } from '../text/fences';
 import type { Span } from '../types';
-import { plainFacts } from './plainIds';
+import { plainFacts, type PlainFacts } from './plainIds';
 import type { RunPlace, RunRef } from './types';
 
 /** One `levels` block of a note, as indexed. */
@@ -53,11 +53,17 @@ interface BodyFacts {
 const MAX_BODIES = 50_000;
 const MAX_CHARS = 32_000_000;
 
+/** What a body past the bound of one block gives the index: no id, no references. */
+const UNREAD: PlainFacts = { kind: 'plain', id: null, idSpan: null };
+
 /** Reads what each body gives the index, once per body (kept under a copy of the body, for every note and version). */
 export class BodyReader {
   private readonly bodies = new Map<string, BodyFacts>();
   /** Characters of the bodies kept. */
   private chars = 0;
+
+  /** `maxBlockChars`: the analyzer's bound on one body (AnalyzerLimits.maxBlockChars), past which it is not read. */
+  constructor(private readonly maxBlockChars = Infinity) {}
 
   /** A block of the index for a block found by the scan. */
   bookBlock(note: string, index: number, block: FencedBlock): BookBlock {
@@ -75,8 +81,9 @@ export class BodyReader {
     // Read without sources: only the id and the references as written are kept. Read from (and kept under) a
     // copy of the body: a body sliced from the note would keep that whole version of the note alive.
     // A body whose text alone says it refers to no run and where its id is (most bodies) is not read as YAML.
+    // A body past the bound of one block is not read at all (the analyzer does not read it either).
     const own = ownCopy(body);
-    const plain = plainFacts(own);
+    const plain: PlainFacts = own.length > this.maxBlockChars ? UNREAD : plainFacts(own);
     const m =
       plain.kind === 'plain' ? { id: plain.id, idSpan: plain.idSpan, refs: NO_REFS } : interpretBody(own, null).meta;
     const f: BodyFacts = { id: m.id, idSpan: m.idSpan, refs: m.refs ?? [], hash: hash(body) };

@@ -80,7 +80,7 @@ export class RunBook implements RunResolver {
   /** Run id → every block carrying it, in note order then block order. */
   private readonly byId = new Map<string, BookBlock[]>();
   /** What each body gives the index, read once per body. */
-  private readonly reader = new BodyReader();
+  private readonly reader: BodyReader;
   private readonly analyzer: Analyzer;
   private readonly infoStrings: readonly string[];
   private readonly load: RunBookOptions['load'] | null;
@@ -103,6 +103,7 @@ export class RunBook implements RunResolver {
 
   constructor(options: RunBookOptions = {}) {
     this.analyzer = options.analyzer ?? new Analyzer({ infoStrings: options.infoStrings ?? [] });
+    this.reader = new BodyReader(this.analyzer.options.limits.maxBlockChars);
     this.infoStrings = options.infoStrings ?? this.analyzer.options.infoStrings;
     this.load = options.load ?? null;
     this.sources = options.sources ?? null;
