@@ -111,6 +111,7 @@ export function fitManyLevels(input: BlockInput): BetaFinding {
     chi2: fit.chi2,
     dof: fit.dof,
     weighted: fit.weighted,
+    stated: fit.stated,
     consistent: fit.consistent && emptyConsistent,
     residuals,
     critical: fit.chi2Limit,

@@ -12,6 +12,11 @@ export interface FitSummary {
   readonly dof: number;
   /** True when the fit used the populations' uncertainties as weights. */
   readonly weighted: boolean;
+  /**
+   * How many of the levels in the fit state an uncertainty: all of them when weighted; between 0 and all
+   * in an unweighted fit, whose u(β) takes in those stated (docs/format.md, partly stated uncertainties).
+   */
+  readonly stated: number;
   /** True when the levels are consistent with one temperature (see docs/format.md#status). */
   readonly consistent: boolean;
   /** Residuals of ln(n/g) per level (null for a level left out of the fit). */

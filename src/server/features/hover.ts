@@ -115,7 +115,12 @@ function fitText(fit: NonNullable<NonNullable<BlockReport['results']>['fit']>, o
   }
   // A loop, not a spread: a series of a few hundred thousand points would overflow the stack.
   const worst = fit.residuals.reduce<number>((w, x) => (x === null ? w : Math.max(w, Math.abs(x))), 0);
-  return `Boltzmann fit without uncertainties (residual rule): largest \\|Δ ${quantity}\\| = ${formatNumber(worst, 3)}, limit ln 1.05 = ${formatNumber(RESIDUAL_TOLERANCE, 3)}: ${verdict}.`;
+  const used = fit.residuals.reduce<number>((n, x) => (x === null ? n : n + 1), 0);
+  const which =
+    fit.stated > 0
+      ? `unweighted, ${fit.stated} of ${used} ${ordinate !== null ? 'lines' : 'levels'} with ${weights} (u(β) takes them in, with the scatter they leave)`
+      : 'without uncertainties';
+  return `Boltzmann fit ${which} (residual rule): largest \\|Δ ${quantity}\\| = ${formatNumber(worst, 3)}, limit ln 1.05 = ${formatNumber(RESIDUAL_TOLERANCE, 3)}: ${verdict}.`;
 }
 
 // ---- one level ----

@@ -195,6 +195,23 @@ describe('hover', () => {
         },
       );
     });
+
+    it('says how many levels of an unweighted fit state an uncertainty, and that u(β) takes them in', () => {
+      check(
+        note(
+          'levels:',
+          '  - { energy: 0 K, population: 1.0 }',
+          '  - { energy: 1 K, population: 0.37 ± 0.01 }',
+          '  - { energy: 2 K, population: 0.135 }',
+          '$0',
+        ),
+        {
+          range: [2, 0, 8, 3],
+          includes: ['Boltzmann fit unweighted, 1 of 3 levels with u(n)/n (u(β) takes them in'],
+          excludes: ['without uncertainties'],
+        },
+      );
+    });
   });
 
   describe('on a level', () => {
