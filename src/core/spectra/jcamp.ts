@@ -1,17 +1,23 @@
 /**
  * JCAMP-DX spectra (IUPAC; McDonald & Wilks, Appl. Spectrosc. 42, 151 (1988),
  * version 4.24; Davies & Lampen, Appl. Spectrosc. 47, 1093 (1993), NMR and
- * `##NTUPLES`) through the `jcampconverter` package, which decodes AFFN and the
- * compressed ASDF forms (SQZ, DIF, DUP), `##XYDATA`, `##XYPOINTS`/`##PEAK TABLE`
- * and `##NTUPLES` pages, and applies XFACTOR/YFACTOR.
+ * `##NTUPLES`; Lampen et al., Pure Appl. Chem. 71, 1549 (1999), the 5.x
+ * revision) through the `jcampconverter` package, which decodes AFFN and the
+ * compressed ASDF forms (SQZ, DIF, DUP), `##XYDATA`, `##XYPOINTS`/`##PEAK
+ * TABLE` and `##NTUPLES` pages, and applies XFACTOR/YFACTOR.
  *
  * Around the package this module only: checks the text first, so that a
  * damaged file is reported with its line instead of decoded into nonsense
  * (characters outside AFFN/ASDF, a DUP count that would expand without
- * bound, no data table at all); picks the real part of an NTUPLES spectrum;
- * keeps the file's own x unit (the package rewrites an Hz axis to ppm where an
- * observe frequency is given, which this undoes); and checks the decoded
- * points against `##NPOINTS`. Nothing throws.
+ * bound, no data table at all, and in `(X++(Y..Y))` tables the standard's own
+ * checks: each line's x against the spacing the header gives, and after a
+ * line ending in DIF form the Y check value against the ordinate it repeats;
+ * in `(XY..XY)` tables, whole pairs);
+ * writes AFFN numbers with an exponent (`1.5E-3`, which the package would
+ * take for the SQZ digit E) as plain decimals; picks the real part of an
+ * NTUPLES spectrum; keeps the file's own x unit (the package rewrites an Hz
+ * axis to ppm where an observe frequency is given, which this undoes); and
+ * checks the decoded points against `##NPOINTS`. Nothing throws.
  */
 // @ts-expect-error -- TS1479: the package ships only as an ES module; esbuild (bundles) and tsx (tests) load it from CommonJS.
 import { convert, type Entry, type Spectrum as JcampSpectrum } from 'jcampconverter';
@@ -31,29 +37,78 @@ export function looksLikeJcamp(text: string): boolean {
   return /^\s*##[A-Za-z.$]/.test(text.slice(0, 4096));
 }
 
+/** Where the points of an `(X++(Y..Y))` table lie: point k at `first + k·delta`; a line's written x is × `factor`. */
+interface Spacing {
+  readonly first: number;
+  readonly delta: number;
+  readonly factor: number;
+  /** Half the last written digit of `##DELTAX` when the spacing comes from it (its rounding adds up point by point). */
+  readonly slackPerPoint: number;
+  /** The labels the spacing comes from, for messages. */
+  readonly from: string;
+}
+
+/** The Y check value of a line after a DIF line: its line, the point it repeats, its value before YFACTOR. */
+interface Check {
+  readonly line: number;
+  readonly index: number;
+  readonly value: number;
+}
+
+interface Table {
+  /** 1-based line of the table's label. */
+  readonly line: number;
+  /** The y symbol of `(X++(Y..Y))` or `(X++(R..R))`, else null. */
+  readonly symbol: string | null;
+  /** For an `(X++(Y..Y))` table: the ordinates its lines hold and their Y check values (to hold the decoded points to). */
+  readonly xy: { readonly points: number; readonly checks: readonly Check[] } | null;
+  /** For an `(XY..XY)` table outside NTUPLES: how many x, y pairs its lines hold. */
+  readonly pairs: number | null;
+}
+
 interface Scan {
-  /** 1-based line of each data table label (XYDATA, XYPOINTS, PEAK TABLE, DATA TABLE), in order. */
-  readonly tables: { line: number; symbol: string | null }[];
+  /** The data tables (XYDATA, XYPOINTS, PEAK TABLE, DATA TABLE), in file order. */
+  readonly tables: Table[];
   readonly ntuples: boolean;
   /** Symbols of the NTUPLES variables whose VAR_NAME names an imaginary part. */
   readonly imaginary: Set<string>;
   readonly real: Set<string>;
   /** True when a `(X++(Y..Y))` data line separates its AFFN values with commas. */
   readonly commas: boolean;
+  /** Data lines to hand the package in another spelling (AFFN exponents written out), by 1-based line. */
+  readonly rewrites: Map<number, string>;
 }
 
+type Problem = { line: number; message: string };
+
 /** Checks labels and data lines; returns the scan or the first problem with its line. */
-function scan(text: string): Scan | { line: number; message: string } {
-  const tables: { line: number; symbol: string | null }[] = [];
+function scan(text: string): Scan | Problem {
+  const tables: Table[] = [];
+  const rewrites = new Map<number, string>();
   let ntuples = false;
   let symbols: string[] = [];
   let varNames: string[] = [];
+  /** The NTUPLES lists (FIRST, LAST, FACTOR, VARDIM), which hold each variable's values in SYMBOL order. */
+  const lists = new Map<string, string[]>();
+  /**
+   * Labels since the last table that place its points (FIRSTX, LASTX, NPOINTS, DELTAX, XFACTOR);
+   * the package, too, starts afresh after each table.
+   */
+  let head = new Map<string, string>();
   let inData = false;
-  let compressed = false;
+  let xy: XyLines | null = null;
+  let pairs: number | null = null;
   let commas = false;
   let expanded = 0;
   let line = 0;
   let start = 0;
+  /** Closes the table being read, keeping what its lines hold. */
+  const finish = (): void => {
+    if (xy) tables[tables.length - 1] = { ...tables[tables.length - 1]!, xy: { points: xy.points, checks: xy.checks } };
+    if (pairs !== null) tables[tables.length - 1] = { ...tables[tables.length - 1]!, pairs };
+    xy = null;
+    pairs = null;
+  };
   while (start < text.length) {
     let end = text.indexOf('\n', start);
     if (end < 0) end = text.length;
@@ -66,19 +121,39 @@ function scan(text: string): Scan | { line: number; message: string } {
       const label = m[1]!.replace(/[\s_-]/g, '').toUpperCase();
       const value = m[2]!;
       inData = false;
+      finish();
       if (label === 'XYDATA' || label === 'XYPOINTS' || label === 'PEAKTABLE' || label === 'DATATABLE') {
         inData = true;
-        compressed = value.includes('++');
-        const sym = /\(\s*[A-Z]\+\+\s*\(\s*([A-Z])\.\.\1\s*\)\s*\)/i.exec(value)?.[1] ?? null;
-        tables.push({ line, symbol: sym ? sym.toUpperCase() : null });
+        const sym = /\(\s*([A-Z0-9]+)\s*\+\+\s*\(\s*([A-Z0-9]+)\s*\.\.\s*\2\s*\)\s*\)/i.exec(value);
+        tables.push({ line, symbol: sym ? sym[2]!.toUpperCase() : null, xy: null, pairs: null });
+        const group = value.includes('++')
+          ? undefined
+          : /\(([A-Z]+)\.\.\1\)/.exec(value.replace(/\s/g, '').toUpperCase())?.[1];
+        if (!ntuples && group !== undefined && group !== 'XY')
+          // The package reads every such table as x, y pairs, so (XYW..XYW) would come out shuffled.
+          return { line, message: `line ${line}: a \`(${group}..${group})\` table; only \`(XY..XY)\` pairs are read` };
+        if (!ntuples && group === 'XY') pairs = 0;
+        if (value.includes('++')) {
+          const spacing = ntuples
+            ? spacingOf(
+                ntupleHead(lists, symbols, sym?.[1]?.toUpperCase() ?? null, head),
+                '##FIRST, ##LAST and ##VAR_DIM',
+              )
+            : spacingOf(head, '##FIRSTX, ##LASTX and ##NPOINTS');
+          if (typeof spacing === 'string') return { line, message: `line ${line}: ${spacing}` };
+          xy = new XyLines(spacing);
+        }
+        head = new Map();
       } else if (label === 'NTUPLES') ntuples = true;
       else if (label === 'SYMBOL') symbols = value.split(',').map((s) => s.trim().toUpperCase());
       else if (label === 'VARNAME') varNames = value.split(',').map((s) => s.trim().toUpperCase());
+      else if (/^(?:FIRST|LAST|FACTOR|VARDIM)$/.test(label)) lists.set(label, value.split(','));
+      else if (/^(?:FIRSTX|LASTX|NPOINTS|DELTAX|XFACTOR)$/.test(label)) head.set(label, value.trim());
       continue;
     }
     if (!inData) continue;
     const data = raw.replace(/\$\$.*$/, '');
-    if (compressed && !commas && data.includes(',')) commas = true;
+    if (xy && !commas && data.includes(',')) commas = true;
     for (let i = 0; i < data.length; i++) {
       const c = data.charCodeAt(i);
       const ok =
@@ -111,7 +186,20 @@ function scan(text: string): Scan | { line: number; message: string } {
           return { line, message: `line ${line}: a DUP count of ${count} repeats far more points than a file holds` };
       }
     }
+    if (xy) {
+      const problem = xy.row(line, data, rewrites);
+      if (problem !== null) return { line, message: `line ${line}: ${problem}` };
+    }
+    if (pairs !== null) {
+      // The package drops a group of an odd count of numbers unsaid; the points after it may still fit ##NPOINTS.
+      for (const g of data.split(';')) {
+        const n = g.split(/[\s,]+/).filter((f) => f !== '').length;
+        if (n % 2 !== 0) return { line, message: `line ${line}: \`${g.trim()}\` is not x, y pairs (${n} numbers)` };
+        pairs += n / 2;
+      }
+    }
   }
+  finish();
   if (tables.length === 0)
     return { line: 1, message: 'no data table (`##XYDATA=`, `##XYPOINTS=`, `##PEAK TABLE=` or `##DATA TABLE=`)' };
   const imaginary = new Set<string>();
@@ -121,7 +209,281 @@ function scan(text: string): Scan | { line: number; message: string } {
     if (/IMAG/.test(name) || (name === '' && s === 'I')) imaginary.add(s);
     else if (/REAL/.test(name) || (name === '' && s === 'R')) real.add(s);
   });
-  return { tables, ntuples, imaginary, real, commas };
+  return { tables, ntuples, imaginary, real, commas, rewrites };
+}
+
+/**
+ * The NTUPLES values that place a page's points, under the non-NTUPLES names: the x variable's
+ * entries of ##FIRST, ##LAST, ##VAR_DIM and ##FACTOR (the first variable when the symbol is not
+ * among ##SYMBOL, as the package takes it), and a page's own ##DELTAX.
+ */
+function ntupleHead(
+  lists: Map<string, string[]>,
+  symbols: string[],
+  x: string | null,
+  page: Map<string, string>,
+): Map<string, string> {
+  const at = Math.max(0, x === null ? 0 : symbols.indexOf(x));
+  const out = new Map<string, string>();
+  const put = (label: string, list: string): void => {
+    const v = lists.get(list)?.[at]?.trim();
+    if (v) out.set(label, v);
+  };
+  put('FIRSTX', 'FIRST');
+  put('LASTX', 'LAST');
+  put('NPOINTS', 'VARDIM');
+  put('XFACTOR', 'FACTOR');
+  const delta = page.get('DELTAX');
+  if (delta !== undefined) out.set('DELTAX', delta);
+  return out;
+}
+
+/**
+ * The spacing of a table's points as the package computes it: from the first x, the last x
+ * and the number of points, else from the first x and ##DELTAX; XFACTOR 1 when absent or 0.
+ * A table without a first x, or without either way to the spacing, would be placed at x = 0
+ * with spacing 1 by the package, so it is a problem (the message) instead.
+ */
+function spacingOf(head: Map<string, string>, from: string): Spacing | string {
+  const value = (label: string): number | null => {
+    const t = head.get(label);
+    const n = t === undefined || t === '' ? NaN : Number(t);
+    return Number.isFinite(n) ? n : null;
+  };
+  const first = value('FIRSTX');
+  const last = value('LASTX');
+  const count = value('NPOINTS');
+  const factor = value('XFACTOR') || 1;
+  if (first !== null && last !== null && count !== null && count >= 1)
+    return { first, delta: count > 1 ? (last - first) / (count - 1) : 0, factor, slackPerPoint: 0, from };
+  const delta = value('DELTAX');
+  if (first !== null && delta !== null)
+    return { first, delta, factor, slackPerPoint: resolution(head.get('DELTAX')!) / 2, from: '##FIRSTX and ##DELTAX' };
+  return `the \`(X++(Y..Y))\` table has no ${from} (nor a first x and ##DELTAX) to place its points on the x axis`;
+}
+
+/** One unit of the last digit a number is written with: 1 for `8012`, 0.01 for `1.25`, 1000 for `1E3`. */
+function resolution(written: string): number {
+  const m = /^[+-]?\d*(?:\.(\d*))?(?:[Ee]([+-]?\d+))?$/.exec(written.trim());
+  return m ? 10 ** (Number(m[2] ?? 0) - (m[1]?.length ?? 0)) : 0;
+}
+
+/** How a data line of an `(X++(Y..Y))` table writes its numbers. */
+type Form = 'plain' | 'exponent' | 'asdf';
+
+/** One AFFN field, with an optional exponent. */
+const AFFN_FIELD = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[Ee][+-]?\d+)?$/;
+/** A token of an ASDF line: blanks or commas; an AFFN number (PAC when signed); an ASDF letter and its digits. */
+const ASDF_TOKEN = /[\s,]+|([+-]?(?:\d+\.?\d*|\.\d+))|([@A-Ia-i%J-Rj-rS-Zs])(\d*\.?\d*)/y;
+/** A token of an AFFN line whose numbers carry exponents. */
+const EXPONENT_TOKEN = /[\s,]+|([+-]?(?:\d+\.?\d*|\.\d+)(?:[Ee][+-]?\d+)?)/y;
+
+/** A value of a data line: absolute (AFFN or SQZ), a difference (DIF) or a repeat count (DUP); `affn`: an AFFN's text. */
+interface Token {
+  readonly kind: 'abs' | 'dif' | 'dup';
+  readonly value: number;
+  readonly affn: string | null;
+}
+
+/**
+ * The form of a data line. E and e are SQZ digits (+5, −5) in ASDF and exponent marks in AFFN
+ * (JCAMP-DX 5.x allows `1.5E-3`), so a line whose only letters are E or e is taken as AFFN with
+ * exponents only when it splits into AFFN fields, at least an x and a y; else as ASDF.
+ */
+function formOf(data: string): Form {
+  if (/[@A-DF-Za-df-z%]/.test(data)) return 'asdf';
+  if (!/[Ee]/.test(data)) return 'plain';
+  const fields = data.trim().split(/[\s,]+/);
+  return fields.length >= 2 && fields.every((f) => AFFN_FIELD.test(f)) ? 'exponent' : 'asdf';
+}
+
+/** An AFFN number with an exponent as a plain decimal, exactly (digits moved, not recomputed); null past ±400. */
+function plainDecimal(field: string): string | null {
+  const m = /^([+-]?)(\d*)(?:\.(\d*))?[Ee]([+-]?\d+)$/.exec(field);
+  if (!m) return field;
+  const exponent = Number(m[4]);
+  if (Math.abs(exponent) > 400) return null;
+  const all = m[2]! + (m[3] ?? '');
+  const digits = all.replace(/^0+/, '');
+  const point = m[2]!.length + exponent - (all.length - digits.length);
+  if (digits === '') return '0';
+  const body =
+    point <= 0
+      ? `0.${'0'.repeat(-point)}${digits}`
+      : point >= digits.length
+        ? digits + '0'.repeat(point - digits.length)
+        : `${digits.slice(0, point)}.${digits.slice(point)}`;
+  return (m[1] === '-' ? '-' : '') + body;
+}
+
+/** What an ASDF letter and its digits mean (SQZ @ A–I a–i, DIF % J–R j–r, DUP S–Z s; McDonald & Wilks). */
+function asdfToken(letter: string, digits: string): Token | string {
+  const c = letter.charCodeAt(0);
+  const [kind, lead]: [Token['kind'], number] =
+    c === 64
+      ? ['abs', 0]
+      : c >= 65 && c <= 73
+        ? ['abs', c - 64]
+        : c >= 97 && c <= 105
+          ? ['abs', -(c - 96)]
+          : c === 37
+            ? ['dif', 0]
+            : c >= 74 && c <= 82
+              ? ['dif', c - 73]
+              : c >= 106 && c <= 114
+                ? ['dif', -(c - 105)]
+                : ['dup', c === 115 ? 9 : c - 82];
+  if (kind === 'dup' && digits.includes('.')) return `the DUP count \`${letter}${digits}\` has a decimal point`;
+  const magnitude = Number(String(Math.abs(lead)) + digits);
+  return { kind, value: lead < 0 ? -magnitude : magnitude, affn: null };
+}
+
+/** The tokens of a data line, or what on it is no value. */
+function tokens(data: string, re: RegExp): Token[] | string {
+  const out: Token[] = [];
+  re.lastIndex = 0;
+  while (re.lastIndex < data.length) {
+    const at = re.lastIndex;
+    const m = re.exec(data);
+    if (!m)
+      return data[at] === '?'
+        ? 'a missing value `?` leaves no ordinate to integrate and would move every later point'
+        : `\`${data[at]}\` (column ${at + 1}) is neither an AFFN number nor an ASDF value`;
+    if (m[1] !== undefined) out.push({ kind: 'abs', value: Number(m[1]), affn: m[1] });
+    else if (m[2] !== undefined) {
+      const t = asdfToken(m[2], m[3]!);
+      if (typeof t === 'string') return t;
+      out.push(t);
+    }
+  }
+  return out;
+}
+
+function shown(v: number): string {
+  return String(Number(v.toPrecision(12)));
+}
+
+/**
+ * Reads the data lines of one `(X++(Y..Y))` table as they come, without decoding them (the
+ * package does that): counts the ordinates, and checks what JCAMP-DX puts in each line to
+ * catch damage (McDonald & Wilks 1988): the x that starts the line against the header's
+ * spacing, and, after a line ending in DIF form, that the next starts with a Y check value
+ * (kept in {@link checks}, to hold against the decoded ordinate it repeats). A line that
+ * could be read two ways (AFFN exponents among ASDF values, an AFFN value inside a DIF run, a
+ * DUP with nothing to repeat) is a problem, not a guess.
+ */
+class XyLines {
+  /** Ordinates so far. */
+  points = 0;
+  readonly checks: Check[] = [];
+  private form: Form = 'plain';
+  private formLine = 0;
+  /** True when the last line ended in DIF form, so that the next one starts with a Y check value. */
+  private difEnd = false;
+
+  constructor(private readonly spacing: Spacing) {}
+
+  /** Reads one data line (its `$$` comment removed); returns what is wrong with it, or null. */
+  row(line: number, data: string, rewrites: Map<number, string>): string | null {
+    if (data.trim() === '') return null;
+    const form = formOf(data);
+    if (form !== 'plain' && this.form === 'plain') [this.form, this.formLine] = [form, line];
+    else if (form !== 'plain' && form !== this.form) {
+      const [affn, asdf] = form === 'exponent' ? [line, this.formLine] : [this.formLine, line];
+      return `the table has AFFN numbers with an exponent (line ${affn}) and ASDF values (line ${asdf}), in which E and e are the digits +5 and −5; it cannot be read unambiguously`;
+    }
+    if (form === 'exponent') {
+      const plain = data
+        .trim()
+        .split(/[\s,]+/)
+        .map(plainDecimal);
+      if (plain.includes(null)) return 'an exponent beyond ±400';
+      rewrites.set(line, plain.join(' '));
+    }
+    const toks = tokens(data, form === 'exponent' ? EXPONENT_TOKEN : ASDF_TOKEN);
+    if (typeof toks === 'string') return toks;
+    const x = toks[0];
+    if (x?.affn == null) return 'the line does not start with its x value in AFFN';
+    const ys = toks.slice(1);
+    if (ys.length === 0) return `the line holds an x value (${x.affn}) and no ordinates`;
+    // After a line ending in DIF form the first ordinate repeats the last one before it (the Y check).
+    const repeat = this.difEnd;
+    if ((this.points === 0 || repeat) && ys[0]!.kind !== 'abs')
+      return repeat
+        ? 'the line after one ending in DIF form must start with the Y check value in SQZ or AFFN form'
+        : 'the first ordinate of the table must be in SQZ or AFFN form, not DIF or DUP';
+    const index = repeat ? this.points - 1 : this.points;
+    const off = this.offAxis(x.affn, index);
+    if (off !== null) return off;
+    if (repeat) this.checks.push({ line, index, value: ys[0]!.value });
+    let dif = false;
+    let valued = false;
+    for (let i = repeat ? 1 : 0; i < ys.length; i++) {
+      const t = ys[i]!;
+      if (t.kind === 'dup') {
+        if (!valued) return 'a DUP count with no value of its own line before it to repeat';
+        this.points += t.value - 1;
+        continue;
+      }
+      // The package adds an unsigned AFFN value after DIF values as one more difference.
+      if (dif && t.affn !== null && !t.affn.startsWith('-'))
+        return `the AFFN value ${t.affn} follows DIF values on the line, which reads both as a value and as a difference`;
+      dif = t.kind === 'dif';
+      valued = true;
+      this.points++;
+    }
+    this.difEnd = dif;
+    return null;
+  }
+
+  /**
+   * The line's x against the x of the point it starts at, by the header; null when within half a
+   * point spacing plus half a unit in the last digit the line's x is written with. The
+   * package places points by the header alone, so a line that disagrees means a lost or
+   * shifted line, or a wrong header: either way the x axis read would be wrong.
+   */
+  private offAxis(written: string, index: number): string | null {
+    const sp = this.spacing;
+    const x = Number(written) * sp.factor;
+    const expected = sp.first + index * sp.delta;
+    const slack =
+      Math.abs(sp.delta) / 2 +
+      (resolution(written) * Math.abs(sp.factor)) / 2 +
+      index * sp.slackPerPoint +
+      1e-9 * (Math.abs(expected) + Math.abs(x));
+    if (Math.abs(x - expected) <= slack) return null;
+    return `the line starts at x = ${shown(x)} (after XFACTOR), where ${sp.from} put its first value, point ${index + 1}, at x = ${shown(expected)}; the data and the header disagree`;
+  }
+}
+
+/**
+ * Holds a table's decoded ordinates (after YFACTOR) to its lines: their number, and for an
+ * `(X++(Y..Y))` table each Y check value.
+ */
+function verifyTable(table: Table, ys: ArrayLike<number>, yFactor: number): Problem | null {
+  if (table.pairs !== null && table.pairs !== ys.length)
+    return {
+      line: table.line,
+      message: `line ${table.line}: the data lines hold ${table.pairs} x, y pairs but decode to ${ys.length}; the table cannot be read unambiguously`,
+    };
+  const xy = table.xy;
+  if (!xy) return null;
+  if (xy.points !== ys.length)
+    return {
+      line: table.line,
+      message: `line ${table.line}: the data lines hold ${xy.points} ordinates but decode to ${ys.length}; the table cannot be read unambiguously`,
+    };
+  // Compared as written, before YFACTOR: ASDF ordinates are mostly integers up to 2³¹, which a
+  // difference of one unit must not slip through; the slack covers only rounding.
+  for (const c of xy.checks) {
+    const got = ys[c.index]! / yFactor;
+    if (!(Math.abs(got - c.value) <= 1e-6 + 1e-12 * Math.abs(c.value)))
+      return {
+        line: c.line,
+        message: `line ${c.line}: the Y check value ${shown(c.value)} does not repeat the last ordinate of the line before (${shown(got)}), as the DIF form requires; the data are damaged`,
+      };
+  }
+  return null;
 }
 
 function text1(v: unknown): string | null {
@@ -142,8 +504,15 @@ export function readJcamp(text: string): SpectrumRead {
   if ('message' in s) return { ok: false, line: s.line, message: s.message };
   let entries: Entry[];
   try {
+    let input = text;
+    // AFFN exponents written out, so that the package does not take their E for the SQZ digit 5.
+    if (s.rewrites.size > 0)
+      input = input
+        .split('\n')
+        .map((l, i) => s.rewrites.get(i + 1) ?? l)
+        .join('\n');
     // The package decodes `(XY..XY)` pairs under ##PEAK TABLE only; ##XYPOINTS has the same data syntax.
-    let input = text.replace(/^(\s*)##\s*XY\s*POINTS\s*=/gim, '$1##PEAK TABLE=');
+    input = input.replace(/^(\s*)##\s*XY\s*POINTS\s*=/gim, '$1##PEAK TABLE=');
     // JCAMP-DX separates AFFN values by blanks or commas; the package reads a comma in `(X++(Y..Y))` data as a
     // decimal point, so commas there become blanks (labels, which hold the only other commas, are left alone).
     if (s.commas)
@@ -158,7 +527,7 @@ export function readJcamp(text: string): SpectrumRead {
   }
   // The data tables in file order, to line up each decoded page with its label's line and symbol.
   let tableIndex = 0;
-  let chosen: { entry: Entry; spectrum: JcampSpectrum; table: { line: number; symbol: string | null } } | null = null;
+  let chosen: { entry: Entry; spectrum: JcampSpectrum; table: Table } | null = null;
   for (const entry of entries) {
     for (const sp of entry.spectra ?? []) {
       const table = s.tables[tableIndex++] ?? s.tables[s.tables.length - 1]!;
@@ -184,6 +553,8 @@ export function readJcamp(text: string): SpectrumRead {
       line: table.line,
       message: `line ${table.line}: the data decode to ${xs.length} points where ##NPOINTS says ${declared}`,
     };
+  const unsure = verifyTable(table, ys, num(sp.yFactor) || 1);
+  if (unsure) return { ok: false, ...unsure };
   for (let i = 0; i < xs.length; i++) {
     if (!Number.isFinite(xs[i]) || !Number.isFinite(ys[i]))
       return {
