@@ -73,7 +73,11 @@ class Collector {
 
   constructor(private readonly cwd: string) {}
 
-  /** A path named on the command line: a file is always taken, a folder is walked. */
+  /**
+   * A path named on the command line: a folder is walked, a file taken, each once by its real path. `a.md a.md`,
+   * `a.md ./a.md`, a link to `a.md`, or a folder and a file inside it (either way round) give the file once, under
+   * the name it was first reached by.
+   */
   add(name: string): void {
     const path = resolve(this.cwd, name);
     const st = this.stat(name, path);
@@ -81,12 +85,11 @@ class Collector {
     if (st.isDirectory()) {
       if (this.first(path)) this.walk(name, path);
     } else if (st.isFile()) {
-      this.first(path);
-      this.notes.push({ name, path });
+      if (this.first(path)) this.notes.push({ name, path });
     } else this.notes.push({ name, unreadable: kind(st) });
   }
 
-  /** stat (following links), or an unreadable note with the reason; null then. */
+  /** stat (following links), or an unreadable note with the reason (once per path); null then. */
   private stat(name: string, path: string): ReturnType<typeof statSync> | null {
     try {
       return statSync(path);
@@ -97,7 +100,7 @@ class Collector {
       } catch {
         // Not there at all: the reason says so.
       }
-      this.notes.push({ name, unreadable: reason(err, link) });
+      if (this.first(path)) this.notes.push({ name, unreadable: reason(err, link) });
       return null;
     }
   }

@@ -1,9 +1,10 @@
 /**
  * `boltzmark report <files|folders…>` reports every `levels` block of the
  * notes; `boltzmark check` prints their diagnostics for CI. Exit status: 0 when
- * no block has an error, 1 when one has or a file could not be read (that file
- * is reported in place of its blocks and every other file still is), 2 for a
- * usage error (an unknown option or format, `-` given twice).
+ * no block has an error, 1 when one has, 2 for a usage error (an unknown option
+ * or format, `-` given twice) or a path that could not be read. An unreadable
+ * file is reported in place of its blocks and every other file still is, in
+ * full; it makes the status 2 even when blocks of other files have errors.
  */
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { STATUSES, terminalText, type Status } from '../core';
@@ -45,6 +46,15 @@ const PARALLEL_FROM = 32;
 const hasError = (rows: readonly Row[]): boolean =>
   rows.some((r) => r.entry.diagnostics.some((d) => d.severity === 'error'));
 
+/** The exit status of a usage error, which a path that could not be read is (the contract's machine report). */
+const USAGE = 2;
+
+/** True when a row stands for a file that could not be read. */
+const isUnreadable = (r: Row): boolean => r.entry.diagnostics.some((d) => d.code === 'file-unreadable');
+
+/** The exit status of the rows: 2 when a file could not be read (before any block error), 1 on an error, else 0. */
+const exitStatus = (rows: readonly Row[]): number => (rows.some(isUnreadable) ? USAGE : hasError(rows) ? 1 : 0);
+
 /**
  * Runs the report over the given paths and returns the exit status. A status
  * filter narrows what is printed; the exit status still reflects every block.
@@ -69,7 +79,7 @@ export function report(
       table,
     }[format] ?? table;
   io.out(formatter(shown));
-  return hasError(rows) ? 1 : 0;
+  return exitStatus(rows);
 }
 
 /**
@@ -78,10 +88,14 @@ export function report(
  */
 function reportJson(paths: readonly string[], io: Io, statuses: readonly Status[] | null): number | Promise<number> {
   const notes = readNotes(paths, io);
+  // Known before any note is analysed: a file that could not be read makes the status 2 whatever the blocks say.
+  const unreadable = notes.read.some((r) => 'unreadable' in r.note);
   // Notes that need no book are independent of one another: from a few dozen on they are shared out to threads.
   const workers = io.workers ?? 1;
   if (!notes.book && workers > 1 && io.workerScript && notes.read.length >= PARALLEL_FROM)
-    return reportJsonParallel(notes.read, io, statuses, workers, io.workerScript);
+    return reportJsonParallel(notes.read, io, statuses, workers, io.workerScript).then((code) =>
+      unreadable ? USAGE : code,
+    );
   let written = 0;
   let error = false;
   for (const rows of eachNoteRows(notes, io)) {
@@ -94,20 +108,24 @@ function reportJson(paths: readonly string[], io: Io, statuses: readonly Status[
     if (part !== '') io.out(part);
   }
   io.out(written === 0 ? '[]\n' : '\n]\n');
-  return error ? 1 : 0;
+  return unreadable ? USAGE : error ? 1 : 0;
 }
 
 /**
  * `boltzmark check`: every diagnostic as `file:line:col: severity code message`,
- * the form compilers print, so editors and CI annotate them; exit 1 on errors.
+ * the form compilers print, so editors and CI annotate them; exit 1 on errors,
+ * 2 when a file could not be read.
  */
 export function check(paths: readonly string[], io: Io): number {
   let blocks = 0;
   let errors = 0;
   let warnings = 0;
-  for (const { entry } of (function* () {
+  let unreadable = false;
+  for (const row of (function* () {
     for (const rows of noteRowsOf(paths, io)) yield* rows;
   })()) {
+    const { entry } = row;
+    unreadable ||= isUnreadable(row);
     blocks++;
     for (const d of entry.diagnostics) {
       if (d.severity === 'error') errors++;
@@ -116,7 +134,7 @@ export function check(paths: readonly string[], io: Io): number {
     }
   }
   io.err(`boltzmark: ${blocks} block(s) checked, ${errors} error(s), ${warnings} warning(s)\n`);
-  return errors > 0 ? 1 : 0;
+  return unreadable ? USAGE : errors > 0 ? 1 : 0;
 }
 
 /** Parses `--workers 4`: a whole number from 1 to 256. */
@@ -209,11 +227,11 @@ export function start(argv: readonly string[], io: Io): number | Promise<number>
   } catch (err) {
     if (err instanceof CommanderError) {
       // Help and version are not errors; every real usage error exits with 2.
-      return err.exitCode === 0 ? 0 : 2;
+      return err.exitCode === 0 ? 0 : USAGE;
     }
     if (err instanceof UsageError) {
       io.err(`boltzmark: ${terminalText(err.message)}\n`);
-      return 2;
+      return USAGE;
     }
     throw err;
   }

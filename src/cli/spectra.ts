@@ -21,10 +21,13 @@ import {
 
 const KEY_PREFIX = 'file:';
 
-/** True when `path` is `root` or lies inside it. */
+/**
+ * True when `path` is `root` or lies inside it: the relative path climbs out only when its first segment is `..`
+ * (a name that merely begins with two dots, such as `..data`, is a folder inside), or it is absolute (another drive).
+ */
 function within(root: string, path: string): boolean {
   const r = relative(root, path);
-  return r === '' || (!r.startsWith('..') && !isAbsolute(r) && r.split(sep)[0] !== '..');
+  return r !== '..' && !r.startsWith(`..${sep}`) && !isAbsolute(r);
 }
 
 function realOrSelf(path: string): string {

@@ -6,8 +6,9 @@ import { join } from 'node:path';
 import { main, type Io } from '../../src/cli/main';
 
 // The command line never loses a result: a file it cannot read is reported in
-// place of its blocks, every other file still is, and the exit status is 1
-// (2 stays for mistakes in the command line itself).
+// place of its blocks, every other file still is, and the exit status is 2, a
+// usage error, as the contract has it for an unreadable path (1 is for blocks
+// with errors).
 
 interface Entry {
   file: string;
@@ -50,7 +51,7 @@ describe('boltzmark: files that cannot be read', function () {
     symlinkSync(join(dir, 'loop1.md'), join(dir, 'loop2.md'));
     const names = ['a.md', 'missing.md', 'dangling.md', 'loop1.md', 'z.md'];
     const { code, entries } = json(names, dir);
-    assert.equal(code, 1);
+    assert.equal(code, 2);
     assert.deepEqual(
       entries.map((e) => [e.file, e.status]),
       names.map((n) => [n, n === 'a.md' || n === 'z.md' ? 'normal' : 'invalid']),
@@ -68,15 +69,15 @@ describe('boltzmark: files that cannot be read', function () {
     assert.match(reasons[2]![0]!.message, /loop of symbolic links/);
   });
 
-  it('shows an unreadable file as a line of the table and of `check`, with exit status 1', () => {
+  it('shows an unreadable file as a line of the table and of `check`, with exit status 2', () => {
     writeFileSync(join(dir, 'a.md'), GOOD);
     const table = run(['report', 'a.md', 'gone.md'], dir);
-    assert.equal(table.code, 1);
+    assert.equal(table.code, 2);
     assert.match(table.out, /^a\.md:1 .* normal /m);
     assert.match(table.out, /^gone\.md:1 .* invalid /m);
     assert.match(table.out, /gone\.md:1:1: error file-unreadable: Cannot read 'gone\.md': no such file or folder\./);
     const check = run(['check', 'a.md', 'gone.md'], dir);
-    assert.equal(check.code, 1);
+    assert.equal(check.code, 2);
     assert.equal(check.out, "gone.md:1:1: error file-unreadable Cannot read 'gone.md': no such file or folder.\n");
     assert.match(check.err, /2 block\(s\) checked, 1 error/);
   });
@@ -88,7 +89,7 @@ describe('boltzmark: files that cannot be read', function () {
     // /dev/zero never ends: read, it would fill memory; a link to it looks like a note.
     symlinkSync('/dev/zero', join(dir, 'zero.md'));
     const named = json(['pipe.md', 'zero.md', 'a.md'], dir);
-    assert.equal(named.code, 1);
+    assert.equal(named.code, 2);
     assert.deepEqual(
       named.entries.map((e) => [e.file, e.status]),
       [
@@ -100,6 +101,7 @@ describe('boltzmark: files that cannot be read', function () {
     assert.match(named.entries[0]!.diagnostics[0]!.message, /FIFO/);
     assert.match(named.entries[1]!.diagnostics[0]!.message, /device/);
     const walked = json(['.'], dir);
+    assert.equal(walked.code, 2);
     assert.deepEqual(
       walked.entries.map((e) => [e.file, e.status]),
       [
@@ -115,7 +117,7 @@ describe('boltzmark: files that cannot be read', function () {
     // Root reads every file whatever its mode, so the case used is one no user can read as a note: a path
     // through a file as if it were a folder (ENOTDIR).
     const { code, entries } = json(['a.md/inner.md', 'a.md'], dir);
-    assert.equal(code, 1);
+    assert.equal(code, 2);
     assert.deepEqual(
       entries.map((e) => e.status),
       ['invalid', 'normal'],

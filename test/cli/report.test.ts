@@ -124,8 +124,9 @@ describe('boltzmark report: a table that fits the terminal', () => {
     // ε and the measurement results move under their row rather than vanish: T₁ with its uncertainty.
     assert.match(out, /^ {4}T₁ = \d+(\.\d+)? ± \d+(\.\d+)? s$/m);
     assert.match(out, /^ {4}ε = 241\.1 ± 7\.7$/m);
-    // A skewed T keeps its value in the column; its k = 2 interval moves under the row rather than vanish.
-    assert.match(out, /^ {4}T \(8100 … 10400 K, 95 %\)/m);
+    // A skewed T keeps its value in the column; its k = 2 interval moves under the row rather than vanish,
+    // its ends rounded outward (the computed interval is about 8111 … 10441 K).
+    assert.match(out, /^ {4}T \(8100 … 10500 K, 95 %\)/m);
   });
 
   it('fits a note whose id and unit are each a pasted 100,000 characters, and keeps the id whole in JSON', () => {
@@ -285,9 +286,9 @@ describe('boltzmark check', () => {
     assert.equal(r.out, '');
   });
 
-  it('reports a missing path as an error line and exits 1, not 2', () => {
+  it('reports a missing path as an error line and exits 2, a usage error', () => {
     const r = run(['check', 'no/such']);
-    assert.equal(r.code, 1);
+    assert.equal(r.code, 2);
     assert.equal(r.out, "no/such:1:1: error file-unreadable Cannot read 'no/such': no such file or folder.\n");
   });
 });

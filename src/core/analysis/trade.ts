@@ -179,7 +179,8 @@ export function linePlot(
     problems.push({
       severity: 'warning',
       code: 'line-outlier',
-      message: `This line lies ${Math.abs(d).toFixed(1)} σ ${d > 0 ? 'above' : 'below'} the line refitted without the flagged lines (more than ${CLIP_SIGMA} σ)${d < 0 ? ': self-absorption pulls a line below; so can a wrong A or g' : ': a blend, or a wrong A or g?'}`,
+      // Each side's reading is a whole sentence of its own, its full stop or question mark included.
+      message: `This line lies ${Math.abs(d).toFixed(1)} σ ${d > 0 ? 'above' : 'below'} the line refitted without the flagged lines (more than ${CLIP_SIGMA} σ): ${d < 0 ? 'self-absorption pulls a line below, and so can a wrong A or g.' : 'a blend, or a wrong A or g?'}`,
       span: l.span!,
     });
   }

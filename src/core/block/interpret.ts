@@ -28,7 +28,7 @@ import {
   type ReadContext,
   type ReadValue,
 } from './values';
-import { entries, isMap, parseBody, spanOf, type Entry } from './yamlTree';
+import { deref, entries, isMap, isScalar, parseBody, spanOf, type Entry } from './yamlTree';
 import { spectrumRefs, unitsAgree } from './spectrumRef';
 
 /** What reading a block gave: its label and key spans, its input (null on errors) and its problems. */
@@ -99,7 +99,7 @@ export function interpretBody(body: string, externals: Externals | null = null):
   const ctx: ReadContext = { body, problems, externals, deps, refs, spectra };
   for (const e of all) if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   const idEntry = byKey.get('id');
-  const idText = idEntry ? readText(ctx, idEntry.value) : null;
+  const idText = idEntry ? readId(ctx, idEntry.value) : null;
   const dateEntry = byKey.get('date');
   const dateText = dateEntry ? readText(ctx, dateEntry.value) : null;
   const meta: BlockMeta = {
@@ -192,10 +192,24 @@ export function interpretBody(body: string, externals: Externals | null = null):
       };
     }
   }
+  // The references are met in reading order (a series before the signal, `hyperpolarized` before `thermal`); the
+  // list is given in the order of the block's text (notebook-format contract, "Spectra and runs by reference").
+  spectra.uses.sort((a, b) => a.span.start - b.span.start);
   unitsAgree(ctx);
   // A spectrum the host is still reading leaves the block without input (and without an error) until it is ready.
   if (countErrors(problems) > 0 || spectra.pending > 0) input = null;
   return { meta, input, problems, deps: deps.length > 0 ? deps : NO_DEPENDENCIES };
+}
+
+/**
+ * The block's id as written. An id is a label, never a number: a plain scalar that the core schema would type as
+ * a number or a boolean (`007`, `1e3`, `0x1F`, `1.50`) keeps its text, which is also the text a reference
+ * `{ run: 007 }` is matched with. A null scalar (`id:`, `id: ~`) gives no id.
+ */
+function readId(ctx: ReadContext, node: Entry['value']): { text: string; span: Span } | null {
+  const t = readText(ctx, node);
+  const n = deref(node);
+  return t && isScalar(n) && !n.isNull ? { text: n.source, span: t.span } : t;
 }
 
 /** `id-duplicate`: the id is carried by other blocks of the workspace too (asked of the host's runs). */

@@ -73,10 +73,20 @@ function isRecord(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
 }
 
-/** The problem, placed at the position `JSON.parse` names in its message when it names one (V8 does). */
+/**
+ * The problem, placed where the JSON goes wrong. V8 names the place in most of its messages, as `at position N`
+ * (a 0-based UTF-16 offset; Node.js 20) and, from V8 12 on (Node.js 22), also as `(line L column C)` (1-based);
+ * the line and column are taken when given, else the offset. Some messages name no place at all (`Unexpected
+ * token ']', "…" is not valid JSON`, `Unexpected end of JSON input`): the offset is then found by
+ * {@link jsonFault}, which reads the text by the grammar of RFC 8259.
+ */
 function failed(text: string, message: string, err: unknown): NotebookCells {
-  const m = err instanceof Error ? /position (\d+)/.exec(err.message) : null;
-  const offset = m ? Math.min(Number(m[1]), text.length) : 0;
+  const said = err instanceof Error ? err.message : '';
+  const lc = /\(line (\d+) column (\d+)\)/.exec(said);
+  if (lc && Number(lc[1]) >= 1 && Number(lc[2]) >= 1)
+    return { cells: [], problem: { message, line: Number(lc[1]) - 1, column: Number(lc[2]) - 1 } };
+  const at = /at position (\d+)/.exec(said);
+  const offset = Math.min(at ? Number(at[1]) : err ? (jsonFault(text) ?? 0) : 0, text.length);
   let line = 0;
   let start = 0;
   for (let i = 0; i < offset; i++) {
@@ -86,4 +96,123 @@ function failed(text: string, message: string, err: unknown): NotebookCells {
     }
   }
   return { cells: [], problem: { message, line, column: offset - start } };
+}
+
+/**
+ * What the reader of {@link jsonFault} expects next: a value; a value or `]` (just after `[`); a key; a key or
+ * `}` (just after `{`); or, after a value, `,` or the close of the open container (the end of the text when
+ * none is open).
+ */
+type Want = 'value' | 'value-or-close' | 'key' | 'key-or-close' | 'after';
+
+/** JSON's whitespace (RFC 8259 §2): space, tab, line feed, carriage return. */
+const isJsonSpace = (c: number): boolean => c === 0x20 || c === 0x09 || c === 0x0a || c === 0x0d;
+
+const isDigit = (c: number): boolean => c >= 0x30 && c <= 0x39;
+
+/**
+ * The offset of the first character at which `text` stops being JSON (RFC 8259: objects, arrays, strings with
+ * their escapes, numbers, `true`, `false`, `null`), the length of the text when it ends too early, or null when
+ * it is JSON. Containers are tracked on an explicit stack, so deep nesting cannot overflow the call stack.
+ */
+export function jsonFault(text: string): number | null {
+  const open: number[] = [];
+  let want: Want = 'value';
+  let i = 0;
+  const n = text.length;
+  for (;;) {
+    while (i < n && isJsonSpace(text.charCodeAt(i))) i++;
+    if (i >= n) return want === 'after' && open.length === 0 ? null : n;
+    const c = text.charCodeAt(i);
+    if (want === 'after') {
+      const top = open[open.length - 1];
+      if (top === undefined) return i;
+      if (c === 0x2c) want = top === 0x7b ? 'key' : 'value';
+      else if (c === (top === 0x7b ? 0x7d : 0x5d)) open.pop();
+      else return i;
+      i++;
+      continue;
+    }
+    if (want === 'key' || want === 'key-or-close') {
+      if (want === 'key-or-close' && c === 0x7d) {
+        open.pop();
+        i++;
+        want = 'after';
+        continue;
+      }
+      if (c !== 0x22) return i;
+      const end = stringEnd(text, i);
+      if (end < 0) return ~end;
+      i = end;
+      while (i < n && isJsonSpace(text.charCodeAt(i))) i++;
+      if (i >= n) return n;
+      if (text.charCodeAt(i) !== 0x3a) return i;
+      i++;
+      want = 'value';
+      continue;
+    }
+    if (want === 'value-or-close' && c === 0x5d) {
+      open.pop();
+      i++;
+      want = 'after';
+      continue;
+    }
+    if (c === 0x7b || c === 0x5b) {
+      open.push(c);
+      i++;
+      want = c === 0x7b ? 'key-or-close' : 'value-or-close';
+      continue;
+    }
+    const end = c === 0x22 ? stringEnd(text, i) : c === 0x2d || isDigit(c) ? numberEnd(text, i) : wordEnd(text, i);
+    if (end < 0) return ~end;
+    i = end;
+    want = 'after';
+  }
+}
+
+/** The end of the string starting at `from` (its opening quote), or `~offset` of its fault. */
+function stringEnd(text: string, from: number): number {
+  for (let i = from + 1; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x22) return i + 1;
+    if (c < 0x20) return ~i;
+    if (c === 0x5c) {
+      const e = text.charCodeAt(i + 1);
+      if (e === 0x75) {
+        for (let k = i + 2; k < i + 6; k++) if (k >= text.length || !/[0-9A-Fa-f]/.test(text[k]!)) return ~k;
+        i += 5;
+      } else if ('"\\/bfnrt'.includes(text[i + 1] ?? '')) i++;
+      else return ~(i + 1);
+    }
+  }
+  return ~text.length;
+}
+
+/** The end of the number starting at `from` (`-`? int frac? exp?), or `~offset` of its fault. */
+function numberEnd(text: string, from: number): number {
+  let i = from;
+  if (text.charCodeAt(i) === 0x2d) i++;
+  if (!isDigit(text.charCodeAt(i))) return ~i;
+  if (text.charCodeAt(i) === 0x30) i++;
+  else while (isDigit(text.charCodeAt(i))) i++;
+  if (text.charCodeAt(i) === 0x2e) {
+    i++;
+    if (!isDigit(text.charCodeAt(i))) return ~i;
+    while (isDigit(text.charCodeAt(i))) i++;
+  }
+  if (text.charCodeAt(i) === 0x65 || text.charCodeAt(i) === 0x45) {
+    i++;
+    if (text.charCodeAt(i) === 0x2b || text.charCodeAt(i) === 0x2d) i++;
+    if (!isDigit(text.charCodeAt(i))) return ~i;
+    while (isDigit(text.charCodeAt(i))) i++;
+  }
+  return i;
+}
+
+/** The end of `true`, `false` or `null` starting at `from`, or `~offset` of the first character that differs. */
+function wordEnd(text: string, from: number): number {
+  const word = text[from] === 't' ? 'true' : text[from] === 'f' ? 'false' : text[from] === 'n' ? 'null' : '';
+  if (word === '') return ~from;
+  for (let k = 0; k < word.length; k++) if (text[from + k] !== word[k]) return ~(from + k);
+  return from + word.length;
 }

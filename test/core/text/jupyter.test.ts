@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { Analyzer, isNotebookPath, notebookCells, RunLog } from '../../../src/core';
+import { jsonFault } from '../../../src/core/text/jupyter';
 
 // The notebook format: Jupyter's nbformat 4 (cells with `cell_type` and `source`, a string or a list of lines
 // with their line ends) and nbformat 3 (cells inside `worksheets`), as the nbformat documentation describes them.
@@ -44,9 +45,71 @@ describe('Jupyter notebooks', () => {
     const text = '{\n "cells": [\n  {"cell_type": "markdown", "source": "x"},\n  oops\n ]\n}';
     const r = notebookCells(text);
     assert.ok(r.problem);
-    // V8's message gives the offset of the fault ("… at position N" or "(line L column C)"); when it gives none the
-    // problem sits on the first line.
-    assert.ok(r.problem.line === 3 || r.problem.line === 0, `line ${r.problem.line}`);
+    // `o` of `oops`: line 3, column 2 (0-based), whichever way the platform's message names the place.
+    assert.deepEqual([r.problem.line, r.problem.column], [3, 2]);
+  });
+
+  it('places every kind of JSON fault at its line and column, also where the parser’s message names no place', () => {
+    // [text, 0-based line, 0-based column] of the first character that cannot go on (RFC 8259's grammar).
+    const cases: [string, number, number][] = [
+      // A trailing comma: `Unexpected token ']', … is not valid JSON` in V8, with no position.
+      ['{\n  "cells": [\n    1,\n  ]\n}', 3, 2],
+      // The end comes too early: `Unexpected end of JSON input`, no position either.
+      ['{\n  "cells": [\n    {"a": 1}', 2, 12],
+      ['{\n  "cells": tru', 1, 14],
+      ['', 0, 0],
+      // Faults the message places itself (`… at position N`).
+      ['{\n  "cells": []\n  "more": 1\n}', 2, 2],
+      ['{\n"a": "x\u0001"}', 1, 7],
+      ['{\n "cells": []\n}\nx', 3, 0],
+      // Numbers, escapes and keys.
+      ['{\n "n": 01\n}', 1, 7],
+      ['{\n "n": -\n}', 1, 7],
+      ['{\n "n": 1.e5\n}', 1, 8],
+      ['{\n "s": "a\\qb"\n}', 1, 9],
+      ['{\n "s": "\\u12G4"\n}', 1, 11],
+      ['{\n cells: []\n}', 1, 1],
+      ['{\n "cells" []\n}', 1, 9],
+    ];
+    for (const [text, line, column] of cases) {
+      const r = notebookCells(text);
+      assert.ok(r.problem, JSON.stringify(text));
+      assert.deepEqual([r.problem.line, r.problem.column], [line, column], JSON.stringify(text));
+      // Where the platform's parser names a place, the grammar reading finds the same one.
+      let said = '';
+      try {
+        JSON.parse(text);
+      } catch (err) {
+        said = (err as Error).message;
+      }
+      const at = /at position (\d+)/.exec(said);
+      if (at) assert.equal(jsonFault(text), Number(at[1]), JSON.stringify(text));
+    }
+    assert.equal(jsonFault('{"cells": [{"a": [1, 2.5e-3, true, false, null, "\\u00e9\\n"]}]}'), null);
+    // Deep nesting is read without recursion.
+    assert.equal(jsonFault('['.repeat(100_000) + ']'.repeat(100_000)), null);
+    assert.equal(jsonFault('['.repeat(100_000)), 100_000);
+  });
+
+  it('reads the place from both forms of V8’s message: `at position N` and `(line L column C)`', () => {
+    const text = '{\n "cells": [\n  oops\n ]\n}';
+    const parse = JSON.parse;
+    try {
+      // Newer V8 (Node.js 22 on) adds the line and column, 1-based; they are taken as they are.
+      JSON.parse = () => {
+        throw new SyntaxError('Unexpected token \'o\', "oops" is not valid JSON at position 99 (line 3 column 3)');
+      };
+      const withLine = notebookCells(text).problem;
+      // Node.js 20 gives only the 0-based offset: 16 is `o` of `oops`, line 2 column 2 (0-based).
+      JSON.parse = () => {
+        throw new SyntaxError('Unexpected token \'o\', "oops" is not valid JSON at position 16');
+      };
+      const withPosition = notebookCells(text).problem;
+      assert.deepEqual([withLine?.line, withLine?.column], [2, 2]);
+      assert.deepEqual([withPosition?.line, withPosition?.column], [2, 2]);
+    } finally {
+      JSON.parse = parse;
+    }
   });
 
   it('skips cells whose source is not text, and names notebooks by their extension', () => {
