@@ -76,6 +76,7 @@ export {
 } from './spectra/shelf';
 export { integrateRegion, noiseSigma, integralUncertainty, pointsIn, type RegionIntegral } from './spectra/integrate';
 export {
+  baselineNote,
   FROM_FILE_MARK,
   spectraEntries,
   spectraLines,

@@ -296,6 +296,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
   use(answer.key, {
     value: integral.value,
     uncertainty,
+    uncertaintyWithBaseline: sigma === null || baseline !== 'linear' ? null : sigma * integral.fullFactor,
     points: integral.points,
     unit: r.unit,
     region: [r.lo, r.hi],

@@ -45,6 +45,11 @@ export function spectraLines(meta: BlockMeta): string[] {
   });
 }
 
+/** The integral's u with the baseline's own noise, said beside the format's. */
+export function baselineNote(u: number): string {
+  return `with the linear baseline's own noise, u = ${formatMeasured(u, null, { digits: 2 })}; the u above, the format's, counts the region's points only`;
+}
+
 function num(v: number): string {
   return Number(v.toPrecision(6)).toString();
 }
@@ -66,6 +71,7 @@ export function spectrumUseLines(u: SpectrumUse): string[] {
     lines.push(
       `noise σ = ${formatMeasured(r.sigma, null)} from ${r.noisePoints} points in ${num(r.noise[0])} … ${num(r.noise[1])}${r.unit ? ` ${r.unit}` : ''}`,
     );
+  if (r.uncertaintyWithBaseline !== null) lines.push(baselineNote(r.uncertaintyWithBaseline));
   lines.push(`file: ${u.file}`);
   return lines;
 }

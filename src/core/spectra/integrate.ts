@@ -12,7 +12,14 @@
  *   least-squares fit over the noise region's points (divisor n − 2), and the
  *   integral's standard uncertainty is σ·|Δx|·√n, Δx the mean point spacing
  *   in the region (the trapezoidal sum of n independent values of standard
- *   deviation σ, end-point halves neglected; GUM JCGM 100:2008 eq. (10)).
+ *   deviation σ, end-point halves neglected; GUM JCGM 100:2008 eq. (10));
+ * - beside it, not in it (the format's rule is the one above), the
+ *   uncertainty with the linear baseline's own noise: the subtracted area is
+ *   L·[(1 − t)·ȳ_a + t·ȳ_b] (L the region's width, t where the region's
+ *   middle lies between the two centroids' x), so the integral is Σ c_k·y_k
+ *   with c_k the trapezoid weight of point k less L(1 − t)/m for the m points
+ *   of the first centroid and L·t/m for those of the second (they are points
+ *   of the region too), and u = σ·√(Σ c_k²) (GUM eq. (10)).
  */
 import type { BaselineKind, Spectrum } from './types';
 
@@ -29,6 +36,8 @@ export interface RegionIntegral {
   readonly baselineLine: readonly [number, number, number, number];
   /** Mean spacing of the region's points. */
   readonly spacing: number;
+  /** √(Σ c_k²): σ times this is the integral's standard uncertainty with the baseline's own noise. */
+  readonly fullFactor: number;
 }
 
 /** A tolerance for "inside": bounds equal to a point's x up to rounding include it. */
@@ -80,10 +89,14 @@ export function integrateRegion(
   const x1 = x[last]!;
   let b0 = 0;
   let b1 = 0;
+  let m = 0;
+  let t = 0.5;
   if (baseline === 'linear') {
-    const m = Math.min(n, Math.max(3, Math.ceil(0.02 * n)));
+    m = Math.min(n, Math.max(3, Math.ceil(0.02 * n)));
     const [ax, ay] = centroid(x, y, first, first + m - 1);
     const [bx, by] = centroid(x, y, last - m + 1, last);
+    // The area under the line is L·[(1 − t)·ay + t·by]; with coinciding centroids, the mean of the two.
+    if (bx > ax) t = ((x0 + x1) / 2 - ax) / (bx - ax);
     if (bx > ax) {
       const slope = (by - ay) / (bx - ax);
       b0 = ay + slope * (x0 - ax);
@@ -94,7 +107,29 @@ export function integrateRegion(
   }
   // The baseline is a straight line, so its trapezoids sum to its exact integral.
   const value = area - ((x1 - x0) * (b0 + b1)) / 2;
-  return { value, points: n, baselineLine: [x0, b0, x1, b1], spacing: (x1 - x0) / (n - 1) };
+  return {
+    value,
+    points: n,
+    baselineLine: [x0, b0, x1, b1],
+    spacing: (x1 - x0) / (n - 1),
+    fullFactor: sensitivityNorm(x, first, last, m, t),
+  };
+}
+
+/**
+ * √(Σ c_k²) over the region's points: c_k the trapezoid weight of point k, less L(1 − t)/m when it is one of the
+ * first m points and L·t/m when one of the last m (m = 0: no baseline).
+ */
+function sensitivityNorm(x: Float64Array, first: number, last: number, m: number, t: number): number {
+  const width = x[last]! - x[first]!;
+  let sum = 0;
+  for (let k = first; k <= last; k++) {
+    let c = ((k < last ? x[k + 1]! : x[k]!) - (k > first ? x[k - 1]! : x[k]!)) / 2;
+    if (m > 0 && k < first + m) c -= (width * (1 - t)) / m;
+    if (m > 0 && k > last - m) c -= (width * t) / m;
+    sum += c * c;
+  }
+  return Math.sqrt(sum);
 }
 
 function centroid(x: Float64Array, y: Float64Array, from: number, to: number): [number, number] {

@@ -85,6 +85,12 @@ export interface SpectrumIntegral {
   readonly value: number;
   /** Its standard uncertainty from the noise region, or null without one. */
   readonly uncertainty: number | null;
+  /**
+   * The integral's standard uncertainty with the linear baseline's own noise, σ·√(Σ c_k²) (see
+   * spectra/integrate.ts); null without a noise region or with the baseline `none`. Shown beside
+   * `uncertainty`, not in it: the format fixes `uncertainty` as σ·|Δx|·√n (docs/format.md, "Spectra by reference").
+   */
+  readonly uncertaintyWithBaseline: number | null;
   /** Points of the spectrum inside the region (bounds included). */
   readonly points: number;
   /** The x unit of the file (or of the region, for a text file without one), or null when neither names one. */

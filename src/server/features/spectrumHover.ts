@@ -7,7 +7,7 @@
  * as a code span.
  */
 import { MarkupKind, type Hover, type Position } from 'vscode-languageserver';
-import { formatMeasured, markdownCode, type BlockReport, type Span, type SpectrumUse } from '../../core';
+import { baselineNote, formatMeasured, markdownCode, type BlockReport, type Span, type SpectrumUse } from '../../core';
 import type { Settings } from '../../shared/settings';
 import { blockAt, toOffset, toRange, type NoteState } from '../state';
 import { markdownTable } from './markdown';
@@ -54,6 +54,7 @@ export function spectrumUseMarkdown(use: SpectrumUse, settings: Pick<Settings, '
       'noise',
       `${num(r.noise[0])} … ${num(r.noise[1])}${xu}, ${r.noisePoints} points, σ = ${r.sigma === null ? '—' : num(r.sigma)}`,
     ]);
+  if (r.uncertaintyWithBaseline !== null) rows.push(['with baseline', baselineNote(r.uncertaintyWithBaseline)]);
   rows.push(['x unit', r.unit ?? 'none in the file (read in the region’s unit)']);
   rows.push(['file', markdownCode(use.file)]);
   return `${head}\n\n${markdownTable(['', ''], rows)}`;

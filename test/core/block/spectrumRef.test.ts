@@ -73,12 +73,19 @@ describe('spectrum references in a signal block', () => {
     close(r.sigma, 1 / Math.sqrt(3), 0.1, 'σ');
     close(r.uncertainty, r.sigma! * 0.05 * Math.sqrt(241), 1e-9, 'u');
     assert.ok(report.results!.polarization!.uncertainty! > 0);
+    // With the baseline's own noise: the integral is Σ c_k y_k; 241 points at Δx = 0.05 ppm, L = 12 ppm, m = 5 at
+    // each end and t = 1/2, so the 5 points of each centroid lose L/(2·5) = 1.2 from their trapezoid weight
+    // (Δx/2 at the two ends, Δx elsewhere) and u = σ·√(Σ c_k²) (GUM JCGM 100:2008 eq. (10)).
+    const dx = 0.05;
+    const sum = 231 * dx ** 2 + 2 * ((dx / 2 - 1.2) ** 2 + 4 * (dx - 1.2) ** 2);
+    close(r.uncertaintyWithBaseline, r.sigma! * Math.sqrt(sum), 1e-9, 'u with the baseline');
     const shown = spectrumUseLines(report.meta.spectra![0]!);
-    assert.equal(shown.length, 4);
+    assert.equal(shown.length, 5);
     assert.match(shown[0]!, /^signal\.hyperpolarized = [\d.]+ ± [\d.]+ \(y × ppm\)$/);
     assert.equal(shown[1], '241 points in 165 … 177 ppm, linear baseline');
     assert.match(shown[2]!, /^noise σ = 0\.5\d+ from 801 points in 200 … 240 ppm$/);
-    assert.equal(shown[3], 'file: n.csv');
+    assert.match(shown[3]!, /^with the linear baseline's own noise, u = [\d.]+; the u above, the format's, counts/);
+    assert.equal(shown[4], 'file: n.csv');
   });
 
   it('converts a region in Hz to a ppm file through the JCAMP-DX observe frequency, and refuses it without one', () => {

@@ -61,6 +61,7 @@ describe('curve view spectrum panel data', () => {
       result: {
         value: 2,
         uncertainty: 0.1,
+        uncertaintyWithBaseline: null,
         points: 4,
         unit: 'ppm',
         region: [1, 4],

@@ -84,6 +84,17 @@ describe('spectrum references in the editor', () => {
     assert.match(t, /`spectra\/th\.csv`/);
     // Elsewhere in the block the ordinary hovers apply.
     assert.equal(hoverText(state, 4, 3), null);
+    // Without a baseline there is no baseline noise to add; with the linear one, its u is shown beside.
+    assert.ok(!v.includes('with baseline'), v);
+    const linear = await analysed(TEXT.replace('baseline: none, noise', 'noise'));
+    const withBaseline = linear.report.blocks[0]!.meta.spectra![0]!.result!;
+    assert.ok(withBaseline.uncertaintyWithBaseline! > 0);
+    assert.ok(
+      hoverText(linear, 8, 30)!.includes(
+        `| with baseline | with the linear baseline's own noise, u = ${formatMeasured(withBaseline.uncertaintyWithBaseline!, null, { digits: 2 })};`,
+      ),
+      hoverText(linear, 8, 30)!,
+    );
   });
 
   it('hover on a reference that could not be followed names the file and its diagnostic', async () => {
