@@ -32,6 +32,7 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     summary: 'A block with more than 100 problems: how many more there are than those listed.',
   },
   'body-not-mapping': { severity: 'error', summary: 'The body must be a mapping of key: value lines.' },
+  'text-expected': { severity: 'warning', summary: 'A list or mapping where a label (`id`, `date`) is text; ignored.' },
   'key-unknown': { severity: 'warning', summary: 'A key the block does not know; ignored, with a suggestion.' },
   // The form
   'form-missing': { severity: 'error', summary: 'None of `levels`, `system` or `gap` was given.' },

@@ -28,7 +28,7 @@ import {
   type ReadContext,
   type ReadValue,
 } from './values';
-import { deref, entries, isMap, isScalar, parseBody, spanOf, type Entry } from './yamlTree';
+import { deref, entries, isMap, isScalar, isSeq, parseBody, spanOf, type Entry } from './yamlTree';
 import { spectrumRefs, unitsAgree } from './spectrumRef';
 
 /** What reading a block gave: its label and key spans, its input (null on errors) and its problems. */
@@ -99,9 +99,9 @@ export function interpretBody(body: string, externals: Externals | null = null):
   const ctx: ReadContext = { body, problems, externals, deps, refs, spectra };
   for (const e of all) if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
   const idEntry = byKey.get('id');
-  const idText = idEntry ? readId(ctx, idEntry.value) : null;
+  const idText = idEntry ? readId(ctx, idEntry) : null;
   const dateEntry = byKey.get('date');
-  const dateText = dateEntry ? readText(ctx, dateEntry.value) : null;
+  const dateText = dateEntry ? readLabel(ctx, dateEntry) : null;
   const meta: BlockMeta = {
     id: idText && idText.text !== '' ? idText.text : null,
     idSpan: idText?.span ?? null,
@@ -206,10 +206,25 @@ export function interpretBody(body: string, externals: Externals | null = null):
  * a number or a boolean (`007`, `1e3`, `0x1F`, `1.50`) keeps its text, which is also the text a reference
  * `{ run: 007 }` is matched with. A null scalar (`id:`, `id: ~`) gives no id.
  */
-function readId(ctx: ReadContext, node: Entry['value']): { text: string; span: Span } | null {
-  const t = readText(ctx, node);
-  const n = deref(node);
+function readId(ctx: ReadContext, e: Entry): { text: string; span: Span } | null {
+  const t = readLabel(ctx, e);
+  const n = deref(e.value);
   return t && isScalar(n) && !n.isNull ? { text: n.source, span: t.span } : t;
+}
+
+/** A label's text (`id`, `date`), or null; a list or mapping in its place is a warning and gives none. */
+function readLabel(ctx: ReadContext, e: Entry): { text: string; span: Span } | null {
+  const t = readText(ctx, e.value);
+  const n = deref(e.value);
+  if (!t && (isMap(n) || isSeq(n)))
+    report(
+      ctx,
+      'warning',
+      'text-expected',
+      `\`${e.key}\` is a label: write it as text on one line; this ${isMap(n) ? 'mapping' : 'list'} is ignored.`,
+      nonEmpty(spanOf(n) ?? e.keySpan),
+    );
+  return t;
 }
 
 /** `id-duplicate`: the id is carried by other blocks of the workspace too (asked of the host's runs). */

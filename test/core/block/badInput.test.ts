@@ -12,6 +12,18 @@ describe('bad input in a block', () => {
     assert.equal(p.at, '-0.3');
   });
 
+  it('warns on a list or a mapping written as the id or the date, and keeps the block working without them', () => {
+    const id = problem('id: [run, 7]\ngap: 1 K\nratio: 0.5', 'text-expected');
+    assert.equal(id.severity, 'warning');
+    assert.equal(id.at, '[run, 7]');
+    assert.match(id.message, /`id` is a label/);
+    const date = problem('date: { day: 17 }\ngap: 1 K\nratio: 0.5', 'text-expected');
+    assert.equal(date.at, '{ day: 17 }');
+    const { report } = block('id: [run, 7]\ngap: 1 K\nratio: 0.5');
+    assert.equal(report.meta.id, null);
+    assert.equal(report.status, 'normal');
+  });
+
   it('rejects a non-numeric population', () => {
     const p = problem('gap: 1 K\npopulations: [0.7, lots]', 'number-invalid');
     assert.equal(p.at, 'lots');
