@@ -3,8 +3,17 @@ import { closest } from '../text/suggest';
 import { report, type ReadContext } from './values';
 import type { Entry } from './yamlTree';
 
+/** Problems a block may have before unknown keys get no "did you mean" (see below). */
+const SUGGEST_UNTIL = 500;
+
 /** Warns about a key the block does not know, offering the closest known one. */
 export function unknownKey(ctx: ReadContext, e: Entry, known: ReadonlySet<string>): void {
+  // Past a few hundred problems (a pasted log) no suggestion is looked for: the block lists only its first
+  // hundred problems (analyzer/blockBounds.ts), and each search costs an edit distance per known key.
+  if (ctx.problems.length > SUGGEST_UNTIL) {
+    report(ctx, 'warning', 'key-unknown', `Unknown key \`${e.key}\`; it is ignored.`, e.keySpan);
+    return;
+  }
   // Allow about one edit per three letters, so short unrelated words get no suggestion.
   const guess = closest(e.key, [...known], Math.max(1, Math.min(3, Math.floor(e.key.length / 3))), {
     ignoreCase: true,
