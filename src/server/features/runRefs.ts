@@ -140,11 +140,23 @@ export function runPrepareRename(
   return { range: toRange(state.lines, s.span), placeholder: id };
 }
 
+/**
+ * Control characters (C0, DEL, C1), the byte-order mark, zero-width characters and the bidirectional controls
+ * (UAX #9): YAML refuses the first in a plain scalar, and the others would make two ids that read alike differ.
+ */
+const INVISIBLE_OR_CONTROL =
+  // eslint-disable-next-line no-control-regex -- the control characters are what it finds
+  /[\u0000-\u001f\u007f-\u009f\u00ad\u061c\u180e\u200b-\u200f\u202a-\u202e\u2060-\u2064\u2066-\u206f\ufeff]/;
+
 /** Why a new id cannot be written as a plain YAML value of `id:` and of `run:`, or null when it can. */
 export function badRunId(name: string): string | null {
   if (name.trim() === '') return 'An id cannot be empty.';
   if (name !== name.trim()) return 'An id cannot start or end with a space.';
-  if (/[\r\n\t]/.test(name)) return 'An id is one line.';
+  if (/[\r\n\t\u0085\u2028\u2029]/.test(name)) return 'An id is one line.';
+  if (INVISIBLE_OR_CONTROL.test(name))
+    return 'An id holds only visible characters: no control, zero-width or direction-changing ones.';
+  // YAML reads these plain words as null (core schema, YAML 1.2.2 §10.3.2): the block would have no id.
+  if (/^(?:null|Null|NULL|~)$/.test(name)) return `YAML reads "${name}" as no value at all, so it cannot be an id.`;
   if (/[#:{}[\],&*!|>'"%@`]/.test(name))
     return 'An id is written plain, so it cannot hold any of # : { } [ ] , & * ! | > \' " % @ `.';
   if (/^[-?]/.test(name)) return 'An id cannot start with - or ?.';

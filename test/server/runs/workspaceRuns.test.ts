@@ -102,4 +102,59 @@ describe('run ids as symbols', () => {
     assert.equal(badRunId('ref-13C Tuesday'), null);
     for (const bad of ['', ' x', 'a: b', 'a#b', '{x}', '- x', 'two\nlines', "it's"]) assert.ok(badRunId(bad), bad);
   });
+
+  it('takes a new id only where the block and a reference read it back as exactly that text', () => {
+    // Words YAML types (numbers, booleans, null: YAML 1.2.2 §10.3.2), control and invisible characters, and
+    // characters with a meaning in YAML or in `note.md#id`: each is refused, or written plain it reads back whole.
+    const names = [
+      '1e3',
+      '007',
+      '0x1F',
+      '.inf',
+      '-.nan',
+      'true',
+      'False',
+      'null',
+      'Null',
+      'NULL',
+      '~',
+      'a\u0000b',
+      'esc\u001b[2J',
+      'x\u2028y',
+      'x\u0085y',
+      '\u200bx',
+      'safe\u202egnp',
+      'a\u00a0b',
+      'café 7',
+      'Ar I 4p⁵',
+      'x # y',
+      'x #y',
+      'a:b',
+      'run 7 ',
+      '?x',
+      '%x',
+      '@x',
+      '`x`',
+      'a|b',
+      'a>b',
+      '!tag',
+      '*alias',
+      '&anchor',
+      '"q"',
+      "'q'",
+      '[x]',
+      'a,b',
+    ];
+    for (const name of names) {
+      if (badRunId(name) !== null) continue;
+      const text = `${fence(`id: ${name}\nsystem: 13C\nfield: 9.4 T\npolarization: 0.2`)}\n${fence(
+        `id: other\nsystem: 13C\nfield: 9.4 T\nlattice: 298 K\nsignal:\n  hyperpolarized: 100\n  thermal: { run: ${name} }`,
+      )}`;
+      const [a, b] = new Analyzer().analyzeText(text).blocks;
+      assert.equal(a!.meta.id, name, `the id ${JSON.stringify(name)}`);
+      assert.equal(b!.meta.refs?.[0]?.id, name, `a reference to ${JSON.stringify(name)}`);
+    }
+    for (const refused of ['null', '~', 'a\u0000b', 'esc\u001b[2J', 'x\u2028y', '\u200bx', 'safe\u202egnp'])
+      assert.ok(badRunId(refused), JSON.stringify(refused));
+  });
 });
