@@ -26,7 +26,8 @@ export function readExtrapolate(ctx: ReadContext, e: Entry): ExtrapolateInput | 
     return null;
   }
   const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
-  for (const x of byKey.values()) if (!EXTRAPOLATE_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(EXTRAPOLATE_KEYS));
+  for (const x of byKey.values())
+    if (!EXTRAPOLATE_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(EXTRAPOLATE_KEYS), byKey);
   const missing = EXTRAPOLATE_KEYS.filter((k) => !byKey.has(k));
   if (missing.length > 0) {
     report(

@@ -132,7 +132,7 @@ function readLevel(
     return null;
   }
   const byKey = new Map(entries(item).map((x) => [x.key, x] as const));
-  for (const x of byKey.values()) if (!LEVEL_KEY_NAMES.has(x.key)) unknownKey(ctx, x, LEVEL_KEY_NAMES);
+  for (const x of byKey.values()) if (!LEVEL_KEY_NAMES.has(x.key)) unknownKey(ctx, x, LEVEL_KEY_NAMES, byKey);
   const ee = byKey.get('energy');
   const pe = byKey.get('population');
   if (!ee) report(ctx, 'error', 'energy-missing', `${subject}: \`energy\` is required.`, nonEmpty(span!));

@@ -206,7 +206,7 @@ function readLine(
     return null;
   }
   const byKey = new Map(entries(item).map((x) => [x.key, x] as const));
-  for (const x of byKey.values()) if (!KEYS.has(x.key)) unknownKey(ctx, x, KEYS);
+  for (const x of byKey.values()) if (!KEYS.has(x.key)) unknownKey(ctx, x, KEYS, byKey);
   const need = (key: string, why: string): Entry | undefined => {
     const x = byKey.get(key);
     if (!x)

@@ -97,7 +97,7 @@ export function interpretBody(body: string, externals: Externals | null = null):
   }
   const spectra = spectrumRefs(body, problems, byKey.get('spectrum'));
   const ctx: ReadContext = { body, problems, externals, deps, refs, spectra };
-  for (const e of all) if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES);
+  for (const e of all) if (!BLOCK_KEY_NAMES.has(e.key)) unknownKey(ctx, e, BLOCK_KEY_NAMES, byKey);
   const idEntry = byKey.get('id');
   const idText = idEntry ? readId(ctx, idEntry) : null;
   const dateEntry = byKey.get('date');

@@ -35,7 +35,7 @@ export function readSeries(ctx: ReadContext, e: Entry): SeriesInput | null {
   // columns (ISO 80000-1 §6.1; IUPAC Green Book §1.4); a number with its own unit still keeps it.
   const unitKey = [...byKey.values()].find((x) => /^time\s*\/\s*\S/.test(x.key));
   for (const x of byKey.values())
-    if (!SERIES_KEYS.includes(x.key) && x !== unitKey) unknownKey(ctx, x, new Set(SERIES_KEYS));
+    if (!SERIES_KEYS.includes(x.key) && x !== unitKey) unknownKey(ctx, x, new Set(SERIES_KEYS), byKey);
   const model = readModel(ctx, byKey.get('model'), e);
   const listUnit = unitKey && !byKey.has('time') ? timeUnit(ctx, unitKey) : null;
   if (unitKey && !byKey.has('time') && listUnit === null) return null;

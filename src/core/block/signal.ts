@@ -32,7 +32,7 @@ export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
     return null;
   }
   const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
-  for (const x of byKey.values()) if (!SIGNAL_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(SIGNAL_KEYS));
+  for (const x of byKey.values()) if (!SIGNAL_KEYS.includes(x.key)) unknownKey(ctx, x, new Set(SIGNAL_KEYS), byKey);
   const noise = readPair(
     ctx,
     byKey.get('noise'),
@@ -232,7 +232,8 @@ function readPair(
     return null;
   }
   const byKey = new Map(entries(e.value).map((x) => [x.key, x] as const));
-  for (const x of byKey.values()) if (!(SIDES as readonly string[]).includes(x.key)) unknownKey(ctx, x, new Set(SIDES));
+  for (const x of byKey.values())
+    if (!(SIDES as readonly string[]).includes(x.key)) unknownKey(ctx, x, new Set(SIDES), byKey);
   const out: number[] = [];
   for (const side of SIDES) {
     const x = byKey.get(side);

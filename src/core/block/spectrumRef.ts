@@ -144,7 +144,7 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
   const n = deref(node);
   const span = nonEmpty(spanOf(n) ?? { start: 0, end: 0 });
   const byKey = new Map(entries(n).map((x) => [x.key, x] as const));
-  for (const x of byKey.values()) if (!KNOWN.has(x.key)) unknownKey(ctx, x, KNOWN);
+  for (const x of byKey.values()) if (!KNOWN.has(x.key)) unknownKey(ctx, x, KNOWN, byKey);
   const fileEntry = byKey.get('spectrum');
   const own = fileEntry ? readText(ctx, fileEntry.value) : null;
   if (fileEntry && (!own || own.text.trim() === '' || isMap(deref(fileEntry.value)) || isSeq(deref(fileEntry.value)))) {

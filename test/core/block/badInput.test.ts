@@ -24,6 +24,25 @@ describe('bad input in a block', () => {
     assert.equal(report.status, 'normal');
   });
 
+  it('never suggests for an unknown key one that its mapping has already (the fix would repeat the key)', () => {
+    // `fiedl` is one swap from `field`, which the block has: no suggestion of it; alone, it is offered.
+    const { report } = block('system: 13C\nfield: 9.4 T\nfiedl: 9.4 T\npolarization: 0.2');
+    const p = report.problems.find((x) => x.code === 'key-unknown')!;
+    assert.ok(!(p.fixes ?? []).some((f) => f.newText === 'field'), JSON.stringify(p.fixes));
+    assert.doesNotMatch(p.message, /Did you mean `field`/);
+    const alone = problem('system: 13C\nfiedl: 9.4 T\npolarization: 0.2', 'key-unknown');
+    assert.deepEqual(
+      alone.fixes.map((f) => f.newText),
+      ['field'],
+    );
+    // The same in a level's mapping.
+    const level = block(
+      'levels:\n  - { energy: 0 K, population: 1, populaton: 2 }\n  - { energy: 1 K, population: 0.5 }',
+    );
+    const q = level.report.problems.find((x) => x.code === 'key-unknown')!;
+    assert.ok(!(q.fixes ?? []).some((f) => f.newText === 'population'), JSON.stringify(q.fixes));
+  });
+
   it('rejects a non-numeric population', () => {
     const p = problem('gap: 1 K\npopulations: [0.7, lots]', 'number-invalid');
     assert.equal(p.at, 'lots');
