@@ -4,7 +4,13 @@
  * when the note is unknown or the request cancelled, and hands the note's
  * state to a feature, a pure function of it (features/*.ts).
  */
-import { DocumentDiagnosticReportKind, type CancellationToken, type Connection } from 'vscode-languageserver';
+import {
+  DocumentDiagnosticReportKind,
+  LSPErrorCodes,
+  ResponseError,
+  type CancellationToken,
+  type Connection,
+} from 'vscode-languageserver';
 import type { Settings } from '../shared/settings';
 import {
   AnalysisStatsRequest,
@@ -77,6 +83,11 @@ export interface FeatureRoutes {
 
 const lineOf = (p: { line: number }) => ({ startLine: p.line, endLine: p.line });
 
+/** The error of a request the client cancelled (LSP 3.17, "Cancellation Support"). */
+export function cancelled(): ResponseError<void> {
+  return new ResponseError(LSPErrorCodes.RequestCancelled, 'The request was cancelled.');
+}
+
 /** Registers the handler of every request about notes. */
 export function routeFeatures(connection: Connection, r: FeatureRoutes): void {
   const { serve, serveRuns, notes, runs, spectra, listSpectrumFiles, caps, folders } = r;
@@ -112,7 +123,8 @@ export function routeFeatures(connection: Connection, r: FeatureRoutes): void {
   );
   connection.onWorkspaceSymbol(async (p, token) => {
     await runs.ready();
-    return token.isCancellationRequested ? [] : runSymbols(runs, p.query);
+    if (token.isCancellationRequested) throw cancelled();
+    return runSymbols(runs, p.query);
   });
   connection.onDocumentLinks((p, token) =>
     serve(p.textDocument.uri, token, [], (s) => [...runLinks(runs, s), ...spectrumLinks(s, folders())]),

@@ -27,7 +27,7 @@ import { background, clientCaps, refreshAfter, type ClientCaps } from './clientC
 import { noteDiagnostics } from './diagnostics';
 import { Debouncer } from '../shared/debouncer';
 import { CODE_ACTION_FIX_ALL } from './features/codeActions';
-import { routeFeatures } from './featureRequests';
+import { cancelled, routeFeatures } from './featureRequests';
 import { Notes } from './notes';
 import type { ProtocolGuard } from './protocolGuard';
 import { ClosedReferrers } from './runs/closedReferrers';
@@ -130,7 +130,11 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     doc = documents.get(uri); // and again after the slices
     return doc ? { state: notes.get(doc, s), settings: s } : null;
   };
-  /** Runs a feature for a known, not cancelled request; empty otherwise. `near`: see `note`. */
+  /**
+   * Runs a feature for a request about an open note; `empty` for a note that is not open. A request the client
+   * cancelled fails with RequestCancelled (-32800), as the protocol advises, rather than answering empty, which a
+   * client could take for the note's answer. `near`: see `note`.
+   */
   const serve = async <T>(
     uri: string,
     token: CancellationToken | undefined,
@@ -139,10 +143,11 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     near?: { startLine: number; endLine: number },
   ): Promise<T> => {
     notes.heard();
-    if (token?.isCancellationRequested) return empty;
+    if (token?.isCancellationRequested) throw cancelled();
     try {
       const n = near ? await notes.answering(() => note(uri, near)) : await note(uri);
-      if (!n || token?.isCancellationRequested) return empty;
+      if (token?.isCancellationRequested) throw cancelled();
+      if (!n) return empty;
       return fn(n.state, n.settings);
     } catch (err) {
       // A refusal meant for the user (an id a rename cannot take) goes back as the request's error.
