@@ -245,7 +245,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
         // One registration: the notes (runs by reference) and the spectrum files references read.
         connection.client.register(DidChangeWatchedFilesNotification.type, {
           watchers: [
-            { globPattern: '**/*.{md,markdown}' },
+            { globPattern: '**/*.{md,markdown,ipynb}' },
             { globPattern: SPECTRUM_GLOB },
             // A deleted folder takes its notes and files with it.
             { globPattern: '**/*', kind: WatchKind.Delete },

@@ -39,6 +39,7 @@ import {
   type RunRef,
   type Span,
 } from '../../core';
+import { isNotebookNote } from '../runs/notebookNotes';
 import type { WorkspaceRuns } from '../runs/workspaceRuns';
 import { toOffset, toRange, type NoteState } from '../state';
 import { escapeMarkdown } from './markdown';
@@ -78,11 +79,13 @@ function runOf(runs: WorkspaceRuns, uri: string, s: RunSymbolAt): BookBlock | nu
   return s.kind === 'id' ? s.block : runs.book.target(uri, s.ref);
 }
 
-/** An LSP range of note offsets in any note of the index (the editor's text for the asking note). */
+/**
+ * An LSP range of note offsets in any note of the index (the editor's text for the asking note; in a notebook's
+ * file for a notebook, see notebookNotes.ts).
+ */
 function rangeIn(runs: WorkspaceRuns, state: NoteState, note: string, span: Span): Range | null {
   if (note === state.uri) return toRange(state.lines, span);
-  const lines = runs.linesOf(note);
-  return lines ? toRange(lines, span) : null;
+  return runs.rangeOf(note, span);
 }
 
 /** Go to definition: from a reference to the `id` value of the referenced block, in its note. */
@@ -186,6 +189,14 @@ export function runRename(
   if (newName === target.id) return null;
   if (runs.book.blocksWithId(newName).length > 0)
     throw new ResponseError(ErrorCodes.InvalidParams, `Another run already has the id "${newName}".`);
+  // A notebook's file is JSON: an edit there is not a replacement of the text the book reads. Rather than leave a
+  // reference behind, the rename is refused and names the notebook.
+  const notebooks = [target.note, ...runs.book.referrers(target).map((r) => r.from.note)].filter(isNotebookNote);
+  if (notebooks.length > 0)
+    throw new ResponseError(
+      ErrorCodes.InvalidRequest,
+      `The run "${target.id}" is written or referred to in the notebook ${noteName(notebooks[0]!)}, which rename does not edit; change the id there by hand.`,
+    );
   const edits = new Map<string, TextEdit[]>();
   const add = (note: string, span: Span): void => {
     // Replaced only where the id is written as it reads; a quoted id with escapes is left to the user.
@@ -243,13 +254,13 @@ export function runSymbols(runs: WorkspaceRuns, query: string, limit = 500): Sym
   for (const b of runs.book.runs()) {
     if (out.length >= limit) break;
     if (!b.place || b.id === null || !fuzzy(b.id.toLowerCase(), q)) continue;
-    const lines = runs.linesOf(b.note);
-    if (!lines) continue;
+    const range = runs.rangeOf(b.note, b.place.span);
+    if (!range) continue;
     const facts = runs.book.facts(b);
     out.push({
       name: b.id,
       kind: SymbolKind.Event,
-      location: { uri: b.note, range: toRange(lines, b.place.span) },
+      location: { uri: b.note, range },
       containerName: `${runLine(facts)} · ${noteName(b.note)}`,
     });
   }

@@ -21,14 +21,17 @@ import {
   type KeyChanges,
   type NoteText,
   type RunResolver,
+  type Span,
   type TextChange,
   type TextLines,
 } from '../../core';
+import type { Range } from 'vscode-languageserver';
 import type { ExternalPart } from '../externals';
+import { isNotebookNote, notebookNote, type NotebookNote } from './notebookNotes';
 import { SERVER_LIMITS } from '../notes';
 
-/** Note files the index reads. */
-export const NOTE_FILE = /\.(md|markdown)$/i;
+/** Note files the index reads: Markdown, and Jupyter notebooks (their Markdown cells, see notebookNotes.ts). */
+export const NOTE_FILE = /\.(md|markdown|ipynb)$/i;
 /** Files read at once while the folders are walked. */
 const READ_BATCH = 32;
 
@@ -73,8 +76,14 @@ export class WorkspaceRuns implements ExternalPart {
   readonly book: RunBook;
   /** Notes with an unsaved text (open in the editor): file events do not replace them. */
   private readonly open = new Set<string>();
-  /** The text of every note of the book, for positions in notes that are not open. */
-  private readonly texts = new Map<string, { text: string | NoteText; lines: TextLines | null }>();
+  /**
+   * The text of every note of the book, for positions in notes that are not open; for a notebook, the text the
+   * book reads (its Markdown cells) with the file text it came from and the places in that file.
+   */
+  private readonly texts = new Map<
+    string,
+    { text: string | NoteText; lines: TextLines | null; notebook?: { raw: string; note: NotebookNote } }
+  >();
   private folders: string[] = [];
   private scanning: Promise<void> = Promise.resolve();
   private scans = 0;
@@ -131,12 +140,23 @@ export class WorkspaceRuns implements ExternalPart {
     return t === undefined ? null : typeof t === 'string' ? t : t.toString();
   }
 
-  /** The line index of a note of the book, or null. */
+  /**
+   * The line index of a note of the book, or null (also for a notebook, whose places are not those of the text the
+   * book reads: see {@link rangeOf}).
+   */
   linesOf(note: string): TextLines | null {
     const t = this.texts.get(note);
-    if (!t) return null;
+    if (!t || t.notebook) return null;
     if (!t.lines) t.lines = typeof t.text === 'string' ? new LineIndex(t.text) : t.text;
     return t.lines;
+  }
+
+  /** The range in a note's file of a span of the text the book reads of it, or null when the note is unknown. */
+  rangeOf(note: string, span: Span): Range | null {
+    const nb = this.texts.get(note)?.notebook;
+    if (nb) return { start: nb.note.place(span.start), end: nb.note.place(span.end) };
+    const lines = this.linesOf(note);
+    return lines ? { start: lines.positionAt(span.start), end: lines.positionAt(span.end) } : null;
   }
 
   /** Resolves when the latest walk of the folders is over. */
@@ -200,15 +220,24 @@ export class WorkspaceRuns implements ExternalPart {
       if (!this.book.hasNote(uri)) return;
       this.forget(uri);
     } else {
-      if (this.texts.get(uri)?.text === text && this.book.hasNote(uri)) return;
+      if (this.unchanged(uri, text)) return;
       this.set(uri, text);
     }
     this.changed([uri]);
   }
 
-  private set(uri: string, text: string): void {
-    this.texts.set(uri, { text, lines: null });
+  /** A note's file text, as the book reads it: a notebook's Markdown cells (see notebookNotes.ts). */
+  private set(uri: string, raw: string): void {
+    const note = isNotebookNote(uri) ? notebookNote(raw) : null;
+    const text = note ? note.text : raw;
+    this.texts.set(uri, note ? { text, lines: null, notebook: { raw, note } } : { text, lines: null });
     this.book.setNote(uri, text);
+  }
+
+  /** True when the book holds the note as read from this file text already. */
+  private unchanged(uri: string, raw: string): boolean {
+    const t = this.texts.get(uri);
+    return (t?.notebook ? t.notebook.raw : t?.text) === raw && this.book.hasNote(uri);
   }
 
   private forget(uri: string): void {
@@ -223,9 +252,11 @@ export class WorkspaceRuns implements ExternalPart {
   /** A note a reference names that the index does not hold yet (the walk is not over): read now, in the folders only. */
   private loadNow(note: string): string | null {
     if (!this.files || !this.inFolders(note) || !isNoteUri(note)) return null;
-    const text = this.files.readNow(note);
-    if (text !== null) this.texts.set(note, { text, lines: null });
-    return text;
+    const raw = this.files.readNow(note);
+    if (raw === null) return null;
+    const nb = isNotebookNote(note) ? notebookNote(raw) : null;
+    this.texts.set(note, nb ? { text: nb.text, lines: null, notebook: { raw, note: nb } } : { text: raw, lines: null });
+    return nb ? nb.text : raw;
   }
 
   private async walkAll(scan: number): Promise<void> {
@@ -241,7 +272,7 @@ export class WorkspaceRuns implements ExternalPart {
       batch.forEach((uri, k) => {
         const text = texts[k];
         if (text === null || text === undefined || this.open.has(uri)) return;
-        if (this.texts.get(uri)?.text === text && this.book.hasNote(uri)) return;
+        if (this.unchanged(uri, text)) return;
         this.set(uri, text);
         set.push(uri);
       });

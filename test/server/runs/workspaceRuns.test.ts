@@ -1,6 +1,17 @@
 import { strict as assert } from 'node:assert';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { diskNotes } from '../../../src/server/runs/diskNotes';
 import { Analyzer, LineIndex, resolveNotePath } from '../../../src/core';
-import { badRunId, runPrepareRename, runSymbolAt } from '../../../src/server/features/runRefs';
+import {
+  badRunId,
+  runDefinition,
+  runPrepareRename,
+  runRename,
+  runSymbolAt,
+  runSymbols,
+} from '../../../src/server/features/runRefs';
 import { fileUri, WorkspaceRuns, type NoteFiles } from '../../../src/server/runs/workspaceRuns';
 import type { NoteState } from '../../../src/server/state';
 
@@ -67,6 +78,86 @@ describe('the workspace index of runs', () => {
     assert.equal(from, 'file:///lab%20notes/day%201/run%20%231.md');
     assert.equal(resolveNotePath(from, '../refs/mon (12).md'), fileUri('/lab notes/refs/mon (12).md'));
     assert.equal(fileUri('C:\\lab\\a.md'), 'file:///c%3A/lab/a.md');
+  });
+});
+
+describe('runs in Jupyter notebooks', () => {
+  // A notebook as nbformat 4 writes it (one JSON string per source line, indent 1): a code cell, then a Markdown cell
+  // with the thermal reference of the day. Invented data.
+  const cells = [
+    { cell_type: 'code', metadata: {}, source: ['x = 1  # "```levels" in code is not read\n'], outputs: [] },
+    {
+      cell_type: 'markdown',
+      metadata: {},
+      source: [
+        '## Reference, 2026-03-16\n',
+        '\n',
+        '```levels\n',
+        'id: nb-ref Mon\n',
+        'system: 13C\n',
+        'field: 3 T\n',
+        'lattice: 298 K\n',
+        'signal:\n',
+        '  thermal: 1.08e3\n',
+        '```',
+      ],
+    },
+  ];
+  const raw = JSON.stringify({ cells, metadata: {}, nbformat: 4, nbformat_minor: 5 }, null, 1);
+  const nb = 'file:///lab/day.ipynb';
+  const md = 'file:///lab/run.md';
+  const run = fence(
+    'id: run 12\nsystem: 13C\nfield: 3 T\nsignal:\n  hyperpolarized: 2.41e6\n  thermal: { run: day.ipynb#nb-ref Mon }',
+  );
+
+  it('indexes the Markdown cells of a notebook, resolves a reference into it and sends a definition to the id in the file', async () => {
+    const runs = new WorkspaceRuns(() => undefined, memoryFiles(new Map([[nb, raw]])));
+    await runs.setFolders(['file:///lab']);
+    assert.deepEqual(
+      runs.book.blocksOf(nb).map((b) => b.id),
+      ['nb-ref Mon'],
+    );
+    runs.edited(md, run);
+    const report = new Analyzer().analyzeText(run, runs.book.externalsFor(md));
+    assert.deepEqual(
+      report.blocks[0]!.problems.map((p) => p.code),
+      [],
+    );
+    assert.ok(report.blocks[0]!.results!.polarization!.value > 0);
+    const state: NoteState = { uri: md, version: 1, text: run, lines: new LineIndex(run), report };
+    const at = state.lines.positionAt(run.indexOf('nb-ref Mon') + 2);
+    const [def] = runDefinition(runs, state, at);
+    assert.equal(def!.uri, nb);
+    // The id's place in the notebook's file: the line `  "id: nb-ref Mon\n",`, from the `n` of `nb-ref`.
+    const fileLines = raw.split('\n');
+    const line = fileLines.findIndex((l) => l.includes('"id: nb-ref Mon\\n"'));
+    assert.ok(line > 0);
+    assert.deepEqual(def!.range.start, { line, character: fileLines[line]!.indexOf('nb-ref') });
+    assert.deepEqual(def!.range.end, { line, character: fileLines[line]!.indexOf('nb-ref') + 'nb-ref Mon'.length });
+    // The run is a workspace symbol at the same place.
+    const sym = runSymbols(runs, 'nbref').find((x) => x.location.uri === nb)!;
+    assert.deepEqual(sym.location.range, def!.range);
+    // Rename would have to edit the notebook's JSON: it is refused, naming the notebook.
+    assert.throws(() => runRename(runs, state, at, 'nb-ref Tue', { annotations: false }), /day\.ipynb/);
+  });
+
+  it('lists the notebooks of a folder on disk with its Markdown notes, and reads them', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'bm-nb-'));
+    try {
+      writeFileSync(join(dir, 'day.ipynb'), raw);
+      writeFileSync(join(dir, 'run.md'), run);
+      writeFileSync(join(dir, 'data.json'), '{}');
+      const listed = (await diskNotes.list(fileUri(dir))).map((u) => u.slice(u.lastIndexOf('/') + 1)).sort();
+      assert.deepEqual(listed, ['day.ipynb', 'run.md']);
+      const runs = new WorkspaceRuns(() => undefined, diskNotes);
+      await runs.setFolders([fileUri(dir)]);
+      assert.deepEqual(
+        runs.book.blocksOf(fileUri(join(dir, 'day.ipynb'))).map((b) => b.id),
+        ['nb-ref Mon'],
+      );
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
 
