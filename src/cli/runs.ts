@@ -7,7 +7,15 @@
  */
 import { realpathSync, statSync } from 'node:fs';
 import { dirname, resolve, sep } from 'node:path';
-import { decodeUtf8, isNotebookPath, notebookCells, RunBook, type Analyzer, type Externals } from '../core';
+import {
+  decodeUtf8,
+  isNotebookPath,
+  NOTEBOOK_CELL_GAP,
+  notebookCells,
+  RunBook,
+  type Analyzer,
+  type Externals,
+} from '../core';
 import { readNote, STDIN } from './files';
 
 /** The name a note has in the book: its absolute path (standard input: a note in the working folder). */
@@ -19,7 +27,7 @@ export function bookName(name: string, cwd: string): string {
 export function bookText(name: string, text: string): string {
   if (!isNotebookPath(name)) return text;
   const nb = notebookCells(text);
-  return nb.problem ? '' : nb.cells.map((c) => c.text).join('\n\n');
+  return nb.problem ? '' : nb.cells.map((c) => c.text).join(NOTEBOOK_CELL_GAP);
 }
 
 /** The folders a referenced note may be read from: those given, and the folder of each file given. */

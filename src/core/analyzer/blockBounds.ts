@@ -10,6 +10,7 @@
  * errors before warnings, with a note of how many more there are, so that a
  * pasted log does not send hundreds of thousands of diagnostics to the editor.
  */
+import { firstLine } from '../block/interpret';
 import type { Problem, Severity } from '../types';
 
 /** Most characters of one block body the language server reads. */
@@ -20,12 +21,11 @@ export const MAX_BLOCK_PROBLEMS = 100;
 
 /** The error of a body above `bound` characters, on its first line; the block is not read. */
 export function largeBlockProblem(body: string, bound: number): Problem {
-  const lineEnd = body.search(/\r|\n/);
   return {
     severity: 'error',
     code: 'block-large',
     message: `This block holds ${body.length.toLocaleString('en-US')} characters, more than the ${bound.toLocaleString('en-US')} the editor reads of one block; it is not read here (the command line reads it). Keep long data in a spectrum or text file and refer to it, or split the block.`,
-    span: { start: 0, end: Math.max(1, lineEnd === -1 ? body.length : lineEnd) },
+    span: firstLine(body),
   };
 }
 
@@ -47,12 +47,11 @@ export function listedProblems(sorted: Problem[], body: string): Problem[] {
   const left = sorted.length - MAX_BLOCK_PROBLEMS;
   const errorsLeft =
     sorted.filter((p) => p.severity === 'error').length - kept.filter((p) => p.severity === 'error').length;
-  const lineEnd = body.search(/\r|\n/);
   kept.unshift({
     severity: 'info',
     code: 'problems-not-listed',
     message: `This block has ${left.toLocaleString('en-US')} more problem${left === 1 ? '' : 's'} than the ${MAX_BLOCK_PROBLEMS} listed${errorsLeft > 0 ? ` (${errorsLeft.toLocaleString('en-US')} of them errors)` : ''}; they show as those listed are fixed.`,
-    span: { start: 0, end: Math.max(1, lineEnd === -1 ? body.length : lineEnd) },
+    span: firstLine(body),
   });
   return kept;
 }

@@ -276,7 +276,7 @@ function fmtField(t: number): string {
 }
 
 /** The body's first line, where problems of the block as a whole point (at least one character). */
-function firstLine(body: string): Span {
+export function firstLine(body: string): Span {
   return { start: 0, end: Math.max(1, body.search(/\r|\n|$/)) };
 }
 

@@ -25,6 +25,12 @@ export type NotebookCells =
   | { readonly cells: readonly NotebookCell[]; readonly problem: null }
   | { readonly cells: readonly []; readonly problem: NotebookProblem };
 
+/**
+ * Between a notebook's Markdown cells where they are read as one note (the index of runs): a blank line, so that no
+ * fence runs from one cell into the next.
+ */
+export const NOTEBOOK_CELL_GAP = '\n\n';
+
 /** True for a path or URI that names a Jupyter notebook. */
 export function isNotebookPath(path: string): boolean {
   return /\.ipynb$/i.test(path);

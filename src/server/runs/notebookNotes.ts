@@ -12,7 +12,7 @@
  * `é`) is not found and takes the place of the line before it: the place is
  * then the nearest line found, never a wrong file.
  */
-import { isNotebookPath, LineIndex, notebookCells, type LineCol } from '../../core';
+import { isNotebookPath, LineIndex, NOTEBOOK_CELL_GAP, notebookCells, type LineCol } from '../../core';
 
 /** A notebook as the index holds it. */
 export interface NotebookNote {
@@ -21,9 +21,6 @@ export interface NotebookNote {
   /** The position in the notebook's file of an offset of `text`. */
   place(offset: number): LineCol;
 }
-
-/** Between cells in the joined text: a blank line, so that no fence runs from one cell into the next. */
-const CELL_GAP = '\n\n';
 
 /** True for a note of the index that is a notebook. */
 export function isNotebookNote(uri: string): boolean {
@@ -41,8 +38,9 @@ export function notebookNote(raw: string): NotebookNote {
   const exact: boolean[] = [];
   let text = '';
   let cursor = 0;
-  for (const cell of nb.cells) {
-    if (text !== '') text += CELL_GAP;
+  nb.cells.forEach((cell, k) => {
+    // Joined exactly as the command line joins them (src/cli/runs.ts), empty cells included.
+    if (k > 0) text += NOTEBOOK_CELL_GAP;
     let at = text.length;
     for (const line of cell.text.split('\n')) {
       const escaped = JSON.stringify(line).slice(1, -1);
@@ -55,7 +53,7 @@ export function notebookNote(raw: string): NotebookNote {
       at += line.length + 1;
     }
     text += cell.text;
-  }
+  });
   const place = (offset: number): LineCol => {
     // The last line that starts at or before the offset.
     let a = 0;

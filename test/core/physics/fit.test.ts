@@ -8,6 +8,7 @@ import {
   weightedLineFit,
 } from '../../../src/core/physics/fit';
 import { close } from '../helpers';
+import { ARGON } from '../nistLines';
 
 /**
  * Independent straight-line fit from the uncentred normal equations
@@ -171,17 +172,7 @@ describe('Boltzmann fit', () => {
   it('recovers T = 10 000 K from the Ar I 4p → 4s intensities', () => {
     // NIST Atomic Spectra Database, Ar I lines as transcribed in domain.md §8b (λ_vac nm, E_k cm⁻¹, g_k, A s⁻¹);
     // relative intensities at 10 000 K from domain.md §8c (derived, D), relative to 811.7542 nm.
-    const ar = [
-      [811.7542, 105462.7596, 7, 3.3e7],
-      [763.7208, 106237.5518, 5, 2.45e7],
-      [810.5921, 106087.2598, 3, 2.5e7],
-      [801.699, 105617.27, 5, 9.3e6],
-      [795.0362, 107131.7086, 3, 1.86e7],
-      [751.6721, 107054.272, 1, 4.0e7],
-      [738.6014, 107289.7001, 5, 8.5e6],
-      [696.7352, 107496.4166, 3, 6.4e6],
-      [750.5935, 108722.6194, 1, 4.5e7],
-    ] as const;
+    const ar = ARGON;
     const relative = [
       1, 0.50419777, 0.2972004, 0.19934234, 0.19398811, 0.14872981, 0.15546566, 0.072272388, 0.13180352,
     ];

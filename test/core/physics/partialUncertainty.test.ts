@@ -13,6 +13,7 @@
 import { strict as assert } from 'node:assert';
 import { boltzmannFit, partlyStatedLineFit, weightedLineFit } from '../../../src/core/physics/fit';
 import { block, close, problem } from '../helpers';
+import { BALMER, C2 } from '../nistLines';
 
 /** Monte Carlo trials: the relative standard error of a standard deviation is 1/√(2M) ≈ 0.2 %. */
 const M = 100_000;
@@ -210,17 +211,6 @@ describe('a block in which only some levels or lines state an uncertainty', () =
       assert.ok(!r.problems.some((x) => x.code === 'uncertainty-partial'), body);
     }
   });
-
-  // H I Balmer lines, NIST Atomic Spectra Database (A. Kramida, Yu. Ralchenko, J. Reader and NIST ASD Team;
-  // export retrieved 2026-06-15): vacuum λ (nm), E_k (cm⁻¹), g_k, A_ki (s⁻¹).
-  const BALMER = [
-    [656.4632, 97492.304, 18, 4.4101e7],
-    [486.2691, 102823.904, 32, 8.4193e6],
-    [434.1691, 105291.657, 50, 2.5304e6],
-    [410.28991, 106632.1681, 72, 9.732e5],
-  ] as const;
-  // Second radiation constant hc/k = 1.438776877 cm K (CODATA, exact since 2019).
-  const C2 = 1.438776877503934;
 
   it('carries the stated u(I) of some lines into u(β) and the plot, with a note on a line without one', () => {
     const T = 10000;
