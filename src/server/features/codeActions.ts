@@ -25,8 +25,13 @@ const SEVERITY: Readonly<Record<Severity, DiagnosticSeverity>> = {
 
 /** The LSP diagnostic of a core problem (note offsets → range), linked to its section of the format reference. */
 export function problemToDiagnostic(state: NoteState, problem: Problem): Diagnostic {
+  return problemAt(toRange(state.lines, problem.span), problem);
+}
+
+/** The LSP diagnostic of a core problem at a range already found (a notebook's places are in its JSON file). */
+export function problemAt(range: Range, problem: Problem): Diagnostic {
   return {
-    range: toRange(state.lines, problem.span),
+    range,
     severity: SEVERITY[problem.severity],
     code: problem.code,
     codeDescription: { href: codeLink(problem.code) },

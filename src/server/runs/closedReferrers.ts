@@ -13,7 +13,7 @@
  */
 import type { Diagnostic } from 'vscode-languageserver';
 import { Analyzer, dependenciesHold, type Dependency, type Externals } from '../../core';
-import { noteDiagnostics } from '../diagnostics';
+import { problemAt } from '../features/codeActions';
 import { SERVER_LIMITS } from '../notes';
 import type { WorkspaceRuns } from './workspaceRuns';
 
@@ -54,13 +54,16 @@ export class ClosedReferrers {
       const was = this.sent.get(uri);
       if (was && dependenciesHold(was.deps, uri, was.externals)) continue;
       const text = this.runs.textOf(uri);
-      const lines = this.runs.linesOf(uri);
-      if (text === null || !lines) continue;
+      if (text === null) continue;
       const externals = this.externalsFor(uri);
       const report = this.analyzer.analyzeText(text, externals);
-      const diagnostics = noteDiagnostics({ uri, version: 0, text, lines, report }).filter((d) =>
-        isReferenceCode(d.code),
-      );
+      // Places through the index: a notebook's are in its JSON file, where the editor shows them.
+      const diagnostics: Diagnostic[] = [];
+      for (const p of [...report.problems, ...report.blocks.flatMap((b) => b.problems)]) {
+        if (!isReferenceCode(p.code)) continue;
+        const range = this.runs.rangeOf(uri, p.span);
+        if (range) diagnostics.push(problemAt(range, p));
+      }
       const deps = report.blocks.flatMap((b) => b.deps);
       this.sent.set(uri, { deps, externals, count: diagnostics.length });
       if (diagnostics.length > 0 || (was?.count ?? 0) > 0) out.push({ uri, diagnostics });

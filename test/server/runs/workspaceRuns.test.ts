@@ -12,6 +12,7 @@ import {
   runSymbolAt,
   runSymbols,
 } from '../../../src/server/features/runRefs';
+import { ClosedReferrers } from '../../../src/server/runs/closedReferrers';
 import { fileUri, WorkspaceRuns, type NoteFiles } from '../../../src/server/runs/workspaceRuns';
 import type { NoteState } from '../../../src/server/state';
 
@@ -139,6 +140,57 @@ describe('runs in Jupyter notebooks', () => {
     assert.deepEqual(sym.location.range, def!.range);
     // Rename would have to edit the notebook's JSON: it is refused, naming the notebook.
     assert.throws(() => runRename(runs, state, at, 'nb-ref Tue', { annotations: false }), /day\.ipynb/);
+  });
+
+  it('pushes the reference diagnostics of a closed notebook at the reference in its JSON file', async () => {
+    // The other way round: the notebook takes its thermal side from a run in a Markdown note, which breaks.
+    const refMd = 'file:///lab/ref.md';
+    const good = fence('id: md-ref Tue\nsystem: 13C\nfield: 3 T\nlattice: 298 K\nsignal:\n  thermal: 1.08e3');
+    const user = [
+      { cell_type: 'markdown', metadata: {}, source: ['# Tuesday\n'] },
+      {
+        cell_type: 'markdown',
+        metadata: {},
+        source: [
+          '```levels\n',
+          'id: run 40\n',
+          'system: 13C\n',
+          'field: 3 T\n',
+          'signal:\n',
+          '  hyperpolarized: 2.41e6\n',
+          '  thermal: { run: ref.md#md-ref Tue }\n',
+          '```',
+        ],
+      },
+    ];
+    const userRaw = JSON.stringify({ cells: user, metadata: {}, nbformat: 4, nbformat_minor: 5 }, null, 1);
+    const files = new Map([
+      [refMd, good],
+      [nb, userRaw],
+    ]);
+    const runs = new WorkspaceRuns(() => undefined, memoryFiles(files));
+    await runs.setFolders(['file:///lab']);
+    const closed = new ClosedReferrers(runs, (uri) => runs.book.externalsFor(uri));
+    assert.deepEqual(closed.update(), [], 'nothing to say while the reference holds');
+    // The reference loses its thermal signal in the editor.
+    runs.edited(refMd, good.replace('signal:\n  thermal: 1.08e3', 'signal: {}'));
+    const sent = closed.update();
+    assert.deepEqual(
+      sent.map((p) => p.uri),
+      [nb],
+    );
+    const [d] = sent[0]!.diagnostics;
+    assert.equal(d!.code, 'reference-invalid');
+    // On the reference's line of the notebook's file, inside its JSON string.
+    const fileLines = userRaw.split('\n');
+    const line = fileLines.findIndex((l) => l.includes('thermal: { run: ref.md#md-ref Tue }'));
+    assert.ok(line > 0);
+    assert.equal(d!.range.start.line, line);
+    assert.equal(d!.range.end.line, line);
+    assert.ok(fileLines[line]!.slice(d!.range.start.character, d!.range.end.character).includes('md-ref Tue'));
+    // Mended: taken back.
+    runs.edited(refMd, good);
+    assert.deepEqual(closed.update(), [{ uri: nb, diagnostics: [] }]);
   });
 
   it('lists the notebooks of a folder on disk with its Markdown notes, and reads them', async () => {
