@@ -11,8 +11,8 @@ import { STATUSES, terminalText, type Status } from '../core';
 // The bundler keeps only this field of package.json.
 import { version } from '../../package.json';
 import { UsageError } from './files';
-import { analyseAll, eachNoteRows, noteRowsOf, readNotes } from './notes';
-import { reportJsonParallel } from './parallel';
+import { analyseAll, eachNoteRows, noteRowsOf, readNotes, type ReadNotes } from './notes';
+import { folderGiven, reportJsonParallel, startThreads, stopThreads } from './parallel';
 import {
   DEFAULT_TABLE_WIDTH,
   formatCsv,
@@ -87,15 +87,25 @@ export function report(
  * nothing of a note kept once it is written.
  */
 function reportJson(paths: readonly string[], io: Io, statuses: readonly Status[] | null): number | Promise<number> {
-  const notes = readNotes(paths, io);
+  const workers = io.workers ?? 1;
+  const script = workers > 1 ? io.workerScript : undefined;
+  // With a folder to read, the threads start while this one reads the notes (parallel.ts).
+  const early = script && folderGiven(paths, io.cwd) ? startThreads(workers - 1, script, statuses) : [];
+  let notes: ReadNotes;
+  try {
+    notes = readNotes(paths, io);
+  } catch (e) {
+    stopThreads(early);
+    throw e;
+  }
   // Known before any note is analysed: a file that could not be read makes the status 2 whatever the blocks say.
   const unreadable = notes.read.some((r) => 'unreadable' in r.note);
   // Notes that need no book are independent of one another: from a few dozen on they are shared out to threads.
-  const workers = io.workers ?? 1;
-  if (!notes.book && workers > 1 && io.workerScript && notes.read.length >= PARALLEL_FROM)
-    return reportJsonParallel(notes.read, io, statuses, workers, io.workerScript).then((code) =>
+  if (!notes.book && script && notes.read.length >= PARALLEL_FROM)
+    return reportJsonParallel(notes.read, io, statuses, workers, script, early).then((code) =>
       unreadable ? USAGE : code,
     );
+  stopThreads(early);
   let written = 0;
   let error = false;
   for (const rows of eachNoteRows(notes, io)) {

@@ -10,10 +10,17 @@
  * back the notes it held, and they are analysed here instead: no note's
  * results are lost to another's failure.
  *
+ * When a folder is given, the threads are started before the notes are read
+ * ({@link startThreads}): a thread takes about as long to start as this one
+ * takes to read a thousand notes and decide they need no book of runs, so
+ * the two overlap. When the notes turn out to need the book, or to be too
+ * few to share out, the threads are stopped unused ({@link stopThreads}).
+ *
  * The threads run this same script (the `boltzmark` bundle), which starts
  * {@link serveNotes} when it is not the main thread.
  */
-import { dirname } from 'node:path';
+import { statSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
 import { parentPort, Worker, workerData } from 'node:worker_threads';
 import { Analyzer, SpectrumShelf, type Externals, type Status } from '../core';
 import { jsonElement } from './formats';
@@ -74,10 +81,55 @@ export function serveNotes(): void {
 /** Notes a thread holds at once: the next is there when it sends back the last, while this thread is busy. */
 const IN_FLIGHT = 2;
 
+/** A thread started for the report, and what became of it before the report took it over. */
+export interface Started {
+  readonly worker: Worker;
+  /** It runs: notes may be sent to it. */
+  online: boolean;
+  /** It failed or ended: it is given nothing. */
+  gone: boolean;
+}
+
 /**
- * Writes the JSON report of the notes on `threads` threads, this one among them: `threads - 1` run `script`,
- * and this thread analyses the next note whenever it is not writing, so it works from the first moment while
- * the others start. Resolves with the exit status (1 when any block has an error).
+ * Starts `count` threads running `script`. Until the report takes them over they are only watched: a thread that
+ * fails meanwhile is marked gone (an error with no listener would end the process).
+ */
+export function startThreads(count: number, script: string, statuses: readonly Status[] | null): Started[] {
+  const out: Started[] = [];
+  for (let i = 0; i < count; i++) {
+    const t: Started = { worker: new Worker(script, { workerData: { statuses } }), online: false, gone: false };
+    t.worker.on('online', () => (t.online = true));
+    t.worker.on('error', () => (t.gone = true));
+    t.worker.on('exit', () => (t.gone = true));
+    out.push(t);
+  }
+  return out;
+}
+
+/** Stops threads the report does not use; the process does not wait for them. */
+export function stopThreads(threads: readonly Started[]): void {
+  for (const t of threads) {
+    t.worker.unref();
+    void t.worker.terminate();
+  }
+}
+
+/** True when a path names a folder: then there are likely notes enough to share out, and threads start at once. */
+export function folderGiven(paths: readonly string[], cwd: string): boolean {
+  return paths.some((p) => {
+    try {
+      return p !== '-' && statSync(resolve(cwd, p)).isDirectory();
+    } catch {
+      return false;
+    }
+  });
+}
+
+/**
+ * Writes the JSON report of the notes on `threads` threads, this one among them: `threads - 1` run `script`
+ * (those of `started` when given, started before the notes were read), and this thread analyses the next note
+ * whenever it is not writing, so it works from the first moment while the others start. Resolves with the exit
+ * status (1 when any block has an error).
  */
 export function reportJsonParallel(
   notes: readonly ReadNote[],
@@ -85,6 +137,7 @@ export function reportJsonParallel(
   statuses: readonly Status[] | null,
   threads: number,
   script: string,
+  started: readonly Started[] = [],
 ): Promise<number> {
   return new Promise((resolve) => {
     const done = new Map<number, Done>();
@@ -124,10 +177,16 @@ export function reportJsonParallel(
       }
     };
     const count = Math.max(0, Math.min(threads - 1, notes.length - 1));
-    for (let i = 0; i < count; i++) {
-      const w = new Worker(script, { workerData: { statuses } });
+    // Threads started early beyond what the notes need are stopped; those missing are started now.
+    stopThreads(started.slice(count));
+    const pool = [
+      ...started.slice(0, count),
+      ...startThreads(count - Math.min(count, started.length), script, statuses),
+    ];
+    for (const t of pool) {
+      const w = t.worker;
       const held = new Set<number>();
-      let gone = false;
+      let gone = t.gone;
       others.push(w);
       w.on('message', (d: Done) => {
         // A message that comes after the thread was given up is of a note this thread analysed in its place.
@@ -147,9 +206,11 @@ export function reportJsonParallel(
       w.on('error', lost);
       w.on('exit', lost);
       // Notes go to a thread once it runs: until then this thread takes them in order, and writes as it goes.
-      w.on('online', () => {
-        if (!gone) give(w, held);
-      });
+      if (t.online && !gone) give(w, held);
+      else
+        w.on('online', () => {
+          if (!gone) give(w, held);
+        });
     }
     // This thread's share: one note, then a turn of the event loop for the others' results, until none is left.
     const step = (): void => {

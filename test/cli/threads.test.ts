@@ -1,4 +1,5 @@
 import { strict as assert } from 'node:assert';
+import { spawnSync } from 'node:child_process';
 import { rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { main, start, type Io } from '../../src/cli/main';
@@ -107,6 +108,24 @@ describe('boltzmark report on threads', function () {
   it('analyses on this thread the notes held by a thread that ends without answering', () =>
     // A script that listens for nothing: its thread ends as soon as it has run, holding the notes it was given.
     losesNone(40, 'thread-that-ends.js', '// this thread listens for nothing and ends\n', [4]));
+
+  it('stops unused the threads it started for a folder of too few notes, and the command ends', () => {
+    // Threads start before a folder's notes are read; three notes are too few to share out. A thread left
+    // running (it waits for notes) would keep the process alive until the time limit below.
+    const dir = folder(3);
+    try {
+      const r = spawnSync(process.execPath, [BUNDLE, 'report', '.', '--format', 'json', '--workers', '4'], {
+        cwd: dir,
+        encoding: 'utf8',
+        timeout: 30_000,
+      });
+      assert.equal(r.error, undefined, 'the command ended by itself');
+      assert.equal(r.status, 1, 'the broken note has an error');
+      assert.equal(r.stdout, oneThread(dir));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
 
   it('keeps notes that refer to runs on one thread, where the book of runs is', async () => {
     const dir = folder(40);
