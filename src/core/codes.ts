@@ -97,6 +97,10 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
       'Only some levels or lines state an uncertainty: an unweighted fit, u(β) from the stated ones and the scatter.',
   },
   'temperature-zero': { severity: 'info', summary: 'All population in the lowest (T → 0⁺) or highest (T → 0⁻) level.' },
+  'beta-out-of-range': {
+    severity: 'error',
+    summary: 'Finite inputs whose β is not a finite number (a spacing that rounds to 0 or to infinity).',
+  },
   // Measurement inputs (signals, series, lines, gain)
   'key-not-for-form': {
     severity: 'warning',

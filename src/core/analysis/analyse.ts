@@ -30,6 +30,7 @@ import {
   type CoreValues,
 } from './budget';
 import { resultIntervals } from './intervals';
+import { betaOutOfRange } from './outOfRange';
 
 /** Settings that change results. */
 export interface AnalysisOptions {
@@ -48,6 +49,13 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
   // inputs taken as exact; lattice and spacing get numerical sensitivities (analysis/budget.ts).
   const m = measure(withoutScalarUncertainties(input), series, problems);
   const { signal, finding, fractions } = m;
+  // A measurement that gives no β, no T → 0 limit and no problem saying why has left the range of numbers.
+  const noBeta =
+    finding === NOTHING_MEASURED
+      ? !!input.signal && !input.series && !signal
+      : !finding.beta && !finding.limit && finding.problems.length === 0;
+  const outOfRange = noBeta ? betaOutOfRange(input, true, problems) : null;
+  if (outOfRange) problems.push(outOfRange);
   const lines = [measurementLine(m), ...scalarLines(input, (changed) => valuesOf(measure(changed, series, [])))];
   const energyShare = finding.fit ? energiesLine(input) : null;
   if (energyShare) lines.push(energyShare);

@@ -136,6 +136,17 @@ export function spinPolarizationFromPopulations(
     moment += p * (spin - k);
   }
   const value = moment / (spin * sum) + 0;
+  // (I − k) − I·P = Σ_j (j − k)·n_j/Σn = A − k = (n − 1 − k) − B, with A = Σ j·n_j/Σn the mean distance from
+  // the lowest level and B that from the highest. Both are sums of terms ≥ 0; taking the smaller one keeps
+  // the coefficient of the most populated level exact near |P| = 1, where (I − k) − I·P cancels to 0.
+  let fromLowest = 0;
+  let fromHighest = 0;
+  for (let j = 0; j < n; j++) {
+    const p = populations[j]! / max / sum;
+    fromLowest += j * p;
+    fromHighest += (n - 1 - j) * p;
+  }
+  const offset = (k: number): number => (fromLowest <= fromHighest ? fromLowest - k : n - 1 - k - fromHighest);
   let given = false;
   const parts: number[] = [];
   for (let k = 0; k < n && uPopulations; k++) {
@@ -143,7 +154,7 @@ export function spinPolarizationFromPopulations(
     if (u === null || u === undefined) continue;
     if (!Number.isFinite(u) || u < 0) return { value, uncertainty: null };
     given = true;
-    parts.push((Math.abs(spin - k - spin * value) / (spin * sum)) * (u / max));
+    parts.push((Math.abs(offset(k)) / (spin * sum)) * (u / max));
   }
   const uncertainty = given ? Math.hypot(...parts) : null;
   return { value, uncertainty: uncertainty !== null && Number.isFinite(uncertainty) ? uncertainty : null };

@@ -16,16 +16,22 @@
  * Checks a population-like list (finite, ≥ 0, not all zero) and returns its sum
  * after dividing by its largest entry, with that scale; null when invalid.
  */
-function scaled(values: readonly number[]): { readonly scale: number; readonly sum: number } | null {
+function scaled(
+  values: readonly number[],
+): { readonly scale: number; readonly sum: number; readonly lnSum: number } | null {
   let scale = 0;
-  for (const v of values) {
+  let top = -1;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i]!;
     if (!Number.isFinite(v) || v < 0) return null;
-    if (v > scale) scale = v;
+    if (v > scale) [scale, top] = [v, i];
   }
   if (scale === 0) return null;
-  let sum = 0;
-  for (const v of values) sum += v / scale;
-  return { scale, sum };
+  // The sum is 1 (the largest entry) plus the rest; ln of it as log1p(rest), so that a rest below 1e-16
+  // (a ground level holding all but 4e-18) still counts in ln Σ, and in the entropy, whose size it sets.
+  let rest = 0;
+  for (let i = 0; i < values.length; i++) if (i !== top) rest += values[i]! / scale;
+  return { scale, sum: 1 + rest, lnSum: Math.log1p(rest) };
 }
 
 /**
@@ -55,7 +61,7 @@ function validDegeneracies(g: readonly number[] | null | undefined, length: numb
 export function gibbsEntropy(populations: readonly number[], g?: readonly number[] | null): number | null {
   const s = scaled(populations);
   if (s === null || !validDegeneracies(g, populations.length)) return null;
-  const lnSum = Math.log(s.sum);
+  const lnSum = s.lnSum;
   let entropy = 0;
   for (let i = 0; i < populations.length; i++) {
     const p = populations[i]! / s.scale / s.sum;
@@ -127,8 +133,8 @@ export function relativeEntropy(p: readonly number[], q: readonly number[]): num
   const sp = scaled(p);
   const sq = scaled(q);
   if (sp === null || sq === null || p.length !== q.length) return null;
-  const lnSumP = Math.log(sp.sum);
-  const lnSumQ = Math.log(sq.sum);
+  const lnSumP = sp.lnSum;
+  const lnSumQ = sq.lnSum;
   let d = 0;
   for (let i = 0; i < p.length; i++) {
     if (p[i] === 0) continue;

@@ -33,7 +33,7 @@ export interface LineFit {
  * Unweighted (sigma null): all weights 1 and the uncertainties are estimated
  * from the residual scatter, covariance s²(XᵀX)⁻¹ with s² = Σr_i²/(n − 2); with
  * n = 2 there is no scatter to use and the uncertainties are null.
- * Sums are taken about the weighted mean of x for numerical stability.
+ * Sums are taken about the weighted mean of x, and y from its first value, for numerical stability.
  *
  * Domain: at least 2 points, equal lengths, finite x and y, every σ finite and
  * > 0. Returns null otherwise, when all x are equal (to rounding), and when the
@@ -49,13 +49,18 @@ export function weightedLineFit(
   if (!x.every(Number.isFinite) || !y.every(Number.isFinite)) return null;
   if (sigma !== null && !sigma.every((s) => Number.isFinite(s) && s > 0)) return null;
   const w = x.map((_, i) => (sigma === null ? 1 : 1 / (sigma[i]! * sigma[i]!)));
+  // y is taken from its first value: equal y (equal populations per degeneracy, T = ±∞) then give a slope of
+  // exactly 0 rather than the rounding of their mean (β = 5e-30, T = 2e29 K), and large y with a small spread
+  // keep their digits.
+  const y0 = y[0]!;
+  const yr = y.map((yi) => yi - y0);
   let sw = 0;
   let swx = 0;
   let swy = 0;
   for (let i = 0; i < n; i++) {
     sw += w[i]!;
     swx += w[i]! * x[i]!;
-    swy += w[i]! * y[i]!;
+    swy += w[i]! * yr[i]!;
   }
   if (!Number.isFinite(sw) || sw === 0) return null;
   const xm = swx / sw;
@@ -67,14 +72,15 @@ export function weightedLineFit(
   for (let i = 0; i < n; i++) {
     const dx = x[i]! - xm;
     sxx += w[i]! * dx * dx;
-    sxy += w[i]! * dx * (y[i]! - ym);
+    sxy += w[i]! * dx * (yr[i]! - ym);
     spread = Math.max(spread, Math.abs(dx));
     xScale = Math.max(xScale, Math.abs(x[i]!));
   }
   if (!(sxx > 0) || !Number.isFinite(sxx) || spread <= 16 * Number.EPSILON * xScale) return null;
   const slope = sxy / sxx;
-  const intercept = ym - slope * xm;
-  const residuals = x.map((xi, i) => y[i]! - (intercept + slope * xi));
+  const shifted = ym - slope * xm;
+  const intercept = shifted + y0;
+  const residuals = x.map((xi, i) => yr[i]! - (shifted + slope * xi));
   const chi2 = residuals.reduce((acc, r, i) => acc + w[i]! * r * r, 0);
   // Overflow in the sums (values near the double range) makes the fit meaningless: no result.
   if (!Number.isFinite(slope) || !Number.isFinite(intercept) || !Number.isFinite(chi2)) return null;

@@ -122,6 +122,8 @@ function scanNumber(text: string, start: number): Scanned {
   }
   const written = text.slice(start, decimalEnd);
   const span = { start, end: decimalEnd };
+  const unusual = otherNotation(text, start, decimalEnd, written);
+  if (unusual) return unusual;
   const comma = codeAt(text, span.end) === 44 /* , */ ? /^,\d+/.exec(text.slice(span.end)) : null;
   if (comma && !written.includes('.')) {
     const whole = { start, end: span.end + comma[0].length };
@@ -137,8 +139,56 @@ function scanNumber(text: string, start: number): Scanned {
   );
   if (!Number.isFinite(value))
     return problem('number-invalid', `\`${written}\` is out of the range of double precision.`, span);
+  // A nonzero number below the smallest double (about 5e-324) reads as 0, which would turn `ratio: 1e-400` into an
+  // empty level (T → 0) that nobody wrote: refused like an overflow.
+  if (value === 0 && /[1-9]/.test(written.split(/[eE]/)[0]!))
+    return problem(
+      'number-invalid',
+      `\`${written}\` is below the range of double precision (about 5e-324) and would read as 0.`,
+      span,
+    );
   const sign = written.charCodeAt(0);
   return { value, span, negative: sign === 45 /* - */ || sign === 0x2212 };
+}
+
+/** Digits of the YAML 1.2 integer forms `0x…` and `0o…` (and YAML 1.1's `0b…`), by the letter after the 0. */
+const RADIX: Readonly<Record<string, { readonly base: number; readonly digits: RegExp; readonly name: string }>> = {
+  x: { base: 16, digits: /^[0-9a-fA-F]+(?:\.[0-9a-fA-F]*)?(?:[pP][+-]?\d+)?/, name: 'a hexadecimal' },
+  o: { base: 8, digits: /^[0-7]+/, name: 'an octal' },
+  b: { base: 2, digits: /^[01]+/, name: 'a binary' },
+};
+
+/**
+ * Numbers YAML or a programming language writes but a lab note does not: `0x10`, `0o17`, `0b11`, `0x1p3` (a
+ * base other than ten) and `1_000` (digits grouped with `_`). Read as a decimal they would be a 0 or a 1 followed
+ * by a "unit" `x10` or `_000`, and the problem would say so; here they are `number-invalid` on the whole number,
+ * with a fix writing the same integer in decimal where there is one. Null for anything else.
+ */
+function otherNotation(text: string, start: number, decimalEnd: number, written: string): Scanned | null {
+  const next = codeAt(text, decimalEnd);
+  if (next === 95 /* _ */ && isDigit(codeAt(text, decimalEnd + 1))) {
+    const m = /^[+\-\u2212]?[\d_]+(?:\.[\d_]*)?(?:[eE][+\-\u2212]?[\d_]+)?/.exec(text.slice(start))!;
+    const whole = { start, end: start + m[0].length };
+    const newText = m[0].replace(/_/g, '');
+    return problem('number-invalid', `Write \`${m[0]}\` without the \`_\` between its digits: \`${newText}\`.`, whole, {
+      title: `Write ${newText}`,
+      span: whole,
+      newText,
+    });
+  }
+  const radix = /^[+\-\u2212]?0$/.test(written) ? RADIX[String.fromCharCode(next).toLowerCase()] : undefined;
+  const digits = radix ? radix.digits.exec(text.slice(decimalEnd + 1)) : null;
+  if (!radix || !digits) return null;
+  const whole = { start, end: decimalEnd + 1 + digits[0].length };
+  const token = text.slice(whole.start, whole.end);
+  const n = /^[0-9a-fA-F]+$/.test(digits[0]) ? parseInt(digits[0], radix.base) : NaN;
+  const newText = Number.isSafeInteger(n) ? `${/^[-\u2212]/.test(written) ? '-' : ''}${n}` : null;
+  return problem(
+    'number-invalid',
+    `\`${token}\` is ${radix.name} number; numbers here are decimal${newText === null ? '' : ` (\`${newText}\`)`}.`,
+    whole,
+    newText === null ? undefined : { title: `Write ${newText}`, span: whole, newText },
+  );
 }
 
 /**
