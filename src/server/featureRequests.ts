@@ -47,7 +47,7 @@ import type { Notes } from './notes';
 import type { WorkspaceRuns } from './runs/workspaceRuns';
 import type { SpectrumFiles } from './spectra';
 import type { SpectrumHost } from './spectraWiring';
-import { blockAt, displayOptions, type NoteState } from './state';
+import { blockAt, clampPosition as at, displayOptions, type NoteState } from './state';
 
 /** Longest the outline waits for the spectrum files its note's blocks are reading. */
 const OUTLINE_WAIT_MS = 3000;
@@ -101,24 +101,26 @@ export function routeFeatures(connection: Connection, r: FeatureRoutes): void {
       token,
       null,
       (s, set) =>
-        runHover(runs, s, p.position, displayOptions(set)) ??
-        spectrumHover(s, p.position, set) ??
-        hover(s, p.position, set),
+        runHover(runs, s, at(s, p.position), displayOptions(set)) ??
+        spectrumHover(s, at(s, p.position), set) ??
+        hover(s, at(s, p.position), set),
       lineOf(p.position),
     ),
   );
   connection.onDefinition((p, token) =>
-    serveRuns(p.textDocument.uri, token, [], (s) => runDefinition(runs, s, p.position)),
+    serveRuns(p.textDocument.uri, token, [], (s) => runDefinition(runs, s, at(s, p.position))),
   );
   connection.onReferences((p, token) =>
-    serveRuns(p.textDocument.uri, token, [], (s) => runReferences(runs, s, p.position, p.context.includeDeclaration)),
+    serveRuns(p.textDocument.uri, token, [], (s) =>
+      runReferences(runs, s, at(s, p.position), p.context.includeDeclaration),
+    ),
   );
   connection.onPrepareRename((p, token) =>
-    serveRuns(p.textDocument.uri, token, null, (s) => runPrepareRename(runs, s, p.position)),
+    serveRuns(p.textDocument.uri, token, null, (s) => runPrepareRename(runs, s, at(s, p.position))),
   );
   connection.onRenameRequest((p, token) =>
     serveRuns(p.textDocument.uri, token, null, (s) =>
-      runRename(runs, s, p.position, p.newName, { annotations: caps().annotatedEdits }),
+      runRename(runs, s, at(s, p.position), p.newName, { annotations: caps().annotatedEdits }),
     ),
   );
   connection.onWorkspaceSymbol(async (p, token) => {
@@ -148,7 +150,7 @@ export function routeFeatures(connection: Connection, r: FeatureRoutes): void {
         p.textDocument.uri,
         token,
         [],
-        (s) => runCompletion(runs, s, p.position) ?? completion(s, p.position, caps().snippets),
+        (s) => runCompletion(runs, s, at(s, p.position)) ?? completion(s, at(s, p.position), caps().snippets),
       )
     );
   });

@@ -8,12 +8,18 @@ import { createConnection, ProposedFeatures } from 'vscode-languageserver/node';
 import { protocolGuard } from './protocolGuard';
 import { diskNotes } from './runs/diskNotes';
 import { startServer } from './server';
+import { guardStdio } from './stdioFrames';
 import { logStrayRejections } from './strayRejections';
 import { diskSpectrumAccess, listSpectrumFiles, workerParser } from './spectraNode';
 import { watchInput } from './transportInput';
 
 const guard = protocolGuard();
-const connection = createConnection(ProposedFeatures.all, { messageStrategy: guard.messageStrategy });
+// Over stdio the streams are guarded below JSON-RPC (stdioFrames.ts); the other transports are the library's.
+const stdio = process.argv.includes('--stdio') ? guardStdio(process.stdin, process.stdout, process.stderr) : null;
+const connection = stdio
+  ? createConnection(ProposedFeatures.all, stdio.input, stdio.output, { messageStrategy: guard.messageStrategy })
+  : createConnection(ProposedFeatures.all, { messageStrategy: guard.messageStrategy });
+stdio?.say((message) => connection.console.warn(message));
 logStrayRejections(connection);
 startServer(connection, {
   guard,

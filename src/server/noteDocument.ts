@@ -29,8 +29,11 @@ export class NoteDocument implements TextDocument {
     this.text = NoteText.of(content);
   }
 
-  /** Every fenced block of the current text, found once per version on first use (see {@link fences}). */
-  private scanned: { version: number; blocks: readonly FencedBlock[] } | null = null;
+  /**
+   * Every fenced block of the current text, found once per text on first use (see {@link fences}); kept with the
+   * text it was found in, not its version number, which a client may send unchanged with a changed text.
+   */
+  private scanned: { text: NoteText; blocks: readonly FencedBlock[] } | null = null;
 
   /**
    * Every fenced block of the current text, in order (any info string: the
@@ -39,8 +42,8 @@ export class NoteDocument implements TextDocument {
    * note's whole analysis, finds that block at once.
    */
   fences(): readonly FencedBlock[] {
-    if (this.scanned?.version !== this.version)
-      this.scanned = { version: this.version, blocks: [...scanFencedBlocks(this.text.toString())] };
+    if (this.scanned?.text !== this.text)
+      this.scanned = { text: this.text, blocks: [...scanFencedBlocks(this.text.toString())] };
     return this.scanned.blocks;
   }
 

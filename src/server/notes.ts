@@ -1,6 +1,6 @@
 /**
  * The open notes and their analyses. A note is analysed lazily, once per
- * version and per set of analysis settings, by a core Analyzer shared by
+ * text and per set of analysis settings, by a core Analyzer shared by
  * every note with those settings (whose per-block cache makes an edit
  * re-read only the blocks it touched, and whose memory of the note, with the
  * change the document recorded, makes it scan only where the note changed).
@@ -122,7 +122,7 @@ interface Known {
   readonly token: string | null;
 }
 
-/** Cache of note analyses, keyed by URI, version and analysis settings. */
+/** Cache of note analyses, keyed by URI, text and analysis settings. */
 export class Notes {
   /**
    * @param externalsFor the sources a note's blocks may read values from by reference (spectrum files, other
@@ -163,8 +163,10 @@ export class Notes {
     const doc = noteDocument(given);
     const key = analysisKey(settings);
     const known = this.states.get(doc.uri);
-    if (known && known.state.version === doc.version && known.key === key && this.holds(doc.uri, known))
-      return known.state;
+    // Keyed by the text itself, not by its version number: a client that sends a change with the version it had
+    // (or an older one, or opens the note again with the same one) still gets the analysis of the text it has.
+    const same = known && known.text === doc.pieces && known.state.version === doc.version && known.key === key;
+    if (same && this.holds(doc.uri, known)) return known.state;
     const text = doc.pieces;
     const externals = this.externalsFor(doc.uri);
     // The change since the version analysed last: the analyzer reads the note again only around it.
@@ -234,7 +236,7 @@ export class Notes {
     // it touched are not known until the whole note is read (a request there waits for that).
     let shift = { delta: 0, lines: 0 };
     let [a, b] = [from, to];
-    if (w.version !== doc.version) {
+    if (w.text !== doc.pieces) {
       const change = doc.changeSince(w.text);
       const delta = doc.pieces.length - w.text.length;
       if (!change) return this.get(doc, settings);

@@ -78,9 +78,20 @@ const nothing: Check = () => null;
 
 /** The requests the server serves, by method. */
 const REQUESTS: Readonly<Record<string, Check>> = {
-  initialize: object('', (p) =>
-    p.capabilities === undefined || isObject(p.capabilities) ? null : 'capabilities must be an object',
-  ),
+  initialize: object('', (p) => {
+    // Refused before the handlers, which would fail half-way (the server then running with no folders read).
+    if (!isObject(p.capabilities)) return 'capabilities must be an object';
+    if (p.rootUri !== undefined && p.rootUri !== null && typeof p.rootUri !== 'string')
+      return 'rootUri must be a string or null';
+    const folders = p.workspaceFolders;
+    if (folders === undefined || folders === null) return null;
+    if (!Array.isArray(folders)) return 'workspaceFolders must be an array or null';
+    for (let i = 0; i < folders.length; i++) {
+      const f: unknown = folders[i];
+      if (!isObject(f) || typeof f.uri !== 'string') return `workspaceFolders[${i}] must be an object { uri, name }`;
+    }
+    return null;
+  }),
   shutdown: nothing,
   'textDocument/hover': atPosition(),
   'textDocument/completion': atPosition(),
@@ -154,6 +165,12 @@ const NOTIFICATIONS: Readonly<Record<string, Check>> = {
     return null;
   },
   'workspace/didChangeConfiguration': object(''),
+  // Read by the connection itself, whose handler fails on anything but { value } (a log line, nothing set).
+  '$/setTrace': object(' { value }', (p) =>
+    p.value === 'off' || p.value === 'messages' || p.value === 'verbose'
+      ? null
+      : "value must be 'off', 'messages' or 'verbose'",
+  ),
   initialized: nothing,
 };
 

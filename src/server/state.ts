@@ -32,6 +32,23 @@ export function toRange(lines: TextLines, span: Span): Range {
   return { start: lines.positionAt(span.start), end: lines.positionAt(span.end) };
 }
 
+/**
+ * The position a client meant, inside the note: LSP 3.17 reads a character past its line's end as the line's end
+ * ("Position"), and so does the server for a line past the note's end (the note's end); a position between the
+ * two halves of a surrogate pair (which a UTF-16 client never sends) as the place before the pair. Features then
+ * never answer with a range outside the note. The position itself when it is inside.
+ */
+export function clampPosition(state: Pick<NoteState, 'lines' | 'text'>, pos: Position): Position {
+  let offset = state.lines.offsetAt(pos);
+  const around = offset > 0 ? state.text.slice(offset - 1, offset + 1) : '';
+  if (around.length === 2 && isHighSurrogate(around, 0) && isLowSurrogate(around, 1)) offset--;
+  const p = state.lines.positionAt(offset);
+  return p.line === pos.line && p.character === pos.character ? pos : p;
+}
+
+const isHighSurrogate = (s: string, i: number): boolean => (s.charCodeAt(i) & 0xfc00) === 0xd800;
+const isLowSurrogate = (s: string, i: number): boolean => (s.charCodeAt(i) & 0xfc00) === 0xdc00;
+
 /** Note offset of an LSP position. */
 export function toOffset(lines: TextLines, pos: Position): number {
   return lines.offsetAt(pos);

@@ -6,7 +6,7 @@
  */
 import { CompletionItemKind, type CompletionItem, type Position } from 'vscode-languageserver';
 import { noteFileUri } from '../spectra';
-import { blockAt, toOffset, type NoteState } from '../state';
+import { blockAt, clampPosition, toOffset, type NoteState } from '../state';
 
 /** `spectrum:` then the path typed so far, up to the cursor. */
 const AFTER_KEY = /(?:^|[\s{,])spectrum:\s+([^\s,{}[\]]*)$/;
@@ -44,6 +44,7 @@ export async function spectrumFileCompletion(
 ): Promise<CompletionItem[] | null> {
   const state = await stateOf();
   if (!state) return null;
+  position = clampPosition(state, position);
   const offset = toOffset(state.lines, position);
   const b = blockAt(state, offset);
   if (!b || position.line <= b.block.openLine) return null;
