@@ -6,7 +6,8 @@
  * note only as quick fixes the user picks.
  */
 import * as vscode from 'vscode';
-import type { BaseLanguageClient, LanguageClientOptions } from 'vscode-languageclient';
+import type { BaseLanguageClient, LanguageClientOptions, StaticFeature } from 'vscode-languageclient';
+import { LENS_COMMANDS_CAPABILITY } from '../shared/protocol';
 import type MarkdownIt from 'markdown-it';
 import { background } from './background';
 import { BLOCKS_KEY_DELAY_MS, BlocksKey, NOTE_HAS_BLOCKS } from './blocksKey';
@@ -33,6 +34,16 @@ export type ClientFactory = (
 
 let client: BaseLanguageClient | undefined;
 
+/** Tells the server that this client runs the commands its code lenses name (src/shared/protocol.ts). */
+const LENS_COMMANDS: StaticFeature = {
+  fillClientCapabilities(capabilities) {
+    capabilities.experimental = { ...(capabilities.experimental ?? {}), [LENS_COMMANDS_CAPABILITY]: true };
+  },
+  initialize: () => undefined,
+  getState: () => ({ kind: 'static' }),
+  clear: () => undefined,
+};
+
 /** Activates on the first Markdown document (or one of the commands or views). */
 export async function activateWith(context: vscode.ExtensionContext, makeClient: ClientFactory): Promise<BoltzmarkApi> {
   // The run log's sources (other runs, spectrum files) for the preview's references, once it is registered.
@@ -49,6 +60,7 @@ export async function activateWith(context: vscode.ExtensionContext, makeClient:
   context.subscriptions.push(log, trackBlocksKey(log));
   try {
     client = await makeClient(clientOptions(log), context);
+    client.registerFeature(LENS_COMMANDS);
     registerCommands(context, () => client, log);
     context.subscriptions.push(
       followCursor(),

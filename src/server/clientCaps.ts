@@ -11,6 +11,7 @@ import {
   type TextDocuments,
 } from 'vscode-languageserver';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
+import { LENS_COMMANDS_CAPABILITY } from '../shared/protocol';
 import type { SettingsChange } from './settingsStore';
 
 /** The optional client capabilities the server uses. */
@@ -31,9 +32,13 @@ export interface ClientCaps {
   readonly watchedFiles: boolean;
   /** A workspace edit may be `documentChanges` with change annotations (a rename then asks for confirmation). */
   readonly annotatedEdits: boolean;
+  /** The client runs the commands of the code lenses (protocol.ts, LENS_COMMANDS_CAPABILITY): lenses are offered. */
+  readonly lensCommands: boolean;
   /** `workspace/{inlayHint,codeLens,diagnostic}/refresh` declared with `refreshSupport`. */
   readonly refresh: { readonly inlayHints: boolean; readonly codeLens: boolean; readonly diagnostics: boolean };
 }
+
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null;
 
 /** Reads the capabilities the server cares about; anything absent counts as unsupported. */
 export function clientCaps(c: ClientCapabilities | undefined): ClientCaps {
@@ -47,6 +52,7 @@ export function clientCaps(c: ClientCapabilities | undefined): ClientCaps {
     configurationChange: w?.didChangeConfiguration?.dynamicRegistration === true,
     watchedFiles: w?.didChangeWatchedFiles?.dynamicRegistration === true,
     annotatedEdits: w?.workspaceEdit?.documentChanges === true && !!w?.workspaceEdit?.changeAnnotationSupport,
+    lensCommands: isRecord(c?.experimental) && c.experimental[LENS_COMMANDS_CAPABILITY] === true,
     refresh: {
       inlayHints: w?.inlayHint?.refreshSupport === true,
       codeLens: w?.codeLens?.refreshSupport === true,

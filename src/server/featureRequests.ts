@@ -167,7 +167,10 @@ export function routeFeatures(connection: Connection, r: FeatureRoutes): void {
     return symbols();
   });
   connection.onFoldingRanges((p, token) => serve(p.textDocument.uri, token, [], foldingRanges));
-  connection.onCodeLens((p, token) => serve(p.textDocument.uri, token, [], codeLenses));
+  // Only a client that runs the lenses' commands gets lenses (clientCaps.ts); another that asks anyway gets none.
+  connection.onCodeLens((p, token) =>
+    caps().lensCommands ? serve(p.textDocument.uri, token, [], codeLenses) : Promise.resolve([]),
+  );
   connection.onRequest(ResultsMarkdownRequest, (p, token) =>
     serve(p.uri, token, null, (s, set) => {
       const b = blockAt(s, s.lines.offsetAt({ line: p.line, character: 0 }));

@@ -177,7 +177,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     if (!caps.pull) for (const d of stale) push(d.uri);
     else if (caps.refresh.diagnostics)
       background(connection, 'workspace/diagnostic/refresh', connection.languages.diagnostics.refresh());
-    if (caps.refresh.codeLens)
+    if (caps.refresh.codeLens && caps.lensCommands)
       background(connection, 'workspace/codeLens/refresh', connection.sendRequest(CodeLensRefreshRequest.type));
   };
   /** Like `serve`, once the first reading of the workspace's notes is over (for features that span notes). */
@@ -212,7 +212,7 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
         completionProvider: { triggerCharacters: [' ', ':', '{', ','] },
         documentSymbolProvider: true,
         foldingRangeProvider: true,
-        codeLensProvider: { resolveProvider: false },
+        ...(caps.lensCommands ? { codeLensProvider: { resolveProvider: false } } : {}),
         definitionProvider: true,
         referencesProvider: true,
         renameProvider: { prepareProvider: true },

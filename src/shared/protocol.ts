@@ -7,6 +7,14 @@ import type { ViewPayload } from '../core';
 
 // ---- client → server ----
 
+/**
+ * The key of the client's `capabilities.experimental` that says it runs the commands Boltzmark's code lenses name
+ * (`boltzmark.showCurve`, `boltzmark.copyResults`, …: commands of the VS Code extension, not of the server). The
+ * server offers lenses only to a client that sets it to true; in any other editor a lens would be a button that
+ * fails.
+ */
+export const LENS_COMMANDS_CAPABILITY = 'boltzmarkLensCommands';
+
 /** Parameters naming one block: the note and the 0-based line of its opening fence (or any line inside it). */
 export interface BlockParams {
   readonly uri: string;

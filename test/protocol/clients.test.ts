@@ -121,6 +121,10 @@ describe('the server with minimal clients', function () {
     );
     assert.ok(templates.length > 0);
     for (const t of templates) assert.ok(t.insertTextFormat !== 2 && !/\$\{/.test(t.textEdit?.newText ?? ''));
+    // No code lenses: their commands are the VS Code extension's, which this client cannot run.
+    const offered = s.initialized.capabilities as Record<string, unknown>;
+    assert.equal(offered.codeLensProvider, undefined);
+    assert.deepEqual(await ask(s, 'textDocument/codeLens', { textDocument: { uri: URI } }), []);
     await s.close();
     assert.equal(s.proc.exitCode, 0);
   });

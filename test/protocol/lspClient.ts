@@ -13,6 +13,7 @@ import {
   StreamMessageWriter,
   type MessageConnection,
 } from 'vscode-jsonrpc/node';
+import { LENS_COMMANDS_CAPABILITY } from '../../src/shared/protocol';
 
 /** Diagnostics the server pushed, by URI. */
 export type Pushed = Map<
@@ -112,6 +113,8 @@ export async function startLsp(opts: StartOptions = {}): Promise<LspSession> {
       workspaceFolders: opts.workspaceFolders ?? null,
       initializationOptions: opts.initializationOptions,
       capabilities: opts.capabilities ?? {
+        // As the VS Code extension's client declares: it runs the commands the code lenses name.
+        experimental: { [LENS_COMMANDS_CAPABILITY]: true },
         workspace: { configuration: true },
         textDocument: {
           hover: { contentFormat: ['markdown', 'plaintext'] },
