@@ -37,7 +37,9 @@ let client: BaseLanguageClient | undefined;
 /** Tells the server that this client runs the commands its code lenses name (src/shared/protocol.ts). */
 const LENS_COMMANDS: StaticFeature = {
   fillClientCapabilities(capabilities) {
-    capabilities.experimental = { ...(capabilities.experimental ?? {}), [LENS_COMMANDS_CAPABILITY]: true };
+    const given: unknown = capabilities.experimental;
+    const others = typeof given === 'object' && given !== null ? (given as Record<string, unknown>) : {};
+    capabilities.experimental = { ...others, [LENS_COMMANDS_CAPABILITY]: true };
   },
   initialize: () => undefined,
   getState: () => ({ kind: 'static' }),
