@@ -54,7 +54,7 @@ export function analyse(input: BlockInput, options: AnalysisOptions = DEFAULT_AN
     finding === NOTHING_MEASURED
       ? !!input.signal && !input.series && !signal
       : !finding.beta && !finding.limit && finding.problems.length === 0;
-  const outOfRange = noBeta ? betaOutOfRange(input, true, problems) : null;
+  const outOfRange = noBeta ? betaOutOfRange(input, problems) : null;
   if (outOfRange) problems.push(outOfRange);
   const lines = [measurementLine(m), ...scalarLines(input, (changed) => valuesOf(measure(changed, series, [])))];
   const energyShare = finding.fit ? energiesLine(input) : null;

@@ -25,15 +25,20 @@ function measuredSpan(input: BlockInput): Span {
 function energySpread(input: BlockInput): number {
   if (input.spin) return input.spin.spacing;
   const energies = input.lines ? input.lines.lines.map((l) => l.upper) : input.levels.map((l) => l.energy);
-  return energies.length === 0 ? NaN : Math.max(...energies) - Math.min(...energies);
+  if (energies.length === 0) return NaN;
+  // A loop, not Math.max(...energies): spreading passes every energy as an argument and overflows the stack
+  // for a block of a few hundred thousand levels.
+  let [low, high] = [Infinity, -Infinity];
+  for (const e of energies) [low, high] = [Math.min(low, e), Math.max(high, e)];
+  return high - low;
 }
 
 /**
  * The `beta-out-of-range` error for a block whose measurement gives no β although
  * nothing was reported about it; null when β is there or a problem already says why.
  */
-export function betaOutOfRange(input: BlockInput, measured: boolean, problems: readonly Problem[]): Problem | null {
-  if (!measured || problems.some((p) => p.severity === 'error')) return null;
+export function betaOutOfRange(input: BlockInput, problems: readonly Problem[]): Problem | null {
+  if (problems.some((p) => p.severity === 'error')) return null;
   const spread = energySpread(input);
   const shown = Number.isFinite(spread) ? `${spread.toPrecision(3)} K` : 'not a finite number';
   return {
