@@ -47,6 +47,18 @@ function keepName(key: string): string {
   return KEY_NAMES.get(key) ?? key;
 }
 
+/** Keys that say how levels are filled, which mean nothing until a form says what the levels are. */
+const FILLING_KEYS = ['populations', 'polarization', 'ratio'] as const;
+type FillingKey = (typeof FILLING_KEYS)[number];
+
+/** The forms each of those keys belongs to (notebook-format.md, "exactly one of three forms"). */
+const FILLED_BY: Record<FillingKey, string> = {
+  populations:
+    'say which levels these fill: add `system:` with `field:` (a spin in a field) or `gap:` (a single transition), or give them as `levels:` with an energy each',
+  polarization: 'say which spin this is of: add `system:` with `field:` (a spin in a field)',
+  ratio: 'say which transition this is of: add `gap:` (a single transition; the ratio is n_upper / n_lower)',
+};
+
 const FORM_KEYS: readonly [string, BlockForm][] = [
   ['levels', 'levels'],
   ['system', 'spin'],
@@ -117,12 +129,16 @@ export function interpretBody(body: string, externals: Externals | null = null):
   if (forms.length > 1) forms.sort((a, b) => byKey.get(a[0])!.keySpan.start - byKey.get(b[0])!.keySpan.start);
   let input: BlockInput | null = null;
   if (forms.length === 0 && !byKey.has('series')) {
+    // Populations or a polarization without the levels they fill: said on that key, with the two forms that take it.
+    const filled = FILLING_KEYS.map((k) => byKey.get(k)).find((e) => e !== undefined);
     report(
       ctx,
       'error',
       'form-missing',
-      'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition); or give emission `lines:` or a time `series:`.',
-      firstLine(body),
+      filled
+        ? `${filled.key}: ${FILLED_BY[filled.key as FillingKey]}.`
+        : 'Describe the levels in one of three ways: `levels:` (explicit levels), `system:` with `field:` (a spin in a field) or `gap:` (a single transition); or give emission `lines:` or a time `series:`.',
+      filled ? filled.keySpan : firstLine(body),
     );
   } else if (forms.length > 1) {
     const [first, second] = forms;

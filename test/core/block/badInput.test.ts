@@ -193,6 +193,18 @@ describe('bad input in a block', () => {
     assert.equal(problem('gap: 1 K\nsystem: 1H\nratio: 0.5', 'form-conflict').at, 'system');
   });
 
+  it('says on `populations`, `polarization` or `ratio` which form is missing when they come without one', () => {
+    // notebook-format.md: populations fill a spin's Zeeman levels (`system` + `field`) or a transition (`gap`);
+    // a polarization is a spin's, a ratio a transition's.
+    const p = problem('id: x\npopulations: [0.5, 0.3]', 'form-missing');
+    assert.equal(p.at, 'populations');
+    assert.match(p.message, /^populations: .*`system:` with `field:`.*`gap:`/);
+    assert.match(problem('polarization: 0.2', 'form-missing').message, /^polarization: .*`system:` with `field:`/);
+    assert.doesNotMatch(problem('polarization: 0.2', 'form-missing').message, /gap/);
+    assert.match(problem('ratio: 0.2\nnote: n', 'form-missing').message, /^ratio: .*`gap:`/);
+    assert.equal(problem('id: x\nlattice: 4 K', 'form-missing').at, 'id: x');
+  });
+
   it('keeps every other block of the note working when one block is broken', () => {
     const text =
       '```levels\ngap: 1 K\nratio: 0.5\n```\n```levels\ngap: [\n```\n```levels\nsystem: 1H\nfield: 1 T\npolarization: 0.5\n```\n';
