@@ -49,6 +49,21 @@ function scales(chart: Chart): { x: Chart['scales'][string]; y: Chart['scales'][
   return { x: chart.scales.x!, y: chart.scales.y! };
 }
 
+/**
+ * Writes `text` at (x, y) with the context's current alignment and baseline, and returns the box its ink covers
+ * ([left, top, right, bottom], in the chart's CSS pixels) from the text's measured bounding box.
+ */
+function drawText(ctx: CanvasRenderingContext2D, text: string, x: number, y: number): readonly number[] {
+  ctx.fillText(text, x, y);
+  const m = ctx.measureText(text);
+  return [
+    x - m.actualBoundingBoxLeft,
+    y - m.actualBoundingBoxAscent,
+    x + m.actualBoundingBoxRight,
+    y + m.actualBoundingBoxDescent,
+  ];
+}
+
 /** Shades x > saturationX, marks β = 0 and labels both; drawn under the datasets. */
 export const inversionPlugin: Plugin = {
   id: 'inversion',
@@ -58,6 +73,7 @@ export const inversionPlugin: Plugin = {
     const { ctx, chartArea: a } = chart;
     const { x, y } = scales(chart);
     const px = Math.max(a.left, Math.min(a.right, x.getPixelForValue(o.saturationX)));
+    const boxes: Record<string, readonly number[]> = {};
     ctx.save();
     ctx.globalAlpha = o.alpha;
     ctx.fillStyle = o.shade;
@@ -73,7 +89,8 @@ export const inversionPlugin: Plugin = {
     const lineHeight = parseFloat(o.font) * 1.3 || 16;
     const inversionLeft = a.right - 6 - ctx.measureText(inversionText).width;
     const clash = !o.zeroLine && inversionLeft < px;
-    if (a.right - px > 40) ctx.fillText(inversionText, a.right - 6, a.top + 4 + (clash ? lineHeight : 0));
+    if (a.right - px > 40)
+      boxes.inversion = drawText(ctx, inversionText, a.right - 6, a.top + 4 + (clash ? lineHeight : 0));
     ctx.strokeStyle = o.line;
     ctx.lineWidth = 1.5;
     ctx.setLineDash([5, 4]);
@@ -94,15 +111,19 @@ export const inversionPlugin: Plugin = {
         ctx.moveTo(a.left, py);
         ctx.lineTo(a.right, py);
         ctx.stroke();
+        // "β = 0" above the line at the left, "saturation" below it, left of where the curve crosses.
         ctx.textAlign = 'left';
         ctx.textBaseline = 'bottom';
-        ctx.fillText('β = 0', a.left + 4, py - 3);
+        boxes.zero = drawText(ctx, 'β = 0', a.left + 4, py - 3);
         ctx.textAlign = 'right';
+        ctx.textBaseline = 'top';
         label = [px - 4, py + 3];
       }
     }
-    ctx.fillText('saturation', label[0], label[1]);
+    boxes.saturation = drawText(ctx, 'saturation', label[0], label[1]);
     chart.canvas.dataset.saturationLabel = label.join(',');
+    // Where each label's ink lies (left, top, right, bottom in the chart's CSS pixels), for tests of their layout.
+    chart.canvas.dataset.labelBoxes = JSON.stringify(boxes);
     ctx.restore();
   },
 };

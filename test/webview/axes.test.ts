@@ -66,6 +66,25 @@ describe('curve view axes (headless Chromium)', function () {
     assert.ok(Math.abs(labelY - (zero + 3)) < 1, `label at ${labelY}, β = 0 at ${zero}`);
   });
 
+  it('keeps the labels of β = 0, saturation and inversion apart: "β = 0" above the line, "saturation" below', async () => {
+    type Box = [number, number, number, number];
+    const apart = (a: Box, b: Box): boolean => a[2] <= b[0] || b[2] <= a[0] || a[3] <= b[1] || b[3] <= a[1];
+    for (const p of [curveOf(MULTI_LEVEL), curveOf(SERIES[0]!)]) {
+      await view.post(render(p));
+      await view.drawn(++draws);
+      const beta = JSON.parse((await data('beta-chart')).labelBoxes!) as Record<string, Box>;
+      const [, zero] = toPixel(await geometry(view.page, 'beta-chart'), 0, 0);
+      assert.ok(beta.zero![3] <= zero, `"β = 0" reaches ${beta.zero![3]}, below the line at ${zero}`);
+      assert.ok(
+        beta.saturation![1] >= zero,
+        `"saturation" starts at ${beta.saturation![1]}, above the line at ${zero}`,
+      );
+      assert.ok(apart(beta.zero!, beta.saturation!), JSON.stringify(beta));
+      const entropy = JSON.parse((await data('entropy-chart')).labelBoxes!) as Record<string, Box>;
+      if (entropy.inversion) assert.ok(apart(entropy.inversion, entropy.saturation!), JSON.stringify(entropy));
+    }
+  });
+
   it('puts every tick of the curves at a round, evenly spaced value, and the T axis at round temperatures', async () => {
     for (const p of [curveOf(MULTI_LEVEL), curveOf(SERIES[0]!)]) {
       await view.post(render(p));
