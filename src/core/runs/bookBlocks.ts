@@ -1,15 +1,17 @@
 /**
  * The blocks of the book of runs as it indexes them: what a block's body
  * gives the index (its id, where the id is written, its references and a
- * hash of the body), read once per body, and the small helpers that place a
+ * hash of the body), read once per body, the small helpers that place a
  * block's spans and lines in its note and move an indexed block after an
- * edit before it (runBook.ts).
+ * edit before it, and the reading again of the stretch of a note an edit
+ * changed (bookIndex.ts).
  */
-import { firstAtOrAfter, shiftBlock } from '../analyzer/rescanPlan';
+import { firstAtOrAfter, shiftBlock, type AnyText, type TextChange } from '../analyzer/rescanPlan';
+import { scanInWindows } from '../analyzer/windows';
 import { interpretBody } from '../block/interpret';
 import { ownCopy } from '../text/common';
 import { spanToNote } from '../analyzer/report';
-import type { FencedBlock } from '../text/fences';
+import { isLevelsInfo, scanFencedBlocks, type FencedBlock } from '../text/fences';
 import type { Span } from '../types';
 import { plainFacts, type PlainFacts } from './plainIds';
 import type { RunPlace, RunRef } from './types';
@@ -136,4 +138,66 @@ export function moveBookBlock(b: BookBlock, delta: number, lines: number, shift:
     span.end += delta;
     (b.place as { line: number }).line += lines;
   }
+}
+
+/** The stretch of a note an edit changed, read again (see {@link rereadStretch}). */
+export interface Reread {
+  /** Position of the first block read again: the blocks before it are kept. */
+  readonly head: number;
+  /** The blocks read in the stretch, and the old ones they replace. */
+  readonly added: BookBlock[];
+  readonly dropped: BookBlock[];
+  /** Position of the first old block after the stretch (kept, moved), or -1 when the scan reached the end. */
+  readonly resume: number;
+  /** Lines and characters the blocks after the stretch moved by. */
+  readonly lines: number;
+  readonly delta: number;
+}
+
+/**
+ * A set note's new text read again only where it changed: the note is scanned from the last block that opens
+ * before the change until a block opens, in the unchanged end, where an old one opened (moved by the change in
+ * length); the blocks from there on are the old ones.
+ * @param blocks the note's blocks as indexed in its old text, of length `oldLength`
+ */
+export function rereadStretch(
+  reader: BodyReader,
+  note: string,
+  blocks: readonly BookBlock[],
+  oldLength: number,
+  text: AnyText,
+  change: TextChange,
+  infoStrings: readonly string[],
+): Reread {
+  const prefix = Math.max(0, Math.min(change.prefix, oldLength, text.length));
+  const suffix = Math.max(0, Math.min(change.suffix, oldLength - prefix, text.length - prefix));
+  const delta = text.length - oldLength;
+  const syncFrom = text.length - suffix;
+  // The first old block opening at or after the change, and the one before it, where the scan starts again.
+  const k = firstAtOrAfter(blocks, prefix);
+  const keep = Math.max(0, k - 1);
+  const from = keep < blocks.length && k > 0 ? blocks[keep]!.block.openStart : 0;
+  const line = keep < blocks.length && k > 0 ? blocks[keep]!.block.openLine : 0;
+  const head = k > 0 ? keep : 0;
+  const added: BookBlock[] = [];
+  const dropped: BookBlock[] = [];
+  let resume = -1;
+  let lines = 0;
+  const found =
+    typeof text === 'string' ? scanFencedBlocks(text, from, line) : scanInWindows(text, from, line, syncFrom);
+  for (const block of found) {
+    if (block.openStart >= syncFrom) {
+      const j = openingAt(blocks, block.openStart - delta);
+      if (j >= 0) {
+        resume = j;
+        lines = block.openLine - blocks[j]!.block.openLine;
+        break;
+      }
+    }
+    if (!isLevelsInfo(block, infoStrings)) continue;
+    added.push(reader.bookBlock(note, head + added.length, block));
+  }
+  const lastOld = resume >= 0 ? resume : blocks.length;
+  for (let i = head; i < lastOld; i++) dropped.push(blocks[i]!);
+  return { head, added, dropped, resume, lines, delta };
 }

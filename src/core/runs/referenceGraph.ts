@@ -1,10 +1,12 @@
 /**
  * Walks over the graph of written references between the book's blocks
- * (runBook.ts): the longest chain from a block, and a path from one block to
- * another. Neither evaluates anything; `follow` gives the block a reference
- * leads to (null when it leads nowhere).
+ * (runBook.ts): the longest chain from a block, a path from one block to
+ * another, and, backwards, the references that lead to a block and the notes
+ * that use a note's blocks. None evaluates anything; `follow` gives the block
+ * a reference leads to (null when it leads nowhere).
  */
-import type { BookBlock } from './bookBlocks';
+import { spanToNote } from '../analyzer/report';
+import type { BookBlock, BookReference } from './bookBlocks';
 import type { RunRef } from './types';
 
 /** The block a reference written in block `from` leads to, or null. */
@@ -82,4 +84,51 @@ export function pathTo(start: BookBlock, goal: BookBlock, follow: Follow): BookB
     }
   }
   return null;
+}
+
+/** The notes of a book, each with its `levels` blocks, in order. */
+type Notes = Iterable<{ readonly blocks: readonly BookBlock[] }>;
+
+/** Every reference, in every note given, that leads to `target`. */
+export function referrersOf(target: BookBlock, notes: Notes, follow: Follow): BookReference[] {
+  const out: BookReference[] = [];
+  if (target.id === null) return out;
+  for (const n of notes)
+    for (const b of n.blocks)
+      for (const ref of b.refs) {
+        if (ref.id !== target.id) continue;
+        if (follow(b, ref) !== target) continue;
+        out.push({ from: b, ref, span: spanToNote(b.block, ref.span), idSpan: spanToNote(b.block, ref.idSpan) });
+      }
+  return out;
+}
+
+/**
+ * The notes whose blocks use one of `changed`'s blocks (`blocks`), directly or through other blocks, `changed`
+ * itself left out.
+ */
+export function dependentNotes(changed: string, blocks: readonly BookBlock[], notes: Notes, follow: Follow): string[] {
+  // Who refers to whom, backwards, once; then a walk from the changed note's blocks.
+  const back = new Map<BookBlock, BookBlock[]>();
+  for (const n of notes)
+    for (const b of n.blocks)
+      for (const ref of b.refs) {
+        const t = follow(b, ref);
+        if (!t) continue;
+        const list = back.get(t);
+        if (list) list.push(b);
+        else back.set(t, [b]);
+      }
+  const seen = new Set<BookBlock>(blocks);
+  const queue = [...seen];
+  const result = new Set<string>();
+  for (let i = 0; i < queue.length; i++)
+    for (const b of back.get(queue[i]!) ?? []) {
+      if (seen.has(b)) continue;
+      seen.add(b);
+      queue.push(b);
+      result.add(b.note);
+    }
+  result.delete(changed);
+  return [...result];
 }
