@@ -1,12 +1,18 @@
 /**
  * What an Analyzer remembers of the notes it analysed last, so that the next
  * version of a note is scanned only where it changed. The fence scan is a
- * function of the text alone and is outside every block at a fence's opening
- * line, so an earlier scan can be taken over up to the last fence that opens
- * before the first changed character, and again from the first fence that
- * opens, in both versions, inside the unchanged end of the text: from there on
- * the two scans see the same characters in the same state, and every block is
- * the old one moved by the change in length (and in line count).
+ * function of the text alone, and at a fence's opening line it is outside
+ * every fenced block and every HTML block (a fence opens inside neither; the
+ * line after it is in that fence, whatever came before: the scan's state
+ * holds nothing else, such as an open paragraph). So an earlier scan can be
+ * taken over up to the last fence that opens before the first changed
+ * character, and again from the first fence that opens, in both versions,
+ * inside the unchanged end of the text: from there on the two scans see the
+ * same characters in the same state, and every block is the old one moved by
+ * the change in length (and in line count). An edit that opens an HTML block
+ * (a `<!--` typed above the blocks) finds no such fence until the block ends,
+ * so the blocks it hides are dropped; one that removes it finds again the
+ * fences the old scan did not have, up to one the old scan had.
  */
 import type { FencedBlock } from '../text/fences';
 import { commonPrefix, commonSuffix, firstAtLeast } from '../text/common';
@@ -101,8 +107,9 @@ export function planReuse<R extends Placed, E>(
         ? Math.max(0, Math.min(change.suffix, old.length - prefix, text.length - prefix))
         : commonSuffix(flatText(old), flatText(text), prefix);
     if (prefix + suffix <= bestShared && !same) continue;
-    // Our last block that opens strictly before the first changed character: its line, and the one
-    // before it, read the same in both versions, so the old scan was at a line start outside any block.
+    // Our last block that opens strictly before the first changed character: its line, and the ones
+    // before it, read the same in both versions, so the old scan was at a line start outside any fenced
+    // block and any HTML block, and so is the new one.
     const keep = same ? memory.reports.length : firstAtOrAfter(memory.reports, prefix);
     const restart = !same && keep > 0 ? memory.reports[keep - 1]!.block : null;
     best = {
@@ -130,7 +137,8 @@ export function firstAtOrAfter(blocks: readonly Placed[], offset: number): numbe
  * Index of the remembered block that the new scan's `block` continues from,
  * or -1: the block must open inside the unchanged end of the text, at the
  * place one of ours opened (moved by the change in length). From there on
- * the two scans agree: both are outside every block at that line.
+ * the two scans agree: both are at that line outside every fenced block and
+ * every HTML block, and open the same fence on it.
  */
 export function resumeAt<R extends Placed, E>(reuse: Reuse<R, E>, block: FencedBlock): number {
   if (!reuse.memory.complete || block.openStart < reuse.syncFrom) return -1;

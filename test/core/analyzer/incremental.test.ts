@@ -183,3 +183,96 @@ describe('Analyzer and book of runs: a note edited in pieces, read again only ar
     assert.equal(third.stats.analysed, 2, 'the edited block, and the other "a" whose stamp changed');
   });
 });
+
+describe('Analyzer and book of runs: a note with HTML blocks edited in pieces', () => {
+  // HTML blocks (CommonMark 0.31.2, §4.6, https://spec.commonmark.org/0.31.2/#html-blocks) hide the fences among
+  // their lines (Examples 161, 179), so an edit may hide or show every block below it: the edits here type and
+  // delete the openers and ends of comments, kind 6 tags, blank lines and fences.
+  const htmlBase = [
+    '# Day 14\n\n<!-- run 0 was bad\n',
+    fence('id: run 0\npolarization: 0.9'),
+    '-->\n\n',
+    refBlock('ref A'),
+    '\n<div>\n',
+    hpBlock('hidden', 'ref A'),
+    '\n',
+    hpBlock('run 1', 'ref A'),
+    '\n<?php\n```levels\nid: php\n```\n?>\n',
+    fence('id: run 2\npolarization: 0.3'),
+    '<![CDATA[\n',
+    fence('id: cdata\npolarization: 0.1'),
+    ']]>\n\n<details>\n\n',
+    fence('id: run 3\npolarization: 0.2'),
+    '\nThe end.\n',
+  ].join('');
+
+  const htmlPieces = fc.constantFrom(
+    '<!--',
+    '-->',
+    '<!-- x -->',
+    '<div>',
+    '</div>',
+    '<?',
+    '?>',
+    '<pre>',
+    '</pre>',
+    '\n',
+    '\n\n',
+    '\r\n',
+    '```',
+    '```levels\n',
+    'id: run 2\n',
+    'x',
+    '   ',
+    '',
+  );
+
+  it('give what a fresh analyzer and a fresh book give for the whole new text, edit after edit', () => {
+    // The base note's commented, kind 6, kind 3 and CDATA blocks are hidden.
+    const ids = new Analyzer().analyzeText(htmlBase).blocks.map((b) => b.block.body.split('\n', 1)[0]);
+    assert.deepEqual(ids, ['id: ref A', 'id: run 1', 'id: run 2', 'id: run 3']);
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.nat(), fc.nat(40), fc.array(htmlPieces, { maxLength: 3 })), {
+          minLength: 1,
+          maxLength: 8,
+        }),
+        fc.boolean(),
+        fc.boolean(),
+        (edits, pieced, long) => {
+          const analyzer = new Analyzer();
+          const book = new RunBook();
+          // Long: prose between the sections, so that HTML blocks and fences run past the windows a text in pieces
+          // is read in (a few kilobytes past the change, then twice as long, and so on).
+          const initial = long
+            ? htmlBase.replace(/\n\n/g, '\n' + 'Prose, 40 characters long, no markup.\n'.repeat(150))
+            : htmlBase;
+          // The text in pieces (read in windows around each change) or as one string (read from a resume point).
+          let text: NoteText | string = pieced ? NoteText.of(initial) : initial;
+          let flat = initial;
+          book.setNote(NOTE, text);
+          analyzer.analyzeText(text, book.externalsFor(NOTE));
+          for (const [at, len, ins] of edits) {
+            const start = at % (flat.length + 1);
+            const end = Math.min(flat.length, start + len);
+            const inserted = ins.join('');
+            const change = { previous: text, prefix: start, suffix: flat.length - end };
+            flat = flat.slice(0, start) + inserted + flat.slice(end);
+            text = typeof text === 'string' ? flat : text.edit(start, end, inserted);
+            book.setNote(NOTE, text, change);
+            const got = analyzer.analyzeText(text, book.externalsFor(NOTE), change);
+            const freshBook = new RunBook();
+            freshBook.setNote(NOTE, flat);
+            const want = new Analyzer().analyzeText(flat, freshBook.externalsFor(NOTE));
+            assert.deepEqual(bookSummary(book), bookSummary(freshBook));
+            assert.deepEqual(summary(got), summary(want));
+          }
+        },
+      ),
+      {
+        numRuns: Number(process.env.FC_RUNS_SCALE ?? 1) * 150,
+        ...(process.env.FC_SEED ? { seed: Number(process.env.FC_SEED) } : {}),
+      },
+    );
+  });
+});
