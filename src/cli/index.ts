@@ -4,6 +4,7 @@ import { readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { setFlagsFromString } from 'node:v8';
 import { isMainThread } from 'node:worker_threads';
+import { terminalText } from '../core';
 import { start } from './main';
 import { serveNotes } from './parallel';
 
@@ -71,7 +72,10 @@ function startCommand(): number | Promise<number> {
       process.stdout.write(s);
       if (process.stdout.errored) outputFailed(process.stdout.errored);
     },
-    err: (s) => process.stderr.write(s),
+    // Warnings and usage errors can quote the command line (an unknown option, a format or status word, which
+    // commander echoes as given): each line is printed without control or reordering characters, so an escape
+    // sequence in an argument (a file name a shell glob expanded, say) does nothing to the terminal.
+    err: (s) => process.stderr.write(s.split('\n').map(terminalText).join('\n')),
     cwd: process.cwd(),
     ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
     // `-`: standard input, read whole (file descriptor 0).

@@ -288,7 +288,11 @@ function num(v: unknown): number | null {
 }
 
 /** Reads a JCAMP-DX text into a spectrum, or the reason (with the line) it is not one. */
-export function readJcamp(text: string): SpectrumRead {
+export function readJcamp(raw: string): SpectrumRead {
+  // Instruments write CR LF (or, from old Macs, CR alone) at the ends of lines, and some a byte-order mark: the
+  // labels and data are read line by line as LF lines (the line count, and so every line number, is the same).
+  const unmarked = raw.charCodeAt(0) === 0xfeff ? raw.slice(1) : raw;
+  const text = unmarked.includes('\r') ? unmarked.replace(/\r\n?/g, '\n') : unmarked;
   const s = scan(text);
   if ('message' in s) return { ok: false, line: s.line, message: s.message };
   let entries: Entry[];

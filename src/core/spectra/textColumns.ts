@@ -15,7 +15,9 @@ import { clipText } from '../text/common';
 const SEPARATORS = /[\s,;]+/;
 
 /** Reads a two-column text spectrum. */
-export function readTextColumns(text: string): SpectrumRead {
+export function readTextColumns(raw: string): SpectrumRead {
+  // CR LF and CR alone end lines as LF does (a file saved on Windows or an old Mac); line numbers are unchanged.
+  const text = raw.includes('\r') ? raw.replace(/\r\n?/g, '\n') : raw;
   const xs: number[] = [];
   const ys: number[] = [];
   let xUnit: XUnit | null = null;
