@@ -447,7 +447,7 @@ function withoutEmptyColumns(head: readonly string[], body: readonly string[][])
 export function formatLinePoints(rows: readonly Row[]): string {
   return linesCsv(
     rows.flatMap(({ entry, block }) =>
-      block ? [{ file: entry.file, line: entry.line, id: entry.id, results: block.results }] : [],
+      block ? [{ file: entry.file, line: entry.line, id: entry.id, results: block.results, cell: entry.cell }] : [],
     ),
   );
 }

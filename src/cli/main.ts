@@ -194,7 +194,16 @@ export function start(argv: readonly string[], io: Io): number | Promise<number>
     .configureOutput({
       writeOut: io.out,
       writeErr: io.err,
-      outputError: (s, write) => write(`boltzmark: ${s.replace(/^error: /, '')}`),
+      // Commander echoes arguments as given (an unknown option, a format word): each line without control or
+      // reordering characters, whoever hosts the command.
+      outputError: (s, write) =>
+        write(
+          `boltzmark: ${s
+            .replace(/^error: /, '')
+            .split('\n')
+            .map((l) => terminalText(l))
+            .join('\n')}`,
+        ),
     });
   program
     .command('report')

@@ -89,6 +89,20 @@ describe('boltzmark exit status for paths that cannot be read', () => {
     );
   });
 
+  it('writes the usage errors the command echoes without control characters, whoever hosts the command', () => {
+    // ECMA-48: ESC [ … is a control sequence (CSI), ESC ] … an operating system command (OSC 8 makes a link).
+    let err = '';
+    const io: Io = { out: () => undefined, err: (s) => (err += s), cwd: dir };
+    assert.equal(start(['report', 'good.md', '-f', 'x\u001b]8;;http://evil\u001b\\y\u001b[2J'], io), 2);
+    assert.match(err, /^boltzmark: /);
+    const control = (c: string): boolean => {
+      const n = c.codePointAt(0)!;
+      return (n < 0x20 && n !== 0x0a) || (n >= 0x7f && n <= 0x9f);
+    };
+    assert.ok(![...err].some(control), JSON.stringify(err));
+    assert.ok(err.endsWith('\n'), 'the message ends its line');
+  });
+
   it('is 2 when the JSON report is shared out to threads, and the report is the one of one thread', async () => {
     // Enough notes for threads, each id its own (a shared id would keep the report on one thread, with the book of
     // runs). The thread script ends at once, so this thread analyses every note itself.

@@ -77,8 +77,29 @@ describe('boltzmark report: the plot data of lines', () => {
     assert.equal(rows.length, 6);
     assert.ok(rows.some((r) => r.includes(",'=cmd,")));
     assert.ok(
-      rows.some((r) => r.includes(',Hγ,') && r.endsWith(`,below,${rows[1].split(',')[11]},${rows[1].split(',')[12]}`)),
+      rows.some((r) => r.includes(',Hγ,') && r.endsWith(`,below,${rows[1].split(',')[11]},${rows[1].split(',')[12]},`)),
     );
+    assert.equal(rows[0].split(',').at(-1), 'cell', 'the last column is the notebook cell, empty for a Markdown note');
+  });
+
+  it('names the notebook cell of each point in the line-points CSV (its line counts in that cell)', () => {
+    const nbDir = mkdtempSync(join(tmpdir(), 'boltzmark-lines-nb-'));
+    const cells = [
+      { cell_type: 'code', source: ['x = 1'], metadata: {}, outputs: [], execution_count: null },
+      {
+        cell_type: 'markdown',
+        source: NOTE.split('\n').map((l, i, a) => (i < a.length - 1 ? l + '\n' : l)),
+        metadata: {},
+      },
+    ];
+    writeFileSync(join(nbDir, 'lamp.ipynb'), JSON.stringify({ cells, metadata: {}, nbformat: 4, nbformat_minor: 5 }));
+    const { out } = run(['report', nbDir, '--format', 'line-points']);
+    const rows = out.trim().split('\r\n');
+    assert.equal(rows.length, 6);
+    for (const r of rows.slice(1)) {
+      assert.ok(r.startsWith(`${join(nbDir, 'lamp.ipynb')},1,balmer,`), r);
+      assert.ok(r.endsWith(',2'), r);
+    }
   });
 
   it('leaves out the empty P, P_th and ε columns of a table of lines', () => {

@@ -24,7 +24,15 @@ export function spectraEntries(meta: BlockMeta): SpectrumEntry[] {
     file: u.file,
     region: u.result ? [u.result.region[0], u.result.region[1]] : null,
     unit: u.result?.unit ?? null,
-    integral: u.result ? { value: u.result.value, uncertainty: u.result.uncertainty } : null,
+    // An integral past the double range (the block then has an error) is no number: null, as an unknown is.
+    integral:
+      u.result && Number.isFinite(u.result.value)
+        ? {
+            value: u.result.value,
+            uncertainty:
+              u.result.uncertainty !== null && Number.isFinite(u.result.uncertainty) ? u.result.uncertainty : null,
+          }
+        : null,
     points: u.result?.points ?? null,
   }));
 }

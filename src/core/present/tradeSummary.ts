@@ -129,6 +129,8 @@ export interface LinesCsvBlock {
   readonly line: number;
   readonly id: string | null;
   readonly results: BlockResults | null;
+  /** The 1-based notebook cell the block is in (its `line` counts in that cell), or null for a Markdown note. */
+  readonly cell?: number | null;
 }
 
 /** The header of {@link linesCsv}. */
@@ -146,6 +148,7 @@ export const LINES_CSV_HEAD = [
   'flag',
   'intercept',
   'intercept_uncertainty',
+  'cell',
 ];
 
 /** The per-line plot data of every block of lines, one row per line (RFC 4180, CRLF). */
@@ -169,6 +172,7 @@ export function linesCsv(blocks: readonly LinesCsvBlock[]): string {
         q.flag,
         p.intercept.value,
         p.intercept.uncertainty,
+        b.cell ?? null,
       ]);
   }
   return csvText(records);

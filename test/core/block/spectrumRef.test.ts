@@ -352,6 +352,24 @@ describe('files, stamps and the cache', () => {
     assert.deepEqual(r.deps, [{ key: 'file:/lab/hp.csv', stamp: 'reading' }]);
   });
 
+  it('lists an integral past the double range as null, not as a number JSON cannot write', () => {
+    // Intensities near the largest double (1.7977e308, IEEE 754 binary64): their trapezoidal sum over 12 ppm overflows.
+    const x: number[] = [];
+    const y: number[] = [];
+    for (let i = 0; i <= 400; i++) {
+      x.push(Number((180 - i * 0.05).toFixed(2)));
+      y.push(1.5e308);
+    }
+    const f = new MemoryFolder().set('big.csv', csv(x, y));
+    const r = f.block(
+      `${HEAD}signal:\n  hyperpolarized: { spectrum: big.csv, region: [165 ppm, 177 ppm], baseline: none }\n  thermal: 1`,
+    ).report;
+    const e = spectraEntries(r.meta);
+    assert.equal(e.length, 1);
+    assert.equal(e[0]!.integral, null, JSON.stringify(e[0]));
+    assert.ok(!JSON.stringify(e).includes('"value":null'));
+  });
+
   it('lists the references for the JSON report, a failed one with null numbers', () => {
     const f = new MemoryFolder().set('hp.csv', line(100));
     const r = f.block(
