@@ -168,6 +168,20 @@ export function readSpectrumRef(ctx: ReadContext, node: TreeNode | null, subject
     );
     return null;
   }
+  if (file.text.includes('\\')) {
+    // The format's separator is `/` on every system; a `\` would be a folder on one and part of a name on another.
+    const at = own ? file.span : span;
+    const plain = own !== null && ctx.body.slice(own.span.start, own.span.end) === own.text;
+    report(
+      ctx,
+      'error',
+      'spectrum-reference',
+      `${subject}: write the path of ${file.text} with \`/\` between folders, as on every system.`,
+      at,
+      plain ? [{ title: 'Write the path with `/`', span: own.span, newText: own.text.replace(/\\/g, '/') }] : [],
+    );
+    return null;
+  }
   const regionEntry = byKey.get('region');
   if (!regionEntry) {
     report(ctx, 'error', 'spectrum-reference', `${subject}: give the \`region: [from, to]\` to integrate.`, span);
