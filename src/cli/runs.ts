@@ -7,15 +7,7 @@
  */
 import { realpathSync, statSync } from 'node:fs';
 import { dirname, resolve, sep } from 'node:path';
-import {
-  decodeUtf8,
-  isNotebookPath,
-  NOTEBOOK_CELL_GAP,
-  notebookCells,
-  RunBook,
-  type Analyzer,
-  type Externals,
-} from '../core';
+import { decodeUtf8, isNotebookPath, joinCells, notebookCells, RunBook, type Analyzer, type Externals } from '../core';
 import { readNote, STDIN } from './files';
 
 /** The name a note has in the book: its absolute path (standard input: a note in the working folder). */
@@ -27,7 +19,7 @@ export function bookName(name: string, cwd: string): string {
 export function bookText(name: string, text: string): string {
   if (!isNotebookPath(name)) return text;
   const nb = notebookCells(text);
-  return nb.problem ? '' : nb.cells.map((c) => c.text).join(NOTEBOOK_CELL_GAP);
+  return nb.problem ? '' : joinCells(nb.cells);
 }
 
 /** The folders a referenced note may be read from: those given, and the folder of each file given. */

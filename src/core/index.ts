@@ -88,7 +88,8 @@ export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from
 export { findFencedBlocks, scanFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {
   isNotebookPath,
-  NOTEBOOK_CELL_GAP,
+  cellGap,
+  joinCells,
   notebookCells,
   type NotebookCell,
   type NotebookCells,

@@ -54,6 +54,20 @@ describe('boltzmark: runs by reference', function () {
     assert.ok(Math.abs(run1.polarizationAt!.value / run1.polarization!.value - Math.exp(42 / 47.9)) < 1e-12);
   });
 
+  it('finds a run in a notebook cell after a cell that leaves a fence or a comment open', () => {
+    // VS Code renders each Markdown cell on its own: an unclosed fence or `<!--` ends with its cell.
+    for (const first of ['```levels\nid: draft\ngap: 1 K', 'Set aside:\n\n<!--\n```levels\nid: old\n```']) {
+      const md = (text: string): object => ({ cell_type: 'markdown', metadata: {}, source: [text] });
+      const cells = [md(first), md(REF)];
+      writeFileSync(join(dir, 'day.ipynb'), JSON.stringify({ cells, metadata: {}, nbformat: 4, nbformat_minor: 5 }));
+      writeFileSync(join(dir, 'run.md'), RUN('day.ipynb#ref-13C Monday'));
+      const { entries } = json(['run.md'], dir);
+      const run1 = entries.find((e) => e.id === 'run 1')!;
+      assert.deepEqual(run1.diagnostics, [], first);
+      assert.deepEqual(run1.thermalReference, { id: 'ref-13C Monday', date: '2026-04-12' });
+    }
+  });
+
   it('reads a referenced note that was not named, inside the folder given', () => {
     mkdirSync(join(dir, 'refs'));
     mkdirSync(join(dir, 'runs'));

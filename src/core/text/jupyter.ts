@@ -6,6 +6,7 @@
  * structure is checked here field by field, because a notebook is data a
  * host read from disk and may be anything.
  */
+import { scanFencedBlocks, type FencedBlock } from './fences';
 
 /** One Markdown cell: its 0-based index among all cells of the notebook, and its text. */
 export interface NotebookCell {
@@ -26,10 +27,46 @@ export type NotebookCells =
   | { readonly cells: readonly []; readonly problem: NotebookProblem };
 
 /**
- * Between a notebook's Markdown cells where they are read as one note (the index of runs): a blank line, so that no
- * fence runs from one cell into the next.
+ * Between a notebook's Markdown cells where they are read as one note (the index of runs): at least a blank line,
+ * which ends a paragraph or an HTML block of the kind a blank line ends.
  */
 export const NOTEBOOK_CELL_GAP = '\n\n';
+
+/**
+ * A line that ends every HTML block of kinds 1 to 5 (CommonMark 0.31.2, §4.6: the line holding `-->`, `?>`, `>`,
+ * `]]>` or a closing `</script>`, `</pre>`, `</style>` or `</textarea>`), and is plain text outside one.
+ */
+const HTML_ENDS = '--> ?> ]]> </script> </pre> </style> </textarea>';
+
+/**
+ * What follows a Markdown cell's text where a notebook's cells are read as one note: whatever ends a fenced block or
+ * an HTML block the cell leaves open, then {@link NOTEBOOK_CELL_GAP}. VS Code renders each cell on its own, so a
+ * cell's unclosed fence or `<!--` must not swallow the cells after it.
+ */
+export function cellGap(text: string): string {
+  let last: FencedBlock | undefined;
+  for (const b of scanFencedBlocks(text)) last = b;
+  if (last && last.closeLine === null) {
+    // A closing fence: the opening one's character, as many times (CommonMark §4.5: at least as long).
+    let i = last.openStart;
+    while (text.charCodeAt(i) === 32) i++;
+    let j = i;
+    while (text.charCodeAt(j) === text.charCodeAt(i)) j++;
+    return `\n${text.slice(i, j)}${NOTEBOOK_CELL_GAP}`;
+  }
+  // No HTML block can be open in a text without `<`: the plain gap, as notes without HTML always had.
+  return text.includes('<') ? `\n${HTML_ENDS}${NOTEBOOK_CELL_GAP}` : NOTEBOOK_CELL_GAP;
+}
+
+/** The Markdown cells' texts as one note, each followed by its {@link cellGap} but the last. */
+export function joinCells(cells: readonly { readonly text: string }[]): string {
+  let out = '';
+  cells.forEach((c, k) => {
+    if (k > 0) out += cellGap(cells[k - 1]!.text);
+    out += c.text;
+  });
+  return out;
+}
 
 /** True for a path or URI that names a Jupyter notebook. */
 export function isNotebookPath(path: string): boolean {

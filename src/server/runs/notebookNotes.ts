@@ -12,11 +12,11 @@
  * `é`) is not found and takes the place of the line before it: the place is
  * then the nearest line found, never a wrong file.
  */
-import { isNotebookPath, LineIndex, NOTEBOOK_CELL_GAP, notebookCells, type LineCol } from '../../core';
+import { cellGap, isNotebookPath, LineIndex, notebookCells, type LineCol } from '../../core';
 
 /** A notebook as the index holds it. */
 export interface NotebookNote {
-  /** The Markdown cells' texts, joined by a blank line. */
+  /** The Markdown cells' texts, each ended by its cell gap (core's cellGap) but the last. */
   readonly text: string;
   /** The position in the notebook's file of an offset of `text`. */
   place(offset: number): LineCol;
@@ -39,8 +39,8 @@ export function notebookNote(raw: string): NotebookNote {
   let text = '';
   let cursor = 0;
   nb.cells.forEach((cell, k) => {
-    // Joined exactly as the command line joins them (src/cli/runs.ts), empty cells included.
-    if (k > 0) text += NOTEBOOK_CELL_GAP;
+    // Joined exactly as the command line joins them (src/cli/runs.ts, core's joinCells), empty cells included.
+    if (k > 0) text += cellGap(nb.cells[k - 1]!.text);
     let at = text.length;
     for (const line of cell.text.split('\n')) {
       const escaped = JSON.stringify(line).slice(1, -1);

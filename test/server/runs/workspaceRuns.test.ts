@@ -193,6 +193,24 @@ describe('runs in Jupyter notebooks', () => {
     assert.deepEqual(closed.update(), [{ uri: nb, diagnostics: [] }]);
   });
 
+  it('indexes the runs of a cell after a cell that leaves a fence or a comment open', async () => {
+    // VS Code renders each Markdown cell on its own: an unclosed fence or `<!--` ends with its cell.
+    for (const first of ['```levels\nid: draft\ngap: 1 K', '<!--\n```levels\nid: old\n```']) {
+      const open = { cell_type: 'markdown', metadata: {}, source: [first] };
+      const text = JSON.stringify({ cells: [open, ...cells], metadata: {}, nbformat: 4, nbformat_minor: 5 }, null, 1);
+      const runs = new WorkspaceRuns(() => undefined, memoryFiles(new Map([[nb, text]])));
+      await runs.setFolders(['file:///lab']);
+      assert.deepEqual(
+        runs.book
+          .blocksOf(nb)
+          .map((b) => b.id)
+          .slice(-1),
+        ['nb-ref Mon'],
+        first,
+      );
+    }
+  });
+
   it('lists the notebooks of a folder on disk with its Markdown notes, and reads them', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'bm-nb-'));
     try {
