@@ -140,6 +140,11 @@ export const CODES: Readonly<Record<string, CodeDoc>> = {
     summary: 'Values the block compares are integrals over different x units (y·Hz against y·ppm).',
   },
   'spectrum-large': { severity: 'error', summary: 'A spectrum file above 64 MB; not read.' },
+  'noise-replaced': {
+    severity: 'warning',
+    summary:
+      'A typed `noise` for a value whose spectrum reference has a noise region; the region’s uncertainty is used.',
+  },
   'scans-invalid': { severity: 'error', summary: 'A number of scans must be a whole number ≥ 1.' },
   'series-not-mapping': { severity: 'error', summary: '`series` is not a mapping.' },
   'series-incomplete': { severity: 'error', summary: '`series` lacks `model`, `time` or `signal`.' },

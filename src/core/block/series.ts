@@ -92,7 +92,7 @@ export function readSeries(ctx: ReadContext, e: Entry): SeriesInput | null {
   }
   if (flip && !checkFlip(ctx, model, flip)) return null;
   if (model === 'decay' && !sameSign(ctx, signals)) return null;
-  const uSignals = uncertainties(ctx, signals, noise);
+  const uSignals = uncertainties(ctx, signals, noise, byKey.get('noise'));
   if (uSignals === undefined) return null;
   return {
     model,
@@ -229,9 +229,18 @@ function sameSign(ctx: ReadContext, signals: ReadValue[]): boolean {
   return true;
 }
 
-/** Per-point uncertainties: `±` on every value, or one common `noise`; undefined after an error. */
-function uncertainties(ctx: ReadContext, signals: ReadValue[], noise: ReadValue | null): number[] | null | undefined {
-  const withPm = signals.filter((s) => s.uncertainty !== null);
+/**
+ * Per-point uncertainties: `±` on every value, or one common `noise`; undefined after an error. A signal
+ * from a spectrum reference with a noise region keeps that region's uncertainty (notebook format v1.2: it
+ * replaces a typed `noise`); the typed `noise` then serves the other signals only, with a warning on it.
+ */
+function uncertainties(
+  ctx: ReadContext,
+  signals: ReadValue[],
+  noise: ReadValue | null,
+  noiseEntry: Entry | undefined,
+): number[] | null | undefined {
+  const fromRegion = (s: ReadValue): boolean => s.fromSpectrum === true && s.uncertainty !== null;
   if (noise) {
     if (noise.value < 0) {
       report(
@@ -243,13 +252,28 @@ function uncertainties(ctx: ReadContext, signals: ReadValue[], noise: ReadValue 
       );
       return undefined;
     }
-    if (withPm.length > 0) {
+    if (signals.some((s) => s.uncertainty !== null && !fromRegion(s))) {
       report(ctx, 'error', 'uncertainty-twice', 'series: give `noise` or `±` on the signals, not both.', noise.span);
       return undefined;
     }
-    return noise.value > 0 ? signals.map(() => noise.value) : null;
+    const replaced = signals.flatMap((s, i) => (fromRegion(s) ? [i] : []));
+    if (replaced.length === 0) return noise.value > 0 ? signals.map(() => noise.value) : null;
+    const all = replaced.length === signals.length;
+    const which = replaced.map((i) => `series.signal[${i}]`).join(', ');
+    report(
+      ctx,
+      'warning',
+      'noise-replaced',
+      all
+        ? 'series.noise: replaced by the noise regions of the spectra, which give every signal its uncertainty; this typed noise is ignored.'
+        : `series.noise: replaced by the noise regions of the spectra for ${which}; this typed noise is ignored there and serves the other signals.`,
+      noiseEntry
+        ? { start: noiseEntry.keySpan.start, end: Math.max(noiseEntry.keySpan.end, noiseEntry.valueSpan.end) }
+        : noise.span,
+    );
+    const u = signals.map((s) => (fromRegion(s) ? s.uncertainty! : noise.value));
+    return u.every((x) => x > 0) ? u : null;
   }
-  if (withPm.length === signals.length && signals.every((s) => s.uncertainty! > 0))
-    return signals.map((s) => s.uncertainty!);
+  if (signals.every((s) => s.uncertainty !== null && s.uncertainty > 0)) return signals.map((s) => s.uncertainty!);
   return null;
 }

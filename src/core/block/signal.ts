@@ -14,6 +14,7 @@ import { SIGNAL_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
 import { followRun, isRunRefNode, readRunRef } from './runRef';
 import type { ThermalRun } from './input';
+import type { Span } from '../types';
 import { readNumberOrSpectrum } from './spectrumRef';
 
 type Pair = readonly [number, number];
@@ -46,7 +47,7 @@ export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
   let hp: ReadValue | null = null;
   if (hpEntry) {
     const v = readNumberOrSpectrum(ctx, hpEntry.value, 'signal.hyperpolarized');
-    hp = v ? withNoise(ctx, v, given(noise?.[0]), 'signal.hyperpolarized') : null;
+    hp = v ? withNoise(ctx, v, given(noise?.[0]), 'signal.hyperpolarized', noiseSide(byKey, 'hyperpolarized')) : null;
   }
   // Without `hyperpolarized:` and a series the block is a thermal reference itself: P = P_th.
   const thEntry = byKey.get('thermal');
@@ -61,7 +62,7 @@ export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
     if (byRun) th = { value: byRun.sides.thermal, uncertainty: byRun.sides.uThermal, span: byRun.run.span, unit: null };
   } else {
     const v = readNumberOrSpectrum(ctx, thEntry.value, 'signal.thermal');
-    th = v ? withNoise(ctx, v, given(noise?.[1]), 'signal.thermal') : null;
+    th = v ? withNoise(ctx, v, given(noise?.[1]), 'signal.thermal', noiseSide(byKey, 'thermal')) : null;
     if (th && th.value === 0) {
       report(
         ctx,
@@ -201,13 +202,47 @@ function given(x: number | undefined): number | null {
   return x === undefined || Number.isNaN(x) ? null : x;
 }
 
-function withNoise(ctx: ReadContext, v: ReadValue, noise: number | null, subject: string): ReadValue | null {
+/** The `noise.<side>` entry of the signal, when written. */
+function noiseSide(byKey: ReadonlyMap<string, Entry>, side: (typeof SIDES)[number]): Entry | undefined {
+  const pair = byKey.get('noise');
+  return pair && isMap(pair.value) ? entries(pair.value).find((x) => x.key === side) : undefined;
+}
+
+/**
+ * A side's value with its typed `noise`. A typed `±` and a typed `noise` are two answers to one question
+ * (`uncertainty-twice`). A spectrum reference with a noise region answers it from the spectrum itself
+ * (notebook format v1.2: it replaces a typed `noise`), so that uncertainty is kept and the typed one is
+ * ignored, with a warning on it.
+ */
+function withNoise(
+  ctx: ReadContext,
+  v: ReadValue,
+  noise: number | null,
+  subject: string,
+  noiseEntry: Entry | undefined,
+): ReadValue | null {
   if (noise === null) return v;
+  if (v.fromSpectrum && v.uncertainty !== null) {
+    const side = subject.slice(subject.indexOf('.') + 1);
+    report(
+      ctx,
+      'warning',
+      'noise-replaced',
+      `signal.noise.${side}: replaced by the noise region of the spectrum at ${subject}, which gives this side's uncertainty; this typed noise is ignored.`,
+      noiseEntry ? entrySpan(noiseEntry) : v.span,
+    );
+    return v;
+  }
   if (v.uncertainty !== null) {
     report(ctx, 'error', 'uncertainty-twice', `${subject} carries ± and a \`noise\` entry; keep one.`, v.span);
     return null;
   }
   return { ...v, uncertainty: noise };
+}
+
+/** From an entry's key to the end of its value. */
+function entrySpan(e: Entry): Span {
+  return { start: e.keySpan.start, end: Math.max(e.keySpan.end, e.valueSpan.end) };
 }
 
 /** Reads `{ hyperpolarized: x, thermal: y }` with a default for each missing side (null default: a missing side is NaN). */

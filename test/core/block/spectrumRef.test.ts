@@ -159,12 +159,17 @@ describe('spectrum references in a signal block', () => {
     assert.match(p.message, /y × ppm \(ppm\.csv\).*y × Hz \(hz\.jdx\)/);
   });
 
-  it('combines a file-derived value with a typed noise only once', () => {
+  it("takes a noise region's uncertainty over a typed noise, with a warning on the typed one", () => {
+    // notebook-format.md v1.2, "A spectrum in place of a number": the noise region's σ "replaces a typed `noise`".
     const { report, text } = folder.block(
       `${HEAD}signal:\n  hyperpolarized: { spectrum: spectra/hp.csv, region: [165 ppm, 177 ppm], noise: [200 ppm, 240 ppm] }\n  thermal: 800\n  noise: { hyperpolarized: 5, thermal: 1 }`,
     );
-    const p = report.problems.find((x) => x.code === 'uncertainty-twice')!;
-    assert.ok(at(text, p.span).startsWith('{ spectrum: spectra/hp.csv'));
+    assert.ok(!report.problems.some((x) => x.code === 'uncertainty-twice'));
+    const p = report.problems.filter((x) => x.code === 'noise-replaced');
+    assert.equal(p.length, 1);
+    assert.equal(p[0]!.severity, 'warning');
+    assert.equal(at(text, p[0]!.span), 'hyperpolarized: 5');
+    assert.notEqual(report.status, 'invalid');
   });
 });
 
