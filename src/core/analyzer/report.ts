@@ -1,9 +1,10 @@
 /**
  * A block's report at its place in a note: made from the cache's reading of
  * the body (body-relative) and the block's place, moved in place when an edit
- * before it moves the block (analyzer.ts, the incremental path).
+ * before it moves the block (aroundChange.ts, the incremental path).
  */
-import type { BlockReport, Cached } from './analyzer';
+import type { Cached } from './blockCache';
+import type { BlockReport } from './documentReport';
 import { shiftBlock } from './rescanPlan';
 import { clipQuotes, ownCopy } from '../text/common';
 import { bodyToDocument, type FencedBlock } from '../text/fences';

@@ -8,7 +8,7 @@
  * key naming the thing (a file's path, a run's id, as the host spells them)
  * and the stamp it had when read (a file's size and modification time, a
  * block's version). A cached analysis is reused only while every one of its
- * dependencies still has the same stamp (see analyzer/analyzer.ts), so a
+ * dependencies still has the same stamp (see analyzer/blockCache.ts), so a
  * changed spectrum or a changed referenced block makes exactly the blocks
  * that used it read again.
  */
