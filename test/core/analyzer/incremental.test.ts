@@ -74,34 +74,46 @@ const pieces = fc.constantFrom(
   '',
 );
 
+/**
+ * Applies the edits (offset, length removed, pieces inserted) one by one to a note read by one analyzer and one book,
+ * each told the change, and checks after each that both give what a fresh analyzer and a fresh book give for the
+ * whole new text. A note in pieces is edited as such; a string is replaced by the new string.
+ */
+function replayEdits(
+  initial: NoteText | string,
+  edits: readonly (readonly [number, number, readonly string[]])[],
+): void {
+  const analyzer = new Analyzer();
+  const book = new RunBook();
+  let text = initial;
+  let flat = initial.toString();
+  book.setNote(NOTE, text);
+  analyzer.analyzeText(text, book.externalsFor(NOTE));
+  for (const [at, len, ins] of edits) {
+    const start = at % (flat.length + 1);
+    const end = Math.min(flat.length, start + len);
+    const inserted = ins.join('');
+    const change = { previous: text, prefix: start, suffix: flat.length - end };
+    flat = flat.slice(0, start) + inserted + flat.slice(end);
+    text = typeof text === 'string' ? flat : text.edit(start, end, inserted);
+    assert.equal(text.toString(), flat);
+    book.setNote(NOTE, text, change);
+    const got = analyzer.analyzeText(text, book.externalsFor(NOTE), change);
+    const freshBook = new RunBook();
+    freshBook.setNote(NOTE, flat);
+    const want = new Analyzer().analyzeText(flat, freshBook.externalsFor(NOTE));
+    assert.deepEqual(bookSummary(book), bookSummary(freshBook));
+    assert.deepEqual(summary(got), summary(want));
+  }
+}
+
 describe('Analyzer and book of runs: a note edited in pieces, read again only around each change', () => {
   it('give what a fresh analyzer and a fresh book give for the whole new text, edit after edit', () => {
     fc.assert(
       fc.property(
         fc.array(fc.tuple(fc.nat(), fc.nat(40), fc.array(pieces, { maxLength: 3 })), { minLength: 1, maxLength: 8 }),
         (edits) => {
-          const analyzer = new Analyzer();
-          const book = new RunBook();
-          let text = NoteText.of(base);
-          let flat = base;
-          book.setNote(NOTE, text);
-          analyzer.analyzeText(text, book.externalsFor(NOTE));
-          for (const [at, len, ins] of edits) {
-            const start = at % (flat.length + 1);
-            const end = Math.min(flat.length, start + len);
-            const inserted = ins.join('');
-            const change = { previous: text, prefix: start, suffix: flat.length - end };
-            text = text.edit(start, end, inserted);
-            flat = flat.slice(0, start) + inserted + flat.slice(end);
-            assert.equal(text.toString(), flat);
-            book.setNote(NOTE, text, change);
-            const got = analyzer.analyzeText(text, book.externalsFor(NOTE), change);
-            const freshBook = new RunBook();
-            freshBook.setNote(NOTE, flat);
-            const want = new Analyzer().analyzeText(flat, freshBook.externalsFor(NOTE));
-            assert.deepEqual(bookSummary(book), bookSummary(freshBook));
-            assert.deepEqual(summary(got), summary(want));
-          }
+          replayEdits(NoteText.of(base), edits);
         },
       ),
       {
@@ -240,33 +252,13 @@ describe('Analyzer and book of runs: a note with HTML blocks edited in pieces', 
         fc.boolean(),
         fc.boolean(),
         (edits, pieced, long) => {
-          const analyzer = new Analyzer();
-          const book = new RunBook();
           // Long: prose between the sections, so that HTML blocks and fences run past the windows a text in pieces
           // is read in (a few kilobytes past the change, then twice as long, and so on).
           const initial = long
             ? htmlBase.replace(/\n\n/g, '\n' + 'Prose, 40 characters long, no markup.\n'.repeat(150))
             : htmlBase;
           // The text in pieces (read in windows around each change) or as one string (read from a resume point).
-          let text: NoteText | string = pieced ? NoteText.of(initial) : initial;
-          let flat = initial;
-          book.setNote(NOTE, text);
-          analyzer.analyzeText(text, book.externalsFor(NOTE));
-          for (const [at, len, ins] of edits) {
-            const start = at % (flat.length + 1);
-            const end = Math.min(flat.length, start + len);
-            const inserted = ins.join('');
-            const change = { previous: text, prefix: start, suffix: flat.length - end };
-            flat = flat.slice(0, start) + inserted + flat.slice(end);
-            text = typeof text === 'string' ? flat : text.edit(start, end, inserted);
-            book.setNote(NOTE, text, change);
-            const got = analyzer.analyzeText(text, book.externalsFor(NOTE), change);
-            const freshBook = new RunBook();
-            freshBook.setNote(NOTE, flat);
-            const want = new Analyzer().analyzeText(flat, freshBook.externalsFor(NOTE));
-            assert.deepEqual(bookSummary(book), bookSummary(freshBook));
-            assert.deepEqual(summary(got), summary(want));
-          }
+          replayEdits(pieced ? NoteText.of(initial) : initial, edits);
         },
       ),
       {
