@@ -15,10 +15,11 @@ import {
   readQuantity,
   readText,
   report,
+  uncertaintyFromRegion,
   type ReadContext,
   type ReadValue,
 } from './values';
-import { entries, isMap, type Entry } from './yamlTree';
+import { entries, entrySpan, isMap, type Entry } from './yamlTree';
 import { convert, formatUnitList, parseQuantity } from '../quantities/units';
 
 /** Fewest points that determine each model's parameters. */
@@ -240,7 +241,6 @@ function uncertainties(
   noise: ReadValue | null,
   noiseEntry: Entry | undefined,
 ): number[] | null | undefined {
-  const fromRegion = (s: ReadValue): boolean => s.fromSpectrum === true && s.uncertainty !== null;
   if (noise) {
     if (noise.value < 0) {
       report(
@@ -252,11 +252,11 @@ function uncertainties(
       );
       return undefined;
     }
-    if (signals.some((s) => s.uncertainty !== null && !fromRegion(s))) {
+    if (signals.some((s) => s.uncertainty !== null && !uncertaintyFromRegion(s))) {
       report(ctx, 'error', 'uncertainty-twice', 'series: give `noise` or `±` on the signals, not both.', noise.span);
       return undefined;
     }
-    const replaced = signals.flatMap((s, i) => (fromRegion(s) ? [i] : []));
+    const replaced = signals.flatMap((s, i) => (uncertaintyFromRegion(s) ? [i] : []));
     if (replaced.length === 0) return noise.value > 0 ? signals.map(() => noise.value) : null;
     const all = replaced.length === signals.length;
     const which = replaced.map((i) => `series.signal[${i}]`).join(', ');
@@ -267,11 +267,9 @@ function uncertainties(
       all
         ? 'series.noise: replaced by the noise regions of the spectra, which give every signal its uncertainty; this typed noise is ignored.'
         : `series.noise: replaced by the noise regions of the spectra for ${which}; this typed noise is ignored there and serves the other signals.`,
-      noiseEntry
-        ? { start: noiseEntry.keySpan.start, end: Math.max(noiseEntry.keySpan.end, noiseEntry.valueSpan.end) }
-        : noise.span,
+      noiseEntry ? entrySpan(noiseEntry) : noise.span,
     );
-    const u = signals.map((s) => (fromRegion(s) ? s.uncertainty! : noise.value));
+    const u = signals.map((s) => (uncertaintyFromRegion(s) ? s.uncertainty! : noise.value));
     return u.every((x) => x > 0) ? u : null;
   }
   if (signals.every((s) => s.uncertainty !== null && s.uncertainty > 0)) return signals.map((s) => s.uncertainty!);

@@ -8,13 +8,20 @@
  */
 import type { TreeNode } from './tree';
 import type { SignalInput } from './input';
-import { readInteger, readNumber, readQuantity, report, type ReadContext, type ReadValue } from './values';
-import { entries, isMap, spanOf, type Entry } from './yamlTree';
+import {
+  readInteger,
+  readNumber,
+  readQuantity,
+  report,
+  uncertaintyFromRegion,
+  type ReadContext,
+  type ReadValue,
+} from './values';
+import { entries, entrySpan, isMap, spanOf, type Entry } from './yamlTree';
 import { SIGNAL_KEYS } from './schema';
 import { unknownKey } from './unknownKey';
 import { followRun, isRunRefNode, readRunRef } from './runRef';
 import type { ThermalRun } from './input';
-import type { Span } from '../types';
 import { readNumberOrSpectrum } from './spectrumRef';
 
 type Pair = readonly [number, number];
@@ -47,7 +54,7 @@ export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
   let hp: ReadValue | null = null;
   if (hpEntry) {
     const v = readNumberOrSpectrum(ctx, hpEntry.value, 'signal.hyperpolarized');
-    hp = v ? withNoise(ctx, v, given(noise?.[0]), 'signal.hyperpolarized', noiseSide(byKey, 'hyperpolarized')) : null;
+    hp = v ? withNoise(ctx, v, given(noise?.[0]), 'signal.hyperpolarized', byKey) : null;
   }
   // Without `hyperpolarized:` and a series the block is a thermal reference itself: P = P_th.
   const thEntry = byKey.get('thermal');
@@ -62,7 +69,7 @@ export function readSignal(ctx: ReadContext, e: Entry): SignalInput | null {
     if (byRun) th = { value: byRun.sides.thermal, uncertainty: byRun.sides.uThermal, span: byRun.run.span, unit: null };
   } else {
     const v = readNumberOrSpectrum(ctx, thEntry.value, 'signal.thermal');
-    th = v ? withNoise(ctx, v, given(noise?.[1]), 'signal.thermal', noiseSide(byKey, 'thermal')) : null;
+    th = v ? withNoise(ctx, v, given(noise?.[1]), 'signal.thermal', byKey) : null;
     if (th && th.value === 0) {
       report(
         ctx,
@@ -219,11 +226,12 @@ function withNoise(
   v: ReadValue,
   noise: number | null,
   subject: string,
-  noiseEntry: Entry | undefined,
+  byKey: ReadonlyMap<string, Entry>,
 ): ReadValue | null {
   if (noise === null) return v;
-  if (v.fromSpectrum && v.uncertainty !== null) {
-    const side = subject.slice(subject.indexOf('.') + 1);
+  if (uncertaintyFromRegion(v)) {
+    const side = subject.slice(subject.indexOf('.') + 1) as (typeof SIDES)[number];
+    const noiseEntry = noiseSide(byKey, side);
     report(
       ctx,
       'warning',
@@ -238,11 +246,6 @@ function withNoise(
     return null;
   }
   return { ...v, uncertainty: noise };
-}
-
-/** From an entry's key to the end of its value. */
-function entrySpan(e: Entry): Span {
-  return { start: e.keySpan.start, end: Math.max(e.keySpan.end, e.valueSpan.end) };
 }
 
 /** Reads `{ hyperpolarized: x, thermal: y }` with a default for each missing side (null default: a missing side is NaN). */

@@ -52,6 +52,14 @@ export interface ReadValue {
   readonly fromSpectrum?: boolean;
 }
 
+/**
+ * True when a value's uncertainty comes from a spectrum's noise region (notebook format v1.2: it replaces a typed
+ * `noise` for that value).
+ */
+export function uncertaintyFromRegion(v: ReadValue): boolean {
+  return v.fromSpectrum === true && v.uncertainty !== null;
+}
+
 /** Adds a problem to the context. */
 export function report(
   ctx: ReadContext,

@@ -86,6 +86,11 @@ export interface Entry {
   readonly valueSpan: Span;
 }
 
+/** An entry's whole extent: from its key to the end of its value. */
+export function entrySpan(e: Entry): Span {
+  return { start: e.keySpan.start, end: Math.max(e.keySpan.end, e.valueSpan.end) };
+}
+
 /** Entries of a YAML mapping node; non-scalar keys are skipped (the caller reports them). */
 export function entries(node: TreeNode | null | undefined): Entry[] {
   const map = deref(node);
