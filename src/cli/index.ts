@@ -4,7 +4,6 @@ import { readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { setFlagsFromString } from 'node:v8';
 import { isMainThread } from 'node:worker_threads';
-import { terminalText } from '../core';
 import { start } from './main';
 import { serveNotes } from './parallel';
 
@@ -72,10 +71,8 @@ function startCommand(): number | Promise<number> {
       process.stdout.write(s);
       if (process.stdout.errored) outputFailed(process.stdout.errored);
     },
-    // Warnings and usage errors can quote the command line (an unknown option, a format or status word, which
-    // commander echoes as given): each line is printed without control or reordering characters, so an escape
-    // sequence in an argument (a file name a shell glob expanded, say) does nothing to the terminal.
-    err: (s) => process.stderr.write(s.split('\n').map(terminalText).join('\n')),
+    // What reaches standard error is already without control characters (start() cleans what commander echoes).
+    err: (s) => process.stderr.write(s),
     cwd: process.cwd(),
     ...(process.stdout.isTTY && process.stdout.columns ? { columns: process.stdout.columns } : {}),
     // `-`: standard input, read whole (file descriptor 0).

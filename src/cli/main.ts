@@ -193,17 +193,16 @@ export function start(argv: readonly string[], io: Io): number | Promise<number>
     .exitOverride()
     .configureOutput({
       writeOut: io.out,
-      writeErr: io.err,
-      // Commander echoes arguments as given (an unknown option, a format word): each line without control or
-      // reordering characters, whoever hosts the command.
-      outputError: (s, write) =>
-        write(
-          `boltzmark: ${s
-            .replace(/^error: /, '')
+      // Commander echoes arguments as given (an unknown option, a format word): each line it writes to standard
+      // error goes without control or reordering characters, whoever hosts the command.
+      writeErr: (s) =>
+        io.err(
+          s
             .split('\n')
             .map((l) => terminalText(l))
-            .join('\n')}`,
+            .join('\n'),
         ),
+      outputError: (s, write) => write(`boltzmark: ${s.replace(/^error: /, '')}`),
     });
   program
     .command('report')
