@@ -15,6 +15,7 @@ import { spawnSync } from 'node:child_process';
 import { chmodSync, mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { CONTRACT_FIELDS } from '../support/contractFields';
 
 const CLI = resolve('dist', 'cli.js');
 
@@ -133,17 +134,7 @@ function report(args: string[], cwd: string): { code: number | null; entries: En
 const STATUSES = ['normal', 'saturated', 'inverted', 'non-thermal', 'invalid'];
 /** Fields the contract names (v1, v1.1, v1.2): each present, `null` when unknown, never missing. */
 const FIELDS = [
-  'file',
-  'line',
-  'id',
-  'status',
-  'beta',
-  'temperature',
-  'polarization',
-  'thermalPolarization',
-  'enhancement',
-  'entropy',
-  'diagnostics',
+  ...CONTRACT_FIELDS,
   'timeConstant',
   'gainCoefficient',
   'singlePassGain',

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { main } from '../../src/cli/main';
+import { CONTRACT_FIELDS } from '../support/contractFields';
 
 function run(args: string[], cwd = process.cwd(), columns?: number): { code: number; out: string; err: string } {
   let out = '';
@@ -11,20 +12,6 @@ function run(args: string[], cwd = process.cwd(), columns?: number): { code: num
   const code = main(args, { out: (s) => (out += s), err: (s) => (err += s), cwd, ...(columns ? { columns } : {}) });
   return { code, out, err };
 }
-
-const CONTRACT_FIELDS = [
-  'file',
-  'line',
-  'id',
-  'status',
-  'beta',
-  'temperature',
-  'polarization',
-  'thermalPolarization',
-  'enhancement',
-  'entropy',
-  'diagnostics',
-];
 
 describe('boltzmark report', () => {
   it('prints the JSON array of the contract for the demo notebook, field by field', () => {
