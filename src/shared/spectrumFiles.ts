@@ -17,9 +17,7 @@
  * {@link SpectrumShelf} keyed by the file's identity (URI, size, time) within
  * a memory bound: a file is parsed once however many blocks and notes use it.
  *
- * Paths resolve against the note's folder and must stay inside the workspace
- * folder that holds the note (or the note's own folder tree when it is in no
- * workspace folder); anything else is refused unread (`spectrum-outside`).
+ * Paths resolve and are held to the workspace in spectrumPaths.ts.
  * This file uses no Node built-in and no editor API: it is part of the browser server and the client too.
  */
 import {
@@ -33,6 +31,9 @@ import {
   type SpectrumRead,
   type SpectrumSource,
 } from '../core';
+import { decodedUri, locateSpectrum, uriFileName, uriWithin } from './spectrumPaths';
+
+export { locateSpectrum, noteFileUri, uriFileName, uriWithin, type SpectrumLocation } from './spectrumPaths';
 
 /** Prefix of the dependency keys of spectrum files: `file:` then the file's URI. */
 export const SPECTRUM_KEY_PREFIX = 'file:';
@@ -69,114 +70,6 @@ interface Entry {
   again: boolean;
   /** Generation, for the pending stamp. */
   gen: number;
-}
-
-/** The resolved location of a path written in a note, or why it is refused. */
-export type SpectrumLocation = { readonly uri: string; readonly root: string } | { readonly outside: string };
-
-/** Splits a URI into the part before the path and its path (`file:///a/b` → `file://`, `/a/b`). */
-function splitUri(uri: string): { head: string; path: string } | null {
-  const m = /^([A-Za-z][A-Za-z0-9+.-]*:(?:\/\/[^/?#]*)?)([^?#]*)/.exec(uri);
-  return m ? { head: m[1]!, path: m[2]! } : null;
-}
-
-/**
- * The URI a note's files are relative to: a notebook cell's URI stands for its notebook on disk
- * (`vscode-notebook-cell:/a/nb.ipynb#…` → `file:///a/nb.ipynb`).
- */
-export function noteFileUri(noteUri: string): string {
-  if (noteUri.startsWith('vscode-notebook-cell:')) {
-    const rest = noteUri.slice('vscode-notebook-cell:'.length).replace(/[?#].*$/, '');
-    return rest.startsWith('//') ? `file:${rest}` : `file://${rest}`;
-  }
-  return noteUri.replace(/[?#].*$/, '');
-}
-
-/** Lexically normalised path segments, or null when `..` climbs above the top. */
-function normalise(segments: readonly string[]): string[] | null {
-  const out: string[] = [];
-  for (const s of segments) {
-    if (s === '' || s === '.') continue;
-    if (s === '..') {
-      if (out.length === 0) return null;
-      out.pop();
-    } else out.push(s);
-  }
-  return out;
-}
-
-function trimSlash(path: string): string {
-  return path.endsWith('/') ? path.slice(0, -1) : path;
-}
-
-/** True when `uri` is `root` or lies inside it (both URIs, compared by their path segments). */
-export function uriWithin(root: string, uri: string): boolean {
-  const r = trimSlash(root);
-  return uri === r || uri.startsWith(`${r}/`);
-}
-
-/**
- * Resolves a path as written in a note (relative to the note's folder, `/` as separator) against the
- * workspace folders. Absolute paths, drive letters, URIs and backslashes are refused, and so is anything
- * that leaves the boundary: the workspace folder holding the note, or the note's own folder tree.
- */
-export function locateSpectrum(noteUri: string, written: string, folders: readonly string[]): SpectrumLocation {
-  const note = splitUri(noteFileUri(noteUri));
-  if (!note || note.head === 'untitled:' || !note.path.includes('/'))
-    return { outside: 'reach: the note is not saved in a folder' };
-  const dir = note.path.slice(0, note.path.lastIndexOf('/'));
-  const noteDir = `${note.head}${dir}`;
-  const root =
-    folders
-      .map(trimSlash)
-      .filter((f) => uriWithin(f, noteFileUri(noteUri)))
-      .sort((a, b) => b.length - a.length)[0] ?? noteDir;
-  const where = root === noteDir ? `the note's folder` : `the workspace folder`;
-  if (/^[A-Za-z][A-Za-z0-9+.-]*:/.test(written) || written.startsWith('/') || written.includes('\\'))
-    return { outside: where };
-  let decodedDir: string;
-  try {
-    decodedDir = decodeURIComponent(dir);
-  } catch {
-    return { outside: where };
-  }
-  const segs = normalise([...decodedDir.split('/'), ...written.split('/')]);
-  if (!segs) return { outside: where };
-  const uri = `${note.head}/${segs.map((s) => encodeURIComponent(s).replace(/%3A/g, ':')).join('/')}`;
-  const rootNorm = splitUri(root);
-  if (!rootNorm) return { outside: where };
-  let rootPath: string;
-  try {
-    rootPath = decodeURIComponent(rootNorm.path);
-  } catch {
-    return { outside: where };
-  }
-  const rootSegs = normalise(rootPath.split('/')) ?? [];
-  const rootUri = `${rootNorm.head}/${rootSegs.map((s) => encodeURIComponent(s).replace(/%3A/g, ':')).join('/')}`;
-  if (rootNorm.head.toLowerCase() !== note.head.toLowerCase() || !uriWithin(rootUri, uri)) return { outside: where };
-  return { uri, root: rootUri };
-}
-
-/** The last path segment of a URI, decoded (for choosing the reader by the file's ending). */
-export function uriFileName(uri: string): string {
-  const last =
-    uri
-      .replace(/[?#].*$/, '')
-      .split('/')
-      .pop() ?? '';
-  try {
-    return decodeURIComponent(last);
-  } catch {
-    return last;
-  }
-}
-
-function decodedUri(uri: string): string {
-  try {
-    return decodeURIComponent(uri);
-  } catch {
-    return uri;
-  }
 }
 
 /**
