@@ -31,7 +31,7 @@ import { cancelled, routeFeatures } from './featureRequests';
 import { Notes } from './notes';
 import type { ProtocolGuard } from './protocolGuard';
 import { ClosedReferrers } from './runs/closedReferrers';
-import { WorkspaceRuns, type NoteFiles } from './runs/workspaceRuns';
+import { notebookOfCell, WorkspaceRuns, type NoteFiles } from './runs/workspaceRuns';
 import { noteDocuments, type NoteDocument } from './noteDocument';
 import type { Settings } from '../shared/settings';
 import { SettingsStore, type SettingsChange } from './settingsStore';
@@ -295,13 +295,15 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
       return doc ? notes.prepare(doc, s) : undefined;
     });
     background(connection, 'reading the opened note', read);
-    // Its own diagnostics take over from the reference diagnostics sent while it was closed.
-    if (closedReferrers.opened(uri))
-      background(
-        connection,
-        'taking back the diagnostics of a closed note',
-        connection.sendDiagnostics({ uri, diagnostics: [] }),
-      );
+    // Its own diagnostics take over from the reference diagnostics sent while it was closed; a cell's take over
+    // from those sent to its notebook's file.
+    for (const closed of [uri, notebookOfCell(uri)])
+      if (closed !== null && closedReferrers.opened(closed))
+        background(
+          connection,
+          'taking back the diagnostics of a closed note',
+          connection.sendDiagnostics({ uri: closed, diagnostics: [] }),
+        );
   });
   documents.onDidChangeContent((e) => {
     notes.heard();

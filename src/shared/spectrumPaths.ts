@@ -18,15 +18,50 @@ function splitUri(uri: string): { head: string; path: string } | null {
 }
 
 /**
- * The URI a note's files are relative to: a notebook cell's URI stands for its notebook on disk
- * (`vscode-notebook-cell:/a/nb.ipynb#…` → `file:///a/nb.ipynb`).
+ * The URI a note's files are relative to: a notebook cell's URI stands for its notebook
+ * (`vscode-notebook-cell:/a/nb.ipynb#W1sZmlsZQ==` → `file:///a/nb.ipynb`). VS Code names a cell by its
+ * notebook's URI with the scheme `vscode-notebook-cell` and a fragment of the cell's handle, `s`, and the
+ * notebook's own scheme in base64; a fragment that does not read so stands for `file`. A notebook of a remote
+ * workspace (`vscode-remote://host/a/nb.ipynb`) is, where the server runs beside its files, `file:///a/nb.ipynb`:
+ * VS Code's remote extension host names the workspace's files so, but leaves a cell's URI as the window wrote it.
  */
 export function noteFileUri(noteUri: string): string {
   if (noteUri.startsWith('vscode-notebook-cell:')) {
     const rest = noteUri.slice('vscode-notebook-cell:'.length).replace(/[?#].*$/, '');
-    return rest.startsWith('//') ? `file:${rest}` : `file://${rest}`;
+    const scheme = cellNotebookScheme(noteUri);
+    if (scheme === 'vscode-remote') return `file://${rest.replace(/^\/\/[^/]*/, '')}`;
+    // Spelled as VS Code spells a URI: `file:` always with `//`, another scheme with them only for an authority.
+    return scheme === 'file' && !rest.startsWith('//') ? `file://${rest}` : `${scheme}:${rest}`;
   }
   return noteUri.replace(/[?#].*$/, '');
+}
+
+/** The scheme of a cell's notebook, read from the cell URI's fragment; `file` when it does not read as one. */
+function cellNotebookScheme(cellUri: string): string {
+  const hash = cellUri.indexOf('#');
+  if (hash < 0) return 'file';
+  let fragment: string;
+  try {
+    fragment = decodeURIComponent(cellUri.slice(hash + 1));
+  } catch {
+    return 'file';
+  }
+  const s = fragment.indexOf('s');
+  const b64 =
+    s < 0
+      ? ''
+      : fragment
+          .slice(s + 1)
+          .replace(/-/g, '+')
+          .replace(/_/g, '/');
+  if (!/^[A-Za-z0-9+/]+={0,2}$/.test(b64)) return 'file';
+  let scheme: string;
+  try {
+    scheme = atob(b64.padEnd(Math.ceil(b64.length / 4) * 4, '='));
+  } catch {
+    return 'file';
+  }
+  return /^[a-z][a-z0-9+.-]*$/i.test(scheme) ? scheme.toLowerCase() : 'file';
 }
 
 /** Lexically normalised path segments, or null when `..` climbs above the top. */

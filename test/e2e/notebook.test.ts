@@ -81,6 +81,9 @@ function notebookSteps(version: host.Version): void {
       }
       const text = clean(await hover.innerText());
       assert.match(text, /7\.08 ± 0\.26 µK/);
+      // The notebook's file is not read beside its open cells: its runs are not each other's copies.
+      const all = clean((await page.locator('.monaco-hover-content').allInnerTexts()).join('\n'));
+      assert.doesNotMatch(all, /also the id of a block/);
     });
 
     it('opens the curve view from the lens in a cell, and the view follows the cursor into another cell', async () => {

@@ -3,7 +3,13 @@ import { TextDocument } from 'vscode-languageserver-textdocument';
 import { readSpectrum, type SpectrumRead } from '../../src/core';
 import { noteExternals } from '../../src/server/externals';
 import { Notes } from '../../src/server/notes';
-import { locateSpectrum, MAX_KNOWN_FILES, SpectrumFiles, type SpectrumFileAccess } from '../../src/server/spectra';
+import {
+  locateSpectrum,
+  MAX_KNOWN_FILES,
+  noteFileUri,
+  SpectrumFiles,
+  type SpectrumFileAccess,
+} from '../../src/server/spectra';
 import { noteDiagnostics } from '../../src/server/diagnostics';
 import { FakeDisk, flat } from './spectraHelpers';
 import { DEFAULT_SETTINGS } from '../../src/shared/settings';
@@ -58,6 +64,29 @@ describe('server spectrum files', () => {
         uri: 'file:///lab/day/hp.csv',
         root: 'file:///lab',
       });
+    });
+
+    it("reads a cell's notebook with the scheme VS Code writes into the cell's fragment", () => {
+      // VS Code's cell URIs: the notebook's URI with the scheme `vscode-notebook-cell` and the fragment
+      // `<handle in base 7, length-prefixed>s<base64 of the notebook's scheme>` (common practice of the
+      // editor, no published source).
+      assert.equal(noteFileUri('vscode-notebook-cell:/lab/nb.ipynb#W1sZmlsZQ%3D%3D'), 'file:///lab/nb.ipynb');
+      assert.equal(noteFileUri('vscode-notebook-cell:/lab/nb.ipynb#X12sZmlsZQ'), 'file:///lab/nb.ipynb');
+      // A remote workspace's notebook: the server runs where its files are, and names them `file:` there.
+      assert.equal(
+        noteFileUri('vscode-notebook-cell://127.0.0.1:43133/lab/nb.ipynb#W3sdnNjb2RlLXJlbW90ZQ%3D%3D'),
+        'file:///lab/nb.ipynb',
+      );
+      assert.equal(
+        noteFileUri('vscode-notebook-cell://srv/share/nb.ipynb#W3sZmlsZQ%3D%3D'),
+        'file://srv/share/nb.ipynb',
+      );
+      assert.equal(noteFileUri('vscode-notebook-cell:/nb.ipynb#W3sdnNjb2RlLXZmcw%3D%3D'), 'vscode-vfs:/nb.ipynb');
+      assert.equal(noteFileUri('vscode-notebook-cell:Untitled-1.ipynb#W0sdW50aXRsZWQ%3D'), 'untitled:Untitled-1.ipynb');
+      // A fragment that does not read so stands for a file on disk.
+      assert.equal(noteFileUri('vscode-notebook-cell:/lab/nb.ipynb#W1s%%%'), 'file:///lab/nb.ipynb');
+      assert.equal(noteFileUri('vscode-notebook-cell:/lab/nb.ipynb#W1sPHNjcmlwdD4'), 'file:///lab/nb.ipynb');
+      assert.equal(noteFileUri('vscode-notebook-cell:/lab/nb.ipynb'), 'file:///lab/nb.ipynb');
     });
   });
 

@@ -43,6 +43,9 @@ export type Located =
   | { kind: 'unknown'; among: readonly string[] }
   | { kind: 'missing'; note: string };
 
+/** The whole note a note is a part of, or null for a whole note (see RunBookOptions.partOf). */
+export type PartOf = (note: string) => string | null;
+
 /** Reads a note a reference names that was not set (see RunBookOptions.load). */
 export type LoadNote = (note: string) => string | null | { readonly refused: string };
 
@@ -57,6 +60,8 @@ export class BookIndex {
   private readonly reader: BodyReader;
   /** Notes looked for through `load` and not found (until the next change), with why when the host refused. */
   private readonly missing = new Map<string, string | null>();
+  /** A whole note → the notes set as its parts (see RunBookOptions.partOf), in the order they were set. */
+  private readonly parts = new Map<string, string[]>();
   /** Where a written reference leads, for the walks over the graph of references. */
   readonly follow: Follow = (b, ref) => this.target(b.note, ref);
 
@@ -69,6 +74,7 @@ export class BookIndex {
     maxBlockChars: number | undefined,
     private readonly load: LoadNote | null,
     private readonly loaded: () => void,
+    private readonly partOf: PartOf | null = null,
   ) {
     this.reader = new BodyReader(maxBlockChars);
   }
@@ -157,6 +163,12 @@ export class BookIndex {
     }
     const n: BookNote = { note, text, blocks, loaded };
     this.notes.set(note, n);
+    const whole = this.partOf?.(note) ?? null;
+    if (whole !== null) {
+      const list = this.parts.get(whole);
+      if (!list) this.parts.set(whole, [note]);
+      else if (!list.includes(note)) list.push(note);
+    }
     return n;
   }
 
@@ -165,6 +177,13 @@ export class BookIndex {
     const old = this.notes.get(note);
     if (!old) return;
     this.notes.delete(note);
+    const whole = this.partOf?.(note) ?? null;
+    const list = whole === null ? undefined : this.parts.get(whole);
+    if (list) {
+      const kept = list.filter((x) => x !== note);
+      if (kept.length > 0) this.parts.set(whole!, kept);
+      else this.parts.delete(whole!);
+    }
     for (const b of old.blocks) {
       this.name(b, -1);
       if (b.id === null) continue;
@@ -217,18 +236,44 @@ export class BookIndex {
     return { dropped, added, moved: all.slice(moved), bodies, ids, linesMoved: lines !== 0 };
   }
 
+  /**
+   * The note a relative path written in `from` names: resolved from the folder of the whole note when `from`
+   * is a part of one.
+   */
+  notePath(from: string, relative: string): string {
+    return resolveNotePath(this.partOf?.(from) ?? from, relative);
+  }
+
+  /**
+   * The blocks of the note a path names, without reading anything: of its parts when the host set parts of it
+   * (they stand for the whole), or of the note itself.
+   */
+  blocksNamed(path: string): readonly BookBlock[] {
+    const parts = this.parts.get(path);
+    return parts ? parts.flatMap((p) => this.blocksOf(p)) : this.blocksOf(path);
+  }
+
   /** Where a reference written in `from` leads, reading through `load` a note it names that was not set. */
   locate(from: string, ref: { readonly note: string | null; readonly id: string }): Located {
     if (ref.note !== null) {
-      const path = resolveNotePath(from, ref.note);
-      const n = this.noteFor(path);
-      if (!n) return { kind: 'missing', note: path };
-      const b = n.blocks.find((x) => x.id === ref.id);
+      const path = this.notePath(from, ref.note);
+      // A whole note whose parts are set is read from them alone: never through `load`.
+      const blocks = this.parts.has(path) ? this.blocksNamed(path) : this.noteFor(path)?.blocks;
+      if (!blocks) return { kind: 'missing', note: path };
+      const b = blocks.find((x) => x.id === ref.id);
       if (b) return { kind: 'found', block: b };
-      return { kind: 'unknown', among: n.blocks.flatMap((x) => (x.id === null ? [] : [x.id])) };
+      return { kind: 'unknown', among: blocks.flatMap((x) => (x.id === null ? [] : [x.id])) };
     }
     const all = this.byId.get(ref.id);
-    if (all && all.length > 0) return { kind: 'found', block: all.find((x) => x.note === from) ?? all[0]! };
+    if (all && all.length > 0) {
+      // Of several blocks with the id, the one in the asking note (or in the same whole note) is meant.
+      const whole = this.partOf?.(from) ?? from;
+      return {
+        kind: 'found',
+        block:
+          all.find((x) => x.note === from) ?? all.find((x) => (this.partOf?.(x.note) ?? x.note) === whole) ?? all[0]!,
+      };
+    }
     return { kind: 'unknown', among: [...this.byId.keys()] };
   }
 

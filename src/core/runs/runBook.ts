@@ -23,7 +23,7 @@ import type { FencedBlock } from '../text/fences';
 import { dependentNotes, referrersOf } from './referenceGraph';
 import type { BookBlock, BookReference } from './bookBlocks';
 import { BookAnswers } from './bookAnswers';
-import { BookIndex, type LoadNote } from './bookIndex';
+import { BookIndex, type LoadNote, type PartOf } from './bookIndex';
 import { BookStamps } from './bookStamps';
 import { RUN_KEY_PREFIX, type RunAnswer, type RunCopies, type RunFacts, type RunResolver } from './types';
 
@@ -51,6 +51,13 @@ export interface RunBookOptions {
    * referenced block whose own values come from a file reads them as its note does.
    */
   readonly sources?: (note: string) => Externals | null;
+  /**
+   * For a host that sets a note in parts (VS Code opens each Markdown cell of a notebook as a document of its
+   * own): the whole note a note is a part of, or null for a whole note. A relative path written in a part is
+   * resolved from the whole note's folder, and a reference naming the whole note finds its blocks in the parts
+   * set; the host then keeps the whole note itself out of the book, or its runs would be there twice.
+   */
+  readonly partOf?: PartOf;
 }
 
 /**
@@ -74,6 +81,7 @@ export class RunBook implements RunResolver {
       analyzer.options.limits.maxBlockChars,
       options.load ?? null,
       () => this.changed(),
+      options.partOf ?? null,
     );
     this.stamps = new BookStamps(this.index);
     this.answers = new BookAnswers(this.index, this.stamps, analyzer, (note) => this.externalsFor(note));
@@ -150,6 +158,16 @@ export class RunBook implements RunResolver {
   /** The block of `note` whose body is `body`, or null. */
   blockAt(note: string, body: string, id: string | null = null): BookBlock | null {
     return this.index.blockAt(note, body, id);
+  }
+
+  /** The note a relative path written in `from` names (from the whole note's folder when `from` is a part). */
+  notePath(from: string, relative: string): string {
+    return this.index.notePath(from, relative);
+  }
+
+  /** The blocks of the note a path names, as references find them: of its parts when parts of it are set. */
+  blocksNamed(path: string): readonly BookBlock[] {
+    return this.index.blocksNamed(path);
   }
 
   /** The block a reference written in `from` leads to (null when unknown, missing or not followed). */

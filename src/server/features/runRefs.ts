@@ -29,7 +29,6 @@ import {
 } from 'vscode-languageserver';
 import {
   DEFAULT_DISPLAY,
-  resolveNotePath,
   shortSummary,
   spanToNote,
   STATUS_WORDS,
@@ -290,7 +289,7 @@ export function runCompletion(runs: WorkspaceRuns, state: NoteState, position: P
     end: position,
   };
   const candidates = notePart
-    ? runs.book.blocksOf(resolveNotePath(state.uri, notePart)).filter((b) => b.id !== null)
+    ? runs.book.blocksNamed(runs.book.notePath(state.uri, notePart)).filter((b) => b.id !== null)
     : runs.book.runs();
   const items: CompletionItem[] = [];
   const seen = new Set<string>();
@@ -350,9 +349,10 @@ export function runLinks(runs: WorkspaceRuns, state: NoteState): DocumentLink[] 
   for (const b of runs.book.blocksOf(state.uri))
     for (const ref of b.refs) {
       if (ref.note === null || ref.noteSpan === null) continue;
-      const note = resolveNotePath(state.uri, ref.note);
+      const note = runs.book.notePath(state.uri, ref.note);
       const target = runs.book.target(state.uri, ref);
-      const at = target?.place ? `#L${target.place.line + 1}` : '';
+      // A run in a cell of a notebook open in the editor: its line is the cell's, not the notebook file's.
+      const at = target?.place && target.note === note ? `#L${target.place.line + 1}` : '';
       out.push({
         range: toRange(state.lines, spanToNote(b.block, ref.noteSpan)),
         target: note + at,

@@ -29,6 +29,15 @@ import type { Range } from 'vscode-languageserver';
 import type { ExternalPart } from '../externals';
 import { isNotebookNote, notebookNote, type NotebookNote } from './notebookNotes';
 import { SERVER_LIMITS } from '../notes';
+import { noteFileUri } from '../../shared/spectrumPaths';
+
+/**
+ * The notebook a note is a cell of (VS Code opens each Markdown cell of a notebook as a document of its own, named
+ * `vscode-notebook-cell:` and the notebook's path), or null for a note of its own.
+ */
+export function notebookOfCell(uri: string): string | null {
+  return uri.startsWith('vscode-notebook-cell:') ? noteFileUri(uri) : null;
+}
 
 /** Note files the index reads: Markdown, and Jupyter notebooks (their Markdown cells, see notebookNotes.ts). */
 export const NOTE_FILE = /\.(md|markdown|ipynb)$/i;
@@ -77,6 +86,12 @@ export class WorkspaceRuns implements ExternalPart {
   /** Notes with an unsaved text (open in the editor): file events do not replace them. */
   private readonly open = new Set<string>();
   /**
+   * Notebooks open in the editor → their cells open as notes. While a notebook is open its cells stand for it in
+   * the book (see RunBookOptions.partOf), and its file is kept out of the index: read from the file as well, each
+   * of its runs would be there twice, each the other's `id-duplicate`.
+   */
+  private readonly cells = new Map<string, Set<string>>();
+  /**
    * The text of every note of the book, for positions in notes that are not open; for a notebook, the text the
    * book reads (its Markdown cells) with the file text it came from and the places in that file.
    */
@@ -97,6 +112,7 @@ export class WorkspaceRuns implements ExternalPart {
     this.book = new RunBook({
       analyzer,
       load: (note) => this.loadNow(note),
+      partOf: notebookOfCell,
       ...(sources ? { sources } : {}),
     });
   }
@@ -129,9 +145,9 @@ export class WorkspaceRuns implements ExternalPart {
       .filter((n) => !this.open.has(n) && this.book.blocksOf(n).some((b) => b.refs.length > 0));
   }
 
-  /** Whether the editor has the note open. */
+  /** Whether the editor has the note open (a notebook: any of its cells). */
   isOpen(uri: string): boolean {
-    return this.open.has(uri);
+    return this.open.has(uri) || this.cells.has(uri);
   }
 
   /** The text of a note of the book, or null. */
@@ -183,6 +199,8 @@ export class WorkspaceRuns implements ExternalPart {
     fences?: () => readonly FencedBlock[],
   ): void {
     this.open.add(uri);
+    const notebook = notebookOfCell(uri);
+    if (notebook !== null) this.cellOpened(notebook, uri);
     const known = this.texts.get(uri)?.text;
     if (known === text) return;
     // An edit of the text the book holds is indexed again where it changed only (core/runs/runBook.ts).
@@ -196,11 +214,30 @@ export class WorkspaceRuns implements ExternalPart {
   async closed(uri: string): Promise<void> {
     this.open.delete(uri);
     await this.reread(uri);
+    const notebook = notebookOfCell(uri);
+    const open = notebook === null ? undefined : this.cells.get(notebook);
+    if (!open?.delete(uri) || open.size > 0) return;
+    // The notebook's last cell closed: its file takes over.
+    this.cells.delete(notebook!);
+    await this.reread(notebook!);
+  }
+
+  /** A cell of a notebook was opened: the notebook's file leaves the index while the notebook is open. */
+  private cellOpened(notebook: string, cell: string): void {
+    const open = this.cells.get(notebook);
+    if (open) {
+      open.add(cell);
+      return;
+    }
+    this.cells.set(notebook, new Set([cell]));
+    if (!this.book.hasNote(notebook)) return;
+    this.forget(notebook);
+    this.changed([notebook]);
   }
 
   /** A watched file was created, changed or deleted. */
   async fileEvent(uri: string, kind: 'created' | 'changed' | 'deleted'): Promise<void> {
-    if (this.open.has(uri)) return;
+    if (this.isOpen(uri)) return;
     if (kind === 'deleted' && !isNoteUri(uri)) {
       // A folder was deleted: every note under it goes.
       const gone = this.book.noteNames().filter((n) => !this.open.has(n) && isInside(n, uri));
@@ -215,7 +252,7 @@ export class WorkspaceRuns implements ExternalPart {
   /** Reads a note again from disk (after a file event or when it was closed). */
   private async reread(uri: string): Promise<void> {
     const text = this.inFolders(uri) && this.files ? await this.files.read(uri) : null;
-    if (this.open.has(uri)) return; // opened meanwhile: the editor's text wins
+    if (this.isOpen(uri)) return; // opened meanwhile: the editor's text wins
     if (text === null) {
       if (!this.book.hasNote(uri)) return;
       this.forget(uri);
@@ -251,7 +288,7 @@ export class WorkspaceRuns implements ExternalPart {
 
   /** A note a reference names that the index does not hold yet (the walk is not over): read now, in the folders only. */
   private loadNow(note: string): string | null {
-    if (!this.files || !this.inFolders(note) || !isNoteUri(note)) return null;
+    if (!this.files || !this.inFolders(note) || !isNoteUri(note) || this.cells.has(note)) return null;
     const raw = this.files.readNow(note);
     if (raw === null) return null;
     const nb = isNotebookNote(note) ? notebookNote(raw) : null;
@@ -271,7 +308,7 @@ export class WorkspaceRuns implements ExternalPart {
       const texts = await Promise.all(batch.map((u) => files.read(u)));
       batch.forEach((uri, k) => {
         const text = texts[k];
-        if (text === null || text === undefined || this.open.has(uri)) return;
+        if (text === null || text === undefined || this.isOpen(uri)) return;
         if (this.unchanged(uri, text)) return;
         this.set(uri, text);
         set.push(uri);

@@ -59,6 +59,38 @@ describe('runs by reference: the book', () => {
     assert.deepEqual(book.dependents('/lab/refs/mon.md'), ['/lab/runs/r1.md']);
   });
 
+  it("reads a note set in parts from its parts: paths from the whole note's folder, `whole#id` finds a part's block", () => {
+    // A host that sets a note in parts (the cells of a notebook open in an editor) names each part `whole|k`.
+    const book = new RunBook({ partOf: (n) => (n.includes('|') ? n.slice(0, n.indexOf('|')) : null) });
+    set(book, '/lab/refs/mon.md', REF);
+    set(book, '/lab/day/nb.ipynb|1', '# Tuesday\n');
+    set(book, '/lab/day/nb.ipynb|2', hp('run 1', '../refs/mon.md#ref-13C Monday'));
+    // Resolved from the notebook's folder, not from a folder named after the part.
+    const [run] = analyse(book, '/lab/day/nb.ipynb|2');
+    assert.deepEqual(codes(run!), []);
+    assert.equal(book.notePath('/lab/day/nb.ipynb|2', '../refs/mon.md'), '/lab/refs/mon.md');
+    // Another note names the whole: the run is found in the part that holds it.
+    set(book, '/lab/day/next.md', hp('run 2', 'nb.ipynb#run 1'));
+    const [next] = analyse(book, '/lab/day/next.md');
+    assert.deepEqual(codes(next!), []);
+    assert.equal(book.target('/lab/day/next.md', next!.meta.refs![0]!)?.note, '/lab/day/nb.ipynb|2');
+    assert.deepEqual(
+      book.blocksNamed('/lab/day/nb.ipynb').map((b) => b.id),
+      ['run 1'],
+    );
+    // An id the parts do not hold is unknown among theirs, and never read through a loader.
+    set(book, '/lab/day/next.md', hp('run 2', 'nb.ipynb#run 9'));
+    const [unknown] = analyse(book, '/lab/day/next.md');
+    assert.deepEqual(codes(unknown!), ['reference-unknown']);
+    assert.doesNotMatch(unknown!.problems[0]!.message, /not found/);
+    // With its parts gone, the whole note is missing again.
+    book.deleteNote('/lab/day/nb.ipynb|1');
+    book.deleteNote('/lab/day/nb.ipynb|2');
+    const [gone] = analyse(book, '/lab/day/next.md');
+    assert.match(gone!.problems[0]!.message, /the note `nb\.ipynb` was not found/);
+    assert.deepEqual(book.blocksNamed('/lab/day/nb.ipynb'), []);
+  });
+
   it('reports an unknown id with the closest ids as fixes', () => {
     const book = new RunBook();
     const text = REF + hp('run 1', 'ref-13C Mondya');

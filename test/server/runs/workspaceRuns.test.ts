@@ -211,6 +211,71 @@ describe('runs in Jupyter notebooks', () => {
     }
   });
 
+  it('reads a notebook open in the editor from its cells alone: no copy of its runs from the file, references still find them', async () => {
+    // VS Code opens each Markdown cell of a notebook as a document of its own (`vscode-notebook-cell:` URIs); the
+    // notebook's file on disk holds the same runs.
+    const cell = 'vscode-notebook-cell:/lab/day.ipynb#W1sZmlsZQ%3D%3D';
+    const cellText = cells[1]!.source.join('');
+    const ref = 'file:///lab/ref.md';
+    const other = fence('id: md-ref Tue\nsystem: 13C\nfield: 3 T\nlattice: 298 K\nsignal:\n  thermal: 1.08e3');
+    const changed: string[][] = [];
+    const files = new Map([
+      [nb, raw],
+      [ref, other],
+    ]);
+    const runs = new WorkspaceRuns((n) => changed.push([...n]), memoryFiles(files));
+    await runs.setFolders(['file:///lab']);
+    runs.edited(cell, cellText);
+    const body = runs.book.blocksOf(cell)[0]!.block.body;
+    assert.deepEqual(
+      runs.book.copies(cell, 'nb-ref Mon', body).others,
+      [],
+      'the file is not a second copy of the cell',
+    );
+    assert.equal(runs.book.hasNote(nb), false);
+    assert.ok(
+      changed.some((c) => c.includes(nb)),
+      'the file leaving the index is a change',
+    );
+    // A file event while the notebook is open does not bring the file back.
+    await runs.fileEvent(nb, 'changed');
+    assert.equal(runs.book.hasNote(nb), false);
+    // A reference to the notebook by its path finds the run in the cell, and the run's place is in the cell.
+    runs.edited(md, run);
+    const report = new Analyzer().analyzeText(run, runs.book.externalsFor(md));
+    assert.deepEqual(
+      report.blocks[0]!.problems.map((p) => p.code),
+      [],
+    );
+    const state: NoteState = { uri: md, version: 1, text: run, lines: new LineIndex(run), report };
+    const [def] = runDefinition(runs, state, state.lines.positionAt(run.indexOf('nb-ref Mon') + 2));
+    assert.equal(def!.uri, cell);
+    assert.deepEqual(def!.range.start, { line: cellText.split('\n').indexOf('id: nb-ref Mon'), character: 4 });
+    // A path written in a cell is relative to the notebook's folder.
+    const asking = fence(
+      'id: cell run\nsystem: 13C\nfield: 3 T\nsignal:\n  hyperpolarized: 2.41e6\n  thermal: { run: ref.md#md-ref Tue }',
+    );
+    // A window on a remote workspace names the cell by its notebook there (`vscode-remote`, in the fragment); the
+    // server beside the files knows the notebook as `file:///lab/day.ipynb` all the same.
+    const second = 'vscode-notebook-cell://127.0.0.1:43133/lab/day.ipynb#W2sdnNjb2RlLXJlbW90ZQ%3D%3D';
+    runs.edited(second, asking);
+    const fromCell = new Analyzer().analyzeText(asking, runs.book.externalsFor(second));
+    assert.deepEqual(
+      fromCell.blocks[0]!.problems.map((p) => p.code),
+      [],
+    );
+    // Closing one cell keeps the file out; closing the last brings it back.
+    await runs.closed(second);
+    assert.equal(runs.book.hasNote(nb), false);
+    assert.equal(runs.book.hasNote(second), false);
+    await runs.closed(cell);
+    assert.deepEqual(
+      runs.book.blocksOf(nb).map((b) => b.id),
+      ['nb-ref Mon'],
+    );
+    assert.equal(runs.book.hasNote(cell), false);
+  });
+
   it('lists the notebooks of a folder on disk with its Markdown notes, and reads them', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'bm-nb-'));
     try {
