@@ -20,6 +20,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { lazyNoteReader } from '../scripts/lazyNoteReader.cjs';
 import { browserDocsLink } from '../scripts/browserDocsLink.cjs';
+import { packageSources } from '../scripts/packageSources.cjs';
 import { median, now } from './stats';
 
 /** One bundle: its size and its limit (KB), or null when its entry point does not exist yet. */
@@ -104,7 +105,7 @@ const NODE = {
   target: 'node20',
   format: 'cjs' as const,
   external: ['vscode'],
-  plugins: [lazyNoteReader],
+  plugins: [...packageSources, lazyNoteReader],
 };
 
 /** Writes the JavaScript output of a build; returns its size in KB. */
@@ -122,6 +123,7 @@ export async function measureSizes(outdir: string): Promise<BundleSize[]> {
     await esbuild.build({
       ...COMMON,
       ...NODE,
+      plugins: [],
       stdin: { contents: FLOOR_SOURCE, resolveDir: resolve('.'), loader: 'ts' },
       outfile: join(outdir, 'floor', 'languageClient.js'),
     }),
@@ -144,7 +146,7 @@ export async function measureSizes(outdir: string): Promise<BundleSize[]> {
             format: e.browser === true ? ('iife' as const) : e.browser,
             external: ['vscode'],
             define: { 'process.env.NODE_ENV': '"production"' },
-            plugins: [browserDocsLink],
+            plugins: [browserDocsLink, ...packageSources],
           }
         : NODE),
     });

@@ -2,13 +2,14 @@
 // `--production` minifies (used for packaging and the size budget).
 import * as esbuild from 'esbuild';
 import { existsSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import { dirname, join } from 'node:path';
 import lazy from './lazyNoteReader.cjs';
 import docsLink from './browserDocsLink.cjs';
+import sources from './packageSources.cjs';
 
 const { lazyNoteReader } = lazy;
 const { browserDocsLink } = docsLink;
+// Which build of `yaml`, the fitting packages and `debug` goes in (see packageSources.cjs).
+const { packageSources } = sources;
 
 const watch = process.argv.includes('--watch');
 const production = process.argv.includes('--production');
@@ -50,21 +51,6 @@ const common = {
   legalComments: 'linked',
 };
 
-/**
- * `yaml` as its own browser build in the Node bundles too: the same parser and
- * composer, compiled from the same source, but without the node build's look
- * at `process.env.LOG_TOKENS` for every token it reads (a debug log; reading
- * the environment costs about 0.15 µs each time, a tenth of the command line's
- * time over a thousand notes). The browser build never reads `process`.
- */
-const yamlBrowserBuild = {
-  name: 'yaml-browser-build',
-  setup(build) {
-    const root = dirname(createRequire(import.meta.url).resolve('yaml/package.json'));
-    build.onResolve({ filter: /^yaml$/ }, () => ({ path: join(root, 'browser', 'index.js') }));
-  },
-};
-
 /** esbuild options per kind of bundle; each entry adds only what is its own. */
 const NODE = { platform: 'node', target: 'node20', format: 'cjs', external: ['vscode'] };
 const PAGE = { platform: 'browser', target: 'es2022', format: 'iife' };
@@ -73,13 +59,13 @@ const BROWSER = {
   target: 'es2022',
   // The language packages read `process.env` in a few debug paths; a browser has none.
   define: { 'process.env.NODE_ENV': production ? '"production"' : '"development"' },
-  plugins: [browserDocsLink],
+  plugins: [browserDocsLink, ...packageSources],
 };
 
 const contexts = [];
 const builds = [
-  ...nodeEntries.map((e) => ({ ...NODE, in: e.in, out: e.out, plugins: [yamlBrowserBuild, ...(e.plugins ?? [])] })),
-  ...webEntries.map((e) => ({ ...PAGE, in: e.in, out: e.out })),
+  ...nodeEntries.map((e) => ({ ...NODE, in: e.in, out: e.out, plugins: [...packageSources, ...(e.plugins ?? [])] })),
+  ...webEntries.map((e) => ({ ...PAGE, in: e.in, out: e.out, plugins: packageSources })),
   ...browserEntries.map((e) => ({ ...BROWSER, in: e.in, out: e.out, format: e.format, external: e.external ?? [] })),
 ];
 for (const { in: entry, out, ...options } of builds)

@@ -38,6 +38,7 @@ const STAGED = [
   'scripts/build.mjs',
   'scripts/lazyNoteReader.cjs',
   'scripts/browserDocsLink.cjs',
+  'scripts/packageSources.cjs',
 ];
 /** Files a user's install cannot do without. */
 const REQUIRED = [
