@@ -192,6 +192,36 @@ describe('Boltzmark through the VS Code API', () => {
     await opened;
   });
 
+  it('reads a notebook open in the editor from its cells: a reference finds its run in the cell', async () => {
+    const folder = vscode.workspace.workspaceFolders![0]!;
+    // Opening the notebook opens each of its cells as a document of its own (`vscode-notebook-cell:`).
+    const notebook = await vscode.workspace.openNotebookDocument(
+      vscode.Uri.joinPath(folder.uri, 'optical-bench.ipynb'),
+    );
+    const cell = notebook.getCells().find((c) => c.document.getText().includes('id: Xe cell run 2'));
+    assert.ok(cell, 'the demo notebook has the cell of `Xe cell run 2`');
+    const scratch = await vscode.workspace.openTextDocument({
+      language: 'markdown',
+      content:
+        '```levels\nid: scratch Xe\nsystem: 129Xe\nfield: 2 T\nsignal:\n  hyperpolarized: 100\n' +
+        '  thermal: { run: Xe cell run 2 }\n```\n',
+    });
+    const ref = new vscode.Position(6, '  thermal: { run: Xe'.length);
+    // The server takes the cells and walks the workspace meanwhile: asked until a place comes, for at most 20 s.
+    const deadline = Date.now() + 20000;
+    let places: (vscode.Location | vscode.LocationLink)[] = [];
+    for (let asked = 0; places.length === 0 && (asked === 0 || Date.now() < deadline); asked++) {
+      if (asked > 0) await new Promise((r) => setTimeout(r, 250));
+      places = await vscode.commands.executeCommand('vscode.executeDefinitionProvider', scratch.uri, ref);
+    }
+    const targets = places.map((p) => ('targetUri' in p ? p.targetUri : p.uri).toString());
+    // One run, in the cell: the notebook's file is not read beside its open cells (it was, as a second copy).
+    assert.deepEqual(targets, [cell.document.uri.toString()]);
+    const place = places[0]!;
+    const range = 'targetRange' in place ? (place.targetSelectionRange ?? place.targetRange) : place.range;
+    assert.equal(cell.document.getText(range), 'Xe cell run 2');
+  });
+
   it('has not written to the note on disk', () => {
     const original = process.env.BOLTZMARK_DEMO_ORIGINAL;
     assert.ok(original, 'BOLTZMARK_DEMO_ORIGINAL names the committed demo folder');
