@@ -267,14 +267,16 @@ export class BookIndex {
     const all = this.byId.get(ref.id);
     if (all && all.length > 0) {
       // Of several blocks with the id, the one in the asking note (or in the same whole note) is meant.
-      const whole = this.partOf?.(from) ?? from;
-      return {
-        kind: 'found',
-        block:
-          all.find((x) => x.note === from) ?? all.find((x) => (this.partOf?.(x.note) ?? x.note) === whole) ?? all[0]!,
-      };
+      const block = all.length === 1 ? all[0]! : (all.find((x) => x.note === from) ?? this.sameWhole(from, all));
+      return { kind: 'found', block };
     }
     return { kind: 'unknown', among: [...this.byId.keys()] };
+  }
+
+  /** Of blocks with one id, the first in the whole note `from` is a part of (the first of all otherwise). */
+  private sameWhole(from: string, all: readonly BookBlock[]): BookBlock {
+    const whole = this.partOf?.(from) ?? null;
+    return (whole === null ? undefined : all.find((x) => this.partOf!(x.note) === whole)) ?? all[0]!;
   }
 
   /** The block a reference written in `from` leads to (null when unknown, missing or not followed). */

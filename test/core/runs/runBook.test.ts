@@ -78,6 +78,13 @@ describe('runs by reference: the book', () => {
       book.blocksNamed('/lab/day/nb.ipynb').map((b) => b.id),
       ['run 1'],
     );
+    // A bare id carried twice is looked for in the asking part's own whole note first.
+    const copy = new RunBook({ partOf: (n) => (n.includes('|') ? n.slice(0, n.indexOf('|')) : null) });
+    set(copy, '/lab/day/aaa.md', hp('run 1', 'x'));
+    set(copy, '/lab/day/nb.ipynb|2', hp('run 1', 'x'));
+    set(copy, '/lab/day/nb.ipynb|3', hp('run 3', 'run 1'));
+    const [bare] = analyse(copy, '/lab/day/nb.ipynb|3');
+    assert.equal(copy.target('/lab/day/nb.ipynb|3', bare!.meta.refs![0]!)?.note, '/lab/day/nb.ipynb|2');
     // An id the parts do not hold is unknown among theirs, and never read through a loader.
     set(book, '/lab/day/next.md', hp('run 2', 'nb.ipynb#run 9'));
     const [unknown] = analyse(book, '/lab/day/next.md');
