@@ -66,6 +66,19 @@ describe('server spectrum files', () => {
       });
     });
 
+    it("a cell of a remote window's notebook finds its spectra beside the notebook's file", () => {
+      // The window names the cell after the notebook it shows (`vscode-remote://host/…`); the server, beside the
+      // files, knows the folder as `file:///lab`.
+      assert.deepEqual(
+        locateSpectrum(
+          'vscode-notebook-cell://127.0.0.1:43133/lab/day/nb.ipynb#W1sdnNjb2RlLXJlbW90ZQ%3D%3D',
+          'hp.csv',
+          [ROOT],
+        ),
+        { uri: 'file:///lab/day/hp.csv', root: 'file:///lab' },
+      );
+    });
+
     it("reads a cell's notebook with the scheme VS Code writes into the cell's fragment", () => {
       // VS Code's cell URIs: the notebook's URI with the scheme `vscode-notebook-cell` and the fragment
       // `<handle in base 7, length-prefixed>s<base64 of the notebook's scheme>` (common practice of the
