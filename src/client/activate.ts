@@ -67,10 +67,11 @@ export async function activateWith(context: vscode.ExtensionContext, makeClient:
     context.subscriptions.push(
       followCursor(),
       registerCurveSerializer({ extensionUri: context.extensionUri, client: () => client, log }),
-      registerCellRendererMessaging(),
       ...serveSpectrumFiles(client),
     );
     previewSources = registerRunLog(context, log, { extensionUri: context.extensionUri, client: () => client, log });
+    // The rendered cells of notebooks take the results of blocks that refer out from the run log's sources.
+    context.subscriptions.push(registerCellRendererMessaging(() => previewSources));
     await client.start();
     log.info('Boltzmark language server started');
   } catch (err) {

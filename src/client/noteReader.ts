@@ -6,7 +6,7 @@
  * of the core's weight; keeping them out of `dist/extension.js` keeps the
  * bundle VS Code loads at activation down to the language client and glue.
  */
-export { levelsPreview, type PreviewOptions } from './preview';
+export { levelsPreview, madeResults, type PreviewOptions } from './preview';
 export { RunLog, runLogCsv, curveCsv, runChartCsv, runChartData, spectrumCsv } from '../core';
 export { SpectrumFiles, deferredParser } from '../shared/spectrumFiles';
 export { SPECTRUM_EXTENSIONS } from '../core';

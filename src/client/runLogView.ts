@@ -50,7 +50,7 @@ class RunLogTree implements vscode.TreeDataProvider<Node> {
 
   getChildren(node?: Node): Node[] {
     if (!node && this.usersOf) {
-      const entries = this.log.users(this.usersOf.uri, this.usersOf.line);
+      const entries = this.log.users(this.usersOf.uri, this.usersOf.line, this.usersOf.cell);
       return [{ kind: 'group', group: { label: `runs using ${this.usersOf.id ?? this.usersOf.name}`, entries } }];
     }
     if (!node) return this.log.groups(this.by, this.statuses).map((group) => ({ kind: 'group', group }));
@@ -109,6 +109,8 @@ export interface PreviewSources {
    * starts the reading of the workspace, and the preview is refreshed when the log has more to give it.
    */
   externals(uri: vscode.Uri | undefined): Externals | null;
+  /** Fired once a burst of readings is over while a note previewed refers out: what it reads may have changed. */
+  readonly onDidRead: vscode.Event<void>;
 }
 
 /** The debouncer's key of a refresh of the Markdown preview. */
@@ -159,11 +161,13 @@ export function registerRunLog(
   // The notes whose preview asked the log for sources (only blocks that refer out ask): the preview is
   // refreshed, once per burst of readings, only while there are such notes.
   const previewed = new Set<string>();
+  const read = new vscode.EventEmitter<void>();
   const schedulePreview = (): void =>
-    rereads.schedule(PREVIEW_REFRESH, () =>
-      background(log, 'refreshing the Markdown preview', vscode.commands.executeCommand('markdown.preview.refresh')),
-    );
-  context.subscriptions.push(spectra);
+    rereads.schedule(PREVIEW_REFRESH, () => {
+      background(log, 'refreshing the Markdown preview', vscode.commands.executeCommand('markdown.preview.refresh'));
+      read.fire();
+    });
+  context.subscriptions.push(spectra, read);
   const start = async (): Promise<void> => {
     if (started) return;
     started = true;
@@ -271,6 +275,7 @@ export function registerRunLog(
       }
       return tree.log.externalsFor(uri.toString());
     },
+    onDidRead: read.event,
   };
 }
 

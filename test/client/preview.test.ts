@@ -1,8 +1,9 @@
 import { strict as assert } from 'node:assert';
 import { readFileSync } from 'node:fs';
 import MarkdownIt from 'markdown-it';
-import { levelsPreview } from '../../src/client/preview';
-import { DEFAULT_DISPLAY } from '../../src/core';
+import { fillIn } from '../../src/client/cellRenderer';
+import { bodyKey, levelsPreview, madeResults } from '../../src/client/preview';
+import { DEFAULT_DISPLAY, RunBook } from '../../src/core';
 
 function render(markdown: string): string {
   const md = levelsPreview(new MarkdownIt({ html: false }), { infoStrings: () => [], display: () => DEFAULT_DISPLAY });
@@ -95,5 +96,67 @@ describe('Markdown preview of levels blocks', () => {
     // Same block as the demo's cell-B run: T = 5.61 ± 0.19 mK, here written in kelvin.
     assert.match(md.render(note, b), /<th scope="row">T<\/th><td>0\.00561 ± 0\.00019 K<\/td>/);
     assert.deepEqual(seen, [a, b]);
+  });
+});
+
+describe('rendered notebook cells: blocks that take values from other runs', () => {
+  // Invented notes: a day's 13C thermal reference and a hyperpolarized run that takes its thermal signal from it.
+  const reference =
+    '```levels\nid: pyr thermal Sat\nsystem: 13C\nfield: 1.4 T\nlattice: 295 K\nsignal:\n  thermal: 412 ± 9\n  scans: { thermal: 256 }\n```\n';
+  const run =
+    '```levels\nid: pyr dissolution 1\nsystem: 13C\nfield: 1.4 T\nsignal:\n  hyperpolarized: 8.1e5 ± 2e3\n' +
+    '  thermal: { run: pyr thermal Sat }\n  scans: { hyperpolarized: 1 }\n```\n';
+
+  it('says where the values come from, not "invalid", where no reference can be followed', () => {
+    const html = render(run);
+    assert.doesNotMatch(html, /invalid/);
+    assert.match(
+      html,
+      /<strong>pyr dissolution 1<\/strong> — <span class="boltzmark-status">takes values from other runs/,
+    );
+    assert.match(html, /From <code>pyr thermal Sat<\/code>: not read here yet/);
+    // A block with an error of its own still says "invalid".
+    assert.match(render(run.replace('field: 1.4 T', 'field: 1.4 MT')), /invalid: the block has an error/);
+    // A hostile run name is text.
+    assert.match(render(run.replace(/pyr thermal Sat/g, '<img src=x onerror=alert(1)>')), /<code>&lt;img src=x/);
+  });
+
+  it('shows the results made elsewhere for a block that refers out, keyed by its body, and fills them in later', () => {
+    const book = new RunBook();
+    const notebook = 'file:///lab/bench-day.ipynb';
+    book.setNote(notebook, reference + '\n' + run);
+    const made = madeResults([reference, run], book.externalsFor(notebook), DEFAULT_DISPLAY, []);
+    // Only the block that refers out: ε = S_hp / (S_th/256) = 8.1e5 / 1.609 = 5.03 × 10⁵ (invented data).
+    const keys = Object.keys(made);
+    assert.deepEqual(keys, [bodyKey(run.split('\n').slice(1, -2).join('\n') + '\n')]);
+    assert.match(made[keys[0]!]!, /<th scope="row">ε<\/th><td>503000 ± 11000<\/td>/);
+    let known: Record<string, string> = {};
+    const md = levelsPreview(new MarkdownIt(), {
+      infoStrings: () => [],
+      display: () => DEFAULT_DISPLAY,
+      madeElsewhere: (key) => known[key],
+    });
+    // Rendered before the results came: the note, inside an element keyed by the body.
+    const before = md.render(run);
+    assert.match(
+      before,
+      new RegExp(
+        `<div class="boltzmark-keyed" data-boltzmark-key="${keys[0]}"><div class="boltzmark-results">.*not read here yet`,
+      ),
+    );
+    // The results come: the cells already rendered (each in a shadow root of its own) are filled in.
+    const cell = { innerHTML: 'not read here yet', getAttribute: () => keys[0]!, shadowRoot: null };
+    const other = { innerHTML: 'other', getAttribute: () => '00000000-1', shadowRoot: null };
+    const shadow = { querySelectorAll: (s: string) => (s === '*' ? [] : [cell, other]) };
+    const host = { innerHTML: '', getAttribute: () => null, shadowRoot: shadow };
+    const doc = { querySelectorAll: (s: string) => (s === '*' ? [host] : []) };
+    fillIn(doc, new Map(Object.entries(made)));
+    assert.equal(cell.innerHTML, made[keys[0]!]);
+    assert.equal(other.innerHTML, 'other');
+    // Rendered after: the results at once.
+    known = made;
+    assert.match(md.render(run), /503000 ± 11000/);
+    // A block that refers to nothing is analysed in the renderer itself, unkeyed.
+    assert.doesNotMatch(md.render(reference), /boltzmark-keyed/);
   });
 });

@@ -1,11 +1,15 @@
 import { strict as assert } from 'node:assert';
+import { rmSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import * as host from '../../scripts/editorHost.cjs';
 import { shot, startSession, type Session } from './session';
-import { clean, frameWith, pattern } from './workbench';
+import { clean, frameWith, pattern, runCommand } from './workbench';
 
 // The demo notebook (demo/optical-bench.ipynb): its second cell holds the `Xe cell run 2` block.
 const NOTEBOOK = 'optical-bench.ipynb';
+// A notebook the last step writes into the workspace and removes.
+const REFERRING = 'by-reference.ipynb';
 
 function notebookSteps(version: host.Version): void {
   describe(`Boltzmark in a Jupyter notebook, in VS Code’s own notebook editor (e2e, ${host.TITLES[version]})`, function () {
@@ -111,6 +115,76 @@ function notebookSteps(version: host.Version): void {
       }
       await other.locator('.view-line', { hasText: pattern('id: probe pair T2') }).click();
       await view.locator('#block-title', { hasText: 'probe pair T2' }).waitFor();
+    });
+
+    it('shows in a rendered cell the results of a run that takes its thermal signal from another cell', async () => {
+      // Invented data: a 13C thermal reference in one cell, a hyperpolarized run taking it by reference in another.
+      const cell = (lines: string[]): object => ({ cell_type: 'markdown', metadata: {}, source: lines });
+      const notebook = {
+        cells: [
+          cell([
+            'Thermal reference, 256 scans.\n',
+            '\n',
+            '```levels\n',
+            'id: pyr thermal Sat\n',
+            'system: 13C\n',
+            'field: 1.4 T\n',
+            'lattice: 295 K\n',
+            'signal:\n',
+            '  thermal: 412 ± 9\n',
+            '  scans: { thermal: 256 }\n',
+            '```',
+          ]),
+          cell([
+            'Dissolution 1, one scan.\n',
+            '\n',
+            '```levels\n',
+            'id: pyr dissolution 1\n',
+            'system: 13C\n',
+            'field: 1.4 T\n',
+            'signal:\n',
+            '  hyperpolarized: 8.1e5 ± 2e3\n',
+            '  thermal: { run: pyr thermal Sat }\n',
+            '  scans: { hyperpolarized: 1 }\n',
+            '```',
+          ]),
+        ],
+        metadata: {},
+        nbformat: 4,
+        nbformat_minor: 5,
+      };
+      const file = join(s.workspace, REFERRING);
+      writeFileSync(file, JSON.stringify(notebook, null, 1));
+      try {
+        // The whole width for the notebook, so that both cells are rendered (cells out of sight are not).
+        await runCommand(page, 'View: Close All Editors');
+        await page.locator(`.explorer-folders-view .monaco-list-row[aria-label="${REFERRING}"]`).dblclick();
+        await page.locator('.tabs-container .tab.active', { hasText: REFERRING }).waitFor();
+        await frameWith(page, '.boltzmark-results', 'pyr thermal Sat');
+        const list = page.locator('.notebook-editor .monaco-list').first();
+        const box = await list.boundingBox();
+        if (box) {
+          await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+          await page.mouse.wheel(0, 600);
+        }
+        const frame = await frameWith(page, '.boltzmark-results', 'pyr dissolution 1');
+        const results = frame.locator('.boltzmark-results', { hasText: 'pyr dissolution 1' });
+        // The webview reads no other cell: the extension makes the results with the run log's runs and sends them
+        // (ε = 8.1e5 / (412/256) = 5.03 × 10⁵); the cell may show where its values come from until they come.
+        await results
+          .filter({ hasText: /503000 ± 11000/ })
+          .waitFor({ timeout: 60000 })
+          .catch(() => undefined);
+        const text = clean(await results.innerText());
+        assert.match(text, /ε\s+503000 ± 11000/);
+        assert.match(text, /normal/);
+        assert.doesNotMatch(text, /invalid/);
+        assert.match(text, /P\s+61\.4 ± 1\.3 %/);
+        await results.scrollIntoViewIfNeeded().catch(() => undefined);
+        await shot(page, 'notebook-cell-by-reference');
+      } finally {
+        rmSync(file, { force: true });
+      }
     });
   });
 }

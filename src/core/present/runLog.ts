@@ -7,7 +7,7 @@
 import type { Externals } from '../block/externals';
 import { Analyzer, type BlockReport } from '../analyzer/analyzer';
 import { RunBook } from '../runs/runBook';
-import { isNotebookPath, notebookCells } from '../text/jupyter';
+import { cellGap, isNotebookPath, joinCells, notebookCells } from '../text/jupyter';
 import type { Measured, Status } from '../types';
 import { csvText } from './csv';
 
@@ -43,7 +43,7 @@ export interface RunEntry {
    * The runs this one takes values from by reference (`thermal: { run: … }`, `decay: { run: … }`): each one's
    * note and the line of its opening fence, as in its own entry. Absent or empty when it refers to none.
    */
-  readonly uses?: readonly { readonly uri: string; readonly line: number }[];
+  readonly uses?: readonly { readonly uri: string; readonly line: number; readonly cell?: number }[];
 }
 
 /** A group of runs under one heading (a note, or a date). */
@@ -66,6 +66,11 @@ export class RunLog {
 
   /** Each note's other sources of values by reference (spectrum files), as its host last gave them. */
   private readonly sources = new Map<string, Externals>();
+  /**
+   * Each notebook's Markdown cells as the book reads them (one note, joined as the command line joins them): each
+   * cell's index and the line of the joined text it starts at, for a run's place in its own cell.
+   */
+  private readonly cellStarts = new Map<string, readonly { readonly index: number; readonly line: number }[]>();
 
   constructor(private readonly analyzer: Analyzer = new Analyzer()) {
     this.book = new RunBook({ analyzer, sources: (note) => this.sources.get(note) ?? null });
@@ -73,20 +78,43 @@ export class RunLog {
 
   /**
    * Reads (or re-reads) one note; returns true when its runs changed. A URI ending in `.ipynb` is read as a
-   * Jupyter notebook: each Markdown cell is a note of its own (a file that is not a notebook has no runs).
-   * `externals` are the note's sources of values by reference (spectrum files), when the host has them.
+   * Jupyter notebook: its Markdown cells, each read on its own, whose runs other notes refer to and which refer
+   * to runs as a note's do (a file that is not a notebook has no runs). `externals` are the note's sources of
+   * values by reference (spectrum files), when the host has them.
    */
   update(uri: string, name: string, text: string, externals: Externals | null = null): boolean {
     if (externals) this.sources.set(uri, externals);
     else this.sources.delete(uri);
-    if (isNotebookPath(uri)) return this.read(uri, name, text);
     // The notes that used this note's runs before the change, and those that use them after it.
     const before = this.usersOfNote(uri);
     this.count(uri, -1);
     this.texts.set(uri, { name, text });
-    this.book.setNote(uri, text);
+    this.book.setNote(uri, isNotebookPath(uri) ? this.joined(uri, text) : text);
     this.count(uri, 1);
     return this.readAgain(uri, before);
+  }
+
+  /** A notebook's Markdown cells as one note, with where each cell starts kept for {@link placeOf}. */
+  private joined(uri: string, text: string): string {
+    const cells = notebookCells(text).cells;
+    const joined = joinCells(cells);
+    const starts: { index: number; line: number }[] = [];
+    let line = 0;
+    cells.forEach((c, k) => {
+      if (k > 0) line += lineCount(cells[k - 1]!.text);
+      starts.push({ index: c.index, line });
+    });
+    this.cellStarts.set(uri, starts);
+    return joined;
+  }
+
+  /** A block's place as the log names it: in a notebook, its cell and the line in that cell. */
+  private placeOf(uri: string, line: number): { uri: string; line: number; cell?: number } {
+    const starts = this.cellStarts.get(uri);
+    if (!starts) return { uri, line };
+    let at = starts[0];
+    for (const s of starts) if (s.line <= line) at = s;
+    return at ? { uri, line: line - at.line, cell: at.index } : { uri, line };
   }
 
   /** Adds (or takes away) the ids a note's references name. */
@@ -105,9 +133,14 @@ export class RunLog {
     return named ? this.book.dependents(uri) : [];
   }
 
-  /** The runs that take values from the run at `uri` whose block opens at `line`, by note name then line. */
-  users(uri: string, line: number): RunEntry[] {
-    return this.entries().filter((e) => (e.uses ?? []).some((u) => u.uri === uri && u.line === line));
+  /**
+   * The runs that take values from the run at `uri` whose block opens at `line` (of notebook cell `cell`), by
+   * note name then line.
+   */
+  users(uri: string, line: number, cell: number | null = null): RunEntry[] {
+    return this.entries().filter((e) =>
+      (e.uses ?? []).some((u) => u.uri === uri && u.line === line && (cell === null || u.cell === cell)),
+    );
   }
 
   /** Reads the note, then every note whose runs use its runs (before or now); true when any of them changed. */
@@ -126,7 +159,7 @@ export class RunLog {
       const out: { uri: string; line: number }[] = [];
       for (const ref of b.meta.refs ?? []) {
         const t = this.book.target(uri, ref);
-        if (t) out.push({ uri: t.note, line: t.block.openLine });
+        if (t) out.push(this.placeOf(t.note, t.block.openLine));
       }
       return out;
     };
@@ -155,7 +188,7 @@ export class RunLog {
     });
     const entries: RunEntry[] = isNotebookPath(uri)
       ? notebookCells(text).cells.flatMap((c) =>
-          this.analyzer.analyzeText(c.text, this.sources.get(uri) ?? null).blocks.map((b) => entry(b, c.index)),
+          this.analyzer.analyzeText(c.text, this.book.externalsFor(uri)).blocks.map((b) => entry(b, c.index)),
         )
       : this.analyzer.analyzeText(text, this.book.externalsFor(uri)).blocks.map((b) => entry(b, null));
     const before = this.notes.get(uri);
@@ -181,6 +214,7 @@ export class RunLog {
     this.count(uri, -1);
     this.texts.delete(uri);
     this.sources.delete(uri);
+    this.cellStarts.delete(uri);
     this.book.deleteNote(uri);
     const had = this.notes.delete(uri);
     return this.readAgain(uri, before) || had;
@@ -275,4 +309,15 @@ export function runLogCsv(entries: readonly RunEntry[]): string {
       e.cell === null ? null : e.cell + 1,
     ]),
   ]);
+}
+
+/** The line breaks of a cell's text and of the gap after it (core's cellGap) in the joined text. */
+function lineCount(cellText: string): number {
+  return breaks(cellText) + breaks(cellGap(cellText));
+}
+
+function breaks(text: string): number {
+  let n = 0;
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
+  return n;
 }

@@ -54,3 +54,48 @@ describe('run log: runs by reference', () => {
     assert.equal(byId(log, 'run 1').status, 'invalid');
   });
 });
+
+describe('run log: runs by reference in Jupyter notebooks', () => {
+  const notebook = (...cells: string[]): string =>
+    JSON.stringify({
+      cells: [
+        { cell_type: 'code', metadata: {}, source: ['x = 1\n'], outputs: [] },
+        ...cells.map((c) => ({ cell_type: 'markdown', metadata: {}, source: c.split(/(?<=\n)/) })),
+      ],
+      metadata: {},
+      nbformat: 4,
+      nbformat_minor: 5,
+    });
+
+  it('follows a reference from one cell to another, and from a note into a notebook, with places in the cells', () => {
+    const log = new RunLog();
+    // Cell 2 (index 1): the reference, after a heading; cell 3: a run that takes its thermal signal from it.
+    log.update('/lab/day.ipynb', 'day.ipynb', notebook('# Monday\n\n' + REF, hp('run 1', 'ref-13C Monday')));
+    const run = byId(log, 'run 1');
+    assert.equal(run.status, 'normal');
+    assert.equal(run.cell, 2);
+    // The reference's fence is line 2 of its cell (index 1), as its own entry says.
+    const ref = byId(log, 'ref-13C Monday');
+    assert.deepEqual([ref.cell, ref.line], [1, 2]);
+    assert.deepEqual(run.uses, [{ uri: '/lab/day.ipynb', line: 2, cell: 1 }]);
+    assert.deepEqual(
+      log.users('/lab/day.ipynb', 2, 1).map((e) => e.id),
+      ['run 1'],
+    );
+    // A note names the notebook: it is followed, and the notebook's reference being edited reaches the note.
+    log.update('/lab/week.md', 'week.md', hp('run 2', 'day.ipynb#ref-13C Monday'));
+    assert.equal(byId(log, 'run 2').status, 'normal');
+    const p1 = byId(log, 'run 2').polarization!.value;
+    assert.equal(
+      log.update('/lab/day.ipynb', 'day.ipynb', notebook('# Monday\n\n' + REF.replace('1.08e3', '2.16e3'), 'x')),
+      true,
+    );
+    // Twice the thermal signal: half the polarization (P = ε · P_th).
+    assert.ok(Math.abs(byId(log, 'run 2').polarization!.value / p1 - 0.5) < 1e-12);
+    // A sources-only view of the notebook (the Markdown preview's, the rendered cells') finds the runs too.
+    assert.equal(
+      log.externalsFor('/lab/day.ipynb').runs!.resolve('/lab/day.ipynb', { note: null, id: 'ref-13C Monday' }, '').kind,
+      'found',
+    );
+  });
+});
