@@ -39,7 +39,7 @@ import {
   type Span,
 } from '../../core';
 import { isNotebookNote } from '../runs/notebookNotes';
-import type { WorkspaceRuns } from '../runs/workspaceRuns';
+import { notebookOfCell, type WorkspaceRuns } from '../runs/workspaceRuns';
 import { toOffset, toRange, type NoteState } from '../state';
 import { escapeMarkdown } from './markdown';
 
@@ -307,6 +307,19 @@ export function runCompletion(runs: WorkspaceRuns, state: NoteState, position: P
   return items;
 }
 
+/**
+ * Where a run is, in words: `note.md, line 5`; in a notebook, its cell and the line in the cell, as the command
+ * line prints them (`day.ipynb, cell 2, line 4`); in a cell of a notebook open in the editor, whose place among
+ * the cells the server is not told, `a cell of day.ipynb, line 4`.
+ */
+export function placeWords(runs: WorkspaceRuns, place: { note: string; span: Span; line: number }): string {
+  const cell = runs.cellOf(place.note, place.span.start);
+  if (cell) return `${noteName(place.note)}, cell ${cell.cell}, line ${cell.line + 1}`;
+  const notebook = notebookOfCell(place.note);
+  if (notebook !== null) return `a cell of ${noteName(notebook)}, line ${place.line + 1}`;
+  return `${noteName(place.note)}, line ${place.line + 1}`;
+}
+
 /** Hover on a reference: the referenced run's summary and where it is. */
 export function runHover(
   runs: WorkspaceRuns,
@@ -323,7 +336,7 @@ export function runHover(
   switch (answer.kind) {
     case 'found': {
       const f = answer.run;
-      const where = `${noteName(f.place.note)}, line ${f.place.line + 1}`;
+      const where = placeWords(runs, f.place);
       lines.push(`**${what}: ${escapeMarkdown(f.id)}**${f.date ? ` (${escapeMarkdown(f.date)})` : ''}`, '');
       lines.push(`${escapeMarkdown(runLine(f, o))}`, '');
       if (f.error) lines.push(`First error (line ${f.error.line + 1}): ${escapeMarkdown(f.error.message)}`, '');

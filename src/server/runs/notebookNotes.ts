@@ -20,6 +20,8 @@ export interface NotebookNote {
   readonly text: string;
   /** The position in the notebook's file of an offset of `text`. */
   place(offset: number): LineCol;
+  /** The cell (1-based among all cells, as the command line counts them) and the 0-based line in it of an offset. */
+  cellOf(offset: number): { readonly cell: number; readonly line: number };
 }
 
 /** True for a note of the index that is a notebook. */
@@ -36,13 +38,17 @@ export function notebookNote(raw: string): NotebookNote {
   const lines: string[] = [];
   const found: number[] = [];
   const exact: boolean[] = [];
+  /** Per line: its cell (1-based) and its line in that cell. */
+  const cellLines: { cell: number; line: number }[] = [];
   let text = '';
   let cursor = 0;
   nb.cells.forEach((cell, k) => {
     // Joined exactly as the command line joins them (src/cli/runs.ts, core's joinCells), empty cells included.
     if (k > 0) text += cellGap(nb.cells[k - 1]!.text);
     let at = text.length;
+    let inCell = 0;
     for (const line of cell.text.split('\n')) {
+      cellLines.push({ cell: cell.index + 1, line: inCell++ });
       const escaped = JSON.stringify(line).slice(1, -1);
       const hit = escaped === '' ? -1 : raw.indexOf(escaped, cursor);
       if (hit >= 0) cursor = hit + escaped.length;
@@ -54,20 +60,26 @@ export function notebookNote(raw: string): NotebookNote {
     }
     text += cell.text;
   });
-  const place = (offset: number): LineCol => {
-    // The last line that starts at or before the offset.
+  /** The last line that starts at or before the offset (-1 for a notebook without Markdown lines). */
+  const lineAt = (offset: number): number => {
     let a = 0;
     let b = starts.length - 1;
-    if (b < 0) return { line: 0, character: 0 };
+    if (b < 0) return -1;
     while (a < b) {
       const m = (a + b + 1) >>> 1;
       if (starts[m]! <= offset) a = m;
       else b = m - 1;
     }
+    return a;
+  };
+  const place = (offset: number): LineCol => {
+    const a = lineAt(offset);
+    if (a < 0) return { line: 0, character: 0 };
     if (!exact[a]) return file.positionAt(found[a]!);
     const line = lines[a]!;
     const column = Math.max(0, Math.min(offset - starts[a]!, line.length));
     return file.positionAt(found[a]! + JSON.stringify(line.slice(0, column)).length - 2);
   };
-  return { text, place };
+  const cellOf = (offset: number): { cell: number; line: number } => cellLines[lineAt(offset)] ?? { cell: 1, line: 0 };
+  return { text, place, cellOf };
 }

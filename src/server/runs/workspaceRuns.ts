@@ -175,6 +175,14 @@ export class WorkspaceRuns implements ExternalPart {
     return lines ? { start: lines.positionAt(span.start), end: lines.positionAt(span.end) } : null;
   }
 
+  /**
+   * For a notebook read from its file: the cell (1-based among all cells) and the 0-based line in it of an offset
+   * of the text the book reads; null for any other note.
+   */
+  cellOf(note: string, offset: number): { readonly cell: number; readonly line: number } | null {
+    return this.texts.get(note)?.notebook?.note.cellOf(offset) ?? null;
+  }
+
   /** Resolves when the latest walk of the folders is over. */
   ready(): Promise<void> {
     return this.scanning;

@@ -7,6 +7,7 @@ import { Analyzer, LineIndex, resolveNotePath } from '../../../src/core';
 import {
   badRunId,
   runDefinition,
+  runHover,
   runPrepareRename,
   runRename,
   runSymbolAt,
@@ -135,6 +136,10 @@ describe('runs in Jupyter notebooks', () => {
     assert.ok(line > 0);
     assert.deepEqual(def!.range.start, { line, character: fileLines[line]!.indexOf('nb-ref') });
     assert.deepEqual(def!.range.end, { line, character: fileLines[line]!.indexOf('nb-ref') + 'nb-ref Mon'.length });
+    // The hover on the reference says where the run is as the command line does: its cell and the line in it
+    // (cell 2 of the file, after a code cell: the id is on line 4 of the cell).
+    const hover = runHover(runs, state, at);
+    assert.match((hover!.contents as { value: string }).value, /In day\\\.ipynb, cell 2, line 4/);
     // The run is a workspace symbol at the same place.
     const sym = runSymbols(runs, 'nbref').find((x) => x.location.uri === nb)!;
     assert.deepEqual(sym.location.range, def!.range);
@@ -251,6 +256,9 @@ describe('runs in Jupyter notebooks', () => {
     const [def] = runDefinition(runs, state, state.lines.positionAt(run.indexOf('nb-ref Mon') + 2));
     assert.equal(def!.uri, cell);
     assert.deepEqual(def!.range.start, { line: cellText.split('\n').indexOf('id: nb-ref Mon'), character: 4 });
+    // Where the cell stands among the others the server is not told: the hover names the cell's line.
+    const hover = runHover(runs, state, state.lines.positionAt(run.indexOf('nb-ref Mon') + 2));
+    assert.match((hover!.contents as { value: string }).value, /In a cell of day\\\.ipynb, line 4/);
     // A path written in a cell is relative to the notebook's folder.
     const asking = fence(
       'id: cell run\nsystem: 13C\nfield: 3 T\nsignal:\n  hyperpolarized: 2.41e6\n  thermal: { run: ref.md#md-ref Tue }',
