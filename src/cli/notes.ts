@@ -24,7 +24,7 @@ import {
 import { collectNotes } from './files';
 import type { Row } from './formats';
 import type { Io } from './main';
-import { bookName, bookText, commandBook, readableRoots } from './runs';
+import { bookName, bookText, commandBook, readableRoots, type NotebookStarts } from './runs';
 import { noteSpectra } from './spectra';
 
 /** One note as read: its text (a byte-order mark dropped) and where its bytes were not UTF-8. */
@@ -82,12 +82,18 @@ export function readNotes(paths: readonly string[], io: Io): ReadNotes {
       invalid: decoded.invalid.map((v) => ({ byte: v.byte, offset: v.offset - bom })),
     };
   });
+  const cells: NotebookStarts = new Map();
   const texts = read.map((r) =>
-    'unreadable' in r.note ? null : { name: r.note.name, text: bookText(r.note.name, r.text) },
+    'unreadable' in r.note
+      ? null
+      : {
+          name: r.note.name,
+          text: bookText(r.note.name, r.text, (starts) => cells.set(bookName(r.note.name, io.cwd), starts)),
+        },
   );
   let book: RunBook | null = null;
   if (needRunBook(levelsBodies(analyzer, texts))) {
-    book = commandBook(analyzer, readableRoots(paths, io.cwd), spectra);
+    book = commandBook(analyzer, readableRoots(paths, io.cwd), spectra, cells);
     for (const t of texts) if (t) book.setNote(bookName(t.name, io.cwd), t.text);
   }
   const externalsFor = book ? (note: string): Externals => book!.externalsFor(note) : spectra;

@@ -7,7 +7,18 @@
  */
 import { realpathSync, statSync } from 'node:fs';
 import { dirname, resolve, sep } from 'node:path';
-import { decodeUtf8, isNotebookPath, joinCells, notebookCells, RunBook, type Analyzer, type Externals } from '../core';
+import {
+  cellAtLine,
+  cellStarts,
+  decodeUtf8,
+  isNotebookPath,
+  joinCells,
+  notebookCells,
+  RunBook,
+  type Analyzer,
+  type CellLine,
+  type Externals,
+} from '../core';
 import { readNote, STDIN } from './files';
 
 /** The name a note has in the book: its absolute path (standard input: a note in the working folder). */
@@ -15,11 +26,19 @@ export function bookName(name: string, cwd: string): string {
   return name === STDIN ? resolve(cwd, '(standard input).md') : resolve(cwd, name);
 }
 
-/** The text the book indexes for a note: a notebook's Markdown cells one after another. */
-export function bookText(name: string, text: string): string {
+/** Where the Markdown cells of each notebook the book holds start in its text, by the book's name of the note. */
+export type NotebookStarts = Map<string, readonly CellLine[]>;
+
+/**
+ * The text the book indexes for a note: a notebook's Markdown cells one after another (where each starts is
+ * given to `cells`, for the places of its runs).
+ */
+export function bookText(name: string, text: string, cells?: (starts: readonly CellLine[]) => void): string {
   if (!isNotebookPath(name)) return text;
   const nb = notebookCells(text);
-  return nb.problem ? '' : joinCells(nb.cells);
+  if (nb.problem) return '';
+  cells?.(cellStarts(nb.cells));
+  return joinCells(nb.cells);
 }
 
 /** The folders a referenced note may be read from: those given, and the folder of each file given. */
@@ -59,10 +78,15 @@ export function commandBook(
   analyzer: Analyzer,
   roots: readonly string[],
   sources: ((note: string) => Externals | null) | null = null,
+  cells: NotebookStarts = new Map(),
 ): RunBook {
   return new RunBook({
     analyzer,
     ...(sources ? { sources } : {}),
+    cellOf: (note, line) => {
+      const starts = cells.get(note);
+      return starts ? cellAtLine(starts, line) : null;
+    },
     load: (note) => {
       if (!/\.(md|markdown|ipynb)$/i.test(note)) return null;
       let path: string;
@@ -76,7 +100,7 @@ export function commandBook(
       const read = readNote(note, path);
       if (!('bytes' in read)) return null;
       const text = decodeUtf8(read.bytes).text.replace(/^\uFEFF/, '');
-      return bookText(note, text);
+      return bookText(note, text, (starts) => cells.set(note, starts));
     },
   });
 }

@@ -88,9 +88,12 @@ export { BLOCK_KEYS, LEVEL_KEYS, keyFitsForm, type BlockForm, type KeyDoc } from
 export { findFencedBlocks, scanFencedBlocks, bodyToDocument, hasLevelsBlock, type FencedBlock } from './text/fences';
 export {
   isNotebookPath,
+  cellAtLine,
   cellGap,
+  cellStarts,
   joinCells,
   notebookCells,
+  type CellLine,
   type NotebookCell,
   type NotebookCells,
   type NotebookProblem,

@@ -68,6 +68,21 @@ describe('boltzmark: runs by reference', function () {
     }
   });
 
+  it('names a broken run of a notebook by its cell and line, named on the command line or read for a reference', () => {
+    const md = (text: string): object => ({ cell_type: 'markdown', metadata: {}, source: [text] });
+    const code = { cell_type: 'code', metadata: {}, source: ['x = 1'], outputs: [] };
+    // Cell 3 holds the reference with a zero thermal signal: the error is on line 8 of that cell.
+    const cells = [md('# Monday'), code, md(REF.replace('thermal: 1.08e3', 'thermal: 0'))];
+    writeFileSync(join(dir, 'day.ipynb'), JSON.stringify({ cells, metadata: {}, nbformat: 4, nbformat_minor: 5 }));
+    writeFileSync(join(dir, 'run.md'), RUN('day.ipynb#ref-13C Monday'));
+    for (const args of [['run.md', 'day.ipynb'], ['run.md']]) {
+      const { entries } = json(args, dir);
+      const d = entries.find((e) => e.id === 'run 1')!.diagnostics[0]!;
+      assert.equal(d.code, 'reference-invalid');
+      assert.match(d.message, /signal-thermal-zero.*day\.ipynb, cell 3, line 8\)/, args.join(' '));
+    }
+  });
+
   it('reads a referenced note that was not named, inside the folder given', () => {
     mkdirSync(join(dir, 'refs'));
     mkdirSync(join(dir, 'runs'));

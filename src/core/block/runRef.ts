@@ -12,6 +12,7 @@ import { depend, report, type ReadContext } from './values';
 import { splitReference } from '../runs/paths';
 import type { RunFacts, RunPlace, RunRef, RunUse } from '../runs/types';
 import type { Replacement, Span } from '../types';
+import type { CellLine } from '../text/jupyter';
 
 /** True when the node is a `{ run: … }` mapping (whatever its value). */
 export function isRunRefNode(node: TreeNode | null): boolean {
@@ -126,11 +127,12 @@ export function followRun(ctx: ReadContext, ref: RunRef, subject: string): RunFa
       if (run.error || !run.results) {
         const what = run.error ? `${run.error.code}: ${run.error.message.replace(/\.$/, '')}` : 'it gives no results';
         const line = run.error ? run.error.line : run.place.line;
+        const cell = run.error ? run.error.cell : run.place.cell;
         report(
           ctx,
           'error',
           'reference-invalid',
-          `${subject}: the run \`${run.id}\` cannot be used: ${what} (${placeText(from, run.place.note, line)}).`,
+          `${subject}: the run \`${run.id}\` cannot be used: ${what} (${placeText(from, run.place.note, line, cell)}).`,
           ref.span,
         );
         return null;
@@ -140,8 +142,15 @@ export function followRun(ctx: ReadContext, ref: RunRef, subject: string): RunFa
   }
 }
 
-/** Where a run is, for a message: "line 12 of this note" or "ref.md, line 12". */
-export function placeText(from: string, note: string, line: number): string {
+/**
+ * Where a run is, for a message: "line 12 of this note" or "ref.md, line 12"; in a notebook set whole, its cell
+ * and the line in it ("cell 3, line 2 of this notebook", "day.ipynb, cell 3, line 2").
+ */
+export function placeText(from: string, note: string, line: number, cell?: CellLine): string {
+  if (cell) {
+    const at = `cell ${cell.index + 1}, line ${cell.line + 1}`;
+    return note === from ? `${at} of this notebook` : `${shortNote(note)}, ${at}`;
+  }
   return note === from ? `line ${line + 1} of this note` : `${shortNote(note)}, line ${line + 1}`;
 }
 

@@ -7,7 +7,7 @@
 import type { Externals } from '../block/externals';
 import { Analyzer, type BlockReport } from '../analyzer/analyzer';
 import { RunBook } from '../runs/runBook';
-import { cellGap, isNotebookPath, joinCells, notebookCells } from '../text/jupyter';
+import { cellAtLine, cellStarts, isNotebookPath, joinCells, notebookCells, type CellLine } from '../text/jupyter';
 import type { Measured, Status } from '../types';
 import { csvText } from './csv';
 
@@ -70,10 +70,14 @@ export class RunLog {
    * Each notebook's Markdown cells as the book reads them (one note, joined as the command line joins them): each
    * cell's index and the line of the joined text it starts at, for a run's place in its own cell.
    */
-  private readonly cellStarts = new Map<string, readonly { readonly index: number; readonly line: number }[]>();
+  private readonly cellStarts = new Map<string, readonly CellLine[]>();
 
   constructor(private readonly analyzer: Analyzer = new Analyzer()) {
-    this.book = new RunBook({ analyzer, sources: (note) => this.sources.get(note) ?? null });
+    this.book = new RunBook({
+      analyzer,
+      sources: (note) => this.sources.get(note) ?? null,
+      cellOf: (note, line) => this.cellAt(note, line),
+    });
   }
 
   /**
@@ -97,24 +101,20 @@ export class RunLog {
   /** A notebook's Markdown cells as one note, with where each cell starts kept for {@link placeOf}. */
   private joined(uri: string, text: string): string {
     const cells = notebookCells(text).cells;
-    const joined = joinCells(cells);
-    const starts: { index: number; line: number }[] = [];
-    let line = 0;
-    cells.forEach((c, k) => {
-      if (k > 0) line += lineCount(cells[k - 1]!.text);
-      starts.push({ index: c.index, line });
-    });
-    this.cellStarts.set(uri, starts);
-    return joined;
+    this.cellStarts.set(uri, cellStarts(cells));
+    return joinCells(cells);
   }
 
   /** A block's place as the log names it: in a notebook, its cell and the line in that cell. */
   private placeOf(uri: string, line: number): { uri: string; line: number; cell?: number } {
+    const at = this.cellAt(uri, line);
+    return at ? { uri, line: at.line, cell: at.index } : { uri, line };
+  }
+
+  /** The cell and line in it of a line of a notebook the log holds; null for a Markdown note. */
+  private cellAt(uri: string, line: number): CellLine | null {
     const starts = this.cellStarts.get(uri);
-    if (!starts) return { uri, line };
-    let at = starts[0];
-    for (const s of starts) if (s.line <= line) at = s;
-    return at ? { uri, line: line - at.line, cell: at.index } : { uri, line };
+    return starts ? cellAtLine(starts, line) : null;
   }
 
   /** Adds (or takes away) the ids a note's references name. */
@@ -309,15 +309,4 @@ export function runLogCsv(entries: readonly RunEntry[]): string {
       e.cell === null ? null : e.cell + 1,
     ]),
   ]);
-}
-
-/** The line breaks of a cell's text and of the gap after it (core's cellGap) in the joined text. */
-function lineCount(cellText: string): number {
-  return breaks(cellText) + breaks(cellGap(cellText));
-}
-
-function breaks(text: string): number {
-  let n = 0;
-  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
-  return n;
 }

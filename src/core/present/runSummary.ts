@@ -23,9 +23,11 @@ function noteName(note: string): string {
   }
 }
 
-/** `ref.md, line 3`: where a run is defined. */
+/** `ref.md, line 3` (in a notebook `day.ipynb, cell 2, line 4`, 1-based as the command line counts): where a run is defined. */
 export function runPlaceText(place: RunPlace): string {
-  return `${noteName(place.note)}, line ${place.line + 1}`;
+  return place.cell
+    ? `${noteName(place.note)}, cell ${place.cell.index + 1}, line ${place.cell.line + 1}`
+    : `${noteName(place.note)}, line ${place.line + 1}`;
 }
 
 /** `ref-13C Monday, 2026-04-12` (the date only when the run has one). */

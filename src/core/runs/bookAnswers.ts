@@ -11,6 +11,7 @@ import { lineOf, type BookBlock } from './bookBlocks';
 import { nearIds, type BookIndex } from './bookIndex';
 import type { BookStamps } from './bookStamps';
 import { ChainLengths, pathTo } from './referenceGraph';
+import type { CellLine } from '../text/jupyter';
 import {
   runCopiesKey,
   runRefKey,
@@ -29,12 +30,16 @@ export class BookAnswers {
   /** Chain lengths known since the last change. */
   private readonly chains: ChainLengths;
 
-  /** `externalsFor`: the analyzer's sources for a note of the book, to evaluate its blocks with. */
+  /**
+   * `externalsFor`: the analyzer's sources for a note of the book, to evaluate its blocks with; `cellOf`: the
+   * cell and line of a line of a notebook set whole (RunBookOptions.cellOf).
+   */
   constructor(
     private readonly index: BookIndex,
     private readonly stamps: BookStamps,
     private readonly analyzer: Analyzer,
     private readonly externalsFor: (note: string) => Externals,
+    private readonly cellOf: ((note: string, line: number) => CellLine | null) | null = null,
   ) {
     this.chains = new ChainLengths(index.follow);
   }
@@ -80,11 +85,13 @@ export class BookAnswers {
     const memo = this.stamps.evaluated.get(b);
     // The facts name lines: a block moved by an edit above it is evaluated again.
     if (memo && memo.stamp === stamp && memo.line === b.block.openLine) return memo.facts;
-    const place = b.place ?? {
-      note: b.note,
-      span: { start: b.block.openStart, end: b.block.openEnd },
-      line: b.block.openLine,
-    };
+    const place = this.inCell(
+      b.place ?? {
+        note: b.note,
+        span: { start: b.block.openStart, end: b.block.openEnd },
+        line: b.block.openLine,
+      },
+    );
     if (this.chains.of(b, MAX_CHAIN + 1, this.stamps.changes) > MAX_CHAIN) {
       // Evaluated one inside the other, a longer chain could exhaust the stack: refused before it is read.
       const facts: RunFacts = {
@@ -99,6 +106,7 @@ export class BookAnswers {
           message: `its references go more than ${MAX_CHAIN} runs deep; take a value from a run nearer its source`,
           severity: 'error',
           line: place.line,
+          ...(place.cell ? { cell: place.cell } : {}),
         },
       };
       this.stamps.evaluated.set(b, { stamp, facts, line: b.block.openLine });
@@ -106,21 +114,20 @@ export class BookAnswers {
     }
     const c = this.analyzer.analyseBody(b.block.body, this.externalsFor(b.note));
     const first = c.problems.find((p) => p.severity === 'error') ?? null;
+    const errorLine = first ? lineOf(b.block, first.span.start) : 0;
+    const errorCell = first ? (this.cellOf?.(b.note, errorLine) ?? null) : null;
     const error: RunError | null = first
       ? {
           code: first.code,
           message: first.message,
           severity: first.severity,
-          line: lineOf(b.block, first.span.start),
+          line: errorLine,
+          ...(errorCell ? { cell: errorCell } : {}),
         }
       : null;
     const facts: RunFacts = {
       id: b.id ?? '',
-      place: b.place ?? {
-        note: b.note,
-        span: { start: b.block.openStart, end: b.block.openEnd },
-        line: b.block.openLine,
-      },
+      place,
       date: c.meta.date,
       input: c.input,
       results: error ? null : c.results,
@@ -130,5 +137,11 @@ export class BookAnswers {
     // Stamped as read: the runs it reaches were evaluated with it, and the lines where they break are now known.
     this.stamps.evaluated.set(b, { stamp: this.stamps.closure(b), facts, line: b.block.openLine });
     return facts;
+  }
+
+  /** A run's place with its cell and line in it, when the host sets its note as a notebook whole. */
+  private inCell(place: RunPlace): RunPlace {
+    const cell = this.cellOf?.(place.note, place.line) ?? null;
+    return cell ? { ...place, cell } : place;
   }
 }

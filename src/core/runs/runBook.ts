@@ -20,6 +20,7 @@ import { spanToNote } from '../analyzer/report';
 import type { ChangeReach } from './changeLog';
 import type { Externals, KeyChanges } from '../block/externals';
 import type { FencedBlock } from '../text/fences';
+import type { CellLine } from '../text/jupyter';
 import { dependentNotes, referrersOf } from './referenceGraph';
 import type { BookBlock, BookReference } from './bookBlocks';
 import { BookAnswers } from './bookAnswers';
@@ -58,6 +59,11 @@ export interface RunBookOptions {
    * set; the host then keeps the whole note itself out of the book, or its runs would be there twice.
    */
   readonly partOf?: PartOf;
+  /**
+   * For a host that sets a notebook whole (its Markdown cells joined, core's joinCells): the cell and the line in
+   * it of a line of that note, or null; a run's place and its first error then name them (core's cellAtLine).
+   */
+  readonly cellOf?: (note: string, line: number) => CellLine | null;
 }
 
 /**
@@ -84,7 +90,13 @@ export class RunBook implements RunResolver {
       options.partOf ?? null,
     );
     this.stamps = new BookStamps(this.index);
-    this.answers = new BookAnswers(this.index, this.stamps, analyzer, (note) => this.externalsFor(note));
+    this.answers = new BookAnswers(
+      this.index,
+      this.stamps,
+      analyzer,
+      (note) => this.externalsFor(note),
+      options.cellOf ?? null,
+    );
     this.sources = options.sources ?? null;
   }
 

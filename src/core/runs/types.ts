@@ -14,6 +14,7 @@
 import type { BlockInput } from '../block/input';
 import type { BlockResults } from '../analysis/results';
 import type { Severity, Span, Status } from '../types';
+import type { CellLine } from '../text/jupyter';
 
 /** Where a reference stands in its block: `thermal: { run: … }` or `extrapolate.decay: { run: … }`. */
 export type RunUse = 'thermal' | 'decay';
@@ -44,6 +45,8 @@ export interface RunPlace {
   readonly span: Span;
   /** 0-based line of the `id` value in its note. */
   readonly line: number;
+  /** In a notebook the host set whole (its Markdown cells joined): the cell and the line in it (RunBookOptions.cellOf). */
+  readonly cell?: CellLine;
 }
 
 /** The first error of a referenced block: what `reference-invalid` names. */
@@ -53,6 +56,8 @@ export interface RunError {
   readonly severity: Severity;
   /** 0-based line in the referenced block's note. */
   readonly line: number;
+  /** In a notebook set whole: the cell and the line in it. */
+  readonly cell?: CellLine;
 }
 
 /** A referenced run as its analysis left it. */

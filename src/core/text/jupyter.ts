@@ -68,6 +68,46 @@ export function joinCells(cells: readonly { readonly text: string }[]): string {
   return out;
 }
 
+/** A place in a notebook: the cell (0-based index among all cells) and the 0-based line in that cell. */
+export interface CellLine {
+  readonly index: number;
+  readonly line: number;
+}
+
+/** The first line of each Markdown cell in {@link joinCells}' text of them, in order. */
+export function cellStarts(cells: readonly NotebookCell[]): CellLine[] {
+  const out: CellLine[] = [];
+  let line = 0;
+  cells.forEach((c, k) => {
+    if (k > 0) {
+      const before = cells[k - 1]!.text;
+      line += lineBreaks(before) + lineBreaks(cellGap(before));
+    }
+    out.push({ index: c.index, line });
+  });
+  return out;
+}
+
+/** The cell and the line in it of a line of {@link joinCells}' text, given {@link cellStarts}; null without cells. */
+export function cellAtLine(starts: readonly CellLine[], line: number): CellLine | null {
+  let a = 0;
+  let b = starts.length - 1;
+  if (b < 0) return null;
+  while (a < b) {
+    const m = (a + b + 1) >>> 1;
+    if (starts[m]!.line <= line) a = m;
+    else b = m - 1;
+  }
+  const s = starts[a]!;
+  return { index: s.index, line: Math.max(0, line - s.line) };
+}
+
+function lineBreaks(text: string): number {
+  let n = 0;
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
+  return n;
+}
+
 /** True for a path or URI that names a Jupyter notebook. */
 export function isNotebookPath(path: string): boolean {
   return /\.ipynb$/i.test(path);

@@ -35,6 +35,7 @@ import {
   type BookBlock,
   type DisplayOptions,
   type RunFacts,
+  type RunPlace,
   type RunRef,
   type Span,
 } from '../../core';
@@ -312,9 +313,8 @@ export function runCompletion(runs: WorkspaceRuns, state: NoteState, position: P
  * line prints them (`day.ipynb, cell 2, line 4`); in a cell of a notebook open in the editor, whose place among
  * the cells the server is not told, `a cell of day.ipynb, line 4`.
  */
-export function placeWords(runs: WorkspaceRuns, place: { note: string; span: Span; line: number }): string {
-  const cell = runs.cellOf(place.note, place.span.start);
-  if (cell) return `${noteName(place.note)}, cell ${cell.cell}, line ${cell.line + 1}`;
+export function placeWords(place: RunPlace): string {
+  if (place.cell) return `${noteName(place.note)}, cell ${place.cell.index + 1}, line ${place.cell.line + 1}`;
   const notebook = notebookOfCell(place.note);
   if (notebook !== null) return `a cell of ${noteName(notebook)}, line ${place.line + 1}`;
   return `${noteName(place.note)}, line ${place.line + 1}`;
@@ -336,7 +336,7 @@ export function runHover(
   switch (answer.kind) {
     case 'found': {
       const f = answer.run;
-      const where = placeWords(runs, f.place);
+      const where = placeWords(f.place);
       lines.push(`**${what}: ${escapeMarkdown(f.id)}**${f.date ? ` (${escapeMarkdown(f.date)})` : ''}`, '');
       lines.push(`${escapeMarkdown(runLine(f, o))}`, '');
       if (f.error) lines.push(`First error (line ${f.error.line + 1}): ${escapeMarkdown(f.error.message)}`, '');

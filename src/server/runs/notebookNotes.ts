@@ -12,7 +12,7 @@
  * `é`) is not found and takes the place of the line before it: the place is
  * then the nearest line found, never a wrong file.
  */
-import { cellGap, isNotebookPath, LineIndex, notebookCells, type LineCol } from '../../core';
+import { cellGap, cellStarts, isNotebookPath, LineIndex, notebookCells, type CellLine, type LineCol } from '../../core';
 
 /** A notebook as the index holds it. */
 export interface NotebookNote {
@@ -20,8 +20,8 @@ export interface NotebookNote {
   readonly text: string;
   /** The position in the notebook's file of an offset of `text`. */
   place(offset: number): LineCol;
-  /** The cell (1-based among all cells, as the command line counts them) and the 0-based line in it of an offset. */
-  cellOf(offset: number): { readonly cell: number; readonly line: number };
+  /** Where each Markdown cell starts in `text` (core's cellStarts), for the cell and line of a line of it. */
+  readonly starts: readonly CellLine[];
 }
 
 /** True for a note of the index that is a notebook. */
@@ -38,17 +38,13 @@ export function notebookNote(raw: string): NotebookNote {
   const lines: string[] = [];
   const found: number[] = [];
   const exact: boolean[] = [];
-  /** Per line: its cell (1-based) and its line in that cell. */
-  const cellLines: { cell: number; line: number }[] = [];
   let text = '';
   let cursor = 0;
   nb.cells.forEach((cell, k) => {
     // Joined exactly as the command line joins them (src/cli/runs.ts, core's joinCells), empty cells included.
     if (k > 0) text += cellGap(nb.cells[k - 1]!.text);
     let at = text.length;
-    let inCell = 0;
     for (const line of cell.text.split('\n')) {
-      cellLines.push({ cell: cell.index + 1, line: inCell++ });
       const escaped = JSON.stringify(line).slice(1, -1);
       const hit = escaped === '' ? -1 : raw.indexOf(escaped, cursor);
       if (hit >= 0) cursor = hit + escaped.length;
@@ -80,6 +76,5 @@ export function notebookNote(raw: string): NotebookNote {
     const column = Math.max(0, Math.min(offset - starts[a]!, line.length));
     return file.positionAt(found[a]! + JSON.stringify(line.slice(0, column)).length - 2);
   };
-  const cellOf = (offset: number): { cell: number; line: number } => cellLines[lineAt(offset)] ?? { cell: 1, line: 0 };
-  return { text, place, cellOf };
+  return { text, place, starts: cellStarts(nb.cells) };
 }

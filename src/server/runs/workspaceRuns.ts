@@ -13,6 +13,7 @@
  */
 import {
   Analyzer,
+  cellAtLine,
   isInside,
   LineIndex,
   RunBook,
@@ -113,6 +114,10 @@ export class WorkspaceRuns implements ExternalPart {
       analyzer,
       load: (note) => this.loadNow(note),
       partOf: notebookOfCell,
+      cellOf: (note, line) => {
+        const starts = this.texts.get(note)?.notebook?.note.starts;
+        return starts ? cellAtLine(starts, line) : null;
+      },
       ...(sources ? { sources } : {}),
     });
   }
@@ -173,14 +178,6 @@ export class WorkspaceRuns implements ExternalPart {
     if (nb) return { start: nb.note.place(span.start), end: nb.note.place(span.end) };
     const lines = this.linesOf(note);
     return lines ? { start: lines.positionAt(span.start), end: lines.positionAt(span.end) } : null;
-  }
-
-  /**
-   * For a notebook read from its file: the cell (1-based among all cells) and the 0-based line in it of an offset
-   * of the text the book reads; null for any other note.
-   */
-  cellOf(note: string, offset: number): { readonly cell: number; readonly line: number } | null {
-    return this.texts.get(note)?.notebook?.note.cellOf(offset) ?? null;
   }
 
   /** Resolves when the latest walk of the folders is over. */

@@ -1,6 +1,15 @@
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
-import { Analyzer, isNotebookPath, notebookCells, RunLog } from '../../../src/core';
+import {
+  Analyzer,
+  cellAtLine,
+  cellStarts,
+  isNotebookPath,
+  joinCells,
+  notebookCells,
+  RunBook,
+  RunLog,
+} from '../../../src/core';
 import { jsonFault } from '../../../src/core/text/jupyter';
 
 // The notebook format: Jupyter's nbformat 4 (cells with `cell_type` and `source`, a string or a list of lines
@@ -144,5 +153,45 @@ describe('Jupyter notebooks', () => {
       direct,
     );
     assert.ok(direct.length >= 2);
+  });
+
+  it('finds each line of the joined cells in its own cell, whatever the cells leave open', () => {
+    // Random cells: blank lines, unclosed fences and `<!--` (which add closing lines to the gap), empty cells.
+    const pieces = ['text', '', '```levels', 'id: x', '<!--', '~~~~', '```', '-->', '    indented'];
+    let seed = 7;
+    const next = (n: number): number => ((seed = (seed * 1103515245 + 12345) % 2147483648), seed % n);
+    for (let trial = 0; trial < 300; trial++) {
+      const cells = Array.from({ length: 1 + next(5) }, (_, k) => ({
+        index: 2 * k + next(2),
+        text: Array.from({ length: next(6) }, () => pieces[next(pieces.length)]!).join('\n'),
+      }));
+      const joined = joinCells(cells).split('\n');
+      const starts = cellStarts(cells);
+      cells.forEach((c, k) =>
+        c.text.split('\n').forEach((line, j) => {
+          const at = starts[k]!.line + j;
+          assert.equal(joined[at], line, `trial ${trial}, cell ${k}, line ${j}`);
+          assert.deepEqual(cellAtLine(starts, at), { index: c.index, line: j });
+        }),
+      );
+    }
+  });
+
+  it('names a run of a notebook by its cell and line where a reference cannot use it', () => {
+    // Invented notes: cell 3 (index 2) holds a broken run on its second line's fence; the note refers to it.
+    const cells = [
+      { index: 0, text: '# Day' },
+      { index: 2, text: 'Broken:\n```levels\nid: bad run\nsystem: 13C\nfield: 3 MT\nsignal:\n  thermal: 1e3\n```' },
+    ];
+    const starts = cellStarts(cells);
+    const book = new RunBook({ cellOf: (note, line) => (note === '/lab/day.ipynb' ? cellAtLine(starts, line) : null) });
+    book.setNote('/lab/day.ipynb', joinCells(cells));
+    const note =
+      '```levels\nid: run 1\nsystem: 13C\nfield: 3 T\nsignal:\n  hyperpolarized: 2e6\n  thermal: { run: day.ipynb#bad run }\n```\n';
+    book.setNote('/lab/run.md', note);
+    const [b] = new Analyzer().analyzeText(note, book.externalsFor('/lab/run.md')).blocks;
+    const p = b!.problems.find((x) => x.code === 'reference-invalid')!;
+    // The first error, `field`'s unit, is on line 5 of cell 3.
+    assert.match(p.message, /\(day\.ipynb, cell 3, line 5\)/);
   });
 });
