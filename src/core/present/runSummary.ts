@@ -7,27 +7,18 @@
  */
 import type { BlockResults } from '../analysis/results';
 import type { BlockInput } from '../block/input';
+import { shortNote } from '../block/runRef';
 import type { RunPlace } from '../runs/types';
 import type { DisplayOptions } from './displayOptions';
 import { formatFraction, formatMeasured, formatPlainNumber } from './numbers';
 
 type Row = readonly [string, string];
 
-/** The last segment of a note's path or URI, decoded. */
-function noteName(note: string): string {
-  const last = note.split(/[/\\]/).pop() ?? note;
-  try {
-    return decodeURIComponent(last);
-  } catch {
-    return last;
-  }
-}
-
 /** `ref.md, line 3` (in a notebook `day.ipynb, cell 2, line 4`, 1-based as the command line counts): where a run is defined. */
 export function runPlaceText(place: RunPlace): string {
   return place.cell
-    ? `${noteName(place.note)}, cell ${place.cell.index + 1}, line ${place.cell.line + 1}`
-    : `${noteName(place.note)}, line ${place.line + 1}`;
+    ? `${shortNote(place.note)}, cell ${place.cell.index + 1}, line ${place.cell.line + 1}`
+    : `${shortNote(place.note)}, line ${place.line + 1}`;
 }
 
 /** `ref-13C Monday, 2026-04-12` (the date only when the run has one). */

@@ -7,10 +7,12 @@ import {
   reportEntry,
   resultsHtml,
   RunBook,
+  runPlaceText,
   DEFAULT_DISPLAY,
   type BlockReport,
 } from '../../../src/core';
 import { dayRefBlock, extrapolatedRun } from '../../support/runNotes';
+import { shortNote } from '../../../src/core/block/runRef';
 
 // How referenced values are shown. Invented numbers: the checks are about the wording and the escaping.
 const REF = (id = 'ref-13C Monday'): string => dayRefBlock(id);
@@ -77,5 +79,19 @@ describe('runs by reference: what the hosts show', () => {
     assert.equal(e.polarizationAt!.from, 42);
     assert.deepEqual(e.polarizationAt!.decay, { value: 47.9, uncertainty: 1.2, run: null });
     assert.equal(e.polarizationAt!.value, block.results!.polarizationAt!.value);
+  });
+});
+
+describe('runs by reference: the names of notes in messages', () => {
+  it('names a note by its file, never by a URI fragment, and keeps every character of a plain path', () => {
+    // A notebook cell's URI (VS Code's) names the cell in its fragment; the run is in `day.ipynb`.
+    assert.equal(shortNote('vscode-notebook-cell:/lab/day.ipynb#W1sZmlsZQ%3D%3D'), 'day.ipynb');
+    assert.equal(shortNote('file:///lab/run%20%231.md'), 'run #1.md');
+    assert.equal(shortNote('/lab/run #1.md'), 'run #1.md');
+    assert.equal(shortNote('C:\\lab\\a#b.md'), 'a#b.md');
+    assert.equal(
+      runPlaceText({ note: 'vscode-notebook-cell:/lab/day.ipynb#W1s', span: { start: 0, end: 1 }, line: 3 }),
+      'day.ipynb, line 4',
+    );
   });
 });
