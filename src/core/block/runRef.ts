@@ -9,7 +9,9 @@
 import type { TreeNode } from './tree';
 import { deref, entries, isMap, isScalar, spanOf } from './yamlTree';
 import { depend, report, type ReadContext } from './values';
-import { splitReference } from '../runs/paths';
+import { shortNote, splitReference } from '../runs/paths';
+
+export { shortNote };
 import type { RunFacts, RunPlace, RunRef, RunUse } from '../runs/types';
 import type { Replacement, Span } from '../types';
 import type { CellLine } from '../text/jupyter';
@@ -157,17 +159,4 @@ export function placeText(from: string, note: string, line: number, cell?: CellL
 /** A run's place as the contract's wording shows it (a note's last path segment). */
 export function placeOf(place: RunPlace): string {
   return shortNote(place.note);
-}
-
-/** The last segment of a note's path or URI, decoded. */
-export function shortNote(note: string): string {
-  // A URI's query and fragment are not the note's name (a notebook cell's URI names its cell in the fragment); in a
-  // URI a `#` of a file name is written `%23`. A plain path (the command line's) keeps every character.
-  const path = /^[a-z][a-z0-9+.-]+:/i.test(note) && !/^[a-z]:[\\/]/i.test(note) ? note.replace(/[?#].*$/, '') : note;
-  const last = path.split(/[/\\]/).pop() ?? path;
-  try {
-    return decodeURIComponent(last);
-  } catch {
-    return last;
-  }
 }

@@ -7,7 +7,7 @@
  */
 import type { BlockResults } from '../analysis/results';
 import type { BlockInput } from '../block/input';
-import { shortNote } from '../block/runRef';
+import { shortNote } from '../runs/paths';
 import type { RunPlace } from '../runs/types';
 import type { DisplayOptions } from './displayOptions';
 import { formatFraction, formatMeasured, formatPlainNumber } from './numbers';

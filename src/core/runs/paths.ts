@@ -75,3 +75,16 @@ export function isInside(note: string, root: string): boolean {
   const n = note.replace(/\\/g, '/');
   return n.startsWith(r + '/');
 }
+
+/** The last segment of a note's path or URI, decoded. */
+export function shortNote(note: string): string {
+  // A URI's query and fragment are not the note's name (a notebook cell's URI names its cell in the fragment); in a
+  // URI a `#` of a file name is written `%23`. A plain path (the command line's) keeps every character.
+  const path = /^[a-z][a-z0-9+.-]+:/i.test(note) && !/^[a-z]:[\\/]/i.test(note) ? note.replace(/[?#].*$/, '') : note;
+  const last = path.split(/[/\\]/).pop() ?? path;
+  try {
+    return decodeURIComponent(last);
+  } catch {
+    return last;
+  }
+}
