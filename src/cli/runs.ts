@@ -8,7 +8,6 @@
 import { realpathSync, statSync } from 'node:fs';
 import { dirname, resolve, sep } from 'node:path';
 import {
-  cellAtLine,
   cellStarts,
   decodeUtf8,
   isNotebookPath,
@@ -83,10 +82,7 @@ export function commandBook(
   return new RunBook({
     analyzer,
     ...(sources ? { sources } : {}),
-    cellOf: (note, line) => {
-      const starts = cells.get(note);
-      return starts ? cellAtLine(starts, line) : null;
-    },
+    cellStarts: (note) => cells.get(note) ?? null,
     load: (note) => {
       if (!/\.(md|markdown|ipynb)$/i.test(note)) return null;
       let path: string;

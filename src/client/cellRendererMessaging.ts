@@ -10,6 +10,7 @@
 import * as vscode from 'vscode';
 import { displayOptions } from './display';
 import { noteReader } from './loadNoteReader';
+import { refersOut } from './refersOut';
 import type { PreviewSources } from './runLogView';
 
 /** The renderer's id in package.json (`contributes.notebookRenderer`). */
@@ -27,7 +28,7 @@ export function registerCellRendererMessaging(sources: () => PreviewSources | nu
       .getCells()
       .filter((c) => c.kind === vscode.NotebookCellKind.Markup)
       .map((c) => c.document.getText());
-    return texts.some((t) => t.includes('run:') || t.includes('spectrum')) ? texts : null;
+    return texts.some(refersOut) ? texts : null;
   };
   const message = (editor: vscode.NotebookEditor): object => {
     const texts = referring(editor.notebook);

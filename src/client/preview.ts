@@ -13,6 +13,7 @@ import {
   type Externals,
   type PreviewBlock,
 } from '../core';
+import { refersOut } from './refersOut';
 
 /**
  * Options: which fences are ours and how numbers are shown, for the note
@@ -80,11 +81,6 @@ export function unfollowedHtml(report: PreviewBlock): string {
     `<span class="boltzmark-status">takes values from other runs</span></p>` +
     `<p class="boltzmark-unfollowed">${named ? `From ${named}: n` : 'N'}ot read here yet; the block's hover in the editor shows its results.</p></div>`
   );
-}
-
-/** Whether a block body may take values from outside (another run, a spectrum file): only those ask for sources. */
-export function refersOut(body: string): boolean {
-  return body.includes('run:') || body.includes('spectrum');
 }
 
 /** A short key of a block body (FNV-1a, 32 bits, hex): names the results made elsewhere for it. */

@@ -16,7 +16,7 @@ import { readSeries } from './series';
 import { KeySpans } from './keySpans';
 import { unknownKey } from './unknownKey';
 import { readExtrapolate } from './extrapolate';
-import { shortNote } from './runRef';
+import { shortNote } from '../runs/paths';
 import type { RunRef } from '../runs/types';
 import {
   insideBody,

@@ -10,8 +10,6 @@ import type { TreeNode } from './tree';
 import { deref, entries, isMap, isScalar, spanOf } from './yamlTree';
 import { depend, report, type ReadContext } from './values';
 import { shortNote, splitReference } from '../runs/paths';
-
-export { shortNote };
 import type { RunFacts, RunPlace, RunRef, RunUse } from '../runs/types';
 import type { Replacement, Span } from '../types';
 import type { CellLine } from '../text/jupyter';

@@ -7,7 +7,15 @@
 import type { Externals } from '../block/externals';
 import { Analyzer, type BlockReport } from '../analyzer/analyzer';
 import { RunBook } from '../runs/runBook';
-import { cellAtLine, cellStarts, isNotebookPath, joinCells, notebookCells, type CellLine } from '../text/jupyter';
+import {
+  cellAtLine,
+  cellStarts,
+  isNotebookPath,
+  joinCells,
+  notebookCells,
+  type CellLine,
+  type NotebookCell,
+} from '../text/jupyter';
 import type { Measured, Status } from '../types';
 import { csvText } from './csv';
 
@@ -67,16 +75,19 @@ export class RunLog {
   /** Each note's other sources of values by reference (spectrum files), as its host last gave them. */
   private readonly sources = new Map<string, Externals>();
   /**
-   * Each notebook's Markdown cells as the book reads them (one note, joined as the command line joins them): each
-   * cell's index and the line of the joined text it starts at, for a run's place in its own cell.
+   * Each notebook's Markdown cells (read once per update, for the book and for each reading of the notebook), and
+   * where each starts in the joined text the book reads (one note, joined as the command line joins them).
    */
-  private readonly cellStarts = new Map<string, readonly CellLine[]>();
+  private readonly notebooks = new Map<
+    string,
+    { readonly cells: readonly NotebookCell[]; readonly starts: readonly CellLine[] }
+  >();
 
   constructor(private readonly analyzer: Analyzer = new Analyzer()) {
     this.book = new RunBook({
       analyzer,
       sources: (note) => this.sources.get(note) ?? null,
-      cellOf: (note, line) => this.cellAt(note, line),
+      cellStarts: (note) => this.notebooks.get(note)?.starts ?? null,
     });
   }
 
@@ -98,10 +109,10 @@ export class RunLog {
     return this.readAgain(uri, before);
   }
 
-  /** A notebook's Markdown cells as one note, with where each cell starts kept for {@link placeOf}. */
+  /** A notebook's Markdown cells as one note, the cells and where each starts kept for the readings. */
   private joined(uri: string, text: string): string {
     const cells = notebookCells(text).cells;
-    this.cellStarts.set(uri, cellStarts(cells));
+    this.notebooks.set(uri, { cells, starts: cellStarts(cells) });
     return joinCells(cells);
   }
 
@@ -113,7 +124,7 @@ export class RunLog {
 
   /** The cell and line in it of a line of a notebook the log holds; null for a Markdown note. */
   private cellAt(uri: string, line: number): CellLine | null {
-    const starts = this.cellStarts.get(uri);
+    const starts = this.notebooks.get(uri)?.starts;
     return starts ? cellAtLine(starts, line) : null;
   }
 
@@ -186,8 +197,9 @@ export class RunLog {
       polarizationInterval: b.results?.intervals.polarization ?? null,
       uses: uses(b),
     });
-    const entries: RunEntry[] = isNotebookPath(uri)
-      ? notebookCells(text).cells.flatMap((c) =>
+    const notebook = this.notebooks.get(uri);
+    const entries: RunEntry[] = notebook
+      ? notebook.cells.flatMap((c) =>
           this.analyzer.analyzeText(c.text, this.book.externalsFor(uri)).blocks.map((b) => entry(b, c.index)),
         )
       : this.analyzer.analyzeText(text, this.book.externalsFor(uri)).blocks.map((b) => entry(b, null));
@@ -214,7 +226,7 @@ export class RunLog {
     this.count(uri, -1);
     this.texts.delete(uri);
     this.sources.delete(uri);
-    this.cellStarts.delete(uri);
+    this.notebooks.delete(uri);
     this.book.deleteNote(uri);
     const had = this.notes.delete(uri);
     return this.readAgain(uri, before) || had;

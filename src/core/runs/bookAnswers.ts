@@ -11,7 +11,7 @@ import { lineOf, type BookBlock } from './bookBlocks';
 import { nearIds, type BookIndex } from './bookIndex';
 import type { BookStamps } from './bookStamps';
 import { ChainLengths, pathTo } from './referenceGraph';
-import type { CellLine } from '../text/jupyter';
+import { cellAtLine, type CellLine } from '../text/jupyter';
 import {
   runCopiesKey,
   runRefKey,
@@ -31,15 +31,15 @@ export class BookAnswers {
   private readonly chains: ChainLengths;
 
   /**
-   * `externalsFor`: the analyzer's sources for a note of the book, to evaluate its blocks with; `cellOf`: the
-   * cell and line of a line of a notebook set whole (RunBookOptions.cellOf).
+   * `externalsFor`: the analyzer's sources for a note of the book, to evaluate its blocks with; `cellStarts`:
+   * where the cells of a notebook set whole start (RunBookOptions.cellStarts).
    */
   constructor(
     private readonly index: BookIndex,
     private readonly stamps: BookStamps,
     private readonly analyzer: Analyzer,
     private readonly externalsFor: (note: string) => Externals,
-    private readonly cellOf: ((note: string, line: number) => CellLine | null) | null = null,
+    private readonly cellStarts: ((note: string) => readonly CellLine[] | null) | null = null,
   ) {
     this.chains = new ChainLengths(index.follow);
   }
@@ -115,7 +115,7 @@ export class BookAnswers {
     const c = this.analyzer.analyseBody(b.block.body, this.externalsFor(b.note));
     const first = c.problems.find((p) => p.severity === 'error') ?? null;
     const errorLine = first ? lineOf(b.block, first.span.start) : 0;
-    const errorCell = first ? (this.cellOf?.(b.note, errorLine) ?? null) : null;
+    const errorCell = first ? this.cellOf(b.note, errorLine) : null;
     const error: RunError | null = first
       ? {
           code: first.code,
@@ -141,7 +141,13 @@ export class BookAnswers {
 
   /** A run's place with its cell and line in it, when the host sets its note as a notebook whole. */
   private inCell(place: RunPlace): RunPlace {
-    const cell = this.cellOf?.(place.note, place.line) ?? null;
+    const cell = this.cellOf(place.note, place.line);
     return cell ? { ...place, cell } : place;
+  }
+
+  /** The cell and the line in it of a line of a notebook set whole; null for another note. */
+  private cellOf(note: string, line: number): CellLine | null {
+    const starts = this.cellStarts?.(note) ?? null;
+    return starts ? cellAtLine(starts, line) : null;
   }
 }

@@ -60,10 +60,11 @@ export interface RunBookOptions {
    */
   readonly partOf?: PartOf;
   /**
-   * For a host that sets a notebook whole (its Markdown cells joined, core's joinCells): the cell and the line in
-   * it of a line of that note, or null; a run's place and its first error then name them (core's cellAtLine).
+   * For a host that sets a notebook whole (its Markdown cells joined, core's joinCells): where each cell starts in
+   * that note (core's cellStarts), or null for another note; a run's place and its first error then name their
+   * cell and the line in it.
    */
-  readonly cellOf?: (note: string, line: number) => CellLine | null;
+  readonly cellStarts?: (note: string) => readonly CellLine[] | null;
 }
 
 /**
@@ -95,7 +96,7 @@ export class RunBook implements RunResolver {
       this.stamps,
       analyzer,
       (note) => this.externalsFor(note),
-      options.cellOf ?? null,
+      options.cellStarts ?? null,
     );
     this.sources = options.sources ?? null;
   }

@@ -45,7 +45,7 @@ export interface RunPlace {
   readonly span: Span;
   /** 0-based line of the `id` value in its note. */
   readonly line: number;
-  /** In a notebook the host set whole (its Markdown cells joined): the cell and the line in it (RunBookOptions.cellOf). */
+  /** In a notebook the host set whole (its Markdown cells joined): the cell and the line in it (RunBookOptions.cellStarts). */
   readonly cell?: CellLine;
 }
 

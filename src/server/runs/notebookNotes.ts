@@ -56,21 +56,16 @@ export function notebookNote(raw: string): NotebookNote {
     }
     text += cell.text;
   });
-  /** The last line that starts at or before the offset (-1 for a notebook without Markdown lines). */
-  const lineAt = (offset: number): number => {
+  const place = (offset: number): LineCol => {
+    // The last line that starts at or before the offset.
     let a = 0;
     let b = starts.length - 1;
-    if (b < 0) return -1;
+    if (b < 0) return { line: 0, character: 0 };
     while (a < b) {
       const m = (a + b + 1) >>> 1;
       if (starts[m]! <= offset) a = m;
       else b = m - 1;
     }
-    return a;
-  };
-  const place = (offset: number): LineCol => {
-    const a = lineAt(offset);
-    if (a < 0) return { line: 0, character: 0 };
     if (!exact[a]) return file.positionAt(found[a]!);
     const line = lines[a]!;
     const column = Math.max(0, Math.min(offset - starts[a]!, line.length));

@@ -13,7 +13,6 @@
  */
 import {
   Analyzer,
-  cellAtLine,
   isInside,
   LineIndex,
   RunBook,
@@ -114,10 +113,7 @@ export class WorkspaceRuns implements ExternalPart {
       analyzer,
       load: (note) => this.loadNow(note),
       partOf: notebookOfCell,
-      cellOf: (note, line) => {
-        const starts = this.texts.get(note)?.notebook?.note.starts;
-        return starts ? cellAtLine(starts, line) : null;
-      },
+      cellStarts: (note) => this.texts.get(note)?.notebook?.note.starts ?? null,
       ...(sources ? { sources } : {}),
     });
   }

@@ -12,7 +12,7 @@ import {
   type BlockReport,
 } from '../../../src/core';
 import { dayRefBlock, extrapolatedRun } from '../../support/runNotes';
-import { shortNote } from '../../../src/core/block/runRef';
+import { shortNote } from '../../../src/core/runs/paths';
 
 // How referenced values are shown. Invented numbers: the checks are about the wording and the escaping.
 const REF = (id = 'ref-13C Monday'): string => dayRefBlock(id);

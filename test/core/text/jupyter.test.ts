@@ -184,7 +184,7 @@ describe('Jupyter notebooks', () => {
       { index: 2, text: 'Broken:\n```levels\nid: bad run\nsystem: 13C\nfield: 3 MT\nsignal:\n  thermal: 1e3\n```' },
     ];
     const starts = cellStarts(cells);
-    const book = new RunBook({ cellOf: (note, line) => (note === '/lab/day.ipynb' ? cellAtLine(starts, line) : null) });
+    const book = new RunBook({ cellStarts: (note) => (note === '/lab/day.ipynb' ? starts : null) });
     book.setNote('/lab/day.ipynb', joinCells(cells));
     const note =
       '```levels\nid: run 1\nsystem: 13C\nfield: 3 T\nsignal:\n  hyperpolarized: 2e6\n  thermal: { run: day.ipynb#bad run }\n```\n';
